@@ -1,0 +1,25 @@
+import type { EntityManager } from '@mikro-orm/postgresql';
+import { Organization } from '../server/modules/organizations/organization.entity';
+import { createMember, createShop } from './factories';
+
+/** The invented demo shops. Every name here is made up; e-mail domains are `.example`. */
+export const DEMO_USERS = [
+  { email: 'admin@alder-row.example', name: 'Rhea Castellan', role: 'admin' },
+  { email: 'safety@alder-row.example', name: 'Tomas Verhoek', role: 'safety' },
+  { email: 'tech@alder-row.example', name: 'Imani Oduya', role: 'technician' },
+  { email: 'operator@alder-row.example', name: 'Dario Fenwick', role: 'operator' },
+] as const;
+
+export type SeedStep = (em: EntityManager, shop: { id: string; timeZone: string }) => Promise<void>;
+/** Feature modules add their demo data here (machines, history …). */
+export const demoSteps: SeedStep[] = [];
+
+export async function seedDemo(em: EntityManager): Promise<boolean> {
+  if (await em.findOne(Organization, { slug: 'alder-row' }, { filters: false })) return false;
+  const alder = await createShop(em, { name: 'Alder Row Sheetworks', slug: 'alder-row', timeZone: 'America/Chicago' });
+  for (const u of DEMO_USERS) await createMember(em, alder, u);
+  const birch = await createShop(em, { name: 'Birch Yard Fabrication', slug: 'birch-yard', timeZone: 'Europe/Berlin' });
+  await createMember(em, birch, { email: 'admin@birch-yard.example', name: 'Saoirse Lindqvist', role: 'admin' });
+  for (const step of demoSteps) await step(em, alder);
+  return true;
+}

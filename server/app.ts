@@ -1,0 +1,85 @@
+import express, { type Express } from 'express';
+import helmet from 'helmet';
+import { pinoHttp } from 'pino-http';
+import pg from 'pg';
+import { existsSync } from 'node:fs';
+import path from 'node:path';
+import { RequestContext, type MikroORM } from '@mikro-orm/postgresql';
+import type { Config } from './config';
+import { createApiRouter, type Access, type ApiRouter } from './http/route';
+import { createSessionMiddleware, csrfProtection, destroy } from './http/session';
+import { errorHandler } from './http/error-handler';
+import { notFound } from './http/errors';
+import { loadPrincipal } from './modules/auth/auth.service';
+import { registerAuthRoutes } from './modules/auth/auth.routes';
+import { registerUserRoutes } from './modules/users/users.routes';
+import { registerHealthRoutes } from './modules/health/health.routes';
+import { registerDevInboxRoutes } from './modules/dev-inbox/dev-inbox.routes';
+import { registerAuditRoutes } from './modules/audit/audit.routes';
+import type { FakeSmtp } from './mail/fake-smtp';
+import { logger } from './logger';
+
+export type AppDeps = { orm: MikroORM; config: Config; smtp?: FakeSmtp | null };
+export type AppHandle = { app: Express; api: ApiRouter; routeAccess: Map<string, Access>; close: () => Promise<void> };
+
+/** Builds the app without listening, so tests can drive it with supertest. */
+export function createApp({ orm, config, smtp = null }: AppDeps): AppHandle {
+  const app = express();
+  const pool = new pg.Pool({ connectionString: config.DATABASE_URL, max: 5 });
+
+  if (config.TRUST_PROXY) app.set('trust proxy', /^\d+$/.test(config.TRUST_PROXY) ? Number(config.TRUST_PROXY) : config.TRUST_PROXY);
+  app.disable('x-powered-by');
+  app.use(
+    helmet({
+      contentSecurityPolicy: {
+        directives: {
+          'img-src': ["'self'", 'data:', 'blob:'],
+          // Served over plain HTTP on 127.0.0.1 in development; a TLS proxy adds HSTS in production.
+          'upgrade-insecure-requests': null,
+        },
+      },
+    }),
+  );
+  app.use(pinoHttp({ logger, autoLogging: { ignore: (req) => !req.url?.startsWith('/api') } }));
+  app.use(express.json({ limit: '1mb' }));
+  app.use((_req, _res, next) => RequestContext.create(orm.em, next));
+
+  const api = createApiRouter();
+  api.use(createSessionMiddleware(config, pool));
+  api.use(async (req, _res, next) => {
+    const s = req.session;
+    if (!s?.userId || !s.orgId) return next();
+    if (s.signedInAt && Date.now() - s.signedInAt > config.SESSION_ABSOLUTE_HOURS * 3600_000) {
+      await destroy(req); // absolute timeout: sign in again after a shift
+      return next();
+    }
+    const em = RequestContext.getEntityManager()!;
+    const principal = await loadPrincipal(em as never, s.userId, s.orgId);
+    if (principal) {
+      req.principal = principal;
+      em.setFilterParams('org', { orgId: principal.orgId });
+    }
+    next();
+  });
+  api.use(csrfProtection);
+
+  registerHealthRoutes(api, orm);
+  registerAuthRoutes(api, config);
+  registerUserRoutes(api, config);
+  registerAuditRoutes(api);
+  registerDevInboxRoutes(api, config.MAIL_CAPTURE ? smtp : null);
+
+  api.use(() => {
+    throw notFound('API route');
+  });
+  app.use('/api', api);
+
+  const dist = path.resolve('dist');
+  if (existsSync(path.join(dist, 'index.html'))) {
+    app.use(express.static(dist, { index: false, maxAge: '1h' }));
+    app.get('/{*splat}', (_req, res) => res.sendFile(path.join(dist, 'index.html')));
+  }
+  app.use(errorHandler);
+
+  return { app, api, routeAccess: api.routeAccess, close: () => pool.end() };
+}

@@ -1,0 +1,7 @@
+// Every entity the ORM knows about. A feature module adds its entities here.
+import { Organization } from './modules/organizations/organization.entity';
+import { User, Membership, UserToken } from './modules/users/user.entity';
+import { AuditEvent } from './modules/audit/audit-event.entity';
+import { OutboxMail } from './mail/outbox.entity';
+
+export const entities = [Organization, User, Membership, UserToken, AuditEvent, OutboxMail];

@@ -1,0 +1,33 @@
+import type { Role } from '../../shared/permissions';
+
+export type Principal = {
+  userId: string;
+  orgId: string;
+  role: Role;
+  name: string;
+  email: string;
+};
+
+declare module 'express-session' {
+  interface SessionData {
+    userId?: string;
+    orgId?: string;
+    csrfToken?: string;
+    /** When the user signed in; the absolute timeout counts from here. */
+    signedInAt?: number;
+  }
+}
+
+declare global {
+  // eslint-disable-next-line @typescript-eslint/no-namespace
+  namespace Express {
+    interface Request {
+      principal?: Principal;
+    }
+  }
+}
+
+export function requirePrincipal(req: Express.Request): Principal {
+  if (!req.principal) throw new Error('requirePrincipal() on a route without sign-in');
+  return req.principal;
+}

@@ -1,0 +1,54 @@
+import { loadConfig } from './config';
+import { initORM, closeORM } from './db';
+import { createApp } from './app';
+import { FakeSmtp } from './mail/fake-smtp';
+import { createTransport } from './mail/transport';
+import { startOutboxSender } from './mail/sender';
+import { startScheduler } from './jobs/scheduler';
+import { logger } from './logger';
+
+async function main() {
+  const config = loadConfig();
+  const orm = await initORM(config.DATABASE_URL);
+  const applied = await orm.getMigrator().up();
+  if (applied.length) logger.info({ migrations: applied.map((m) => m.name) }, 'migrations applied');
+
+  const smtp = config.MAIL_CAPTURE ? new FakeSmtp(config.SMTP_PORT) : null;
+  if (smtp) await smtp.start();
+  const transport = createTransport(config);
+  const stopSender = startOutboxSender(orm, transport, config.MAIL_FROM, 3_000, (msg, err) => (err ? logger.warn({ err }, msg) : logger.info(msg)));
+  const task = startScheduler(orm, config.JOB_SCHEDULE);
+
+  const { app, close } = createApp({ orm, config, smtp });
+  const server = app.listen(config.PORT, config.HOST, () => {
+    console.log(`\nKerfbook is running at ${config.APP_URL}`);
+    if (smtp) console.log(`Dev inbox (captured e-mail): ${config.APP_URL}/dev/inbox   (fake SMTP on 127.0.0.1:${config.SMTP_PORT})`);
+    console.log('Demo sign-ins (demo only, password kerfbook-demo):');
+    for (const who of ['admin', 'safety', 'tech', 'operator']) console.log(`  ${who}@alder-row.example`);
+    console.log('  admin@birch-yard.example (a second shop)\nPress Ctrl-C to stop.\n');
+  });
+
+  let stopping = false;
+  const shutdown = async (signal: string) => {
+    if (stopping) return;
+    stopping = true;
+    logger.info({ signal }, 'shutting down');
+    // Stop accepting; in-flight requests finish, idle keep-alive sockets close.
+    const closed = new Promise<void>((resolve) => server.close(() => resolve()));
+    server.closeIdleConnections();
+    await task.stop();
+    await stopSender();
+    await closed;
+    await close();
+    await smtp?.stop();
+    await closeORM();
+    process.exit(0);
+  };
+  process.on('SIGINT', () => void shutdown('SIGINT'));
+  process.on('SIGTERM', () => void shutdown('SIGTERM'));
+}
+
+main().catch((err) => {
+  console.error('Kerfbook failed to start:', err instanceof Error ? err.message : err);
+  process.exit(1);
+});

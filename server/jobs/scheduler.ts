@@ -1,0 +1,45 @@
+import cron, { type ScheduledTask } from 'node-cron';
+import type { MikroORM } from '@mikro-orm/postgresql';
+import { LOCKS, withAdvisoryLock } from './advisory-lock';
+import { logger } from '../logger';
+
+export type JobStep = { name: string; run: (orm: MikroORM, now: Date) => Promise<Record<string, number>> };
+
+const steps: JobStep[] = [
+  {
+    name: 'expire-tokens',
+    async run(orm, now) {
+      const removed = await orm.em.getConnection().execute(`delete from user_token where used_at is null and expires_at < ?`, [now], 'run');
+      return { expiredTokensRemoved: Number((removed as { affectedRows?: number }).affectedRows ?? 0) };
+    },
+  },
+];
+
+/** Feature modules add their steps (the due engine, digests …). */
+export function registerJobStep(step: JobStep) {
+  if (!steps.some((s) => s.name === step.name)) steps.push(step);
+}
+
+/** One scheduled pass over every step, under the advisory lock. */
+export async function runScheduledPass(orm: MikroORM, now = new Date()) {
+  return withAdvisoryLock(orm, LOCKS.scheduledPass, async () => {
+    const results: Record<string, Record<string, number> | { error: string }> = {};
+    for (const step of steps) {
+      try {
+        results[step.name] = await step.run(orm, now);
+      } catch (err) {
+        logger.error({ err, step: step.name }, 'scheduled step failed');
+        results[step.name] = { error: err instanceof Error ? err.message : String(err) };
+      }
+    }
+    return results;
+  });
+}
+
+export function startScheduler(orm: MikroORM, schedule: string): ScheduledTask {
+  if (!cron.validate(schedule)) throw new Error(`JOB_SCHEDULE is not a valid cron expression: ${schedule}`);
+  return cron.schedule(schedule, async () => {
+    const result = await runScheduledPass(orm).catch((err) => logger.error({ err }, 'scheduled pass failed'));
+    if (result === null) logger.info('scheduled pass skipped: another instance holds the lock');
+  }, { noOverlap: true, name: 'kerfbook-pass' });
+}

@@ -1,0 +1,87 @@
+import { rateLimit, ipKeyGenerator } from 'express-rate-limit';
+import type { ApiRouter } from '../../http/route';
+import { route } from '../../http/route';
+import { requestEm } from '../../db';
+import { loginSchema, requestResetSchema, tokenPasswordSchema } from '../../../shared/schemas/auth';
+import { authenticate, redeemToken, requestPasswordReset } from './auth.service';
+import { destroy, ensureCsrfToken, regenerate, save, SESSION_COOKIE } from '../../http/session';
+import { requirePrincipal } from '../../http/principal';
+import type { Config } from '../../config';
+import { recordAudit } from '../audit/audit';
+import type { EntityManager } from '@mikro-orm/postgresql';
+import { Organization } from '../organizations/organization.entity';
+
+function tooMany(message: string) {
+  return { error: 'too_many_requests', message };
+}
+
+export function registerAuthRoutes(r: ApiRouter, config: Config) {
+  const perAddress = rateLimit({
+    windowMs: 15 * 60_000,
+    limit: config.LOGIN_LIMIT_PER_ADDRESS,
+    standardHeaders: 'draft-8',
+    legacyHeaders: false,
+    keyGenerator: (req) => ipKeyGenerator(req.ip ?? 'unknown'),
+    message: tooMany('Too many sign-in attempts from this address. Wait 15 minutes and try again.'),
+  });
+  // Only failures count against an account, so a user who signs in often is not locked out.
+  const perAccount = rateLimit({
+    windowMs: 15 * 60_000,
+    limit: config.LOGIN_LIMIT_PER_ACCOUNT,
+    skipSuccessfulRequests: true,
+    standardHeaders: 'draft-8',
+    legacyHeaders: false,
+    keyGenerator: (req) => `acct:${String(req.body?.email ?? '').trim().toLowerCase()}`,
+    message: tooMany('Too many failed sign-ins for this account. Wait 15 minutes or reset the password.'),
+  });
+
+  route(r, 'get', '/auth/csrf', { access: 'public' }, async (req, res) => {
+    const token = ensureCsrfToken(req);
+    await save(req);
+    res.json({ token });
+  });
+
+  route(r, 'post', '/auth/login', { access: 'public', body: loginSchema, before: [perAddress, perAccount] }, async (req, res) => {
+    const { email, password } = res.locals.body as { email: string; password: string };
+    const principal = await authenticate(requestEm() as EntityManager, email, password);
+    // New session id at sign-in (no fixation) and a new CSRF token with it.
+    await regenerate(req);
+    req.session.userId = principal.userId;
+    req.session.orgId = principal.orgId;
+    req.session.signedInAt = Date.now();
+    const csrfToken = ensureCsrfToken(req);
+    await save(req);
+    res.json({ ok: true, csrfToken, role: principal.role });
+  });
+
+  route(r, 'post', '/auth/logout', { access: 'public' }, async (req, res) => {
+    if (req.principal) {
+      const em = requestEm() as EntityManager;
+      recordAudit(em, req.principal, 'auth.sign-out', { type: 'User', id: req.principal.userId });
+      await em.flush();
+    }
+    await destroy(req);
+    res.clearCookie(SESSION_COOKIE);
+    res.json({ ok: true });
+  });
+
+  route(r, 'post', '/auth/request-reset', { access: 'public', body: requestResetSchema, before: [perAddress] }, async (_req, res) => {
+    await requestPasswordReset(requestEm() as EntityManager, res.locals.body.email, config.APP_URL);
+    res.json({ ok: true, message: 'If that address has an account, a reset link is on its way.' });
+  });
+
+  route(r, 'post', '/auth/redeem', { access: 'public', body: tokenPasswordSchema, before: [perAddress] }, async (_req, res) => {
+    const { email } = await redeemToken(requestEm() as EntityManager, res.locals.body.token, res.locals.body.password);
+    res.json({ ok: true, email });
+  });
+
+  route(r, 'get', '/me', { access: 'signed-in' }, async (req, res) => {
+    const p = requirePrincipal(req);
+    const org = await (requestEm() as EntityManager).findOneOrFail(Organization, p.orgId);
+    res.json({
+      user: { id: p.userId, email: p.email, name: p.name },
+      role: p.role,
+      organization: { id: org.id, name: org.name, timeZone: org.timeZone },
+    });
+  });
+}

@@ -1,0 +1,82 @@
+import type { EntityManager } from '@mikro-orm/postgresql';
+import { Membership, User, UserToken } from '../users/user.entity';
+import { hashPassword, hashToken, newToken, verifyPassword } from './passwords';
+import { badRequest, unauthorized } from '../../http/errors';
+import { recordAudit } from '../audit/audit';
+import { queueMail } from '../../mail/outbox';
+import { renderMail } from '../../mail/templates';
+import type { Principal } from '../../http/principal';
+
+const noScope = { filters: false } as const;
+
+export const INVITE_TTL_MS = 7 * 24 * 3600_000;
+export const RESET_TTL_MS = 60 * 60_000;
+
+/** The active membership that a session's user acts through, or null. */
+export async function loadPrincipal(em: EntityManager, userId: string, orgId: string): Promise<Principal | null> {
+  const m = await em.findOne(Membership, { user: userId, organization: orgId, active: true }, noScope);
+  if (!m) return null;
+  const user = await em.findOneOrFail(User, userId, noScope);
+  return { userId: user.id, orgId, role: m.role, name: user.name, email: user.email };
+}
+
+export async function authenticate(em: EntityManager, email: string, password: string): Promise<Principal> {
+  const user = await em.findOne(User, { email }, noScope);
+  const ok = await verifyPassword(user?.passwordHash, password);
+  if (!user || !ok) throw unauthorized('E-mail or password is wrong');
+  const membership = await em.findOne(Membership, { user, active: true }, { orderBy: { createdAt: 'asc' }, ...noScope });
+  if (!membership) throw unauthorized('This account is deactivated. Ask your admin.');
+  user.lastSignInAt = new Date();
+  recordAudit(em, { orgId: membership.organization.id, userId: user.id }, 'auth.sign-in', { type: 'User', id: user.id });
+  await em.flush();
+  return { userId: user.id, orgId: membership.organization.id, role: membership.role, name: user.name, email: user.email };
+}
+
+/** Creates a single-use token and returns the raw value (only its hash is stored). */
+export function issueToken(em: EntityManager, userId: string, purpose: 'invite' | 'reset'): string {
+  const token = newToken();
+  em.create(UserToken, {
+    user: userId,
+    purpose,
+    tokenHash: hashToken(token),
+    expiresAt: new Date(Date.now() + (purpose === 'invite' ? INVITE_TTL_MS : RESET_TTL_MS)),
+  });
+  return token;
+}
+
+export async function requestPasswordReset(em: EntityManager, email: string, appUrl: string): Promise<void> {
+  const user = await em.findOne(User, { email }, noScope);
+  if (!user) return; // same answer either way: no account enumeration
+  const membership = await em.findOne(Membership, { user, active: true }, noScope);
+  if (!membership) return;
+  const token = issueToken(em, user.id, 'reset');
+  const url = `${appUrl}/reset-password?token=${token}`;
+  queueMail(em, {
+    to: user.email,
+    kind: 'password-reset',
+    organizationId: membership.organization.id,
+    subject: 'Reset your Kerfbook password',
+    ...renderMail({
+      heading: 'Reset your password',
+      paragraphs: [`Hello ${user.name},`, 'Someone asked to reset the password of your Kerfbook account. The link works once, for one hour. If it was not you, ignore this mail.'],
+      action: { label: 'Choose a new password', url },
+    }),
+  });
+  await em.flush();
+}
+
+/** Sets a password through an invitation or reset link; the link is spent either way it succeeds. */
+export async function redeemToken(em: EntityManager, token: string, password: string): Promise<{ email: string }> {
+  return em.transactional(async (tx) => {
+    const row = await tx.findOne(UserToken, { tokenHash: hashToken(token) }, noScope);
+    if (!row) throw badRequest('This link is not valid. Ask for a new one.', [{ path: 'token', message: 'Link not valid' }]);
+    if (row.usedAt) throw badRequest('This link was already used. Ask for a new one.', [{ path: 'token', message: 'Link already used' }]);
+    if (row.expiresAt.getTime() < Date.now()) throw badRequest('This link has expired. Ask for a new one.', [{ path: 'token', message: 'Link expired' }]);
+    const user = await tx.findOneOrFail(User, row.user.id, noScope);
+    user.passwordHash = await hashPassword(password);
+    row.usedAt = new Date();
+    const membership = await tx.findOne(Membership, { user }, noScope);
+    if (membership) recordAudit(tx, { orgId: membership.organization.id, userId: user.id }, row.purpose === 'invite' ? 'auth.invite-accepted' : 'auth.password-reset', { type: 'User', id: user.id });
+    return { email: user.email };
+  });
+}

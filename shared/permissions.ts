@@ -1,0 +1,36 @@
+/**
+ * Who may do what. The server enforces this table on every API route (the authority);
+ * the client reads the same table to decide which menus and buttons to show.
+ */
+export const ROLES = ['operator', 'technician', 'safety', 'admin'] as const;
+export type Role = (typeof ROLES)[number];
+
+export const ROLE_LABELS: Record<Role, string> = {
+  operator: 'Operator',
+  technician: 'Maintenance technician',
+  safety: 'Safety officer',
+  admin: 'Admin',
+};
+
+const everyone = ROLES;
+
+export const PERMISSIONS = {
+  'users.read': ['admin'],
+  'users.manage': ['admin'],
+  'audit.read': ['admin', 'safety'],
+  'org.settings.manage': ['admin'],
+  'jobs.run': ['admin'],
+  'mail.inbox.all': ['admin'],
+  'mail.inbox.own': everyone,
+} as const satisfies Record<string, readonly Role[]>;
+
+export type Permission = keyof typeof PERMISSIONS;
+
+export function can(role: Role | null | undefined, permission: Permission): boolean {
+  if (!role) return false;
+  return (PERMISSIONS[permission] as readonly Role[]).includes(role);
+}
+
+export function rolesFor(permission: Permission): readonly Role[] {
+  return PERMISSIONS[permission];
+}
