@@ -12,7 +12,7 @@ export const LOCKS = { scheduledPass: 724_001 } as const;
 export async function withAdvisoryLock<T>(orm: MikroORM, key: number, fn: () => Promise<T>): Promise<T | null> {
   const em = orm.em.fork();
   return em.transactional(async (tx) => {
-    const [row] = await tx.getConnection().execute<{ locked: boolean }[]>('select pg_try_advisory_xact_lock(?) as locked', [key], 'all', tx.getTransactionContext());
+    const [row] = await tx.execute<{ locked: boolean }[]>('select pg_try_advisory_xact_lock(?) as locked', [key]);
     if (!row?.locked) return null;
     return fn();
   });

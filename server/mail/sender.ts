@@ -19,7 +19,8 @@ export async function deliverOutbox(orm: MikroORM, transport: Transporter, from:
   let failed = 0;
   for (let i = 0; i < batch; i++) {
     const outcome = await orm.em.fork().transactional(async (em) => {
-      const conn = em.getConnection();
+      // em.execute runs inside this transaction, so the row lock lasts until commit.
+      const conn = em;
       const rows: Row[] = await conn.execute(
         `select id, to_address, subject, text_body, html_body, attempts from outbox_mail
           where status = 'pending' and next_attempt_at <= now()

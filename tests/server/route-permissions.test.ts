@@ -1,0 +1,91 @@
+import { describe, it, expect, beforeAll, afterAll } from 'vitest';
+import { makeShop, makeTestApp, signIn, anonymous, type SignedIn, type TestShop } from '../setup/test-app';
+import { ROLES, type Role } from '../../shared/permissions';
+
+/**
+ * Every API route and the roles allowed to call it. A route served by the app that is
+ * missing here fails the suite: adding a route means deciding who may call it.
+ * 'public' routes need no sign-in.
+ */
+const ALL: Role[] = [...ROLES];
+const EXPECTED: Record<string, Role[] | 'public'> = {
+  'GET /health': 'public',
+  'GET /auth/csrf': 'public',
+  'POST /auth/login': 'public',
+  'POST /auth/logout': 'public',
+  'POST /auth/request-reset': 'public',
+  'POST /auth/redeem': 'public',
+  'GET /me': ALL,
+  'GET /users': ['admin'],
+  'POST /users': ['admin'],
+  'PATCH /users/:id': ['admin'],
+  'GET /audit-events': ['admin', 'safety'],
+  'GET /dev/inbox': ALL,
+};
+
+type Layer = { route?: { path: string; methods: Record<string, boolean> } };
+
+let t: Awaited<ReturnType<typeof makeTestApp>>;
+let shop: TestShop;
+const sessions = {} as Record<Role, SignedIn>;
+
+function servedRoutes(): string[] {
+  const stack = (t.api as unknown as { stack: Layer[] }).stack;
+  return stack.filter((l) => l.route).flatMap((l) => Object.keys(l.route!.methods).filter((m) => m !== '_all').map((m) => `${m.toUpperCase()} ${l.route!.path}`));
+}
+
+const samplePath = (path: string) => path.replace(/:[a-zA-Z]+/g, '00000000-0000-4000-8000-000000000000');
+
+beforeAll(async () => {
+  t = await makeTestApp();
+  shop = await makeShop(t.em(), 'perm');
+  for (const role of ROLES) sessions[role] = await signIn(t.app, shop.users[role].email);
+});
+afterAll(() => t.close());
+
+describe('route permission table', () => {
+  it('has a rule for every route the API serves, and no stale rules', () => {
+    const served = servedRoutes();
+    expect(served.length).toBeGreaterThan(5);
+    const missing = served.filter((r) => !(r in EXPECTED));
+    expect(missing, `routes without a rule in this table: ${missing.join(', ')}`).toEqual([]);
+    const stale = Object.keys(EXPECTED).filter((r) => !served.includes(r));
+    expect(stale, `rules for routes that no longer exist: ${stale.join(', ')}`).toEqual([]);
+  });
+
+  it('matches what each route declares in code', () => {
+    for (const [key, allowed] of Object.entries(EXPECTED)) {
+      const access = t.routeAccess.get(key);
+      expect(access, key).toBeDefined();
+      if (allowed === 'public') expect(access, key).toBe('public');
+      else expect(access, key).not.toBe('public');
+    }
+  });
+
+  const protectedRoutes = Object.entries(EXPECTED).filter(([, a]) => a !== 'public') as [string, Role[]][];
+
+  it.each(protectedRoutes)('%s refuses anonymous callers with 401', async (key) => {
+    const [method, path] = key.split(' ');
+    const { agent, csrf } = await anonymous(t.app);
+    const res = await agent[method.toLowerCase() as 'get'](`/api${samplePath(path)}`).set('X-CSRF-Token', csrf).send({});
+    expect(res.status).toBe(401);
+  });
+
+  it.each(protectedRoutes)('%s refuses every role not allowed with 403', async (key, allowed) => {
+    const [method, path] = key.split(' ');
+    for (const role of ROLES.filter((r) => !allowed.includes(r))) {
+      const { agent, csrf } = sessions[role];
+      const res = await agent[method.toLowerCase() as 'get'](`/api${samplePath(path)}`).set('X-CSRF-Token', csrf).send({});
+      expect(res.status, `${role} on ${key}`).toBe(403);
+    }
+  });
+
+  it.each(protectedRoutes)('%s lets the allowed roles through the guard', async (key, allowed) => {
+    const [method, path] = key.split(' ');
+    for (const role of allowed) {
+      const { agent, csrf } = sessions[role];
+      const res = await agent[method.toLowerCase() as 'get'](`/api${samplePath(path)}`).set('X-CSRF-Token', csrf).send({});
+      expect([401, 403], `${role} on ${key} got ${res.status}`).not.toContain(res.status);
+    }
+  });
+});

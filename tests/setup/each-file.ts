@@ -1,0 +1,6 @@
+import { afterAll } from 'vitest';
+import { closeORM } from '../../server/db';
+
+afterAll(async () => {
+  await closeORM();
+});
