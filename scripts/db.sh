@@ -81,7 +81,7 @@ CONF
   # App role: not a superuser, so table grants and triggers bind it.
   psql_super -c "DO \$\$ BEGIN IF NOT EXISTS (SELECT 1 FROM pg_roles WHERE rolname = '$APP_USER') THEN CREATE ROLE $APP_USER LOGIN PASSWORD '$APP_PASSWORD' CREATEDB; END IF; END \$\$;"
   local db
-  for db in ${KERFBOOK_DATABASES:-kerfbook kerfbook_test}; do
+  for db in ${KERFBOOK_DATABASES:-kerfbook kerfbook_test kerfbook_e2e}; do
     if [ -z "$(psql_super -c "SELECT 1 FROM pg_database WHERE datname = '$db'")" ]; then
       psql_super -c "CREATE DATABASE $db OWNER $APP_USER" >/dev/null
       echo "Created database $db"

@@ -1,0 +1,34 @@
+import { defineConfig, devices } from '@playwright/test';
+
+const port = Number(process.env.E2E_PORT ?? 3999);
+
+export default defineConfig({
+  testDir: 'tests/e2e',
+  outputDir: 'test-results',
+  fullyParallel: false,
+  workers: 1,
+  retries: 0,
+  timeout: 60_000,
+  reporter: [['list']],
+  use: {
+    baseURL: `http://127.0.0.1:${port}`,
+    trace: 'retain-on-failure',
+    screenshot: 'only-on-failure',
+    launchOptions: {
+      // Debian's Chromium; Playwright never downloads a browser here. This machine has no
+      // network, so the background-networking features are switched off.
+      executablePath: '/usr/bin/chromium',
+      args: ['--no-sandbox', '--disable-gpu', '--disable-quic', '--no-first-run', '--disable-background-networking', '--disable-component-update', '--disable-sync'],
+    },
+  },
+  projects: [
+    { name: 'desktop', use: { ...devices['Desktop Chrome'], viewport: { width: 1366, height: 900 } } },
+  ],
+  webServer: {
+    command: 'bash scripts/e2e-server.sh',
+    url: `http://127.0.0.1:${port}/api/health`,
+    timeout: 120_000,
+    reuseExistingServer: false,
+    stdout: 'pipe',
+  },
+});

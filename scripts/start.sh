@@ -1,0 +1,13 @@
+#!/usr/bin/env bash
+# npm start: everything needed to run Kerfbook with its demo shop on this machine.
+set -euo pipefail
+cd "$(dirname "$0")/.."
+bash scripts/ensure-deps.sh
+bash scripts/db.sh start
+npx tsx scripts/migrate.ts
+npx tsx seed/run.ts
+echo "Building the client..."
+npx vite build --logLevel warn
+# exec: Ctrl-C goes straight to the server, which shuts down gracefully.
+# PostgreSQL keeps running for a fast restart; `npm run db:stop` stops it.
+exec npx tsx server/index.ts

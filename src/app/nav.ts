@@ -1,0 +1,13 @@
+import type { NavItem } from '../components/layout/app-shell';
+import { can, type Permission, type Role } from '../../shared/permissions';
+import { paths } from '../config/paths';
+
+/** Menu entries and who sees them; the same permission table the server enforces. */
+const items: (NavItem & { permission?: Permission })[] = [
+  { to: paths.home.getHref(), label: 'Today', end: true },
+  { to: paths.users.getHref(), label: 'People', permission: 'users.read' },
+  { to: paths.audit.getHref(), label: 'Activity', permission: 'audit.read' },
+  { to: paths.devInbox.getHref(), label: 'Dev inbox', permission: 'mail.inbox.own' },
+];
+
+export const navFor = (role: Role): NavItem[] => items.filter((i) => !i.permission || can(role, i.permission));

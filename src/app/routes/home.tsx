@@ -1,0 +1,32 @@
+import { Link } from 'react-router-dom';
+import { useMe } from '../../features/auth/api/get-me';
+import { RoleHome } from '../../features/home/components/role-home';
+import { AuditTable } from '../../features/audit/components/audit-table';
+import { Panel } from '../../components/ui/notice';
+import { WorkCaution } from '../../components/ui/caution';
+import { can } from '../../../shared/permissions';
+import { paths } from '../../config/paths';
+
+export function Component() {
+  const { data: me } = useMe();
+  if (!me) return null;
+  return (
+    <RoleHome role={me.role} name={me.user.name}>
+      {me.role === 'operator' || me.role === 'technician' ? (
+        <Panel title="Before you work on a machine">
+          <WorkCaution />
+        </Panel>
+      ) : null}
+      {can(me.role, 'users.manage') ? (
+        <Panel title="People" actions={<Link className="font-semibold text-mandatory underline" to={paths.users.getHref()}>Manage people</Link>}>
+          <p className="text-steel-700">Invite operators, technicians and the safety officer; change roles; remove access for people who left.</p>
+        </Panel>
+      ) : null}
+      {can(me.role, 'audit.read') ? (
+        <Panel title="Latest activity" className="lg:col-span-2">
+          <AuditTable pageSize={5} />
+        </Panel>
+      ) : null}
+    </RoleHome>
+  );
+}

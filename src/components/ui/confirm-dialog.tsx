@@ -1,0 +1,34 @@
+import { useEffect, useRef, type ReactNode } from 'react';
+import { Button } from './button';
+
+/** A native modal dialog: focus is trapped and Escape cancels. */
+export function ConfirmDialog({ open, title, children, confirmLabel, tone = 'primary', busy, onConfirm, onCancel }: {
+  open: boolean;
+  title: string;
+  children: ReactNode;
+  confirmLabel: string;
+  tone?: 'primary' | 'danger';
+  busy?: boolean;
+  onConfirm: () => void;
+  onCancel: () => void;
+}) {
+  const ref = useRef<HTMLDialogElement>(null);
+  useEffect(() => {
+    const d = ref.current;
+    if (!d) return;
+    if (open && !d.open) d.showModal();
+    if (!open && d.open) d.close();
+  }, [open]);
+  return (
+    <dialog ref={ref} onCancel={(e) => { e.preventDefault(); onCancel(); }} className="m-auto w-[min(32rem,92vw)] rounded border border-steel-300 p-0 shadow-xl backdrop:bg-steel-950/50" aria-labelledby="confirm-title">
+      <div className="space-y-3 p-5">
+        <h2 id="confirm-title" className="text-xl font-bold">{title}</h2>
+        <div className="text-steel-700">{children}</div>
+        <div className="flex justify-end gap-2 pt-2">
+          <Button variant="secondary" onClick={onCancel}>Cancel</Button>
+          <Button variant={tone === 'danger' ? 'danger' : 'primary'} busy={busy} onClick={onConfirm}>{confirmLabel}</Button>
+        </div>
+      </div>
+    </dialog>
+  );
+}

@@ -1,0 +1,131 @@
+import { useState } from 'react';
+import { createColumnHelper, type SortingState } from '@tanstack/react-table';
+import { DataTable } from '../../../components/ui/data-table';
+import { Badge, EmptyState, Notice } from '../../../components/ui/notice';
+import { Button } from '../../../components/ui/button';
+import { ConfirmDialog } from '../../../components/ui/confirm-dialog';
+import { ROLES, ROLE_LABELS, type Role } from '../../../../shared/permissions';
+import type { ListUsersQuery, MemberRow } from '../../../../shared/schemas/users';
+import { useUsers } from '../api/get-users';
+import { useUpdateMember } from '../api/update-member';
+
+const col = createColumnHelper<MemberRow>();
+const fmt = new Intl.DateTimeFormat(undefined, { dateStyle: 'medium', timeStyle: 'short' });
+const statusTone = { active: 'safe', invited: 'caution', deactivated: 'info' } as const;
+
+export function UsersTable({ currentUserId }: { currentUserId: string }) {
+  const [page, setPage] = useState(1);
+  const [sorting, setSorting] = useState<SortingState>([{ id: 'name', desc: false }]);
+  const [q, setQ] = useState('');
+  const [role, setRole] = useState<Role | ''>('');
+  const [status, setStatus] = useState<ListUsersQuery['status'] | ''>('');
+  const [pending, setPending] = useState<{ row: MemberRow; active: boolean } | null>(null);
+  const [message, setMessage] = useState<{ tone: 'danger' | 'safe'; text: string } | null>(null);
+  const update = useUpdateMember();
+  const pageSize = 25;
+  const sort = (sorting[0]?.id ?? 'name') as ListUsersQuery['sort'];
+  const users = useUsers({ page, pageSize, q: q || undefined, role: role || undefined, status: status || undefined, sort, dir: sorting[0]?.desc ? 'desc' : 'asc' });
+
+  const changeRole = async (row: MemberRow, next: Role) => {
+    setMessage(null);
+    try {
+      await update.mutateAsync({ id: row.membershipId, role: next });
+      setMessage({ tone: 'safe', text: `${row.name} is now ${ROLE_LABELS[next]}.` });
+    } catch (err) {
+      setMessage({ tone: 'danger', text: err instanceof Error ? err.message : 'Could not change the role' });
+    }
+  };
+
+  const columns = [
+    col.accessor('name', { header: 'Name', enableHiding: false }),
+    col.accessor('email', { header: 'E-mail' }),
+    col.accessor('role', {
+      header: 'Role',
+      cell: (c) => {
+        const row = c.row.original;
+        if (row.userId === currentUserId) return ROLE_LABELS[row.role];
+        return (
+          <select aria-label={`Role of ${row.name}`} className="min-h-touch rounded border border-steel-400 bg-white px-2" value={row.role} disabled={update.isPending} onChange={(e) => changeRole(row, e.target.value as Role)}>
+            {ROLES.map((r) => <option key={r} value={r}>{ROLE_LABELS[r]}</option>)}
+          </select>
+        );
+      },
+    }),
+    col.accessor('status', { header: 'Status', cell: (c) => <Badge tone={statusTone[c.getValue()]}>{c.getValue()}</Badge> }),
+    col.accessor('lastSignInAt', { header: 'Last sign-in', cell: (c) => (c.getValue() ? fmt.format(new Date(c.getValue()!)) : '—') }),
+    col.display({
+      id: 'actions',
+      header: 'Access',
+      cell: (c) => {
+        const row = c.row.original;
+        if (row.userId === currentUserId) return <span className="text-steel-500">You</span>;
+        const active = row.status !== 'deactivated';
+        return (
+          <Button variant={active ? 'secondary' : 'ghost'} onClick={() => setPending({ row, active: !active })}>
+            {active ? 'Deactivate' : 'Reactivate'}
+          </Button>
+        );
+      },
+    }),
+  ];
+
+  const filterClass = 'min-h-touch rounded border border-steel-400 bg-white px-3 font-normal';
+  return (
+    <div className="space-y-3">
+      {message ? <Notice tone={message.tone} role="status">{message.text}</Notice> : null}
+      {users.isError ? <Notice tone="danger">{users.error.message}</Notice> : null}
+      <DataTable
+        caption="People in this shop"
+        columns={columns}
+        data={users.data?.rows ?? []}
+        loading={users.isLoading}
+        getRowId={(r) => r.membershipId}
+        empty={<EmptyState title="Nobody matches these filters" />}
+        server={{ total: users.data?.total ?? 0, page, pageSize, sorting, onSortingChange: (s) => { setSorting(s); setPage(1); }, onPageChange: setPage }}
+        toolbar={
+          <>
+            <label className="flex flex-col text-sm font-semibold">Search
+              <input className={filterClass} value={q} placeholder="Name or e-mail" onChange={(e) => { setQ(e.target.value); setPage(1); }} />
+            </label>
+            <label className="flex flex-col text-sm font-semibold">Role
+              <select className={filterClass} value={role} onChange={(e) => { setRole(e.target.value as Role | ''); setPage(1); }}>
+                <option value="">All roles</option>
+                {ROLES.map((r) => <option key={r} value={r}>{ROLE_LABELS[r]}</option>)}
+              </select>
+            </label>
+            <label className="flex flex-col text-sm font-semibold">Status
+              <select className={filterClass} value={status} onChange={(e) => { setStatus(e.target.value as ListUsersQuery['status'] | ''); setPage(1); }}>
+                <option value="">Any status</option>
+                <option value="active">Active</option>
+                <option value="invited">Invited</option>
+                <option value="deactivated">Deactivated</option>
+              </select>
+            </label>
+          </>
+        }
+      />
+      <ConfirmDialog
+        open={pending !== null}
+        title={pending?.active ? `Reactivate ${pending?.row.name}?` : `Deactivate ${pending?.row.name}?`}
+        confirmLabel={pending?.active ? 'Reactivate' : 'Deactivate'}
+        tone={pending?.active ? 'primary' : 'danger'}
+        busy={update.isPending}
+        onCancel={() => setPending(null)}
+        onConfirm={async () => {
+          if (!pending) return;
+          try {
+            await update.mutateAsync({ id: pending.row.membershipId, active: pending.active });
+            setMessage({ tone: 'safe', text: `${pending.row.name} ${pending.active ? 'can sign in again' : 'can no longer sign in'}.` });
+          } catch (err) {
+            setMessage({ tone: 'danger', text: err instanceof Error ? err.message : 'Could not change access' });
+          }
+          setPending(null);
+        }}
+      >
+        {pending?.active
+          ? 'They will be able to sign in again with their password.'
+          : 'They are signed out at once and cannot sign in. Their records and signatures stay in the log. You can reactivate them later.'}
+      </ConfirmDialog>
+    </div>
+  );
+}

@@ -1,0 +1,61 @@
+import type { ApiErrorBody, FieldErrors } from '../../shared/schemas/common';
+
+/** An error answer from the API, with field errors to map back onto a form. */
+export class ApiError extends Error {
+  constructor(
+    readonly status: number,
+    readonly code: string,
+    message: string,
+    readonly fields: FieldErrors = [],
+  ) {
+    super(message);
+  }
+}
+
+let csrfToken: string | null = null;
+
+export function setCsrfToken(token: string | null) {
+  csrfToken = token;
+}
+
+async function fetchCsrfToken(): Promise<string> {
+  const res = await fetch('/api/auth/csrf', { credentials: 'same-origin' });
+  const body = (await res.json()) as { token: string };
+  csrfToken = body.token;
+  return body.token;
+}
+
+type Options = { method?: string; body?: unknown; query?: Record<string, string | number | boolean | undefined | null>; signal?: AbortSignal };
+
+function withQuery(path: string, query?: Options['query']) {
+  if (!query) return path;
+  const params = new URLSearchParams();
+  for (const [k, v] of Object.entries(query)) if (v !== undefined && v !== null && v !== '') params.set(k, String(v));
+  const qs = params.toString();
+  return qs ? `${path}?${qs}` : path;
+}
+
+export async function api<T>(path: string, { method = 'GET', body, query, signal }: Options = {}, retried = false): Promise<T> {
+  const mutating = method !== 'GET' && method !== 'HEAD';
+  const headers: Record<string, string> = { Accept: 'application/json' };
+  if (body !== undefined && !(body instanceof FormData)) headers['Content-Type'] = 'application/json';
+  if (mutating) headers['X-CSRF-Token'] = csrfToken ?? (await fetchCsrfToken());
+  const res = await fetch(withQuery(`/api${path}`, query), {
+    method,
+    headers,
+    credentials: 'same-origin',
+    signal,
+    body: body === undefined ? undefined : body instanceof FormData ? body : JSON.stringify(body),
+  });
+  if (res.status === 204) return undefined as T;
+  const data = (await res.json().catch(() => ({}))) as Partial<ApiErrorBody> & T;
+  if (!res.ok) {
+    // A new session (e.g. after the old one expired) has a new CSRF token: fetch it and retry once.
+    if (res.status === 403 && mutating && !retried && /CSRF/.test(data.message ?? '')) {
+      await fetchCsrfToken();
+      return api<T>(path, { method, body, query, signal }, true);
+    }
+    throw new ApiError(res.status, data.error ?? 'error', data.message ?? `Request failed (${res.status})`, data.fields ?? []);
+  }
+  return data as T;
+}
