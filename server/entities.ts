@@ -3,5 +3,7 @@ import { Organization } from './modules/organizations/organization.entity';
 import { User, Membership, UserToken } from './modules/users/user.entity';
 import { AuditEvent } from './modules/audit/audit-event.entity';
 import { OutboxMail } from './mail/outbox.entity';
+import { Machine } from './modules/machines/machine.entity';
+import { Meter, MeterReading } from './modules/meters/meter.entity';
 
-export const entities = [Organization, User, Membership, UserToken, AuditEvent, OutboxMail];
+export const entities = [Organization, User, Membership, UserToken, AuditEvent, OutboxMail, Machine, Meter, MeterReading];

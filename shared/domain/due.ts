@@ -247,7 +247,7 @@ function evalFixed(t: Extract<Trigger, { kind: 'calendar-fixed' }>, input: PlanI
       ...base,
       status,
       dueAt,
-      key: `cal:${iso(latest)}`,
+      key: `cal:${iso(dueAt)}`,
       reason: `calendar occurrence ${iso(dueAt)} ${status === 'overdue' ? `is overdue by ${daysText(sinceMs)}` : 'is due'}${missed}`,
     };
   }
@@ -334,16 +334,17 @@ function evalMeter(
   if (current >= dueValue) {
     const crossedAt = crossingTime(readings, dueValue) ?? (m.latest?.at as Date);
     const over = current - dueValue;
-    const overdue =
-      windowUnits > 0 ? over > windowUnits : now.getTime() - crossedAt.getTime() > Math.max((dueSoon.days ?? 0) * DAY_MS, MIN_GRACE_MS);
+    const sinceMs = now.getTime() - crossedAt.getTime();
+    const overdue = windowUnits > 0 ? over > windowUnits : sinceMs > Math.max((dueSoon.days ?? 0) * DAY_MS, MIN_GRACE_MS);
     const status: DueStatus = overdue ? 'overdue' : 'due';
+    const overText = !overdue ? '' : windowUnits > 0 ? `, overdue by ${numText(over)}` : `, overdue: reached about ${daysText(sinceMs)} ago`;
     return {
       evaluation: {
         ...base,
         status,
         dueAt: crossedAt,
         key: `meter:${t.meterId}:${dueValue}`,
-        reason: `${label} reads ${numText(current)}, due at ${numText(dueValue)} (every ${numText(t.every)} from ${numText(m.baseline)})${overdue ? `, overdue by ${numText(over)}` : ''}`,
+        reason: `${label} reads ${numText(current)}, due at ${numText(dueValue)} (every ${numText(t.every)} from ${numText(m.baseline)})${overText}`,
       },
       meter: { meterId: t.meterId, dueValue, current, forecastAt: crossedAt },
     };
