@@ -5,5 +5,6 @@ import { AuditEvent } from './modules/audit/audit-event.entity';
 import { OutboxMail } from './mail/outbox.entity';
 import { Machine } from './modules/machines/machine.entity';
 import { Meter, MeterReading } from './modules/meters/meter.entity';
+import { PartType, StockMove } from './modules/stock/stock.entity';
 
-export const entities = [Organization, User, Membership, UserToken, AuditEvent, OutboxMail, Machine, Meter, MeterReading];
+export const entities = [Organization, User, Membership, UserToken, AuditEvent, OutboxMail, Machine, Meter, MeterReading, PartType, StockMove];

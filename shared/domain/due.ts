@@ -247,7 +247,7 @@ function evalFixed(t: Extract<Trigger, { kind: 'calendar-fixed' }>, input: PlanI
       ...base,
       status,
       dueAt,
-      key: `cal:${iso(dueAt)}`,
+      key: `cal:${iso(latest)}`,
       reason: `calendar occurrence ${iso(dueAt)} ${status === 'overdue' ? `is overdue by ${daysText(sinceMs)}` : 'is due'}${missed}`,
     };
   }

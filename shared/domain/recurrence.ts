@@ -212,7 +212,10 @@ function formatWallIcal(w: WallClock, dateOnly: boolean): string {
   return dateOnly ? date : `${date}T${pad(w.hour)}${pad(w.minute)}${pad(w.second)}`;
 }
 
-/** Canonical IANA id (e.g. 'europe/berlin' → 'Europe/Berlin'), or an error naming the bad id. */
+/**
+ * Canonical IANA time-zone id (RFC 5545 §3.2.19 TZID values are IANA ids here), e.g.
+ * 'europe/berlin' → 'Europe/Berlin'; throws an Error naming an unknown id.
+ */
 export function canonicalZone(tzid: string): string {
   const trimmed = tzid.trim();
   if (!trimmed || !IANAZone.isValidZone(trimmed)) {
@@ -536,7 +539,6 @@ function prepare(ical: string, floatingZone: string | undefined, policy: Nonexis
       `DTSTART ${p.startLocal} does not exist in ${zoneId} (it falls in a daylight-saving gap); choose a time outside the gap`,
     );
   }
-  // Bound rrule's own iteration by UNTIL plus slack; the exact UNTIL test happens per instance below.
   assertHasInstances(internal);
   // Bound rrule by UNTIL plus slack; the exact UNTIL test (instant or wall clock) is in walk().
   let untilWall: number | null = null;
@@ -569,7 +571,8 @@ interface Visit {
 function walk(prep: Prepared, lowWall: number, visit: (v: Visit) => boolean): void {
   const { internal, zone, policy, rule } = prep;
   const { count, until } = internal.parsed;
-  const mustConvertAll = count !== null && policy === 'skip';
+  // Under 'skip' a gap instance is not part of the set, so every instance must be checked.
+  const mustConvertAll = policy === 'skip';
   let produced = 0;
   let scanned = 0;
   let stopped = false;

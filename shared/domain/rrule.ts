@@ -16,9 +16,10 @@ import type * as RRuleTypes from 'rrule';
 type RRuleModule = typeof RRuleTypes;
 
 // The namespace object is either the module itself (ES build) or a CommonJS
-// wrapper with the module on `default` (Node ESM interop).
+// wrapper with the module on `default` (Node ESM interop). Reflect.get keeps
+// bundlers from warning that the ES build has no `default` export.
 const mod: RRuleModule =
-  ((rruleNs as unknown as { default?: RRuleModule }).default ?? (rruleNs as unknown as RRuleModule));
+  (Reflect.get(rruleNs, 'default') as RRuleModule | undefined) ?? (rruleNs as unknown as RRuleModule);
 
 if (typeof mod.RRule !== 'function') {
   // Fail loudly at import time rather than with "RRule is not a constructor" later.

@@ -20,8 +20,8 @@ export const Meter = defineEntity({
     kind: p.enum([...METER_KINDS]),
     unit: p.string().length(16),
     /** Condition meters: the alarm limits shown beside readings. */
-    lowerLimit: p.double().nullable(),
-    upperLimit: p.double().nullable(),
+    lowerLimit: p.double().$type<number>().nullable(),
+    upperLimit: p.double().$type<number>().nullable(),
   },
 });
 export type IMeter = InferEntity<typeof Meter>;
@@ -36,7 +36,7 @@ export const MeterReading = defineEntity({
     ...baseProperties,
     organization: () => p.manyToOne(Organization).ref(),
     meter: () => p.manyToOne(Meter).ref(),
-    value: p.double(),
+    value: p.double().$type<number>(),
     readAt: p.datetime(),
     source: p.enum(['manual', 'import', 'work-order', 'consumable-change'] as const),
     /** A count that starts again from zero (meter replaced or reset) is recorded as such. */
