@@ -8,7 +8,7 @@ import { evaluatePlan, type PlanInput, type Trigger } from '../../shared/domain/
 
 const D = (iso: string) => new Date(iso);
 
-// Mondays 07:00 Berlin: 06:00Z in March (CET), 05:00Z from 1 April (CEST).
+// Mondays 07:00 Europe/Berlin: 06:00Z in March (CET), 05:00Z from 1 April (CEST).
 const WEEKLY_MONDAY: Trigger = {
   kind: 'calendar-fixed',
   ical: 'DTSTART;TZID=Europe/Berlin:20240304T070000\nRRULE:FREQ=WEEKLY;BYDAY=MO',
@@ -116,7 +116,7 @@ describe('calendar-fixed weekly plan (hand-worked)', () => {
 
 describe('calendar-floating (hand-worked)', () => {
   const monthly: Trigger = { kind: 'calendar-floating', every: 1, unit: 'month', tz: 'Europe/Berlin' };
-  // Done 31 Jan 10:00 CET (09:00Z); one month later in Berlin is 29 Feb 2024 10:00 CET = 09:00Z
+  // Done 31 Jan 10:00 CET (09:00Z); one month later in Europe/Berlin is 29 Feb 2024 10:00 CET = 09:00Z
   // (the month has no 31st; 2024 is a leap year). Interval 29 d, fraction 0.1 → window 2.9 d.
   const base = plan({ triggers: [monthly], lastDoneAt: D('2024-01-31T09:00:00Z'), startedAt: D('2024-01-01T00:00:00Z'), dueSoon: { fraction: 0.1 } });
 
