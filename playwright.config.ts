@@ -4,7 +4,7 @@ const port = Number(process.env.E2E_PORT ?? 3999);
 
 export default defineConfig({
   testDir: 'tests/e2e',
-  outputDir: 'test-results',
+  outputDir: process.env.E2E_OUTPUT ?? 'test-results',
   fullyParallel: false,
   workers: 1,
   retries: 0,

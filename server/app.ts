@@ -74,7 +74,7 @@ export function createApp({ orm, config, smtp = null }: AppDeps): AppHandle {
   });
   app.use('/api', api);
 
-  const dist = path.resolve('dist');
+  const dist = path.resolve(config.CLIENT_DIST);
   if (existsSync(path.join(dist, 'index.html'))) {
     app.use(express.static(dist, { index: false, maxAge: '1h' }));
     app.get('/{*splat}', (_req, res) => res.sendFile(path.join(dist, 'index.html')));

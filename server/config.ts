@@ -30,6 +30,8 @@ const schema = z.object({
   LOGIN_LIMIT_PER_ADDRESS: z.coerce.number().int().min(1).default(50),
   JOB_SCHEDULE: z.string().default('*/5 * * * *'),
   LOG_LEVEL: z.string().optional(),
+  /** Folder of the built client. */
+  CLIENT_DIST: z.string().default('dist'),
 });
 
 export type Config = z.infer<typeof schema> & { APP_URL: string; SESSION_SECRET: string; MAIL_CAPTURE: boolean };
