@@ -1,5 +1,3 @@
-import { z } from 'zod';
-
 export const MACHINE_KINDS = ['punch-plasma-cell', 'plasma-table', 'press-brake', 'hydraulic-unit', 'fume-extractor', 'torch', 'punch-head', 'other'] as const;
 export type MachineKind = (typeof MACHINE_KINDS)[number];
 export const MACHINE_KIND_LABELS: Record<MachineKind, string> = {
