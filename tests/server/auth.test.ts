@@ -140,4 +140,12 @@ describe('API conventions', () => {
     expect(cookie).toMatch(/SameSite=Lax/);
     expect(cookie).not.toMatch(/Secure/); // plain HTTP here; 'auto' adds Secure over HTTPS
   });
+
+  it('marks the session cookie Secure when served over HTTPS behind a trusted proxy', async () => {
+    const proxied = await makeTestApp({ TRUST_PROXY: '1' });
+    const res = await supertest(proxied.app).get('/api/auth/csrf').set('X-Forwarded-Proto', 'https');
+    const cookie = ([] as string[]).concat(res.headers['set-cookie'] ?? []).find((c) => c.startsWith(SESSION_COOKIE));
+    expect(cookie).toMatch(/; Secure/);
+    await proxied.close();
+  });
 });
