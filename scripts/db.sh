@@ -74,6 +74,14 @@ CONF
   fi
   if as_pg "$PG_BIN/pg_ctl" -D "$dir" status >/dev/null 2>&1; then
     echo "PostgreSQL already running on 127.0.0.1:$PGPORT"
+  elif (exec 3<>"/dev/tcp/127.0.0.1/$PGPORT") 2>/dev/null; then
+    # Another checkout's cluster with the same credentials is fine to share; anything else is not.
+    if psql_super -c 'select 1' >/dev/null 2>&1; then
+      echo "Using the Kerfbook PostgreSQL already listening on 127.0.0.1:$PGPORT"
+    else
+      echo "Port $PGPORT is taken by another program. Set PGPORT to a free port and try again." >&2
+      exit 1
+    fi
   else
     as_pg "$PG_BIN/pg_ctl" -D "$dir" -l "$dir/server.log" -o "-p $PGPORT" -w -t 60 start >/dev/null
     echo "PostgreSQL started on 127.0.0.1:$PGPORT (data: $dir)"
