@@ -6,5 +6,10 @@ import { OutboxMail } from './mail/outbox.entity';
 import { Machine } from './modules/machines/machine.entity';
 import { Meter, MeterReading } from './modules/meters/meter.entity';
 import { PartType, StockMove } from './modules/stock/stock.entity';
+import { MaintenancePlan } from './modules/plans/plan.entity';
+import { WorkOrder, WorkOrderPart, WorkOrderAttachment, WorkOrderCounter, NotifyPreference } from './modules/work-orders/work-order.entity';
+import { OilTarget, OilAnalysis } from './modules/oil-analysis/oil-analysis.entity';
+import { CalendarFeed } from './modules/calendar-feed/calendar-feed.entity';
+import { JobRun } from './modules/job-runs/job-run.entity';
 
-export const entities = [Organization, User, Membership, UserToken, AuditEvent, OutboxMail, Machine, Meter, MeterReading, PartType, StockMove];
+export const entities = [Organization, User, Membership, UserToken, AuditEvent, OutboxMail, Machine, Meter, MeterReading, PartType, StockMove, MaintenancePlan, WorkOrder, WorkOrderPart, WorkOrderAttachment, WorkOrderCounter, NotifyPreference, OilTarget, OilAnalysis, CalendarFeed, JobRun];
