@@ -16,6 +16,8 @@ import { registerUserRoutes } from './modules/users/users.routes';
 import { registerHealthRoutes } from './modules/health/health.routes';
 import { registerDevInboxRoutes } from './modules/dev-inbox/dev-inbox.routes';
 import { registerAuditRoutes } from './modules/audit/audit.routes';
+import { registerMachineRoutes } from './modules/machines/machines.routes';
+import { registerMeterRoutes } from './modules/meters/meters.routes';
 import type { FakeSmtp } from './mail/fake-smtp';
 import { logger } from './logger';
 
@@ -67,6 +69,8 @@ export function createApp({ orm, config, smtp = null }: AppDeps): AppHandle {
   registerAuthRoutes(api, config);
   registerUserRoutes(api, config);
   registerAuditRoutes(api);
+  registerMachineRoutes(api);
+  registerMeterRoutes(api);
   registerDevInboxRoutes(api, config.MAIL_CAPTURE ? smtp : null);
 
   api.use(() => {

@@ -22,6 +22,17 @@ export const PERMISSIONS = {
   'jobs.run': ['admin'],
   'mail.inbox.all': ['admin'],
   'mail.inbox.own': everyone,
+  // Machines, meters, consumables: everyone reads; operators log at the machine, technicians keep records and stock.
+  'machines.read': everyone,
+  'machines.manage': ['admin', 'technician'],
+  'meters.manage': ['admin', 'technician'],
+  'readings.record': ['operator', 'technician', 'admin'],
+  'readings.import': ['technician', 'admin'],
+  'stock.read': everyone,
+  'stock.manage': ['technician', 'admin'],
+  'consumables.log': ['operator', 'technician', 'admin'],
+  'tools.manage': ['technician', 'admin'],
+  'cutchecks.record': ['operator', 'technician', 'admin'],
 } as const satisfies Record<string, readonly Role[]>;
 
 export type Permission = keyof typeof PERMISSIONS;

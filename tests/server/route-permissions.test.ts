@@ -21,6 +21,16 @@ const EXPECTED: Record<string, Role[] | 'public'> = {
   'PATCH /users/:id': ['admin'],
   'GET /audit-events': ['admin', 'safety'],
   'GET /dev/inbox': ALL,
+  'GET /machines': ALL,
+  'POST /machines': ['admin', 'technician'],
+  'GET /machines/:id': ALL,
+  'PATCH /machines/:id': ['admin', 'technician'],
+  'POST /meters': ['admin', 'technician'],
+  'GET /meters/:id': ALL,
+  'PATCH /meters/:id': ['admin', 'technician'],
+  'GET /meters/:id/readings': ALL,
+  'POST /meters/:id/readings': ['operator', 'technician', 'admin'],
+  'GET /meters/:id/trend': ALL,
 };
 
 type Layer = { route?: { path: string; methods: Record<string, boolean> } };
