@@ -1,6 +1,8 @@
 import { describe, it, expect, beforeAll, afterAll } from 'vitest';
 import { anonymous, makeShop, makeTestApp, signIn, type TestShop } from '../setup/test-app';
 import { OutboxMail } from '../../server/mail/outbox.entity';
+import { UserToken } from '../../server/modules/users/user.entity';
+import { hashToken } from '../../server/modules/auth/passwords';
 
 let t: Awaited<ReturnType<typeof makeTestApp>>;
 let shop: TestShop;
@@ -67,6 +69,17 @@ describe('user management', () => {
     const token = linkToken(mail.textBody);
     await anon.agent.post('/api/auth/redeem').set('X-CSRF-Token', anon.csrf).send({ token, password: 'safety first passphrase', confirm: 'safety first passphrase' }).expect(200);
     await signIn(t.app, shop.users.safety.email, 'safety first passphrase');
+  });
+
+  it('refuses an expired link', async () => {
+    const anon = await anonymous(t.app);
+    await anon.agent.post('/api/auth/request-reset').set('X-CSRF-Token', anon.csrf).send({ email: shop.users.operator.email }).expect(200);
+    const mail = await t.em().findOneOrFail(OutboxMail, { toAddress: shop.users.operator.email, kind: 'password-reset' });
+    const token = linkToken(mail.textBody)!;
+    await t.em().nativeUpdate(UserToken, { tokenHash: hashToken(token) }, { expiresAt: new Date(Date.now() - 1000) }, { filters: false });
+    const res = await anon.agent.post('/api/auth/redeem').set('X-CSRF-Token', anon.csrf).send({ token, password: 'too late passphrase', confirm: 'too late passphrase' }).expect(400);
+    expect(res.body.message).toMatch(/expired/);
+    await signIn(t.app, shop.users.operator.email); // the old password still works
   });
 
   it('names mismatched and short passwords on their fields', async () => {
