@@ -5,6 +5,7 @@ import { paths } from '../config/paths';
 /** Menu entries and who sees them; the same permission table the server enforces. */
 const items: (NavItem & { permission?: Permission })[] = [
   { to: paths.home.getHref(), label: 'Today', end: true },
+  { to: paths.machines.getHref(), label: 'Machines', permission: 'machines.read' },
   { to: paths.users.getHref(), label: 'People', permission: 'users.read' },
   { to: paths.audit.getHref(), label: 'Activity', permission: 'audit.read' },
   { to: paths.devInbox.getHref(), label: 'Dev inbox', permission: 'mail.inbox.own' },

@@ -4,6 +4,16 @@ import { getMeQueryOptions } from '../features/auth/api/get-me';
 import { paths } from '../config/paths';
 import { RouteError } from './routes/route-error';
 
+/** Shown while the first route's code and data load. */
+function Splash() {
+  return (
+    <p role="status" className="p-6 text-lg font-semibold text-steel-700">
+      Loading Kerfbook…
+    </p>
+  );
+}
+const top = { errorElement: <RouteError />, hydrateFallbackElement: <Splash /> };
+
 /** Signed-in pages: the loader sends anyone without a session to sign-in. */
 async function requireSignIn({ request }: LoaderFunctionArgs) {
   const me = await queryClient.ensureQueryData(getMeQueryOptions());
@@ -15,20 +25,23 @@ async function requireSignIn({ request }: LoaderFunctionArgs) {
 }
 
 export const router = createBrowserRouter([
-  { path: paths.signIn.path, lazy: () => import('./routes/sign-in'), errorElement: <RouteError /> },
-  { path: paths.forgotPassword.path, lazy: () => import('./routes/forgot-password'), errorElement: <RouteError /> },
-  { path: paths.acceptInvite.path, lazy: () => import('./routes/accept-invite'), errorElement: <RouteError /> },
-  { path: paths.resetPassword.path, lazy: () => import('./routes/reset-password'), errorElement: <RouteError /> },
+  { path: paths.signIn.path, lazy: () => import('./routes/sign-in'), ...top },
+  { path: paths.forgotPassword.path, lazy: () => import('./routes/forgot-password'), ...top },
+  { path: paths.acceptInvite.path, lazy: () => import('./routes/accept-invite'), ...top },
+  { path: paths.resetPassword.path, lazy: () => import('./routes/reset-password'), ...top },
   {
     path: '/',
     loader: requireSignIn,
     lazy: () => import('./routes/app-layout'),
-    errorElement: <RouteError />,
+    ...top,
     children: [
       { index: true, lazy: () => import('./routes/home') },
       { path: paths.users.path.slice(1), lazy: () => import('./routes/admin-users') },
       { path: paths.audit.path.slice(1), lazy: () => import('./routes/audit') },
       { path: paths.devInbox.path.slice(1), lazy: () => import('./routes/dev-inbox') },
+      { path: paths.machines.path.slice(1), lazy: () => import('./routes/machines') },
+      { path: paths.machine.path.slice(1), lazy: () => import('./routes/machine-detail') },
+      { path: paths.meter.path.slice(1), lazy: () => import('./routes/meter-detail') },
       { path: '*', lazy: () => import('./routes/not-found') },
     ],
   },

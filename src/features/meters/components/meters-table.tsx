@@ -1,0 +1,37 @@
+import { Link } from 'react-router-dom';
+import { createColumnHelper } from '@tanstack/react-table';
+import { DataTable } from '../../../components/ui/data-table';
+import { Badge, EmptyState } from '../../../components/ui/notice';
+import type { MeterRow } from '../../../../shared/schemas/machines';
+import { paths } from '../../../config/paths';
+import { formatValue, limitState } from './format';
+
+const col = createColumnHelper<MeterRow>();
+const when = new Intl.DateTimeFormat(undefined, { dateStyle: 'medium', timeStyle: 'short' });
+const KIND = { count: 'Count', 'running-time': 'Running time', condition: 'Condition' } as const;
+
+export function MetersTable({ meters }: { meters: MeterRow[] }) {
+  const columns = [
+    col.accessor('name', { header: 'Meter', enableHiding: false, cell: (c) => <Link className="inline-flex min-h-touch items-center font-semibold text-mandatory-ink underline" to={paths.meter.getHref(c.row.original.id)}>{c.getValue()}</Link> }),
+    col.accessor('machineCode', { header: 'On' }),
+    col.accessor('code', { header: 'Code' }),
+    col.accessor('kind', { header: 'Kind', cell: (c) => KIND[c.getValue()] }),
+    col.accessor((m) => m.latest?.value ?? null, {
+      id: 'latest',
+      header: 'Latest',
+      cell: (c) => {
+        const m = c.row.original;
+        if (!m.latest) return <span className="text-steel-600">No reading yet</span>;
+        const state = limitState(m, m.latest.value);
+        return (
+          <span className="inline-flex flex-wrap items-center gap-2">
+            <span className="font-semibold tabular-nums">{formatValue(m.latest.value, m.unit)}</span>
+            {state ? <Badge tone="danger">{state}</Badge> : null}
+          </span>
+        );
+      },
+    }),
+    col.accessor((m) => m.latest?.readAt ?? '', { id: 'readAt', header: 'Read', cell: (c) => (c.getValue() ? when.format(new Date(c.getValue())) : '—') }),
+  ];
+  return <DataTable caption="Meters" columns={columns} data={meters} getRowId={(m) => m.id} empty={<EmptyState title="No meters on this machine yet" />} />;
+}
