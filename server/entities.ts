@@ -11,5 +11,6 @@ import { WorkOrder, WorkOrderPart, WorkOrderAttachment, WorkOrderCounter, Notify
 import { OilTarget, OilAnalysis } from './modules/oil-analysis/oil-analysis.entity';
 import { CalendarFeed } from './modules/calendar-feed/calendar-feed.entity';
 import { JobRun } from './modules/job-runs/job-run.entity';
+import { safetyEntities } from './modules/safety/index';
 
-export const entities = [Organization, User, Membership, UserToken, AuditEvent, OutboxMail, Machine, Meter, MeterReading, PartType, StockMove, MaintenancePlan, WorkOrder, WorkOrderPart, WorkOrderAttachment, WorkOrderCounter, NotifyPreference, OilTarget, OilAnalysis, CalendarFeed, JobRun];
+export const entities = [Organization, User, Membership, UserToken, AuditEvent, OutboxMail, Machine, Meter, MeterReading, PartType, StockMove, MaintenancePlan, WorkOrder, WorkOrderPart, WorkOrderAttachment, WorkOrderCounter, NotifyPreference, OilTarget, OilAnalysis, CalendarFeed, JobRun, ...safetyEntities];

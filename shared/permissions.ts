@@ -33,6 +33,19 @@ export const PERMISSIONS = {
   'consumables.log': ['operator', 'technician', 'admin'],
   'tools.manage': ['technician', 'admin'],
   'cutchecks.record': ['operator', 'technician', 'admin'],
+  // Safety log: the safety officer writes procedures and audits; technicians are the authorized employees who lock out.
+  'safety.read': everyone,
+  'safety.procedures.manage': ['safety'],
+  'safety.lockout.sign': ['technician', 'safety'],
+  'safety.ppe.sign': ['operator', 'technician', 'safety'],
+  'safety.ppe.manage': ['safety'],
+  'safety.inspection.perform': ['technician', 'safety'],
+  'safety.inspection.certify': ['safety'],
+  'safety.training.manage': ['safety'],
+  'safety.hotwork.sign': ['operator', 'technician', 'safety'],
+  'safety.correct': ['operator', 'technician', 'safety'],
+  'safety.audit': ['safety', 'admin'],
+  'safety.settings.manage': ['safety', 'admin'],
 } as const satisfies Record<string, readonly Role[]>;
 
 export type Permission = keyof typeof PERMISSIONS;

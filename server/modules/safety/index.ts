@@ -1,0 +1,22 @@
+// The safety module's entities, for server/entities.ts.
+import { SafetySignOff, SafetyChainHead } from './sign-off.entity';
+import { EnergyProcedure, ProcedureVersion, ProcedurePhoto } from './procedure.entity';
+import { LockoutSession, LockoutPoint, LockoutMember } from './lockout.entity';
+import { PpeRequirement, PpeCheck, PeriodicInspection, TrainingRecord, FireWatch, SafetyTask } from './records.entity';
+
+export const safetyEntities = [
+  SafetySignOff,
+  SafetyChainHead,
+  EnergyProcedure,
+  ProcedureVersion,
+  ProcedurePhoto,
+  LockoutSession,
+  LockoutPoint,
+  LockoutMember,
+  PpeRequirement,
+  PpeCheck,
+  PeriodicInspection,
+  TrainingRecord,
+  FireWatch,
+  SafetyTask,
+];

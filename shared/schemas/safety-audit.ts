@@ -1,0 +1,38 @@
+import { z } from 'zod';
+
+export const complianceQuery = z.object({
+  /** Window for missed PPE checks and the charts. */
+  days: z.coerce.number().int().min(7).max(366).default(30),
+});
+export const timelineQuery = z.object({ weeks: z.coerce.number().int().min(2).max(104).default(12) });
+
+export type MachineCompliance = {
+  machineId: string;
+  machineCode: string;
+  machineName: string;
+  procedureVersion: number | null;
+  inspectionStatus: 'none' | 'not-due' | 'due-soon' | 'due' | 'overdue';
+  inspectionDueAt: string | null;
+  lastInspectionAt: string | null;
+  ppeExpected: number;
+  ppeDone: number;
+  ppeMissed: number;
+  openLockouts: number;
+  retrainingNeeded: number;
+};
+
+export type ComplianceSummary = {
+  days: number;
+  machines: MachineCompliance[];
+  totals: { overdueInspections: number; missedPpeChecks: number; openLockouts: number; retrainingNeeded: number };
+};
+
+export type TimelineWeek = {
+  weekStart: string;
+  ppeExpected: number;
+  ppeDone: number;
+  ppeCompliancePct: number | null;
+  lockouts: number;
+  signOffs: number;
+  inspectionsCurrentPct: number | null;
+};

@@ -1,0 +1,139 @@
+import { z } from 'zod';
+import { signPassword } from './safety-sign-offs';
+
+/** Kinds of hazardous energy a procedure names (OSHA 29 CFR 1910.147(b) "energy source"). */
+export const ENERGY_KINDS = ['electrical', 'hydraulic', 'pneumatic', 'plasma-power', 'gravity', 'stored-mechanical', 'thermal', 'chemical', 'other'] as const;
+export type EnergyKind = (typeof ENERGY_KINDS)[number];
+export const ENERGY_KIND_LABELS: Record<EnergyKind, string> = {
+  electrical: 'Electrical supply',
+  hydraulic: 'Hydraulic pressure / accumulator',
+  pneumatic: 'Pneumatic supply',
+  'plasma-power': 'Plasma power source',
+  gravity: 'Gravity (raised parts)',
+  'stored-mechanical': 'Stored mechanical (springs, flywheels)',
+  thermal: 'Thermal (hot surfaces, coolant)',
+  chemical: 'Chemical / gas',
+  other: 'Other',
+};
+
+/**
+ * The phases of applying energy control, in the order OSHA 29 CFR 1910.147(d)(1)-(6) sets
+ * them out. Steps are stored per phase, so they can never be written out of order.
+ */
+export const PROCEDURE_PHASES = ['prepare', 'shutdown', 'isolate', 'apply', 'relieve', 'verify'] as const;
+export type ProcedurePhase = (typeof PROCEDURE_PHASES)[number];
+export const PHASE_LABELS: Record<ProcedurePhase, { title: string; source: string }> = {
+  prepare: { title: 'Prepare for shutdown', source: '1910.147(d)(1)' },
+  shutdown: { title: 'Shut the machine down', source: '1910.147(d)(2)' },
+  isolate: { title: 'Isolate every energy source', source: '1910.147(d)(3)' },
+  apply: { title: 'Apply locks and tags', source: '1910.147(d)(4)' },
+  relieve: { title: 'Relieve stored energy', source: '1910.147(d)(5)' },
+  verify: { title: 'Verify isolation', source: '1910.147(d)(6)' },
+};
+
+const text = (what: string, max: number) => z.string({ message: `${what} is required` }).trim().min(1, `${what} is required`).max(max, `${what}: at most ${max} characters`);
+
+export const energySourceSchema = z.object({
+  /** Short tag painted at the isolation point and printed on the placard, e.g. "E1". */
+  key: z.string().trim().regex(/^[A-Z][A-Z0-9-]{0,7}$/, 'Use a short tag such as E1 or H2 (capital letters, digits, dash)'),
+  kind: z.enum(ENERGY_KINDS, { message: 'Choose the kind of energy' }),
+  description: text('Description', 200),
+  magnitude: text('Magnitude', 80),
+  isolationDevice: text('Isolation device', 120),
+  location: text('Location', 120),
+  relieveMethod: text('How stored energy is relieved', 400),
+  verifyMethod: text('How isolation is verified', 400),
+});
+export type EnergySource = z.infer<typeof energySourceSchema>;
+
+const stepList = (phase: ProcedurePhase) =>
+  z
+    .array(text('Step', 400), { message: `${PHASE_LABELS[phase].title}: add at least one step` })
+    .min(1, `${PHASE_LABELS[phase].title}: add at least one step`)
+    .max(30, 'At most 30 steps per phase');
+
+const contentObject = z.object({
+  title: text('Title', 160),
+    scope: text('Scope', 1000),
+    sources: z.array(energySourceSchema).min(1, 'Name at least one energy source').max(20, 'At most 20 energy sources'),
+    steps: z.object({
+      prepare: stepList('prepare'),
+      shutdown: stepList('shutdown'),
+      isolate: stepList('isolate'),
+      apply: stepList('apply'),
+      relieve: stepList('relieve'),
+      verify: stepList('verify'),
+    }),
+    /** Release from lockout, OSHA 29 CFR 1910.147(e)(1)-(3). */
+    release: z.array(text('Release step', 400)).min(1, 'Add at least one release step').max(30),
+});
+
+function uniqueKeys(v: { sources: { key: string }[] }, ctx: z.RefinementCtx) {
+  const seen = new Set<string>();
+  v.sources.forEach((s, i) => {
+    if (seen.has(s.key)) ctx.addIssue({ code: 'custom', path: ['sources', i, 'key'], message: `Tag ${s.key} is used twice` });
+    seen.add(s.key);
+  });
+}
+
+export const procedureContentSchema = contentObject.superRefine(uniqueKeys);
+export type ProcedureContent = z.infer<typeof procedureContentSchema>;
+
+export const createProcedureSchema = contentObject.extend({ machineId: z.uuid({ message: 'Choose a machine' }) }).superRefine(uniqueKeys);
+export type CreateProcedureInput = z.infer<typeof createProcedureSchema>;
+
+export const approveVersionSchema = z.object({
+  password: signPassword,
+  /** An editorial change (typo, photo) need not send everyone back to training. */
+  retrainingRequired: z.boolean().default(true),
+});
+export type ApproveVersionInput = z.infer<typeof approveVersionSchema>;
+
+export const versionParams = z.object({ id: z.uuid({ message: 'Not a valid id' }), version: z.coerce.number().int().min(1) });
+
+export const photoParams = z.object({ id: z.uuid({ message: 'Not a valid id' }), photoId: z.uuid({ message: 'Not a valid id' }) });
+export const photoUploadFields = z.object({
+  sourceKey: z.string().trim().regex(/^[A-Z][A-Z0-9-]{0,7}$/, 'Choose the isolation point this photo shows'),
+  caption: z.string().trim().max(200, 'Caption: at most 200 characters').optional(),
+});
+export const PHOTO_MAX_BYTES = 5 * 1024 * 1024;
+export const PHOTO_TYPES = ['image/jpeg', 'image/png', 'image/webp'] as const;
+
+export type VersionStatus = 'draft' | 'approved' | 'superseded';
+
+export type ProcedureSummary = {
+  id: string;
+  machineId: string;
+  machineCode: string;
+  machineName: string;
+  title: string;
+  currentVersion: number | null;
+  currentApprovedAt: string | null;
+  draftVersion: number | null;
+  lastInspectionAt: string | null;
+  inspectionDueAt: string | null;
+};
+
+export type PhotoRow = { id: string; sourceKey: string; caption: string | null; mime: string; size: number };
+
+export type VersionDetail = {
+  id: string;
+  version: number;
+  status: VersionStatus;
+  content: ProcedureContent;
+  authorName: string;
+  createdAt: string;
+  approvedAt: string | null;
+  approvedByName: string | null;
+  approvalSignOffId: string | null;
+  retrainingRequired: boolean;
+  photos: PhotoRow[];
+};
+
+export type ProcedureDetail = {
+  id: string;
+  machine: { id: string; code: string; name: string; kind: string };
+  versions: { id: string; version: number; status: VersionStatus; approvedAt: string | null; approvedByName: string | null }[];
+  current: VersionDetail | null;
+  draft: VersionDetail | null;
+};

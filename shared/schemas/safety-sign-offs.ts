@@ -1,0 +1,120 @@
+import { z } from 'zod';
+import { paging } from './common';
+
+/**
+ * What a safety signature means. Every record in the safety log is one of these; the
+ * statement is printed beside the signer's name on screens, exports and the placard.
+ */
+export const SIGN_MEANINGS = [
+  'procedure-approved',
+  'lockout-applied',
+  'isolation-verified',
+  'member-joined',
+  'member-left',
+  'handover-offered',
+  'handover-accepted',
+  'lockout-released',
+  'ppe-check-done',
+  'inspection-performed',
+  'inspection-certified',
+  'training-recorded',
+  'fire-watch-started',
+  'fire-watch-ended',
+  'correction',
+] as const;
+export type SignMeaning = (typeof SIGN_MEANINGS)[number];
+
+/** Short label for tables and filters. */
+export const MEANING_LABELS: Record<SignMeaning, string> = {
+  'procedure-approved': 'Procedure approved',
+  'lockout-applied': 'Locks applied',
+  'isolation-verified': 'Zero energy verified',
+  'member-joined': 'Joined group lockout',
+  'member-left': 'Left group lockout',
+  'handover-offered': 'Hand-over offered',
+  'handover-accepted': 'Hand-over accepted',
+  'lockout-released': 'Lockout released',
+  'ppe-check-done': 'PPE check done',
+  'inspection-performed': 'Inspection performed',
+  'inspection-certified': 'Inspection certified',
+  'training-recorded': 'Training recorded',
+  'fire-watch-started': 'Fire watch started',
+  'fire-watch-ended': 'Fire watch ended',
+  correction: 'Correction',
+};
+
+/** The sentence the signer agrees to by re-entering their password. */
+export const MEANING_STATEMENTS: Record<SignMeaning, string> = {
+  'procedure-approved': 'I approve this version of the energy-control procedure for use on this machine.',
+  'lockout-applied': 'I applied my own lockout or tagout devices at the isolation points listed.',
+  'isolation-verified': 'I tried to start the machine and tested each isolation point; no hazardous energy remains.',
+  'member-joined': 'I put my personal lock on this group lockout before starting work.',
+  'member-left': 'I finished my work and removed my personal lock from this group lockout.',
+  'handover-offered': 'I hand over this lockout; my devices stay on until the oncoming person’s devices are on.',
+  'handover-accepted': 'I take over this lockout; my devices are on and the off-going devices are off.',
+  'lockout-released': 'I checked the work area, everyone is clear, affected employees are told, and I removed my devices.',
+  'ppe-check-done': 'I am wearing every item of PPE this task requires, in good condition.',
+  'inspection-performed': 'I inspected this procedure in use and reviewed each employee’s responsibilities with them.',
+  'inspection-certified': 'I certify that this periodic inspection was performed as recorded.',
+  'training-recorded': 'I trained this person on this procedure and they showed they understand it.',
+  'fire-watch-started': 'I am keeping fire watch over the area where hot work ended.',
+  'fire-watch-ended': 'I kept fire watch for the full time and found no fire or smouldering material.',
+  correction: 'I correct an earlier safety record as described in the note.',
+};
+
+/** The password re-entered at signing (21 CFR 11.200-style re-authentication, house rule). */
+export const signPassword = z.string({ message: 'Enter your password to sign' }).min(1, 'Enter your password to sign').max(200, 'Password is too long');
+
+export const listSignOffsQuery = paging.extend({
+  machineId: z.uuid({ message: 'Not a valid machine id' }).optional(),
+  signerId: z.uuid({ message: 'Not a valid person id' }).optional(),
+  meaning: z.enum(SIGN_MEANINGS, { message: 'Unknown meaning' }).optional(),
+  from: z.iso.date({ message: 'Use a date like 2026-03-01' }).optional(),
+  to: z.iso.date({ message: 'Use a date like 2026-03-31' }).optional(),
+  sort: z.enum(['signedAt', 'signerName', 'meaning', 'machine', 'seq']).default('signedAt'),
+  dir: z.enum(['asc', 'desc']).default('desc'),
+});
+export type ListSignOffsQuery = z.infer<typeof listSignOffsQuery>;
+/** The same filters without paging, for the CSV and PDF exports. */
+export const exportSignOffsQuery = listSignOffsQuery.omit({ page: true, pageSize: true });
+export type ExportSignOffsQuery = z.infer<typeof exportSignOffsQuery>;
+
+export const correctionSchema = z.object({
+  note: z.string().trim().min(5, 'Say what was wrong and what is right (at least 5 characters)').max(1000, 'Keep the note under 1000 characters'),
+  password: signPassword,
+});
+export type CorrectionInput = z.infer<typeof correctionSchema>;
+
+export type SignOffRow = {
+  id: string;
+  seq: number;
+  signedAt: string;
+  signerId: string;
+  signerName: string;
+  signerRole: string;
+  meaning: SignMeaning;
+  statement: string;
+  subjectType: string;
+  subjectId: string;
+  machineId: string | null;
+  machineCode: string | null;
+  machineName: string | null;
+  summary: string;
+  note: string | null;
+  correctsId: string | null;
+  correctsSeq: number | null;
+  correctedBy: number[];
+  hash: string;
+};
+
+export type ChainVerification = {
+  ok: boolean;
+  /** Records that verified before the first bad one (all when ok). */
+  checked: number;
+  total: number;
+  headSeq: number;
+  verifiedAt: string;
+  problem: null | 'content-altered' | 'link-broken' | 'head-mismatch';
+  message: string;
+  firstBad: null | { id: string | null; seq: number; signedAt: string | null; signerName: string | null; meaning: SignMeaning | null };
+};
