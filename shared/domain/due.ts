@@ -26,6 +26,10 @@
  *   completion is still current (`lastRaisedKey`), it is returned again, so a second trigger
  *   firing for the same outstanding work does not raise a second work order.
  *
+ * - `changesAt`: the earliest instant at which the status can change with time alone (same
+ *   triggers, completion and readings). Until then the result stays valid, so the engine can
+ *   skip re-evaluating a plan whose inputs did not change. Null when only new input changes it.
+ *
  * Pure: no I/O; runs in the browser too.
  */
 import { DateTime } from 'luxon';
@@ -83,6 +87,8 @@ export interface TriggerEvaluation {
   /** Key of this trigger's occurrence when it is due or overdue, else null. */
   key: string | null;
   reason: string;
+  /** Earliest instant at which this trigger's status can change by the passing of time alone, or null. */
+  changesAt: Date | null;
 }
 
 export interface MeterDue {
@@ -107,6 +113,8 @@ export interface Evaluation {
   /** Index into `triggers` of the deciding trigger. */
   decidedBy: number;
   triggers: TriggerEvaluation[];
+  /** Earliest `changesAt` over the triggers: re-evaluate no later than this (null: only new input changes it). */
+  changesAt: Date | null;
 }
 
 const RANK: Record<DueStatus, number> = { 'not-due': 0, 'due-soon': 1, due: 2, overdue: 3 };
@@ -198,6 +206,11 @@ function readingsOf(m: MeterInput): Reading[] {
   return [...byTime.values()].sort((a, b) => a.at.getTime() - b.at.getTime());
 }
 
+/** The instant just past `ms`: a status decided with a strict ">" changes one millisecond later. */
+function justAfter(ms: number): Date {
+  return new Date(ms + 1);
+}
+
 function calendarWindowMs(ds: DueSoonWindow, intervalMs: number): number {
   return Math.max((ds.days ?? 0) * DAY_MS, (ds.fraction ?? 0) * Math.max(intervalMs, 0));
 }
@@ -214,7 +227,7 @@ function evalFixed(t: Extract<Trigger, { kind: 'calendar-fixed' }>, input: PlanI
   const after = done !== null && done.getTime() >= startedAt.getTime() ? done : new Date(startedAt.getTime() - 1);
   const next = expandRecurrence(t.ical, { after, limit: COVER_SCAN });
   if (next.length === 0) {
-    return { ...base, status: 'not-due', dueAt: null, key: null, reason: `calendar: no occurrence after ${iso(after)}` };
+    return { ...base, status: 'not-due', dueAt: null, key: null, reason: `calendar: no occurrence after ${iso(after)}`, changesAt: null };
   }
   const before0 = previousOccurrence(t.ical, next[0]);
   const intervalOf = (i: number): number => {
@@ -234,7 +247,7 @@ function evalFixed(t: Extract<Trigger, { kind: 'calendar-fixed' }>, input: PlanI
     }
   }
   if (first < 0) {
-    return { ...base, status: 'not-due', dueAt: null, key: null, reason: `calendar: the next ${next.length} occurrences are already covered by the completion at ${iso(done as Date)}` };
+    return { ...base, status: 'not-due', dueAt: null, key: null, reason: `calendar: the next ${next.length} occurrences are already covered by the completion at ${iso(done as Date)}`, changesAt: null };
   }
   const dueAt = next[first];
   const sinceMs = now.getTime() - dueAt.getTime();
@@ -249,6 +262,7 @@ function evalFixed(t: Extract<Trigger, { kind: 'calendar-fixed' }>, input: PlanI
       dueAt,
       key: `cal:${iso(latest)}`,
       reason: `calendar occurrence ${iso(dueAt)} ${status === 'overdue' ? `is overdue by ${daysText(sinceMs)}` : 'is due'}${missed}`,
+      changesAt: status === 'due' ? justAfter(dueAt.getTime() + grace) : null,
     };
   }
   const soon = -sinceMs <= windowMs;
@@ -258,6 +272,7 @@ function evalFixed(t: Extract<Trigger, { kind: 'calendar-fixed' }>, input: PlanI
     dueAt,
     key: null,
     reason: `next calendar occurrence ${iso(dueAt)}${soon ? ` is due in ${daysText(-sinceMs)}` : ''}`,
+    changesAt: soon ? dueAt : new Date(dueAt.getTime() - windowMs),
   };
 }
 
@@ -273,16 +288,24 @@ function evalFloating(t: Extract<Trigger, { kind: 'calendar-floating' }>, input:
   const what = `every ${t.every} ${t.unit}${t.every === 1 ? '' : 's'} since ${lastDoneAt ? 'last done' : 'plan start'} ${iso(anchor)}`;
   const base = { index, kind: t.kind, dueAt } as const;
   if (sinceMs >= 0) {
-    const status: DueStatus = sinceMs > Math.max(windowMs, MIN_GRACE_MS) ? 'overdue' : 'due';
+    const grace = Math.max(windowMs, MIN_GRACE_MS);
+    const status: DueStatus = sinceMs > grace ? 'overdue' : 'due';
     return {
       ...base,
       status,
       key: `float:${iso(anchor)}`,
       reason: `${what}: due ${iso(dueAt)}${status === 'overdue' ? `, overdue by ${daysText(sinceMs)}` : ''}`,
+      changesAt: status === 'due' ? justAfter(dueAt.getTime() + grace) : null,
     };
   }
   const soon = -sinceMs <= windowMs;
-  return { ...base, status: soon ? 'due-soon' : 'not-due', key: null, reason: `${what}: due ${iso(dueAt)}` };
+  return {
+    ...base,
+    status: soon ? 'due-soon' : 'not-due',
+    key: null,
+    reason: `${what}: due ${iso(dueAt)}`,
+    changesAt: soon ? dueAt : new Date(dueAt.getTime() - windowMs),
+  };
 }
 
 /** Time the readings first reached `target` in their latest run at or above it, interpolated linearly. */
@@ -326,7 +349,7 @@ function evalMeter(
   const label = `meter ${t.meterId}`;
   if (current === null) {
     return {
-      evaluation: { ...base, status: 'not-due', dueAt: null, key: null, reason: `${label}: no reading yet (due at ${numText(dueValue)})` },
+      evaluation: { ...base, status: 'not-due', dueAt: null, key: null, reason: `${label}: no reading yet (due at ${numText(dueValue)})`, changesAt: null },
       meter: { meterId: t.meterId, dueValue, current: null, forecastAt: null },
     };
   }
@@ -335,7 +358,8 @@ function evalMeter(
     const crossedAt = crossingTime(readings, dueValue) ?? (m.latest?.at as Date);
     const over = current - dueValue;
     const sinceMs = now.getTime() - crossedAt.getTime();
-    const overdue = windowUnits > 0 ? over > windowUnits : sinceMs > Math.max((dueSoon.days ?? 0) * DAY_MS, MIN_GRACE_MS);
+    const graceMs = Math.max((dueSoon.days ?? 0) * DAY_MS, MIN_GRACE_MS);
+    const overdue = windowUnits > 0 ? over > windowUnits : sinceMs > graceMs;
     const status: DueStatus = overdue ? 'overdue' : 'due';
     const overText = !overdue ? '' : windowUnits > 0 ? `, overdue by ${numText(over)}` : `, overdue: reached about ${daysText(sinceMs)} ago`;
     return {
@@ -345,6 +369,8 @@ function evalMeter(
         dueAt: crossedAt,
         key: `meter:${t.meterId}:${dueValue}`,
         reason: `${label} reads ${numText(current)}, due at ${numText(dueValue)} (every ${numText(t.every)} from ${numText(m.baseline)})${overText}`,
+        // With a unit window only new readings make it overdue; without one, time since the crossing does.
+        changesAt: !overdue && windowUnits <= 0 ? justAfter(crossedAt.getTime() + graceMs) : null,
       },
       meter: { meterId: t.meterId, dueValue, current, forecastAt: crossedAt },
     };
@@ -360,6 +386,7 @@ function evalMeter(
       dueAt: forecastAt,
       key: null,
       reason: `${label} reads ${numText(current)} of ${numText(dueValue)}${forecastAt ? `, forecast ${iso(forecastAt)}` : ''}`,
+      changesAt: !soon && dueSoon.days !== undefined && forecastAt !== null ? new Date(forecastAt.getTime() - dueSoon.days * DAY_MS) : null,
     },
     meter: { meterId: t.meterId, dueValue, current, forecastAt },
   };
@@ -376,7 +403,7 @@ function evalCondition(t: Extract<Trigger, { kind: 'condition' }>, input: PlanIn
     .filter(Boolean)
     .join(' or ');
   if (readings.length === 0) {
-    return { ...base, status: 'not-due', dueAt: null, key: null, reason: `${label}: no reading${lastDoneAt ? ' since last done' : ''} (limit: ${limitText})` };
+    return { ...base, status: 'not-due', dueAt: null, key: null, reason: `${label}: no reading${lastDoneAt ? ' since last done' : ''} (limit: ${limitText})`, changesAt: null };
   }
   const last = readings[readings.length - 1];
   if (crosses(last.value)) {
@@ -384,13 +411,15 @@ function evalCondition(t: Extract<Trigger, { kind: 'condition' }>, input: PlanIn
     while (i > 0 && crosses(readings[i - 1].value)) i--;
     const firstPast = readings[i];
     const sinceMs = now.getTime() - firstPast.at.getTime();
-    const status: DueStatus = sinceMs > Math.max((dueSoon.days ?? 0) * DAY_MS, MIN_GRACE_MS) ? 'overdue' : 'due';
+    const graceMs = Math.max((dueSoon.days ?? 0) * DAY_MS, MIN_GRACE_MS);
+    const status: DueStatus = sinceMs > graceMs ? 'overdue' : 'due';
     return {
       ...base,
       status,
       dueAt: firstPast.at,
       key: `cond:${t.meterId}:${iso(firstPast.at)}`,
       reason: `${label} reads ${numText(last.value)} (limit: ${limitText}) since ${iso(firstPast.at)}`,
+      changesAt: status === 'due' ? justAfter(firstPast.at.getTime() + graceMs) : null,
     };
   }
   const f = dueSoon.fraction ?? 0;
@@ -411,6 +440,7 @@ function evalCondition(t: Extract<Trigger, { kind: 'condition' }>, input: PlanIn
     dueAt: forecastAt,
     key: null,
     reason: `${label} reads ${numText(last.value)} (limit: ${limitText})${forecastAt ? `, trend reaches it ${iso(forecastAt)}` : ''}`,
+    changesAt: !(near || byTrend) && dueSoon.days !== undefined && forecastAt !== null ? new Date(forecastAt.getTime() - dueSoon.days * DAY_MS) : null,
   };
 }
 
@@ -496,5 +526,12 @@ export function evaluatePlan(input: PlanInput): Evaluation {
     alreadyRaised: occurrenceKey !== null && occurrenceKey === input.lastRaisedKey,
     decidedBy: decider.index,
     triggers,
+    changesAt: earliest(triggers.map((t) => t.changesAt)),
   };
+}
+
+function earliest(dates: (Date | null)[]): Date | null {
+  let best: Date | null = null;
+  for (const d of dates) if (d !== null && (best === null || d.getTime() < best.getTime())) best = d;
+  return best;
 }
