@@ -18,6 +18,7 @@ import { registerDevInboxRoutes } from './modules/dev-inbox/dev-inbox.routes';
 import { registerAuditRoutes } from './modules/audit/audit.routes';
 import { registerMachineRoutes } from './modules/machines/machines.routes';
 import { registerMeterRoutes } from './modules/meters/meters.routes';
+import { registerCounterImportRoutes } from './modules/meters/counter-import.routes';
 import type { FakeSmtp } from './mail/fake-smtp';
 import { logger } from './logger';
 
@@ -71,6 +72,7 @@ export function createApp({ orm, config, smtp = null }: AppDeps): AppHandle {
   registerAuditRoutes(api);
   registerMachineRoutes(api);
   registerMeterRoutes(api);
+  registerCounterImportRoutes(api);
   registerDevInboxRoutes(api, config.MAIL_CAPTURE ? smtp : null);
 
   api.use(() => {

@@ -42,6 +42,7 @@ export const router = createBrowserRouter([
       { path: paths.machines.path.slice(1), lazy: () => import('./routes/machines') },
       { path: paths.machine.path.slice(1), lazy: () => import('./routes/machine-detail') },
       { path: paths.meter.path.slice(1), lazy: () => import('./routes/meter-detail') },
+      { path: paths.counterImport.path.slice(1), lazy: () => import('./routes/counter-import') },
       { path: '*', lazy: () => import('./routes/not-found') },
     ],
   },

@@ -31,6 +31,9 @@ const EXPECTED: Record<string, Role[] | 'public'> = {
   'GET /meters/:id/readings': ALL,
   'POST /meters/:id/readings': ['operator', 'technician', 'admin'],
   'GET /meters/:id/trend': ALL,
+  'GET /counter-import/template': ALL,
+  'POST /counter-import/preview': ['technician', 'admin'],
+  'POST /counter-import': ['technician', 'admin'],
 };
 
 type Layer = { route?: { path: string; methods: Record<string, boolean> } };

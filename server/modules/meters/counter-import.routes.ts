@@ -1,0 +1,65 @@
+import multer from 'multer';
+import type { Request, RequestHandler, Response } from 'express';
+import { route, type ApiRouter } from '../../http/route';
+import { requestEm } from '../../db';
+import { requirePrincipal } from '../../http/principal';
+import { AppError, badRequest } from '../../http/errors';
+import { Meter } from './meter.entity';
+import { templateCsv } from '../../../shared/domain/counter-import';
+import { COUNTER_IMPORT_MAX_BYTES, type ImportStreamLine } from '../../../shared/schemas/counter-import';
+import { importCounterCsv, previewCounterCsv, type Progress } from './counter-import.service';
+
+const upload = multer({ storage: multer.memoryStorage(), limits: { fileSize: COUNTER_IMPORT_MAX_BYTES, files: 1 } });
+
+/** Multer's own errors become clear HTTP answers (413 for a file over the cap). */
+const receiveFile: RequestHandler = (req, res, next) => {
+  upload.single('file')(req, res, (err: unknown) => {
+    if (err instanceof multer.MulterError) {
+      if (err.code === 'LIMIT_FILE_SIZE') return next(new AppError(413, 'too_large', `The file is larger than ${COUNTER_IMPORT_MAX_BYTES / 1024 / 1024} MB. Split it into smaller files; each is imported on its own.`, [{ path: 'file', message: 'File larger than 50 MB' }]));
+      return next(badRequest(`Upload refused: ${err.message}`, [{ path: 'file', message: err.message }]));
+    }
+    if (err) return next(err);
+    if (!req.file) return next(badRequest('Choose a CSV file to upload (form field “file”)', [{ path: 'file', message: 'Choose a CSV file' }]));
+    next();
+  });
+};
+
+/**
+ * With `Accept: application/x-ndjson` the answer is a stream of progress lines and then the
+ * outcome (errors included, since the status line is already sent); otherwise plain JSON.
+ */
+async function answer(req: Request, res: Response, work: (progress?: Progress) => Promise<ImportStreamLine>) {
+  if (!req.accepts(['application/json', 'application/x-ndjson']) || !/x-ndjson/.test(req.get('accept') ?? '')) {
+    const line = await work();
+    return res.status(200).json(line.type === 'preview' ? line.preview : line.type === 'result' ? line.result : line);
+  }
+  res.status(200).type('application/x-ndjson').setHeader('Cache-Control', 'no-store');
+  res.flushHeaders();
+  const write = (l: ImportStreamLine) => res.write(`${JSON.stringify(l)}\n`);
+  try {
+    write(await work((p) => void write({ type: 'progress', ...p })));
+  } catch (err) {
+    if (err instanceof AppError) write({ type: 'error', status: err.status, message: err.message, fields: err.fields });
+    else {
+      req.log?.error({ err }, 'counter import failed');
+      write({ type: 'error', status: 500, message: 'Something went wrong on our side. It has been logged.' });
+    }
+  }
+  res.end();
+}
+
+export function registerCounterImportRoutes(r: ApiRouter) {
+  route(r, 'get', '/counter-import/template', { access: 'machines.read' }, async (_req, res) => {
+    const meters = await requestEm().find(Meter, {}, { populate: ['machine'], orderBy: { code: 'asc' }, limit: 3 });
+    const examples = meters.length
+      ? meters.map((m, i) => ({ machineCode: m.machine.getEntity().code, meterCode: m.code, unit: m.unit, value: m.kind === 'condition' ? 850 : (i + 1) * 12500 }))
+      : [{ machineCode: 'C1-T', meterCode: 'arc-starts', unit: 'starts', value: 184220 }];
+    res.type('text/csv').attachment('kerfbook-counter-import.csv').send(templateCsv(examples));
+  });
+  route(r, 'post', '/counter-import/preview', { access: 'readings.import', before: [receiveFile] }, async (req, res) => {
+    await answer(req, res, async (progress) => ({ type: 'preview', preview: await previewCounterCsv(requestEm(), requirePrincipal(req), req.file!.buffer, progress) }));
+  });
+  route(r, 'post', '/counter-import', { access: 'readings.import', before: [receiveFile] }, async (req, res) => {
+    await answer(req, res, async (progress) => ({ type: 'result', result: await importCounterCsv(requestEm(), requirePrincipal(req), req.file!.buffer, progress) }));
+  });
+}
