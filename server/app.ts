@@ -16,9 +16,11 @@ import { registerUserRoutes } from './modules/users/users.routes';
 import { registerHealthRoutes } from './modules/health/health.routes';
 import { registerDevInboxRoutes } from './modules/dev-inbox/dev-inbox.routes';
 import { registerAuditRoutes } from './modules/audit/audit.routes';
+import { registerSafetyRoutes } from './modules/safety/safety.routes';
 import { registerMachineRoutes } from './modules/machines/machines.routes';
 import { registerMeterRoutes } from './modules/meters/meters.routes';
 import { registerCounterImportRoutes } from './modules/meters/counter-import.routes';
+import { registerStockRoutes } from './modules/stock/stock.routes';
 import type { FakeSmtp } from './mail/fake-smtp';
 import { logger } from './logger';
 
@@ -70,9 +72,11 @@ export function createApp({ orm, config, smtp = null }: AppDeps): AppHandle {
   registerAuthRoutes(api, config);
   registerUserRoutes(api, config);
   registerAuditRoutes(api);
+  registerSafetyRoutes(api, config);
   registerMachineRoutes(api);
   registerMeterRoutes(api);
   registerCounterImportRoutes(api);
+  registerStockRoutes(api);
   registerDevInboxRoutes(api, config.MAIL_CAPTURE ? smtp : null);
 
   api.use(() => {

@@ -7,6 +7,7 @@ const items: (NavItem & { permission?: Permission })[] = [
   { to: paths.home.getHref(), label: 'Today', end: true },
   { to: paths.machines.getHref(), label: 'Machines', permission: 'machines.read' },
   { to: paths.counterImport.getHref(), label: 'Counter import', permission: 'readings.import' },
+  { to: paths.stock.getHref(), label: 'Stock', permission: 'stock.read' },
   { to: paths.users.getHref(), label: 'People', permission: 'users.read' },
   { to: paths.audit.getHref(), label: 'Activity', permission: 'audit.read' },
   { to: paths.devInbox.getHref(), label: 'Dev inbox', permission: 'mail.inbox.own' },

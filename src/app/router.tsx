@@ -43,6 +43,7 @@ export const router = createBrowserRouter([
       { path: paths.machine.path.slice(1), lazy: () => import('./routes/machine-detail') },
       { path: paths.meter.path.slice(1), lazy: () => import('./routes/meter-detail') },
       { path: paths.counterImport.path.slice(1), lazy: () => import('./routes/counter-import') },
+      { path: paths.stock.path.slice(1), lazy: () => import('./routes/stock') },
       { path: '*', lazy: () => import('./routes/not-found') },
     ],
   },

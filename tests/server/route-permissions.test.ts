@@ -34,6 +34,12 @@ const EXPECTED: Record<string, Role[] | 'public'> = {
   'GET /counter-import/template': ALL,
   'POST /counter-import/preview': ['technician', 'admin'],
   'POST /counter-import': ['technician', 'admin'],
+  'GET /part-types': ALL,
+  'POST /part-types': ['technician', 'admin'],
+  'GET /part-types/:id': ALL,
+  'PATCH /part-types/:id': ['technician', 'admin'],
+  'GET /part-types/:id/moves': ALL,
+  'POST /stock-moves': ['technician', 'admin'],
 };
 
 type Layer = { route?: { path: string; methods: Record<string, boolean> } };

@@ -6,6 +6,7 @@ import { Panel } from '../../components/ui/notice';
 import { WorkCaution } from '../../components/ui/caution';
 import { can } from '../../../shared/permissions';
 import { paths } from '../../config/paths';
+import { LowStockPanel } from '../../features/stock/components/low-stock-panel';
 
 export function Component() {
   const { data: me } = useMe();
@@ -17,6 +18,7 @@ export function Component() {
           <WorkCaution />
         </Panel>
       ) : null}
+      {can(me.role, 'stock.manage') ? <LowStockPanel /> : null}
       {can(me.role, 'users.manage') ? (
         <Panel title="People" actions={<Link className="font-semibold text-mandatory underline" to={paths.users.getHref()}>Manage people</Link>}>
           <p className="text-steel-700">Invite operators, technicians and the safety officer; change roles; remove access for people who left.</p>

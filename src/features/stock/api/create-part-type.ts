@@ -1,0 +1,11 @@
+import { useMutation, useQueryClient } from '@tanstack/react-query';
+import type { z } from 'zod';
+import { api } from '../../../lib/api-client';
+import type { partTypeInputSchema } from '../../../../shared/schemas/stock';
+
+export const createPartType = (input: z.input<typeof partTypeInputSchema>) => api<{ id: string }>('/part-types', { method: 'POST', body: input });
+
+export function useCreatePartType() {
+  const qc = useQueryClient();
+  return useMutation({ mutationFn: createPartType, onSuccess: () => qc.invalidateQueries({ queryKey: ['stock'] }) });
+}

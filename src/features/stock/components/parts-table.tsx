@@ -1,0 +1,41 @@
+import { createColumnHelper } from '@tanstack/react-table';
+import { DataTable } from '../../../components/ui/data-table';
+import { Badge, EmptyState } from '../../../components/ui/notice';
+import { Button } from '../../../components/ui/button';
+import { LIFE_UNIT_LABELS, PART_CATEGORY_LABELS, type PartTypeRow } from '../../../../shared/schemas/stock';
+import { formatMoney, formatQty } from './format';
+
+const col = createColumnHelper<PartTypeRow>();
+const dec = new Intl.NumberFormat(undefined, { maximumFractionDigits: 2 });
+
+export function PartsTable({ rows, loading, selectedId, onSelect, toolbar }: { rows: PartTypeRow[]; loading?: boolean; selectedId?: string | null; onSelect: (id: string) => void; toolbar?: React.ReactNode }) {
+  const columns = [
+    col.accessor('partNumber', { header: 'Part number', enableHiding: false, cell: (c) => <span className="font-semibold">{c.getValue()}</span> }),
+    col.accessor('name', { header: 'Name' }),
+    col.accessor('category', { header: 'Category', cell: (c) => PART_CATEGORY_LABELS[c.getValue()] }),
+    col.accessor('onHand', {
+      header: 'On hand',
+      cell: (c) => (
+        <span className="inline-flex flex-wrap items-center gap-2">
+          <span className="tabular-nums">{formatQty(c.getValue(), c.row.original.stockUnit)}</span>
+          {c.row.original.low ? <Badge tone="caution">Reorder</Badge> : null}
+        </span>
+      ),
+    }),
+    col.accessor('reorderPoint', { header: 'Reorder point', cell: (c) => <span className="tabular-nums" title={`${dec.format(c.row.original.usagePerDay)} per day over ${c.row.original.usageWindowDays} days, ${c.row.original.leadTimeDays} days lead time, ${Math.round(c.row.original.serviceLevel * 100)} % service level`}>{formatQty(c.getValue(), c.row.original.stockUnit)}</span> }),
+    col.accessor('usagePerDay', { header: 'Use per day', cell: (c) => dec.format(c.getValue()) }),
+    col.accessor('leadTimeDays', { header: 'Lead time', cell: (c) => `${c.getValue()} d` }),
+    col.accessor('expectedLife', { header: 'Expected life', cell: (c) => (c.getValue() !== null ? `${dec.format(c.getValue()!)} ${c.row.original.lifeUnit ? LIFE_UNIT_LABELS[c.row.original.lifeUnit] : ''}` : '—') }),
+    col.accessor('unitCost', { header: 'Unit cost', cell: (c) => formatMoney(c.getValue()) }),
+    col.display({
+      id: 'select',
+      header: 'Moves',
+      cell: (c) => (
+        <Button variant={selectedId === c.row.original.id ? 'primary' : 'secondary'} onClick={() => onSelect(c.row.original.id)} aria-pressed={selectedId === c.row.original.id} aria-label={`Stock moves of ${c.row.original.partNumber}`}>
+          Moves
+        </Button>
+      ),
+    }),
+  ];
+  return <DataTable caption="Part catalogue" columns={columns} data={rows} loading={loading} getRowId={(r) => r.id} toolbar={toolbar} empty={<EmptyState title="No parts in the catalogue yet" />} />;
+}
