@@ -59,7 +59,7 @@ export const ProcedurePhoto = defineEntity({
     caption: p.string().length(200).nullable(),
     mime: p.string().length(40),
     size: p.integer(),
-    data: p.blob().lazy(),
+    data: p.blob().lazy(true, false),
   },
 });
 export type IProcedurePhoto = InferEntity<typeof ProcedurePhoto>;

@@ -1,0 +1,429 @@
+import type { EntityManager } from '@mikro-orm/postgresql';
+import { Membership, User } from '../users/user.entity';
+import { Machine } from '../machines/machine.entity';
+import { WorkOrder } from '../work-orders/work-order.entity';
+import { markLockoutApplied, markLockoutReleased } from '../work-orders/work-order-lockout';
+import { EnergyProcedure, ProcedureVersion } from './procedure.entity';
+import { LockoutMember, LockoutPoint, LockoutSession, type ILockoutPoint, type ILockoutSession } from './lockout.entity';
+import { SafetySignOff } from './sign-off.entity';
+import { appendSignOff } from './chain';
+import { badRequest, conflict, fieldError, forbidden, notFound } from '../../http/errors';
+import { recordAudit } from '../audit/audit';
+import type { Principal } from '../../http/principal';
+import type { Page } from '../../../shared/schemas/users';
+import {
+  LOCK_DEVICE_LABELS,
+  type AcceptHandoverInput,
+  type ApplyLockoutInput,
+  type JoinLockoutInput,
+  type ListLockoutsQuery,
+  type LockoutDetail,
+  type LockoutRow,
+  type OfferHandoverInput,
+  type ReleaseLockoutInput,
+  type VerifyLockoutInput,
+} from '../../../shared/schemas/safety-lockout';
+import { ENERGY_KIND_LABELS } from '../../../shared/schemas/safety-procedures';
+
+const AUTHORIZED_ROLES = ['technician', 'safety'] as const;
+const SUBJECT = 'lockout-session';
+const NIL = '00000000-0000-0000-0000-000000000000';
+const iso = (d: Date | null | undefined) => (d ? d.toISOString() : null);
+
+/** Locks already hanging somewhere in this shop: a physical lock cannot be in two places. */
+async function locksInUse(tx: EntityManager, orgId: string, numbers: string[], exceptSession?: string): Promise<Map<string, string>> {
+  if (numbers.length === 0) return new Map();
+  const upper = numbers.map((n) => n.toUpperCase());
+  const rows = await tx.execute<{ lock: string; where: string }[]>(
+    `select upper(p.lock_number) as lock, m.code || ' (' || p.source_key || ')' as where
+       from safety_lockout_point p join safety_lockout s on s.id = p.session_id join machine m on m.id = s.machine_id
+      where p.organization_id = ? and p.removed_at is null and p.device not in ('tag-only', 'blocking') and upper(p.lock_number) in (?) and s.id <> ?
+     union all
+     select upper(lm.lock_number), m.code || ' (personal lock)'
+       from safety_lockout_member lm join safety_lockout s on s.id = lm.session_id join machine m on m.id = s.machine_id
+      where lm.organization_id = ? and lm.left_at is null and upper(lm.lock_number) in (?) and s.id <> ?`,
+    [orgId, upper, exceptSession ?? NIL, orgId, upper, exceptSession ?? NIL],
+  );
+  return new Map(rows.map((r) => [r.lock, r.where]));
+}
+
+async function loadOpen(tx: EntityManager, who: Principal, id: string): Promise<ILockoutSession> {
+  // Row lock first: two people acting on one lockout at once are applied one after the other.
+  await tx.execute('select id from safety_lockout where id = ? and organization_id = ? for update', [id, who.orgId]);
+  const s = await tx.findOne(LockoutSession, id, { populate: ['machine', 'primary', 'procedureVersion'] });
+  if (!s) throw notFound('Lockout');
+  if (s.state === 'released') throw conflict('This lockout was already released');
+  return s;
+}
+
+function pointLabel(p: Pick<ILockoutPoint, 'sourceKey' | 'lockNumber' | 'device'>) {
+  return `${p.sourceKey} ${p.device === 'tag-only' ? 'tag' : 'lock'} ${p.lockNumber}`;
+}
+
+export async function applyLockout(em: EntityManager, who: Principal, input: ApplyLockoutInput): Promise<{ id: string; signOffId: string }> {
+  return em.transactional(async (tx) => {
+    const proc = await tx.findOne(EnergyProcedure, input.procedureId, { populate: ['machine'] });
+    if (!proc) throw notFound('Procedure');
+    const version = await tx.findOne(ProcedureVersion, { procedure: proc.id, status: 'approved' }, { orderBy: { version: 'desc' } });
+    if (!version) throw conflict('This procedure has no approved version; the safety officer must approve it before anyone locks out with it', [{ path: 'procedureId', message: 'No approved version' }]);
+    const sources = version.content.sources;
+    input.points.forEach((p, i) => {
+      if (!sources.some((s) => s.key === p.sourceKey)) throw fieldError(`points.${i}.sourceKey`, `Version ${version.version} of the procedure has no isolation point ${p.sourceKey}`);
+    });
+    const missing = sources.filter((s) => !input.points.some((p) => p.sourceKey === s.key));
+    if (missing.length) {
+      throw badRequest(`Lock out every energy source the procedure names; missing: ${missing.map((s) => `${s.key} (${ENERGY_KIND_LABELS[s.kind]})`).join(', ')}`, [
+        { path: 'points', message: `Missing: ${missing.map((s) => s.key).join(', ')}` },
+      ]);
+    }
+    const used = await locksInUse(tx, who.orgId, input.points.filter((p) => p.device !== 'tag-only' && p.device !== 'blocking').map((p) => p.lockNumber));
+    input.points.forEach((p, i) => {
+      const where = used.get(p.lockNumber.toUpperCase());
+      if (where && p.device !== 'tag-only' && p.device !== 'blocking') throw conflict(`Lock ${p.lockNumber} is already on ${where}`, [{ path: `points.${i}.lockNumber`, message: `Already on ${where}` }]);
+    });
+    const machine = proc.machine.getEntity();
+    const now = new Date();
+    const session = tx.create(LockoutSession, {
+      organization: who.orgId,
+      machine,
+      procedure: proc,
+      procedureVersion: version,
+      workOrderId: input.workOrderId ?? null,
+      reason: input.reason,
+      group: input.group,
+      state: 'locked',
+      primary: who.userId,
+      appliedAt: now,
+    });
+    for (const p of input.points) {
+      tx.create(LockoutPoint, { organization: who.orgId, session, sourceKey: p.sourceKey, device: p.device, lockNumber: p.lockNumber, tagNumber: p.tagNumber || null, appliedBy: who.userId, holder: who.userId, appliedAt: now });
+    }
+    if (input.workOrderId) {
+      const wo = await tx.findOne(WorkOrder, input.workOrderId);
+      if (!wo) throw notFound('Work order');
+      if (wo.machine.id !== machine.id) throw fieldError('workOrderId', `Work order ${wo.number} is for another machine`);
+      if (wo.status === 'done' || wo.status === 'cancelled') throw fieldError('workOrderId', `Work order ${wo.number} is already ${wo.status}`);
+      await markLockoutApplied(tx, wo.id, session.id);
+    }
+    const signOff = await appendSignOff(tx, who, {
+      meaning: 'lockout-applied',
+      subjectType: SUBJECT,
+      subjectId: session.id,
+      machineId: machine.id,
+      details: {
+        summary: `${machine.code} v${version.version}: ${input.points.map((p) => `${p.sourceKey} ${LOCK_DEVICE_LABELS[p.device].toLowerCase()} ${p.lockNumber}${p.tagNumber ? `/${p.tagNumber}` : ''}`).join(', ')} — ${input.reason}`,
+        procedureId: proc.id,
+        procedureVersion: version.version,
+        reason: input.reason,
+        group: input.group,
+        workOrderId: input.workOrderId ?? null,
+        points: input.points.map((p) => ({ key: p.sourceKey, device: p.device, lock: p.lockNumber, tag: p.tagNumber ?? null })),
+      },
+    });
+    recordAudit(tx, who, 'safety.lockout-applied', { type: 'LockoutSession', id: session.id }, { machine: machine.code, signOffId: signOff.id });
+    return { id: session.id, signOffId: signOff.id };
+  });
+}
+
+async function activePoints(tx: EntityManager, sessionId: string) {
+  return tx.find(LockoutPoint, { session: sessionId, removedAt: null }, { populate: ['holder'], orderBy: { sourceKey: 'asc' } });
+}
+
+export async function verifyLockout(em: EntityManager, who: Principal, id: string, input: VerifyLockoutInput) {
+  return em.transactional(async (tx) => {
+    const s = await loadOpen(tx, who, id);
+    if (s.state !== 'locked') throw conflict('Isolation on this lockout is already verified');
+    if (s.primary.id !== who.userId) throw forbidden(`Only ${s.primary.getEntity().name}, who holds this lockout, verifies its isolation`);
+    const points = await activePoints(tx, s.id);
+    const untested = points.filter((p) => !input.testedPointIds.includes(p.id));
+    if (untested.length) throw fieldError('testedPointIds', `Test every isolation point before signing; not ticked: ${untested.map((p) => p.sourceKey).join(', ')}`);
+    const stray = input.testedPointIds.filter((pid) => !points.some((p) => p.id === pid));
+    if (stray.length) throw fieldError('testedPointIds', 'Some ticked points do not belong to this lockout');
+    s.state = 'verified';
+    const signOff = await appendSignOff(tx, who, {
+      meaning: 'isolation-verified',
+      subjectType: SUBJECT,
+      subjectId: s.id,
+      machineId: s.machine.id,
+      details: { summary: `${s.machine.getEntity().code}: start attempted; zero energy at ${points.map((p) => p.sourceKey).join(', ')}`, points: points.map((p) => p.sourceKey), startAttempted: true },
+      note: input.note ?? null,
+    });
+    s.verifiedAt = signOff.signedAt;
+    recordAudit(tx, who, 'safety.lockout-verified', { type: 'LockoutSession', id: s.id }, { signOffId: signOff.id });
+    return { id: s.id, signOffId: signOff.id };
+  });
+}
+
+export async function joinLockout(em: EntityManager, who: Principal, id: string, input: JoinLockoutInput) {
+  return em.transactional(async (tx) => {
+    const s = await loadOpen(tx, who, id);
+    if (s.primary.id === who.userId) throw conflict('You hold this lockout already; your locks are on the isolation points');
+    const already = await tx.findOne(LockoutMember, { session: s.id, user: who.userId, leftAt: null });
+    if (already) throw conflict(`Your personal lock ${already.lockNumber} is already on this lockout`);
+    const used = await locksInUse(tx, who.orgId, [input.lockNumber]);
+    const where = used.get(input.lockNumber.toUpperCase());
+    if (where) throw conflict(`Lock ${input.lockNumber} is already on ${where}`, [{ path: 'lockNumber', message: `Already on ${where}` }]);
+    const member = tx.create(LockoutMember, { organization: who.orgId, session: s, user: who.userId, lockNumber: input.lockNumber, joinedAt: new Date() });
+    s.group = true;
+    const signOff = await appendSignOff(tx, who, {
+      meaning: 'member-joined',
+      subjectType: SUBJECT,
+      subjectId: s.id,
+      machineId: s.machine.id,
+      details: { summary: `${s.machine.getEntity().code}: personal lock ${input.lockNumber} on the group lockout held by ${s.primary.getEntity().name}`, lock: input.lockNumber, memberId: member.id },
+    });
+    member.joinedAt = signOff.signedAt;
+    recordAudit(tx, who, 'safety.lockout-joined', { type: 'LockoutSession', id: s.id }, { signOffId: signOff.id });
+    return { id: member.id, signOffId: signOff.id };
+  });
+}
+
+export async function leaveLockout(em: EntityManager, who: Principal, id: string) {
+  return em.transactional(async (tx) => {
+    const s = await loadOpen(tx, who, id);
+    const member = await tx.findOne(LockoutMember, { session: s.id, user: who.userId, leftAt: null });
+    if (!member) throw conflict('You have no personal lock on this lockout; only the person whose lock it is removes it');
+    const signOff = await appendSignOff(tx, who, {
+      meaning: 'member-left',
+      subjectType: SUBJECT,
+      subjectId: s.id,
+      machineId: s.machine.id,
+      details: { summary: `${s.machine.getEntity().code}: personal lock ${member.lockNumber} removed`, lock: member.lockNumber, memberId: member.id },
+    });
+    member.leftAt = signOff.signedAt;
+    recordAudit(tx, who, 'safety.lockout-left', { type: 'LockoutSession', id: s.id }, { signOffId: signOff.id });
+    return { signOffId: signOff.id };
+  });
+}
+
+/** Shift hand-over, step 1 (1910.147(f)(4)): the off-going holder names who takes over; their locks stay on. */
+export async function offerHandover(em: EntityManager, who: Principal, id: string, input: OfferHandoverInput) {
+  return em.transactional(async (tx) => {
+    const s = await loadOpen(tx, who, id);
+    if (s.primary.id !== who.userId) throw forbidden(`Only ${s.primary.getEntity().name}, who holds this lockout, can hand it over`);
+    if (input.toUserId === who.userId) throw fieldError('toUserId', 'Choose someone else to take over');
+    const m = await tx.findOne(Membership, { user: input.toUserId, organization: who.orgId, active: true }, { filters: false, populate: ['user'] });
+    if (!m) throw fieldError('toUserId', 'This person is not an active member of your shop');
+    if (!(AUTHORIZED_ROLES as readonly string[]).includes(m.role)) throw fieldError('toUserId', `${m.user.getEntity().name} is not an authorized employee (technician or safety officer) and cannot hold a lockout`);
+    s.pendingHandoverTo = tx.getReference(User, input.toUserId) as never;
+    const signOff = await appendSignOff(tx, who, {
+      meaning: 'handover-offered',
+      subjectType: SUBJECT,
+      subjectId: s.id,
+      machineId: s.machine.id,
+      details: { summary: `${s.machine.getEntity().code}: handing over to ${m.user.getEntity().name}`, toUserId: input.toUserId, toName: m.user.getEntity().name },
+      note: input.note ?? null,
+    });
+    recordAudit(tx, who, 'safety.lockout-handover-offered', { type: 'LockoutSession', id: s.id }, { to: input.toUserId, signOffId: signOff.id });
+    return { signOffId: signOff.id };
+  });
+}
+
+/** Step 2: the oncoming person puts their own lock on every point; the off-going locks come off in the same record. */
+export async function acceptHandover(em: EntityManager, who: Principal, id: string, input: AcceptHandoverInput) {
+  return em.transactional(async (tx) => {
+    const s = await loadOpen(tx, who, id);
+    if (s.pendingHandoverTo?.id !== who.userId) throw forbidden('No hand-over of this lockout is waiting for you');
+    const from = s.primary.getEntity();
+    const points = await activePoints(tx, s.id);
+    const mine = points.filter((p) => p.holder.id === from.id);
+    const missing = mine.filter((p) => !input.locks.some((l) => l.pointId === p.id));
+    if (missing.length) throw fieldError('locks', `Put your own lock on every point before taking over; missing: ${missing.map((p) => p.sourceKey).join(', ')}`);
+    const numbers = input.locks.map((l) => l.lockNumber.toUpperCase());
+    if (new Set(numbers).size !== numbers.length) throw fieldError('locks', 'Each point needs its own lock');
+    const used = await locksInUse(tx, who.orgId, input.locks.map((l) => l.lockNumber), s.id);
+    for (const l of input.locks) {
+      const where = used.get(l.lockNumber.toUpperCase());
+      if (where) throw conflict(`Lock ${l.lockNumber} is already on ${where}`, [{ path: 'locks', message: `Lock ${l.lockNumber} already on ${where}` }]);
+    }
+    const now = new Date();
+    const swaps: { key: string; from: string; to: string }[] = [];
+    for (const p of mine) {
+      const lock = input.locks.find((l) => l.pointId === p.id)!;
+      p.removedAt = now;
+      p.removedBy = tx.getReference(User, from.id) as never;
+      tx.create(LockoutPoint, { organization: who.orgId, session: s, sourceKey: p.sourceKey, device: p.device, lockNumber: lock.lockNumber, tagNumber: p.tagNumber, appliedBy: who.userId, holder: who.userId, appliedAt: now });
+      swaps.push({ key: p.sourceKey, from: p.lockNumber, to: lock.lockNumber });
+    }
+    s.primary = tx.getReference(User, who.userId) as never;
+    s.pendingHandoverTo = null;
+    const signOff = await appendSignOff(tx, who, {
+      meaning: 'handover-accepted',
+      subjectType: SUBJECT,
+      subjectId: s.id,
+      machineId: s.machine.id,
+      details: { summary: `${s.machine.getEntity().code}: taken over from ${from.name}; ${swaps.map((x) => `${x.key} ${x.from} → ${x.to}`).join(', ')}`, fromUserId: from.id, fromName: from.name, locks: swaps },
+    });
+    recordAudit(tx, who, 'safety.lockout-handover-accepted', { type: 'LockoutSession', id: s.id }, { from: from.id, signOffId: signOff.id });
+    return { signOffId: signOff.id };
+  });
+}
+
+/** Release (1910.147(e)): only the holder of every remaining device, after every member has taken their lock off. */
+export async function releaseLockout(em: EntityManager, who: Principal, id: string, input: ReleaseLockoutInput) {
+  return em.transactional(async (tx) => {
+    const s = await loadOpen(tx, who, id);
+    const points = await activePoints(tx, s.id);
+    const others = points.filter((p) => p.holder.id !== who.userId);
+    if (others.length) {
+      throw forbidden(
+        `Only the person who applied a lock removes it (OSHA 29 CFR 1910.147(e)(3)): ${others.map((p) => `${pointLabel(p)} belongs to ${p.holder.getEntity().name}`).join('; ')}`,
+      );
+    }
+    const members = await tx.find(LockoutMember, { session: s.id, leftAt: null }, { populate: ['user'] });
+    if (members.length) {
+      throw conflict(`Personal locks are still on this group lockout: ${members.map((m) => `${m.user.getEntity().name} (${m.lockNumber})`).join(', ')}. Each person removes their own lock first.`);
+    }
+    if (s.pendingHandoverTo) throw conflict('A hand-over is waiting to be accepted; it must be accepted before the lockout can be released');
+    const now = new Date();
+    for (const p of points) {
+      p.removedAt = now;
+      p.removedBy = tx.getReference(User, who.userId) as never;
+    }
+    s.state = 'released';
+    const machine = s.machine.getEntity();
+    const signOff = await appendSignOff(tx, who, {
+      meaning: 'lockout-released',
+      subjectType: SUBJECT,
+      subjectId: s.id,
+      machineId: machine.id,
+      details: {
+        summary: `${machine.code}: area checked, people clear, affected employees told; removed ${points.map(pointLabel).join(', ')}`,
+        areaChecked: true,
+        peopleClear: true,
+        affectedNotified: true,
+        removed: points.map((p) => ({ key: p.sourceKey, lock: p.lockNumber })),
+        workOrderId: s.workOrderId ?? null,
+      },
+      note: input.note ?? null,
+    });
+    s.releasedAt = signOff.signedAt;
+    if (s.workOrderId) await markLockoutReleased(tx, s.workOrderId, signOff.signedAt);
+    recordAudit(tx, who, 'safety.lockout-released', { type: 'LockoutSession', id: s.id }, { signOffId: signOff.id });
+    return { id: s.id, signOffId: signOff.id };
+  });
+}
+
+const rowSql = `select s.id, s.state, s.machine_id, m.code as machine_code, m.name as machine_name, s.reason, s."group", s.primary_id, u.name as primary_name,
+    v.version as procedure_version, s.work_order_id, s.applied_at, s.verified_at, s.released_at, s.procedure_id,
+    (select count(*) from safety_lockout_member lm where lm.session_id = s.id and lm.left_at is null) as active_members, count(*) over () as total
+  from safety_lockout s join machine m on m.id = s.machine_id join app_user u on u.id = s.primary_id join safety_procedure_version v on v.id = s.procedure_version_id`;
+
+type RowSql = {
+  id: string;
+  state: LockoutRow['state'];
+  machine_id: string;
+  machine_code: string;
+  machine_name: string;
+  reason: string;
+  group: boolean;
+  primary_id: string;
+  primary_name: string;
+  procedure_version: number;
+  work_order_id: string | null;
+  applied_at: Date;
+  verified_at: Date | null;
+  released_at: Date | null;
+  procedure_id: string;
+  active_members: string;
+  total: string;
+};
+
+const toRow = (r: RowSql): LockoutRow => ({
+  id: r.id,
+  state: r.state,
+  machineId: r.machine_id,
+  machineCode: r.machine_code,
+  machineName: r.machine_name,
+  reason: r.reason,
+  group: r.group,
+  primaryId: r.primary_id,
+  primaryName: r.primary_name,
+  procedureVersion: Number(r.procedure_version),
+  workOrderId: r.work_order_id,
+  appliedAt: new Date(r.applied_at).toISOString(),
+  verifiedAt: r.verified_at ? new Date(r.verified_at).toISOString() : null,
+  releasedAt: r.released_at ? new Date(r.released_at).toISOString() : null,
+  activeMembers: Number(r.active_members),
+});
+
+export async function listLockouts(em: EntityManager, who: Principal, q: ListLockoutsQuery): Promise<Page<LockoutRow>> {
+  const params: unknown[] = [who.orgId];
+  let where = 's.organization_id = ?';
+  if (q.state === 'open') where += ` and s.state <> 'released'`;
+  else if (q.state) {
+    where += ' and s.state = ?';
+    params.push(q.state);
+  }
+  if (q.machineId) {
+    where += ' and s.machine_id = ?';
+    params.push(q.machineId);
+  }
+  const rows = await em.getConnection().execute<RowSql[]>(`${rowSql} where ${where} order by (s.state = 'released'), s.applied_at desc limit ? offset ?`, [...params, q.pageSize, (q.page - 1) * q.pageSize]);
+  return { rows: rows.map(toRow), total: rows[0] ? Number(rows[0].total) : 0, page: q.page, pageSize: q.pageSize };
+}
+
+export async function getLockout(em: EntityManager, who: Principal, id: string): Promise<LockoutDetail> {
+  const [r] = await em.getConnection().execute<RowSql[]>(`${rowSql} where s.organization_id = ? and s.id = ?`, [who.orgId, id]);
+  if (!r) throw notFound('Lockout');
+  const session = await em.findOneOrFail(LockoutSession, id, { populate: ['pendingHandoverTo', 'procedureVersion'] });
+  const points = await em.find(LockoutPoint, { session: id }, { populate: ['holder', 'appliedBy', 'removedBy'], orderBy: { appliedAt: 'asc', sourceKey: 'asc' } });
+  const members = await em.find(LockoutMember, { session: id }, { populate: ['user'], orderBy: { joinedAt: 'asc' } });
+  const signOffs = await em.find(SafetySignOff, { subjectId: id }, { orderBy: { seq: 'asc' } });
+  const sources = session.procedureVersion.getEntity().content.sources;
+  return {
+    ...toRow(r),
+    procedureId: r.procedure_id,
+    pendingHandoverToId: session.pendingHandoverTo?.id ?? null,
+    pendingHandoverToName: session.pendingHandoverTo?.getEntity().name ?? null,
+    points: points.map((p) => {
+      const src = sources.find((x) => x.key === p.sourceKey);
+      return {
+        id: p.id,
+        sourceKey: p.sourceKey,
+        sourceKind: src ? ENERGY_KIND_LABELS[src.kind] : '?',
+        isolationDevice: src?.isolationDevice ?? '?',
+        location: src?.location ?? '?',
+        device: p.device,
+        lockNumber: p.lockNumber,
+        tagNumber: p.tagNumber ?? null,
+        holderId: p.holder.id,
+        holderName: p.holder.getEntity().name,
+        appliedByName: p.appliedBy.getEntity().name,
+        appliedAt: p.appliedAt.toISOString(),
+        removedAt: iso(p.removedAt),
+        removedByName: p.removedBy?.getEntity().name ?? null,
+      };
+    }),
+    members: members.map((m) => ({ id: m.id, userId: m.user.id, name: m.user.getEntity().name, lockNumber: m.lockNumber, joinedAt: m.joinedAt.toISOString(), leftAt: iso(m.leftAt) })),
+    signOffs: signOffs.map((x) => ({ id: x.id, seq: x.seq, signedAt: x.signedAt.toISOString(), signerName: x.signerName, meaning: x.meaning, statement: x.statement })),
+  };
+}
+
+/** Machines with what the safety screens need: procedure and open lockouts. */
+export async function safetyMachines(em: EntityManager, who: Principal) {
+  const machines = await em.find(Machine, { active: true }, { orderBy: { code: 'asc' } });
+  const procs = await em.getConnection().execute<{ id: string; machine_id: string; title: string; version: number | null }[]>(
+    `select p.id, p.machine_id, p.title, (select max(v.version) from safety_procedure_version v where v.procedure_id = p.id and v.status = 'approved') as version
+       from safety_procedure p where p.organization_id = ? order by p.title`,
+    [who.orgId],
+  );
+  const open = await em.getConnection().execute<{ machine_id: string; n: string }[]>(`select machine_id, count(*) as n from safety_lockout where organization_id = ? and state <> 'released' group by machine_id`, [who.orgId]);
+  return machines.map((m) => ({
+    id: m.id,
+    code: m.code,
+    name: m.name,
+    kind: m.kind,
+    procedures: procs.filter((p) => p.machine_id === m.id).map((p) => ({ id: p.id, title: p.title, approvedVersion: p.version === null ? null : Number(p.version) })),
+    openLockouts: Number(open.find((o) => o.machine_id === m.id)?.n ?? 0),
+  }));
+}
+
+/** Active people of the shop, for pickers (hand-over, inspection, training). */
+export async function safetyPeople(em: EntityManager, who: Principal) {
+  const rows = await em.getConnection().execute<{ id: string; name: string; role: string }[]>(
+    `select u.id, u.name, m.role from membership m join app_user u on u.id = m.user_id where m.organization_id = ? and m.active order by u.name`,
+    [who.orgId],
+  );
+  return rows;
+}

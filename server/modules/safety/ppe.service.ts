@@ -1,0 +1,119 @@
+import type { EntityManager } from '@mikro-orm/postgresql';
+import { Machine } from '../machines/machine.entity';
+import { PpeCheck, PpeRequirement, type IPpeRequirement } from './records.entity';
+import { appendSignOff } from './chain';
+import { fieldError, notFound } from '../../http/errors';
+import { recordAudit } from '../audit/audit';
+import type { Principal } from '../../http/principal';
+import { loadSafetySettings } from './settings';
+import { deriveRequiredItems } from '../../../shared/schemas/safety-ppe-derive';
+import type { ShadeTable } from '../../../shared/domain/shade';
+import type { SafetySettings } from '../../../shared/schemas/safety-records';
+import type { PpeCheckInput, PpeRequirementInput, PpeRequirementRow } from '../../../shared/schemas/safety-ppe';
+
+export const deriveSettings = (s: SafetySettings) => ({ shadeTable: (s.shadeTable as ShadeTable | null) ?? null, hearingRequiredFromDbA: s.hearingRequiredFromDbA, hearingRuleSource: s.hearingRuleSource });
+
+function toRow(r: IPpeRequirement, settings: SafetySettings, last: { at: Date; name: string } | undefined): PpeRequirementRow {
+  const machine = r.machine.getEntity();
+  const derived = deriveRequiredItems({ items: r.items, otherItems: r.otherItems, arcCurrentA: r.arcCurrentA ?? null, noise: r.noise }, deriveSettings(settings));
+  return {
+    id: r.id,
+    machineId: machine.id,
+    machineCode: machine.code,
+    machineName: machine.name,
+    task: r.task,
+    items: r.items,
+    otherItems: r.otherItems,
+    arcCurrentA: r.arcCurrentA ?? null,
+    noise: r.noise,
+    cadence: r.cadence,
+    ...derived,
+    lastCheckAt: last ? last.at.toISOString() : null,
+    lastCheckByName: last?.name ?? null,
+  };
+}
+
+export async function listRequirements(em: EntityManager, who: Principal, machineId?: string): Promise<PpeRequirementRow[]> {
+  const reqs = await em.find(PpeRequirement, { active: true, ...(machineId ? { machine: machineId } : {}) }, { populate: ['machine'], orderBy: { machine: { code: 'asc' }, task: 'asc' } });
+  const { settings } = await loadSafetySettings(em, who.orgId);
+  const last = await em.getConnection().execute<{ requirement_id: string; checked_at: Date; name: string }[]>(
+    `select distinct on (c.requirement_id) c.requirement_id, c.checked_at, u.name from safety_ppe_check c join app_user u on u.id = c.person_id
+      where c.organization_id = ? order by c.requirement_id, c.checked_at desc`,
+    [who.orgId],
+  );
+  const byReq = new Map(last.map((l) => [l.requirement_id, { at: new Date(l.checked_at), name: l.name }]));
+  return reqs.map((r) => toRow(r, settings, byReq.get(r.id)));
+}
+
+export async function saveRequirement(em: EntityManager, who: Principal, input: PpeRequirementInput, id?: string): Promise<{ id: string }> {
+  return em.transactional(async (tx) => {
+    const machine = await tx.findOne(Machine, input.machineId);
+    if (!machine) throw notFound('Machine');
+    const { settings } = await loadSafetySettings(tx, who.orgId);
+    // Refuse an arc current the shade table cannot answer, instead of posting no shade at all.
+    const derived = deriveRequiredItems({ items: input.items, otherItems: input.otherItems, arcCurrentA: input.arcCurrentA, noise: input.noise }, deriveSettings(settings));
+    if (derived.shade && !derived.shade.ok) throw fieldError('arcCurrentA', derived.shade.message);
+    let r: IPpeRequirement;
+    if (id) {
+      const found = await tx.findOne(PpeRequirement, id);
+      if (!found) throw notFound('PPE requirement');
+      r = found;
+      Object.assign(r, { machine, task: input.task, items: input.items, otherItems: input.otherItems, arcCurrentA: input.arcCurrentA, noise: input.noise, cadence: input.cadence });
+    } else {
+      r = tx.create(PpeRequirement, { organization: who.orgId, machine, task: input.task, items: input.items, otherItems: input.otherItems, arcCurrentA: input.arcCurrentA, noise: input.noise, cadence: input.cadence, active: true });
+    }
+    recordAudit(tx, who, id ? 'safety.ppe-requirement-changed' : 'safety.ppe-requirement-created', { type: 'PpeRequirement', id: r.id }, { machine: machine.code, task: input.task, required: derived.required.map((x) => x.code) });
+    return { id: r.id };
+  });
+}
+
+export async function retireRequirement(em: EntityManager, who: Principal, id: string) {
+  await em.transactional(async (tx) => {
+    const r = await tx.findOne(PpeRequirement, id);
+    if (!r) throw notFound('PPE requirement');
+    r.active = false;
+    recordAudit(tx, who, 'safety.ppe-requirement-retired', { type: 'PpeRequirement', id: r.id });
+  });
+}
+
+/** The shift PPE check: every required item must be tapped "on" before the signature is accepted. */
+export async function recordPpeCheck(em: EntityManager, who: Principal, input: PpeCheckInput) {
+  return em.transactional(async (tx) => {
+    const r = await tx.findOne(PpeRequirement, { id: input.requirementId, active: true }, { populate: ['machine'] });
+    if (!r) throw notFound('PPE requirement');
+    const { settings } = await loadSafetySettings(tx, who.orgId);
+    const derived = deriveRequiredItems({ items: r.items, otherItems: r.otherItems, arcCurrentA: r.arcCurrentA ?? null, noise: r.noise }, deriveSettings(settings));
+    const missing = derived.required.filter((i) => !input.confirmed.includes(i.code));
+    if (missing.length) {
+      throw fieldError('confirmed', `Do not start: put on ${missing.map((m) => m.label.toLowerCase()).join(', ')} first, then sign`);
+    }
+    const machine = r.machine.getEntity();
+    const check = tx.create(PpeCheck, {
+      organization: who.orgId,
+      machine,
+      requirement: r,
+      person: who.userId,
+      checkedAt: new Date(),
+      items: derived.required.map((i) => i.code),
+      signOff: null as never,
+    });
+    const signOff = await appendSignOff(tx, who, {
+      meaning: 'ppe-check-done',
+      subjectType: 'ppe-check',
+      subjectId: check.id,
+      machineId: machine.id,
+      details: {
+        summary: `${machine.code} ${r.task}: ${derived.required.map((i) => (i.code === 'filter-lens' && derived.shade?.ok ? `${i.label.split(' (')[0]} shade ${derived.shade.minimum}+` : i.label.split(' (')[0])).join(', ')}`,
+        requirementId: r.id,
+        task: r.task,
+        items: derived.required.map((i) => ({ code: i.code, detail: i.detail })),
+        shade: derived.shade?.ok ? { minimum: derived.shade.minimum, arcCurrentA: derived.shade.arcCurrentA, source: derived.shade.source } : null,
+        hearing: derived.hearing ? { twaDbA: derived.hearing.twaDbA, required: derived.hearing.required, rule: derived.hearing.ruleSource } : null,
+      },
+    });
+    check.checkedAt = signOff.signedAt;
+    check.signOff = signOff as never;
+    recordAudit(tx, who, 'safety.ppe-check', { type: 'PpeCheck', id: check.id }, { machine: machine.code, signOffId: signOff.id });
+    return { id: check.id, signOffId: signOff.id };
+  });
+}

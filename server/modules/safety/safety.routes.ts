@@ -1,0 +1,147 @@
+import type { RequestHandler } from 'express';
+import type { EntityManager } from '@mikro-orm/postgresql';
+import multer from 'multer';
+import { z } from 'zod';
+import { route, type ApiRouter } from '../../http/route';
+import { requestEm } from '../../db';
+import { requirePrincipal } from '../../http/principal';
+import { fieldError } from '../../http/errors';
+import { registerJobStep } from '../../jobs/scheduler';
+import type { Config } from '../../config';
+import { uuidParam } from '../../../shared/schemas/common';
+import { confirmSignature, verifyShopChain } from './chain';
+import { loadSafetySettings, saveSafetySettings, settingsView } from './settings';
+import { addPhoto, approveVersion, createProcedure, deletePhoto, getPhoto, getProcedure, listProcedures, saveDraft } from './procedures.service';
+import { renderPlacard } from './placard';
+import { acceptHandover, applyLockout, getLockout, joinLockout, leaveLockout, listLockouts, offerHandover, releaseLockout, safetyMachines, safetyPeople, verifyLockout } from './lockout.service';
+import { listRequirements, recordPpeCheck, retireRequirement, saveRequirement } from './ppe.service';
+import { certifyInspection, endFireWatch, listFireWatches, listInspections, listTraining, recordInspection, recordTraining, startFireWatch } from './records.service';
+import { correctSignOff } from './corrections.service';
+import { compliance, exportCsv, exportPdf, listSignOffs, timeline } from './audit.service';
+import { listSafetyTasks, safetyDueStep } from './work';
+import { approveVersionSchema, createProcedureSchema, photoParams, photoUploadFields, procedureContentSchema, PHOTO_MAX_BYTES, versionParams } from '../../../shared/schemas/safety-procedures';
+import {
+  acceptHandoverSchema,
+  applyLockoutSchema,
+  joinLockoutSchema,
+  leaveLockoutSchema,
+  listLockoutsQuery,
+  offerHandoverSchema,
+  releaseLockoutSchema,
+  verifyLockoutSchema,
+} from '../../../shared/schemas/safety-lockout';
+import { ppeCheckSchema, ppeRequirementSchema } from '../../../shared/schemas/safety-ppe';
+import { certifySchema, endFireWatchSchema, inspectionSchema, safetySettingsSchema, startFireWatchSchema, trainingSchema } from '../../../shared/schemas/safety-records';
+import { correctionSchema, exportSignOffsQuery, listSignOffsQuery } from '../../../shared/schemas/safety-sign-offs';
+import { complianceQuery, timelineQuery } from '../../../shared/schemas/safety-audit';
+
+const em = () => requestEm() as EntityManager;
+
+/** Multipart photo upload; multer's own errors become field errors on `photo`. */
+const upload: RequestHandler = (req, res, next) => {
+  multer({ storage: multer.memoryStorage(), limits: { fileSize: PHOTO_MAX_BYTES, files: 1, fields: 5 } }).single('photo')(req, res, (err: unknown) => {
+    if (!err) return next();
+    if (err instanceof multer.MulterError) {
+      return next(fieldError('photo', err.code === 'LIMIT_FILE_SIZE' ? `The photo is larger than ${PHOTO_MAX_BYTES / 1024 / 1024} MB` : `Upload refused: ${err.message}`));
+    }
+    next(err);
+  });
+};
+
+/** Every signing route: the password is checked first, so a wrong one writes nothing. */
+const signed =
+  (fn: (req: Parameters<RequestHandler>[0], res: Parameters<RequestHandler>[1]) => Promise<unknown>): RequestHandler =>
+  async (req, res) => {
+    await confirmSignature(em(), requirePrincipal(req), (res.locals.body as { password: string }).password);
+    const result = await fn(req, res);
+    res.status(201).json(result);
+  };
+
+const mapQuery = z.object({ machineId: z.uuid().optional() });
+const versionQuery = z.object({ version: z.coerce.number().int().min(1).optional() });
+
+export function registerSafetyRoutes(r: ApiRouter, config: Config) {
+  registerJobStep(safetyDueStep);
+  const who = (req: Parameters<RequestHandler>[0]) => requirePrincipal(req);
+
+  // Pickers and settings.
+  route(r, 'get', '/safety/machines', { access: 'safety.read' }, async (req, res) => void res.json(await safetyMachines(em(), who(req))));
+  route(r, 'get', '/safety/people', { access: 'safety.read' }, async (req, res) => void res.json(await safetyPeople(em(), who(req))));
+  route(r, 'get', '/safety/settings', { access: 'safety.read' }, async (req, res) => void res.json(settingsView((await loadSafetySettings(em(), who(req).orgId)).settings)));
+  route(r, 'put', '/safety/settings', { access: 'safety.settings.manage', body: safetySettingsSchema }, async (req, res) => void res.json(settingsView(await saveSafetySettings(em(), who(req), res.locals.body))));
+  route(r, 'get', '/safety/tasks', { access: 'safety.read' }, async (_req, res) => void res.json(await listSafetyTasks(em())));
+
+  // Energy-control procedures.
+  route(r, 'get', '/safety/procedures', { access: 'safety.read' }, async (req, res) => void res.json(await listProcedures(em(), who(req))));
+  route(r, 'post', '/safety/procedures', { access: 'safety.procedures.manage', body: createProcedureSchema }, async (req, res) => void res.status(201).json(await createProcedure(em(), who(req), res.locals.body)));
+  route(r, 'get', '/safety/procedures/:id', { access: 'safety.read', params: uuidParam, query: versionQuery }, async (_req, res) => void res.json(await getProcedure(em(), res.locals.params.id, res.locals.query.version)));
+  route(r, 'put', '/safety/procedures/:id/draft', { access: 'safety.procedures.manage', params: uuidParam, body: procedureContentSchema }, async (req, res) => void res.json(await saveDraft(em(), who(req), res.locals.params.id, res.locals.body)));
+  route(
+    r,
+    'post',
+    '/safety/procedures/:id/versions/:version/approve',
+    { access: 'safety.procedures.manage', params: versionParams, body: approveVersionSchema },
+    signed((req, res) => approveVersion(em(), who(req), res.locals.params.id, res.locals.params.version, res.locals.body.retrainingRequired)),
+  );
+  route(r, 'post', '/safety/procedures/:id/photos', { access: 'safety.procedures.manage', params: uuidParam, before: [upload], body: photoUploadFields }, async (req, res) => {
+    res.status(201).json(await addPhoto(em(), who(req), res.locals.params.id, req.file, res.locals.body));
+  });
+  route(r, 'get', '/safety/procedures/:id/photos/:photoId', { access: 'safety.read', params: photoParams }, async (_req, res) => {
+    const photo = await getPhoto(em(), res.locals.params.id, res.locals.params.photoId);
+    res.set('Content-Type', photo.mime).set('Cache-Control', 'private, max-age=3600').set('X-Content-Type-Options', 'nosniff').send(photo.data);
+  });
+  route(r, 'delete', '/safety/procedures/:id/photos/:photoId', { access: 'safety.procedures.manage', params: photoParams }, async (req, res) => {
+    await deletePhoto(em(), who(req), res.locals.params.id, res.locals.params.photoId);
+    res.status(204).end();
+  });
+  route(r, 'get', '/safety/procedures/:id/placard.pdf', { access: 'safety.read', params: uuidParam, query: versionQuery }, async (_req, res) => {
+    const { pdf, fileName } = await renderPlacard(em(), res.locals.params.id, config.APP_URL, res.locals.query.version);
+    res.set('Content-Type', 'application/pdf').set('Content-Disposition', `inline; filename="${fileName}"`).send(pdf);
+  });
+
+  // Lockout sessions.
+  route(r, 'get', '/safety/lockouts', { access: 'safety.read', query: listLockoutsQuery }, async (req, res) => void res.json(await listLockouts(em(), who(req), res.locals.query)));
+  route(r, 'post', '/safety/lockouts', { access: 'safety.lockout.sign', body: applyLockoutSchema }, signed((req, res) => applyLockout(em(), who(req), res.locals.body)));
+  route(r, 'get', '/safety/lockouts/:id', { access: 'safety.read', params: uuidParam }, async (req, res) => void res.json(await getLockout(em(), who(req), res.locals.params.id)));
+  route(r, 'post', '/safety/lockouts/:id/verify', { access: 'safety.lockout.sign', params: uuidParam, body: verifyLockoutSchema }, signed((req, res) => verifyLockout(em(), who(req), res.locals.params.id, res.locals.body)));
+  route(r, 'post', '/safety/lockouts/:id/join', { access: 'safety.lockout.sign', params: uuidParam, body: joinLockoutSchema }, signed((req, res) => joinLockout(em(), who(req), res.locals.params.id, res.locals.body)));
+  route(r, 'post', '/safety/lockouts/:id/leave', { access: 'safety.lockout.sign', params: uuidParam, body: leaveLockoutSchema }, signed((req, res) => leaveLockout(em(), who(req), res.locals.params.id)));
+  route(r, 'post', '/safety/lockouts/:id/handover', { access: 'safety.lockout.sign', params: uuidParam, body: offerHandoverSchema }, signed((req, res) => offerHandover(em(), who(req), res.locals.params.id, res.locals.body)));
+  route(r, 'post', '/safety/lockouts/:id/accept-handover', { access: 'safety.lockout.sign', params: uuidParam, body: acceptHandoverSchema }, signed((req, res) => acceptHandover(em(), who(req), res.locals.params.id, res.locals.body)));
+  route(r, 'post', '/safety/lockouts/:id/release', { access: 'safety.lockout.sign', params: uuidParam, body: releaseLockoutSchema }, signed((req, res) => releaseLockout(em(), who(req), res.locals.params.id, res.locals.body)));
+
+  // PPE.
+  route(r, 'get', '/safety/ppe/requirements', { access: 'safety.read', query: mapQuery }, async (req, res) => void res.json(await listRequirements(em(), who(req), res.locals.query.machineId)));
+  route(r, 'post', '/safety/ppe/requirements', { access: 'safety.ppe.manage', body: ppeRequirementSchema }, async (req, res) => void res.status(201).json(await saveRequirement(em(), who(req), res.locals.body)));
+  route(r, 'put', '/safety/ppe/requirements/:id', { access: 'safety.ppe.manage', params: uuidParam, body: ppeRequirementSchema }, async (req, res) => void res.json(await saveRequirement(em(), who(req), res.locals.body, res.locals.params.id)));
+  route(r, 'delete', '/safety/ppe/requirements/:id', { access: 'safety.ppe.manage', params: uuidParam }, async (req, res) => {
+    await retireRequirement(em(), who(req), res.locals.params.id);
+    res.status(204).end();
+  });
+  route(r, 'post', '/safety/ppe/checks', { access: 'safety.ppe.sign', body: ppeCheckSchema }, signed((req, res) => recordPpeCheck(em(), who(req), res.locals.body)));
+
+  // Periodic inspections, training, hot work.
+  route(r, 'get', '/safety/inspections', { access: 'safety.read' }, async (_req, res) => void res.json(await listInspections(em())));
+  route(r, 'post', '/safety/inspections', { access: 'safety.inspection.perform', body: inspectionSchema }, signed((req, res) => recordInspection(em(), who(req), res.locals.body)));
+  route(r, 'post', '/safety/inspections/:id/certify', { access: 'safety.inspection.certify', params: uuidParam, body: certifySchema }, signed((req, res) => certifyInspection(em(), who(req), res.locals.params.id)));
+  route(r, 'get', '/safety/training', { access: 'safety.read' }, async (_req, res) => void res.json(await listTraining(em())));
+  route(r, 'post', '/safety/training', { access: 'safety.training.manage', body: trainingSchema }, signed((req, res) => recordTraining(em(), who(req), res.locals.body)));
+  route(r, 'get', '/safety/fire-watches', { access: 'safety.read' }, async (_req, res) => void res.json(await listFireWatches(em())));
+  route(r, 'post', '/safety/fire-watches', { access: 'safety.hotwork.sign', body: startFireWatchSchema }, signed((req, res) => startFireWatch(em(), who(req), res.locals.body)));
+  route(r, 'post', '/safety/fire-watches/:id/end', { access: 'safety.hotwork.sign', params: uuidParam, body: endFireWatchSchema }, signed((req, res) => endFireWatch(em(), who(req), res.locals.params.id, res.locals.body)));
+
+  // The audit.
+  route(r, 'get', '/safety/sign-offs', { access: 'safety.audit', query: listSignOffsQuery }, async (req, res) => void res.json(await listSignOffs(em(), who(req), res.locals.query)));
+  route(r, 'post', '/safety/sign-offs/:id/corrections', { access: 'safety.correct', params: uuidParam, body: correctionSchema }, signed((req, res) => correctSignOff(em(), who(req), res.locals.params.id, res.locals.body.note)));
+  route(r, 'get', '/safety/chain/verify', { access: 'safety.audit' }, async (req, res) => void res.json(await verifyShopChain(em(), who(req).orgId)));
+  route(r, 'get', '/safety/audit/compliance', { access: 'safety.audit', query: complianceQuery }, async (req, res) => void res.json(await compliance(em(), who(req), res.locals.query.days)));
+  route(r, 'get', '/safety/audit/timeline', { access: 'safety.audit', query: timelineQuery }, async (req, res) => void res.json(await timeline(em(), who(req), res.locals.query.weeks)));
+  route(r, 'get', '/safety/audit/export.csv', { access: 'safety.audit', query: exportSignOffsQuery }, async (req, res) => {
+    const { csv, fileName, verification } = await exportCsv(em(), who(req), res.locals.query);
+    res.set('Content-Type', 'text/csv; charset=utf-8').set('Content-Disposition', `attachment; filename="${fileName}"`).set('X-Chain-Verified', String(verification.ok)).send(csv);
+  });
+  route(r, 'get', '/safety/audit/export.pdf', { access: 'safety.audit', query: exportSignOffsQuery }, async (req, res) => {
+    const { pdf, fileName } = await exportPdf(em(), who(req), res.locals.query);
+    res.set('Content-Type', 'application/pdf').set('Content-Disposition', `attachment; filename="${fileName}"`).send(pdf);
+  });
+}
