@@ -22,6 +22,8 @@ import { registerMachineRoutes } from './modules/machines/machines.routes';
 import { registerMeterRoutes } from './modules/meters/meters.routes';
 import { registerCounterImportRoutes } from './modules/meters/counter-import.routes';
 import { registerStockRoutes } from './modules/stock/stock.routes';
+import { registerConsumableRoutes } from './modules/consumables/consumables.routes';
+import { registerPunchToolRoutes } from './modules/punch-tools/punch-tools.routes';
 import type { FakeSmtp } from './mail/fake-smtp';
 import { logger } from './logger';
 
@@ -79,6 +81,8 @@ export function createApp({ orm, config, smtp = null }: AppDeps): AppHandle {
   registerMeterRoutes(api);
   registerCounterImportRoutes(api);
   registerStockRoutes(api);
+  registerConsumableRoutes(api);
+  registerPunchToolRoutes(api);
   registerDevInboxRoutes(api, config.MAIL_CAPTURE ? smtp : null);
 
   api.use(() => {

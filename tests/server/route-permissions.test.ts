@@ -84,6 +84,17 @@ const EXPECTED: Record<string, Role[] | 'public'> = {
   'PATCH /part-types/:id': ['technician', 'admin'],
   'GET /part-types/:id/moves': ALL,
   'POST /stock-moves': ['technician', 'admin'],
+  'GET /stations/:code': ALL,
+  'POST /consumable-changes': ['operator', 'technician', 'admin'],
+  'GET /consumable-changes': ALL,
+  'GET /consumable-changes/:id/photo': ALL,
+  'GET /consumable-settings': ALL,
+  'PATCH /consumable-settings': ['admin'],
+  'GET /punch-tools': ALL,
+  'POST /punch-tools': ['technician', 'admin'],
+  'PATCH /punch-tools/:id': ['technician', 'admin'],
+  'GET /punch-tools/:id/sharpenings': ALL,
+  'POST /punch-tools/:id/sharpenings': ['technician', 'admin'],
 };
 
 type Layer = { route?: { path: string; methods: Record<string, boolean> } };

@@ -1,0 +1,72 @@
+import multer from 'multer';
+import { z } from 'zod';
+import type { RequestHandler } from 'express';
+import { route, type ApiRouter } from '../../http/route';
+import { requestEm } from '../../db';
+import { requirePrincipal } from '../../http/principal';
+import { AppError, badRequest } from '../../http/errors';
+import { paging, uuidParam } from '../../../shared/schemas/common';
+import { machineCodeParam } from '../../../shared/schemas/machines';
+import { PHOTO_MAX_BYTES, consumableChangeSchema, consumableSettingsSchema } from '../../../shared/schemas/consumables';
+import { Machine } from '../machines/machine.entity';
+import { getConsumableSettings, getPhoto, listChanges, logChange, stationView, updateConsumableSettings } from './consumables.service';
+
+const upload = multer({ storage: multer.memoryStorage(), limits: { fileSize: PHOTO_MAX_BYTES, files: 1, fields: 5 } });
+
+/**
+ * A change may come as JSON, or as multipart with the fields in a JSON `data` part and an
+ * optional `photo` file, so the photo is checked and stored in the same transaction.
+ */
+const receiveChange: RequestHandler = (req, res, next) => {
+  if (!req.is('multipart/form-data')) return next();
+  upload.single('photo')(req, res, (err: unknown) => {
+    if (err instanceof multer.MulterError) {
+      if (err.code === 'LIMIT_FILE_SIZE') return next(new AppError(413, 'too_large', `The photo is larger than ${PHOTO_MAX_BYTES / 1024 / 1024} MB`, [{ path: 'photo', message: 'Photo larger than 8 MB' }]));
+      return next(badRequest(`Upload refused: ${err.message}`, [{ path: 'photo', message: err.message }]));
+    }
+    if (err) return next(err);
+    try {
+      req.body = JSON.parse(String(req.body?.data ?? '{}'));
+    } catch {
+      return next(badRequest('The change details are not valid JSON (form field “data”)'));
+    }
+    next();
+  });
+};
+
+const changesQuery = paging.extend({ machineId: z.uuid().optional() });
+
+export function registerConsumableRoutes(r: ApiRouter) {
+  route(r, 'get', '/stations/:code', { access: 'machines.read', params: machineCodeParam }, async (req, res) => {
+    res.json(await stationView(requestEm(), requirePrincipal(req), res.locals.params.code));
+  });
+  route(r, 'post', '/consumable-changes', { access: 'consumables.log', before: [receiveChange], body: consumableChangeSchema }, async (req, res) => {
+    res.status(201).json(await logChange(requestEm(), requirePrincipal(req), res.locals.body, req.file?.buffer));
+  });
+  route(r, 'get', '/consumable-changes', { access: 'machines.read', query: changesQuery }, async (_req, res) => {
+    const em = requestEm();
+    const q = res.locals.query as z.output<typeof changesQuery>;
+    let torchIds: string[] | undefined;
+    if (q.machineId) {
+      const all = await em.find(Machine, {});
+      const ids = new Set([q.machineId]);
+      for (let grew = true; grew; ) {
+        grew = false;
+        for (const m of all) if (m.parent && ids.has(m.parent.id) && !ids.has(m.id)) (ids.add(m.id), (grew = true));
+      }
+      torchIds = all.filter((m) => ids.has(m.id) && m.kind === 'torch').map((m) => m.id);
+    }
+    res.json(await listChanges(em, { torchIds, page: q.page, pageSize: q.pageSize }));
+  });
+  route(r, 'get', '/consumable-changes/:id/photo', { access: 'machines.read', params: uuidParam }, async (_req, res) => {
+    const photo = await getPhoto(requestEm(), res.locals.params.id);
+    res.type(photo.mimeType).setHeader('Cache-Control', 'private, max-age=3600');
+    res.send(photo.data);
+  });
+  route(r, 'get', '/consumable-settings', { access: 'machines.read' }, async (req, res) => {
+    res.json(await getConsumableSettings(requestEm(), requirePrincipal(req)));
+  });
+  route(r, 'patch', '/consumable-settings', { access: 'org.settings.manage', body: consumableSettingsSchema }, async (req, res) => {
+    res.json(await updateConsumableSettings(requestEm(), requirePrincipal(req), res.locals.body));
+  });
+}
