@@ -24,6 +24,11 @@ import { registerCounterImportRoutes } from './modules/meters/counter-import.rou
 import { registerStockRoutes } from './modules/stock/stock.routes';
 import { registerConsumableRoutes } from './modules/consumables/consumables.routes';
 import { registerPunchToolRoutes } from './modules/punch-tools/punch-tools.routes';
+import { registerPlanRoutes } from './modules/plans/plans.routes';
+import { registerWorkOrderRoutes } from './modules/work-orders/work-orders.routes';
+import { registerOilAnalysisRoutes } from './modules/oil-analysis/oil-analysis.routes';
+import { registerCalendarFeedRoutes } from './modules/calendar-feed/calendar-feed.routes';
+import { registerJobRunRoutes } from './modules/job-runs/job-runs.routes';
 import type { FakeSmtp } from './mail/fake-smtp';
 import { logger } from './logger';
 
@@ -83,6 +88,11 @@ export function createApp({ orm, config, smtp = null }: AppDeps): AppHandle {
   registerStockRoutes(api);
   registerConsumableRoutes(api);
   registerPunchToolRoutes(api);
+  registerPlanRoutes(api);
+  registerWorkOrderRoutes(api, config);
+  registerOilAnalysisRoutes(api, orm);
+  registerCalendarFeedRoutes(api, config);
+  registerJobRunRoutes(api, orm);
   registerDevInboxRoutes(api, config.MAIL_CAPTURE ? smtp : null);
 
   api.use(() => {

@@ -22,6 +22,14 @@ export const PERMISSIONS = {
   'jobs.run': ['admin'],
   'mail.inbox.all': ['admin'],
   'mail.inbox.own': everyone,
+  // Maintenance: everyone sees plans and work; admins write plans; technicians (and the safety officer) do the work.
+  'plans.read': everyone,
+  'plans.manage': ['admin'],
+  'work-orders.read': everyone,
+  'work-orders.raise': everyone,
+  'work-orders.work': ['technician', 'safety', 'admin'],
+  'oil.read': everyone,
+  'oil.record': ['technician', 'admin'],
   // Machines, meters, consumables: everyone reads; operators log at the machine, technicians keep records and stock.
   'machines.read': everyone,
   'machines.manage': ['admin', 'technician'],

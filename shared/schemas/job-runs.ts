@@ -9,6 +9,7 @@ export type JobRunRow = {
   triggeredBy: string | null;
   startedAt: string;
   finishedAt: string | null;
+  plansChecked: number;
   plansEvaluated: number;
   workOrdersRaised: number;
   escalations: number;

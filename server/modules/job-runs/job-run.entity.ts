@@ -17,6 +17,8 @@ export const JobRun = defineEntity({
     triggeredBy: () => p.manyToOne(User).ref().nullable(),
     startedAt: p.datetime(),
     finishedAt: p.datetime().nullable(),
+    /** Active plans looked at; only those whose inputs or time boundary changed are evaluated. */
+    plansChecked: p.integer().default(0),
     plansEvaluated: p.integer().default(0),
     workOrdersRaised: p.integer().default(0),
     escalations: p.integer().default(0),

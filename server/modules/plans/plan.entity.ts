@@ -51,6 +51,10 @@ export const MaintenancePlan = defineEntity({
     statusReason: p.text().nullable(),
     evaluatedAt: p.datetime().nullable(),
     evaluation: p.json<StoredEvaluation>().nullable(),
+    /** Evaluate again no later than this (due.ts changesAt); null: at the next pass. */
+    recheckAt: p.datetime().nullable(),
+    /** Newest meter reading or oil sample the last evaluation saw; a newer one means evaluate again. */
+    inputsAt: p.datetime().nullable(),
   },
 });
 export type IMaintenancePlan = InferEntity<typeof MaintenancePlan>;

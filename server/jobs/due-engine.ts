@@ -1,0 +1,490 @@
+/**
+ * The due engine's I/O. The decision is shared/domain/due.ts evaluatePlan (pure); this file reads
+ * the plans and readings in bulk, writes each plan's status, raises one work order per due
+ * occurrence and escalates past-due work. It is system code that crosses shops on purpose (raw SQL
+ * names the rows it touches; each write carries the plan's own organisation).
+ *
+ * Exactly once: the pass runs under the scheduler's advisory lock, every raise re-checks the plan
+ * under a row lock, and the database refuses a second work order for the same (plan, occurrence
+ * key) — `on conflict do nothing`.
+ */
+import { randomUUID } from 'node:crypto';
+import type { EntityManager, MikroORM } from '@mikro-orm/postgresql';
+import { evaluatePlan, type Evaluation } from '../../shared/domain/due';
+import type { ChecklistTemplateItem } from '../../shared/schemas/plans';
+import type { ChecklistLine } from '../../shared/schemas/work-orders';
+import type { Role } from '../../shared/permissions';
+import { registerJobStep } from './scheduler';
+import {
+  PLAN_COLUMNS,
+  inputsAtOf,
+  inputsOf,
+  loadLatestInputTimes,
+  missingBaselines,
+  loadMeterSeries,
+  loadOilSeries,
+  needsEvaluation,
+  oilMeterId,
+  toPlanInput,
+  type EnginePlanRow,
+  type MeterSeries,
+} from './due-engine-inputs';
+import { loadPeople, queueEscalations, queueRaisedNotices, type Person, type WorkLine } from './due-engine-mail';
+import { sendDigests } from './due-engine-digest';
+import { recordAudit } from '../modules/audit/audit';
+import { manualPass } from '../modules/job-runs/job-run-context';
+import type { MeterBaselines } from '../modules/plans/plan.entity';
+import { loadConfig } from '../config';
+import { logger } from '../logger';
+
+const DAY_MS = 86_400_000;
+/** Plans read per query; raises written per transaction. */
+const PLAN_BATCH = 5000;
+const RAISE_BATCH = 200;
+const OPEN_STATES = `('open', 'in-progress', 'on-hold')`;
+/** Job run rows are kept this long. */
+const RUN_HISTORY_DAYS = 30;
+
+export type OrgStats = {
+  plansChecked: number;
+  plansEvaluated: number;
+  workOrdersRaised: number;
+  escalations: number;
+  mailsQueued: number;
+  errors: { planId?: string; message: string }[];
+};
+const emptyStats = (): OrgStats => ({ plansChecked: 0, plansEvaluated: 0, workOrdersRaised: 0, escalations: 0, mailsQueued: 0, errors: [] });
+
+type Org = { id: string; name: string; time_zone: string };
+
+export type EngineOptions = {
+  /** Only this shop's plans (e.g. right after an oil result); default every shop. */
+  orgId?: string;
+  /** Only these plans, evaluated whatever their recheck time. */
+  planIds?: string[];
+  /** Escalate past-due work and send daily summaries (full passes only). Default true. */
+  escalate?: boolean;
+};
+
+class Run {
+  readonly stats = new Map<string, OrgStats>();
+  private people = new Map<string, Person[]>();
+  constructor(
+    readonly orgs: Map<string, Org>,
+    readonly appUrl: string,
+  ) {}
+  of(orgId: string): OrgStats {
+    let s = this.stats.get(orgId);
+    if (!s) this.stats.set(orgId, (s = emptyStats()));
+    return s;
+  }
+  error(orgId: string, message: string, planId?: string) {
+    const s = this.of(orgId);
+    if (s.errors.length < 50) s.errors.push({ ...(planId ? { planId } : {}), message: message.slice(0, 500) });
+  }
+  async peopleOf(em: EntityManager, orgId: string): Promise<Person[]> {
+    let p = this.people.get(orgId);
+    if (!p) this.people.set(orgId, (p = await loadPeople(em, orgId)));
+    return p;
+  }
+  ctx(orgId: string) {
+    const o = this.orgs.get(orgId)!;
+    return { orgId, orgName: o.name, timeZone: o.time_zone, appUrl: this.appUrl };
+  }
+}
+
+type Evaluated = { row: EnginePlanRow; ev: Evaluation; inputsAt: number | null; newBaselines: MeterBaselines | null };
+
+/** What the plan row stores from an evaluation (status cache, explanation, next re-check). */
+export function statusColumns(ev: Evaluation) {
+  return {
+    status: ev.status,
+    nextDueAt: ev.dueAt,
+    statusReason: ev.reason,
+    recheckAt: ev.changesAt,
+    evaluation: {
+      triggers: ev.triggers.map((t) => ({ kind: t.kind, status: t.status, dueAt: t.dueAt?.toISOString() ?? null, reason: t.reason })),
+      meterDue: ev.dueMeter.map((m) => ({ meterId: m.meterId, dueValue: m.dueValue, current: m.current, forecastAt: m.forecastAt?.toISOString() ?? null })),
+    },
+  };
+}
+
+/** Writes evaluated statuses in one statement; a plan completed meanwhile keeps its own newer status. */
+async function writeStatuses(em: EntityManager, items: Evaluated[], now: Date) {
+  if (items.length === 0) return;
+  const payload = items.map(({ row, ev, inputsAt, newBaselines }) => {
+    const c = statusColumns(ev);
+    return {
+      id: row.id,
+      status: c.status,
+      next_due_at: c.nextDueAt?.toISOString() ?? null,
+      reason: c.statusReason,
+      evaluation: c.evaluation,
+      recheck_at: c.recheckAt?.toISOString() ?? null,
+      inputs_at: inputsAt === null ? null : new Date(inputsAt).toISOString(),
+      seen_done: row.last_done_at ? new Date(row.last_done_at).toISOString() : null,
+      baselines: newBaselines ?? {},
+    };
+  });
+  await em.execute(
+    `update maintenance_plan p set status = v.status, next_due_at = v.next_due_at, status_reason = v.reason, evaluation = v.evaluation,
+            recheck_at = v.recheck_at, inputs_at = v.inputs_at, evaluated_at = ?, updated_at = now(),
+            meter_baselines = v.baselines || p.meter_baselines
+       from jsonb_to_recordset(?::jsonb) as v(id uuid, status text, next_due_at timestamptz, reason text, evaluation jsonb,
+            recheck_at timestamptz, inputs_at timestamptz, seen_done timestamptz, baselines jsonb)
+      where p.id = v.id and p.last_done_at is not distinct from v.seen_done`,
+    [now, JSON.stringify(payload)],
+  );
+}
+
+const msOf = (d: Date | string | null) => (d === null ? null : new Date(d).getTime());
+
+/** The deciding trigger's due point: when this occurrence fell due. */
+function occurrenceDueAt(ev: Evaluation, now: Date): Date {
+  return ev.triggers.find((t) => t.index === ev.decidedBy)?.dueAt ?? ev.dueAt ?? now;
+}
+
+/** Hands out `n` consecutive work order numbers for a shop (row-locked counter). Returns the first. */
+export async function allocateNumbers(em: EntityManager, orgId: string, n: number): Promise<number> {
+  const [row] = await em.execute<{ last_number: number }[]>(
+    `insert into work_order_counter (id, created_at, updated_at, organization_id, last_number) values (?, now(), now(), ?, ?)
+       on conflict (organization_id) do update set last_number = work_order_counter.last_number + ?, updated_at = now()
+     returning last_number`,
+    [randomUUID(), orgId, 1000 + n, n],
+  );
+  return Number(row.last_number) - n + 1;
+}
+
+type PlanDetail = {
+  id: string;
+  title: string;
+  instructions: string;
+  checklist: ChecklistTemplateItem[];
+  parts: { partTypeId: string; quantity: number }[];
+  estimated_minutes: number | null;
+  responsible_role: Role | null;
+  responsible_user_id: string | null;
+  requires_lockout: boolean;
+  safety_critical: boolean;
+  machine_id: string;
+  code: string;
+  name: string;
+};
+
+/** Raises work for one shop's due occurrences, in one transaction per batch. */
+async function raiseWork(orm: MikroORM, run: Run, orgId: string, items: Evaluated[], now: Date) {
+  for (let i = 0; i < items.length; i += RAISE_BATCH) {
+    const batch = items.slice(i, i + RAISE_BATCH);
+    try {
+      await orm.em.fork().transactional(async (tx) => {
+        const ids = batch.map((b) => b.row.id);
+        // Re-check under a row lock: a completion or another raise since the evaluation wins.
+        const locked: { id: string; last_done_at: Date | null; last_raised_key: string | null; active: boolean }[] = await tx.execute(
+          `select id, last_done_at, last_raised_key, active from maintenance_plan where id = any(?::uuid[]) for update`,
+          [ids],
+        );
+        const byId = new Map(locked.map((l) => [l.id, l]));
+        const ok = batch.filter(({ row }) => {
+          const l = byId.get(row.id);
+          return l && l.active && msOf(l.last_done_at) === msOf(row.last_done_at) && l.last_raised_key === row.last_raised_key;
+        });
+        if (ok.length === 0) return;
+        const details: PlanDetail[] = await tx.execute(
+          `select p.id, p.title, p.instructions, p.checklist, p.parts, p.estimated_minutes, p.responsible_role, p.responsible_user_id,
+                  p.requires_lockout, p.safety_critical, p.machine_id, m.code, m.name
+             from maintenance_plan p join machine m on m.id = p.machine_id where p.id = any(?::uuid[])`,
+          [ok.map((o) => o.row.id)],
+        );
+        const detailOf = new Map(details.map((d) => [d.id, d]));
+        const first = await allocateNumbers(tx, orgId, ok.length);
+        const records = ok.map(({ row, ev }, k) => {
+          const d = detailOf.get(row.id)!;
+          const decider = row.triggers[ev.decidedBy];
+          const checklist: ChecklistLine[] = (d.checklist ?? []).map((c) => ({ ...c, result: null, value: null, note: null }));
+          return {
+            id: randomUUID(),
+            organization_id: orgId,
+            number: first + k,
+            machine_id: d.machine_id,
+            plan_id: row.id,
+            occurrence_key: ev.occurrenceKey,
+            kind: decider && (decider.kind === 'condition' || decider.kind === 'oil-analysis') ? 'condition' : 'scheduled',
+            title: d.title,
+            instructions: d.instructions ?? '',
+            reason: ev.reason,
+            due_at: occurrenceDueAt(ev, now).toISOString(),
+            overdue: false,
+            assignee_id: d.responsible_user_id,
+            responsible_role: d.responsible_role,
+            requires_lockout: d.requires_lockout,
+            safety_critical: d.safety_critical,
+            checklist,
+            planned_parts: d.parts ?? [],
+            estimated_minutes: d.estimated_minutes,
+            _d: d,
+          };
+        });
+        const inserted: { id: string; plan_id: string }[] = await tx.execute(
+          `insert into work_order (id, created_at, updated_at, organization_id, number, machine_id, plan_id, occurrence_key, kind, title,
+                  instructions, reason, status, due_at, overdue, assignee_id, responsible_role, requires_lockout, safety_critical,
+                  checklist, planned_parts, estimated_minutes, labour_minutes, notes)
+           select x.id, now(), now(), x.organization_id, x.number, x.machine_id, x.plan_id, x.occurrence_key, x.kind, x.title,
+                  x.instructions, x.reason, 'open', x.due_at, x.overdue, x.assignee_id, x.responsible_role, x.requires_lockout, x.safety_critical,
+                  x.checklist, x.planned_parts, x.estimated_minutes, 0, ''
+             from jsonb_to_recordset(?::jsonb) as x(id uuid, organization_id uuid, number int, machine_id uuid, plan_id uuid, occurrence_key text,
+                  kind text, title text, instructions text, reason text, due_at timestamptz, overdue boolean, assignee_id uuid,
+                  responsible_role text, requires_lockout boolean, safety_critical boolean, checklist jsonb, planned_parts jsonb, estimated_minutes int)
+           on conflict (plan_id, occurrence_key) do nothing
+           returning id, plan_id`,
+          [JSON.stringify(records.map(({ _d, ...r }) => r))],
+        );
+        if (inserted.length === 0) return;
+        const insertedIds = new Set(inserted.map((r) => r.id));
+        const raised = records.filter((r) => insertedIds.has(r.id));
+        await tx.execute(
+          `update maintenance_plan p set last_raised_key = v.key, updated_at = now()
+             from jsonb_to_recordset(?::jsonb) as v(id uuid, key text) where p.id = v.id`,
+          [JSON.stringify(raised.map((r) => ({ id: r.plan_id, key: r.occurrence_key })))],
+        );
+        for (const r of raised) {
+          recordAudit(tx, { orgId, userId: null }, 'work-order.raised', { type: 'WorkOrder', id: r.id }, { number: r.number, planId: r.plan_id, occurrenceKey: r.occurrence_key });
+        }
+        const lines: WorkLine[] = raised.map((r) => ({
+          id: r.id,
+          number: r.number,
+          title: r.title,
+          machineCode: r._d.code,
+          machineName: r._d.name,
+          dueAt: new Date(r.due_at),
+          overdue: false,
+          safetyCritical: r.safety_critical,
+          requiresLockout: r.requires_lockout,
+          assigneeId: r.assignee_id,
+          responsibleRole: r.responsible_role,
+          reason: r.reason,
+        }));
+        const mails = queueRaisedNotices(tx, run.ctx(orgId), lines, await run.peopleOf(tx, orgId));
+        const s = run.of(orgId);
+        s.workOrdersRaised += raised.length;
+        s.mailsQueued += mails;
+      });
+    } catch (err) {
+      logger.error({ err, orgId }, 'raising work failed');
+      for (const b of batch) run.error(orgId, `raising work failed: ${err instanceof Error ? err.message : String(err)}`, b.row.id);
+    }
+  }
+}
+
+/** Marks past-due open work as overdue once and tells the people who must know. */
+async function escalate(orm: MikroORM, run: Run, now: Date, orgId?: string) {
+  const em = orm.em.fork();
+  const rows: {
+    id: string;
+    organization_id: string;
+    number: number;
+    title: string;
+    due_at: Date | null;
+    safety_critical: boolean;
+    requires_lockout: boolean;
+    assignee_id: string | null;
+    responsible_role: Role | null;
+    code: string;
+    name: string;
+  }[] = await em.execute(
+    `select w.id, w.organization_id, w.number, w.title, w.due_at, w.safety_critical, w.requires_lockout, w.assignee_id, w.responsible_role, m.code, m.name
+       from work_order w join machine m on m.id = w.machine_id left join maintenance_plan p on p.id = w.plan_id
+      where w.status in ${OPEN_STATES} and w.escalated_at is null ${orgId ? 'and w.organization_id = ?' : ''}
+        and ((p.id is not null and p.status = 'overdue' and w.occurrence_key = p.last_raised_key)
+          or (w.plan_id is null and w.due_at is not null and w.due_at < ?))
+      order by w.organization_id, w.number limit 5000`,
+    [...(orgId ? [orgId] : []), new Date(now.getTime() - DAY_MS)],
+  );
+  const byOrg = new Map<string, typeof rows>();
+  for (const r of rows) {
+    let l = byOrg.get(r.organization_id);
+    if (!l) byOrg.set(r.organization_id, (l = []));
+    l.push(r);
+  }
+  for (const [org, list] of byOrg) {
+    if (!run.orgs.has(org)) continue;
+    try {
+      await orm.em.fork().transactional(async (tx) => {
+        const done: { id: string }[] = await tx.execute(
+          `update work_order set overdue = true, escalated_at = ?, updated_at = now() where id = any(?::uuid[]) and escalated_at is null returning id`,
+          [now, list.map((l) => l.id)],
+        );
+        const ids = new Set(done.map((d) => d.id));
+        const lines: WorkLine[] = list
+          .filter((l) => ids.has(l.id))
+          .map((l) => ({
+            id: l.id,
+            number: l.number,
+            title: l.title,
+            machineCode: l.code,
+            machineName: l.name,
+            dueAt: l.due_at ? new Date(l.due_at) : null,
+            overdue: true,
+            safetyCritical: l.safety_critical,
+            requiresLockout: l.requires_lockout,
+            assigneeId: l.assignee_id,
+            responsibleRole: l.responsible_role,
+          }));
+        if (lines.length === 0) return;
+        for (const l of lines) recordAudit(tx, { orgId: org, userId: null }, 'work-order.escalated', { type: 'WorkOrder', id: l.id }, { number: l.number });
+        const mails = queueEscalations(tx, run.ctx(org), lines, await run.peopleOf(tx, org));
+        const s = run.of(org);
+        s.escalations += lines.length;
+        s.mailsQueued += mails;
+      });
+    } catch (err) {
+      logger.error({ err, org }, 'escalation failed');
+      run.error(org, `escalation failed: ${err instanceof Error ? err.message : String(err)}`);
+    }
+  }
+}
+
+/**
+ * Evaluates plans and raises what is due. Full pass by default; with `planIds` only those plans
+ * (used right after a completion or an oil result). Returns per-shop counts.
+ */
+export async function runDueEngine(orm: MikroORM, now: Date, opts: EngineOptions = {}): Promise<Map<string, OrgStats>> {
+  const em = orm.em.fork();
+  const orgRows: Org[] = await em.execute(`select id, name, time_zone from organization ${opts.orgId ? 'where id = ?' : ''}`, opts.orgId ? [opts.orgId] : []);
+  const run = new Run(new Map(orgRows.map((o) => [o.id, o])), loadConfig().APP_URL);
+  for (const o of orgRows) run.of(o.id);
+  const nowMs = now.getTime();
+  const latest = await loadLatestInputTimes(em);
+  const series = new Map<string, MeterSeries>();
+
+  let lastId = '00000000-0000-0000-0000-000000000000';
+  for (;;) {
+    const params: unknown[] = [lastId];
+    let where = 'active and id > ?';
+    if (opts.orgId) {
+      where += ' and organization_id = ?';
+      params.push(opts.orgId);
+    }
+    if (opts.planIds) {
+      where += ' and id = any(?::uuid[])';
+      params.push(opts.planIds);
+    }
+    const rows: EnginePlanRow[] = await em.execute(`select ${PLAN_COLUMNS} from maintenance_plan where ${where} order by id limit ${PLAN_BATCH}`, params);
+    if (rows.length === 0) break;
+    lastId = rows[rows.length - 1].id;
+    for (const r of rows) run.of(r.organization_id).plansChecked++;
+    const todo = opts.planIds ? rows : rows.filter((r) => needsEvaluation(r, nowMs, latest));
+    if (todo.length > 0) {
+      const needMeters = new Set<string>();
+      const needOil = new Set<string>();
+      for (const r of todo) {
+        const ins = inputsOf(r);
+        for (const m of ins.meters) if (!series.has(m)) needMeters.add(m);
+        for (const o of ins.oil) if (!series.has(oilMeterId(o))) needOil.add(o);
+      }
+      for (const [k, v] of await loadMeterSeries(em, [...needMeters])) series.set(k, v);
+      for (const [k, v] of await loadOilSeries(em, [...needOil])) series.set(k, v);
+
+      const evaluated: Evaluated[] = [];
+      for (const row of todo) {
+        const org = run.orgs.get(row.organization_id);
+        if (!org) continue;
+        run.of(row.organization_id).plansEvaluated++;
+        try {
+          const newBaselines = missingBaselines(row, series);
+          if (newBaselines) row.meter_baselines = { ...row.meter_baselines, ...newBaselines };
+          const ev = evaluatePlan(toPlanInput(row, now, org.time_zone, series));
+          evaluated.push({ row, ev, inputsAt: inputsAtOf(row, latest), newBaselines });
+        } catch (err) {
+          run.error(row.organization_id, err instanceof Error ? err.message : String(err), row.id);
+        }
+      }
+      await writeStatuses(em, evaluated, now);
+      const toRaise = new Map<string, Evaluated[]>();
+      for (const e of evaluated) {
+        if (!e.ev.occurrenceKey || e.ev.alreadyRaised) continue;
+        let l = toRaise.get(e.row.organization_id);
+        if (!l) toRaise.set(e.row.organization_id, (l = []));
+        l.push(e);
+      }
+      for (const [org, list] of toRaise) await raiseWork(orm, run, org, list, now);
+    }
+    if (rows.length < PLAN_BATCH) break;
+  }
+  if (opts.escalate !== false) await escalate(orm, run, now, opts.orgId);
+  return run.stats;
+}
+
+/** Writes one job run row per shop for a pass. */
+async function recordRuns(orm: MikroORM, passId: string, startedAt: Date, stats: Map<string, OrgStats>) {
+  const manual = manualPass.getStore();
+  const finishedAt = new Date();
+  const rows = [...stats].map(([orgId, s]) => ({
+    id: randomUUID(),
+    organization_id: orgId,
+    pass_id: passId,
+    trigger: manual && manual.orgId === orgId ? 'manual' : 'schedule',
+    triggered_by_id: manual && manual.orgId === orgId ? manual.userId : null,
+    plans_checked: s.plansChecked,
+    plans_evaluated: s.plansEvaluated,
+    work_orders_raised: s.workOrdersRaised,
+    escalations: s.escalations,
+    mails_queued: s.mailsQueued,
+    errors: s.errors,
+  }));
+  if (rows.length === 0) return;
+  await orm.em.fork().execute(
+    `insert into job_run (id, created_at, updated_at, organization_id, pass_id, trigger, triggered_by_id, started_at, finished_at,
+            plans_checked, plans_evaluated, work_orders_raised, escalations, mails_queued, errors)
+     select x.id, now(), now(), x.organization_id, x.pass_id, x.trigger, x.triggered_by_id, ?, ?, x.plans_checked, x.plans_evaluated,
+            x.work_orders_raised, x.escalations, x.mails_queued, x.errors
+       from jsonb_to_recordset(?::jsonb) as x(id uuid, organization_id uuid, pass_id uuid, trigger text, triggered_by_id uuid, plans_checked int,
+            plans_evaluated int, work_orders_raised int, escalations int, mails_queued int, errors jsonb)`,
+    [startedAt, finishedAt, JSON.stringify(rows)],
+  );
+  await orm.em.fork().execute(`delete from job_run where started_at < ?`, [new Date(startedAt.getTime() - RUN_HISTORY_DAYS * DAY_MS)]);
+}
+
+/** The scheduled step: evaluate every plan, raise, escalate, send daily summaries, record the run. */
+export async function runMaintenancePass(orm: MikroORM, now: Date): Promise<Record<string, number>> {
+  const passId = randomUUID();
+  const startedAt = new Date();
+  let stats = new Map<string, OrgStats>();
+  let failure: unknown = null;
+  try {
+    stats = await runDueEngine(orm, now);
+    const digests = await sendDigests(orm, now);
+    for (const [org, n] of digests) {
+      const s = stats.get(org);
+      if (s) s.mailsQueued += n;
+    }
+  } catch (err) {
+    failure = err;
+    const orgs: { id: string }[] = await orm.em.fork().execute(`select id from organization`);
+    for (const o of orgs) {
+      const s = stats.get(o.id) ?? emptyStats();
+      s.errors.push({ message: `pass failed: ${err instanceof Error ? err.message : String(err)}` });
+      stats.set(o.id, s);
+    }
+  }
+  await recordRuns(orm, passId, startedAt, stats);
+  if (failure) throw failure;
+  const total = emptyStats();
+  for (const s of stats.values()) {
+    total.plansChecked += s.plansChecked;
+    total.plansEvaluated += s.plansEvaluated;
+    total.workOrdersRaised += s.workOrdersRaised;
+    total.escalations += s.escalations;
+    total.mailsQueued += s.mailsQueued;
+    total.errors.push(...s.errors);
+  }
+  return {
+    plansChecked: total.plansChecked,
+    plansEvaluated: total.plansEvaluated,
+    workOrdersRaised: total.workOrdersRaised,
+    escalations: total.escalations,
+    mailsQueued: total.mailsQueued,
+    errors: total.errors.length,
+  };
+}
+
+registerJobStep({ name: 'due-engine', run: runMaintenancePass });

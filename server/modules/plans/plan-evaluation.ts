@@ -1,0 +1,62 @@
+import type { EntityManager } from '@mikro-orm/postgresql';
+import { evaluatePlan } from '../../../shared/domain/due';
+import { inputsOf, loadMeterSeries, loadOilSeries, missingBaselines, oilMeterId, toPlanInput, type EnginePlanRow } from '../../jobs/due-engine-inputs';
+import { statusColumns } from '../../jobs/due-engine';
+import type { IMaintenancePlan, MeterBaselines } from './plan.entity';
+
+/**
+ * Evaluates one plan inside a request (after it was created, edited or completed) so its status and
+ * next due point show at once. Raising work stays with the scheduled pass; this only stores status.
+ */
+export async function refreshPlanStatus(em: EntityManager, plan: IMaintenancePlan, timeZone: string, now = new Date()): Promise<void> {
+  const row: EnginePlanRow = {
+    id: plan.id,
+    organization_id: plan.organization.id,
+    machine_id: plan.machine.id,
+    triggers: plan.triggers,
+    due_soon_days: plan.dueSoonDays ?? null,
+    due_soon_fraction: plan.dueSoonFraction ?? null,
+    started_at: plan.startedAt,
+    last_done_at: plan.lastDoneAt ?? null,
+    last_raised_key: plan.lastRaisedKey ?? null,
+    meter_baselines: plan.meterBaselines,
+    status: plan.status,
+    recheck_at: null,
+    inputs_at: null,
+  };
+  const ins = inputsOf(row);
+  const series = await loadMeterSeries(em, ins.meters);
+  for (const [k, v] of await loadOilSeries(em, ins.oil)) series.set(k, v);
+  const added = missingBaselines(row, series);
+  if (added) {
+    plan.meterBaselines = { ...plan.meterBaselines, ...added };
+    row.meter_baselines = plan.meterBaselines;
+  }
+  const ev = evaluatePlan(toPlanInput(row, now, timeZone, series));
+  const c = statusColumns(ev);
+  let inputsAt: number | null = null;
+  for (const id of [...ins.meters, ...ins.oil.map(oilMeterId)]) {
+    const t = series.get(id)?.readings.at(-1)?.at.getTime();
+    if (t !== undefined && (inputsAt === null || t > inputsAt)) inputsAt = t;
+  }
+  plan.status = c.status;
+  plan.nextDueAt = c.nextDueAt;
+  plan.statusReason = c.statusReason;
+  plan.evaluation = c.evaluation;
+  plan.recheckAt = c.recheckAt;
+  plan.inputsAt = inputsAt === null ? null : new Date(inputsAt);
+  plan.evaluatedAt = now;
+}
+
+/** Latest value of each meter, as the baseline a meter interval counts from (absent when never read: the first reading becomes it). */
+export async function currentBaselines(em: EntityManager, meterIds: string[]): Promise<MeterBaselines> {
+  const out: MeterBaselines = {};
+  if (meterIds.length === 0) return out;
+  const rows: { meter_id: string; value: number; read_at: Date }[] = await em.execute(
+    `select m.id as meter_id, r.value, r.read_at from unnest(?::uuid[]) as m(id)
+       cross join lateral (select value, read_at from meter_reading x where x.meter_id = m.id order by read_at desc, created_at desc limit 1) r`,
+    [meterIds],
+  );
+  for (const r of rows) out[r.meter_id] = { value: Number(r.value), at: new Date(r.read_at).toISOString() };
+  return out;
+}

@@ -1,0 +1,120 @@
+import type { EntityManager } from '@mikro-orm/postgresql';
+import type { RequestHandler } from 'express';
+import multer from 'multer';
+import { fileTypeFromBuffer } from 'file-type';
+import { route, type ApiRouter } from '../../http/route';
+import { requestEm } from '../../db';
+import { requirePrincipal } from '../../http/principal';
+import { AppError, badRequest } from '../../http/errors';
+import { uuidParam } from '../../../shared/schemas/common';
+import {
+  ATTACHMENT_MAX_BYTES,
+  ATTACHMENT_TYPES,
+  checklistResultsInput,
+  closeWorkOrderInput,
+  listWorkOrdersQuery,
+  moveWorkOrderInput,
+  notifyPreferenceInput,
+  partLineParam,
+  raiseWorkOrderInput,
+  updateWorkOrderInput,
+  usePartInput,
+} from '../../../shared/schemas/work-orders';
+import { z } from 'zod';
+import {
+  addAttachment,
+  closeWorkOrder,
+  getAttachment,
+  getNotifyPreference,
+  getWorkOrder,
+  listWorkOrders,
+  moveWorkOrder,
+  raiseWorkOrder,
+  returnPart,
+  saveChecklist,
+  setNotifyPreference,
+  updateWorkOrder,
+  usePart,
+} from './work-orders.service';
+import { workOrderPdf } from './work-order-pdf';
+import { Organization } from '../organizations/organization.entity';
+import type { Config } from '../../config';
+
+const attachmentParam = z.object({ id: z.uuid({ message: 'Not a valid id' }), attachmentId: z.uuid({ message: 'Not a valid id' }) });
+
+/** One file per upload, held in memory up to the cap; multer's own errors become clear 4xx answers. */
+const upload: RequestHandler = (req, res, next) => {
+  multer({ storage: multer.memoryStorage(), limits: { fileSize: ATTACHMENT_MAX_BYTES, files: 1, fields: 5 } }).single('file')(req, res, (err: unknown) => {
+    if (!err) return next();
+    if (err instanceof multer.MulterError && err.code === 'LIMIT_FILE_SIZE') {
+      return next(new AppError(413, 'too_large', `The file is larger than ${ATTACHMENT_MAX_BYTES / 1024 / 1024} MB`, [{ path: 'file', message: 'File too large' }]));
+    }
+    next(badRequest(`Upload failed: ${err instanceof Error ? err.message : String(err)}`, [{ path: 'file', message: 'Upload failed' }]));
+  });
+};
+
+export function registerWorkOrderRoutes(r: ApiRouter, config: Config) {
+  const em = () => requestEm() as EntityManager;
+  route(r, 'get', '/work-orders', { access: 'work-orders.read', query: listWorkOrdersQuery }, async (req, res) => {
+    res.json(await listWorkOrders(em(), requirePrincipal(req), res.locals.query));
+  });
+  route(r, 'post', '/work-orders', { access: 'work-orders.raise', body: raiseWorkOrderInput }, async (req, res) => {
+    res.status(201).json(await raiseWorkOrder(em(), requirePrincipal(req), res.locals.body, config.APP_URL));
+  });
+  route(r, 'get', '/work-orders/:id', { access: 'work-orders.read', params: uuidParam }, async (req, res) => {
+    res.json(await getWorkOrder(em(), requirePrincipal(req), res.locals.params.id));
+  });
+  route(r, 'patch', '/work-orders/:id', { access: 'work-orders.work', params: uuidParam, body: updateWorkOrderInput }, async (req, res) => {
+    await updateWorkOrder(em(), requirePrincipal(req), res.locals.params.id, res.locals.body);
+    res.json({ ok: true });
+  });
+  route(r, 'post', '/work-orders/:id/move', { access: 'work-orders.work', params: uuidParam, body: moveWorkOrderInput }, async (req, res) => {
+    await moveWorkOrder(em(), requirePrincipal(req), res.locals.params.id, res.locals.body);
+    res.json({ ok: true });
+  });
+  route(r, 'put', '/work-orders/:id/checklist', { access: 'work-orders.work', params: uuidParam, body: checklistResultsInput }, async (req, res) => {
+    res.json({ checklist: await saveChecklist(em(), requirePrincipal(req), res.locals.params.id, res.locals.body) });
+  });
+  route(r, 'post', '/work-orders/:id/parts', { access: 'work-orders.work', params: uuidParam, body: usePartInput }, async (req, res) => {
+    res.status(201).json(await usePart(em(), requirePrincipal(req), res.locals.params.id, res.locals.body));
+  });
+  route(r, 'delete', '/work-orders/:id/parts/:lineId', { access: 'work-orders.work', params: partLineParam }, async (req, res) => {
+    await returnPart(em(), requirePrincipal(req), res.locals.params.id, res.locals.params.lineId);
+    res.json({ ok: true });
+  });
+  route(r, 'post', '/work-orders/:id/close', { access: 'work-orders.work', params: uuidParam, body: closeWorkOrderInput }, async (req, res) => {
+    res.json(await closeWorkOrder(em(), requirePrincipal(req), res.locals.params.id, res.locals.body));
+  });
+  route(r, 'post', '/work-orders/:id/attachments', { access: 'work-orders.work', params: uuidParam, before: [upload] }, async (req, res) => {
+    const file = req.file;
+    if (!file) throw badRequest('Choose a photo or PDF to attach', [{ path: 'file', message: 'No file' }]);
+    // The content decides, not the name or the browser's claim.
+    const kind = await fileTypeFromBuffer(file.buffer);
+    if (!kind || !(ATTACHMENT_TYPES as readonly string[]).includes(kind.mime)) {
+      throw badRequest('Only photos (JPEG, PNG, WebP) and PDF files can be attached', [{ path: 'file', message: 'Not a photo or PDF' }]);
+    }
+    res.status(201).json(await addAttachment(em(), requirePrincipal(req), res.locals.params.id, { name: file.originalname, mime: kind.mime, data: file.buffer }));
+  });
+  route(r, 'get', '/work-orders/:id/attachments/:attachmentId', { access: 'work-orders.read', params: attachmentParam }, async (_req, res) => {
+    const a = await getAttachment(em(), res.locals.params.id, res.locals.params.attachmentId);
+    res.setHeader('Content-Type', a.mimeType);
+    res.setHeader('Content-Disposition', `${a.mimeType.startsWith('image/') ? 'inline' : 'attachment'}; filename="${a.fileName.replace(/"/g, '')}"`);
+    res.setHeader('Cache-Control', 'private, max-age=300');
+    res.send(a.data);
+  });
+  route(r, 'get', '/work-orders/:id/pdf', { access: 'work-orders.read', params: uuidParam }, async (req, res) => {
+    const who = requirePrincipal(req);
+    const wo = await getWorkOrder(em(), who, res.locals.params.id);
+    const org = await em().findOneOrFail(Organization, who.orgId);
+    const pdf = await workOrderPdf(wo, { name: org.name, timeZone: org.timeZone });
+    res.setHeader('Content-Type', 'application/pdf');
+    res.setHeader('Content-Disposition', `inline; filename="WO-${wo.number}.pdf"`);
+    res.send(pdf);
+  });
+  route(r, 'get', '/notify-preference', { access: 'signed-in' }, async (req, res) => {
+    res.json(await getNotifyPreference(em(), requirePrincipal(req)));
+  });
+  route(r, 'put', '/notify-preference', { access: 'signed-in', body: notifyPreferenceInput }, async (req, res) => {
+    res.json(await setNotifyPreference(em(), requirePrincipal(req), res.locals.body));
+  });
+}
