@@ -12,6 +12,7 @@ import { safetySettingsOf } from './settings';
 import { listTraining } from './records.service';
 import { COLORS, newDoc, pdfText, stampPages, toBuffer } from './pdf';
 import { notFound } from '../../http/errors';
+import { ROLE_LABELS, type Role } from '../../../shared/permissions';
 import type { Principal } from '../../http/principal';
 import type { Page } from '../../../shared/schemas/users';
 import { MEANING_LABELS, type ChainVerification, type ExportSignOffsQuery, type ListSignOffsQuery, type SignOffRow } from '../../../shared/schemas/safety-sign-offs';
@@ -187,10 +188,10 @@ export async function exportPdf(em: EntityManager, who: Principal, q: ExportSign
     { h: '#', w: 34 },
     { h: `Signed (${tz})`, w: 92 },
     { h: 'Printed name', w: 100 },
-    { h: 'Role', w: 58 },
+    { h: 'Role', w: 70 },
     { h: 'Meaning', w: 104 },
     { h: 'Machine', w: 48 },
-    { h: 'What was signed', w: inner - 34 - 92 - 100 - 58 - 104 - 48 - 70 - 62 },
+    { h: 'What was signed', w: inner - 34 - 92 - 100 - 70 - 104 - 48 - 70 - 62 },
     { h: 'Hash', w: 70 },
     { h: 'Chain', w: 62 },
   ];
@@ -210,7 +211,7 @@ export async function exportPdf(em: EntityManager, who: Principal, q: ExportSign
       String(r.seq),
       DateTime.fromISO(r.signedAt, { zone: tz }).toFormat('yyyy-LL-dd HH:mm:ss'),
       r.signerName,
-      r.signerRole,
+      ROLE_LABELS[r.signerRole as Role] ?? r.signerRole,
       MEANING_LABELS[r.meaning] + (r.correctsSeq ? ` (corrects #${r.correctsSeq})` : ''),
       r.machineCode ?? '—',
       r.summary + (r.note ? ` — Note: ${r.note}` : ''),

@@ -1,5 +1,5 @@
 import { DateTime } from 'luxon';
-import { evaluatePlan, type Evaluation, type Trigger } from '../../../shared/domain/due';
+import { evaluatePlan, MIN_GRACE_MS, type Evaluation, type Trigger } from '../../../shared/domain/due';
 import { expandRecurrence } from '../../../shared/domain/recurrence';
 import type { SafetySettings } from '../../../shared/schemas/safety-records';
 import type { CheckCadence } from '../../../shared/schemas/safety-ppe';
@@ -13,7 +13,7 @@ const HOUR_MS = 3_600_000;
  */
 export function inspectionEvaluation(a: { firstApprovedAt: Date; lastInspectedOn: string | null; months: number; timeZone: string; now: Date }): Evaluation {
   const lastDoneAt = a.lastInspectedOn ? DateTime.fromISO(a.lastInspectedOn, { zone: a.timeZone }).startOf('day').toJSDate() : null;
-  return evaluatePlan({
+  const ev = evaluatePlan({
     now: a.now,
     startedAt: a.firstApprovedAt,
     lastDoneAt,
@@ -22,6 +22,9 @@ export function inspectionEvaluation(a: { firstApprovedAt: Date; lastInspectedOn
     meters: {},
     dueSoon: { days: 30 },
   });
+  // The regulation sets a deadline, not a grace period: past the due day it is overdue.
+  if (ev.status === 'due' && ev.dueAt && a.now.getTime() - ev.dueAt.getTime() > MIN_GRACE_MS) return { ...ev, status: 'overdue' };
+  return ev;
 }
 
 /** RFC 5545 text for one shift start on the site's work days (weekly cadence: first shift of the first work day). */

@@ -33,8 +33,8 @@ export async function renderPlacard(em: EntityManager, procedureId: string, appU
 
   // Red band: the instruction first, the machine code large on the right.
   doc.rect(0, 0, W, 92).fill(COLORS.danger);
-  doc.fillColor('#ffffff').font('bold').fontSize(21).text('ISOLATE ALL ENERGY BEFORE YOU WORK HERE', M, 20, { width: inner - 130 });
-  doc.font('regular').fontSize(10).text('Energy-control (lockout/tagout) procedure  ·  OSHA 29 CFR 1910.147  ·  only authorized employees apply locks', M, 66, { width: inner - 130 });
+  doc.fillColor('#ffffff').font('bold').fontSize(18).text('ISOLATE ALL ENERGY BEFORE YOU WORK HERE', M, 18, { width: inner - 126 });
+  doc.font('regular').fontSize(10).text('Energy-control (lockout/tagout) procedure  ·  OSHA 29 CFR 1910.147  ·  only authorized employees apply locks', M, doc.y + 4, { width: inner - 126 });
   doc.rect(W - M - 112, 14, 112, 64).fill('#ffffff');
   doc.fillColor(COLORS.danger).font('bold').fontSize(machine.code.length > 5 ? 20 : 34).text(pdfText(machine.code), W - M - 112, machine.code.length > 5 ? 36 : 26, { width: 112, align: 'center' });
 
