@@ -1,6 +1,7 @@
 import type { EntityManager } from '@mikro-orm/postgresql';
 import { Organization } from '../server/modules/organizations/organization.entity';
 import { createMember, createShop } from './factories';
+import { seedSafetyDemo } from './demo-safety';
 
 /** The invented demo shops. Every name here is made up; e-mail domains are `.example`. */
 export const DEMO_USERS = [
@@ -23,3 +24,6 @@ export async function seedDemo(em: EntityManager): Promise<boolean> {
   for (const step of demoSteps) await step(em, alder);
   return true;
 }
+
+// Keep last: the safety history attaches to the machines the steps above create.
+demoSteps.push(seedSafetyDemo);

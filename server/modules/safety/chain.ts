@@ -77,9 +77,10 @@ export function signOffContent(f: StoredFields) {
 /**
  * Appends one signature to the shop's chain inside the caller's transaction. The chain-head
  * row is locked (SELECT … FOR UPDATE) for the rest of the transaction, so concurrent
- * signatures of one shop queue up and each links to the one before it.
+ * signatures of one shop queue up and each links to the one before it. `at` exists only for
+ * the demo seed's back-dated history; every real signature takes the server's clock.
  */
-export async function appendSignOff(tx: EntityManager, signer: Principal, input: SignInput): Promise<ISafetySignOff> {
+export async function appendSignOff(tx: EntityManager, signer: Principal, input: SignInput, at?: Date): Promise<ISafetySignOff> {
   if (!tx.isInTransaction()) throw new Error('appendSignOff must run inside em.transactional');
   const orgId = signer.orgId;
   await tx.execute(
@@ -93,7 +94,7 @@ export async function appendSignOff(tx: EntityManager, signer: Principal, input:
     id: randomUUID(),
     organizationId: orgId,
     seq: Number(head.last_seq) + 1,
-    signedAt: new Date(),
+    signedAt: at ?? new Date(),
     signerId: signer.userId,
     signerName: signer.name,
     signerRole: signer.role,
