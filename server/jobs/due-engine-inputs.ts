@@ -8,6 +8,9 @@ import type { PlanInput, Reading, Trigger } from '../../shared/domain/due';
 import type { StoredTrigger } from '../../shared/schemas/plans';
 import type { MeterBaselines } from '../modules/plans/plan.entity';
 
+/** A PostgreSQL array literal for `?::uuid[]` (the driver would expand a JS array into a list). */
+export const uuidArray = (ids: string[]) => `{${ids.join(',')}}`;
+
 /** Readings kept per meter for the usage trend and condition runs (the newest ones). */
 export const RECENT_READINGS = 24;
 
@@ -92,7 +95,7 @@ export async function loadMeterSeries(em: EntityManager, meterIds: string[]): Pr
     `select m.id as meter_id, x.value, x.read_at, x.is_reset
        from unnest(?::uuid[]) as m(id)
        cross join lateral (select value, read_at, is_reset from meter_reading r where r.meter_id = m.id order by read_at desc, created_at desc limit ${RECENT_READINGS}) x`,
-    [meterIds],
+    [uuidArray(meterIds)],
   );
   const grouped = new Map<string, { value: number; at: Date; isReset: boolean }[]>();
   for (const r of rows) {
@@ -124,7 +127,7 @@ export async function loadOilSeries(em: EntityManager, machineIds: string[]): Pr
     `select m.id as machine_id, x.sampled_at, x.out_of_limits
        from unnest(?::uuid[]) as m(id)
        cross join lateral (select sampled_at, out_of_limits from oil_analysis o where o.machine_id = m.id order by sampled_at desc limit ${RECENT_READINGS}) x`,
-    [machineIds],
+    [uuidArray(machineIds)],
   );
   for (const id of machineIds) out.set(oilMeterId(id), { readings: [], reset: null });
   for (const r of rows) out.get(oilMeterId(r.machine_id))!.readings.push({ at: new Date(r.sampled_at), value: r.out_of_limits ? 1 : 0 });

@@ -21,6 +21,7 @@ import {
   inputsOf,
   loadLatestInputTimes,
   missingBaselines,
+  uuidArray,
   loadMeterSeries,
   loadOilSeries,
   needsEvaluation,
@@ -181,7 +182,7 @@ async function raiseWork(orm: MikroORM, run: Run, orgId: string, items: Evaluate
         // Re-check under a row lock: a completion or another raise since the evaluation wins.
         const locked: { id: string; last_done_at: Date | null; last_raised_key: string | null; active: boolean }[] = await tx.execute(
           `select id, last_done_at, last_raised_key, active from maintenance_plan where id = any(?::uuid[]) for update`,
-          [ids],
+          [uuidArray(ids)],
         );
         const byId = new Map(locked.map((l) => [l.id, l]));
         const ok = batch.filter(({ row }) => {
@@ -193,7 +194,7 @@ async function raiseWork(orm: MikroORM, run: Run, orgId: string, items: Evaluate
           `select p.id, p.title, p.instructions, p.checklist, p.parts, p.estimated_minutes, p.responsible_role, p.responsible_user_id,
                   p.requires_lockout, p.safety_critical, p.machine_id, m.code, m.name
              from maintenance_plan p join machine m on m.id = p.machine_id where p.id = any(?::uuid[])`,
-          [ok.map((o) => o.row.id)],
+          [uuidArray(ok.map((o) => o.row.id))],
         );
         const detailOf = new Map(details.map((d) => [d.id, d]));
         const first = await allocateNumbers(tx, orgId, ok.length);
@@ -311,7 +312,7 @@ async function escalate(orm: MikroORM, run: Run, now: Date, orgId?: string) {
       await orm.em.fork().transactional(async (tx) => {
         const done: { id: string }[] = await tx.execute(
           `update work_order set overdue = true, escalated_at = ?, updated_at = now() where id = any(?::uuid[]) and escalated_at is null returning id`,
-          [now, list.map((l) => l.id)],
+          [now, uuidArray(list.map((l) => l.id))],
         );
         const ids = new Set(done.map((d) => d.id));
         const lines: WorkLine[] = list
@@ -366,7 +367,7 @@ export async function runDueEngine(orm: MikroORM, now: Date, opts: EngineOptions
     }
     if (opts.planIds) {
       where += ' and id = any(?::uuid[])';
-      params.push(opts.planIds);
+      params.push(uuidArray(opts.planIds));
     }
     const rows: EnginePlanRow[] = await em.execute(`select ${PLAN_COLUMNS} from maintenance_plan where ${where} order by id limit ${PLAN_BATCH}`, params);
     if (rows.length === 0) break;

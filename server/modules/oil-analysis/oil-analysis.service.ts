@@ -9,6 +9,7 @@ import { recordAudit } from '../audit/audit';
 import { compareToTarget, iso4406Code } from '../../../shared/domain/cleanliness';
 import { viscosityStatus } from '../../../shared/domain/viscosity';
 import { allocateNumbers, runDueEngine } from '../../jobs/due-engine';
+import { uuidArray } from '../../jobs/due-engine-inputs';
 import type { HydraulicUnitView, OilAnalysisInput, OilAnalysisRow, OilFinding, OilTarget as OilTargetView, OilTargetInput } from '../../../shared/schemas/oil-analysis';
 import type { Page } from '../../../shared/schemas/users';
 
@@ -193,7 +194,7 @@ export async function recordAnalysis(orm: MikroORM, em: EntityManager, who: Prin
     const [wo]: { id: string }[] = await em.execute(
       `select w.id from work_order w join maintenance_plan p on p.id = w.plan_id and w.occurrence_key = p.last_raised_key
         where p.id = any(?::uuid[]) and w.status in ('open', 'in-progress', 'on-hold') order by w.created_at desc limit 1`,
-      [saved.oilPlanIds],
+      [uuidArray(saved.oilPlanIds)],
     );
     if (wo) await em.nativeUpdate(OilAnalysis, { id: saved.id }, { workOrder: wo.id });
   }

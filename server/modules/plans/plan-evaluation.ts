@@ -1,6 +1,6 @@
 import type { EntityManager } from '@mikro-orm/postgresql';
 import { evaluatePlan } from '../../../shared/domain/due';
-import { inputsOf, loadMeterSeries, loadOilSeries, missingBaselines, oilMeterId, toPlanInput, type EnginePlanRow } from '../../jobs/due-engine-inputs';
+import { uuidArray, inputsOf, loadMeterSeries, loadOilSeries, missingBaselines, oilMeterId, toPlanInput, type EnginePlanRow } from '../../jobs/due-engine-inputs';
 import { statusColumns } from '../../jobs/due-engine';
 import type { IMaintenancePlan, MeterBaselines } from './plan.entity';
 
@@ -55,7 +55,7 @@ export async function currentBaselines(em: EntityManager, meterIds: string[]): P
   const rows: { meter_id: string; value: number; read_at: Date }[] = await em.execute(
     `select m.id as meter_id, r.value, r.read_at from unnest(?::uuid[]) as m(id)
        cross join lateral (select value, read_at from meter_reading x where x.meter_id = m.id order by read_at desc, created_at desc limit 1) r`,
-    [meterIds],
+    [uuidArray(meterIds)],
   );
   for (const r of rows) out[r.meter_id] = { value: Number(r.value), at: new Date(r.read_at).toISOString() };
   return out;
