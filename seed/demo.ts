@@ -1,6 +1,7 @@
 import type { EntityManager } from '@mikro-orm/postgresql';
 import { Organization } from '../server/modules/organizations/organization.entity';
 import { createMember, createShop } from './factories';
+import { seedMachines } from './demo-machines';
 import { seedSafetyDemo } from './demo-safety';
 
 /** The invented demo shops. Every name here is made up; e-mail domains are `.example`. */
@@ -14,6 +15,8 @@ export const DEMO_USERS = [
 export type SeedStep = (em: EntityManager, shop: { id: string; timeZone: string }) => Promise<void>;
 /** Feature modules add their demo data here (machines, history …). */
 export const demoSteps: SeedStep[] = [];
+// Machines, meters and consumable history first: later steps attach to these machines.
+demoSteps.push(seedMachines);
 
 export async function seedDemo(em: EntityManager): Promise<boolean> {
   if (await em.findOne(Organization, { slug: 'alder-row' }, { filters: false })) return false;

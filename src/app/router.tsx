@@ -44,6 +44,8 @@ export const router = createBrowserRouter([
       { path: paths.meter.path.slice(1), lazy: () => import('./routes/meter-detail') },
       { path: paths.counterImport.path.slice(1), lazy: () => import('./routes/counter-import') },
       { path: paths.stock.path.slice(1), lazy: () => import('./routes/stock') },
+      { path: paths.station.path.slice(1), lazy: () => import('./routes/station') },
+      { path: paths.stationLabel.path.slice(1), lazy: () => import('./routes/station-label') },
       { path: '*', lazy: () => import('./routes/not-found') },
     ],
   },

@@ -1,0 +1,49 @@
+import { Link, useParams, type LoaderFunctionArgs } from 'react-router-dom';
+import { Notice, Panel } from '../../components/ui/notice';
+import { getStationQueryOptions, useStation } from '../../features/station/api/get-station';
+import { TorchPanel } from '../../features/station/components/torch-panel';
+import { RecentChanges } from '../../features/station/components/recent-changes';
+import { MetersTable } from '../../features/meters/components/meters-table';
+import { useMe } from '../../features/auth/api/get-me';
+import { queryClient } from '../../lib/query-client';
+import { can } from '../../../shared/permissions';
+import { paths } from '../../config/paths';
+import { MACHINE_KIND_LABELS, type MachineKind } from '../../../shared/schemas/machines';
+
+export const loader = ({ params }: LoaderFunctionArgs) => queryClient.ensureQueryData(getStationQueryOptions(params.code!)).catch(() => null);
+
+/** The operator's page at the machine, opened from the QR label. */
+export function Component() {
+  const { code } = useParams();
+  const { data: me } = useMe();
+  const q = useStation(code!);
+  if (!me) return null;
+  if (q.isError) return <Notice tone="danger" role="alert" title="Station not found">{q.error.message}. Check the code on the label, or open it from the machine list.</Notice>;
+  if (!q.data) return <p role="status">Loading station…</p>;
+  const s = q.data;
+  return (
+    <div className="space-y-4">
+      <div className="flex flex-wrap items-end justify-between gap-3">
+        <div>
+          <p className="text-sm font-semibold uppercase tracking-wider text-steel-600">Station</p>
+          <h1 className="text-3xl font-bold">{s.machine.code} · {s.machine.name}</h1>
+          <p className="text-steel-700">{[MACHINE_KIND_LABELS[s.machine.kind as MachineKind], s.machine.location].filter(Boolean).join(' · ')}</p>
+        </div>
+        <div className="no-print flex flex-wrap gap-2">
+          <Link to={paths.machine.getHref(s.machine.id)} className="inline-flex min-h-touch items-center rounded border border-steel-400 bg-white px-4 font-semibold">Machine record</Link>
+          <Link to={paths.stationLabel.getHref(s.machine.code)} className="inline-flex min-h-touch items-center rounded border border-steel-400 bg-white px-4 font-semibold">Print QR label</Link>
+        </div>
+      </div>
+      {s.torches.length === 0 ? <Notice title="No torch on this machine">Consumables are logged on a torch. Add a component of kind “Plasma torch” to {s.machine.code} with arc-start and arc-time meters.</Notice> : null}
+      {s.torches.map((t) => (
+        <TorchPanel key={t.id} torch={t} parts={s.partOptions} pitLimit={s.reference.pitLimitMm} canLog={can(me.role, 'consumables.log')} />
+      ))}
+      <Panel title="Latest counters">
+        <MetersTable meters={s.meters} />
+      </Panel>
+      <Panel title="Recent changes">
+        <RecentChanges rows={s.recentChanges} />
+      </Panel>
+    </div>
+  );
+}

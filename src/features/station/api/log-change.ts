@@ -1,0 +1,24 @@
+import { useMutation, useQueryClient } from '@tanstack/react-query';
+import type { z } from 'zod';
+import { api } from '../../../lib/api-client';
+import type { consumableChangeSchema } from '../../../../shared/schemas/consumables';
+
+export type LogChangeInput = z.input<typeof consumableChangeSchema> & { photo?: File | null };
+
+/** JSON for the common case; multipart with the details in `data` when a photo comes along. */
+export function logChange({ photo, ...input }: LogChangeInput) {
+  if (!photo) return api<{ id: string; closed: number; opened: number }>('/consumable-changes', { method: 'POST', body: input });
+  const form = new FormData();
+  form.append('data', JSON.stringify(input));
+  form.append('photo', photo);
+  return api<{ id: string; closed: number; opened: number }>('/consumable-changes', { method: 'POST', body: form });
+}
+
+/** A change moves life bars, counters and stock. */
+export function useLogChange() {
+  const qc = useQueryClient();
+  return useMutation({
+    mutationFn: logChange,
+    onSuccess: () => Promise.all([qc.invalidateQueries({ queryKey: ['stations'] }), qc.invalidateQueries({ queryKey: ['stock'] }), qc.invalidateQueries({ queryKey: ['meters'] }), qc.invalidateQueries({ queryKey: ['consumables'] })]),
+  });
+}

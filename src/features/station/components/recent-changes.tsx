@@ -1,0 +1,36 @@
+import { createColumnHelper } from '@tanstack/react-table';
+import { DataTable } from '../../../components/ui/data-table';
+import { EmptyState } from '../../../components/ui/notice';
+import { CHANGE_REASON_LABELS, type ChangeRow } from '../../../../shared/schemas/consumables';
+import { PART_CATEGORY_LABELS } from '../../../../shared/schemas/stock';
+
+const col = createColumnHelper<ChangeRow>();
+const when = new Intl.DateTimeFormat(undefined, { dateStyle: 'medium', timeStyle: 'short' });
+const int = new Intl.NumberFormat(undefined, { maximumFractionDigits: 1 });
+
+const columns = [
+  col.accessor('changedAt', { header: 'When', cell: (c) => when.format(new Date(c.getValue())) }),
+  col.accessor('torchCode', { header: 'Torch' }),
+  col.accessor((r) => r.parts.map((p) => PART_CATEGORY_LABELS[p.category]).join(', '), { id: 'parts', header: 'Parts' }),
+  col.accessor('reason', { header: 'Why', cell: (c) => CHANGE_REASON_LABELS[c.getValue()] }),
+  col.accessor((r) => r.parts.map((p) => (p.lifeStarts === null ? null : p.lifeStarts)).find((x) => x !== null) ?? null, {
+    id: 'life',
+    header: 'Life of the old parts',
+    cell: (c) => {
+      const lives = c.row.original.parts.filter((p) => p.lifeStarts !== null || p.lifeArcHours !== null);
+      if (lives.length === 0) return '—';
+      return lives.map((p) => `${PART_CATEGORY_LABELS[p.category]} ${p.lifeStarts !== null ? `${int.format(p.lifeStarts)} starts` : ''}${p.lifeArcHours !== null ? ` / ${int.format(p.lifeArcHours)} h` : ''}`).join('; ');
+    },
+  }),
+  col.accessor('pitDepthMm', { header: 'Pit', cell: (c) => (c.getValue() === null ? '—' : `${c.getValue()} mm`) }),
+  col.accessor('by', { header: 'By', cell: (c) => c.getValue() ?? '—' }),
+  col.accessor('hasPhoto', {
+    header: 'Photo',
+    enableSorting: false,
+    cell: (c) => (c.getValue() ? <a className="inline-flex min-h-touch items-center font-semibold text-mandatory-ink underline" href={`/api/consumable-changes/${c.row.original.id}/photo`} target="_blank" rel="noreferrer">Open photo</a> : '—'),
+  }),
+];
+
+export function RecentChanges({ rows, caption = 'Recent consumable changes' }: { rows: ChangeRow[]; caption?: string }) {
+  return <DataTable caption={caption} columns={columns} data={rows} getRowId={(r) => r.id} empty={<EmptyState title="No changes logged yet" />} />;
+}

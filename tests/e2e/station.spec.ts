@@ -1,0 +1,109 @@
+import { test, expect, type Locator, type Page } from '@playwright/test';
+import { expectAccessible, signIn, snap } from './support';
+
+const tablet = { viewport: { width: 800, height: 1280 }, hasTouch: true, isMobile: true };
+
+/** Counts every tap so the test can hold the common change to three. */
+function tapper() {
+  let taps = 0;
+  return {
+    tap: async (l: Locator) => {
+      taps++;
+      await l.tap();
+    },
+    get count() {
+      return taps;
+    },
+  };
+}
+
+const onHandOf = async (item: Locator) => Number((await item.innerText()).match(/(\d+) pcs in stock/)![1]);
+
+test.describe('station page on a tablet', () => {
+  test.use(tablet);
+
+  test('operator logs an electrode and nozzle change in three taps; life bars restart and stock drops', async ({ page }) => {
+    await signIn(page, 'operator@alder-row.example');
+    const t0 = Date.now();
+    await page.goto('/station/C1');
+    const logButton = page.getByRole('button', { name: 'Log a change' });
+    await expect(logButton).toBeVisible();
+    test.info().annotations.push({ type: 'station page ready (ms)', description: String(Date.now() - t0) });
+
+    const torch = page.getByRole('region', { name: 'Torch C1-T' });
+    const electrode = torch.getByRole('listitem').filter({ hasText: 'Electrode' });
+    const nozzle = torch.getByRole('listitem').filter({ hasText: 'Nozzle' });
+    const electrodeStock = await onHandOf(electrode);
+    const nozzleStock = await onHandOf(nozzle);
+    // Parts in the torch have worn for a while: their bars are not at zero.
+    await expect(electrode.getByRole('meter')).not.toHaveAttribute('aria-valuenow', '0');
+    await expectAccessible(page, 'station page');
+    await snap(page, 'station-tablet');
+
+    const taps = tapper();
+    await taps.tap(logButton);
+    await expect(page.getByText('Before opening the torch: switch off and lock out the plasma power source')).toBeVisible();
+    await expectAccessible(page, 'change sheet');
+    await snap(page, 'station-change-sheet');
+    await taps.tap(page.getByRole('button', { name: 'Electrode + nozzle' }));
+    await taps.tap(page.getByRole('button', { name: 'Record the change' }));
+    await expect(page.getByRole('status').filter({ hasText: 'Change recorded on C1-T: electrode and nozzle (normal wear).' })).toBeVisible();
+    expect(taps.count).toBe(3);
+
+    await expect(electrode.getByRole('meter')).toHaveAttribute('aria-valuenow', '0');
+    await expect(nozzle.getByRole('meter')).toHaveAttribute('aria-valuenow', '0');
+    await expect(electrode.getByText(/^0 of 1,000 arc starts \(0 %\)$/)).toBeVisible();
+    await expect.poll(() => onHandOf(electrode)).toBe(electrodeStock - 1);
+    await expect.poll(() => onHandOf(nozzle)).toBe(nozzleStock - 1);
+    await expect(page.getByRole('table', { name: 'Recent consumable changes' }).getByRole('row').nth(1)).toContainText('Electrode, Nozzle');
+    await snap(page, 'station-after-change');
+  });
+
+  test('the QR label opens the station page', async ({ page }) => {
+    await signIn(page, 'operator@alder-row.example');
+    await page.goto('/station/C2');
+    await expect(page.getByRole('alert').filter({ hasText: 'Cut quality out of tolerance' })).toBeVisible();
+    await page.getByRole('link', { name: 'Print QR label' }).tap();
+    const qr = page.getByRole('img', { name: /QR code that opens http:\/\/127\.0\.0\.1:\d+\/station\/C2/ });
+    await expect(qr).toBeVisible();
+    await expectAccessible(page, 'QR label');
+    await snap(page, 'station-label');
+  });
+});
+
+test('a counter CSV with one bad row is reported with its line and nothing is written', async ({ page }) => {
+  await signIn(page, 'tech@alder-row.example');
+  const latest = async (p: Page) => {
+    const s = await (await p.request.get('/api/stations/C1')).json();
+    return s.torches[0].startsMeter.latest.value as number;
+  };
+  const before = await latest(page);
+  const now = Date.now();
+  const iso = (minutesAgo: number) => new Date(now - minutesAgo * 60_000).toISOString();
+  const csv = [
+    'machine_code,meter_code,read_at,value,reset',
+    `C1-T,arc-starts,${iso(30)},${before + 40},no`,
+    `C1-T,arc-starts,${iso(20)},${before + 80},no`,
+    `C1-T,arc-starts,${iso(10)},not-a-number,no`,
+    `C1-T,arc-hours,${iso(10)},99999,no`,
+  ].join('\n');
+
+  await page.getByRole('link', { name: 'Counter import' }).click();
+  await expect(page.getByRole('heading', { name: 'Import counter readings' })).toBeVisible();
+  await page.getByLabel('CSV file (at most 50 MB)').setInputFiles({ name: 'counters.csv', mimeType: 'text/csv', buffer: Buffer.from(csv) });
+  await page.getByRole('button', { name: 'Check the file' }).click();
+  const problems = page.getByRole('table', { name: 'Problems in the file' });
+  await expect(page.getByRole('alert').filter({ hasText: '1 problem found — nothing can be imported yet' })).toBeVisible();
+  await expect(problems.getByRole('row').nth(1)).toContainText('4');
+  await expect(problems.getByRole('row').nth(1)).toContainText('“not-a-number” is not a number');
+  await expect(page.getByRole('button', { name: /^Import \d+ reading/ })).toBeDisabled();
+  await expectAccessible(page, 'counter import preview');
+  await snap(page, 'counter-import-preview');
+
+  // The server refuses the same file too, and writes none of its good rows.
+  const { token } = await (await page.request.get('/api/auth/csrf')).json();
+  const res = await page.request.post('/api/counter-import', { headers: { 'X-CSRF-Token': token }, multipart: { file: { name: 'counters.csv', mimeType: 'text/csv', buffer: Buffer.from(csv) } } });
+  expect(res.status()).toBe(400);
+  expect((await res.json()).message).toMatch(/^1 problem in the file; nothing was imported/);
+  expect(await latest(page)).toBe(before);
+});
