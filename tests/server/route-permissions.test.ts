@@ -120,6 +120,7 @@ const EXPECTED: Record<string, Role[] | 'public'> = {
   'GET /consumable-changes': ALL,
   'GET /consumable-changes/:id/photo': ALL,
   'GET /consumable-settings': ALL,
+  'GET /consumable-life': ALL,
   'PATCH /consumable-settings': ['admin'],
   'GET /punch-tools': ALL,
   'POST /punch-tools': ['technician', 'admin'],

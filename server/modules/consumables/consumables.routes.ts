@@ -7,7 +7,8 @@ import { requirePrincipal } from '../../http/principal';
 import { AppError, badRequest } from '../../http/errors';
 import { paging, uuidParam } from '../../../shared/schemas/common';
 import { machineCodeParam } from '../../../shared/schemas/machines';
-import { PHOTO_MAX_BYTES, consumableChangeSchema, consumableSettingsSchema } from '../../../shared/schemas/consumables';
+import { PHOTO_MAX_BYTES, consumableChangeSchema, consumableSettingsSchema, lifeStatsQuery } from '../../../shared/schemas/consumables';
+import { lifeStats } from './life-stats.service';
 import { Machine } from '../machines/machine.entity';
 import { getConsumableSettings, getPhoto, listChanges, logChange, stationView, updateConsumableSettings } from './consumables.service';
 
@@ -62,6 +63,9 @@ export function registerConsumableRoutes(r: ApiRouter) {
     const photo = await getPhoto(requestEm(), res.locals.params.id);
     res.type(photo.mimeType).setHeader('Cache-Control', 'private, max-age=3600');
     res.send(photo.data);
+  });
+  route(r, 'get', '/consumable-life', { access: 'machines.read', query: lifeStatsQuery }, async (req, res) => {
+    res.json(await lifeStats(requestEm(), requirePrincipal(req), res.locals.query.partTypeId, res.locals.query.machineId));
   });
   route(r, 'get', '/consumable-settings', { access: 'machines.read' }, async (req, res) => {
     res.json(await getConsumableSettings(requestEm(), requirePrincipal(req)));
