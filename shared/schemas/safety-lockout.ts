@@ -32,25 +32,28 @@ export const lockPointInput = z.object({
   tagNumber: z.string().trim().max(30, 'Tag number: at most 30 characters').optional(),
 });
 
-export const applyLockoutSchema = z
-  .object({
-    procedureId: z.uuid({ message: 'Choose the energy-control procedure' }),
-    workOrderId: z.uuid({ message: 'Not a valid work order id' }).optional(),
-    reason: z.string().trim().min(3, 'Say what work the lockout is for').max(300, 'Reason: at most 300 characters'),
-    group: z.boolean().default(false),
-    points: z.array(lockPointInput).min(1, 'Lock out at least one isolation point').max(20),
-    password: signPassword,
-  })
-  .superRefine((v, ctx) => {
-    const locks = new Map<string, number>();
-    v.points.forEach((p, i) => {
-      if (p.device !== 'tag-only' && p.device !== 'blocking') {
-        const k = p.lockNumber.toUpperCase();
-        if (locks.has(k)) ctx.addIssue({ code: 'custom', path: ['points', i, 'lockNumber'], message: `Lock ${p.lockNumber} is listed twice; each point needs its own lock` });
-        locks.set(k, i);
-      }
-    });
+const applyLockoutFields = z.object({
+  procedureId: z.uuid({ message: 'Choose the energy-control procedure' }),
+  workOrderId: z.uuid({ message: 'Not a valid work order id' }).optional(),
+  reason: z.string().trim().min(3, 'Say what work the lockout is for').max(300, 'Reason: at most 300 characters'),
+  group: z.boolean().default(false),
+  points: z.array(lockPointInput).min(1, 'Lock out at least one isolation point').max(20),
+});
+
+function distinctLocks(v: { points: { device: LockDevice; lockNumber: string }[] }, ctx: z.RefinementCtx) {
+  const locks = new Map<string, number>();
+  v.points.forEach((p, i) => {
+    if (p.device !== 'tag-only' && p.device !== 'blocking') {
+      const k = p.lockNumber.toUpperCase();
+      if (locks.has(k)) ctx.addIssue({ code: 'custom', path: ['points', i, 'lockNumber'], message: `Lock ${p.lockNumber} is listed twice; each point needs its own lock` });
+      locks.set(k, i);
+    }
   });
+}
+
+/** The form (the password is asked for in the signing dialog). */
+export const applyLockoutFormSchema = applyLockoutFields.superRefine(distinctLocks);
+export const applyLockoutSchema = applyLockoutFields.extend({ password: signPassword }).superRefine(distinctLocks);
 export type ApplyLockoutInput = z.infer<typeof applyLockoutSchema>;
 
 export const verifyLockoutSchema = z.object({

@@ -1,0 +1,27 @@
+import { useQueryClient } from '@tanstack/react-query';
+
+/** Every safety query key starts with 'safety', so one invalidation refreshes the whole log after a signature. */
+export const safetyKeys = {
+  all: ['safety'] as const,
+  machines: () => ['safety', 'machines'] as const,
+  people: () => ['safety', 'people'] as const,
+  settings: () => ['safety', 'settings'] as const,
+  tasks: () => ['safety', 'tasks'] as const,
+  procedures: () => ['safety', 'procedures', 'list'] as const,
+  procedure: (id: string, version?: number) => ['safety', 'procedures', 'detail', id, version ?? 'current'] as const,
+  lockouts: (f: object) => ['safety', 'lockouts', 'list', f] as const,
+  lockout: (id: string) => ['safety', 'lockouts', 'detail', id] as const,
+  ppe: (machineId?: string) => ['safety', 'ppe', 'requirements', machineId ?? 'all'] as const,
+  inspections: () => ['safety', 'inspections'] as const,
+  training: () => ['safety', 'training'] as const,
+  fireWatches: () => ['safety', 'fire-watches'] as const,
+  signOffs: (f: object) => ['safety', 'sign-offs', f] as const,
+  chain: () => ['safety', 'chain'] as const,
+  compliance: (days: number) => ['safety', 'compliance', days] as const,
+  timeline: (weeks: number) => ['safety', 'timeline', weeks] as const,
+};
+
+export function useInvalidateSafety() {
+  const qc = useQueryClient();
+  return () => qc.invalidateQueries({ queryKey: safetyKeys.all });
+}
