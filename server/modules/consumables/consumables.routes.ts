@@ -10,6 +10,7 @@ import { machineCodeParam } from '../../../shared/schemas/machines';
 import { PHOTO_MAX_BYTES, consumableChangeSchema, consumableSettingsSchema, lifeStatsQuery } from '../../../shared/schemas/consumables';
 import { lifeStats } from './life-stats.service';
 import { Machine } from '../machines/machine.entity';
+import { subtreeIds } from '../machines/machines.service';
 import { getConsumableSettings, getPhoto, listChanges, logChange, stationView, updateConsumableSettings } from './consumables.service';
 
 const upload = multer({ storage: multer.memoryStorage(), limits: { fileSize: PHOTO_MAX_BYTES, files: 1, fields: 5 } });
@@ -50,11 +51,7 @@ export function registerConsumableRoutes(r: ApiRouter) {
     let torchIds: string[] | undefined;
     if (q.machineId) {
       const all = await em.find(Machine, {});
-      const ids = new Set([q.machineId]);
-      for (let grew = true; grew; ) {
-        grew = false;
-        for (const m of all) if (m.parent && ids.has(m.parent.id) && !ids.has(m.id)) (ids.add(m.id), (grew = true));
-      }
+      const ids = new Set(subtreeIds(all, q.machineId));
       torchIds = all.filter((m) => ids.has(m.id) && m.kind === 'torch').map((m) => m.id);
     }
     res.json(await listChanges(em, { torchIds, page: q.page, pageSize: q.pageSize }));

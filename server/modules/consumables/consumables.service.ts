@@ -8,7 +8,7 @@ import { PartType } from '../stock/stock.entity';
 import { Organization, type OrgSettings } from '../organizations/organization.entity';
 import { applyStockChanges } from '../stock/stock.service';
 import { latestReadings, meterRow, neighbours, readingsSince, recordReading } from '../meters/meters.service';
-import { machineByCode, metersOf } from '../machines/machines.service';
+import { machineByCode, metersOf, subtreeIds } from '../machines/machines.service';
 import { listTools } from '../punch-tools/punch-tools.service';
 import type { Principal } from '../../http/principal';
 import { AppError, fieldError, notFound } from '../../http/errors';
@@ -83,12 +83,7 @@ async function installedOn(em: EntityManager, torch: IMachine, meters: TorchMete
 }
 
 function subtreeOf(all: IMachine[], rootId: string): IMachine[] {
-  const ids = new Set([rootId]);
-  let grew = true;
-  while (grew) {
-    grew = false;
-    for (const m of all) if (m.parent && ids.has(m.parent.id) && !ids.has(m.id)) (ids.add(m.id), (grew = true));
-  }
+  const ids = new Set(subtreeIds(all, rootId));
   return all.filter((m) => ids.has(m.id));
 }
 

@@ -5,6 +5,7 @@ import { PartType } from '../stock/stock.entity';
 import { Organization } from '../organizations/organization.entity';
 import { readingsSince } from '../meters/meters.service';
 import { torchMeters } from './consumables.service';
+import { subtreeIds } from '../machines/machines.service';
 import type { Principal } from '../../http/principal';
 import { notFound } from '../../http/errors';
 import { advanceSince } from '../../../shared/domain/meters';
@@ -27,12 +28,7 @@ export async function lifeStats(em: EntityManager, who: Principal, partTypeId: s
   let torchIds: string[] | null = null;
   if (machineId) {
     if (!all.some((m) => m.id === machineId)) throw notFound('Machine');
-    const ids = new Set([machineId]);
-    for (let grew = true; grew; ) {
-      grew = false;
-      for (const m of all) if (m.parent && ids.has(m.parent.id) && !ids.has(m.id)) (ids.add(m.id), (grew = true));
-    }
-    torchIds = [...ids];
+    torchIds = subtreeIds(all, machineId);
   }
   const installs = await em.find(ConsumableInstall, { partType: part.id, ...(torchIds ? { torch: { $in: torchIds } } : {}) }, { orderBy: { installedAt: 'asc' } });
   const removed = installs.filter((i) => i.removedAt);

@@ -153,3 +153,13 @@ export async function machineByCode(em: EntityManager, code: string) {
   return m;
 }
 
+
+/** Ids of a machine and everything below it in the component tree. */
+export function subtreeIds(all: Pick<IMachine, 'id' | 'parent'>[], rootId: string): string[] {
+  const ids = new Set([rootId]);
+  for (let grew = true; grew; ) {
+    grew = false;
+    for (const m of all) if (m.parent && ids.has(m.parent.id) && !ids.has(m.id)) (ids.add(m.id), (grew = true));
+  }
+  return [...ids];
+}

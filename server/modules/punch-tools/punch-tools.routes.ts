@@ -5,13 +5,18 @@ import { requirePrincipal } from '../../http/principal';
 import { uuidParam } from '../../../shared/schemas/common';
 import { punchToolInputSchema, punchToolUpdateSchema, sharpeningSchema } from '../../../shared/schemas/punch-tools';
 import { createTool, listSharpenings, listTools, recordSharpening, updateTool } from './punch-tools.service';
+import { Machine } from '../machines/machine.entity';
+import { subtreeIds } from '../machines/machines.service';
 
 const listQuery = z.object({ machineId: z.uuid().optional(), includeInactive: z.enum(['true', 'false']).optional().transform((v) => v === 'true') });
 
 export function registerPunchToolRoutes(r: ApiRouter) {
   route(r, 'get', '/punch-tools', { access: 'machines.read', query: listQuery }, async (_req, res) => {
     const q = res.locals.query as z.output<typeof listQuery>;
-    res.json(await listTools(requestEm(), { machineIds: q.machineId ? [q.machineId] : undefined, includeInactive: q.includeInactive }));
+    const em = requestEm();
+    // A machine's tools include those on its components (a cell's punch head).
+    const machineIds = q.machineId ? subtreeIds(await em.find(Machine, {}), q.machineId) : undefined;
+    res.json(await listTools(em, { machineIds, includeInactive: q.includeInactive }));
   });
   route(r, 'post', '/punch-tools', { access: 'tools.manage', body: punchToolInputSchema }, async (req, res) => {
     res.status(201).json(await createTool(requestEm(), requirePrincipal(req), res.locals.body));

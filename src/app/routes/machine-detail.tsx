@@ -10,6 +10,8 @@ import { useMachines } from '../../features/machines/api/get-machines';
 import { useUpdateMachine } from '../../features/machines/api/update-machine';
 import { MetersTable } from '../../features/meters/components/meters-table';
 import { MeterForm } from '../../features/meters/components/meter-form';
+import { ToolsTable } from '../../features/punch-tools/components/tools-table';
+import { ToolForm } from '../../features/punch-tools/components/tool-form';
 import { useMe } from '../../features/auth/api/get-me';
 import { queryClient } from '../../lib/query-client';
 import { can } from '../../../shared/permissions';
@@ -33,6 +35,9 @@ export function Component() {
   const m = q.data;
   const manage = can(me.role, 'machines.manage');
   const station = STATION_KINDS.has(m.kind) || m.components.some((c) => c.kind === 'torch');
+  const punching = m.kind === 'punch-head' || m.components.some((c) => c.kind === 'punch-head');
+  const hitMeters = m.meters.filter((x) => x.kind === 'count' && x.unit === 'hits');
+  const heads = [m, ...m.components].filter((c) => c.kind === 'punch-head');
   return (
     <>
       <nav aria-label="Breadcrumb" className="text-sm">
@@ -70,6 +75,17 @@ export function Component() {
           </details>
         ) : null}
       </Panel>
+      {punching ? (
+        <Panel title="Punch tools">
+          <ToolsTable machineId={m.id} canManage={can(me.role, 'tools.manage')} />
+          {can(me.role, 'tools.manage') && heads[0] ? (
+            <details className="mt-4">
+              <summary className="inline-flex min-h-touch cursor-pointer items-center font-semibold underline">Add a punch tool</summary>
+              <div className="mt-3"><ToolForm machineId={heads[0].id} hitMeters={hitMeters} /></div>
+            </details>
+          ) : null}
+        </Panel>
+      ) : null}
       <Panel title="Meters">
         <MetersTable meters={m.meters} />
         {can(me.role, 'meters.manage') ? (

@@ -3,6 +3,7 @@ import { Notice, Panel } from '../../components/ui/notice';
 import { getStationQueryOptions, useStation } from '../../features/station/api/get-station';
 import { TorchPanel } from '../../features/station/components/torch-panel';
 import { RecentChanges } from '../../features/station/components/recent-changes';
+import { ToolsSummary } from '../../features/station/components/tools-summary';
 import { MetersTable } from '../../features/meters/components/meters-table';
 import { useMe } from '../../features/auth/api/get-me';
 import { queryClient } from '../../lib/query-client';
@@ -38,6 +39,11 @@ export function Component() {
       {s.torches.map((t) => (
         <TorchPanel key={t.id} torch={t} parts={s.partOptions} pitLimit={s.reference.pitLimitMm} canLog={can(me.role, 'consumables.log')} />
       ))}
+      {s.tools.length ? (
+        <Panel title="Punch tools">
+          <ToolsSummary tools={s.tools} />
+        </Panel>
+      ) : null}
       <Panel title="Latest counters">
         <MetersTable meters={s.meters} />
       </Panel>
