@@ -121,6 +121,8 @@ const EXPECTED: Record<string, Role[] | 'public'> = {
   'GET /consumable-changes/:id/photo': ALL,
   'GET /consumable-settings': ALL,
   'GET /consumable-life': ALL,
+  'POST /cut-checks': ['operator', 'technician', 'admin'],
+  'GET /cut-checks': ALL,
   'PATCH /consumable-settings': ['admin'],
   'GET /punch-tools': ALL,
   'POST /punch-tools': ['technician', 'admin'],

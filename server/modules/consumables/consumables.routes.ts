@@ -7,7 +7,8 @@ import { requirePrincipal } from '../../http/principal';
 import { AppError, badRequest } from '../../http/errors';
 import { paging, uuidParam } from '../../../shared/schemas/common';
 import { machineCodeParam } from '../../../shared/schemas/machines';
-import { PHOTO_MAX_BYTES, consumableChangeSchema, consumableSettingsSchema, lifeStatsQuery } from '../../../shared/schemas/consumables';
+import { PHOTO_MAX_BYTES, consumableChangeSchema, consumableSettingsSchema, cutCheckSchema, lifeStatsQuery } from '../../../shared/schemas/consumables';
+import { listCutChecks, recordCutCheck } from './cut-checks.service';
 import { lifeStats } from './life-stats.service';
 import { Machine } from '../machines/machine.entity';
 import { subtreeIds } from '../machines/machines.service';
@@ -63,6 +64,16 @@ export function registerConsumableRoutes(r: ApiRouter) {
   });
   route(r, 'get', '/consumable-life', { access: 'machines.read', query: lifeStatsQuery }, async (req, res) => {
     res.json(await lifeStats(requestEm(), requirePrincipal(req), res.locals.query.partTypeId, res.locals.query.machineId));
+  });
+  route(r, 'post', '/cut-checks', { access: 'cutchecks.record', body: cutCheckSchema }, async (req, res) => {
+    res.status(201).json(await recordCutCheck(requestEm(), requirePrincipal(req), res.locals.body));
+  });
+  route(r, 'get', '/cut-checks', { access: 'machines.read', query: changesQuery }, async (_req, res) => {
+    const em = requestEm();
+    const q = res.locals.query as z.output<typeof changesQuery>;
+    const all = q.machineId ? await em.find(Machine, {}) : [];
+    const ids = q.machineId ? new Set(subtreeIds(all, q.machineId)) : null;
+    res.json(await listCutChecks(em, { torchIds: ids ? all.filter((m) => ids.has(m.id)).map((m) => m.id) : undefined, page: q.page, pageSize: q.pageSize }));
   });
   route(r, 'get', '/consumable-settings', { access: 'machines.read' }, async (req, res) => {
     res.json(await getConsumableSettings(requestEm(), requirePrincipal(req)));

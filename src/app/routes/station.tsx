@@ -4,6 +4,8 @@ import { getStationQueryOptions, useStation } from '../../features/station/api/g
 import { TorchPanel } from '../../features/station/components/torch-panel';
 import { RecentChanges } from '../../features/station/components/recent-changes';
 import { ToolsSummary } from '../../features/station/components/tools-summary';
+import { CutCheckForm } from '../../features/cut-checks/components/cut-check-form';
+import { CutChecksTable } from '../../features/cut-checks/components/cut-checks-table';
 import { MetersTable } from '../../features/meters/components/meters-table';
 import { useMe } from '../../features/auth/api/get-me';
 import { queryClient } from '../../lib/query-client';
@@ -39,6 +41,21 @@ export function Component() {
       {s.torches.map((t) => (
         <TorchPanel key={t.id} torch={t} parts={s.partOptions} pitLimit={s.reference.pitLimitMm} canLog={can(me.role, 'consumables.log')} />
       ))}
+      {s.torches.length ? (
+        <Panel title="Cut quality">
+          <div className="space-y-4">
+            {can(me.role, 'cutchecks.record') ? (
+              <details className="rounded border border-steel-300 p-3">
+                <summary className="flex min-h-touch cursor-pointer items-center font-bold">Record a test coupon</summary>
+                <div className="mt-3">
+                  <CutCheckForm torches={s.torches.map((t) => ({ id: t.id, code: t.code }))} tolerance={s.reference.cutToleranceMm} />
+                </div>
+              </details>
+            ) : null}
+            <CutChecksTable machineId={s.machine.id} />
+          </div>
+        </Panel>
+      ) : null}
       {s.tools.length ? (
         <Panel title="Punch tools">
           <ToolsSummary tools={s.tools} />
