@@ -1,0 +1,44 @@
+import { describe, it, expect } from 'vitest';
+import { advanceSince, readingOrderProblem, thinSeries } from '../../shared/domain/meters';
+
+// House rules of Kerfbook (no published source): counts and running time only rise except at a reset.
+const at = (d: number) => new Date(Date.UTC(2026, 0, d));
+const r = (d: number, value: number, isReset = false) => ({ at: at(d), value, isReset });
+
+describe('readingOrderProblem', () => {
+  it('accepts a rising or equal count and refuses a falling one unless it is a reset', () => {
+    expect(readingOrderProblem('count', r(1, 100), r(2, 100), 'starts')).toBeNull();
+    expect(readingOrderProblem('count', r(1, 100), r(2, 150), 'starts')).toBeNull();
+    expect(readingOrderProblem('count', r(1, 100), r(2, 99), 'starts')).toBe('99 starts is lower than the reading before it (100 starts on 2026-01-01 00:00 UTC); record it as a reset if the counter started again from zero');
+    expect(readingOrderProblem('count', r(1, 100), r(2, 3, true), 'starts')).toBeNull();
+    expect(readingOrderProblem('running-time', null, r(2, 5), 'h')).toBeNull();
+  });
+
+  it('refuses negative counts and hours even as a reset, but lets condition readings fall and go negative', () => {
+    expect(readingOrderProblem('running-time', null, r(2, -1, true), 'h')).toBe('A running time cannot be negative (-1 h)');
+    expect(readingOrderProblem('condition', r(1, 900), r(2, 600), 'Pa')).toBeNull();
+    expect(readingOrderProblem('condition', r(1, 5), r(2, -12), '°C')).toBeNull();
+    expect(readingOrderProblem('count', null, r(1, Number.NaN), 'hits')).toBe('The reading is not a number');
+  });
+});
+
+describe('advanceSince', () => {
+  it('sums the rises from the start value', () => {
+    expect(advanceSince(1000, [r(2, 1200), r(3, 1500)])).toBe(500);
+  });
+  it('counts a reset reading from zero: 1000→1400, reset at 50, →300 is 400 + 50 + 250', () => {
+    expect(advanceSince(1000, [r(2, 1400), r(3, 50, true), r(4, 300)])).toBe(700);
+  });
+  it('is zero without readings', () => {
+    expect(advanceSince(10, [])).toBe(0);
+  });
+});
+
+describe('thinSeries', () => {
+  it('keeps short series whole and thins long ones to the limit, first and last kept', () => {
+    expect(thinSeries([1, 2, 3], 5)).toEqual([1, 2, 3]);
+    const long = Array.from({ length: 1001 }, (_, i) => i);
+    const thin = thinSeries(long, 11);
+    expect(thin).toEqual([0, 100, 200, 300, 400, 500, 600, 700, 800, 900, 1000]);
+  });
+});
