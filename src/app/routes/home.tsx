@@ -7,6 +7,7 @@ import { WorkCaution } from '../../components/ui/caution';
 import { can } from '../../../shared/permissions';
 import { paths } from '../../config/paths';
 import { LowStockPanel } from '../../features/stock/components/low-stock-panel';
+import { StationPicker } from '../../features/station/components/station-picker';
 
 export function Component() {
   const { data: me } = useMe();
@@ -19,6 +20,7 @@ export function Component() {
         </Panel>
       ) : null}
       {can(me.role, 'stock.manage') ? <LowStockPanel /> : null}
+      {can(me.role, 'consumables.log') ? <StationPicker /> : null}
       {can(me.role, 'users.manage') ? (
         <Panel title="People" actions={<Link className="font-semibold text-mandatory underline" to={paths.users.getHref()}>Manage people</Link>}>
           <p className="text-steel-700">Invite operators, technicians and the safety officer; change roles; remove access for people who left.</p>
