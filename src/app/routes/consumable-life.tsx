@@ -4,12 +4,16 @@ import { Panel } from '../../components/ui/notice';
 import { usePartTypes } from '../../features/stock/api/get-part-types';
 import { useMachines } from '../../features/machines/api/get-machines';
 import { LifeView } from '../../features/consumable-life/components/life-view';
+import { ReferenceValues } from '../../features/consumable-life/components/reference-values';
+import { useMe } from '../../features/auth/api/get-me';
+import { can } from '../../../shared/permissions';
 import { TORCH_CATEGORIES, PART_CATEGORY_LABELS } from '../../../shared/schemas/stock';
 
 const select = 'block min-h-touch w-full rounded border border-steel-400 bg-white px-3';
 
 export function Component() {
   const [params, setParams] = useSearchParams();
+  const { data: me } = useMe();
   const parts = usePartTypes({});
   const machines = useMachines({});
   const torchParts = (parts.data ?? []).filter((p) => (TORCH_CATEGORIES as readonly string[]).includes(p.category) && p.lifeUnit);
@@ -46,6 +50,9 @@ export function Component() {
         </div>
       </Panel>
       {partTypeId ? <LifeView filters={{ partTypeId, machineId: machineId || undefined }} /> : null}
+      <Panel title="Reference values">
+        <ReferenceValues canEdit={!!me && can(me.role, 'org.settings.manage')} />
+      </Panel>
     </>
   );
 }
