@@ -1,5 +1,31 @@
+import { Link, useSearchParams } from 'react-router-dom';
 import { PageTitle } from '../../components/layout/app-shell';
+import { useMe } from '../../features/auth/api/get-me';
+import { PpeStation } from '../../features/safety/components/ppe-station';
+import { queryClient } from '../../lib/query-client';
+import { getPpeRequirementsQueryOptions } from '../../features/safety/api/get-ppe-requirements';
+import { paths } from '../../config/paths';
+import { can } from '../../../shared/permissions';
+import { Notice } from '../../components/ui/notice';
+
+export const loader = () => queryClient.ensureQueryData(getPpeRequirementsQueryOptions()).catch(() => null);
 
 export function Component() {
-  return <PageTitle title="Safety" subtitle="This page is being built." />;
+  const { data: me } = useMe();
+  const [params] = useSearchParams();
+  if (!me) return null;
+  return (
+    <>
+      <PageTitle
+        title="PPE check"
+        subtitle="Before your shift at the machine: tap each item when it is on, then sign."
+        actions={can(me.role, 'safety.ppe.manage') ? <Link className="font-semibold underline" to={paths.safetyPpeRequirements.getHref()}>Set PPE requirements</Link> : null}
+      />
+      {can(me.role, 'safety.ppe.sign') ? (
+        <PpeStation me={{ name: me.user.name, role: me.role }} timeZone={me.organization.timeZone} initialMachineId={params.get('machineId') ?? undefined} />
+      ) : (
+        <Notice tone="info">PPE checks are signed by the people who work at the machines.</Notice>
+      )}
+    </>
+  );
 }
