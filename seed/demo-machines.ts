@@ -350,17 +350,15 @@ export const seedMachines: SeedStep = async (em, shop) => {
     tools.push({ ...row(org, created, {}), id: toolId, machine: s.head, hitsMeter: s.meter, code: s.code, name: s.name, stationSize: s.size, sharpeningIntervalHits: Math.round(s.every / share / 1000) * 1000, hitsAtLastSharpening: base, lastSharpenedAt: lastAt, active: true });
   }
 
-  // Parts arrive when stock runs low (orders placed at the reorder level), except shields of
-  // the 130 A torches in the last weeks, so the demo has something to reorder.
+  // Parts arrive when stock runs low (orders placed at the reorder level).
   const used = moves.filter((mv) => mv.kind === 'used').sort((a, b) => (a.createdAt as Date).getTime() - (b.createdAt as Date).getTime());
   const receipts: Row[] = [];
   const level = new Map([...onHand.keys()].map((k) => [k, moves.filter((mv) => mv.partType === k && mv.kind === 'adjusted').reduce((s, mv) => s + (mv.quantity as number), 0)]));
   for (const u of used) {
     const id = u.partType as string;
     const at = u.createdAt as Date;
-    const isShield = id === big.shield;
     const left = level.get(id)! + (u.quantity as number);
-    if (left < (parts.find((p) => p.id === id)!.stockUnit === 'L' ? 40 : 8) && !(isShield && at.getTime() > today - 75 * DAY && left >= 1)) {
+    if (left < (parts.find((p) => p.id === id)!.stockUnit === 'L' ? 40 : 8)) {
       const qty = parts.find((p) => p.id === id)!.stockUnit === 'L' ? 200 : 25;
       receipts.push({ partType: id, at: new Date(at.getTime() - HOUR), qty });
       level.set(id, left + qty);
@@ -377,6 +375,9 @@ export const seedMachines: SeedStep = async (em, shop) => {
     if (e.mv) move(e.mv.partType as string, e.at, 'used', e.mv.quantity as number, e.mv.reason as string, e.mv.by as string, e.mv.refType ? { type: e.mv.refType as string, id: e.mv.refId as string } : undefined);
     else if ('r' in e && e.r) move(e.r.partType as string, e.at, 'received', e.r.qty as number, `Order ${order++}`, tech);
   }
+  // Yesterday's stocktake found only three 130 A shields: the demo has something to reorder.
+  const lastMove = Math.max(...moves.map((mv) => (mv.createdAt as Date).getTime()));
+  move(big.shield, new Date(Math.min(now.getTime() - HOUR, lastMove + 60_000)), 'adjusted', 3 - onHand.get(big.shield)!, 'Stocktake: three on the shelf', tech);
   for (const p of parts) p.onHand = onHand.get(p.id as string);
 
   await insertAll(em, MeterReading, readings);
