@@ -43,7 +43,7 @@ export function ToolsTable({ machineId, canManage }: { machineId?: string; canMa
     col.accessor('lastSharpenedAt', { header: 'Last sharpened', cell: (c) => (c.getValue() ? when.format(new Date(c.getValue()!)) : 'not yet') }),
     col.accessor('sharpenings', { header: 'Sharpenings' }),
     ...(canManage
-      ? [col.display({ id: 'act', header: 'Record', cell: (c) => <Button variant="secondary" onClick={() => (setRemoved(''), setPending(c.row.original))} aria-label={`Record a sharpening of ${c.row.original.code}`}>Sharpened</Button> })]
+      ? [col.display({ id: 'act', header: 'Record', cell: (c) => <Button variant="secondary" onClick={() => (setRemoved(''), setPending(c.row.original))} aria-label={`Sharpened ${c.row.original.code}`}>Sharpened</Button> })]
       : []),
   ];
   if (q.isError) return <Notice tone="danger">{q.error.message}</Notice>;

@@ -31,7 +31,7 @@ export function PartsTable({ rows, loading, selectedId, onSelect, toolbar }: { r
       id: 'select',
       header: 'Moves',
       cell: (c) => (
-        <Button variant={selectedId === c.row.original.id ? 'primary' : 'secondary'} onClick={() => onSelect(c.row.original.id)} aria-pressed={selectedId === c.row.original.id} aria-label={`Stock moves of ${c.row.original.partNumber}`}>
+        <Button variant={selectedId === c.row.original.id ? 'primary' : 'secondary'} onClick={() => onSelect(c.row.original.id)} aria-pressed={selectedId === c.row.original.id} aria-label={`Moves of ${c.row.original.partNumber}`}>
           Moves
         </Button>
       ),
