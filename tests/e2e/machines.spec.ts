@@ -39,7 +39,7 @@ test('technician walks machines, meters, stock and consumable life', async ({ pa
   await page.getByRole('link', { name: 'Stock', exact: true }).click();
   await expect(page.getByRole('table', { name: 'Part catalogue' })).toContainText('TX-2201');
   await page.getByRole('button', { name: 'Moves of TX-2201' }).click();
-  await expect(page.getByRole('table', { name: 'Stock moves' })).toContainText('consumable change');
+  await expect(page.getByRole('table', { name: 'Stock moves' })).toContainText('Consumable change on C1-T');
   await expectAccessible(page, 'stock');
   await snap(page, 'stock');
 
