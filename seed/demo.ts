@@ -3,6 +3,7 @@ import { Organization } from '../server/modules/organizations/organization.entit
 import { createMember, createShop } from './factories';
 import { seedMachines } from './demo-machines';
 import { seedSafetyDemo } from './demo-safety';
+import { seedPlansDemo } from './demo-plans';
 
 /** The invented demo shops. Every name here is made up; e-mail domains are `.example`. */
 export const DEMO_USERS = [
@@ -17,6 +18,8 @@ export type SeedStep = (em: EntityManager, shop: { id: string; timeZone: string 
 export const demoSteps: SeedStep[] = [];
 // Machines, meters and consumable history first: later steps attach to these machines.
 demoSteps.push(seedMachines);
+// Plans and their work history: after the machines, found by code.
+demoSteps.push(seedPlansDemo);
 
 export async function seedDemo(em: EntityManager): Promise<boolean> {
   if (await em.findOne(Organization, { slug: 'alder-row' }, { filters: false })) return false;

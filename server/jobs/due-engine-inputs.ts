@@ -55,15 +55,19 @@ export function inputsOf(row: Pick<EnginePlanRow, 'triggers' | 'machine_id'>): {
   return { meters: [...meters], oil: [...oil] };
 }
 
-/** Newest reading time of every meter and newest sample of every machine with oil results (all shops). */
-export async function loadLatestInputTimes(em: EntityManager): Promise<Map<string, number>> {
+/**
+ * Newest reading time of every meter and newest sample of every machine with oil results (all shops),
+ * as of `now`: readings dated later (a clock set wrong, a replayed history) are not seen yet.
+ */
+export async function loadLatestInputTimes(em: EntityManager, now: Date): Promise<Map<string, number>> {
   const out = new Map<string, number>();
   const meters: { id: string; at: Date }[] = await em.execute(
     `select m.id, r.read_at as at from meter m
-       cross join lateral (select read_at from meter_reading r where r.meter_id = m.id order by read_at desc limit 1) r`,
+       cross join lateral (select read_at from meter_reading r where r.meter_id = m.id and r.read_at <= ? order by read_at desc limit 1) r`,
+    [now],
   );
   for (const m of meters) out.set(m.id, new Date(m.at).getTime());
-  const oil: { machine_id: string; at: Date }[] = await em.execute(`select machine_id, max(sampled_at) as at from oil_analysis group by machine_id`);
+  const oil: { machine_id: string; at: Date }[] = await em.execute(`select machine_id, max(sampled_at) as at from oil_analysis where sampled_at <= ? group by machine_id`, [now]);
   for (const o of oil) out.set(oilMeterId(o.machine_id), new Date(o.at).getTime());
   return out;
 }
@@ -87,15 +91,16 @@ export function needsEvaluation(row: EnginePlanRow, nowMs: number, latest: Map<s
   return row.inputs_at === null || newest > new Date(row.inputs_at).getTime();
 }
 
-/** Recent readings of the given meters, newest RECENT_READINGS each, split at the latest reset. */
-export async function loadMeterSeries(em: EntityManager, meterIds: string[]): Promise<Map<string, MeterSeries>> {
+/** Recent readings (as of `now`) of the given meters, newest RECENT_READINGS each, split at the latest reset. */
+export async function loadMeterSeries(em: EntityManager, meterIds: string[], now: Date): Promise<Map<string, MeterSeries>> {
   const out = new Map<string, MeterSeries>();
   if (meterIds.length === 0) return out;
   const rows: { meter_id: string; value: number; read_at: Date; is_reset: boolean }[] = await em.execute(
     `select m.id as meter_id, x.value, x.read_at, x.is_reset
        from unnest(?::uuid[]) as m(id)
-       cross join lateral (select value, read_at, is_reset from meter_reading r where r.meter_id = m.id order by read_at desc, created_at desc limit ${RECENT_READINGS}) x`,
-    [uuidArray(meterIds)],
+       cross join lateral (select value, read_at, is_reset from meter_reading r where r.meter_id = m.id and r.read_at <= ?
+                           order by read_at desc, created_at desc limit ${RECENT_READINGS}) x`,
+    [uuidArray(meterIds), now],
   );
   const grouped = new Map<string, { value: number; at: Date; isReset: boolean }[]>();
   for (const r of rows) {
@@ -119,15 +124,16 @@ export async function loadMeterSeries(em: EntityManager, meterIds: string[]): Pr
   return out;
 }
 
-/** Recent oil results of machines as 0/1 series (1 = outside the unit's targets). */
-export async function loadOilSeries(em: EntityManager, machineIds: string[]): Promise<Map<string, MeterSeries>> {
+/** Recent oil results (as of `now`) of machines as 0/1 series (1 = outside the unit's targets). */
+export async function loadOilSeries(em: EntityManager, machineIds: string[], now: Date): Promise<Map<string, MeterSeries>> {
   const out = new Map<string, MeterSeries>();
   if (machineIds.length === 0) return out;
   const rows: { machine_id: string; sampled_at: Date; out_of_limits: boolean }[] = await em.execute(
     `select m.id as machine_id, x.sampled_at, x.out_of_limits
        from unnest(?::uuid[]) as m(id)
-       cross join lateral (select sampled_at, out_of_limits from oil_analysis o where o.machine_id = m.id order by sampled_at desc limit ${RECENT_READINGS}) x`,
-    [uuidArray(machineIds)],
+       cross join lateral (select sampled_at, out_of_limits from oil_analysis o where o.machine_id = m.id and o.sampled_at <= ?
+                           order by sampled_at desc limit ${RECENT_READINGS}) x`,
+    [uuidArray(machineIds), now],
   );
   for (const id of machineIds) out.set(oilMeterId(id), { readings: [], reset: null });
   for (const r of rows) out.get(oilMeterId(r.machine_id))!.readings.push({ at: new Date(r.sampled_at), value: r.out_of_limits ? 1 : 0 });

@@ -63,8 +63,10 @@ export type EngineOptions = {
   orgId?: string;
   /** Only these plans, evaluated whatever their recheck time. */
   planIds?: string[];
-  /** Escalate past-due work and send daily summaries (full passes only). Default true. */
+  /** Escalate past-due work (full passes). Default true. */
   escalate?: boolean;
+  /** Mail notices for raised work. Default true; the demo seed's history replay turns it off. */
+  notify?: boolean;
 };
 
 class Run {
@@ -73,6 +75,7 @@ class Run {
   constructor(
     readonly orgs: Map<string, Org>,
     readonly appUrl: string,
+    readonly notify = true,
   ) {}
   of(orgId: string): OrgStats {
     let s = this.stats.get(orgId);
@@ -264,7 +267,7 @@ async function raiseWork(orm: MikroORM, run: Run, orgId: string, items: Evaluate
           responsibleRole: r.responsible_role,
           reason: r.reason,
         }));
-        const mails = queueRaisedNotices(tx, run.ctx(orgId), lines, await run.peopleOf(tx, orgId));
+        const mails = run.notify ? queueRaisedNotices(tx, run.ctx(orgId), lines, await run.peopleOf(tx, orgId)) : 0;
         const s = run.of(orgId);
         s.workOrdersRaised += raised.length;
         s.mailsQueued += mails;
@@ -351,10 +354,10 @@ async function escalate(orm: MikroORM, run: Run, now: Date, orgId?: string) {
 export async function runDueEngine(orm: MikroORM, now: Date, opts: EngineOptions = {}): Promise<Map<string, OrgStats>> {
   const em = orm.em.fork();
   const orgRows: Org[] = await em.execute(`select id, name, time_zone from organization ${opts.orgId ? 'where id = ?' : ''}`, opts.orgId ? [opts.orgId] : []);
-  const run = new Run(new Map(orgRows.map((o) => [o.id, o])), loadConfig().APP_URL);
+  const run = new Run(new Map(orgRows.map((o) => [o.id, o])), loadConfig().APP_URL, opts.notify !== false);
   for (const o of orgRows) run.of(o.id);
   const nowMs = now.getTime();
-  const latest = await loadLatestInputTimes(em);
+  const latest = await loadLatestInputTimes(em, now);
   const series = new Map<string, MeterSeries>();
 
   let lastId = '00000000-0000-0000-0000-000000000000';
@@ -382,8 +385,8 @@ export async function runDueEngine(orm: MikroORM, now: Date, opts: EngineOptions
         for (const m of ins.meters) if (!series.has(m)) needMeters.add(m);
         for (const o of ins.oil) if (!series.has(oilMeterId(o))) needOil.add(o);
       }
-      for (const [k, v] of await loadMeterSeries(em, [...needMeters])) series.set(k, v);
-      for (const [k, v] of await loadOilSeries(em, [...needOil])) series.set(k, v);
+      for (const [k, v] of await loadMeterSeries(em, [...needMeters], now)) series.set(k, v);
+      for (const [k, v] of await loadOilSeries(em, [...needOil], now)) series.set(k, v);
 
       const evaluated: Evaluated[] = [];
       for (const row of todo) {

@@ -5,6 +5,8 @@ import { paths } from '../config/paths';
 /** Menu entries and who sees them; the same permission table the server enforces. */
 const items: (NavItem & { permission?: Permission })[] = [
   { to: paths.home.getHref(), label: 'Today', end: true },
+  { to: paths.workOrders.getHref(), label: 'Work orders', permission: 'work-orders.read' },
+  { to: paths.plans.getHref(), label: 'Plans', permission: 'plans.read' },
   { to: paths.machines.getHref(), label: 'Machines', permission: 'machines.read' },
   { to: paths.counterImport.getHref(), label: 'Counter import', permission: 'readings.import' },
   { to: paths.stock.getHref(), label: 'Stock', permission: 'stock.read' },
@@ -14,6 +16,9 @@ const items: (NavItem & { permission?: Permission })[] = [
   { to: paths.consumableLife.getHref(), label: 'Consumable life', permission: 'machines.read' },
   { to: paths.users.getHref(), label: 'People', permission: 'users.read' },
   { to: paths.audit.getHref(), label: 'Activity', permission: 'audit.read' },
+  { to: paths.oilAnalysis.getHref(), label: 'Oil analysis', permission: 'oil.read' },
+  { to: paths.jobRuns.getHref(), label: 'Pass log', permission: 'jobs.run' },
+  { to: paths.myNotices.getHref(), label: 'My notices' },
   { to: paths.devInbox.getHref(), label: 'Dev inbox', permission: 'mail.inbox.own' },
 ];
 

@@ -33,4 +33,13 @@ export const paths = {
   station: { path: '/station/:code', getHref: (code: string) => `/station/${encodeURIComponent(code)}` },
   stationLabel: { path: '/station/:code/label', getHref: (code: string) => `/station/${encodeURIComponent(code)}/label` },
   consumableLife: { path: '/consumable-life', getHref: () => '/consumable-life' },
+  workOrders: { path: '/work-orders', getHref: (q?: Record<string, string>) => `/work-orders${q ? `?${new URLSearchParams(q).toString()}` : ''}` },
+  workOrder: { path: '/work-orders/:id', getHref: (id: string) => `/work-orders/${id}` },
+  plans: { path: '/plans', getHref: () => '/plans' },
+  planNew: { path: '/plans/new', getHref: () => '/plans/new' },
+  plan: { path: '/plans/:id', getHref: (id: string) => `/plans/${id}` },
+  planEdit: { path: '/plans/:id/edit', getHref: (id: string) => `/plans/${id}/edit` },
+  oilAnalysis: { path: '/oil-analysis', getHref: () => '/oil-analysis' },
+  jobRuns: { path: '/admin/job-runs', getHref: () => '/admin/job-runs' },
+  myNotices: { path: '/my-notices', getHref: () => '/my-notices' },
 } as const;

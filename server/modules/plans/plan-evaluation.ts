@@ -25,8 +25,8 @@ export async function refreshPlanStatus(em: EntityManager, plan: IMaintenancePla
     inputs_at: null,
   };
   const ins = inputsOf(row);
-  const series = await loadMeterSeries(em, ins.meters);
-  for (const [k, v] of await loadOilSeries(em, ins.oil)) series.set(k, v);
+  const series = await loadMeterSeries(em, ins.meters, now);
+  for (const [k, v] of await loadOilSeries(em, ins.oil, now)) series.set(k, v);
   const added = missingBaselines(row, series);
   if (added) {
     plan.meterBaselines = { ...plan.meterBaselines, ...added };

@@ -368,15 +368,18 @@ function pickMeter(meters: MeterInfo[], want: StarterMeter, condition: boolean):
   return byUnit.length === 1 ? byUnit[0] : null;
 }
 
-/** Turns starters into plans on one machine, in one transaction; explains every starter it skips. */
-export async function applyStarters(em: EntityManager, who: Principal, input: ApplyStartersInput): Promise<ApplyStartersResult> {
+/**
+ * Turns starters into plans on one machine, in one transaction; explains every starter it skips.
+ * Fixed calendars start today (site time) unless `startDate` (YYYY-MM-DD) says otherwise.
+ */
+export async function applyStarters(em: EntityManager, who: Principal, input: ApplyStartersInput, opts: { startDate?: string } = {}): Promise<ApplyStartersResult> {
   return em.transactional(async (tx) => {
     const machine = await findMachine(tx, input.machineId);
     const tz = await shopTimeZone(tx, who);
     const meters = await metersOf(tx, await relatedMachineIds(tx, machine));
     const existing = await tx.find(MaintenancePlan, { machine: machine.id, active: true, starterKey: { $ne: null } }, { fields: ['starterKey'] });
     const have = new Set(existing.map((p) => p.starterKey));
-    const today = DateTime.now().setZone(tz).toISODate();
+    const today = opts.startDate ?? DateTime.now().setZone(tz).toISODate();
     const result: ApplyStartersResult = { created: [], skipped: [] };
     for (const key of [...new Set(input.starterKeys)]) {
       const s = findStarter(key);

@@ -8,12 +8,14 @@ import { can } from '../../../shared/permissions';
 import { paths } from '../../config/paths';
 import { LowStockPanel } from '../../features/stock/components/low-stock-panel';
 import { StationPicker } from '../../features/station/components/station-picker';
+import { MyWorkPanel } from '../../features/work-orders/components/my-work-panel';
 
 export function Component() {
   const { data: me } = useMe();
   if (!me) return null;
   return (
     <RoleHome role={me.role} name={me.user.name}>
+      <MyWorkPanel timeZone={me.organization.timeZone} scope={me.role === 'admin' ? 'shop' : 'mine'} />
       {me.role === 'operator' || me.role === 'technician' ? (
         <Panel title="Before you work on a machine">
           <WorkCaution />

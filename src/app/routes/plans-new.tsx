@@ -1,0 +1,32 @@
+import { Link, useNavigate } from 'react-router-dom';
+import { PageTitle } from '../../components/layout/app-shell';
+import { Panel } from '../../components/ui/notice';
+import { PlanForm } from '../../features/plans/components/plan-form';
+import { getPlanLookupsQueryOptions, usePlanLookups } from '../../features/plans/api/get-plan-lookups';
+import { useCreatePlan } from '../../features/plans/api/create-plan';
+import { queryClient } from '../../lib/query-client';
+
+export const loader = () => queryClient.ensureQueryData(getPlanLookupsQueryOptions()).catch(() => null);
+
+export function Component() {
+  const lookups = usePlanLookups();
+  const create = useCreatePlan();
+  const navigate = useNavigate();
+  if (!lookups.data) return <p role="status">Loading…</p>;
+  return (
+    <>
+      <nav aria-label="Breadcrumb" className="text-sm"><Link className="underline" to="/plans">Plans</Link> › New plan</nav>
+      <PageTitle title="Write a maintenance plan" />
+      <Panel>
+        <PlanForm
+          lookups={lookups.data}
+          submitLabel="Save plan"
+          onSubmit={async (v) => {
+            const r = await create.mutateAsync(v);
+            navigate(`/plans/${r.id}`);
+          }}
+        />
+      </Panel>
+    </>
+  );
+}

@@ -1,0 +1,35 @@
+import { Link } from 'react-router-dom';
+import { PageTitle } from '../../components/layout/app-shell';
+import { Panel } from '../../components/ui/notice';
+import { useMe } from '../../features/auth/api/get-me';
+import { PlansTable } from '../../features/plans/components/plans-table';
+import { StartersPanel } from '../../features/plans/components/starters-panel';
+import { getPlanLookupsQueryOptions, usePlanLookups } from '../../features/plans/api/get-plan-lookups';
+import { queryClient } from '../../lib/query-client';
+import { can } from '../../../shared/permissions';
+
+export const loader = () => queryClient.ensureQueryData(getPlanLookupsQueryOptions()).catch(() => null);
+
+export function Component() {
+  const { data: me } = useMe();
+  const lookups = usePlanLookups();
+  if (!me) return null;
+  const manage = can(me.role, 'plans.manage');
+  return (
+    <>
+      <PageTitle
+        title="Maintenance plans"
+        subtitle="Recurring work per machine: by calendar, by meter, by condition — whichever comes first."
+        actions={manage ? <Link className="inline-flex min-h-touch items-center rounded bg-steel-800 px-4 font-semibold text-white" to="/plans/new">Write a plan</Link> : null}
+      />
+      <Panel>
+        <PlansTable timeZone={me.organization.timeZone} />
+      </Panel>
+      {manage && lookups.data ? (
+        <Panel title="Starter plans">
+          <StartersPanel lookups={lookups.data} />
+        </Panel>
+      ) : null}
+    </>
+  );
+}

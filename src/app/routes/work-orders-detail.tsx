@@ -1,0 +1,71 @@
+import { Link, useParams, type LoaderFunctionArgs } from 'react-router-dom';
+import { PageTitle } from '../../components/layout/app-shell';
+import { Notice, Panel } from '../../components/ui/notice';
+import { useMe } from '../../features/auth/api/get-me';
+import { getWorkOrderQueryOptions, useWorkOrder } from '../../features/work-orders/api/get-work-order';
+import { WorkOrderSummary } from '../../features/work-orders/components/work-order-summary';
+import { WorkMoves } from '../../features/work-orders/components/work-moves';
+import { ChecklistForm } from '../../features/work-orders/components/checklist-form';
+import { PartsUsed } from '../../features/work-orders/components/parts-used';
+import { WorkLogForm } from '../../features/work-orders/components/work-log-form';
+import { CloseWork } from '../../features/work-orders/components/close-work';
+import { Attachments } from '../../features/work-orders/components/attachments';
+import { WorkHistory } from '../../features/work-orders/components/work-history';
+import { queryClient } from '../../lib/query-client';
+import { can } from '../../../shared/permissions';
+
+export const loader = ({ params }: LoaderFunctionArgs) => queryClient.ensureQueryData(getWorkOrderQueryOptions(params.id!)).catch(() => null);
+
+export function Component() {
+  const { id } = useParams();
+  const { data: me } = useMe();
+  const q = useWorkOrder(id!);
+  if (!me) return null;
+  if (q.isError) return <Notice tone="danger" role="alert">{q.error.message}</Notice>;
+  if (!q.data) return <p role="status">Loading…</p>;
+  const wo = q.data;
+  const tz = me.organization.timeZone;
+  const worker = can(me.role, 'work-orders.work');
+  const open = wo.status !== 'done' && wo.status !== 'cancelled';
+  const readOnly = !worker || !open;
+  return (
+    <>
+      <nav aria-label="Breadcrumb" className="text-sm">
+        <Link className="underline" to="/work-orders">Work orders</Link> › WO {wo.number}
+      </nav>
+      <PageTitle
+        title={`WO ${wo.number} · ${wo.title}`}
+        subtitle={`${wo.machine.code} ${wo.machine.name}`}
+        actions={
+          <div className="flex flex-wrap gap-2">
+            {worker && open ? <WorkMoves wo={wo} /> : null}
+            <a className="inline-flex min-h-touch items-center rounded border border-steel-400 bg-white px-4 font-semibold" href={`/api/work-orders/${wo.id}/pdf`} target="_blank" rel="noreferrer">Print sheet (PDF)</a>
+          </div>
+        }
+      />
+      <WorkOrderSummary wo={wo} timeZone={tz} />
+      <Panel title="Checklist">
+        <ChecklistForm workOrderId={wo.id} lines={wo.checklist} readOnly={readOnly} />
+      </Panel>
+      <div className="grid gap-4 lg:grid-cols-2">
+        <Panel title="Parts, oil and grease">
+          <PartsUsed wo={wo} timeZone={tz} readOnly={readOnly} />
+        </Panel>
+        <Panel title="Time and notes">
+          <WorkLogForm wo={wo} readOnly={readOnly} />
+        </Panel>
+      </div>
+      <Panel title="Photos and files">
+        <Attachments wo={wo} timeZone={tz} canUpload={worker} />
+      </Panel>
+      {worker && open ? (
+        <Panel title="Sign off">
+          <CloseWork wo={wo} timeZone={tz} />
+        </Panel>
+      ) : null}
+      <Panel title="History">
+        <WorkHistory wo={wo} timeZone={tz} />
+      </Panel>
+    </>
+  );
+}

@@ -1,0 +1,10 @@
+import { useMutation, useQueryClient } from '@tanstack/react-query';
+import { api } from '../../../lib/api-client';
+import type { CalendarFeedStatus } from '../../../../shared/schemas/calendar-feed';
+
+export const createCalendarFeed = () => api<CalendarFeedStatus>('/calendar-feed', { method: 'POST', body: {} });
+
+export function useCreateCalendarFeed() {
+  const qc = useQueryClient();
+  return useMutation({ mutationFn: createCalendarFeed, onSuccess: () => qc.invalidateQueries({ queryKey: ['calendar-feed'] }) });
+}

@@ -1,0 +1,68 @@
+import { useState } from 'react';
+import { Button } from '../../../components/ui/button';
+import { Notice } from '../../../components/ui/notice';
+import { ConfirmDialog } from '../../../components/ui/confirm-dialog';
+import { useCalendarFeed } from '../api/get-calendar-feed';
+import { useCreateCalendarFeed } from '../api/create-calendar-feed';
+import { useRevokeCalendarFeed } from '../api/revoke-calendar-feed';
+
+const fmt = new Intl.DateTimeFormat('en-GB', { dateStyle: 'medium', timeStyle: 'short' });
+
+/** A private iCalendar address of my due work, shown once when made; revoking it stops it at once. */
+export function CalendarFeedPanel() {
+  const q = useCalendarFeed();
+  const create = useCreateCalendarFeed();
+  const revoke = useRevokeCalendarFeed();
+  const [url, setUrl] = useState<string | null>(null);
+  const [copied, setCopied] = useState(false);
+  const [confirm, setConfirm] = useState<'new' | 'revoke' | null>(null);
+  if (!q.data) return <p role="status">Loading…</p>;
+  const make = async () => {
+    setConfirm(null);
+    const r = await create.mutateAsync();
+    setUrl(r.url);
+    setCopied(false);
+  };
+  return (
+    <div className="space-y-3">
+      <p className="text-steel-700">Subscribe to this address in your calendar app to see your open work orders and plans coming up in the next 60 days. Anyone with the address can read it: keep it to yourself.</p>
+      {url ? (
+        <Notice tone="mandatory" title="Your calendar address (shown only now)">
+          <div className="flex flex-wrap items-center gap-2">
+            <input aria-label="Calendar address" readOnly value={url} className="min-h-touch w-full flex-1 rounded border border-steel-400 bg-white px-2 font-mono text-sm" onFocus={(e) => e.currentTarget.select()} />
+            <Button variant="secondary" onClick={async () => { await navigator.clipboard?.writeText(url).catch(() => undefined); setCopied(true); }}>{copied ? 'Copied' : 'Copy'}</Button>
+          </div>
+        </Notice>
+      ) : null}
+      {q.data.active ? (
+        <p>
+          Feed on since {q.data.createdAt ? fmt.format(new Date(q.data.createdAt)) : '—'}
+          {q.data.lastUsedAt ? `; last read by a calendar ${fmt.format(new Date(q.data.lastUsedAt))}` : '; not read by a calendar yet'}.
+        </p>
+      ) : (
+        <p>No calendar feed is on.</p>
+      )}
+      <div className="flex flex-wrap gap-2">
+        <Button onClick={() => (q.data.active ? setConfirm('new') : make())} busy={create.isPending}>{q.data.active ? 'Make a new address' : 'Turn on my calendar feed'}</Button>
+        {q.data.active ? <Button variant="secondary" onClick={() => setConfirm('revoke')}>Turn off</Button> : null}
+      </div>
+      <ConfirmDialog
+        open={confirm !== null}
+        title={confirm === 'revoke' ? 'Turn off the calendar feed?' : 'Make a new address?'}
+        confirmLabel={confirm === 'revoke' ? 'Turn off' : 'Make a new address'}
+        tone={confirm === 'revoke' ? 'danger' : 'primary'}
+        busy={create.isPending || revoke.isPending}
+        onCancel={() => setConfirm(null)}
+        onConfirm={async () => {
+          if (confirm === 'revoke') {
+            await revoke.mutateAsync();
+            setUrl(null);
+            setConfirm(null);
+          } else await make();
+        }}
+      >
+        The current address stops working at once; calendars using it will show nothing new.
+      </ConfirmDialog>
+    </div>
+  );
+}

@@ -1,0 +1,72 @@
+import { useMemo, useState } from 'react';
+import { createColumnHelper, type SortingState } from '@tanstack/react-table';
+import { DataTable } from '../../../components/ui/data-table';
+import { Badge, EmptyState, Notice } from '../../../components/ui/notice';
+import { Button } from '../../../components/ui/button';
+import type { JobRunRow } from '../../../../shared/schemas/job-runs';
+import { useJobRuns } from '../api/get-job-runs';
+import { useRunPassNow } from '../api/run-pass-now';
+import { ApiError } from '../../../lib/api-client';
+
+const col = createColumnHelper<JobRunRow>();
+
+/** Each pass of the scheduled job for this shop, newest first, with a button to run one now. */
+export function JobRuns({ timeZone }: { timeZone: string }) {
+  const [page, setPage] = useState(1);
+  const [sorting, setSorting] = useState<SortingState>([]);
+  const [message, setMessage] = useState<{ tone: 'danger' | 'safe' | 'caution'; text: string } | null>(null);
+  const pageSize = 25;
+  const q = useJobRuns({ page, pageSize });
+  const run = useRunPassNow();
+  const fmt = useMemo(() => new Intl.DateTimeFormat('en-GB', { timeZone, dateStyle: 'medium', timeStyle: 'medium' }), [timeZone]);
+  const columns = useMemo(
+    () => [
+      col.accessor('startedAt', { header: 'Started', enableSorting: false, cell: (c) => fmt.format(new Date(c.getValue())) }),
+      col.accessor((r) => (r.finishedAt ? new Date(r.finishedAt).getTime() - new Date(r.startedAt).getTime() : null), {
+        id: 'took',
+        header: 'Took',
+        enableSorting: false,
+        cell: (c) => (c.getValue() === null ? 'running' : `${((c.getValue() as number) / 1000).toFixed(2)} s`),
+      }),
+      col.accessor('trigger', { header: 'Started by', enableSorting: false, cell: (c) => (c.getValue() === 'manual' ? `Run now (${c.row.original.triggeredBy ?? 'admin'})` : 'Schedule') }),
+      col.accessor('plansChecked', { header: 'Plans checked', enableSorting: false }),
+      col.accessor('plansEvaluated', { header: 'Re-evaluated', enableSorting: false }),
+      col.accessor('workOrdersRaised', { header: 'Work raised', enableSorting: false }),
+      col.accessor('escalations', { header: 'Past due reported', enableSorting: false }),
+      col.accessor('mailsQueued', { header: 'Mails', enableSorting: false }),
+      col.accessor('errors', {
+        header: 'Problems',
+        enableSorting: false,
+        cell: (c) => (c.getValue().length ? <details><summary className="cursor-pointer"><Badge tone="danger">{c.getValue().length} problem{c.getValue().length === 1 ? '' : 's'}</Badge></summary><ul className="mt-1 list-disc pl-5 text-xs">{c.getValue().map((e, i) => <li key={i}>{e.message}</li>)}</ul></details> : <Badge tone="safe">None</Badge>),
+      }),
+    ],
+    [fmt],
+  );
+  const runNow = async () => {
+    setMessage(null);
+    try {
+      const r = await run.mutateAsync();
+      setMessage({ tone: 'safe', text: r.run ? `Pass finished: ${r.run.plansChecked} plans checked, ${r.run.workOrdersRaised} work orders raised, ${r.run.mailsQueued} mails queued.` : r.message });
+    } catch (err) {
+      setMessage({ tone: err instanceof ApiError && err.status === 409 ? 'caution' : 'danger', text: err instanceof Error ? err.message : 'The pass failed' });
+    }
+  };
+  return (
+    <div className="space-y-3">
+      <div className="flex flex-wrap items-center gap-3">
+        <Button onClick={runNow} busy={run.isPending}>Run the pass now</Button>
+        <p className="text-sm text-steel-600">The pass also runs on its own every few minutes.</p>
+      </div>
+      {message ? <Notice tone={message.tone} role="status">{message.text}</Notice> : null}
+      <DataTable
+        caption="Scheduled passes"
+        columns={columns}
+        data={q.data?.rows ?? []}
+        loading={q.isLoading}
+        getRowId={(r) => r.id}
+        empty={<EmptyState title="No passes recorded yet" />}
+        server={{ total: q.data?.total ?? 0, page, pageSize, sorting, onSortingChange: setSorting, onPageChange: setPage }}
+      />
+    </div>
+  );
+}

@@ -1,0 +1,13 @@
+import { keepPreviousData, queryOptions, useQuery } from '@tanstack/react-query';
+import { api } from '../../../lib/api-client';
+import type { OilAnalysisRow } from '../../../../shared/schemas/oil-analysis';
+import type { Page } from '../../../../shared/schemas/users';
+
+export type OilFilters = { machineId?: string; page: number; pageSize: number };
+
+export const getOilAnalyses = (f: OilFilters) => api<Page<OilAnalysisRow>>('/oil-analyses', { query: f });
+
+export const getOilAnalysesQueryOptions = (f: OilFilters) =>
+  queryOptions({ queryKey: ['oil-analysis', 'list', f], queryFn: () => getOilAnalyses(f), placeholderData: keepPreviousData });
+
+export const useOilAnalyses = (f: OilFilters) => useQuery(getOilAnalysesQueryOptions(f));

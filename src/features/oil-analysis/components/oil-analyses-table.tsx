@@ -1,0 +1,46 @@
+import { useMemo, useState } from 'react';
+import { Link } from 'react-router-dom';
+import { createColumnHelper, type SortingState } from '@tanstack/react-table';
+import { DataTable } from '../../../components/ui/data-table';
+import { EmptyState } from '../../../components/ui/notice';
+import type { OilAnalysisRow } from '../../../../shared/schemas/oil-analysis';
+import { useOilAnalyses } from '../api/get-oil-analyses';
+import { OilVerdict } from './oil-badges';
+
+const col = createColumnHelper<OilAnalysisRow>();
+
+export function OilAnalysesTable({ machineId, timeZone }: { machineId?: string; timeZone: string }) {
+  const [page, setPage] = useState(1);
+  const [sorting, setSorting] = useState<SortingState>([]);
+  const pageSize = 20;
+  const q = useOilAnalyses({ machineId, page, pageSize });
+  const fmt = useMemo(() => new Intl.DateTimeFormat('en-GB', { timeZone, dateStyle: 'medium' }), [timeZone]);
+  const columns = useMemo(
+    () => [
+      col.accessor('sampledAt', { header: 'Sampled', enableSorting: false, cell: (c) => fmt.format(new Date(c.getValue())) }),
+      col.accessor((r) => r.machine.code, { id: 'unit', header: 'Unit', enableSorting: false }),
+      col.accessor('isoCode', { header: 'ISO 4406', enableSorting: false, cell: (c) => <span className="font-bold">{c.getValue()}</span> }),
+      col.accessor('targetCode', { header: 'Target', enableSorting: false, cell: (c) => c.getValue() ?? '—' }),
+      col.accessor('viscosity40', { header: 'Viscosity 40 °C', enableSorting: false, cell: (c) => (c.getValue() === null ? '—' : `${c.getValue()} mm²/s`) }),
+      col.accessor('waterPpm', { header: 'Water', enableSorting: false, cell: (c) => (c.getValue() === null ? '—' : `${c.getValue()} ppm`) }),
+      col.display({ id: 'verdict', header: 'Verdict', cell: (c) => <OilVerdict row={c.row.original} /> }),
+      col.display({
+        id: 'work',
+        header: 'Work',
+        cell: (c) => (c.row.original.workOrder ? <Link className="underline" to={`/work-orders/${c.row.original.workOrder.id}`}>WO {c.row.original.workOrder.number}</Link> : '—'),
+      }),
+    ],
+    [fmt],
+  );
+  return (
+    <DataTable
+      caption="Oil results"
+      columns={columns}
+      data={q.data?.rows ?? []}
+      loading={q.isLoading}
+      getRowId={(r) => r.id}
+      empty={<EmptyState title="No oil results yet" />}
+      server={{ total: q.data?.total ?? 0, page, pageSize, sorting, onSortingChange: setSorting, onPageChange: setPage }}
+    />
+  );
+}

@@ -1,0 +1,9 @@
+import { queryOptions, useQuery } from '@tanstack/react-query';
+import { api } from '../../../lib/api-client';
+import type { PlanDetail } from '../../../../shared/schemas/plans';
+
+export const getPlan = (id: string) => api<PlanDetail>(`/plans/${id}`);
+
+export const getPlanQueryOptions = (id: string) => queryOptions({ queryKey: ['plans', 'detail', id], queryFn: () => getPlan(id) });
+
+export const usePlan = (id: string) => useQuery(getPlanQueryOptions(id));

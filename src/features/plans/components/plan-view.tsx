@@ -1,0 +1,94 @@
+import { Link } from 'react-router-dom';
+import { Badge, Notice, Panel } from '../../../components/ui/notice';
+import { ROLE_LABELS } from '../../../../shared/permissions';
+import { DUE_STATE_LABELS, TRIGGER_KIND_LABELS, type PlanDetail } from '../../../../shared/schemas/plans';
+import { PlanDueBadge } from './plan-badges';
+import { formatWhen, relative } from './format';
+
+/** A plan's state at a glance: status and why, each trigger's own view, meters against their marks. */
+export function PlanView({ plan }: { plan: PlanDetail }) {
+  const tz = plan.timeZone;
+  const meterName = (id: string) => plan.triggers.find((t) => 'meterId' in t && t.meterId === id)?.meter;
+  return (
+    <div className="grid gap-4 lg:grid-cols-[3fr_2fr]">
+      <Panel title="Where it stands">
+        <div className="space-y-3">
+          <div className="flex flex-wrap items-center gap-2">
+            <PlanDueBadge status={plan.status} />
+            {plan.requiresLockout ? <Badge tone="mandatory">Lockout required</Badge> : null}
+            {plan.safetyCritical ? <Badge tone="mandatory">Safety work</Badge> : null}
+            {!plan.active ? <Badge>Paused plan</Badge> : null}
+          </div>
+          <dl className="grid grid-cols-[auto_1fr] gap-x-4 gap-y-1">
+            <dt className="font-semibold">Next due</dt>
+            <dd>{formatWhen(plan.nextDueAt, tz)} {plan.nextDueAt ? <span className="text-steel-600">({relative(plan.nextDueAt)})</span> : null}</dd>
+            <dt className="font-semibold">Last done</dt>
+            <dd>{plan.lastDoneAt ? formatWhen(plan.lastDoneAt, tz) : 'Not yet'}</dd>
+            <dt className="font-semibold">Done by</dt>
+            <dd>{plan.responsibleUser?.name ?? (plan.responsibleRole ? `Any ${ROLE_LABELS[plan.responsibleRole].toLowerCase()}` : '—')}</dd>
+          </dl>
+          {plan.openWorkOrder ? (
+            <Notice tone={plan.status === 'overdue' ? 'danger' : 'caution'} title="Work is open">
+              <Link className="font-semibold underline" to={`/work-orders/${plan.openWorkOrder.id}`}>WO {plan.openWorkOrder.number}</Link> was raised for the current occurrence.
+            </Notice>
+          ) : null}
+          <table className="w-full text-left text-sm">
+            <caption className="mb-1 text-left font-semibold">Triggers (whichever comes first)</caption>
+            <thead>
+              <tr className="border-b border-steel-300"><th scope="col" className="py-1">Trigger</th><th scope="col">Status</th><th scope="col">Due / forecast</th></tr>
+            </thead>
+            <tbody>
+              {plan.triggers.map((t, i) => {
+                const ev = plan.evaluation[i];
+                return (
+                  <tr key={i} className="border-b border-steel-100 align-top">
+                    <td className="py-1 pr-2">
+                      <span className="block text-xs uppercase tracking-wide text-steel-600">{TRIGGER_KIND_LABELS[t.kind]}</span>
+                      {t.summary}
+                    </td>
+                    <td className="pr-2">{ev ? <span title={ev.reason}>{DUE_STATE_LABELS[ev.status]}</span> : '—'}</td>
+                    <td>{ev ? formatWhen(ev.dueAt, tz) : '—'}</td>
+                  </tr>
+                );
+              })}
+            </tbody>
+          </table>
+          {plan.meterDue.map((m) => {
+            const meter = meterName(m.meterId);
+            const pct = m.current === null ? 0 : Math.min(100, Math.max(0, (m.current / m.dueValue) * 100));
+            return (
+              <div key={m.meterId}>
+                <p className="text-sm font-semibold">{meter?.name ?? 'Meter'}: {m.current ?? '—'} of {m.dueValue} {meter?.unit}</p>
+                <div className="h-3 w-full rounded bg-steel-200" role="img" aria-label={`${meter?.name ?? 'Meter'} at ${Math.round(pct)} % of the next mark`}>
+                  <div className={`h-3 rounded ${pct >= 100 ? 'bg-danger' : pct >= 90 ? 'bg-caution' : 'bg-steel-500'}`} style={{ width: `${pct}%` }} />
+                </div>
+                {m.forecastAt ? <p className="text-xs text-steel-600">Forecast from the recent usage rate: {formatWhen(m.forecastAt, tz)}</p> : null}
+              </div>
+            );
+          })}
+          {plan.statusReason ? <p className="text-xs text-steel-600">Engine’s note: {plan.statusReason}</p> : null}
+        </div>
+      </Panel>
+      <div className="space-y-4">
+        <Panel title="What to do">
+          {plan.instructions ? <p className="whitespace-pre-line">{plan.instructions}</p> : <p className="text-steel-600">No instructions written.</p>}
+          {plan.estimatedMinutes ? <p className="mt-2 text-sm">Planned time: {plan.estimatedMinutes} min</p> : null}
+        </Panel>
+        <Panel title="Checklist">
+          {plan.checklist.length === 0 ? <p className="text-steel-600">No checklist.</p> : (
+            <ol className="list-decimal space-y-1 pl-5">
+              {plan.checklist.map((c) => (
+                <li key={c.key}>{c.label}{c.kind === 'measure' ? <span className="text-steel-600"> — measured in {c.unit}{c.min !== undefined || c.max !== undefined ? `, OK ${c.min ?? '…'} to ${c.max ?? '…'}` : ''}</span> : null}</li>
+              ))}
+            </ol>
+          )}
+        </Panel>
+        {plan.parts.length ? (
+          <Panel title="Parts to have ready">
+            <ul className="space-y-1">{plan.parts.map((p) => <li key={p.partTypeId}>{p.quantity} {p.stockUnit} · {p.partNumber} {p.name}</li>)}</ul>
+          </Panel>
+        ) : null}
+      </div>
+    </div>
+  );
+}

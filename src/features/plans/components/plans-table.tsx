@@ -1,0 +1,115 @@
+import { useMemo, useState } from 'react';
+import { Link } from 'react-router-dom';
+import { createColumnHelper, type SortingState } from '@tanstack/react-table';
+import { DataTable } from '../../../components/ui/data-table';
+import { Badge, EmptyState, Notice } from '../../../components/ui/notice';
+import { DUE_STATES, DUE_STATE_LABELS, type DueState, type ListPlansQuery, type PlanRow } from '../../../../shared/schemas/plans';
+import { usePlans } from '../api/get-plans';
+import { usePlanLookups } from '../api/get-plan-lookups';
+import { PlanDueBadge } from './plan-badges';
+import { formatWhen, relative } from './format';
+
+const col = createColumnHelper<PlanRow>();
+const filterClass = 'min-h-touch rounded border border-steel-400 bg-white px-3 font-normal';
+
+export function PlansTable({ timeZone, machineId: fixedMachine }: { timeZone: string; machineId?: string }) {
+  const lookups = usePlanLookups();
+  const [page, setPage] = useState(1);
+  const [sorting, setSorting] = useState<SortingState>([{ id: 'nextDueAt', desc: false }]);
+  const [q, setQ] = useState('');
+  const [machineId, setMachineId] = useState('');
+  const [status, setStatus] = useState<DueState | ''>('');
+  const [active, setActive] = useState<ListPlansQuery['active']>('true');
+  const pageSize = 25;
+  const plans = usePlans({
+    page,
+    pageSize,
+    q: q || undefined,
+    machineId: fixedMachine ?? (machineId || undefined),
+    status: status || undefined,
+    active,
+    sort: (sorting[0]?.id ?? 'nextDueAt') as ListPlansQuery['sort'],
+    dir: sorting[0]?.desc ? 'desc' : 'asc',
+  });
+  const columns = useMemo(
+    () => [
+      col.accessor('title', {
+        id: 'title',
+        header: 'Plan',
+        enableHiding: false,
+        cell: (c) => (
+          <div className="min-w-56">
+            <Link className="inline-flex min-h-touch items-center font-semibold text-mandatory underline" to={`/plans/${c.row.original.id}`}>{c.getValue()}</Link>
+            <p className="text-xs text-steel-600">{c.row.original.triggerSummary}</p>
+            <div className="mt-1 flex flex-wrap gap-1">
+              {c.row.original.requiresLockout ? <Badge tone="mandatory">Lockout</Badge> : null}
+              {c.row.original.safetyCritical ? <Badge tone="mandatory">Safety work</Badge> : null}
+              {!c.row.original.active ? <Badge>Paused plan</Badge> : null}
+            </div>
+          </div>
+        ),
+      }),
+      col.accessor((r) => r.machine.code, { id: 'machine', header: 'Machine', cell: (c) => <span title={c.row.original.machine.name}>{c.getValue()}</span> }),
+      col.accessor('status', { id: 'status', header: 'Status', cell: (c) => <PlanDueBadge status={c.getValue()} /> }),
+      col.accessor('nextDueAt', {
+        id: 'nextDueAt',
+        header: 'Next due',
+        cell: (c) => (
+          <div className="whitespace-nowrap">
+            <div>{formatWhen(c.getValue(), timeZone)}</div>
+            <div className="text-xs text-steel-600">{relative(c.getValue())}</div>
+          </div>
+        ),
+      }),
+      col.accessor('lastDoneAt', { id: 'lastDoneAt', header: 'Last done', enableSorting: false, cell: (c) => formatWhen(c.getValue(), timeZone, false) }),
+      col.accessor('responsible', { id: 'responsible', header: 'Done by', enableSorting: false }),
+    ],
+    [timeZone],
+  );
+  return (
+    <div className="space-y-3">
+      {plans.isError ? <Notice tone="danger" role="alert">{plans.error.message}</Notice> : null}
+      <DataTable
+        caption="Maintenance plans"
+        columns={columns}
+        data={plans.data?.rows ?? []}
+        loading={plans.isLoading}
+        getRowId={(r) => r.id}
+        empty={<EmptyState title="No plans match">Apply starter plans to a machine, or write a plan of your own.</EmptyState>}
+        server={{ total: plans.data?.total ?? 0, page, pageSize, sorting, onSortingChange: (s) => { setSorting(s); setPage(1); }, onPageChange: setPage }}
+        toolbar={
+          <>
+            <label className="flex flex-col text-sm font-semibold">
+              Search
+              <input className={filterClass} value={q} placeholder="Plan or machine" onChange={(e) => { setQ(e.target.value); setPage(1); }} />
+            </label>
+            {fixedMachine ? null : (
+              <label className="flex flex-col text-sm font-semibold">
+                Machine
+                <select className={filterClass} value={machineId} onChange={(e) => { setMachineId(e.target.value); setPage(1); }}>
+                  <option value="">All machines</option>
+                  {(lookups.data?.machines ?? []).filter((m) => !m.parentId).map((m) => <option key={m.id} value={m.id}>{m.code} · {m.name}</option>)}
+                </select>
+              </label>
+            )}
+            <label className="flex flex-col text-sm font-semibold">
+              Status
+              <select className={filterClass} value={status} onChange={(e) => { setStatus(e.target.value as DueState | ''); setPage(1); }}>
+                <option value="">Any status</option>
+                {[...DUE_STATES].reverse().map((s) => <option key={s} value={s}>{DUE_STATE_LABELS[s]}</option>)}
+              </select>
+            </label>
+            <label className="flex flex-col text-sm font-semibold">
+              Plans
+              <select className={filterClass} value={active} onChange={(e) => { setActive(e.target.value as ListPlansQuery['active']); setPage(1); }}>
+                <option value="true">In use</option>
+                <option value="false">Paused</option>
+                <option value="all">All</option>
+              </select>
+            </label>
+          </>
+        }
+      />
+    </div>
+  );
+}

@@ -1,0 +1,14 @@
+import { useMutation, useQueryClient } from '@tanstack/react-query';
+import { api } from '../../../lib/api-client';
+import type { CloseWorkOrderInput } from '../../../../shared/schemas/work-orders';
+
+export const closeWorkOrder = ({ id, ...input }: CloseWorkOrderInput & { id: string }) =>
+  api<{ planNextDueAt: string | null }>(`/work-orders/${id}/close`, { method: 'POST', body: input });
+
+export function useCloseWorkOrder() {
+  const qc = useQueryClient();
+  return useMutation({
+    mutationFn: closeWorkOrder,
+    onSuccess: () => Promise.all([qc.invalidateQueries({ queryKey: ['work-orders'] }), qc.invalidateQueries({ queryKey: ['plans'] })]),
+  });
+}

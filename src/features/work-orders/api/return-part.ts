@@ -1,0 +1,12 @@
+import { useMutation, useQueryClient } from '@tanstack/react-query';
+import { api } from '../../../lib/api-client';
+
+export const returnPart = ({ id, lineId }: { id: string; lineId: string }) => api<{ ok: true }>(`/work-orders/${id}/parts/${lineId}`, { method: 'DELETE' });
+
+export function useReturnPart() {
+  const qc = useQueryClient();
+  return useMutation({
+    mutationFn: returnPart,
+    onSuccess: () => Promise.all([qc.invalidateQueries({ queryKey: ['work-orders'] }), qc.invalidateQueries({ queryKey: ['plan-lookups'] })]),
+  });
+}

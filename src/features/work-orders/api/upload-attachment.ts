@@ -1,0 +1,13 @@
+import { useMutation, useQueryClient } from '@tanstack/react-query';
+import { api } from '../../../lib/api-client';
+
+export const uploadAttachment = ({ id, file }: { id: string; file: File }) => {
+  const body = new FormData();
+  body.append('file', file);
+  return api<{ id: string }>(`/work-orders/${id}/attachments`, { method: 'POST', body });
+};
+
+export function useUploadAttachment() {
+  const qc = useQueryClient();
+  return useMutation({ mutationFn: uploadAttachment, onSuccess: () => qc.invalidateQueries({ queryKey: ['work-orders'] }) });
+}

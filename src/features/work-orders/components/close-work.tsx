@@ -1,0 +1,39 @@
+import { useState } from 'react';
+import type { WorkOrderDetail } from '../../../../shared/schemas/work-orders';
+import { Button } from '../../../components/ui/button';
+import { Notice } from '../../../components/ui/notice';
+import { useCloseWorkOrder } from '../api/close-work-order';
+import { formatWhen } from './format';
+
+/** Sign-off: only when the checklist is complete and, where required, the lockout is released. */
+export function CloseWork({ wo, timeZone }: { wo: WorkOrderDetail; timeZone: string }) {
+  const close = useCloseWorkOrder();
+  const [message, setMessage] = useState<{ tone: 'danger' | 'safe'; text: string } | null>(null);
+  const signOff = async () => {
+    setMessage(null);
+    try {
+      const r = await close.mutateAsync({ id: wo.id });
+      setMessage({ tone: 'safe', text: r.planNextDueAt ? `Signed off. The plan is next due ${formatWhen(r.planNextDueAt, timeZone)}.` : 'Signed off.' });
+    } catch (err) {
+      setMessage({ tone: 'danger', text: err instanceof Error ? err.message : 'Could not sign off' });
+    }
+  };
+  return (
+    <div className="space-y-3">
+      {wo.closeBlockers.length ? (
+        <Notice tone="caution" title="Before you can sign off">
+          <ul className="list-disc pl-5">
+            {wo.closeBlockers.map((b) => <li key={b}>{b}</li>)}
+          </ul>
+        </Notice>
+      ) : (
+        <Notice tone="safe" title="Ready to sign off">Checklist complete{wo.requiresLockout ? ' and lockout released' : ''}.</Notice>
+      )}
+      <Button onClick={signOff} busy={close.isPending} disabled={wo.closeBlockers.length > 0} aria-describedby="signoff-help">
+        Sign off the work
+      </Button>
+      <p id="signoff-help" className="text-sm text-steel-600">Signing off records you as the person who finished the work, with the time, checklist answers, parts and time spent.</p>
+      {message ? <Notice tone={message.tone} role={message.tone === 'danger' ? 'alert' : 'status'}>{message.text}</Notice> : null}
+    </div>
+  );
+}

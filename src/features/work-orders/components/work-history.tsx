@@ -1,0 +1,32 @@
+import type { WorkOrderDetail } from '../../../../shared/schemas/work-orders';
+import { formatWhen } from './format';
+
+const words: Record<string, string> = {
+  'work-order.raised': 'Raised',
+  'work-order.start': 'Started',
+  'work-order.pause': 'Paused',
+  'work-order.resume': 'Resumed',
+  'work-order.cancel': 'Called off',
+  'work-order.checklist': 'Checklist saved',
+  'work-order.part-used': 'Part taken from stock',
+  'work-order.part-returned': 'Part returned to stock',
+  'work-order.attachment': 'File attached',
+  'work-order.updated': 'Details changed',
+  'work-order.escalated': 'Past due: admin told',
+  'work-order.closed': 'Signed off',
+};
+
+export function WorkHistory({ wo, timeZone }: { wo: WorkOrderDetail; timeZone: string }) {
+  return (
+    <ol className="space-y-1 text-sm">
+      {wo.history.map((h, i) => (
+        <li key={i} className="flex flex-wrap gap-x-2">
+          <span className="text-steel-600">{formatWhen(h.at, timeZone)}</span>
+          <span className="font-semibold">{words[h.action] ?? h.action}</span>
+          <span>{h.who ?? 'Kerfbook schedule'}</span>
+          {h.details && typeof h.details.reason === 'string' ? <span className="text-steel-700">— {h.details.reason}</span> : null}
+        </li>
+      ))}
+    </ol>
+  );
+}

@@ -1,0 +1,40 @@
+import { useState } from 'react';
+import type { WorkOrderDetail } from '../../../../shared/schemas/work-orders';
+import { Button } from '../../../components/ui/button';
+import { Notice } from '../../../components/ui/notice';
+import { useUpdateWorkOrder } from '../api/update-work-order';
+import { inputClass } from './format';
+
+/** Time spent and notes; kept as the work goes on, and offered again at sign-off. */
+export function WorkLogForm({ wo, readOnly }: { wo: WorkOrderDetail; readOnly: boolean }) {
+  const update = useUpdateWorkOrder();
+  const [minutes, setMinutes] = useState(String(wo.labourMinutes || ''));
+  const [notes, setNotes] = useState(wo.notes);
+  const [message, setMessage] = useState<{ tone: 'danger' | 'safe'; text: string } | null>(null);
+  const save = async (e: React.FormEvent) => {
+    e.preventDefault();
+    setMessage(null);
+    const n = minutes.trim() === '' ? 0 : Number(minutes);
+    if (!Number.isInteger(n) || n < 0) return setMessage({ tone: 'danger', text: 'Time spent: enter whole minutes, 0 or more.' });
+    try {
+      await update.mutateAsync({ id: wo.id, labourMinutes: n, notes });
+      setMessage({ tone: 'safe', text: 'Saved.' });
+    } catch (err) {
+      setMessage({ tone: 'danger', text: err instanceof Error ? err.message : 'Could not save' });
+    }
+  };
+  return (
+    <form onSubmit={save} aria-label="Time and notes" className="grid gap-3 sm:grid-cols-[12rem_1fr]">
+      <div>
+        <label htmlFor="wo-minutes" className="block text-sm font-semibold">Time spent (minutes)</label>
+        <input id="wo-minutes" inputMode="numeric" className={inputClass} value={minutes} disabled={readOnly} onChange={(e) => setMinutes(e.target.value)} />
+      </div>
+      <div>
+        <label htmlFor="wo-notes" className="block text-sm font-semibold">Notes</label>
+        <textarea id="wo-notes" rows={3} className={inputClass} value={notes} disabled={readOnly} onChange={(e) => setNotes(e.target.value)} />
+      </div>
+      {readOnly ? null : <div className="sm:col-span-2"><Button type="submit" variant="secondary" busy={update.isPending}>Save time and notes</Button></div>}
+      {message ? <div className="sm:col-span-2"><Notice tone={message.tone} role={message.tone === 'danger' ? 'alert' : 'status'}>{message.text}</Notice></div> : null}
+    </form>
+  );
+}

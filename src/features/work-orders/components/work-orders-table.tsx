@@ -1,0 +1,167 @@
+import { useMemo } from 'react';
+import { Link, useSearchParams } from 'react-router-dom';
+import { createColumnHelper, type SortingState } from '@tanstack/react-table';
+import { DataTable } from '../../../components/ui/data-table';
+import { EmptyState, Notice } from '../../../components/ui/notice';
+import { DUE_FILTERS, DUE_FILTER_LABELS, WORK_STATES, WORK_STATE_LABELS, type ListWorkOrdersQuery, type WorkOrderRow } from '../../../../shared/schemas/work-orders';
+import { ROLE_LABELS } from '../../../../shared/permissions';
+import { useWorkOrders } from '../api/get-work-orders';
+import { useWorkLookups } from '../api/get-work-lookups';
+import { DueBadge, LockoutBadge, StateBadge } from './work-badges';
+import { formatWhen, relative } from './format';
+
+const col = createColumnHelper<WorkOrderRow>();
+const filterClass = 'min-h-touch rounded border border-steel-400 bg-white px-3 font-normal';
+
+/**
+ * Work orders with server paging. Filters live in the URL (?assignee=me&due=overdue …) so links in
+ * mails and on the home page open the right view. `fixed` filters (e.g. a plan's work) are not shown.
+ */
+export function WorkOrdersTable({ timeZone, fixed = {}, caption = 'Work orders', pageSize = 25 }: { timeZone: string; fixed?: Partial<ListWorkOrdersQuery>; caption?: string; pageSize?: number }) {
+  const [params, setParams] = useSearchParams();
+  const lookups = useWorkLookups();
+  const get = (k: string) => params.get(k) ?? '';
+  const page = Number(params.get('page') ?? '1') || 1;
+  const sort = (params.get('sort') ?? 'dueAt') as ListWorkOrdersQuery['sort'];
+  const dir = (params.get('dir') ?? 'asc') as 'asc' | 'desc';
+  const status = (params.get('status') ?? 'active') as ListWorkOrdersQuery['status'] | 'any';
+  const set = (k: string, v: string) => {
+    const next = new URLSearchParams(params);
+    if (v) next.set(k, v);
+    else next.delete(k);
+    if (k !== 'page') next.delete('page');
+    setParams(next, { replace: true });
+  };
+  const filters = {
+    page,
+    pageSize,
+    sort,
+    dir,
+    status: status === 'any' ? undefined : status,
+    machineId: get('machineId') || undefined,
+    due: (get('due') || undefined) as ListWorkOrdersQuery['due'],
+    assignee: get('assignee') || undefined,
+    q: get('q') || undefined,
+    ...fixed,
+  };
+  const q = useWorkOrders(filters);
+  const sorting: SortingState = [{ id: sort, desc: dir === 'desc' }];
+
+  const columns = useMemo(
+    () => [
+      col.accessor('number', {
+        id: 'number',
+        header: 'WO',
+        enableHiding: false,
+        cell: (c) => (
+          <Link className="inline-flex min-h-touch items-center font-bold text-mandatory underline" to={`/work-orders/${c.row.original.id}`}>
+            {c.getValue()}
+          </Link>
+        ),
+      }),
+      col.accessor('title', {
+        id: 'title',
+        header: 'Work',
+        cell: (c) => (
+          <div className="min-w-48">
+            <Link className="font-semibold underline" to={`/work-orders/${c.row.original.id}`}>{c.getValue()}</Link>
+            <div className="mt-1 flex flex-wrap gap-1">
+              {c.row.original.requiresLockout ? <LockoutBadge /> : null}
+              {c.row.original.plan ? <span className="text-xs text-steel-600">Plan: {c.row.original.plan.title}</span> : <span className="text-xs text-steel-600">Raised by hand</span>}
+            </div>
+          </div>
+        ),
+      }),
+      col.accessor((r) => r.machine.code, { id: 'machine', header: 'Machine', cell: (c) => <span title={c.row.original.machine.name}>{c.getValue()}</span> }),
+      col.accessor('dueAt', {
+        id: 'dueAt',
+        header: 'Due',
+        cell: (c) => (
+          <div className="whitespace-nowrap">
+            <div>{formatWhen(c.getValue(), timeZone)}</div>
+            <div className="flex items-center gap-1 text-xs text-steel-600">
+              <DueBadge state={c.row.original.dueState} /> {c.row.original.dueState !== 'closed' ? relative(c.getValue()) : null}
+            </div>
+          </div>
+        ),
+      }),
+      col.accessor('status', { id: 'status', header: 'State', cell: (c) => <StateBadge status={c.getValue()} /> }),
+      col.accessor((r) => r.assignee?.name ?? (r.responsibleRole ? `Any ${ROLE_LABELS[r.responsibleRole].toLowerCase()}` : '—'), { id: 'assignee', header: 'For', enableSorting: false }),
+      col.accessor('raisedAt', { id: 'raisedAt', header: 'Raised', cell: (c) => formatWhen(c.getValue(), timeZone, false) }),
+    ],
+    [timeZone],
+  );
+
+  return (
+    <div className="space-y-3">
+      {q.isError ? <Notice tone="danger" role="alert">{q.error.message}</Notice> : null}
+      <DataTable
+        caption={caption}
+        columns={columns}
+        data={q.data?.rows ?? []}
+        loading={q.isLoading}
+        getRowId={(r) => r.id}
+        empty={<EmptyState title="No work matches these filters">Try “Any state” or clear the filters.</EmptyState>}
+        server={{
+          total: q.data?.total ?? 0,
+          page,
+          pageSize,
+          sorting,
+          onSortingChange: (s) => {
+            const next = new URLSearchParams(params);
+            next.set('sort', s[0]?.id ?? 'dueAt');
+            next.set('dir', s[0]?.desc ? 'desc' : 'asc');
+            next.delete('page');
+            setParams(next, { replace: true });
+          },
+          onPageChange: (p) => set('page', String(p)),
+        }}
+        toolbar={
+          <>
+            <label className="flex flex-col text-sm font-semibold">
+              Search
+              <input className={filterClass} value={get('q')} placeholder="Title, machine or WO number" onChange={(e) => set('q', e.target.value)} />
+            </label>
+            {fixed.machineId ? null : (
+              <label className="flex flex-col text-sm font-semibold">
+                Machine
+                <select className={filterClass} value={get('machineId')} onChange={(e) => set('machineId', e.target.value)}>
+                  <option value="">All machines</option>
+                  {(lookups.data?.machines ?? []).map((m) => (
+                    <option key={m.id} value={m.id}>{m.code} · {m.name}</option>
+                  ))}
+                </select>
+              </label>
+            )}
+            <label className="flex flex-col text-sm font-semibold">
+              State
+              <select className={filterClass} value={status ?? 'active'} onChange={(e) => set('status', e.target.value === 'active' ? '' : e.target.value)}>
+                <option value="active">Not finished</option>
+                {WORK_STATES.map((s) => <option key={s} value={s}>{WORK_STATE_LABELS[s]}</option>)}
+                <option value="any">Any state</option>
+              </select>
+            </label>
+            <label className="flex flex-col text-sm font-semibold">
+              Due
+              <select className={filterClass} value={get('due')} onChange={(e) => set('due', e.target.value)}>
+                <option value="">Any time</option>
+                {DUE_FILTERS.map((d) => <option key={d} value={d}>{DUE_FILTER_LABELS[d]}</option>)}
+              </select>
+            </label>
+            {fixed.assignee ? null : (
+              <label className="flex flex-col text-sm font-semibold">
+                For
+                <select className={filterClass} value={get('assignee')} onChange={(e) => set('assignee', e.target.value)}>
+                  <option value="">Everyone</option>
+                  <option value="me">Me (and my role)</option>
+                  <option value="unassigned">No one named</option>
+                  {(lookups.data?.people ?? []).map((p) => <option key={p.userId} value={p.userId}>{p.name}</option>)}
+                </select>
+              </label>
+            )}
+          </>
+        }
+      />
+    </div>
+  );
+}
