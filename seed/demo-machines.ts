@@ -321,33 +321,30 @@ export const seedMachines: SeedStep = async (em, shop) => {
   const tools: Row[] = [];
   const sharpenings: Row[] = [];
   const toolSpecs = [
-    { head: c1p, meter: m.c1Hits, code: 'C1-T01', name: 'Round 12 mm', size: 'B', every: 110_000 },
-    { head: c1p, meter: m.c1Hits, code: 'C1-T02', name: 'Square 25 mm', size: 'C', every: 90_000 },
-    { head: c1p, meter: m.c1Hits, code: 'C1-T03', name: 'Oblong 8 × 30 mm', size: 'C', every: 95_000 },
-    { head: c1p, meter: m.c1Hits, code: 'C1-T04', name: 'Round 76 mm', size: 'D', every: 70_000 },
-    { head: c2p, meter: m.c2Hits, code: 'C2-T01', name: 'Round 6.5 mm', size: 'A', every: 120_000 },
-    { head: c2p, meter: m.c2Hits, code: 'C2-T02', name: 'Rectangle 10 × 40 mm', size: 'C', every: 85_000 },
-    { head: c2p, meter: m.c2Hits, code: 'C2-T03', name: 'Louvre form', size: 'E', every: 60_000 },
+    { head: c1p, meter: m.c1Hits, code: 'C1-T01', name: 'Round 12 mm', size: 'B', every: 400_000 },
+    { head: c1p, meter: m.c1Hits, code: 'C1-T02', name: 'Square 25 mm', size: 'C', every: 350_000 },
+    { head: c1p, meter: m.c1Hits, code: 'C1-T03', name: 'Oblong 8 × 30 mm', size: 'C', every: 300_000 },
+    { head: c1p, meter: m.c1Hits, code: 'C1-T04', name: 'Round 76 mm', size: 'D', every: 300_000 },
+    { head: c2p, meter: m.c2Hits, code: 'C2-T01', name: 'Round 6.5 mm', size: 'A', every: 450_000 },
+    { head: c2p, meter: m.c2Hits, code: 'C2-T02', name: 'Rectangle 10 × 40 mm', size: 'C', every: 300_000 },
+    { head: c2p, meter: m.c2Hits, code: 'C2-T03', name: 'Louvre form', size: 'E', every: 250_000 },
   ];
-  for (const [i, s] of toolSpecs.entries()) {
+  for (const s of toolSpecs) {
     const log = hitLog.filter((h) => h.meter === s.meter);
     const toolId = randomUUID();
     let base = log[0].value;
     let lastAt: Date | null = null;
-    // Shops use the tool a share of the head's hits; sharpen near the interval, one tool left overdue.
-    const share = 0.22 + 0.05 * (i % 3);
+    // Intervals are in hits of the head's meter; tools are sharpened near them, one is left overdue.
     const overdue = s.code === 'C1-T04';
     for (const h of log) {
       const since = h.value - base;
-      const limit = s.every / share;
-      if (since >= limit * rnd.between(0.9, 1.05) && !(overdue && h.at.getTime() > today - 80 * DAY)) {
+      if (since >= s.every * rnd.between(0.9, 1.05) && !(overdue && h.at.getTime() > today - 120 * DAY)) {
         sharpenings.push({ ...row(org, h.at, {}), tool: toolId, sharpenedAt: h.at, hitsReading: h.value, hitsSincePrevious: since, removedMm: round(rnd.between(0.1, 0.25), 2), by: tech, note: null });
         base = h.value;
         lastAt = h.at;
       }
     }
-    // The hits meter counts every hit of the head; the interval is set in head hits for this tool.
-    tools.push({ ...row(org, created, {}), id: toolId, machine: s.head, hitsMeter: s.meter, code: s.code, name: s.name, stationSize: s.size, sharpeningIntervalHits: Math.round(s.every / share / 1000) * 1000, hitsAtLastSharpening: base, lastSharpenedAt: lastAt, active: true });
+    tools.push({ ...row(org, created, {}), id: toolId, machine: s.head, hitsMeter: s.meter, code: s.code, name: s.name, stationSize: s.size, sharpeningIntervalHits: s.every, hitsAtLastSharpening: base, lastSharpenedAt: lastAt, active: true });
   }
 
   // Parts arrive when stock runs low (orders placed at the reorder level).

@@ -59,5 +59,6 @@ test('operator finds the stations on the home page of a phone', async ({ browser
   await expect(page.getByRole('button', { name: 'Log a change' })).toBeVisible();
   await expectAccessible(page, 'station on a phone');
   await snap(page, 'station-phone');
+  await page.screenshot({ path: 'tests/e2e/artifacts/station-phone-top.png' });
   await context.close();
 });

@@ -41,6 +41,14 @@ export function Component() {
       {s.torches.map((t) => (
         <TorchPanel key={t.id} torch={t} parts={s.partOptions} pitLimit={s.reference.pitLimitMm} canLog={can(me.role, 'consumables.log')} />
       ))}
+      {s.tools.length ? (
+        <Panel title="Punch tools">
+          <ToolsSummary tools={s.tools} />
+        </Panel>
+      ) : null}
+      <Panel title="Latest counters">
+        <MetersTable meters={s.meters} />
+      </Panel>
       {s.torches.length ? (
         <Panel title="Cut quality">
           <div className="space-y-4">
@@ -52,18 +60,10 @@ export function Component() {
                 </div>
               </details>
             ) : null}
-            <CutChecksTable machineId={s.machine.id} />
+            <CutChecksTable machineId={s.machine.id} pageSize={5} />
           </div>
         </Panel>
       ) : null}
-      {s.tools.length ? (
-        <Panel title="Punch tools">
-          <ToolsSummary tools={s.tools} />
-        </Panel>
-      ) : null}
-      <Panel title="Latest counters">
-        <MetersTable meters={s.meters} />
-      </Panel>
       <Panel title="Recent changes">
         <RecentChanges rows={s.recentChanges} />
       </Panel>

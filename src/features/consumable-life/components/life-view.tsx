@@ -65,7 +65,7 @@ export function LifeView({ filters }: { filters: LifeFilters }) {
                   <XAxis dataKey="label" stroke="#38434e" angle={-30} textAnchor="end" height={50} interval={0} fontSize={12} />
                   <YAxis allowDecimals={false} stroke="#38434e" />
                   <Tooltip />
-                  <Legend />
+                  <Legend formatter={(v) => <span style={{ color: '#1e2730' }}>{v}</span>} />
                   <Bar dataKey="failures" name="Worn out" stackId="a" fill="#38434e" isAnimationActive={false} />
                   <Bar dataKey="suspensions" name="Suspension" stackId="a" fill="#a9b4bf" isAnimationActive={false} />
                 </BarChart>

@@ -18,9 +18,8 @@ const columns = [
   col.accessor('by', { header: 'By', enableSorting: false, cell: (c) => c.getValue() ?? '—' }),
 ];
 
-export function CutChecksTable({ machineId }: { machineId: string }) {
+export function CutChecksTable({ machineId, pageSize = 10 }: { machineId: string; pageSize?: number }) {
   const [page, setPage] = useState(1);
-  const pageSize = 10;
   const q = useCutChecks({ machineId, page, pageSize });
   if (q.isError) return <Notice tone="danger">{q.error.message}</Notice>;
   return (

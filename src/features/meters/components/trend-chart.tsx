@@ -5,6 +5,7 @@ import { formatValue } from './format';
 
 const day = new Intl.DateTimeFormat(undefined, { month: 'short', day: 'numeric' });
 const full = new Intl.DateTimeFormat(undefined, { dateStyle: 'medium', timeStyle: 'short' });
+const num = new Intl.NumberFormat(undefined, { maximumFractionDigits: 1 });
 
 /** Readings over time; condition meters show their limits as dashed red lines. */
 export function TrendChart({ meterId, days = 365 }: { meterId: string; days?: number }) {
@@ -21,7 +22,7 @@ export function TrendChart({ meterId, days = 365 }: { meterId: string; days?: nu
           <LineChart data={data} margin={{ top: 8, right: 16, bottom: 8, left: 8 }}>
             <CartesianGrid stroke="#cdd4db" strokeDasharray="3 3" />
             <XAxis dataKey="t" type="number" scale="time" domain={['dataMin', 'dataMax']} tickFormatter={(t) => day.format(new Date(t))} stroke="#38434e" />
-            <YAxis stroke="#38434e" width={72} tickFormatter={(v) => formatValue(v, meter.unit)} />
+            <YAxis stroke="#38434e" width={84} tickFormatter={(v) => num.format(v)} label={{ value: meter.unit, angle: -90, position: 'insideLeft', fill: '#38434e' }} />
             <Tooltip labelFormatter={(t) => full.format(new Date(Number(t)))} formatter={(v) => [formatValue(Number(v), meter.unit), meter.name]} />
             {meter.upperLimit !== null ? <ReferenceLine y={meter.upperLimit} stroke="#b91c1c" strokeDasharray="6 3" label={{ value: `Upper limit ${formatValue(meter.upperLimit, meter.unit)}`, fill: '#7f1212', position: 'insideTopLeft' }} /> : null}
             {meter.lowerLimit !== null ? <ReferenceLine y={meter.lowerLimit} stroke="#b91c1c" strokeDasharray="6 3" label={{ value: `Lower limit ${formatValue(meter.lowerLimit, meter.unit)}`, fill: '#7f1212', position: 'insideBottomLeft' }} /> : null}
