@@ -59,11 +59,18 @@ async function advanceFrom(em: EntityManager, meterId: string | undefined, start
 
 async function installedOn(em: EntityManager, torch: IMachine, meters: TorchMeters): Promise<InstalledPart[]> {
   const open = await em.find(ConsumableInstall, { torch: torch.id, removedAt: null }, { populate: ['partType'] });
+  if (open.length === 0) return [];
+  // One read per meter from the oldest installation still in the torch, shared by all parts.
+  const oldest = new Date(Math.min(...open.map((i) => i.installedAt.getTime())));
+  const startsReadings = meters.starts ? await readingsSince(em, meters.starts.id, oldest) : [];
+  const hoursReadings = meters.arcHours ? await readingsSince(em, meters.arcHours.id, oldest) : [];
+  const since = (list: typeof startsReadings, has: boolean, start: number | null | undefined, from: Date) =>
+    !has || start === null || start === undefined ? null : advanceSince(start, list.filter((r) => r.at > from));
   const out: InstalledPart[] = [];
   for (const i of open) {
     const p = i.partType.getEntity();
-    const startsSince = await advanceFrom(em, meters.starts?.id, i.startsAtInstall, i.installedAt);
-    const arcHoursSince = await advanceFrom(em, meters.arcHours?.id, i.arcHoursAtInstall, i.installedAt);
+    const startsSince = since(startsReadings, !!meters.starts, i.startsAtInstall, i.installedAt);
+    const arcHoursSince = since(hoursReadings, !!meters.arcHours, i.arcHoursAtInstall, i.installedAt);
     const used = p.lifeUnit === 'starts' ? startsSince : p.lifeUnit === 'arc-hours' ? arcHoursSince : null;
     const expected = p.expectedLife ?? null;
     out.push({

@@ -10,20 +10,17 @@ import { recordAudit } from '../audit/audit';
 import { advanceSince } from '../../../shared/domain/meters';
 import type { PunchToolInput, PunchToolRow, SharpeningInput, SharpeningRow } from '../../../shared/schemas/punch-tools';
 
+type Reading = { at: Date; value: number; isReset: boolean };
+
 /** Hits since the last sharpening: the hits meter's advance since then (resets counted). */
-async function hitsSince(em: EntityManager, tool: IPunchTool): Promise<number | null> {
+function hitsSince(tool: IPunchTool, readings: Reading[], latest: number | null): number | null {
   const since = tool.lastSharpenedAt ?? tool.createdAt;
-  const readings = await readingsSince(em, tool.hitsMeter.id, since);
   const after = readings.filter((r) => r.at.getTime() > since.getTime());
-  if (after.length === 0) {
-    const latest = (await latestReadings(em, [tool.hitsMeter.id])).get(tool.hitsMeter.id);
-    return latest ? Math.max(0, latest.value - tool.hitsAtLastSharpening) : null;
-  }
+  if (after.length === 0) return latest === null ? null : Math.max(0, latest - tool.hitsAtLastSharpening);
   return advanceSince(tool.hitsAtLastSharpening, after);
 }
 
-async function toRow(em: EntityManager, t: IPunchTool, sharpenings: number): Promise<PunchToolRow> {
-  const hits = await hitsSince(em, t);
+function toRow(t: IPunchTool, hits: number | null, sharpenings: number): PunchToolRow {
   const fraction = hits === null ? null : hits / t.sharpeningIntervalHits;
   return {
     id: t.id,
@@ -50,9 +47,15 @@ export async function listTools(em: EntityManager, q: { machineIds?: string[]; i
     ? await em.execute('select tool_id, count(*) as n from tool_sharpening where tool_id = any(?::uuid[]) group by tool_id', [`{${tools.map((t) => t.id).join(',')}}`])
     : [];
   const byTool = new Map(counts.map((c) => [c.tool_id, Number(c.n)]));
-  const rows: PunchToolRow[] = [];
-  for (const t of tools) rows.push(await toRow(em, t, byTool.get(t.id) ?? 0));
-  return rows;
+  // One read per hits meter, from the oldest sharpening among its tools.
+  const meterIds = [...new Set(tools.map((t) => t.hitsMeter.id))];
+  const latest = await latestReadings(em, meterIds);
+  const readings = new Map<string, Reading[]>();
+  for (const id of meterIds) {
+    const from = new Date(Math.min(...tools.filter((t) => t.hitsMeter.id === id).map((t) => (t.lastSharpenedAt ?? t.createdAt).getTime())));
+    readings.set(id, await readingsSince(em, id, from));
+  }
+  return tools.map((t) => toRow(t, hitsSince(t, readings.get(t.hitsMeter.id)!, latest.get(t.hitsMeter.id)?.value ?? null), byTool.get(t.id) ?? 0));
 }
 
 export async function createTool(em: EntityManager, who: Principal, input: PunchToolInput): Promise<{ id: string }> {
