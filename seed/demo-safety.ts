@@ -66,6 +66,27 @@ function tableContent(m: IMachine): ProcedureContent {
   };
 }
 
+function brakeContent(m: IMachine): ProcedureContent {
+  return {
+    title: `Energy isolation of ${m.name}`,
+    scope: 'Tool changes, back-gauge work and anything between the beams.',
+    sources: [
+      src({ key: 'E1', kind: 'electrical', description: 'Main supply, pump and back-gauge drives', magnitude: '480 V 3-phase, 40 A', isolationDevice: 'Main disconnect Q1', location: 'Control cabinet, right side', relieveMethod: 'Wait 3 minutes for the drive capacitors', verifyMethod: 'Try start and jog from the pedal; test at Q1 outgoing side' }),
+      src({ key: 'H1', kind: 'hydraulic', description: 'Ram cylinders', magnitude: '280 bar', isolationDevice: 'Pump runs from E1; ram valve block', location: 'Tank on the upper frame', relieveMethod: 'Lower the ram onto the wooden blocks so no pressure holds it', verifyMethod: 'Pressure gauge on the valve block reads 0 bar' }),
+      src({ key: 'G1', kind: 'gravity', description: 'Upper beam (ram)', magnitude: 'About 900 kg', isolationDevice: 'Two hardwood blocks under the ram', location: 'Between the beams, left and right', relieveMethod: 'Lower the ram onto both blocks', verifyMethod: 'Both blocks seated; ram resting on them' }),
+    ],
+    steps: {
+      prepare: ['Tell the operator the brake will be locked out.'],
+      shutdown: ['Finish the bend, open the ram to tool-change height, stop the pump.'],
+      isolate: ['Place both blocks, lower the ram onto them, then open Q1.'],
+      apply: ['Put your own lock and tag on Q1; tag the blocks.'],
+      relieve: ['Check the ram rests on the blocks and the gauge reads 0 bar.'],
+      verify: ['Try to start the pump and press the pedal; nothing may move.'],
+    },
+    release: ['Remove tools, check the dies are clamped.', 'Make sure everyone is clear of the beams.', 'Tell the operator; remove your own lock, then the blocks.'],
+  };
+}
+
 function hydraulicContent(m: IMachine): ProcedureContent {
   return {
     title: `Energy isolation of ${m.name}`,
@@ -117,6 +138,7 @@ export const seedSafetyDemo: SeedStep = async (rootEm, shop) => {
   const cells = machines.filter((m) => m.kind === 'punch-plasma-cell');
   const table = machines.find((m) => m.kind === 'plasma-table');
   const hyd = machines.find((m) => m.kind === 'hydraulic-unit');
+  const brake = machines.find((m) => m.kind === 'press-brake');
   const fume = machines.find((m) => m.kind === 'fume-extractor');
   if (cells.length === 0 && !table) return; // no demo machines: nothing to attach safety records to
 
@@ -145,6 +167,7 @@ export const seedSafetyDemo: SeedStep = async (rootEm, shop) => {
     const plans: { m: IMachine; content: ProcedureContent; approvedDaysAgo: number; v2?: { content: ProcedureContent; daysAgo: number } }[] = [];
     cells.forEach((m, i) => plans.push({ m, content: cellContent(m), approvedDaysAgo: 330 - i * 5, ...(i === 0 ? { v2: { content: cellContent(m, 'Check the V7 valve cover is closed and locked after relieving.'), daysAgo: 90 } } : {}) }));
     if (table) plans.push({ m: table, content: tableContent(table), approvedDaysAgo: 320 });
+    if (brake) plans.push({ m: brake, content: brakeContent(brake), approvedDaysAgo: 318 });
     if (hyd) plans.push({ m: hyd, content: hydraulicContent(hyd), approvedDaysAgo: 315 });
     if (fume) plans.push({ m: fume, content: extractorContent(fume), approvedDaysAgo: 300 });
     const procs = new Map<string, string>();
@@ -234,24 +257,25 @@ export const seedSafetyDemo: SeedStep = async (rootEm, shop) => {
         },
       });
     };
-    const rota = [...cells, table, hyd, fume].filter((m): m is IMachine => !!m);
+    const rota = [...cells, table, brake, hyd, fume].filter((m): m is IMachine => !!m);
     const reasons = ['Change punch station tooling', 'Replace torch lead', 'Change hydraulic return filter', 'Change extractor cartridges', 'Replace clamp pads', 'Clean and re-level slats', 'Swap ball-screw wiper'];
     for (let i = 0, d = 290; d > 5; i++, d -= 20) lockout(rota[i % rota.length], d, reasons[i % reasons.length], { group: i % 5 === 2 });
     if (hyd) lockout(hyd, 0, 'Hose replacement in progress', { open: true });
 
-    // PPE requirements and the last two weeks of shift checks (a few missed).
+    // PPE requirements and ten weeks of shift checks (a few missed).
     const reqs: { m: IMachine; task: string; items: PpeItem[]; arc: number | null; noise: { levelDbA: number; hours: number }[] }[] = [];
     for (const c of cells) {
       reqs.push({ m: c, task: 'Plasma cutting and punching', items: ['safety-glasses', 'cut-resistant-gloves', 'safety-footwear'], arc: 130, noise: [{ levelDbA: 91, hours: 5 }, { levelDbA: 84, hours: 3 }] });
     }
-    if (table) reqs.push({ m: table, task: 'Plasma cutting', items: ['safety-glasses', 'cutting-gauntlets', 'safety-footwear', 'flame-resistant-clothing'], arc: 260, noise: [{ levelDbA: 88, hours: 6 }] });
+    if (table) reqs.push({ m: table, task: 'Plasma cutting', items: ['safety-glasses', 'cutting-gauntlets', 'safety-footwear', 'flame-resistant-clothing'], arc: 80, noise: [{ levelDbA: 88, hours: 6 }] });
+    if (brake) reqs.push({ m: brake, task: 'Bending', items: ['safety-glasses', 'cut-resistant-gloves', 'safety-footwear'], arc: null, noise: [{ levelDbA: 83, hours: 8 }] });
     if (hyd) reqs.push({ m: hyd, task: 'Hydraulic maintenance', items: ['safety-glasses', 'safety-footwear'], arc: null, noise: [] });
-    const reqAt = day(40, 8);
+    const reqAt = day(71, 5);
     for (const r of reqs) {
       const req = tx.create(PpeRequirement, { organization: shop.id, machine: r.m, task: r.task, items: r.items, otherItems: [], arcCurrentA: r.arc, noise: r.noise, cadence: r.m.kind === 'hydraulic-unit' ? 'none' : 'shift', active: true, createdAt: reqAt });
       if (req.cadence === 'none') continue;
       const derived = deriveRequiredItems({ items: r.items, otherItems: [], arcCurrentA: r.arc, noise: r.noise }, { shadeTable: null, hearingRequiredFromDbA: DEFAULT_SAFETY_SETTINGS.hearingRequiredFromDbA, hearingRuleSource: DEFAULT_SAFETY_SETTINGS.hearingRuleSource });
-      for (let d = 14; d >= 1; d--) {
+      for (let d = 70; d >= 1; d--) {
         const wd = DateTime.fromJSDate(day(d, 6), { zone: tz }).weekday;
         if (wd > 5) continue;
         for (const hour of [6, 14]) {

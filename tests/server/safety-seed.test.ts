@@ -25,6 +25,7 @@ describe('demo safety seed', () => {
       ['C1', 'punch-plasma-cell', 'Cell 1'],
       ['C2', 'punch-plasma-cell', 'Cell 2'],
       ['PT1', 'plasma-table', 'Plasma table'],
+      ['B1', 'press-brake', 'Press brake'],
       ['HU1', 'hydraulic-unit', 'Hydraulic unit'],
       ['FX1', 'fume-extractor', 'Fume extractor'],
     ] as const) {
@@ -38,6 +39,7 @@ describe('demo safety seed', () => {
     expect(v.body.total).toBeGreaterThan(100);
     const procs = (await get(s, '/safety/procedures').expect(200)).body as { machineCode: string; currentVersion: number }[];
     expect(procs.map((p) => [p.machineCode, p.currentVersion])).toEqual([
+      ['B1', 1],
       ['C1', 2],
       ['C2', 1],
       ['FX1', 1],

@@ -244,7 +244,7 @@ type Inputs = Awaited<ReturnType<typeof loadInputs>>;
 async function loadInputs(em: EntityManager, orgId: string) {
   const { org, tz } = await shopZone(em, orgId);
   const settings = safetySettingsOf(org);
-  const machines = await em.find(Machine, { active: true }, { orderBy: { code: 'asc' } });
+  const machines = await em.find(Machine, { active: true, parent: null }, { orderBy: { code: 'asc' } });
   const procs = await em.find(EnergyProcedure, {});
   const versions = await em.find(ProcedureVersion, { status: { $in: ['approved', 'superseded'] } }, { orderBy: { version: 'asc' } });
   const inspections = await em.find(PeriodicInspection, { certifiedAt: { $ne: null } }, { orderBy: { inspectedOn: 'asc' } });

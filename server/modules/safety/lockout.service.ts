@@ -371,6 +371,9 @@ export async function getLockout(em: EntityManager, who: Principal, id: string):
   const members = await em.find(LockoutMember, { session: id }, { populate: ['user'], orderBy: { joinedAt: 'asc' } });
   const signOffs = await em.find(SafetySignOff, { subjectId: id }, { orderBy: { seq: 'asc' } });
   const sources = session.procedureVersion.getEntity().content.sources;
+  // Points in the procedure's order (as on the placard), the newest device of each point first.
+  const order = (k: string) => sources.findIndex((x) => x.key === k);
+  points.sort((a, b) => order(a.sourceKey) - order(b.sourceKey) || Number(a.removedAt !== null) - Number(b.removedAt !== null));
   return {
     ...toRow(r),
     procedureId: r.procedure_id,
@@ -402,7 +405,8 @@ export async function getLockout(em: EntityManager, who: Principal, id: string):
 
 /** Machines with what the safety screens need: procedure and open lockouts. */
 export async function safetyMachines(em: EntityManager, who: Principal) {
-  const machines = await em.find(Machine, { active: true }, { orderBy: { code: 'asc' } });
+  // Whole machines only: procedures and lockouts are per machine, not per component.
+  const machines = await em.find(Machine, { active: true, parent: null }, { orderBy: { code: 'asc' } });
   const procs = await em.getConnection().execute<{ id: string; machine_id: string; title: string; version: number | null }[]>(
     `select p.id, p.machine_id, p.title, (select max(v.version) from safety_procedure_version v where v.procedure_id = p.id and v.status = 'approved') as version
        from safety_procedure p where p.organization_id = ? order by p.title`,

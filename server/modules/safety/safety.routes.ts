@@ -69,7 +69,7 @@ export function registerSafetyRoutes(r: ApiRouter, config: Config) {
   route(r, 'get', '/safety/people', { access: 'safety.read' }, async (req, res) => void res.json(await safetyPeople(em(), who(req))));
   route(r, 'get', '/safety/settings', { access: 'safety.read' }, async (req, res) => void res.json(settingsView((await loadSafetySettings(em(), who(req).orgId)).settings)));
   route(r, 'put', '/safety/settings', { access: 'safety.settings.manage', body: safetySettingsSchema }, async (req, res) => void res.json(settingsView(await saveSafetySettings(em(), who(req), res.locals.body))));
-  route(r, 'get', '/safety/tasks', { access: 'safety.read' }, async (_req, res) => void res.json(await listSafetyTasks(em())));
+  route(r, 'get', '/safety/tasks', { access: 'safety.read' }, async (req, res) => void res.json(await listSafetyTasks(em(), who(req).orgId)));
 
   // Energy-control procedures.
   route(r, 'get', '/safety/procedures', { access: 'safety.read' }, async (req, res) => void res.json(await listProcedures(em(), who(req))));

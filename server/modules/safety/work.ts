@@ -1,5 +1,6 @@
 import type { EntityManager, MikroORM } from '@mikro-orm/postgresql';
 import { Organization } from '../organizations/organization.entity';
+import { Machine } from '../machines/machine.entity';
 import { EnergyProcedure, ProcedureVersion } from './procedure.entity';
 import { PeriodicInspection, PpeCheck, PpeRequirement, SafetyTask, TrainingRecord, type ISafetyTask } from './records.entity';
 import { safetySettingsOf } from './settings';
@@ -147,9 +148,27 @@ export async function runSafetyDue(orm: MikroORM, now: Date): Promise<Record<str
 
 export const safetyDueStep: JobStep = { name: 'safety-due', run: runSafetyDue };
 
-export async function listSafetyTasks(em: EntityManager): Promise<SafetyTaskRow[]> {
-  const rows = await em.find(SafetyTask, { status: { $in: ['due', 'overdue'] } }, { populate: ['machine'], orderBy: { dueAt: 'asc' } });
-  return rows
-    .map((t) => ({ id: t.id, kind: t.kind, title: t.title, machineCode: t.machine?.getEntity().code ?? null, dueAt: t.dueAt ? t.dueAt.toISOString() : null, status: t.status as 'due' | 'overdue', raisedAt: t.raisedAt.toISOString() }))
-    .sort((a, b) => Number(b.status === 'overdue') - Number(a.status === 'overdue'));
+/**
+ * What is due right now, evaluated live (so the list is current between scheduled passes),
+ * with the raised time of the stored task where the pass has raised it already.
+ */
+export async function listSafetyTasks(em: EntityManager, orgId: string, now = new Date()): Promise<SafetyTaskRow[]> {
+  const current = await currentSafetyWork(em, orgId, now);
+  const stored = await em.find(SafetyTask, { status: { $in: ['due', 'overdue'] } });
+  const ids = [...new Set(current.map((o) => o.machineId).filter((x): x is string => !!x))];
+  const machines = ids.length ? await em.find(Machine, { id: { $in: ids } }) : [];
+  return current
+    .map((o) => {
+      const t = stored.find((x) => x.kind === o.kind && x.occurrenceKey === o.key);
+      return {
+        id: t?.id ?? `${o.kind}:${o.key}`,
+        kind: o.kind,
+        title: o.title,
+        machineCode: machines.find((m) => m.id === o.machineId)?.code ?? null,
+        dueAt: o.dueAt ? o.dueAt.toISOString() : null,
+        status: o.status,
+        raisedAt: (t?.raisedAt ?? now).toISOString(),
+      };
+    })
+    .sort((a, b) => Number(b.status === 'overdue') - Number(a.status === 'overdue') || (a.dueAt ?? '').localeCompare(b.dueAt ?? ''));
 }

@@ -16,6 +16,7 @@ import { useSafetyMachines } from '../api/get-safety-machines';
 import { useProcedure } from '../api/get-procedure';
 import { useApplyLockout } from '../api/apply-lockout';
 import { useSignFlow } from './sign-dialog';
+import { useLinkedWorkOrder } from '../api/get-linked-work-order';
 
 type FormIn = z.input<typeof applyLockoutFormSchema>;
 type FormOut = z.output<typeof applyLockoutFormSchema>;
@@ -32,6 +33,7 @@ export function LockoutApplyForm({ signer, initialMachineId, workOrderId }: { si
   const navigate = useNavigate();
   const apply = useApplyLockout();
   const { sign, dialog } = useSignFlow(signer);
+  const wo = useLinkedWorkOrder(workOrderId);
   const [formError, setFormError] = useState<string | null>(null);
   const { register, control, handleSubmit, setError, watch, setValue, formState } = useForm<FormIn, unknown, FormOut>({
     resolver: zodResolver(applyLockoutFormSchema),
@@ -75,6 +77,7 @@ export function LockoutApplyForm({ signer, initialMachineId, workOrderId }: { si
   });
 
   return (
+    <>
     <form onSubmit={onSubmit} noValidate aria-label="Apply a lockout" className="space-y-4">
       {formError ? (
         <Notice tone="danger" role="alert">
@@ -104,7 +107,11 @@ export function LockoutApplyForm({ signer, initialMachineId, workOrderId }: { si
               <strong>Group lockout</strong> — others will add their personal locks
             </span>
           </label>
-          {workOrderId ? <p className="text-sm text-steel-700 md:col-span-2">Linked to work order {workOrderId.slice(0, 8)}: the work order can close only after this lockout is released.</p> : null}
+          {workOrderId ? (
+            <p className="text-sm text-steel-700 md:col-span-2">
+              For {wo.data ? `WO ${wo.data.number} “${wo.data.title}”` : 'the work order you came from'}: it can be signed off only after this lockout is released.
+            </p>
+          ) : null}
         </div>
         {machine && !approved.length ? (
           <div className="mt-3">
@@ -159,7 +166,7 @@ export function LockoutApplyForm({ signer, initialMachineId, workOrderId }: { si
                       <p className="text-steel-600">{s?.magnitude}</p>
                     </div>
                     <SelectField label={`Device on ${f.sourceKey}`} options={LOCK_DEVICES.map((d) => ({ value: d, label: LOCK_DEVICE_LABELS[d] }))} {...register(`points.${i}.device`)} />
-                    <TextField label={`Lock no. on ${f.sourceKey}`} autoComplete="off" error={err?.lockNumber?.message} {...register(`points.${i}.lockNumber`)} />
+                    <TextField label={`Lock or tag no. on ${f.sourceKey}`} autoComplete="off" error={err?.lockNumber?.message} {...register(`points.${i}.lockNumber`)} />
                     <TextField label={`Tag no. (optional)`} autoComplete="off" error={err?.tagNumber?.message} {...register(`points.${i}.tagNumber`)} />
                   </fieldset>
                 );
@@ -173,7 +180,8 @@ export function LockoutApplyForm({ signer, initialMachineId, workOrderId }: { si
           </div>
         </>
       ) : null}
-      {dialog}
     </form>
+    {dialog}
+    </>
   );
 }

@@ -20,6 +20,7 @@ import { useOfferHandover } from '../api/offer-handover';
 import { useAcceptHandover } from '../api/accept-handover';
 import { useReleaseLockout } from '../api/release-lockout';
 import { useSignFlow } from './sign-dialog';
+import { useLinkedWorkOrder } from '../api/get-linked-work-order';
 import { LockoutStateBadge } from './badges';
 import { fmtDateTime } from './format';
 
@@ -42,6 +43,7 @@ export function LockoutDetailView({ lockout: l, me, timeZone }: { lockout: Locko
   const { sign, dialog } = useSignFlow({ name: me.name, role: me.role });
   const [message, setMessage] = useState<{ tone: 'safe' | 'danger'; text: string } | null>(null);
   const procedure = useProcedure(l.procedureId, l.procedureVersion);
+  const wo = useLinkedWorkOrder(l.workOrderId);
   const content = procedure.data?.current?.content;
   const people = useSafetyPeople();
   const verify = useVerifyLockout();
@@ -90,7 +92,14 @@ export function LockoutDetailView({ lockout: l, me, timeZone }: { lockout: Locko
           </Link>{' '}
           · held by <strong>{l.primaryName}</strong> · applied {fmtDateTime(l.appliedAt, timeZone)}
           {l.group ? ' · group lockout' : ''}
-          {l.workOrderId ? ` · work order ${l.workOrderId.slice(0, 8)}` : ''}
+          {l.workOrderId ? (
+            <>
+              {' · for '}
+              <Link className="font-semibold underline" to={paths.workOrder.getHref(l.workOrderId)}>
+                {wo.data ? `WO ${wo.data.number}` : 'its work order'}
+              </Link>
+            </>
+          ) : null}
         </span>
       </div>
       {message ? (

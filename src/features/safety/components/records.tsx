@@ -51,6 +51,7 @@ function InspectionForm({ me, timeZone, onDone }: { me: Me; timeZone: string; on
     ),
   );
   return (
+    <>
     <form onSubmit={submit} noValidate aria-label="Record a periodic inspection" className="space-y-3">
       {formError ? <Notice tone="danger" role="alert">{formError}</Notice> : null}
       <p className="text-sm text-steel-700">
@@ -89,8 +90,9 @@ function InspectionForm({ me, timeZone, onDone }: { me: Me; timeZone: string; on
       </label>
       {e.responsibilitiesReviewed?.message ? <p role="alert" className="text-sm font-semibold text-danger">{e.responsibilitiesReviewed.message}</p> : null}
       <Button type="submit">Sign: inspection performed</Button>
-      {dialog}
     </form>
+    {dialog}
+    </>
   );
 }
 
@@ -117,6 +119,7 @@ function TrainingForm({ me, timeZone, onDone }: { me: Me; timeZone: string; onDo
     ),
   );
   return (
+    <>
     <form onSubmit={submit} noValidate aria-label="Record training" className="space-y-3">
       {formError ? <Notice tone="danger" role="alert">{formError}</Notice> : null}
       <div className="grid gap-3 md:grid-cols-2">
@@ -127,8 +130,9 @@ function TrainingForm({ me, timeZone, onDone }: { me: Me; timeZone: string; onDo
         <TextField label="Note (optional)" error={e.note?.message} {...register('note')} />
       </div>
       <Button type="submit">Sign: training recorded</Button>
-      {dialog}
     </form>
+    {dialog}
+    </>
   );
 }
 

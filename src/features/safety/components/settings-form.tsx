@@ -122,7 +122,7 @@ export function SafetySettingsForm({ settings }: { settings: SafetySettingsView 
       <Panel title="Filter-lens shade for plasma cutting">
         <label className="mb-3 flex min-h-touch items-center gap-3">
           <input type="checkbox" className="h-6 w-6" {...register('siteShade')} />
-          Use the site’s own table instead of {settings.defaults.shadeSource}
+          Use the site’s own table instead of the OSHA 1910.133(a)(5) table below
         </label>
         {siteShade ? (
           <div className="space-y-3">
@@ -146,8 +146,9 @@ export function SafetySettingsForm({ settings }: { settings: SafetySettingsView 
             </Button>
           </div>
         ) : (
-          <table className="text-sm">
-            <caption className="text-left font-semibold">{PLASMA_ARC_CUTTING_SHADES.source}</caption>
+          <div>
+          <p className="mb-1 text-sm text-steel-700">In use: {PLASMA_ARC_CUTTING_SHADES.source}</p>
+          <table className="text-sm" aria-label="Plasma cutting shades in use">
             <thead>
               <tr>
                 <th className="pr-4 text-left">Band</th>
@@ -169,6 +170,7 @@ export function SafetySettingsForm({ settings }: { settings: SafetySettingsView 
               ))}
             </tbody>
           </table>
+          </div>
         )}
       </Panel>
       <Panel title="Shifts and inspections">

@@ -43,6 +43,8 @@ export function SignDialog({
 
   const submit = async (e: FormEvent) => {
     e.preventDefault();
+    // The dialog may sit inside a page's form in the React tree; its submit must not reach that form.
+    e.stopPropagation();
     if (!password) {
       setError('Enter your password to sign');
       return;

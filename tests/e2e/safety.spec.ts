@@ -1,0 +1,220 @@
+import { test, expect, type Page, type APIRequestContext } from '@playwright/test';
+import { execFileSync } from 'node:child_process';
+import { mkdtempSync, readFileSync, statSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import path from 'node:path';
+import { DEMO_PASSWORD, expectAccessible, signIn, snap } from './support';
+
+const TECH = 'Imani Oduya';
+const OPERATOR = 'Dario Fenwick';
+const SAFETY = 'Tomas Verhoek';
+
+/** JSON call with the session's CSRF token, as the app itself does. */
+async function apiCall(request: APIRequestContext, method: 'GET' | 'POST', url: string, data?: unknown) {
+  const { token } = await (await request.get('/api/auth/csrf')).json();
+  return request.fetch(`/api${url}`, { method, headers: { 'X-CSRF-Token': token }, data });
+}
+
+/** The signing dialog: a wrong password first (it must say so and sign nothing), then the right one. */
+async function signWith(page: Page, password = DEMO_PASSWORD) {
+  const dialog = page.getByRole('dialog');
+  await expect(dialog).toBeVisible();
+  await dialog.getByLabel('Your password').fill(password);
+  await dialog.getByRole('button', { name: 'Sign with my password' }).click();
+}
+
+test.describe.configure({ mode: 'serial' });
+
+let lockoutUrl = '';
+let workOrderId: string | null = null;
+
+test('a technician applies and verifies a lockout', async ({ page }) => {
+  await signIn(page, 'tech@alder-row.example');
+  const machines = (await (await page.request.get('/api/safety/machines')).json()) as { id: string; code: string; procedures: { approvedVersion: number | null }[] }[];
+  const c2 = machines.find((m) => m.code === 'C2');
+  expect(c2?.procedures[0]?.approvedVersion, 'the demo seed gives C2 an approved procedure').toBeTruthy();
+
+  // With the work-orders API present, the lockout protects a work order that needs one.
+  const raised = await apiCall(page.request, 'POST', '/work-orders', { machineId: c2!.id, title: 'Replace the clamp pads on C2', requiresLockout: true });
+  if (raised.status() === 201 || raised.status() === 200) {
+    workOrderId = (await raised.json()).id;
+    test.info().annotations.push({ type: 'work order', description: `linked to work order ${workOrderId}` });
+  } else {
+    test.info().annotations.push({ type: 'work order', description: `work-orders API answered ${raised.status()}; lockout tested without a work order` });
+  }
+
+  await page.goto(workOrderId ? `/safety/lockouts/new?machineId=${c2!.id}&workOrderId=${workOrderId}` : '/safety/lockouts/new');
+  await expect(page.getByRole('heading', { name: 'Lock out a machine' })).toBeVisible();
+  if (!workOrderId) await page.getByLabel('Machine', { exact: true }).selectOption(c2!.id);
+  await expect(page.getByLabel('Energy-control procedure')).toHaveValue(/.+/);
+  await page.getByLabel('Work to be done').fill('Replace the clamp pads');
+  const lockFields = page.getByLabel(/^Lock or tag no\. on /);
+  await expect(lockFields).toHaveCount(5); // E1, H1, P1, PL1, G1 in the demo procedure
+  // Sign without lock numbers: the form says which are missing and nothing opens.
+  await page.getByRole('button', { name: 'Sign: my locks are on' }).click();
+  await expect(page.getByText('Enter the lock number').first()).toBeVisible();
+  await expect(page.getByRole('dialog')).toBeHidden();
+  const n = await lockFields.count();
+  for (let i = 0; i < n; i++) await lockFields.nth(i).fill(`E2E-${i + 1}`);
+  await expectAccessible(page, 'lockout apply form');
+  await snap(page, 'safety-lockout-apply');
+  await page.getByRole('button', { name: 'Sign: my locks are on' }).click();
+  await signWith(page, 'not the password');
+  await expect(page.getByRole('dialog').getByRole('alert')).toHaveText('Wrong password: nothing was signed');
+  await signWith(page);
+  await expect(page.getByRole('heading', { name: /^Lockout of C2/ })).toBeVisible();
+  await expect(page.getByText('Locks on, isolation not yet verified')).toBeVisible();
+  lockoutUrl = page.url();
+
+  // Verify: try-start and every point ticked before the button works.
+  const verify = page.getByRole('button', { name: 'Sign: zero energy verified' });
+  await expect(verify).toBeDisabled();
+  await page.getByLabel('I tried to start the machine with its normal controls; it did not start').check();
+  for (const key of ['E1', 'H1', 'P1', 'PL1', 'G1']) await page.getByLabel(new RegExp(`^${key} · .*: zero energy`)).check();
+  await verify.click();
+  await signWith(page);
+  await expect(page.getByText('Locked out: do not operate')).toBeVisible();
+  await expect(page.getByText(`#`).filter({ hasText: 'Zero energy verified' })).toBeVisible();
+  await expectAccessible(page, 'lockout detail');
+  await snap(page, 'safety-lockout-verified');
+
+  if (workOrderId) {
+    // The work order cannot be closed while its lockout is on.
+    await apiCall(page.request, 'POST', `/work-orders/${workOrderId}/move`, { move: 'start' });
+    const early = await apiCall(page.request, 'POST', `/work-orders/${workOrderId}/close`, { labourMinutes: 30 });
+    expect(early.status()).toBe(409);
+    expect((await early.json()).message).toMatch(/lockout .* not been released/);
+  }
+});
+
+test('an operator does the shift PPE check on a tablet', async ({ browser }) => {
+  const context = await browser.newContext({ viewport: { width: 800, height: 1280 }, hasTouch: true });
+  const page = await context.newPage();
+  await signIn(page, 'operator@alder-row.example');
+  await page.getByRole('link', { name: 'PPE check' }).first().click();
+  await expect(page.getByRole('heading', { name: 'PPE check' })).toBeVisible();
+  await page.getByRole('button', { name: /^C1/ }).tap();
+  const sign = page.getByRole('button', { name: 'Sign: PPE check done' });
+  await expect(sign).toBeDisabled();
+  await expect(page.getByText('Do not start yet')).toBeVisible();
+  // Filter lens at 130 A: OSHA 29 CFR 1910.133(a)(5) minimum shade 8.
+  await expect(page.getByText('Shade 8 or darker at 130 A (suggested 9)')).toBeVisible();
+  const items = page.getByRole('button', { pressed: false }).filter({ hasText: 'Put on' });
+  const count = await items.count();
+  expect(count).toBeGreaterThanOrEqual(4);
+  for (let i = 0; i < count; i++) await page.getByRole('button', { pressed: false }).filter({ hasText: 'Put on' }).first().tap();
+  await expect(page.getByText('Everything on')).toBeVisible();
+  await expectAccessible(page, 'PPE check (tablet)');
+  await snap(page, 'safety-ppe-check-tablet');
+  await sign.tap();
+  await signWith(page);
+  await expect(page.getByText('PPE check signed')).toBeVisible();
+
+  // Plasma cutting done: a fire watch for the time the site's rule sets (OSHA 1910.252(a)(2)(iii)(B): 30 min).
+  await page.goto('/safety/hot-work');
+  await page.getByLabel('Machine').selectOption({ label: 'P1 · Plasma table' });
+  await page.getByRole('button', { name: 'Sign: start fire watch' }).tap();
+  await signWith(page);
+  await expect(page.getByText(/Fire watch started: stay until/)).toBeVisible();
+  const watch = page.getByRole('article', { name: 'Fire watch at P1' });
+  await expect(watch.getByRole('timer')).toHaveText(/^(30:00|29:\d\d)$/);
+  await expect(watch.getByRole('button', { name: 'Sign: watch ended, no fire found' })).toBeDisabled();
+  await expectAccessible(page, 'fire watch (tablet)');
+  await snap(page, 'safety-fire-watch-tablet');
+  await context.close();
+});
+
+test('the technician releases the lockout and closes the work order', async ({ page }) => {
+  await signIn(page, 'tech@alder-row.example');
+  await page.goto(lockoutUrl);
+  const release = page.getByRole('button', { name: 'Sign: release and remove my locks' });
+  await expect(release).toBeDisabled();
+  await page.getByLabel('Work area checked: tools removed, guards back, machine intact').check();
+  await page.getByLabel('Everyone is clear of the machine').check();
+  await page.getByLabel('Affected employees told the devices are coming off').check();
+  await release.click();
+  await signWith(page);
+  await expect(page.getByText('Released', { exact: true }).first()).toBeVisible();
+  await expect(page.getByText(/All devices were removed/)).toBeVisible();
+  await snap(page, 'safety-lockout-released');
+  if (workOrderId) {
+    const closed = await apiCall(page.request, 'POST', `/work-orders/${workOrderId}/close`, { labourMinutes: 45 });
+    expect(closed.status(), await closed.text()).toBeLessThan(300);
+    const wo = await (await page.request.get(`/api/work-orders/${workOrderId}`)).json();
+    expect(wo.status).toBe('done');
+  }
+});
+
+test('the safety officer filters the audit, verifies the chain and exports CSV and PDF', async ({ page }) => {
+  await signIn(page, 'safety@alder-row.example');
+  await page.getByRole('link', { name: 'Safety audit' }).click();
+  await expect(page.getByRole('heading', { name: 'Safety audit' })).toBeVisible();
+
+  await page.getByRole('button', { name: 'Verify the chain' }).click();
+  await expect(page.getByText('Chain verified', { exact: true })).toBeVisible();
+  await expect(page.getByText(/all \d+ signatures are intact and in order/)).toBeVisible();
+
+  const table = page.getByRole('table', { name: 'Safety signatures' });
+  await page.getByRole('combobox', { name: 'Person' }).selectOption({ label: TECH });
+  await page.getByRole('combobox', { name: 'Meaning' }).selectOption({ label: 'Lockout released' });
+  await expect(table.getByRole('row')).not.toHaveCount(1);
+  await expect(table.getByRole('cell', { name: TECH }).first()).toBeVisible();
+  await expect(table.getByText(/^C2: area checked, people clear, affected employees told; removed E1 lock E2E-1/)).toBeVisible();
+  await expectAccessible(page, 'safety audit');
+  await snap(page, 'safety-audit');
+
+  const dir = mkdtempSync(path.join(tmpdir(), 'kb-e2e-audit-'));
+  await page.getByRole('combobox', { name: 'Meaning' }).selectOption({ label: 'Any meaning' });
+  await page.getByRole('combobox', { name: 'Person' }).selectOption({ label: 'Everyone' });
+  const today = new Date().toISOString().slice(0, 10);
+  await page.getByLabel('From', { exact: true }).fill(new Date(Date.now() - 2 * 86_400_000).toISOString().slice(0, 10));
+  await page.getByLabel('To', { exact: true }).fill(today);
+
+  const [csvDownload] = await Promise.all([page.waitForEvent('download'), page.getByRole('link', { name: 'Export CSV' }).click()]);
+  const csvPath = path.join(dir, 'audit.csv');
+  await csvDownload.saveAs(csvPath);
+  const csv = readFileSync(csvPath, 'utf8');
+  expect(csv).toContain('printed_name');
+  for (const name of [TECH, OPERATOR]) expect(csv).toContain(name);
+  expect(csv).toContain('Locks applied');
+  expect(csv).not.toContain('ALTERED');
+
+  const [pdfDownload] = await Promise.all([page.waitForEvent('download'), page.getByRole('link', { name: 'Export PDF' }).click()]);
+  const pdfPath = path.join(dir, 'audit.pdf');
+  await pdfDownload.saveAs(pdfPath);
+  execFileSync('pdftoppm', ['-png', '-r', '60', '-f', '1', '-l', '1', pdfPath, path.join(dir, 'audit')]);
+  const png = path.join(dir, 'audit-1.png');
+  expect(statSync(png).size).toBeGreaterThan(20_000);
+  const text = execFileSync('pdftotext', [pdfPath, '-'], { encoding: 'utf8' }).replace(/\s+/g, ' ');
+  expect(text.toLowerCase()).toContain('chain verified');
+  for (const name of [TECH, OPERATOR]) expect(text).toContain(name);
+  execFileSync('cp', [png, 'tests/e2e/artifacts/safety-audit-pdf.png']);
+  expect(SAFETY).toBeTruthy();
+});
+
+test('the safety screens read well and pass the accessibility scan', async ({ page }) => {
+  await signIn(page, 'safety@alder-row.example');
+  const screens: [string, string, RegExp][] = [
+    ['/safety', 'safety-hub', /Safety log/],
+    ['/safety/procedures', 'safety-procedures', /Energy-control procedures/],
+    ['/safety/ppe/requirements', 'safety-ppe-requirements', /PPE requirements/],
+    ['/safety/records', 'safety-records', /Inspections and training/],
+    ['/safety/hot-work', 'safety-hot-work', /Fire watch/],
+    ['/safety/settings', 'safety-settings', /Site safety settings/],
+    ['/safety/lockouts', 'safety-lockouts', /^Lockouts$/],
+  ];
+  for (const [url, name, heading] of screens) {
+    await page.goto(url);
+    await expect(page.getByRole('heading', { level: 1, name: heading })).toBeVisible();
+    await page.waitForLoadState('networkidle');
+    await expectAccessible(page, name);
+    await snap(page, name);
+  }
+  await page.goto('/safety/procedures');
+  await page.getByRole('link', { name: /Full energy isolation of Punch\/plasma cell 1/ }).click();
+  await expect(page.getByText('Apply energy control — in this order')).toBeVisible();
+  await expectAccessible(page, 'procedure');
+  await snap(page, 'safety-procedure');
+  const placard = await page.request.get(await page.getByRole('link', { name: 'Print placard (PDF)' }).getAttribute('href').then((h) => h!));
+  expect(placard.headers()['content-type']).toBe('application/pdf');
+});
