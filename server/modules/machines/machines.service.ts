@@ -57,7 +57,12 @@ export async function getMachine(em: EntityManager, who: Principal, id: string):
   let grew = true;
   while (grew) {
     grew = false;
-    for (const r of rows) if (r.parentId && sub.has(r.parentId) && !sub.has(r.id)) (sub.add(r.id), (grew = true));
+    for (const r of rows) {
+      if (r.parentId && sub.has(r.parentId) && !sub.has(r.id)) {
+        sub.add(r.id);
+        grew = true;
+      }
+    }
   }
   const subtree = rows.filter((r) => sub.has(r.id)).map((r) => (r.id === machine.id ? { ...r, parentId: null } : r));
   const ordered = treeOrder(subtree);
@@ -159,7 +164,12 @@ export function subtreeIds(all: Pick<IMachine, 'id' | 'parent'>[], rootId: strin
   const ids = new Set([rootId]);
   for (let grew = true; grew; ) {
     grew = false;
-    for (const m of all) if (m.parent && ids.has(m.parent.id) && !ids.has(m.id)) (ids.add(m.id), (grew = true));
+    for (const m of all) {
+      if (m.parent && ids.has(m.parent.id) && !ids.has(m.id)) {
+        ids.add(m.id);
+        grew = true;
+      }
+    }
   }
   return [...ids];
 }
