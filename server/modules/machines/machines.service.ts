@@ -53,17 +53,7 @@ export async function getMachine(em: EntityManager, who: Principal, id: string):
   const counts = await meterCounts(em, who.orgId);
   const rows = all.map((m) => toRow(m, counts.get(m.id) ?? 0));
   // Components: the subtree under this machine, in tree order, depth relative to it.
-  const sub = new Set<string>([machine.id]);
-  let grew = true;
-  while (grew) {
-    grew = false;
-    for (const r of rows) {
-      if (r.parentId && sub.has(r.parentId) && !sub.has(r.id)) {
-        sub.add(r.id);
-        grew = true;
-      }
-    }
-  }
+  const sub = new Set(subtreeIds(all, machine.id));
   const subtree = rows.filter((r) => sub.has(r.id)).map((r) => (r.id === machine.id ? { ...r, parentId: null } : r));
   const ordered = treeOrder(subtree);
   const self = ordered[0];
