@@ -12,6 +12,7 @@ import { MetersTable } from '../../features/meters/components/meters-table';
 import { MeterForm } from '../../features/meters/components/meter-form';
 import { ToolsTable } from '../../features/punch-tools/components/tools-table';
 import { ToolForm } from '../../features/punch-tools/components/tool-form';
+import { ChangesHistory } from '../../features/station/components/recent-changes';
 import { useMe } from '../../features/auth/api/get-me';
 import { queryClient } from '../../lib/query-client';
 import { can } from '../../../shared/permissions';
@@ -84,6 +85,11 @@ export function Component() {
               <div className="mt-3"><ToolForm machineId={heads[0].id} hitMeters={hitMeters} /></div>
             </details>
           ) : null}
+        </Panel>
+      ) : null}
+      {m.kind === 'torch' || m.components.some((c) => c.kind === 'torch') ? (
+        <Panel title="Consumable changes">
+          <ChangesHistory machineId={m.id} />
         </Panel>
       ) : null}
       <Panel title="Meters">

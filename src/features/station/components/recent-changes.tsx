@@ -1,8 +1,10 @@
+import { useState } from 'react';
 import { createColumnHelper } from '@tanstack/react-table';
 import { DataTable } from '../../../components/ui/data-table';
-import { EmptyState } from '../../../components/ui/notice';
+import { EmptyState, Notice } from '../../../components/ui/notice';
 import { CHANGE_REASON_LABELS, type ChangeRow } from '../../../../shared/schemas/consumables';
 import { PART_CATEGORY_LABELS } from '../../../../shared/schemas/stock';
+import { useChanges } from '../api/get-changes';
 
 const col = createColumnHelper<ChangeRow>();
 const when = new Intl.DateTimeFormat(undefined, { dateStyle: 'medium', timeStyle: 'short' });
@@ -33,4 +35,23 @@ const columns = [
 
 export function RecentChanges({ rows, caption = 'Recent consumable changes' }: { rows: ChangeRow[]; caption?: string }) {
   return <DataTable caption={caption} columns={columns} data={rows} getRowId={(r) => r.id} empty={<EmptyState title="No changes logged yet" />} />;
+}
+
+/** Every change on a machine's torches, newest first, paged by the server. */
+export function ChangesHistory({ machineId }: { machineId: string }) {
+  const [page, setPage] = useState(1);
+  const pageSize = 20;
+  const q = useChanges({ machineId, page, pageSize });
+  if (q.isError) return <Notice tone="danger">{q.error.message}</Notice>;
+  return (
+    <DataTable
+      caption="Consumable changes"
+      columns={columns.map((c) => ({ ...c, enableSorting: false }))}
+      data={q.data?.rows ?? []}
+      loading={q.isLoading}
+      getRowId={(r) => r.id}
+      empty={<EmptyState title="No changes logged yet" />}
+      server={{ total: q.data?.total ?? 0, page, pageSize, sorting: [], onSortingChange: () => undefined, onPageChange: setPage }}
+    />
+  );
 }
