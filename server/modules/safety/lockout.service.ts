@@ -270,7 +270,7 @@ export async function releaseLockout(em: EntityManager, who: Principal, id: stri
         `Only the person who applied a lock removes it (OSHA 29 CFR 1910.147(e)(3)): ${others.map((p) => `${pointLabel(p)} belongs to ${p.holder.getEntity().name}`).join('; ')}`,
       );
     }
-    const members = await tx.find(LockoutMember, { session: s.id, leftAt: null }, { populate: ['user'] });
+    const members = await tx.find(LockoutMember, { session: s.id, leftAt: null }, { populate: ['user'], orderBy: { joinedAt: 'asc' } });
     if (members.length) {
       throw conflict(`Personal locks are still on this group lockout: ${members.map((m) => `${m.user.getEntity().name} (${m.lockNumber})`).join(', ')}. Each person removes their own lock first.`);
     }

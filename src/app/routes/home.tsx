@@ -9,6 +9,7 @@ import { paths } from '../../config/paths';
 import { LowStockPanel } from '../../features/stock/components/low-stock-panel';
 import { StationPicker } from '../../features/station/components/station-picker';
 import { MyWorkPanel } from '../../features/work-orders/components/my-work-panel';
+import { SafetyHomePanel } from '../../features/safety/components/safety-home-panel';
 
 export function Component() {
   const { data: me } = useMe();
@@ -16,6 +17,7 @@ export function Component() {
   return (
     <RoleHome role={me.role} name={me.user.name}>
       <MyWorkPanel timeZone={me.organization.timeZone} scope={me.role === 'admin' ? 'shop' : 'mine'} />
+      <SafetyHomePanel role={me.role} />
       {me.role === 'operator' || me.role === 'technician' ? (
         <Panel title="Before you work on a machine">
           <WorkCaution />
