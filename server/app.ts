@@ -17,7 +17,6 @@ import { registerHealthRoutes } from './modules/health/health.routes';
 import { registerDevInboxRoutes } from './modules/dev-inbox/dev-inbox.routes';
 import { registerAuditRoutes } from './modules/audit/audit.routes';
 import { registerSafetyRoutes } from './modules/safety/safety.routes';
-import { registerSafetyRoutes } from './modules/safety/safety.routes';
 import { registerMachineRoutes } from './modules/machines/machines.routes';
 import { registerMeterRoutes } from './modules/meters/meters.routes';
 import { registerCounterImportRoutes } from './modules/meters/counter-import.routes';
@@ -80,7 +79,6 @@ export function createApp({ orm, config, smtp = null }: AppDeps): AppHandle {
   registerAuthRoutes(api, config);
   registerUserRoutes(api, config);
   registerAuditRoutes(api);
-  registerSafetyRoutes(api, config);
   registerSafetyRoutes(api, config);
   registerMachineRoutes(api);
   registerMeterRoutes(api);
