@@ -57,6 +57,16 @@ test.describe('station page on a tablet', () => {
     await expect.poll(() => onHandOf(nozzle)).toBe(nozzleStock - 1);
     await expect(page.getByRole('table', { name: 'Recent consumable changes' }).getByRole('row').nth(1)).toContainText('Electrode, Nozzle');
     await snap(page, 'station-after-change');
+
+    // A test coupon out of tolerance with the new parts: the page says so and suggests a change.
+    await page.getByText('Record a test coupon').tap();
+    await page.getByLabel('Dimension 1 measured in mm').fill('100.05');
+    await page.getByLabel('Dimension 2 measured in mm').fill('50.26');
+    await page.getByLabel('Dimension 3 measured in mm').fill('19.98');
+    await page.getByRole('button', { name: 'Record the coupon' }).tap();
+    await expect(page.getByRole('status').filter({ hasText: 'Out of tolerance — consider a consumable change' })).toContainText('Largest deviation 0.26 mm against ±0.2 mm');
+    await expect(torch.getByRole('alert').filter({ hasText: 'Cut quality out of tolerance' })).toBeVisible();
+    await expectAccessible(page, 'station after a failed coupon');
   });
 
   test('the QR label opens the station page', async ({ page }) => {
