@@ -18,14 +18,16 @@ type Sample = ImportPreview['sample'][number];
 const sampleCol = createColumnHelper<Sample>();
 const when = new Intl.DateTimeFormat(undefined, { dateStyle: 'medium', timeStyle: 'short' });
 const STATUS = { add: { tone: 'safe', label: 'Will be added' }, duplicate: { tone: 'info', label: 'Already recorded' }, error: { tone: 'danger', label: 'Problem' } } as const;
-const sampleColumns = [
+// While the file has problems nothing is added, so a good row only says it is fine.
+const statusOf = (s: Sample['status'], blocked: boolean) => (s === 'add' && blocked ? { tone: 'info' as const, label: 'Row is fine' } : STATUS[s]);
+const sampleColumns = (blocked: boolean) => [
   sampleCol.accessor('line', { header: 'Line' }),
   sampleCol.accessor('machineCode', { header: 'Machine' }),
   sampleCol.accessor('meterCode', { header: 'Meter' }),
   sampleCol.accessor('readAt', { header: 'Read at', cell: (c) => when.format(new Date(c.getValue())) }),
   sampleCol.accessor('value', { header: 'Value' }),
   sampleCol.accessor('reset', { header: 'Reset', cell: (c) => (c.getValue() ? 'yes' : 'no') }),
-  sampleCol.accessor('status', { header: 'Status', cell: (c) => <Badge tone={STATUS[c.getValue()].tone}>{STATUS[c.getValue()].label}</Badge> }),
+  sampleCol.accessor('status', { header: 'Status', cell: (c) => <Badge tone={statusOf(c.getValue(), blocked).tone}>{statusOf(c.getValue(), blocked).label}</Badge> }),
 ];
 const PHASE = { uploading: 'Uploading', reading: 'Reading rows', checking: 'Checking against stored readings', writing: 'Writing readings' } as const;
 
@@ -128,7 +130,8 @@ export function CounterImport() {
           ) : null}
           <div>
             <h3 className="mb-2 text-lg font-bold">First rows as read</h3>
-            <DataTable caption="First rows of the file" columns={sampleColumns} data={preview.sample} getRowId={(r) => String(r.line)} />
+            {preview.errorCount > 0 ? <p className="mb-2 text-sm text-steel-700">Rows that could not be read are in the problem list above.</p> : null}
+            <DataTable caption="First rows of the file" columns={sampleColumns(preview.errorCount > 0)} data={preview.sample} getRowId={(r) => String(r.line)} />
           </div>
           <Button onClick={runImport} disabled={preview.errorCount > 0 || preview.toAdd === 0 || busy} busy={importM.isPending}>
             Import {preview.toAdd} reading{preview.toAdd === 1 ? '' : 's'}
