@@ -150,6 +150,19 @@ describe('sign-off chain', () => {
     expect(checks.body[0].lastCheckAt).toBeNull();
   });
 
+  it('limits wrong passwords at signing per person, as at sign-in', async () => {
+    const shop = await shopWithPpe('chain-limit');
+    const body = (password: string) => ({ requirementId: shop.reqId, confirmed: ['safety-glasses', 'safety-footwear'], password });
+    // Mistakes that are not a wrong password do not count.
+    for (let i = 0; i < 3; i++) await post(shop.s.operator, '/safety/ppe/checks', { ...body(PASSWORD), confirmed: [] }).expect(400);
+    for (let i = 0; i < 5; i++) await post(shop.s.operator, '/safety/ppe/checks', body('wrong')).expect(401);
+    const limited = await post(shop.s.operator, '/safety/ppe/checks', body(PASSWORD)).expect(429);
+    expect(limited.body.message).toMatch(/Too many wrong passwords at signing/);
+    // Another person of the shop still signs.
+    await post(shop.s.technician, '/safety/ppe/checks', body(PASSWORD)).expect(201);
+    expect(await countSignOffs(shop.orgId)).toBe(1);
+  });
+
   it('records a correction as a new signature that points at the old one; only the signer or the safety officer may', async () => {
     const shop = await shopWithPpe('chain-fix');
     await ppeCheck(shop).expect(201);

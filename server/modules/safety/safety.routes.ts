@@ -5,7 +5,7 @@ import { z } from 'zod';
 import { route, type ApiRouter } from '../../http/route';
 import { requestEm } from '../../db';
 import { requirePrincipal } from '../../http/principal';
-import { fieldError } from '../../http/errors';
+import { AppError, fieldError } from '../../http/errors';
 import { registerJobStep } from '../../jobs/scheduler';
 import type { Config } from '../../config';
 import { uuidParam } from '../../../shared/schemas/common';
@@ -63,6 +63,23 @@ const versionQuery = z.object({ version: z.coerce.number().int().min(1).optional
 export function registerSafetyRoutes(r: ApiRouter, config: Config) {
   registerJobStep(safetyDueStep);
   const who = (req: Parameters<RequestHandler>[0]) => requirePrincipal(req);
+  // A signature re-asks the password, so wrong passwords are limited per person as at sign-in.
+  // Only wrong passwords count (a counter that also counted requests in flight would refuse
+  // honest concurrent signatures).
+  const failures = new Map<string, number[]>();
+  const WINDOW_MS = 15 * 60_000;
+  const recent = (userId: string) => (failures.get(userId) ?? []).filter((t) => Date.now() - t < WINDOW_MS);
+  const signLimit: RequestHandler = (req, res, next) => {
+    const userId = req.principal?.userId ?? 'anonymous';
+    if (recent(userId).length >= config.LOGIN_LIMIT_PER_ACCOUNT) {
+      return next(new AppError(429, 'too_many_requests', 'Too many wrong passwords at signing. Wait 15 minutes, or sign out and in again with the right password.'));
+    }
+    res.on('finish', () => {
+      if (res.statusCode === 401) failures.set(userId, [...recent(userId), Date.now()]);
+    });
+    next();
+  };
+  const signing = { before: [signLimit] };
 
   // Pickers and settings.
   route(r, 'get', '/safety/machines', { access: 'safety.read' }, async (req, res) => void res.json(await safetyMachines(em(), who(req))));
@@ -80,7 +97,7 @@ export function registerSafetyRoutes(r: ApiRouter, config: Config) {
     r,
     'post',
     '/safety/procedures/:id/versions/:version/approve',
-    { access: 'safety.procedures.manage', params: versionParams, body: approveVersionSchema },
+    { access: 'safety.procedures.manage', params: versionParams, body: approveVersionSchema, ...signing },
     signed((req, res) => approveVersion(em(), who(req), res.locals.params.id, res.locals.params.version, res.locals.body.retrainingRequired)),
   );
   route(r, 'post', '/safety/procedures/:id/photos', { access: 'safety.procedures.manage', params: uuidParam, before: [upload], body: photoUploadFields }, async (req, res) => {
@@ -101,14 +118,14 @@ export function registerSafetyRoutes(r: ApiRouter, config: Config) {
 
   // Lockout sessions.
   route(r, 'get', '/safety/lockouts', { access: 'safety.read', query: listLockoutsQuery }, async (req, res) => void res.json(await listLockouts(em(), who(req), res.locals.query)));
-  route(r, 'post', '/safety/lockouts', { access: 'safety.lockout.sign', body: applyLockoutSchema }, signed((req, res) => applyLockout(em(), who(req), res.locals.body)));
+  route(r, 'post', '/safety/lockouts', { access: 'safety.lockout.sign', body: applyLockoutSchema, ...signing }, signed((req, res) => applyLockout(em(), who(req), res.locals.body)));
   route(r, 'get', '/safety/lockouts/:id', { access: 'safety.read', params: uuidParam }, async (req, res) => void res.json(await getLockout(em(), who(req), res.locals.params.id)));
-  route(r, 'post', '/safety/lockouts/:id/verify', { access: 'safety.lockout.sign', params: uuidParam, body: verifyLockoutSchema }, signed((req, res) => verifyLockout(em(), who(req), res.locals.params.id, res.locals.body)));
-  route(r, 'post', '/safety/lockouts/:id/join', { access: 'safety.lockout.sign', params: uuidParam, body: joinLockoutSchema }, signed((req, res) => joinLockout(em(), who(req), res.locals.params.id, res.locals.body)));
-  route(r, 'post', '/safety/lockouts/:id/leave', { access: 'safety.lockout.sign', params: uuidParam, body: leaveLockoutSchema }, signed((req, res) => leaveLockout(em(), who(req), res.locals.params.id)));
-  route(r, 'post', '/safety/lockouts/:id/handover', { access: 'safety.lockout.sign', params: uuidParam, body: offerHandoverSchema }, signed((req, res) => offerHandover(em(), who(req), res.locals.params.id, res.locals.body)));
-  route(r, 'post', '/safety/lockouts/:id/accept-handover', { access: 'safety.lockout.sign', params: uuidParam, body: acceptHandoverSchema }, signed((req, res) => acceptHandover(em(), who(req), res.locals.params.id, res.locals.body)));
-  route(r, 'post', '/safety/lockouts/:id/release', { access: 'safety.lockout.sign', params: uuidParam, body: releaseLockoutSchema }, signed((req, res) => releaseLockout(em(), who(req), res.locals.params.id, res.locals.body)));
+  route(r, 'post', '/safety/lockouts/:id/verify', { access: 'safety.lockout.sign', params: uuidParam, body: verifyLockoutSchema, ...signing }, signed((req, res) => verifyLockout(em(), who(req), res.locals.params.id, res.locals.body)));
+  route(r, 'post', '/safety/lockouts/:id/join', { access: 'safety.lockout.sign', params: uuidParam, body: joinLockoutSchema, ...signing }, signed((req, res) => joinLockout(em(), who(req), res.locals.params.id, res.locals.body)));
+  route(r, 'post', '/safety/lockouts/:id/leave', { access: 'safety.lockout.sign', params: uuidParam, body: leaveLockoutSchema, ...signing }, signed((req, res) => leaveLockout(em(), who(req), res.locals.params.id)));
+  route(r, 'post', '/safety/lockouts/:id/handover', { access: 'safety.lockout.sign', params: uuidParam, body: offerHandoverSchema, ...signing }, signed((req, res) => offerHandover(em(), who(req), res.locals.params.id, res.locals.body)));
+  route(r, 'post', '/safety/lockouts/:id/accept-handover', { access: 'safety.lockout.sign', params: uuidParam, body: acceptHandoverSchema, ...signing }, signed((req, res) => acceptHandover(em(), who(req), res.locals.params.id, res.locals.body)));
+  route(r, 'post', '/safety/lockouts/:id/release', { access: 'safety.lockout.sign', params: uuidParam, body: releaseLockoutSchema, ...signing }, signed((req, res) => releaseLockout(em(), who(req), res.locals.params.id, res.locals.body)));
 
   // PPE.
   route(r, 'get', '/safety/ppe/requirements', { access: 'safety.read', query: mapQuery }, async (req, res) => void res.json(await listRequirements(em(), who(req), res.locals.query.machineId)));
@@ -118,21 +135,21 @@ export function registerSafetyRoutes(r: ApiRouter, config: Config) {
     await retireRequirement(em(), who(req), res.locals.params.id);
     res.status(204).end();
   });
-  route(r, 'post', '/safety/ppe/checks', { access: 'safety.ppe.sign', body: ppeCheckSchema }, signed((req, res) => recordPpeCheck(em(), who(req), res.locals.body)));
+  route(r, 'post', '/safety/ppe/checks', { access: 'safety.ppe.sign', body: ppeCheckSchema, ...signing }, signed((req, res) => recordPpeCheck(em(), who(req), res.locals.body)));
 
   // Periodic inspections, training, hot work.
   route(r, 'get', '/safety/inspections', { access: 'safety.read' }, async (_req, res) => void res.json(await listInspections(em())));
-  route(r, 'post', '/safety/inspections', { access: 'safety.inspection.perform', body: inspectionSchema }, signed((req, res) => recordInspection(em(), who(req), res.locals.body)));
-  route(r, 'post', '/safety/inspections/:id/certify', { access: 'safety.inspection.certify', params: uuidParam, body: certifySchema }, signed((req, res) => certifyInspection(em(), who(req), res.locals.params.id)));
+  route(r, 'post', '/safety/inspections', { access: 'safety.inspection.perform', body: inspectionSchema, ...signing }, signed((req, res) => recordInspection(em(), who(req), res.locals.body)));
+  route(r, 'post', '/safety/inspections/:id/certify', { access: 'safety.inspection.certify', params: uuidParam, body: certifySchema, ...signing }, signed((req, res) => certifyInspection(em(), who(req), res.locals.params.id)));
   route(r, 'get', '/safety/training', { access: 'safety.read' }, async (_req, res) => void res.json(await listTraining(em())));
-  route(r, 'post', '/safety/training', { access: 'safety.training.manage', body: trainingSchema }, signed((req, res) => recordTraining(em(), who(req), res.locals.body)));
+  route(r, 'post', '/safety/training', { access: 'safety.training.manage', body: trainingSchema, ...signing }, signed((req, res) => recordTraining(em(), who(req), res.locals.body)));
   route(r, 'get', '/safety/fire-watches', { access: 'safety.read' }, async (_req, res) => void res.json(await listFireWatches(em())));
-  route(r, 'post', '/safety/fire-watches', { access: 'safety.hotwork.sign', body: startFireWatchSchema }, signed((req, res) => startFireWatch(em(), who(req), res.locals.body)));
-  route(r, 'post', '/safety/fire-watches/:id/end', { access: 'safety.hotwork.sign', params: uuidParam, body: endFireWatchSchema }, signed((req, res) => endFireWatch(em(), who(req), res.locals.params.id, res.locals.body)));
+  route(r, 'post', '/safety/fire-watches', { access: 'safety.hotwork.sign', body: startFireWatchSchema, ...signing }, signed((req, res) => startFireWatch(em(), who(req), res.locals.body)));
+  route(r, 'post', '/safety/fire-watches/:id/end', { access: 'safety.hotwork.sign', params: uuidParam, body: endFireWatchSchema, ...signing }, signed((req, res) => endFireWatch(em(), who(req), res.locals.params.id, res.locals.body)));
 
   // The audit.
   route(r, 'get', '/safety/sign-offs', { access: 'safety.audit', query: listSignOffsQuery }, async (req, res) => void res.json(await listSignOffs(em(), who(req), res.locals.query)));
-  route(r, 'post', '/safety/sign-offs/:id/corrections', { access: 'safety.correct', params: uuidParam, body: correctionSchema }, signed((req, res) => correctSignOff(em(), who(req), res.locals.params.id, res.locals.body.note)));
+  route(r, 'post', '/safety/sign-offs/:id/corrections', { access: 'safety.correct', params: uuidParam, body: correctionSchema, ...signing }, signed((req, res) => correctSignOff(em(), who(req), res.locals.params.id, res.locals.body.note)));
   route(r, 'get', '/safety/chain/verify', { access: 'safety.audit' }, async (req, res) => void res.json(await verifyShopChain(em(), who(req).orgId)));
   route(r, 'get', '/safety/audit/compliance', { access: 'safety.audit', query: complianceQuery }, async (req, res) => void res.json(await compliance(em(), who(req), res.locals.query.days)));
   route(r, 'get', '/safety/audit/timeline', { access: 'safety.audit', query: timelineQuery }, async (req, res) => void res.json(await timeline(em(), who(req), res.locals.query.weeks)));
