@@ -113,6 +113,9 @@ export function statusColumns(ev: Evaluation) {
   };
 }
 
+/** A due occurrence this evaluation has not raised yet. */
+const pendingRaise = (ev: Evaluation) => ev.occurrenceKey !== null && !ev.alreadyRaised;
+
 /** Writes evaluated statuses in one statement; a plan completed meanwhile keeps its own newer status. */
 async function writeStatuses(em: EntityManager, items: Evaluated[], now: Date) {
   if (items.length === 0) return;
@@ -124,7 +127,8 @@ async function writeStatuses(em: EntityManager, items: Evaluated[], now: Date) {
       next_due_at: c.nextDueAt?.toISOString() ?? null,
       reason: c.statusReason,
       evaluation: c.evaluation,
-      recheck_at: c.recheckAt?.toISOString() ?? null,
+      // Work still to raise: look again at the next pass until the raise has gone through.
+      recheck_at: pendingRaise(ev) ? null : (c.recheckAt?.toISOString() ?? null),
       inputs_at: inputsAt === null ? null : new Date(inputsAt).toISOString(),
       seen_done: row.last_done_at ? new Date(row.last_done_at).toISOString() : null,
       baselines: newBaselines ?? {},
@@ -226,6 +230,7 @@ async function raiseWork(orm: MikroORM, run: Run, orgId: string, items: Evaluate
             planned_parts: d.parts ?? [],
             estimated_minutes: d.estimated_minutes,
             _d: d,
+            _changesAt: ev.changesAt?.toISOString() ?? null,
           };
         });
         const inserted: { id: string; plan_id: string }[] = await tx.execute(
@@ -240,15 +245,15 @@ async function raiseWork(orm: MikroORM, run: Run, orgId: string, items: Evaluate
                   responsible_role text, requires_lockout boolean, safety_critical boolean, checklist jsonb, planned_parts jsonb, estimated_minutes int)
            on conflict (plan_id, occurrence_key) do nothing
            returning id, plan_id`,
-          [JSON.stringify(records.map(({ _d, ...r }) => r))],
+          [JSON.stringify(records.map(({ _d, _changesAt, ...r }) => r))],
         );
         if (inserted.length === 0) return;
         const insertedIds = new Set(inserted.map((r) => r.id));
         const raised = records.filter((r) => insertedIds.has(r.id));
         await tx.execute(
-          `update maintenance_plan p set last_raised_key = v.key, updated_at = now()
-             from jsonb_to_recordset(?::jsonb) as v(id uuid, key text) where p.id = v.id`,
-          [JSON.stringify(raised.map((r) => ({ id: r.plan_id, key: r.occurrence_key })))],
+          `update maintenance_plan p set last_raised_key = v.key, recheck_at = v.recheck_at, updated_at = now()
+             from jsonb_to_recordset(?::jsonb) as v(id uuid, key text, recheck_at timestamptz) where p.id = v.id`,
+          [JSON.stringify(raised.map((r) => ({ id: r.plan_id, key: r.occurrence_key, recheck_at: r._changesAt })))],
         );
         for (const r of raised) {
           recordAudit(tx, { orgId, userId: null }, 'work-order.raised', { type: 'WorkOrder', id: r.id }, { number: r.number, planId: r.plan_id, occurrenceKey: r.occurrence_key });

@@ -82,6 +82,21 @@ describe('a plan falls due', () => {
     expect(detail.body.openWorkOrder.id).toBe(wos[0].id);
   });
 
+  it('a plan that is due the moment it is written is raised by the next pass', async () => {
+    const em = scoped(t.em(), shop.orgId);
+    const dp = await makeMeter(em, shop.orgId, unit, 'filter-dp', 'condition', 'Pa');
+    await addReadings(em, shop.orgId, dp, [
+      { at: '2026-01-10T08:00:00Z', value: 900 },
+      { at: '2026-01-11T08:00:00Z', value: 1650 },
+    ]);
+    // The condition is past due already; the calendar trigger alone would not be due for a month.
+    const res = await post(admin, '/plans', planBody(unit, { title: 'Change cartridges', triggers: [{ kind: 'condition', meterId: dp, above: 1500 }, { kind: 'calendar-floating', every: 1, unit: 'month' }] })).expect(201);
+    expect((await get(admin, `/plans/${res.body.id}`).expect(200)).body.status).toBe('overdue');
+    await runDueEngine(orm, new Date(), { orgId: shop.orgId });
+    const wos = await workOf(res.body.id);
+    expect(wos.map((w) => w.occurrence_key)).toEqual([`cond:${dp}:2026-01-11T08:00:00.000Z`]);
+  });
+
   it('three concurrent passes raise each work order once (lock), and so do three unlocked engines (unique key)', async () => {
     const ids: string[] = [];
     for (let i = 0; i < 6; i++) ids.push(await makePlan({ title: `Weekly check ${i}`, triggers: [{ kind: 'calendar-floating', every: 1, unit: 'week' }] }, '2026-02-01T06:00:00Z'));

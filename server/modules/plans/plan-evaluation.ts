@@ -43,7 +43,8 @@ export async function refreshPlanStatus(em: EntityManager, plan: IMaintenancePla
   plan.nextDueAt = c.nextDueAt;
   plan.statusReason = c.statusReason;
   plan.evaluation = c.evaluation;
-  plan.recheckAt = c.recheckAt;
+  // A due occurrence is raised by the next pass: keep the plan in that pass's list.
+  plan.recheckAt = ev.occurrenceKey && !ev.alreadyRaised ? null : c.recheckAt;
   plan.inputsAt = inputsAt === null ? null : new Date(inputsAt);
   plan.evaluatedAt = now;
 }

@@ -17,14 +17,27 @@ const filterClass = 'min-h-touch rounded border border-steel-400 bg-white px-3 f
  * Work orders with server paging. Filters live in the URL (?assignee=me&due=overdue …) so links in
  * mails and on the home page open the right view. `fixed` filters (e.g. a plan's work) are not shown.
  */
-export function WorkOrdersTable({ timeZone, fixed = {}, caption = 'Work orders', pageSize = 25 }: { timeZone: string; fixed?: Partial<ListWorkOrdersQuery>; caption?: string; pageSize?: number }) {
+export function WorkOrdersTable({
+  timeZone,
+  fixed = {},
+  caption = 'Work orders',
+  pageSize = 25,
+  defaultStatus = 'active',
+}: {
+  timeZone: string;
+  fixed?: Partial<ListWorkOrdersQuery>;
+  caption?: string;
+  pageSize?: number;
+  /** 'active' lists unfinished work; 'any' includes signed-off and called-off work (a plan's history). */
+  defaultStatus?: 'active' | 'any';
+}) {
   const [params, setParams] = useSearchParams();
   const lookups = useWorkLookups();
   const get = (k: string) => params.get(k) ?? '';
   const page = Number(params.get('page') ?? '1') || 1;
   const sort = (params.get('sort') ?? 'dueAt') as ListWorkOrdersQuery['sort'];
   const dir = (params.get('dir') ?? 'asc') as 'asc' | 'desc';
-  const status = (params.get('status') ?? 'active') as ListWorkOrdersQuery['status'] | 'any';
+  const status = (params.get('status') ?? defaultStatus) as ListWorkOrdersQuery['status'] | 'any';
   const set = (k: string, v: string) => {
     const next = new URLSearchParams(params);
     if (v) next.set(k, v);
@@ -135,7 +148,7 @@ export function WorkOrdersTable({ timeZone, fixed = {}, caption = 'Work orders',
             )}
             <label className="flex flex-col text-sm font-semibold">
               State
-              <select className={filterClass} value={status ?? 'active'} onChange={(e) => set('status', e.target.value === 'active' ? '' : e.target.value)}>
+              <select className={filterClass} value={status ?? defaultStatus} onChange={(e) => set('status', e.target.value === defaultStatus ? '' : e.target.value)}>
                 <option value="active">Not finished</option>
                 {WORK_STATES.map((s) => <option key={s} value={s}>{WORK_STATE_LABELS[s]}</option>)}
                 <option value="any">Any state</option>
