@@ -5,6 +5,7 @@ import { getMeterQueryOptions, useMeter } from '../../features/meters/api/get-me
 import { ReadingForm } from '../../features/meters/components/reading-form';
 import { ReadingsTable } from '../../features/meters/components/readings-table';
 import { TrendChart } from '../../features/meters/components/trend-chart';
+import { MeterEditForm } from '../../features/meters/components/meter-edit-form';
 import { formatValue } from '../../features/meters/components/format';
 import { useMe } from '../../features/auth/api/get-me';
 import { queryClient } from '../../lib/query-client';
@@ -35,6 +36,11 @@ export function Component() {
       <Panel title="Trend, last 12 months"><TrendChart meterId={m.id} /></Panel>
       {can(me.role, 'readings.record') ? <Panel title="Record a reading"><ReadingForm meter={m} /></Panel> : null}
       <Panel title="Readings"><ReadingsTable meter={m} /></Panel>
+      {can(me.role, 'meters.manage') ? (
+        <Panel title="Meter settings">
+          <MeterEditForm key={m.id} meter={m} />
+        </Panel>
+      ) : null}
     </>
   );
 }

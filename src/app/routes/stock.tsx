@@ -5,6 +5,7 @@ import { PartsTable } from '../../features/stock/components/parts-table';
 import { PartForm } from '../../features/stock/components/part-form';
 import { StockMoveForm } from '../../features/stock/components/stock-move-form';
 import { MovesTable } from '../../features/stock/components/moves-table';
+import { PartEditForm } from '../../features/stock/components/part-edit-form';
 import { getPartTypesQueryOptions, usePartTypes } from '../../features/stock/api/get-part-types';
 import { useMe } from '../../features/auth/api/get-me';
 import { queryClient } from '../../lib/query-client';
@@ -46,6 +47,12 @@ export function Component() {
           <div className="space-y-4">
             {manage ? <StockMoveForm key={part.id} part={part} /> : null}
             <MovesTable partTypeId={part.id} unit={part.stockUnit} />
+            {manage ? (
+              <details className="rounded border border-steel-300 p-3">
+                <summary className="flex min-h-touch cursor-pointer items-center font-semibold">Edit catalogue data of {part.partNumber}</summary>
+                <div className="mt-3"><PartEditForm key={part.id} part={part} /></div>
+              </details>
+            ) : null}
           </div>
         </Panel>
       ) : null}

@@ -1,0 +1,53 @@
+import { useState } from 'react';
+import { useForm } from 'react-hook-form';
+import { zodResolver } from '@hookform/resolvers/zod';
+import type { z } from 'zod';
+import { partTypeUpdateSchema, type PartTypeRow } from '../../../../shared/schemas/stock';
+import { TextField } from '../../../components/ui/field';
+import { Button } from '../../../components/ui/button';
+import { Notice } from '../../../components/ui/notice';
+import { applyServerErrors } from '../../../lib/form-errors';
+import { useUpdatePartType } from '../api/update-part-type';
+
+type In = z.input<typeof partTypeUpdateSchema>;
+type Out = z.output<typeof partTypeUpdateSchema>;
+const num = (v: unknown) => (v === '' || v === null || v === undefined ? undefined : Number(v));
+const numOrNull = (v: unknown) => (v === '' || v === null || v === undefined ? null : Number(v));
+
+/** Catalogue data of one part; stock itself only changes through moves. */
+export function PartEditForm({ part }: { part: PartTypeRow }) {
+  const update = useUpdatePartType();
+  const [formError, setFormError] = useState<string | null>(null);
+  const [saved, setSaved] = useState(false);
+  const { register, handleSubmit, setError, formState } = useForm<In, unknown, Out>({
+    resolver: zodResolver(partTypeUpdateSchema),
+    defaultValues: { name: part.name, expectedLife: part.expectedLife, unitCost: part.unitCost, leadTimeDays: part.leadTimeDays, serviceLevel: part.serviceLevel },
+  });
+  const onSubmit = handleSubmit(async (values) => {
+    setFormError(null);
+    setSaved(false);
+    try {
+      await update.mutateAsync({ id: part.id, ...values });
+      setSaved(true);
+    } catch (err) {
+      setFormError(applyServerErrors(err, setError, ['name', 'expectedLife', 'unitCost', 'leadTimeDays', 'serviceLevel']));
+    }
+  });
+  const e = formState.errors;
+  return (
+    <form onSubmit={onSubmit} noValidate aria-label={`Edit ${part.partNumber}`} className="grid gap-4 md:grid-cols-5">
+      <div className="space-y-2 md:col-span-5">
+        {formError ? <Notice tone="danger" role="alert">{formError}</Notice> : null}
+        {saved ? <Notice tone="safe" role="status">Saved. The reorder point follows the new lead time and service level.</Notice> : null}
+      </div>
+      <TextField label="Name" error={e.name?.message} {...register('name')} />
+      <TextField label="Expected life" inputMode="decimal" error={e.expectedLife?.message} {...register('expectedLife', { setValueAs: numOrNull })} />
+      <TextField label="Unit cost" inputMode="decimal" error={e.unitCost?.message} {...register('unitCost', { setValueAs: num })} />
+      <TextField label="Lead time (days)" inputMode="numeric" error={e.leadTimeDays?.message} {...register('leadTimeDays', { setValueAs: num })} />
+      <TextField label="Service level" inputMode="decimal" error={e.serviceLevel?.message} {...register('serviceLevel', { setValueAs: num })} />
+      <div className="md:col-span-5">
+        <Button type="submit" variant="secondary" busy={formState.isSubmitting}>Save part</Button>
+      </div>
+    </form>
+  );
+}
