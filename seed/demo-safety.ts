@@ -156,6 +156,7 @@ export const seedSafetyDemo: SeedStep = async (rootEm, shop) => {
   const now = DateTime.now().setZone(tz);
   const day = (daysAgo: number, hour: number, minute = 0) => now.minus({ days: daysAgo }).set({ hour, minute, second: 0, millisecond: 0 }).toJSDate();
   const dateOf = (d: Date) => DateTime.fromJSDate(d, { zone: tz }).toISODate()!;
+  const hm = (d: Date) => DateTime.fromJSDate(d, { zone: tz }).toFormat("HH:mm 'on' d LLL yyyy ('" + tz + "')");
 
   await em.transactional(async (tx) => {
     const events: Ev[] = [];
@@ -323,9 +324,9 @@ export const seedSafetyDemo: SeedStep = async (rootEm, shop) => {
           run: async () => {
             const until = new Date(ended.getTime() + 30 * 60_000);
             const fw = tx.create(FireWatch, { organization: shop.id, machine: table, watcher: operator.userId, cuttingEndedAt: ended, until, rule: 'osha-1910.252', area: 'Plasma table and the pallet rack behind it', startSignOff: null as never });
-            fw.startSignOff = (await sign(operator, { meaning: 'fire-watch-started', subjectType: 'fire-watch', subjectId: fw.id, machineId: table.id, details: { summary: `${table.code}: cutting ended ${ended.toISOString()}, watch until ${until.toISOString()} (OSHA 29 CFR 1910.252(a)(2)(iii)(B))`, cuttingEndedAt: ended.toISOString(), until: until.toISOString(), rule: 'osha-1910.252', area: fw.area } }, ended)) as never;
+            fw.startSignOff = (await sign(operator, { meaning: 'fire-watch-started', subjectType: 'fire-watch', subjectId: fw.id, machineId: table.id, details: { summary: `${table.code}: cutting ended ${hm(ended)}, watch until ${hm(until)} (OSHA 29 CFR 1910.252(a)(2)(iii)(B))`, cuttingEndedAt: ended.toISOString(), until: until.toISOString(), rule: 'osha-1910.252', area: fw.area } }, ended)) as never;
             const endAt = new Date(until.getTime() + 3 * 60_000);
-            fw.endSignOff = (await sign(operator, { meaning: 'fire-watch-ended', subjectType: 'fire-watch', subjectId: fw.id, machineId: table.id, details: { summary: `${table.code}: watched from ${ended.toISOString()} to ${endAt.toISOString()}, no fire found`, noFireFound: true, rule: 'osha-1910.252' } }, endAt)) as never;
+            fw.endSignOff = (await sign(operator, { meaning: 'fire-watch-ended', subjectType: 'fire-watch', subjectId: fw.id, machineId: table.id, details: { summary: `${table.code}: watched from ${hm(ended)} to ${hm(endAt)}, no fire found`, noFireFound: true, rule: 'osha-1910.252' } }, endAt)) as never;
             fw.endedAt = endAt;
           },
         });

@@ -59,6 +59,9 @@ test('a technician applies and verifies a lockout', async ({ page }) => {
   await expectAccessible(page, 'lockout apply form');
   await snap(page, 'safety-lockout-apply');
   await page.getByRole('button', { name: 'Sign: my locks are on' }).click();
+  await expect(page.getByRole('dialog')).toContainText('I applied my own lockout or tagout devices at the isolation points listed.');
+  await expectAccessible(page, 'signing dialog');
+  await page.screenshot({ path: 'tests/e2e/artifacts/safety-sign-dialog.png' });
   await signWith(page, 'not the password');
   await expect(page.getByRole('dialog').getByRole('alert')).toHaveText('Wrong password: nothing was signed');
   await signWith(page);
@@ -215,6 +218,16 @@ test('the safety screens read well and pass the accessibility scan', async ({ pa
   await expect(page.getByText('Apply energy control — in this order')).toBeVisible();
   await expectAccessible(page, 'procedure');
   await snap(page, 'safety-procedure');
+  // The lockout page on a phone: the technician at the machine.
+  const phone = await page.context().browser()!.newContext({ viewport: { width: 390, height: 844 }, hasTouch: true });
+  const mobile = await phone.newPage();
+  await signIn(mobile, 'tech@alder-row.example');
+  await mobile.goto('/safety/lockouts');
+  await mobile.getByRole('link', { name: /^H1 · Hydraulic unit/ }).first().tap();
+  await expect(mobile.getByText('Locked out: do not operate')).toBeVisible();
+  await expectAccessible(mobile, 'lockout on a phone');
+  await snap(mobile, 'safety-lockout-phone');
+  await phone.close();
   const placard = await page.request.get(await page.getByRole('link', { name: 'Print placard (PDF)' }).getAttribute('href').then((h) => h!));
   expect(placard.headers()['content-type']).toBe('application/pdf');
 });

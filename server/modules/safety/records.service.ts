@@ -22,6 +22,8 @@ import {
 } from '../../../shared/schemas/safety-records';
 
 const AUTHORIZED = ['technician', 'safety'];
+/** Times in summaries read as the shop's clock, with the zone named. */
+const local = (d: Date, tz: string) => DateTime.fromJSDate(d, { zone: tz }).toFormat("HH:mm 'on' d LLL yyyy ('" + tz + "')");
 
 async function approvedVersion(tx: EntityManager, procedureId: string) {
   const proc = await tx.findOne(EnergyProcedure, procedureId, { populate: ['machine'] });
@@ -266,7 +268,7 @@ export async function startFireWatch(em: EntityManager, who: Principal, input: S
   return em.transactional(async (tx) => {
     const machine = await tx.findOne(Machine, input.machineId);
     if (!machine) throw notFound('Machine');
-    const { settings } = await loadSafetySettings(tx, who.orgId);
+    const { settings, timeZone } = await loadSafetySettings(tx, who.orgId);
     const now = new Date();
     const ended = input.cuttingEndedAt ? new Date(input.cuttingEndedAt) : now;
     if (ended.getTime() > now.getTime() + 60_000) throw fieldError('cuttingEndedAt', 'Cutting cannot have ended in the future');
@@ -280,7 +282,7 @@ export async function startFireWatch(em: EntityManager, who: Principal, input: S
       subjectId: fw.id,
       machineId: machine.id,
       details: {
-        summary: `${machine.code}: cutting ended ${ended.toISOString()}, watch until ${until.toISOString()} (${FIRE_WATCH_RULES[rule].source})`,
+        summary: `${machine.code}: cutting ended ${local(ended, timeZone)}, watch until ${local(until, timeZone)} (${FIRE_WATCH_RULES[rule].source})`,
         cuttingEndedAt: ended.toISOString(),
         until: until.toISOString(),
         rule,
@@ -308,12 +310,13 @@ export async function endFireWatch(em: EntityManager, who: Principal, id: string
       throw conflict(`Keep watching: the fire watch runs until ${fw.until.toISOString()} (${FIRE_WATCH_RULES[fw.rule as FireWatchRuleId]?.source ?? fw.rule}), ${mins} min to go`);
     }
     const machine = fw.machine.getEntity();
+    const { timeZone } = await loadSafetySettings(tx, who.orgId);
     const signOff = await appendSignOff(tx, who, {
       meaning: 'fire-watch-ended',
       subjectType: 'fire-watch',
       subjectId: fw.id,
       machineId: machine.id,
-      details: { summary: `${machine.code}: watched from ${fw.cuttingEndedAt.toISOString()} to ${now.toISOString()}, no fire found`, noFireFound: true, rule: fw.rule },
+      details: { summary: `${machine.code}: watched from ${local(fw.cuttingEndedAt, timeZone)} to ${local(now, timeZone)}, no fire found`, noFireFound: true, rule: fw.rule },
       note: input.note || null,
     });
     fw.endedAt = signOff.signedAt;
