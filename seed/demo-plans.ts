@@ -151,6 +151,15 @@ export const seedPlansDemo: SeedStep = async (rootEm, shop) => {
       );
     }
   }
+  // Each dirty oil sample points at the condition work it raised (the first raised after it).
+  await conn.execute(
+    `update oil_analysis a set work_order_id = (
+        select w.id from work_order w join maintenance_plan p on p.id = w.plan_id
+         where w.organization_id = a.organization_id and p.machine_id = a.machine_id and w.kind = 'condition' and w.created_at >= a.sampled_at
+         order by w.created_at limit 1)
+      where a.organization_id = ? and a.out_of_limits and a.work_order_id is null`,
+    [shop.id],
+  );
   // Today: the real pass raises what is due now and reports what is past due.
   await conn.execute(`update maintenance_plan set recheck_at = null where organization_id = ?`, [shop.id]);
   await runDueEngine(orm, new Date(), { orgId: shop.id });

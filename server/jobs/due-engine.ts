@@ -32,6 +32,7 @@ import {
 } from './due-engine-inputs';
 import { loadPeople, queueEscalations, queueRaisedNotices, type Person, type WorkLine } from './due-engine-mail';
 import { sendDigests } from './due-engine-digest';
+import { humanReason, type MeterLabel } from './due-engine-reason';
 import { recordAudit } from '../modules/audit/audit';
 import { manualPass } from '../modules/job-runs/job-run-context';
 import type { MeterBaselines } from '../modules/plans/plan.entity';
@@ -97,17 +98,17 @@ class Run {
   }
 }
 
-type Evaluated = { row: EnginePlanRow; ev: Evaluation; inputsAt: number | null; newBaselines: MeterBaselines | null };
+type Evaluated = { row: EnginePlanRow; ev: Evaluation; inputsAt: number | null; newBaselines: MeterBaselines | null; human: (s: string) => string };
 
-/** What the plan row stores from an evaluation (status cache, explanation, next re-check). */
-export function statusColumns(ev: Evaluation) {
+/** What the plan row stores from an evaluation (status cache, explanation in people's words, next re-check). */
+export function statusColumns(ev: Evaluation, human: (s: string) => string = (s) => s) {
   return {
     status: ev.status,
     nextDueAt: ev.dueAt,
-    statusReason: ev.reason,
+    statusReason: human(ev.reason),
     recheckAt: ev.changesAt,
     evaluation: {
-      triggers: ev.triggers.map((t) => ({ kind: t.kind, status: t.status, dueAt: t.dueAt?.toISOString() ?? null, reason: t.reason })),
+      triggers: ev.triggers.map((t) => ({ kind: t.kind, status: t.status, dueAt: t.dueAt?.toISOString() ?? null, reason: human(t.reason) })),
       meterDue: ev.dueMeter.map((m) => ({ meterId: m.meterId, dueValue: m.dueValue, current: m.current, forecastAt: m.forecastAt?.toISOString() ?? null })),
     },
   };
@@ -119,8 +120,8 @@ const pendingRaise = (ev: Evaluation) => ev.occurrenceKey !== null && !ev.alread
 /** Writes evaluated statuses in one statement; a plan completed meanwhile keeps its own newer status. */
 async function writeStatuses(em: EntityManager, items: Evaluated[], now: Date) {
   if (items.length === 0) return;
-  const payload = items.map(({ row, ev, inputsAt, newBaselines }) => {
-    const c = statusColumns(ev);
+  const payload = items.map(({ row, ev, inputsAt, newBaselines, human }) => {
+    const c = statusColumns(ev, human);
     return {
       id: row.id,
       status: c.status,
@@ -205,7 +206,7 @@ async function raiseWork(orm: MikroORM, run: Run, orgId: string, items: Evaluate
         );
         const detailOf = new Map(details.map((d) => [d.id, d]));
         const first = await allocateNumbers(tx, orgId, ok.length);
-        const records = ok.map(({ row, ev }, k) => {
+        const records = ok.map(({ row, ev, human }, k) => {
           const d = detailOf.get(row.id)!;
           const decider = row.triggers[ev.decidedBy];
           const checklist: ChecklistLine[] = (d.checklist ?? []).map((c) => ({ ...c, result: null, value: null, note: null }));
@@ -219,7 +220,7 @@ async function raiseWork(orm: MikroORM, run: Run, orgId: string, items: Evaluate
             kind: decider && (decider.kind === 'condition' || decider.kind === 'oil-analysis') ? 'condition' : 'scheduled',
             title: d.title,
             instructions: d.instructions ?? '',
-            reason: ev.reason,
+            reason: human(ev.reason),
             due_at: occurrenceDueAt(ev, now).toISOString(),
             overdue: false,
             assignee_id: d.responsible_user_id,
@@ -364,6 +365,7 @@ export async function runDueEngine(orm: MikroORM, now: Date, opts: EngineOptions
   const nowMs = now.getTime();
   const latest = await loadLatestInputTimes(em, now);
   const series = new Map<string, MeterSeries>();
+  const labels = new Map<string, MeterLabel>();
 
   let lastId = '00000000-0000-0000-0000-000000000000';
   for (;;) {
@@ -392,6 +394,11 @@ export async function runDueEngine(orm: MikroORM, now: Date, opts: EngineOptions
       }
       for (const [k, v] of await loadMeterSeries(em, [...needMeters], now)) series.set(k, v);
       for (const [k, v] of await loadOilSeries(em, [...needOil], now)) series.set(k, v);
+      const unlabelled = [...new Set(todo.flatMap((r) => inputsOf(r).meters))].filter((m) => !labels.has(m));
+      if (unlabelled.length) {
+        const rows: { id: string; name: string; unit: string }[] = await em.execute(`select id, name, unit from meter where id = any(?::uuid[])`, [uuidArray(unlabelled)]);
+        for (const r of rows) labels.set(r.id, { name: r.name, unit: r.unit });
+      }
 
       const evaluated: Evaluated[] = [];
       for (const row of todo) {
@@ -402,7 +409,7 @@ export async function runDueEngine(orm: MikroORM, now: Date, opts: EngineOptions
           const newBaselines = missingBaselines(row, series);
           if (newBaselines) row.meter_baselines = { ...row.meter_baselines, ...newBaselines };
           const ev = evaluatePlan(toPlanInput(row, now, org.time_zone, series));
-          evaluated.push({ row, ev, inputsAt: inputsAtOf(row, latest), newBaselines });
+          evaluated.push({ row, ev, inputsAt: inputsAtOf(row, latest), newBaselines, human: (s) => humanReason(s, (id) => labels.get(id), org.time_zone) });
         } catch (err) {
           run.error(row.organization_id, err instanceof Error ? err.message : String(err), row.id);
         }

@@ -2,6 +2,7 @@ import type { EntityManager } from '@mikro-orm/postgresql';
 import { evaluatePlan } from '../../../shared/domain/due';
 import { uuidArray, inputsOf, loadMeterSeries, loadOilSeries, missingBaselines, oilMeterId, toPlanInput, type EnginePlanRow } from '../../jobs/due-engine-inputs';
 import { statusColumns } from '../../jobs/due-engine';
+import { humanReason, type MeterLabel } from '../../jobs/due-engine-reason';
 import type { IMaintenancePlan, MeterBaselines } from './plan.entity';
 
 /**
@@ -33,7 +34,12 @@ export async function refreshPlanStatus(em: EntityManager, plan: IMaintenancePla
     row.meter_baselines = plan.meterBaselines;
   }
   const ev = evaluatePlan(toPlanInput(row, now, timeZone, series));
-  const c = statusColumns(ev);
+  const labels = new Map<string, MeterLabel>();
+  if (ins.meters.length) {
+    const rows: { id: string; name: string; unit: string }[] = await em.execute(`select id, name, unit from meter where id = any(?::uuid[])`, [uuidArray(ins.meters)]);
+    for (const r of rows) labels.set(r.id, { name: r.name, unit: r.unit });
+  }
+  const c = statusColumns(ev, (s) => humanReason(s, (id) => labels.get(id), timeZone));
   let inputsAt: number | null = null;
   for (const id of [...ins.meters, ...ins.oil.map(oilMeterId)]) {
     const t = series.get(id)?.readings.at(-1)?.at.getTime();

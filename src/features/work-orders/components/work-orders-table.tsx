@@ -3,7 +3,7 @@ import { Link, useSearchParams } from 'react-router-dom';
 import { createColumnHelper, type SortingState } from '@tanstack/react-table';
 import { DataTable } from '../../../components/ui/data-table';
 import { EmptyState, Notice } from '../../../components/ui/notice';
-import { DUE_FILTERS, DUE_FILTER_LABELS, WORK_STATES, WORK_STATE_LABELS, type ListWorkOrdersQuery, type WorkOrderRow } from '../../../../shared/schemas/work-orders';
+import { DUE_FILTERS, DUE_FILTER_LABELS, WORK_KIND_LABELS, WORK_STATES, WORK_STATE_LABELS, type ListWorkOrdersQuery, type WorkOrderRow } from '../../../../shared/schemas/work-orders';
 import { ROLE_LABELS } from '../../../../shared/permissions';
 import { useWorkOrders } from '../api/get-work-orders';
 import { useWorkLookups } from '../api/get-work-lookups';
@@ -80,7 +80,10 @@ export function WorkOrdersTable({
             <Link className="font-semibold underline" to={`/work-orders/${c.row.original.id}`}>{c.getValue()}</Link>
             <div className="mt-1 flex flex-wrap gap-1">
               {c.row.original.requiresLockout ? <LockoutBadge /> : null}
-              {c.row.original.plan ? <span className="text-xs text-steel-600">Plan: {c.row.original.plan.title}</span> : <span className="text-xs text-steel-600">Raised by hand</span>}
+              <span className="text-xs text-steel-600">
+                {WORK_KIND_LABELS[c.row.original.kind]}
+                {c.row.original.plan && c.row.original.plan.title !== c.getValue() ? ` · plan: ${c.row.original.plan.title}` : ''}
+              </span>
             </div>
           </div>
         ),
