@@ -172,3 +172,13 @@ export type ReadingRow = {
 
 export type TrendPoint = { at: string; value: number; isReset: boolean };
 export type MeterTrend = { meter: MeterRow; points: TrendPoint[]; ratePerDay: number | null };
+
+/** Several counters read at one moment (the station page's "Record counters"): all or none. */
+export const readingBatchSchema = z.object({
+  readAt: readingInputSchema.shape.readAt,
+  readings: z
+    .array(z.object({ meterId: z.uuid({ message: 'Choose a meter' }), value: readingInputSchema.shape.value, isReset: z.boolean().default(false) }))
+    .min(1, 'Enter at least one reading')
+    .max(50, 'At most 50 readings at once'),
+});
+export type ReadingBatchInput = z.output<typeof readingBatchSchema>;

@@ -69,6 +69,24 @@ test.describe('station page on a tablet', () => {
     await expectAccessible(page, 'station after a failed coupon');
   });
 
+  test('operator records counters at the station; a lower count refuses the whole entry', async ({ page }) => {
+    await signIn(page, 'operator@alder-row.example');
+    await page.goto('/station/P1');
+    await page.getByText('Record counters').tap();
+    const starts = page.getByLabel('P1-T · Arc starts (starts)');
+    const last = Number((await page.locator(`#${await starts.getAttribute('id')}-hint`).innerText()).replace(/[^0-9]/g, ''));
+    await starts.fill(String(last - 10));
+    await page.getByLabel('P1-T · Arc hours (h)').fill('99999');
+    await page.getByRole('button', { name: 'Record 2 readings' }).tap();
+    await expect(page.getByRole('status').filter({ hasText: 'Nothing recorded.' })).toBeVisible();
+    await expect(page.getByRole('alert').filter({ hasText: 'is lower than the reading before it' })).toBeVisible();
+    await starts.fill(String(last + 25));
+    await page.getByRole('button', { name: 'Record 2 readings' }).tap();
+    await expect(page.getByRole('status').filter({ hasText: 'Recorded 2 readings.' })).toBeVisible();
+    await expect(page.getByRole('region', { name: 'Torch P1-T' })).toContainText(`${(last + 25).toLocaleString('en-US')} starts`);
+    await expectAccessible(page, 'station counters');
+  });
+
   test('the QR label opens the station page', async ({ page }) => {
     await signIn(page, 'operator@alder-row.example');
     await page.goto('/station/C2');

@@ -124,6 +124,18 @@ describe('machines and components', () => {
       expect(detail.body.meters.map((m: { code: string }) => m.code)).toEqual(['arc-starts', 'filter-dp']);
     });
 
+    it('records several counters at once, all or none, naming the refused one', async () => {
+      const before = (await op.agent.get(`/api/meters/${starts}/readings`).expect(200)).body.total;
+      const bad = await post(op, '/meter-readings', { readings: [{ meterId: dp, value: 700 }, { meterId: starts, value: 5 }] }).expect(400);
+      expect(bad.body.fields[0].path).toBe('readings.1.value');
+      expect(bad.body.message).toMatch(/Arc starts: 5 starts is lower than the reading before it \(20 starts/);
+      expect((await op.agent.get(`/api/meters/${starts}/readings`).expect(200)).body.total).toBe(before);
+      expect((await op.agent.get(`/api/meters/${dp}`).expect(200)).body.latest.value).toBe(600);
+      await post(op, '/meter-readings', { readings: [{ meterId: dp, value: 700 }, { meterId: starts, value: 45 }] }).expect(201);
+      expect((await op.agent.get(`/api/meters/${starts}`).expect(200)).body.latest.value).toBe(45);
+      await post(otherTech, '/meter-readings', { readings: [{ meterId: starts, value: 99 }] }).expect(400);
+    });
+
     it("keeps another shop's meters out of reach", async () => {
       await otherTech.agent.get(`/api/meters/${starts}`).expect(404);
       await post(otherTech, `/meters/${starts}/readings`, { value: 99999 }).expect(404);

@@ -106,6 +106,7 @@ const EXPECTED: Record<string, Role[] | 'public'> = {
   'GET /meters/:id/readings': ALL,
   'POST /meters/:id/readings': ['operator', 'technician', 'admin'],
   'GET /meters/:id/trend': ALL,
+  'POST /meter-readings': ['operator', 'technician', 'admin'],
   'GET /counter-import/template': ALL,
   'POST /counter-import/preview': ['technician', 'admin'],
   'POST /counter-import': ['technician', 'admin'],

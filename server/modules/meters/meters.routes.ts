@@ -2,8 +2,8 @@ import { route, type ApiRouter } from '../../http/route';
 import { requestEm } from '../../db';
 import { requirePrincipal } from '../../http/principal';
 import { uuidParam } from '../../../shared/schemas/common';
-import { listReadingsQuery, meterInputSchema, meterUpdateSchema, readingInputSchema, trendQuery } from '../../../shared/schemas/machines';
-import { addReading, createMeter, getMeter, listReadings, meterTrend, updateMeter } from './meters.service';
+import { listReadingsQuery, meterInputSchema, meterUpdateSchema, readingBatchSchema, readingInputSchema, trendQuery } from '../../../shared/schemas/machines';
+import { addReading, addReadings, createMeter, getMeter, listReadings, meterTrend, updateMeter } from './meters.service';
 
 export function registerMeterRoutes(r: ApiRouter) {
   route(r, 'post', '/meters', { access: 'meters.manage', body: meterInputSchema }, async (req, res) => {
@@ -21,6 +21,9 @@ export function registerMeterRoutes(r: ApiRouter) {
   });
   route(r, 'post', '/meters/:id/readings', { access: 'readings.record', params: uuidParam, body: readingInputSchema }, async (req, res) => {
     res.status(201).json(await addReading(requestEm(), requirePrincipal(req), res.locals.params.id, res.locals.body));
+  });
+  route(r, 'post', '/meter-readings', { access: 'readings.record', body: readingBatchSchema }, async (req, res) => {
+    res.status(201).json(await addReadings(requestEm(), requirePrincipal(req), res.locals.body));
   });
   route(r, 'get', '/meters/:id/trend', { access: 'machines.read', params: uuidParam, query: trendQuery }, async (_req, res) => {
     res.json(await meterTrend(requestEm(), res.locals.params.id, res.locals.query.days));

@@ -3,11 +3,11 @@ import { LockMode } from '@mikro-orm/core';
 import { Meter, MeterReading, type IMeter } from './meter.entity';
 import { Machine } from '../machines/machine.entity';
 import type { Principal } from '../../http/principal';
-import { conflict, fieldError, notFound } from '../../http/errors';
+import { AppError, conflict, fieldError, notFound } from '../../http/errors';
 import { recordAudit } from '../audit/audit';
 import { readingOrderProblem, thinSeries } from '../../../shared/domain/meters';
 import { usageRatePerDay } from '../../../shared/domain/forecast';
-import type { LatestReading, ListReadingsQuery, MeterInput, MeterRow, MeterTrend, MeterUpdate, ReadingInput, ReadingRow } from '../../../shared/schemas/machines';
+import type { LatestReading, ListReadingsQuery, MeterInput, MeterRow, MeterTrend, MeterUpdate, ReadingBatchInput, ReadingInput, ReadingRow } from '../../../shared/schemas/machines';
 import type { Page } from '../../../shared/schemas/users';
 
 // ── Service functions other modules call (the due engine, consumables) ─────────
@@ -120,6 +120,25 @@ export async function addReading(em: EntityManager, who: Principal, meterId: str
     const r = await recordReading(tx, who, meterId, input);
     recordAudit(tx, who, 'meter.reading-recorded', { type: 'Meter', id: meterId }, { value: input.value, isReset: input.isReset, readAt: r.readAt.toISOString() });
     return { id: r.id };
+  });
+}
+
+/** Records several readings taken at one moment in one transaction; a refused one refuses all, on its own field. */
+export async function addReadings(em: EntityManager, who: Principal, input: ReadingBatchInput): Promise<{ ids: string[] }> {
+  return em.transactional(async (tx) => {
+    const ids: string[] = [];
+    for (const [i, r] of input.readings.entries()) {
+      try {
+        const reading = await recordReading(tx, who, r.meterId, { value: r.value, readAt: input.readAt, isReset: r.isReset, note: null });
+        ids.push(reading.id);
+      } catch (err) {
+        if (err instanceof AppError && err.status === 404) throw fieldError(`readings.${i}.meterId`, 'Meter not found');
+        if (err instanceof AppError && err.fields?.[0]?.path === 'value') throw fieldError(`readings.${i}.value`, err.message);
+        throw err;
+      }
+    }
+    recordAudit(tx, who, 'meter.readings-recorded', { type: 'Meter' }, { count: ids.length });
+    return { ids };
   });
 }
 

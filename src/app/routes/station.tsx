@@ -4,6 +4,7 @@ import { getStationQueryOptions, useStation } from '../../features/station/api/g
 import { TorchPanel } from '../../features/station/components/torch-panel';
 import { RecentChanges } from '../../features/station/components/recent-changes';
 import { ToolsSummary } from '../../features/station/components/tools-summary';
+import { CountersForm } from '../../features/station/components/counters-form';
 import { CutCheckForm } from '../../features/cut-checks/components/cut-check-form';
 import { CutChecksTable } from '../../features/cut-checks/components/cut-checks-table';
 import { MetersTable } from '../../features/meters/components/meters-table';
@@ -47,7 +48,15 @@ export function Component() {
         </Panel>
       ) : null}
       <Panel title="Latest counters">
-        <MetersTable meters={s.meters} />
+        <div className="space-y-4">
+          <MetersTable meters={s.meters} />
+          {can(me.role, 'readings.record') && s.meters.length ? (
+            <details className="rounded border border-steel-300 p-3">
+              <summary className="flex min-h-touch cursor-pointer items-center font-bold">Record counters</summary>
+              <div className="mt-3"><CountersForm meters={s.meters} /></div>
+            </details>
+          ) : null}
+        </div>
       </Panel>
       {s.torches.length ? (
         <Panel title="Cut quality">
