@@ -12,7 +12,7 @@ export function Button({ variant = 'primary', className = '', type = 'button', b
   return (
     <button
       type={type}
-      className={`inline-flex min-h-touch min-w-touch items-center justify-center gap-2 rounded px-4 py-2 text-base font-semibold tracking-wide transition-colors disabled:cursor-not-allowed ${styles[variant]} ${className}`}
+      className={`inline-flex min-h-touch min-w-touch items-center justify-center gap-2 rounded px-4 py-2 text-base font-semibold tracking-wide disabled:cursor-not-allowed ${styles[variant]} ${className}`}
       disabled={busy || rest.disabled}
       aria-busy={busy || undefined}
       {...rest}
