@@ -218,6 +218,26 @@ test('the safety screens read well and pass the accessibility scan', async ({ pa
   await expect(page.getByText('Apply energy control — in this order')).toBeVisible();
   await expectAccessible(page, 'procedure');
   await snap(page, 'safety-procedure');
+  // A new procedure needs every phase of 1910.147(d): the form says what is missing.
+  await page.goto('/safety/procedures/new');
+  await page.getByRole('button', { name: 'Save as draft version 1' }).click();
+  await expect(page.getByText('Title is required')).toBeVisible();
+  await expect(page.getByText('Verify isolation: add at least one step')).toBeVisible();
+  await expectAccessible(page, 'procedure editor');
+  await snap(page, 'safety-procedure-editor');
+
+  // Changing the approved procedure makes a draft; approving it with a signature puts it in force.
+  await page.goto('/safety/procedures');
+  await page.getByRole('link', { name: /Energy isolation of Press brake/ }).click();
+  await page.getByRole('link', { name: /Change this procedure/ }).click();
+  await page.getByLabel('Scope: which work this procedure is for').fill('Tool changes, back-gauge work, and cleaning between the beams.');
+  await page.getByRole('button', { name: 'Save draft' }).click();
+  await expect(page.getByRole('heading', { name: 'Draft version 2' })).toBeVisible();
+  await page.getByRole('button', { name: 'Sign: approve version 2' }).click();
+  await signWith(page);
+  await expect(page.getByText('Version 2 approved and in force.')).toBeVisible();
+  await expect(page.getByRole('link', { name: /v1 superseded/i })).toBeVisible();
+
   // The lockout page on a phone: the technician at the machine.
   const phone = await page.context().browser()!.newContext({ viewport: { width: 390, height: 844 }, hasTouch: true });
   const mobile = await phone.newPage();
