@@ -5,11 +5,18 @@ import { EmptyState, Notice } from '../../../components/ui/notice';
 import { useAuditEvents, type AuditRow } from '../api/get-audit-events';
 
 const col = createColumnHelper<AuditRow>();
+/** 'work-order.closed' → 'Work order: closed' — readable without a label for every action. */
+const describeAction = (action: string) => {
+  const [area, ...rest] = action.split('.');
+  const words = (s: string) => s.replace(/[-_]/g, ' ');
+  const head = words(area);
+  return rest.length ? `${head.charAt(0).toUpperCase()}${head.slice(1)}: ${words(rest.join(' '))}` : head;
+};
 const fmt = new Intl.DateTimeFormat(undefined, { dateStyle: 'medium', timeStyle: 'short' });
 const columns = [
   col.accessor('at', { header: 'When', cell: (c) => fmt.format(new Date(c.getValue())), enableSorting: false }),
   col.accessor('actor', { header: 'Who', cell: (c) => c.getValue() ?? 'System', enableSorting: false }),
-  col.accessor('action', { header: 'What', enableSorting: false }),
+  col.accessor('action', { header: 'What', cell: (c) => describeAction(c.getValue()), enableSorting: false }),
   col.accessor('entityType', { header: 'Record', cell: (c) => `${c.getValue()}${c.row.original.entityId ? ` ${c.row.original.entityId.slice(0, 8)}` : ''}`, enableSorting: false }),
 ];
 
