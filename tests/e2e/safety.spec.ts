@@ -129,7 +129,14 @@ test('an operator does the shift PPE check on a tablet', async ({ browser }) => 
 
 test('the technician releases the lockout and closes the work order', async ({ page }) => {
   await signIn(page, 'tech@alder-row.example');
-  await page.goto(lockoutUrl);
+  if (workOrderId) {
+    // Load the work order first so its page is cached, then reach the lockout in-app: no reloads from here on.
+    await page.goto(`/work-orders/${workOrderId}`);
+    await expect(page.getByText('Lockout applied')).toBeVisible();
+    await page.getByRole('link', { name: 'Open the lockout' }).click();
+  } else {
+    await page.goto(lockoutUrl);
+  }
   const release = page.getByRole('button', { name: 'Sign: release and remove my locks' });
   await expect(release).toBeDisabled();
   await page.getByLabel('Work area checked: tools removed, guards back, machine intact').check();
@@ -141,6 +148,12 @@ test('the technician releases the lockout and closes the work order', async ({ p
   await expect(page.getByText(/All devices were removed/)).toBeVisible();
   await snap(page, 'safety-lockout-released');
   if (workOrderId) {
+    // Back to the work order by its link, without a reload: it must already know the lockout is released.
+    await page.getByRole('link', { name: /^WO \d+$/ }).click();
+    await expect(page).toHaveURL(new RegExp(`/work-orders/${workOrderId}$`));
+    await expect(page.getByText('Ready to sign off')).toBeVisible();
+    await expect(page.getByText('Apply lockout before work')).toBeHidden();
+    await expect(page.getByRole('button', { name: 'Sign off the work' })).toBeEnabled();
     const closed = await apiCall(page.request, 'POST', `/work-orders/${workOrderId}/close`, { labourMinutes: 45 });
     expect(closed.status(), await closed.text()).toBeLessThan(300);
     const wo = await (await page.request.get(`/api/work-orders/${workOrderId}`)).json();

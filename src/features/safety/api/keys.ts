@@ -25,3 +25,12 @@ export function useInvalidateSafety() {
   const qc = useQueryClient();
   return () => qc.invalidateQueries({ queryKey: safetyKeys.all });
 }
+
+/**
+ * Lockout state is also shown on the work-order page, cached under the work-orders feature's own
+ * key prefix; refresh it too so that page never shows a released lockout as still needed.
+ */
+export function useInvalidateSafetyAndWorkOrders() {
+  const qc = useQueryClient();
+  return () => Promise.all([qc.invalidateQueries({ queryKey: safetyKeys.all }), qc.invalidateQueries({ queryKey: ['work-orders'] })]);
+}
