@@ -1,16 +1,16 @@
 import { useState } from 'react';
 import { EmptyState, Notice } from '../../../components/ui/notice';
 import { useInbox, type CapturedMail } from '../api/get-inbox';
+import { formatWhen } from '../../../lib/format';
 
-const fmt = new Intl.DateTimeFormat(undefined, { dateStyle: 'short', timeStyle: 'medium' });
 
 /** Mail captured by the local fake SMTP server. Plain text is shown: links stay clickable. */
-function MailBody({ mail }: { mail: CapturedMail }) {
+function MailBody({ mail, timeZone }: { mail: CapturedMail; timeZone: string }) {
   const parts = mail.text.split(/(https?:\/\/\S+)/g);
   return (
     <article className="space-y-2">
       <h3 className="text-lg font-bold">{mail.subject}</h3>
-      <p className="text-sm text-steel-600">To {mail.to.join(', ')} · {fmt.format(new Date(mail.receivedAt))}</p>
+      <p className="text-sm text-steel-600">To {mail.to.join(', ')} · {formatWhen(mail.receivedAt, timeZone)}</p>
       <pre className="whitespace-pre-wrap break-words rounded bg-steel-50 p-3 font-sans text-base">
         {parts.map((p, i) => (/^https?:\/\//.test(p) ? <a key={i} className="font-semibold text-mandatory underline" href={p}>{p}</a> : p))}
       </pre>
@@ -18,7 +18,7 @@ function MailBody({ mail }: { mail: CapturedMail }) {
   );
 }
 
-export function Inbox() {
+export function Inbox({ timeZone }: { timeZone: string }) {
   const q = useInbox();
   const [openId, setOpenId] = useState<number | null>(null);
   if (q.isError) return <Notice tone="danger">{q.error.message}</Notice>;
@@ -33,13 +33,13 @@ export function Inbox() {
           <li key={m.id}>
             <button type="button" onClick={() => setOpenId(m.id)} className={`block w-full min-h-touch px-3 py-2 text-left ${m.id === open.id ? 'bg-steel-200' : 'hover:bg-steel-50'}`} aria-current={m.id === open.id || undefined}>
               <span className="block font-semibold">{m.subject}</span>
-              <span className="block text-sm text-steel-600">{m.to.join(', ')} · {fmt.format(new Date(m.receivedAt))}</span>
+              <span className="block text-sm text-steel-600">{m.to.join(', ')} · {formatWhen(m.receivedAt, timeZone)}</span>
             </button>
           </li>
         ))}
       </ul>
       <div className="rounded border border-steel-200 bg-white p-4">
-        <MailBody mail={open} />
+        <MailBody mail={open} timeZone={timeZone} />
       </div>
     </div>
   );

@@ -8,12 +8,12 @@ import { ROLES, ROLE_LABELS, type Role } from '../../../../shared/permissions';
 import type { ListUsersQuery, MemberRow } from '../../../../shared/schemas/users';
 import { useUsers } from '../api/get-users';
 import { useUpdateMember } from '../api/update-member';
+import { formatWhen } from '../../../lib/format';
 
 const col = createColumnHelper<MemberRow>();
-const fmt = new Intl.DateTimeFormat(undefined, { dateStyle: 'medium', timeStyle: 'short' });
 const statusTone = { active: 'safe', invited: 'caution', deactivated: 'info' } as const;
 
-export function UsersTable({ currentUserId }: { currentUserId: string }) {
+export function UsersTable({ currentUserId, timeZone }: { currentUserId: string; timeZone: string }) {
   const [page, setPage] = useState(1);
   const [sorting, setSorting] = useState<SortingState>([{ id: 'name', desc: false }]);
   const [q, setQ] = useState('');
@@ -52,7 +52,7 @@ export function UsersTable({ currentUserId }: { currentUserId: string }) {
       },
     }),
     col.accessor('status', { header: 'Status', cell: (c) => <Badge tone={statusTone[c.getValue()]}>{c.getValue()}</Badge> }),
-    col.accessor('lastSignInAt', { header: 'Last sign-in', cell: (c) => (c.getValue() ? fmt.format(new Date(c.getValue()!)) : '—') }),
+    col.accessor('lastSignInAt', { header: 'Last sign-in', cell: (c) => formatWhen(c.getValue(), timeZone) }),
     col.display({
       id: 'actions',
       header: 'Access',

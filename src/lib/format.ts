@@ -1,0 +1,39 @@
+import { DateTime } from 'luxon';
+
+/**
+ * One way to show time everywhere: the shop's own clock (its IANA zone), day-month-year,
+ * 24-hour — a night-shift record reads the same on every device, whatever zone the viewer is in.
+ */
+export function formatWhen(iso: string | Date | null | undefined, timeZone: string, withTime = true): string {
+  if (!iso) return '—';
+  return new Intl.DateTimeFormat('en-GB', { timeZone, day: 'numeric', month: 'short', year: 'numeric', ...(withTime ? { hour: '2-digit', minute: '2-digit', hourCycle: 'h23' } : {}) }).format(new Date(iso));
+}
+
+/** Short axis labels for charts: "3 Dec". */
+export function formatDay(iso: string | Date, timeZone: string): string {
+  return new Intl.DateTimeFormat('en-GB', { timeZone, day: 'numeric', month: 'short' }).format(new Date(iso));
+}
+
+/** "in 3 days", "2 days ago" … relative to now, in whole units. */
+export function relative(iso: string | null): string {
+  if (!iso) return '';
+  const diff = new Date(iso).getTime() - Date.now();
+  const abs = Math.abs(diff);
+  const rtf = new Intl.RelativeTimeFormat('en', { numeric: 'auto' });
+  if (abs < 3_600_000) return rtf.format(Math.round(diff / 60_000), 'minute');
+  if (abs < 86_400_000) return rtf.format(Math.round(diff / 3_600_000), 'hour');
+  return rtf.format(Math.round(diff / 86_400_000), 'day');
+}
+
+/** An instant as "YYYY-MM-DDTHH:mm" in the shop's zone, for a datetime-local field. */
+export function toShopLocal(iso: string | null, timeZone: string): string {
+  return iso ? DateTime.fromISO(iso).setZone(timeZone).toFormat("yyyy-MM-dd'T'HH:mm") : '';
+}
+
+/** A datetime-local value read in the shop's zone (not the browser's) as an ISO instant, or null. */
+export function fromShopLocal(local: string, timeZone: string): string | null {
+  return local ? DateTime.fromISO(local, { zone: timeZone }).toUTC().toISO() : null;
+}
+
+/** 12345.6 → "12,345.6": counters are read at a glance. */
+export const formatNumber = (n: number, maxFractionDigits = 1) => new Intl.NumberFormat('en-GB', { maximumFractionDigits: maxFractionDigits }).format(n);
