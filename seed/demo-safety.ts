@@ -16,7 +16,7 @@ import { contentDigest } from '../server/modules/safety/procedures.service';
 import { deriveRequiredItems } from '../shared/schemas/safety-ppe-derive';
 import { DEFAULT_SAFETY_SETTINGS } from '../server/modules/safety/settings';
 import type { Principal } from '../server/http/principal';
-import type { ProcedureContent, EnergySource } from '../shared/schemas/safety-procedures';
+import { pointTag, type ProcedureContent, type EnergySource } from '../shared/schemas/safety-procedures';
 import type { PpeItem } from '../shared/schemas/safety-ppe';
 import type { SeedStep } from './demo';
 
@@ -27,11 +27,11 @@ function cellContent(m: IMachine, extraStep?: string): ProcedureContent {
     title: `Full energy isolation of ${m.name}`,
     scope: 'Any work inside the guarded area: punch head and tooling, torch and consumables, clamps, table and chip conveyor.',
     sources: [
-      src({ key: 'E1', kind: 'electrical', description: 'Main supply to the control cabinet', magnitude: '480 V 3-phase, 100 A', isolationDevice: 'Main disconnect Q0', location: 'Cabinet door, left side', relieveMethod: 'Wait 5 minutes for the servo drive capacitors to discharge (drive LEDs dark)', verifyMethod: 'Try start at the panel; test L1-L2-L3 to earth at Q0 outgoing side with a proven tester' }),
-      src({ key: 'H1', kind: 'hydraulic', description: 'Ram hydraulics with bladder accumulator', magnitude: '210 bar, 4 L accumulator', isolationDevice: 'Pump runs from E1; accumulator dump valve V7', location: 'Hydraulic unit behind the cell', relieveMethod: 'Open V7 and leave it open until gauge PG2 reads 0 bar', verifyMethod: 'PG2 reads 0 bar; ram does not move on jog' }),
-      src({ key: 'P1', kind: 'pneumatic', description: 'Clamp and table air', magnitude: '6 bar', isolationDevice: 'Lockable ball valve with exhaust V1', location: 'Air drop at the column next to the cell', relieveMethod: 'Close V1; the exhaust port vents the line', verifyMethod: 'Gauge at the clamp manifold reads 0; clamps open by hand' }),
-      src({ key: 'PL1', kind: 'plasma-power', description: 'Plasma power source of the torch', magnitude: '480 V in, 300 V DC open circuit', isolationDevice: 'Plasma source disconnect Q5', location: 'Plasma cabinet, front', relieveMethod: 'Wait 2 minutes after switch-off', verifyMethod: 'Source display dark; no pilot arc on a test fire from the control' }),
-      src({ key: 'G1', kind: 'gravity', description: 'Raised punch head and upper clamp beam', magnitude: 'About 180 kg', isolationDevice: 'Red safety block under the ram', location: 'Punch head, front', relieveMethod: 'Lower the ram onto the safety block before isolating', verifyMethod: 'Block seated and pinned; no gap under the ram' }),
+      src({ key: pointTag(m.code, 1), kind: 'electrical', description: 'Main supply to the control cabinet', magnitude: '480 V 3-phase, 100 A', isolationDevice: 'Main disconnect Q0', location: 'Cabinet door, left side', relieveMethod: 'Wait 5 minutes for the servo drive capacitors to discharge (drive LEDs dark)', verifyMethod: 'Try start at the panel; test L1-L2-L3 to earth at Q0 outgoing side with a proven tester' }),
+      src({ key: pointTag(m.code, 2), kind: 'hydraulic', description: 'Ram hydraulics with bladder accumulator', magnitude: '210 bar, 4 L accumulator', isolationDevice: `Pump runs from ${pointTag(m.code, 1)}; accumulator dump valve V7`, location: 'Hydraulic unit behind the cell', relieveMethod: 'Open V7 and leave it open until gauge PG2 reads 0 bar', verifyMethod: 'PG2 reads 0 bar; ram does not move on jog' }),
+      src({ key: pointTag(m.code, 3), kind: 'pneumatic', description: 'Clamp and table air', magnitude: '6 bar', isolationDevice: 'Lockable ball valve with exhaust V1', location: 'Air drop at the column next to the cell', relieveMethod: 'Close V1; the exhaust port vents the line', verifyMethod: 'Gauge at the clamp manifold reads 0; clamps open by hand' }),
+      src({ key: pointTag(m.code, 4), kind: 'plasma-power', description: 'Plasma power source of the torch', magnitude: '480 V in, 300 V DC open circuit', isolationDevice: 'Plasma source disconnect Q5', location: 'Plasma cabinet, front', relieveMethod: 'Wait 2 minutes after switch-off', verifyMethod: 'Source display dark; no pilot arc on a test fire from the control' }),
+      src({ key: pointTag(m.code, 5), kind: 'gravity', description: 'Raised punch head and upper clamp beam', magnitude: 'About 180 kg', isolationDevice: 'Red safety block under the ram', location: 'Punch head, front', relieveMethod: 'Lower the ram onto the safety block before isolating', verifyMethod: 'Block seated and pinned; no gap under the ram' }),
     ],
     steps: {
       prepare: ['Tell the operator and everyone at the cell that it will be locked out and why.', 'Read this procedure and collect your own locks and tags.'],
@@ -50,9 +50,9 @@ function tableContent(m: IMachine): ProcedureContent {
     title: `Energy isolation of ${m.name}`,
     scope: 'Torch, gantry, slats and water table work.',
     sources: [
-      src({ key: 'E1', kind: 'electrical', description: 'Gantry drives and control', magnitude: '480 V 3-phase, 32 A', isolationDevice: 'Disconnect Q1', location: 'Table control cabinet', relieveMethod: 'Wait 3 minutes for the drive capacitors', verifyMethod: 'Try jog from the pendant; test at Q1 outgoing side' }),
-      src({ key: 'PL1', kind: 'plasma-power', description: 'Plasma power source', magnitude: '480 V in, 300 V DC open circuit', isolationDevice: 'Disconnect Q2', location: 'Beside the power source', relieveMethod: 'Wait 2 minutes after switch-off', verifyMethod: 'Display dark; no pilot arc on a test fire' }),
-      src({ key: 'P1', kind: 'pneumatic', description: 'Plasma and shield gas (air)', magnitude: '7 bar', isolationDevice: 'Lockable valve V2', location: 'Air drop behind the table', relieveMethod: 'Close V2; purge from the torch test button', verifyMethod: 'Gas console gauge reads 0' }),
+      src({ key: pointTag(m.code, 1), kind: 'electrical', description: 'Gantry drives and control', magnitude: '480 V 3-phase, 32 A', isolationDevice: 'Disconnect Q1', location: 'Table control cabinet', relieveMethod: 'Wait 3 minutes for the drive capacitors', verifyMethod: 'Try jog from the pendant; test at Q1 outgoing side' }),
+      src({ key: pointTag(m.code, 2), kind: 'plasma-power', description: 'Plasma power source', magnitude: '480 V in, 300 V DC open circuit', isolationDevice: 'Disconnect Q2', location: 'Beside the power source', relieveMethod: 'Wait 2 minutes after switch-off', verifyMethod: 'Display dark; no pilot arc on a test fire' }),
+      src({ key: pointTag(m.code, 3), kind: 'pneumatic', description: 'Plasma and shield gas (air)', magnitude: '7 bar', isolationDevice: 'Lockable valve V2', location: 'Air drop behind the table', relieveMethod: 'Close V2; purge from the torch test button', verifyMethod: 'Gas console gauge reads 0' }),
     ],
     steps: {
       prepare: ['Tell the operator the table will be locked out.'],
@@ -71,9 +71,9 @@ function brakeContent(m: IMachine): ProcedureContent {
     title: `Energy isolation of ${m.name}`,
     scope: 'Tool changes, back-gauge work and anything between the beams.',
     sources: [
-      src({ key: 'E1', kind: 'electrical', description: 'Main supply, pump and back-gauge drives', magnitude: '480 V 3-phase, 40 A', isolationDevice: 'Main disconnect Q1', location: 'Control cabinet, right side', relieveMethod: 'Wait 3 minutes for the drive capacitors', verifyMethod: 'Try start and jog from the pedal; test at Q1 outgoing side' }),
-      src({ key: 'H1', kind: 'hydraulic', description: 'Ram cylinders', magnitude: '280 bar', isolationDevice: 'Pump runs from E1; ram valve block', location: 'Tank on the upper frame', relieveMethod: 'Lower the ram onto the wooden blocks so no pressure holds it', verifyMethod: 'Pressure gauge on the valve block reads 0 bar' }),
-      src({ key: 'G1', kind: 'gravity', description: 'Upper beam (ram)', magnitude: 'About 900 kg', isolationDevice: 'Two hardwood blocks under the ram', location: 'Between the beams, left and right', relieveMethod: 'Lower the ram onto both blocks', verifyMethod: 'Both blocks seated; ram resting on them' }),
+      src({ key: pointTag(m.code, 1), kind: 'electrical', description: 'Main supply, pump and back-gauge drives', magnitude: '480 V 3-phase, 40 A', isolationDevice: 'Main disconnect Q1', location: 'Control cabinet, right side', relieveMethod: 'Wait 3 minutes for the drive capacitors', verifyMethod: 'Try start and jog from the pedal; test at Q1 outgoing side' }),
+      src({ key: pointTag(m.code, 2), kind: 'hydraulic', description: 'Ram cylinders', magnitude: '280 bar', isolationDevice: `Pump runs from ${pointTag(m.code, 1)}; ram valve block`, location: 'Tank on the upper frame', relieveMethod: 'Lower the ram onto the wooden blocks so no pressure holds it', verifyMethod: 'Pressure gauge on the valve block reads 0 bar' }),
+      src({ key: pointTag(m.code, 3), kind: 'gravity', description: 'Upper beam (ram)', magnitude: 'About 900 kg', isolationDevice: 'Two hardwood blocks under the ram', location: 'Between the beams, left and right', relieveMethod: 'Lower the ram onto both blocks', verifyMethod: 'Both blocks seated; ram resting on them' }),
     ],
     steps: {
       prepare: ['Tell the operator the brake will be locked out.'],
@@ -92,9 +92,9 @@ function hydraulicContent(m: IMachine): ProcedureContent {
     title: `Energy isolation of ${m.name}`,
     scope: 'Filter changes, oil changes, hose and valve work.',
     sources: [
-      src({ key: 'E1', kind: 'electrical', description: 'Pump motor', magnitude: '480 V 3-phase, 15 kW', isolationDevice: 'Motor isolator Q3', location: 'On the unit', relieveMethod: 'None stored', verifyMethod: 'Press pump start; motor stays still' }),
-      src({ key: 'H1', kind: 'hydraulic', description: 'Accumulator and pressure line', magnitude: '210 bar', isolationDevice: 'Dump valve V7', location: 'Accumulator block', relieveMethod: 'Open V7 until PG1 reads 0 bar', verifyMethod: 'PG1 reads 0 bar' }),
-      src({ key: 'T1', kind: 'thermal', description: 'Hot oil and tank surfaces', magnitude: 'Up to 60 °C', isolationDevice: 'None: wait', location: 'Tank and return line', relieveMethod: 'Let the oil cool below 40 °C on the tank thermometer', verifyMethod: 'Tank thermometer below 40 °C' }),
+      src({ key: pointTag(m.code, 1), kind: 'electrical', description: 'Pump motor', magnitude: '480 V 3-phase, 15 kW', isolationDevice: 'Motor isolator Q3', location: 'On the unit', relieveMethod: 'None stored', verifyMethod: 'Press pump start; motor stays still' }),
+      src({ key: pointTag(m.code, 2), kind: 'hydraulic', description: 'Accumulator and pressure line', magnitude: '210 bar', isolationDevice: 'Dump valve V7', location: 'Accumulator block', relieveMethod: 'Open V7 until PG1 reads 0 bar', verifyMethod: 'PG1 reads 0 bar' }),
+      src({ key: pointTag(m.code, 3), kind: 'thermal', description: 'Hot oil and tank surfaces', magnitude: 'Up to 60 °C', isolationDevice: 'None: wait', location: 'Tank and return line', relieveMethod: 'Let the oil cool below 40 °C on the tank thermometer', verifyMethod: 'Tank thermometer below 40 °C' }),
     ],
     steps: {
       prepare: ['Tell the cell operator the hydraulics will be down.'],
@@ -113,9 +113,9 @@ function extractorContent(m: IMachine): ProcedureContent {
     title: `Energy isolation of ${m.name}`,
     scope: 'Cartridge changes, dust bin and fan work.',
     sources: [
-      src({ key: 'E1', kind: 'electrical', description: 'Fan motor and controller', magnitude: '480 V 3-phase, 11 kW', isolationDevice: 'Isolator Q4', location: 'Side of the unit', relieveMethod: 'Let the fan run down fully', verifyMethod: 'Press start; fan stays still' }),
-      src({ key: 'P1', kind: 'pneumatic', description: 'Pulse-cleaning air', magnitude: '6 bar', isolationDevice: 'Lockable valve V3', location: 'Air inlet on the header tank', relieveMethod: 'Close V3 and fire one manual pulse to vent', verifyMethod: 'Header tank gauge reads 0' }),
-      src({ key: 'S1', kind: 'stored-mechanical', description: 'Fan impeller run-down', magnitude: 'About 2 minutes', isolationDevice: 'None: wait', location: 'Fan housing', relieveMethod: 'Wait until the impeller stops (look through the inspection port)', verifyMethod: 'Impeller visibly still' }),
+      src({ key: pointTag(m.code, 1), kind: 'electrical', description: 'Fan motor and controller', magnitude: '480 V 3-phase, 11 kW', isolationDevice: 'Isolator Q4', location: 'Side of the unit', relieveMethod: 'Let the fan run down fully', verifyMethod: 'Press start; fan stays still' }),
+      src({ key: pointTag(m.code, 2), kind: 'pneumatic', description: 'Pulse-cleaning air', magnitude: '6 bar', isolationDevice: 'Lockable valve V3', location: 'Air inlet on the header tank', relieveMethod: 'Close V3 and fire one manual pulse to vent', verifyMethod: 'Header tank gauge reads 0' }),
+      src({ key: pointTag(m.code, 3), kind: 'stored-mechanical', description: 'Fan impeller run-down', magnitude: 'About 2 minutes', isolationDevice: 'None: wait', location: 'Fan housing', relieveMethod: 'Wait until the impeller stops (look through the inspection port)', verifyMethod: 'Impeller visibly still' }),
     ],
     steps: {
       prepare: ['Tell the cell operator that extraction will stop; no cutting meanwhile.'],

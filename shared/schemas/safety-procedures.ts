@@ -33,9 +33,26 @@ export const PHASE_LABELS: Record<ProcedurePhase, { title: string; source: strin
 
 const text = (what: string, max: number) => z.string({ message: `${what} is required` }).trim().min(1, `${what} is required`).max(max, `${what}: at most ${max} characters`);
 
+const POINT_TAG = /^[A-Z][A-Z0-9-]{0,7}$/;
+
+/**
+ * Isolation-point tag "<machine code>-E<n>" (C2-E1, C2-E2 …): a bare "H1" or "P1" reads as a machine
+ * code. Tags are stored in 8 characters, so a machine code too long for that falls back to "E<n>".
+ * Procedures written before this keep their short tags (E1, H1) and still read and lock out.
+ */
+export function pointTag(machineCode: string, n: number): string {
+  const tag = `${machineCode.trim().toUpperCase()}-E${n}`;
+  return POINT_TAG.test(tag) ? tag : `E${n}`;
+}
+
+/** The first tag in the scheme not already used on this procedure. */
+export function nextPointTag(machineCode: string, used: string[]): string {
+  for (let n = 1; ; n++) if (!used.includes(pointTag(machineCode, n))) return pointTag(machineCode, n);
+}
+
 export const energySourceSchema = z.object({
-  /** Short tag painted at the isolation point and printed on the placard, e.g. "E1". */
-  key: z.string().trim().regex(/^[A-Z][A-Z0-9-]{0,7}$/, 'Use a short tag such as E1 or H2 (capital letters, digits, dash)'),
+  /** Tag painted at the isolation point and printed on the placard, e.g. "C2-E1" (see pointTag). */
+  key: z.string().trim().regex(POINT_TAG, 'Use a tag such as C2-E1: machine code, E and a number (capital letters, digits, dash; at most 8)'),
   kind: z.enum(ENERGY_KINDS, { message: 'Choose the kind of energy' }),
   description: text('Description', 200),
   magnitude: text('Magnitude', 80),

@@ -49,7 +49,7 @@ test('a technician applies and verifies a lockout', async ({ page }) => {
   await expect(page.getByLabel('Energy-control procedure')).toHaveValue(/.+/);
   await page.getByLabel('Work to be done').fill('Replace the clamp pads');
   const lockFields = page.getByLabel(/^Lock or tag no\. on /);
-  await expect(lockFields).toHaveCount(5); // E1, H1, P1, PL1, G1 in the demo procedure
+  await expect(lockFields).toHaveCount(5); // C2-E1 … C2-E5 in the demo procedure: tags that cannot be read as machine codes
   // Sign without lock numbers: the form says which are missing and nothing opens.
   await page.getByRole('button', { name: 'Sign: my locks are on' }).click();
   await expect(page.getByText('Enter the lock number').first()).toBeVisible();
@@ -73,7 +73,7 @@ test('a technician applies and verifies a lockout', async ({ page }) => {
   const verify = page.getByRole('button', { name: 'Sign: zero energy verified' });
   await expect(verify).toBeDisabled();
   await page.getByLabel('I tried to start the machine with its normal controls; it did not start').check();
-  for (const key of ['E1', 'H1', 'P1', 'PL1', 'G1']) await page.getByLabel(new RegExp(`^${key} · .*: zero energy`)).check();
+  for (const key of ['C2-E1', 'C2-E2', 'C2-E3', 'C2-E4', 'C2-E5']) await page.getByLabel(new RegExp(`^${key} · .*: zero energy`)).check();
   await verify.click();
   await signWith(page);
   await expect(page.getByText('Locked out: do not operate')).toBeVisible();
@@ -175,7 +175,7 @@ test('the safety officer filters the audit, verifies the chain and exports CSV a
   await page.getByRole('combobox', { name: 'Meaning' }).selectOption({ label: 'Lockout released' });
   await expect(table.getByRole('row')).not.toHaveCount(1);
   await expect(table.getByRole('cell', { name: TECH }).first()).toBeVisible();
-  await expect(table.getByText(/^C2: area checked, people clear, affected employees told; removed E1 lock E2E-1/)).toBeVisible();
+  await expect(table.getByText(/^C2: area checked, people clear, affected employees told; removed C2-E1 lock E2E-1/)).toBeVisible();
   await expectAccessible(page, 'safety audit');
   await snap(page, 'safety-audit');
 

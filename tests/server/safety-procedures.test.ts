@@ -7,6 +7,7 @@ import { deflateSync } from 'node:zlib';
 import { makeTestApp } from '../setup/test-app';
 import { approvedProcedure, cellProcedure, countSignOffs, get, makeSafetyShop, PASSWORD, post, put, type SafetyShop } from './safety-helpers';
 import { WORK_CAUTION } from '../../shared/domain/cautions';
+import { nextPointTag, pointTag } from '../../shared/schemas/safety-procedures';
 
 let t: Awaited<ReturnType<typeof makeTestApp>>;
 let shop: SafetyShop;
@@ -50,6 +51,15 @@ describe('energy-control procedures', () => {
     expect(paths).toEqual(expect.arrayContaining(['steps.relieve', 'steps.verify', 'sources.1.key']));
     expect(res.body.fields.find((f: { path: string }) => f.path === 'steps.verify').message).toBe('Verify isolation: add at least one step');
     expect((await get(shop.s.safety, '/safety/procedures').expect(200)).body).toEqual([]);
+  });
+
+  it('refuses an isolation-point tag that is also a machine code, and suggests one in the machine-code scheme', async () => {
+    const p = cellProcedure();
+    // PT1 is the shop's plasma table: a lock tagged "PT1" on cell C1 would read as that machine.
+    const res = await post(shop.s.safety, '/safety/procedures', { ...p, machineId: shop.machineId, sources: [p.sources[0], { ...p.sources[1], key: 'PT1' }] }).expect(400);
+    expect(res.body.fields).toEqual([{ path: 'sources.1.key', message: 'PT1 is also a machine code; use a tag such as C1-E2' }]);
+    expect((await get(shop.s.safety, '/safety/procedures').expect(200)).body).toEqual([]);
+    expect([pointTag('C2', 1), pointTag('LONGCODE', 3), nextPointTag('C2', ['C2-E1', 'C2-E3'])]).toEqual(['C2-E1', 'E3', 'C2-E2']);
   });
 
   it('lets only the safety officer write procedures, and answers 404 for another shop’s machine', async () => {

@@ -17,6 +17,7 @@ import {
   type ProcedureDetail,
   type ProcedureSummary,
   type VersionDetail,
+  pointTag,
 } from '../../../shared/schemas/safety-procedures';
 import { inspectionEvaluation } from './due';
 import { loadSafetySettings } from './settings';
@@ -93,6 +94,7 @@ export async function createProcedure(em: EntityManager, who: Principal, input: 
   return em.transactional(async (tx) => {
     const machine = await tx.findOne(Machine, machineId);
     if (!machine) throw notFound('Machine');
+    await refuseMachineCodeTags(tx, machine, content);
     const proc = tx.create(EnergyProcedure, { organization: who.orgId, machine, title: content.title });
     const v = tx.create(ProcedureVersion, { organization: who.orgId, procedure: proc, version: 1, status: 'draft', content, author: who.userId, retrainingRequired: true });
     recordAudit(tx, who, 'safety.procedure-created', { type: 'EnergyProcedure', id: proc.id }, { machine: machine.code, title: content.title });
@@ -100,11 +102,20 @@ export async function createProcedure(em: EntityManager, who: Principal, input: 
   });
 }
 
+/** A point tag equal to a machine code ("H1") would be read as that machine on the placard and the lock. */
+async function refuseMachineCodeTags(em: EntityManager, machine: { code: string }, content: ProcedureContent) {
+  const codes = new Set((await em.find(Machine, {}, { fields: ['code'] })).map((m) => m.code.toUpperCase()));
+  content.sources.forEach((s, i) => {
+    if (codes.has(s.key.toUpperCase())) throw fieldError(`sources.${i}.key`, `${s.key} is also a machine code; use a tag such as ${pointTag(machine.code, i + 1)}`);
+  });
+}
+
 /** Edits the open draft, or starts a new draft version from the text sent. Approved versions never change. */
 export async function saveDraft(em: EntityManager, who: Principal, procedureId: string, content: ProcedureContent): Promise<{ versionId: string; version: number }> {
   return em.transactional(async (tx) => {
-    const proc = await tx.findOne(EnergyProcedure, procedureId);
+    const proc = await tx.findOne(EnergyProcedure, procedureId, { populate: ['machine'] });
     if (!proc) throw notFound('Procedure');
+    await refuseMachineCodeTags(tx, proc.machine.getEntity(), content);
     // Serialise draft creation per procedure so two editors cannot both open version N+1.
     await tx.execute('select id from safety_procedure where id = ? for update', [proc.id]);
     const versions = await tx.find(ProcedureVersion, { procedure: proc.id }, { orderBy: { version: 'asc' } });

@@ -27,7 +27,7 @@ export function Component() {
   const p = existing.data;
   const base = p?.draft?.content ?? p?.current?.content;
   const wanted = params.get('machineId');
-  const options = (machines.data ?? []).map((m) => ({ id: m.id, label: `${m.code} · ${m.name}` }));
+  const options = (machines.data ?? []).map((m) => ({ id: m.id, code: m.code, label: `${m.code} · ${m.name}` }));
   return (
     <>
       <PageTitle
@@ -38,7 +38,7 @@ export function Component() {
         key={p?.id ?? 'new'}
         initial={base}
         machines={wanted ? [...options.filter((o) => o.id === wanted), ...options.filter((o) => o.id !== wanted)] : options}
-        fixedMachine={p ? `${p.machine.code} · ${p.machine.name}` : undefined}
+        fixedMachine={p ? { code: p.machine.code, label: `${p.machine.code} · ${p.machine.name}` } : undefined}
         submitLabel={p ? 'Save draft' : 'Save as draft version 1'}
         onSubmit={async ({ machineId, content }) => {
           if (p) {

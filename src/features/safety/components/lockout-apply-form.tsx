@@ -153,7 +153,7 @@ export function LockoutApplyForm({ signer, initialMachineId, workOrderId }: { si
                 return (
                   <fieldset key={f.id} className="grid gap-3 rounded border border-steel-300 bg-steel-50 p-3 md:grid-cols-[5rem_1fr_12rem_10rem_9rem]">
                     <legend className="sr-only">Isolation point {f.sourceKey}</legend>
-                    <span className="flex h-14 w-14 items-center justify-center rounded-full bg-caution text-lg font-bold text-steel-950" aria-hidden>
+                    <span className="flex h-14 min-w-14 justify-self-start items-center justify-center rounded-full bg-caution px-2 text-lg font-bold text-steel-950" aria-hidden>
                       {f.sourceKey}
                     </span>
                     <div className="text-sm">

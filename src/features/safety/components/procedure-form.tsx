@@ -1,4 +1,4 @@
-import { useState } from 'react';
+import { useEffect, useRef, useState } from 'react';
 import { useFieldArray, useForm, type FieldErrors, type Resolver } from 'react-hook-form';
 import { SelectField, TextField } from '../../../components/ui/field';
 import { Button } from '../../../components/ui/button';
@@ -8,8 +8,10 @@ import {
   createProcedureSchema,
   ENERGY_KIND_LABELS,
   ENERGY_KINDS,
+  nextPointTag,
   PHASE_LABELS,
   PROCEDURE_PHASES,
+  pointTag,
   procedureContentSchema,
   type EnergySource,
   type ProcedureContent,
@@ -33,11 +35,11 @@ export const toContent = (v: FormValues): ProcedureContent => ({
   release: lines(v.release),
 });
 
-const fromContent = (c: ProcedureContent | undefined, machineId: string): FormValues => ({
+const fromContent = (c: ProcedureContent | undefined, machineId: string, machineCode: string): FormValues => ({
   machineId,
   title: c?.title ?? '',
   scope: c?.scope ?? '',
-  sources: c?.sources ?? [{ key: 'E1', kind: 'electrical', description: '', magnitude: '', isolationDevice: '', location: '', relieveMethod: '', verifyMethod: '' }],
+  sources: c?.sources ?? [{ key: pointTag(machineCode, 1), kind: 'electrical', description: '', magnitude: '', isolationDevice: '', location: '', relieveMethod: '', verifyMethod: '' }],
   steps: Object.fromEntries(PROCEDURE_PHASES.map((p) => [p, (c?.steps[p] ?? []).join('\n')])) as Record<ProcedurePhase, string>,
   release: (c?.release ?? []).join('\n'),
 });
@@ -84,15 +86,31 @@ export function ProcedureForm({
   onSubmit,
 }: {
   initial?: ProcedureContent;
-  machines?: { id: string; label: string }[];
-  fixedMachine?: string;
+  machines?: { id: string; code: string; label: string }[];
+  fixedMachine?: { code: string; label: string };
   submitLabel: string;
   onSubmit: (input: { machineId: string; content: ProcedureContent }) => Promise<void>;
 }) {
   const creating = !fixedMachine;
   const [formError, setFormError] = useState<string | null>(null);
-  const { register, control, handleSubmit, setError, formState } = useForm<FormValues>({ resolver: makeResolver(creating), defaultValues: fromContent(initial, machines?.[0]?.id ?? '') });
+  const { register, control, handleSubmit, setError, formState, watch, getValues, setValue } = useForm<FormValues>({
+    resolver: makeResolver(creating),
+    defaultValues: fromContent(initial, machines?.[0]?.id ?? '', fixedMachine?.code ?? machines?.[0]?.code ?? ''),
+  });
   const { fields, append, remove } = useFieldArray({ control, name: 'sources' });
+  const machineId = watch('machineId');
+  const machineCode = fixedMachine?.code ?? machines?.find((m) => m.id === machineId)?.code ?? '';
+  // Choosing another machine renames the tags that still follow the previous machine's scheme.
+  const prevCode = useRef(machineCode);
+  useEffect(() => {
+    const prev = prevCode.current;
+    prevCode.current = machineCode;
+    if (!prev || prev === machineCode) return;
+    getValues('sources').forEach((src, i) => {
+      const n = Array.from({ length: 20 }, (_, k) => k + 1).find((k) => pointTag(prev, k) === src.key);
+      if (n) setValue(`sources.${i}.key`, pointTag(machineCode, n));
+    });
+  }, [machineCode, getValues, setValue]);
   const e = formState.errors;
   const submit = handleSubmit(async (v) => {
     setFormError(null);
@@ -121,7 +139,7 @@ export function ProcedureForm({
           {creating ? (
             <SelectField label="Machine" error={e.machineId?.message} options={[{ value: '', label: 'Choose a machine' }, ...(machines ?? []).map((m) => ({ value: m.id, label: m.label }))]} {...register('machineId')} />
           ) : (
-            <p className="self-center font-semibold">Machine: {fixedMachine}</p>
+            <p className="self-center font-semibold">Machine: {fixedMachine?.label}</p>
           )}
           <TextField label="Title" error={e.title?.message} {...register('title')} />
           <div className="md:col-span-2 space-y-1">
@@ -137,7 +155,7 @@ export function ProcedureForm({
       <Panel
         title="Energy sources and isolation points"
         actions={
-          <Button variant="secondary" onClick={() => append({ key: `X${fields.length + 1}`, kind: 'other', description: '', magnitude: '', isolationDevice: '', location: '', relieveMethod: '', verifyMethod: '' })}>
+          <Button variant="secondary" onClick={() => append({ key: nextPointTag(machineCode, getValues('sources').map((x) => x.key)), kind: 'other', description: '', magnitude: '', isolationDevice: '', location: '', relieveMethod: '', verifyMethod: '' })}>
             Add energy source
           </Button>
         }
@@ -149,7 +167,7 @@ export function ProcedureForm({
             return (
               <fieldset key={f.id} className="grid gap-3 rounded border border-steel-300 bg-steel-50 p-3 md:grid-cols-4">
                 <legend className="px-1 font-bold">Energy source {i + 1}</legend>
-                <TextField label="Tag at the point" hint="e.g. E1, H1" error={se?.key?.message} {...register(`sources.${i}.key`)} />
+                <TextField label="Tag at the point" hint={`e.g. ${pointTag(machineCode || 'C2', i + 1)}: machine code, E and a number`} error={se?.key?.message} {...register(`sources.${i}.key`)} />
                 <SelectField label="Kind of energy" options={ENERGY_KINDS.map((k) => ({ value: k, label: ENERGY_KIND_LABELS[k] }))} {...register(`sources.${i}.kind`)} />
                 <TextField label="Description" error={se?.description?.message} {...register(`sources.${i}.description`)} />
                 <TextField label="Magnitude" hint="e.g. 480 V 3-phase; 210 bar" error={se?.magnitude?.message} {...register(`sources.${i}.magnitude`)} />

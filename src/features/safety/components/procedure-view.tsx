@@ -30,7 +30,7 @@ export function VersionText({ procedureId, v }: { procedureId: string; v: Versio
           {c.sources.map((s) => (
             <article key={s.key} className="rounded border border-steel-300 bg-white p-3">
               <div className="flex items-start gap-3">
-                <span className="flex h-12 w-12 shrink-0 items-center justify-center rounded-full bg-caution text-base font-bold text-steel-950">{s.key}</span>
+                <span className="flex h-12 min-w-12 shrink-0 items-center justify-center rounded-full bg-caution px-2 text-base font-bold text-steel-950">{s.key}</span>
                 <div>
                   <p className="font-bold">{ENERGY_KIND_LABELS[s.kind]}</p>
                   <p className="text-sm">
