@@ -102,16 +102,27 @@ test('an operator does the shift PPE check on a tablet', async ({ browser }) => 
   await expect(page.getByText('Do not start yet')).toBeVisible();
   // Filter lens at 130 A: OSHA 29 CFR 1910.133(a)(5) minimum shade 8.
   await expect(page.getByText('Shade 8 or darker at 130 A (suggested 9)')).toBeVisible();
-  const items = page.getByRole('button', { pressed: false }).filter({ hasText: 'Put on' });
+  const items = page.getByRole('button', { pressed: false }).filter({ hasText: 'Not yet on' });
   const count = await items.count();
   expect(count).toBeGreaterThanOrEqual(4);
-  for (let i = 0; i < count; i++) await page.getByRole('button', { pressed: false }).filter({ hasText: 'Put on' }).first().tap();
+  for (let i = 0; i < count; i++) await page.getByRole('button', { pressed: false }).filter({ hasText: 'Not yet on' }).first().tap();
   await expect(page.getByText('Everything on')).toBeVisible();
+  // The sign step scrolls into view once the last item is on.
+  await expect(sign).toBeInViewport();
   await expectAccessible(page, 'PPE check (tablet)');
   await snap(page, 'safety-ppe-check-tablet');
   await sign.tap();
   await signWith(page);
   await expect(page.getByText('PPE check signed')).toBeVisible();
+  // Signed: only the signed check shows (who, items), not the reset item list and its red warning.
+  const signed = page.getByRole('region', { name: /PPE check signed/ });
+  await expect(signed).toContainText(`signed by ${OPERATOR}`);
+  await expect(signed.getByRole('listitem')).toHaveCount(count);
+  await expect(page.getByText('Do not start yet')).toBeHidden();
+  await expect(page.getByRole('button', { name: 'Sign: PPE check done' })).toBeHidden();
+  await snap(page, 'safety-ppe-signed-tablet');
+  await page.getByRole('button', { name: 'Start a new check' }).tap();
+  await expect(page.getByText('Do not start yet')).toBeVisible();
 
   // Plasma cutting done: a fire watch for the time the site's rule sets (OSHA 1910.252(a)(2)(iii)(B): 30 min).
   await page.goto('/safety/hot-work');
