@@ -13,6 +13,9 @@ export interface TimedReading {
   isReset: boolean;
 }
 
+// Fixed locale: the same message comes from the server and the browser, and large counters need grouping to be read.
+export const grouped = new Intl.NumberFormat('en-US', { maximumFractionDigits: 3 });
+
 /** Counts and hours only grow; condition readings move both ways. */
 export const isCumulative = (kind: MeterKind) => kind !== 'condition';
 
@@ -24,9 +27,9 @@ export const isCumulative = (kind: MeterKind) => kind !== 'condition';
 export function readingOrderProblem(kind: MeterKind, prev: TimedReading | null, next: TimedReading, unit: string): string | null {
   if (!Number.isFinite(next.value)) return 'The reading is not a number';
   if (!isCumulative(kind)) return null;
-  if (next.value < 0) return `A ${kind === 'count' ? 'count' : 'running time'} cannot be negative (${next.value} ${unit})`;
+  if (next.value < 0) return `A ${kind === 'count' ? 'count' : 'running time'} cannot be negative (${grouped.format(next.value)} ${unit})`;
   if (prev && !next.isReset && next.value < prev.value) {
-    return `${next.value} ${unit} is lower than the reading before it (${prev.value} ${unit} on ${prev.at.toISOString().slice(0, 16).replace('T', ' ')} UTC); record it as a reset if the counter started again from zero`;
+    return `${grouped.format(next.value)} ${unit} is lower than the reading before it (${grouped.format(prev.value)} ${unit} on ${prev.at.toISOString().slice(0, 16).replace('T', ' ')} UTC); record it as a reset if the counter started again from zero`;
   }
   return null;
 }

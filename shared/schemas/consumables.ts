@@ -39,6 +39,9 @@ export const consumableChangeSchema = z
     /** Counters at the change; left out = the latest readings. */
     startsReading: optionalCounter('arc start count'),
     arcHoursReading: optionalCounter('arc hours'),
+    /** The counter was reset or replaced, so the typed value may be lower than the last reading. */
+    startsReset: z.boolean().default(false),
+    arcHoursReset: z.boolean().default(false),
     changedAt: z.iso
       .datetime({ offset: true, message: 'Not a valid time' })
       .optional()
@@ -103,6 +106,9 @@ export type ChangeRow = {
 
 export type ReferenceValue = { value: number; unit: string; source: string; overridden: boolean };
 
+export type StationLockout = { id: string; machineCode: string; state: 'locked' | 'verified'; appliedAt: string; reason: string };
+export type StationDueRow = { id: string; number: number; machineCode: string; title: string; status: 'open' | 'in-progress' | 'on-hold'; dueAt: string | null; overdue: boolean };
+
 export type StationView = {
   machine: { id: string; code: string; name: string; kind: string; location: string | null };
   torches: TorchStation[];
@@ -110,6 +116,10 @@ export type StationView = {
   tools: ToolSummary[];
   partOptions: PartOption[];
   recentChanges: ChangeRow[];
+  /** Lockouts not yet released on the machine or its components. */
+  lockouts: StationLockout[];
+  /** Open work orders on the machine or its components, soonest due first. */
+  due: StationDueRow[];
   reference: { pitLimitMm: ReferenceValue; cutToleranceMm: ReferenceValue; changeReliability: ReferenceValue };
 };
 

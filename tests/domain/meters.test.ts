@@ -14,6 +14,10 @@ describe('readingOrderProblem', () => {
     expect(readingOrderProblem('running-time', null, r(2, 5), 'h')).toBeNull();
   });
 
+  it('groups thousands in the message so a long counter can be read at a glance', () => {
+    expect(readingOrderProblem('count', r(1, 1_234_567), r(2, 98_765.5), 'starts')).toMatch(/^98,765\.5 starts is lower than the reading before it \(1,234,567 starts on /);
+  });
+
   it('refuses negative counts and hours even as a reset, but lets condition readings fall and go negative', () => {
     expect(readingOrderProblem('running-time', null, r(2, -1, true), 'h')).toBe('A running time cannot be negative (-1 h)');
     expect(readingOrderProblem('condition', r(1, 900), r(2, 600), 'Pa')).toBeNull();

@@ -72,19 +72,28 @@ test.describe('station page on a tablet', () => {
   test('operator records counters at the station; a lower count refuses the whole entry', async ({ page }) => {
     await signIn(page, 'operator@alder-row.example');
     await page.goto('/station/P1');
-    await page.getByText('Record counters').tap();
+    await expect(page.getByRole('heading', { name: 'Due on P1' })).toBeVisible();
+    await page.getByRole('button', { name: 'Record counters' }).tap();
     const starts = page.getByLabel('P1-T · Arc starts (starts)');
-    const last = Number((await page.locator(`#${await starts.getAttribute('id')}-hint`).innerText()).replace(/[^0-9]/g, ''));
+    const hint = page.locator(`#${await starts.getAttribute('id')}-hint`);
+    const last = Number((await hint.innerText()).replace(/[^0-9]/g, ''));
     await starts.fill(String(last - 10));
     await page.getByLabel('P1-T · Arc hours (h)').fill('99999');
     await page.getByRole('button', { name: 'Record 2 readings' }).tap();
     await expect(page.getByRole('status').filter({ hasText: 'Nothing recorded.' })).toBeVisible();
-    await expect(page.getByRole('alert').filter({ hasText: 'is lower than the reading before it' })).toBeVisible();
+    await expect(page.getByRole('alert').filter({ hasText: `${(last - 10).toLocaleString('en-US')} starts is lower than the reading before it (${last.toLocaleString('en-US')} starts` })).toBeVisible();
     await starts.fill(String(last + 25));
     await page.getByRole('button', { name: 'Record 2 readings' }).tap();
     await expect(page.getByRole('status').filter({ hasText: 'Recorded 2 readings.' })).toBeVisible();
     await expect(page.getByRole('region', { name: 'Torch P1-T' })).toContainText(`${(last + 25).toLocaleString('en-US')} starts`);
     await expectAccessible(page, 'station counters');
+
+    // The control was reset: a low count goes in once the operator says so.
+    await starts.fill('5');
+    await page.locator(`#${await starts.getAttribute('id')}-reset`).check();
+    await page.getByRole('button', { name: 'Record 1 reading' }).tap();
+    await expect(page.getByRole('status').filter({ hasText: 'Recorded 1 reading.' })).toBeVisible();
+    await expect(hint).toHaveText('Last 5 starts');
   });
 
   test('the QR label opens the station page', async ({ page }) => {

@@ -94,7 +94,7 @@ describe('consumable changes at the station', () => {
     const before = await counts(a.orgId);
     const bad = await post(op, '/consumable-changes', { torchId: torch, categories: ['electrode'], reason: 'failed-start', startsReading: 1500 }).expect(400);
     expect(bad.body.fields[0].path).toBe('startsReading');
-    expect(bad.body.message).toMatch(/Arc starts: 1500 starts is lower than the reading before it \(1600 starts/);
+    expect(bad.body.message).toMatch(/Arc starts: 1,500 starts is lower than the reading before it \(1,600 starts/);
     const neg = await post(op, '/consumable-changes', { torchId: torch, categories: ['electrode'], reason: 'failed-start', startsReading: -3 }).expect(400);
     expect(neg.body.fields[0]).toEqual({ path: 'startsReading', message: 'The arc start count cannot be negative' });
     expect(await counts(a.orgId)).toEqual(before);
@@ -180,5 +180,29 @@ describe('consumable changes at the station', () => {
     expect(res.body.cutToleranceMm.source).toMatch(/^Site setting \(default 0.2 mm/);
     await admin.agent.patch('/api/consumable-settings').set('X-CSRF-Token', admin.csrf).send({ cutToleranceMm: -1 }).expect(400);
     await admin.agent.patch('/api/consumable-settings').set('X-CSRF-Token', admin.csrf).send({ cutToleranceMm: null }).expect(200);
+  });
+});
+
+describe('a counter reset or replaced at a change', () => {
+  it('takes a lower counter when marked as a reset, records it as a reset, and counts life across it', async () => {
+    const cell = (await post(tech, '/machines', { code: 'C9', name: 'Cell 9', kind: 'punch-plasma-cell' }).expect(201)).body.id;
+    const t9 = (await post(tech, '/machines', { code: 'C9-T', name: 'Torch', kind: 'torch', parentId: cell }).expect(201)).body.id;
+    const m9 = (await post(tech, '/meters', { machineId: t9, code: 'arc-starts', name: 'Arc starts', kind: 'count', unit: 'starts' }).expect(201)).body.id;
+    await post(op, `/meters/${m9}/readings`, { value: 250_000, readAt: hoursAgo(30) }).expect(201);
+    await post(op, '/consumable-changes', { torchId: t9, categories: ['electrode'], partTypeIds: { electrode }, reason: 'preventive', changedAt: hoursAgo(29), takeFromStock: false }).expect(201);
+    await post(op, `/meters/${m9}/readings`, { value: 250_400, readAt: hoursAgo(20) }).expect(201);
+
+    const refused = await post(op, '/consumable-changes', { torchId: t9, categories: ['electrode'], reason: 'normal-wear', startsReading: 30, takeFromStock: false }).expect(400);
+    expect(refused.body.fields[0].path).toBe('startsReading');
+    expect(refused.body.message).toMatch(/30 starts is lower than the reading before it \(250,400 starts/);
+    const empty = await post(op, '/consumable-changes', { torchId: t9, categories: ['electrode'], reason: 'normal-wear', startsReset: true, takeFromStock: false }).expect(400);
+    expect(empty.body.fields[0].path).toBe('startsReading');
+
+    await post(op, '/consumable-changes', { torchId: t9, categories: ['electrode'], reason: 'normal-wear', startsReading: 30, startsReset: true, takeFromStock: false }).expect(201);
+    const readings = (await op.agent.get(`/api/meters/${m9}/readings?dir=desc`).expect(200)).body.rows;
+    expect(readings[0]).toMatchObject({ value: 30, isReset: true, source: 'consumable-change' });
+    // Life: 400 starts before the reset plus 30 after it.
+    const s = (await op.agent.get('/api/stations/C9').expect(200)).body;
+    expect(s.recentChanges[0].parts).toEqual([{ category: 'electrode', partNumber: 'EL-1', lifeStarts: 430, lifeArcHours: null }]);
   });
 });

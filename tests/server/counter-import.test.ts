@@ -102,7 +102,7 @@ describe('counter import', () => {
     expect(preview.body.errors.map((e: { line: number; column: string }) => `${e.line}:${e.column}`)).toEqual(['3:read_at', '4:unit', '5:machine_code', '6:value', '7:value', '8:reset', '9:meter_code']);
     expect(preview.body.errors[0].message).toBe('“14/03/2026” is not a date-time; write e.g. 2026-03-14T07:30:00Z or 2026-03-14 07:30');
     expect(preview.body.errors[1].message).toBe('Unit “starts” does not match meter C1-T/arc-hours, which counts in h');
-    expect(preview.body.errors[3].message).toMatch(/4000 starts is lower than the reading before it \(5000 starts/);
+    expect(preview.body.errors[3].message).toMatch(/4,000 starts is lower than the reading before it \(5,000 starts/);
     const commit = await upload(tech, '/counter-import', csv).expect(400);
     expect(commit.body.message).toMatch(/^7 problems in the file; nothing was imported/);
     expect(commit.body.fields[0]).toEqual({ path: 'line 3 read_at', message: preview.body.errors[0].message });

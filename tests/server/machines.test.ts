@@ -89,10 +89,10 @@ describe('machines and components', () => {
       await post(op, `/meters/${starts}/readings`, { value: 1500, readAt: day(3) }).expect(201);
       const back = await post(op, `/meters/${starts}/readings`, { value: 1200, readAt: day(4) }).expect(400);
       expect(back.body.fields[0].path).toBe('value');
-      expect(back.body.message).toMatch(/Arc starts: 1200 starts is lower than the reading before it \(1500 starts on 2026-01-03 08:00 UTC\); record it as a reset/);
+      expect(back.body.message).toMatch(/Arc starts: 1,200 starts is lower than the reading before it \(1,500 starts on 2026-01-03 08:00 UTC\); record it as a reset/);
       // A backfilled reading higher than a later one is refused too.
       const ahead = await post(op, `/meters/${starts}/readings`, { value: 1700, readAt: day(2) }).expect(400);
-      expect(ahead.body.message).toMatch(/higher than a later reading \(1500 starts/);
+      expect(ahead.body.message).toMatch(/higher than a later reading \(1,500 starts/);
       const neg = await post(op, `/meters/${starts}/readings`, { value: -5, readAt: day(5), isReset: true }).expect(400);
       expect(neg.body.message).toMatch(/cannot be negative/);
       await post(op, `/meters/${starts}/readings`, { value: 20, readAt: day(5), isReset: true }).expect(201);

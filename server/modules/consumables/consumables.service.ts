@@ -10,6 +10,7 @@ import { applyStockChanges } from '../stock/stock.service';
 import { latestReadings, meterRow, neighbours, readingsSince, recordReading } from '../meters/meters.service';
 import { machineByCode, metersOf, subtreeIds } from '../machines/machines.service';
 import { listTools } from '../punch-tools/punch-tools.service';
+import { stationStatus } from '../station/station-status';
 import type { Principal } from '../../http/principal';
 import { AppError, fieldError, notFound } from '../../http/errors';
 import { recordAudit } from '../audit/audit';
@@ -94,6 +95,14 @@ function subtreeOf(all: IMachine[], rootId: string): IMachine[] {
   return all.filter((m) => ids.has(m.id));
 }
 
+/** The machines a component belongs to: a lockout on the cell locks its torch and punch head too. */
+function ancestorsOf(all: IMachine[], machine: IMachine): string[] {
+  const byId = new Map(all.map((m) => [m.id, m]));
+  const out: string[] = [];
+  for (let id = machine.parent?.id; id && !out.includes(id); id = byId.get(id)?.parent?.id) out.push(id);
+  return out;
+}
+
 /** Everything the station page shows for one machine, found by its code. */
 export async function stationView(em: EntityManager, who: Principal, code: string): Promise<StationView> {
   const machine = await machineByCode(em, code);
@@ -133,6 +142,7 @@ export async function stationView(em: EntityManager, who: Principal, code: strin
     tools: (await listTools(em, { machineIds: subtree.map((m) => m.id) })).map((t) => ({ id: t.id, code: t.code, name: t.name, stationSize: t.stationSize, hitsSince: t.hitsSince, interval: t.sharpeningIntervalHits, fraction: t.fraction, due: t.due })),
     partOptions: parts.map((p) => ({ id: p.id, partNumber: p.partNumber, name: p.name, category: p.category, onHand: p.onHand, stockUnit: p.stockUnit })),
     recentChanges: (await listChanges(em, { torchIds: torches.map((t) => t.id), page: 1, pageSize: 5 })).rows,
+    ...(await stationStatus(em, who.orgId, subtree.map((m) => m.id), ancestorsOf(all, machine))),
     reference: { pitLimitMm: ref.electrodePitLimitMm, cutToleranceMm: ref.cutToleranceMm, changeReliability: ref.changeTargetReliability },
   };
 }
@@ -142,16 +152,16 @@ export async function stationView(em: EntityManager, who: Principal, code: strin
  * else the reading at or before the change. A typed value that breaks the meter's order is
  * refused on the form field it came from.
  */
-async function counterAt(em: EntityManager, who: Principal, meter: IMeter | null, typed: number | null, at: Date, field: string): Promise<number | null> {
+async function counterAt(em: EntityManager, who: Principal, meter: IMeter | null, typed: number | null, at: Date, field: string, isReset = false): Promise<number | null> {
   if (!meter) {
     if (typed !== null) throw fieldError(field, 'This torch has no such meter; leave the field empty');
     return null;
   }
   const { prev } = await neighbours(em, meter.id, at);
   if (typed === null) return prev?.value ?? null;
-  if (prev && prev.value === typed) return typed;
+  if (prev && prev.value === typed && !isReset) return typed;
   try {
-    await recordReading(em, who, meter.id, { value: typed, readAt: at.toISOString(), isReset: false, note: 'At a consumable change' }, 'consumable-change');
+    await recordReading(em, who, meter.id, { value: typed, readAt: at.toISOString(), isReset, note: isReset ? 'At a consumable change; counter reset or replaced' : 'At a consumable change' }, 'consumable-change');
   } catch (err) {
     if (err instanceof AppError && err.fields?.[0]?.path === 'value') throw fieldError(field, err.message);
     throw err;
@@ -181,8 +191,10 @@ export async function logChange(em: EntityManager, who: Principal, input: Consum
     if (torch.kind !== 'torch') throw fieldError('torchId', `${torch.code} is not a torch`);
     const changedAt = input.changedAt ? new Date(input.changedAt) : new Date();
     const meters = (await torchMeters(tx, [torch])).get(torch.id)!;
-    const starts = await counterAt(tx, who, meters.starts, input.startsReading, changedAt, 'startsReading');
-    const arcHours = await counterAt(tx, who, meters.arcHours, input.arcHoursReading, changedAt, 'arcHoursReading');
+    if (input.startsReset && input.startsReading === null) throw fieldError('startsReading', 'Enter the counter as it reads now, after the reset');
+    if (input.arcHoursReset && input.arcHoursReading === null) throw fieldError('arcHoursReading', 'Enter the counter as it reads now, after the reset');
+    const starts = await counterAt(tx, who, meters.starts, input.startsReading, changedAt, 'startsReading', input.startsReset);
+    const arcHours = await counterAt(tx, who, meters.arcHours, input.arcHoursReading, changedAt, 'arcHoursReading', input.arcHoursReset);
     await tx.flush(); // new readings count in the lives computed below
 
     const open = await tx.find(ConsumableInstall, { torch: torch.id, removedAt: null, category: { $in: input.categories } });

@@ -5,7 +5,7 @@ import { Machine } from '../machines/machine.entity';
 import type { Principal } from '../../http/principal';
 import { AppError, conflict, fieldError, notFound } from '../../http/errors';
 import { recordAudit } from '../audit/audit';
-import { readingOrderProblem, thinSeries } from '../../../shared/domain/meters';
+import { grouped, readingOrderProblem, thinSeries } from '../../../shared/domain/meters';
 import { usageRatePerDay } from '../../../shared/domain/forecast';
 import type { LatestReading, ListReadingsQuery, MeterInput, MeterRow, MeterTrend, MeterUpdate, ReadingBatchInput, ReadingInput, ReadingRow } from '../../../shared/schemas/machines';
 import type { Page } from '../../../shared/schemas/users';
@@ -109,7 +109,7 @@ export async function recordReading(
   const before = readingOrderProblem(meter.kind, prev, candidate, meter.unit);
   if (before) throw fieldError('value', `${meter.name}: ${before}`);
   if (next && readingOrderProblem(meter.kind, candidate, next, meter.unit)) {
-    throw fieldError('value', `${meter.name}: ${input.value} ${meter.unit} is higher than a later reading (${next.value} ${meter.unit} on ${next.at.toISOString().slice(0, 16).replace('T', ' ')} UTC)`);
+    throw fieldError('value', `${meter.name}: ${grouped.format(input.value)} ${meter.unit} is higher than a later reading (${grouped.format(next.value)} ${meter.unit} on ${next.at.toISOString().slice(0, 16).replace('T', ' ')} UTC)`);
   }
   const reading = em.create(MeterReading, { organization: who.orgId, meter, value: input.value, readAt: at, source, isReset: input.isReset, note: input.note ?? null, recordedBy: who.userId });
   return reading;

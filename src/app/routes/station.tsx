@@ -4,7 +4,8 @@ import { getStationQueryOptions, useStation } from '../../features/station/api/g
 import { TorchPanel } from '../../features/station/components/torch-panel';
 import { RecentChanges } from '../../features/station/components/recent-changes';
 import { ToolsSummary } from '../../features/station/components/tools-summary';
-import { CountersForm } from '../../features/station/components/counters-form';
+import { RecordCountersPanel } from '../../features/station/components/record-counters-panel';
+import { DueList, LockoutBanner } from '../../features/station/components/station-status';
 import { CutCheckForm } from '../../features/cut-checks/components/cut-check-form';
 import { CutChecksTable } from '../../features/cut-checks/components/cut-checks-table';
 import { MetersTable } from '../../features/meters/components/meters-table';
@@ -27,6 +28,7 @@ export function Component() {
   const s = q.data;
   return (
     <div className="space-y-4">
+      <LockoutBanner lockouts={s.lockouts} />
       <div className="flex flex-wrap items-end justify-between gap-3">
         <div>
           <p className="text-sm font-semibold uppercase tracking-wider text-steel-600">Station</p>
@@ -38,25 +40,19 @@ export function Component() {
           <Link to={paths.stationLabel.getHref(s.machine.code)} className="inline-flex min-h-touch items-center rounded border border-steel-400 bg-white px-4 font-semibold">Print QR label</Link>
         </div>
       </div>
+      <DueList code={s.machine.code} rows={s.due} />
       {s.torches.length === 0 ? <Notice title="No torch on this machine">Consumables are logged on a torch. Add a component of kind “Plasma torch” to {s.machine.code} with arc-start and arc-time meters.</Notice> : null}
       {s.torches.map((t) => (
         <TorchPanel key={t.id} torch={t} parts={s.partOptions} pitLimit={s.reference.pitLimitMm} canLog={can(me.role, 'consumables.log')} />
       ))}
+      {can(me.role, 'readings.record') && s.meters.length ? <RecordCountersPanel meters={s.meters} /> : null}
       {s.tools.length ? (
         <Panel title="Punch tools">
           <ToolsSummary tools={s.tools} />
         </Panel>
       ) : null}
       <Panel title="Latest counters">
-        <div className="space-y-4">
-          <MetersTable meters={s.meters} />
-          {can(me.role, 'readings.record') && s.meters.length ? (
-            <details className="rounded border border-steel-300 p-3">
-              <summary className="flex min-h-touch cursor-pointer items-center font-bold">Record counters</summary>
-              <div className="mt-3"><CountersForm meters={s.meters} /></div>
-            </details>
-          ) : null}
-        </div>
+        <MetersTable meters={s.meters} compact />
       </Panel>
       {s.torches.length ? (
         <Panel title="Cut quality">

@@ -10,12 +10,23 @@ const col = createColumnHelper<MeterRow>();
 const when = new Intl.DateTimeFormat(undefined, { dateStyle: 'medium', timeStyle: 'short' });
 const KIND = { count: 'Count', 'running-time': 'Running time', condition: 'Condition' } as const;
 
-export function MetersTable({ meters }: { meters: MeterRow[] }) {
+/** `compact` (the station page): meter name and unit only; codes and kinds are for the people who set meters up. */
+export function MetersTable({ meters, compact = false }: { meters: MeterRow[]; compact?: boolean }) {
   const columns = [
-    col.accessor('name', { header: 'Meter', enableHiding: false, cell: (c) => <Link className="inline-flex min-h-touch items-center font-semibold text-mandatory-ink underline" to={paths.meter.getHref(c.row.original.id)}>{c.getValue()}</Link> }),
+    col.accessor('name', {
+      header: 'Meter',
+      enableHiding: false,
+      cell: (c) => (
+        <span className="inline-flex flex-wrap items-center gap-x-2">
+          <Link className="inline-flex min-h-touch items-center font-semibold text-mandatory-ink underline" to={paths.meter.getHref(c.row.original.id)}>{c.getValue()}</Link>
+          {compact ? <span className="text-sm text-steel-700">in {c.row.original.unit}</span> : null}
+        </span>
+      ),
+    }),
     col.accessor('machineCode', { header: 'On' }),
-    col.accessor('code', { header: 'Code' }),
-    col.accessor('kind', { header: 'Kind', cell: (c) => KIND[c.getValue()] }),
+    ...(compact
+      ? []
+      : [col.accessor('code', { header: 'Code' }), col.accessor('kind', { header: 'Kind', cell: (c) => KIND[c.getValue()] })]),
     col.accessor((m) => m.latest?.value ?? null, {
       id: 'latest',
       header: 'Latest',

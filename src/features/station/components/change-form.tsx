@@ -1,4 +1,4 @@
-import { useEffect, useRef, useState } from 'react';
+import { forwardRef, useEffect, useRef, useState, type InputHTMLAttributes } from 'react';
 import { useForm } from 'react-hook-form';
 import { zodResolver } from '@hookform/resolvers/zod';
 import type { z } from 'zod';
@@ -21,6 +21,16 @@ const big = 'min-h-[3.5rem] rounded border-2 px-4 py-2 text-lg font-bold text-le
 const on = 'border-steel-900 bg-steel-900 text-white';
 const off = 'border-steel-400 bg-white text-steel-900';
 
+/** A counter that went back to zero (control reset, encoder replaced) may read lower than before. */
+export const ResetChoice = forwardRef<HTMLInputElement, InputHTMLAttributes<HTMLInputElement>>(function ResetChoice(props, ref) {
+  return (
+    <label htmlFor={props.id} className="flex min-h-touch cursor-pointer items-center gap-3 text-sm font-semibold text-steel-800">
+      <input ref={ref} type="checkbox" className="h-6 w-6 shrink-0" {...props} />
+      The counter was reset or replaced
+    </label>
+  );
+});
+
 /**
  * The change sheet. The common case — electrode and nozzle, normal wear, counters as last
  * read — needs one tap on the pair and one on Record: the reason and counters come filled in.
@@ -42,6 +52,8 @@ export function ChangeForm({ torch, parts, pitLimit, onDone, onCancel }: { torch
       startsReading: torch.startsMeter?.latest?.value ?? null,
       arcHoursReading: torch.arcHoursMeter?.latest?.value ?? null,
       pitDepthMm: null,
+      startsReset: false,
+      arcHoursReset: false,
       takeFromStock: true,
     },
   });
@@ -113,10 +125,16 @@ export function ChangeForm({ torch, parts, pitLimit, onDone, onCancel }: { torch
       <fieldset className="grid gap-4 sm:grid-cols-2">
         <legend className="mb-2 text-base font-bold">Counters at the change</legend>
         {torch.startsMeter ? (
-          <TextField label={`Arc starts (${torch.startsMeter.unit})`} inputMode="numeric" hint="Filled in from the latest reading; change it if the control shows more" error={e.startsReading?.message} {...register('startsReading', { setValueAs: num })} />
+          <div className="space-y-1">
+            <TextField label={`Arc starts (${torch.startsMeter.unit})`} inputMode="numeric" hint={watch('startsReset') ? 'Enter what the counter shows now, after the reset' : 'Filled in from the latest reading; change it if the control shows more'} error={e.startsReading?.message} {...register('startsReading', { setValueAs: num })} />
+            <ResetChoice id={`starts-reset-${torch.id}`} {...register('startsReset')} />
+          </div>
         ) : null}
         {torch.arcHoursMeter ? (
-          <TextField label={`Arc time (${torch.arcHoursMeter.unit})`} inputMode="decimal" hint="Filled in from the latest reading" error={e.arcHoursReading?.message} {...register('arcHoursReading', { setValueAs: num })} />
+          <div className="space-y-1">
+            <TextField label={`Arc time (${torch.arcHoursMeter.unit})`} inputMode="decimal" hint={watch('arcHoursReset') ? 'Enter what the counter shows now, after the reset' : 'Filled in from the latest reading'} error={e.arcHoursReading?.message} {...register('arcHoursReading', { setValueAs: num })} />
+            <ResetChoice id={`hours-reset-${torch.id}`} {...register('arcHoursReset')} />
+          </div>
         ) : null}
         {!torch.startsMeter && !torch.arcHoursMeter ? <p className="text-steel-700">This torch has no arc-start or arc-time meter, so lives cannot be counted.</p> : null}
       </fieldset>

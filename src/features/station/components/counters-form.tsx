@@ -4,6 +4,7 @@ import { Button } from '../../../components/ui/button';
 import { Notice } from '../../../components/ui/notice';
 import { ApiError } from '../../../lib/api-client';
 import { useRecordCounters } from '../api/record-counters';
+import { ResetChoice } from './change-form';
 
 const int = new Intl.NumberFormat(undefined, { maximumFractionDigits: 1 });
 
@@ -11,6 +12,7 @@ const int = new Intl.NumberFormat(undefined, { maximumFractionDigits: 1 });
 export function CountersForm({ meters }: { meters: MeterRow[] }) {
   const record = useRecordCounters();
   const [values, setValues] = useState<Record<string, string>>({});
+  const [resets, setResets] = useState<Record<string, boolean>>({});
   const [errors, setErrors] = useState<Record<string, string>>({});
   const [message, setMessage] = useState<{ tone: 'safe' | 'danger'; text: string } | null>(null);
   const filled = meters.filter((m) => (values[m.id] ?? '').trim() !== '');
@@ -21,9 +23,10 @@ export function CountersForm({ meters }: { meters: MeterRow[] }) {
     const bad = filled.filter((m) => !Number.isFinite(Number(values[m.id])));
     if (bad.length) return setErrors(Object.fromEntries(bad.map((m) => [m.id, 'Enter a number'])));
     try {
-      await record.mutateAsync({ readings: filled.map((m) => ({ meterId: m.id, value: Number(values[m.id]), isReset: false })) });
+      await record.mutateAsync({ readings: filled.map((m) => ({ meterId: m.id, value: Number(values[m.id]), isReset: !!resets[m.id] })) });
       setMessage({ tone: 'safe', text: `Recorded ${filled.length} reading${filled.length === 1 ? '' : 's'}.` });
       setValues({});
+      setResets({});
     } catch (err) {
       if (err instanceof ApiError && err.fields.length) {
         // Field paths are readings.<i>.value, in the order sent.
@@ -50,6 +53,7 @@ export function CountersForm({ meters }: { meters: MeterRow[] }) {
               className={`block min-h-touch w-full rounded border bg-white px-3 ${errors[m.id] ? 'border-danger ring-1 ring-danger' : 'border-steel-400'}`}
             />
             {errors[m.id] ? <p role="alert" className="text-sm font-semibold text-danger">{errors[m.id]}</p> : <p id={`counter-${m.id}-hint`} className="text-sm text-steel-600">{m.latest ? `Last ${int.format(m.latest.value)} ${m.unit}` : 'No reading yet'}</p>}
+            {m.kind !== 'condition' ? <ResetChoice id={`counter-${m.id}-reset`} checked={!!resets[m.id]} onChange={(ev) => setResets((r) => ({ ...r, [m.id]: ev.target.checked }))} /> : null}
           </div>
         ))}
       </div>

@@ -1,0 +1,37 @@
+import type { EntityManager } from '@mikro-orm/postgresql';
+import type { StationDueRow, StationLockout } from '../../../shared/schemas/consumables';
+
+/**
+ * What an operator must know before touching the machine: open lockouts on it, its
+ * components or the machines it is part of, and open work orders on it or its components. Read-only raw SQL on the safety and work-order tables so
+ * this module depends on their tables, not on their services. Raw SQL bypasses the ORM's
+ * shop filter, so every query names the organization itself.
+ */
+export async function stationStatus(em: EntityManager, orgId: string, machineIds: string[], ancestorIds: string[] = []): Promise<{ lockouts: StationLockout[]; due: StationDueRow[] }> {
+  if (machineIds.length === 0) return { lockouts: [], due: [] };
+  const ids = `{${machineIds.join(',')}}`;
+  const lockable = `{${[...machineIds, ...ancestorIds].join(',')}}`;
+  const lockouts: { id: string; code: string; state: string; applied_at: Date; reason: string }[] = await em.execute(
+    `select l.id, m.code, l.state, l.applied_at, l.reason
+       from safety_lockout l join machine m on m.id = l.machine_id
+      where l.organization_id = ? and l.machine_id = any(?::uuid[]) and l.state <> 'released' and l.released_at is null
+      order by l.applied_at desc`,
+    [orgId, lockable],
+  );
+  const due: { id: string; number: number; code: string; title: string; status: string; due_at: Date | null; overdue: boolean }[] = await em.execute(
+    `select w.id, w.number, m.code, w.title, w.status, w.due_at, w.overdue
+       from work_order w join machine m on m.id = w.machine_id
+      where w.organization_id = ? and w.machine_id = any(?::uuid[]) and w.status in ('open', 'in-progress', 'on-hold')
+      order by w.due_at asc nulls last, w.number asc
+      limit 20`,
+    [orgId, ids],
+  );
+  const now = Date.now();
+  return {
+    lockouts: lockouts.map((l) => ({ id: l.id, machineCode: l.code, state: l.state as StationLockout['state'], appliedAt: new Date(l.applied_at).toISOString(), reason: l.reason })),
+    due: due.map((w) => {
+      const dueAt = w.due_at ? new Date(w.due_at) : null;
+      return { id: w.id, number: w.number, machineCode: w.code, title: w.title, status: w.status as StationDueRow['status'], dueAt: dueAt?.toISOString() ?? null, overdue: w.overdue || (!!dueAt && dueAt.getTime() < now) };
+    }),
+  };
+}

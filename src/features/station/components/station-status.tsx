@@ -1,0 +1,50 @@
+import { Link } from 'react-router-dom';
+import type { StationDueRow, StationLockout } from '../../../../shared/schemas/consumables';
+import { WORK_STATE_LABELS } from '../../../../shared/schemas/work-orders';
+import { Badge } from '../../../components/ui/notice';
+import { paths } from '../../../config/paths';
+
+const when = new Intl.DateTimeFormat(undefined, { dateStyle: 'medium', timeStyle: 'short' });
+const day = new Intl.DateTimeFormat(undefined, { dateStyle: 'medium' });
+
+/** First thing on the station page: an applied lockout means the machine must not be run. */
+export function LockoutBanner({ lockouts }: { lockouts: StationLockout[] }) {
+  if (lockouts.length === 0) return null;
+  return (
+    <div role="alert" className="rounded border-4 border-danger bg-danger px-4 py-3 text-white">
+      <p className="text-2xl font-bold">Locked out — do not operate</p>
+      <ul className="mt-1 space-y-1">
+        {lockouts.map((l) => (
+          <li key={l.id}>
+            {l.machineCode} · {l.reason} · locked since {when.format(new Date(l.appliedAt))}
+            {l.state === 'verified' ? ' · isolation verified' : ''}
+          </li>
+        ))}
+      </ul>
+    </div>
+  );
+}
+
+/** Open work on the machine and its components, so the operator knows what is coming. */
+export function DueList({ code, rows }: { code: string; rows: StationDueRow[] }) {
+  return (
+    <section aria-labelledby="due-heading" className="rounded border border-steel-200 bg-white p-4 shadow-sm">
+      <h2 id="due-heading" className="mb-2 text-lg font-bold">Due on {code}</h2>
+      {rows.length === 0 ? <p className="text-steel-700">No open work orders.</p> : null}
+      <ul className="divide-y divide-steel-200">
+        {rows.map((w) => (
+          <li key={w.id}>
+            <Link to={paths.workOrder.getHref(w.id)} className="flex min-h-touch flex-wrap items-center gap-x-3 gap-y-1 py-2 hover:bg-steel-50">
+              <span className="font-semibold text-mandatory-ink underline">#{w.number} {w.title}</span>
+              <span className="text-sm text-steel-700">{w.machineCode !== code ? `${w.machineCode} · ` : ''}{WORK_STATE_LABELS[w.status]}</span>
+              <span className="ml-auto inline-flex items-center gap-2 text-sm tabular-nums">
+                {w.dueAt ? `due ${day.format(new Date(w.dueAt))}` : 'no due date'}
+                {w.overdue ? <Badge tone="danger">Overdue</Badge> : null}
+              </span>
+            </Link>
+          </li>
+        ))}
+      </ul>
+    </section>
+  );
+}
