@@ -16,6 +16,7 @@ import { registerUserRoutes } from './modules/users/users.routes';
 import { registerHealthRoutes } from './modules/health/health.routes';
 import { registerDevInboxRoutes } from './modules/dev-inbox/dev-inbox.routes';
 import { registerAuditRoutes } from './modules/audit/audit.routes';
+import { registerOrganizationRoutes } from './modules/organizations/organizations.routes';
 import { registerSafetyRoutes } from './modules/safety/safety.routes';
 import { registerMachineRoutes } from './modules/machines/machines.routes';
 import { registerMeterRoutes } from './modules/meters/meters.routes';
@@ -79,6 +80,7 @@ export function createApp({ orm, config, smtp = null }: AppDeps): AppHandle {
   registerAuthRoutes(api, config);
   registerUserRoutes(api, config);
   registerAuditRoutes(api);
+  registerOrganizationRoutes(api);
   registerSafetyRoutes(api, config);
   registerMachineRoutes(api);
   registerMeterRoutes(api);

@@ -37,6 +37,7 @@ export const router = createBrowserRouter([
     children: [
       { index: true, lazy: () => import('./routes/home') },
       { path: paths.users.path.slice(1), lazy: () => import('./routes/admin-users') },
+      { path: paths.siteSettings.path.slice(1), lazy: () => import('./routes/admin-settings') },
       { path: paths.audit.path.slice(1), lazy: () => import('./routes/audit') },
       { path: paths.devInbox.path.slice(1), lazy: () => import('./routes/dev-inbox') },
       { path: paths.safety.path.slice(1), lazy: () => import('./routes/safety') },

@@ -6,6 +6,7 @@ export const paths = {
   acceptInvite: { path: '/accept-invite', getHref: () => '/accept-invite' },
   resetPassword: { path: '/reset-password', getHref: () => '/reset-password' },
   users: { path: '/admin/users', getHref: () => '/admin/users' },
+  siteSettings: { path: '/admin/settings', getHref: () => '/admin/settings' },
   audit: { path: '/admin/audit', getHref: () => '/admin/audit' },
   devInbox: { path: '/dev/inbox', getHref: () => '/dev/inbox' },
   safety: { path: '/safety', getHref: () => '/safety' },

@@ -45,3 +45,18 @@ describe('shop isolation', () => {
     await expect(t.em().find(AuditEvent, {})).rejects.toThrow(/No arguments provided for filter/);
   });
 });
+
+describe('site settings', () => {
+  it('lets the admin rename the shop and change its time zone, refusing an unknown zone on its field', async () => {
+    const { agent, csrf } = await signIn(t.app, a.users.admin.email);
+    const bad = await agent.patch('/api/organization').set('X-CSRF-Token', csrf).send({ name: 'Renamed shop', timeZone: 'Mars/Olympus' }).expect(400);
+    expect(bad.body.fields).toEqual([{ path: 'timeZone', message: 'Not a known time zone: use an IANA name such as America/Chicago' }]);
+    const ok = await agent.patch('/api/organization').set('X-CSRF-Token', csrf).send({ name: 'Renamed shop', timeZone: 'Europe/Berlin' }).expect(200);
+    expect(ok.body).toMatchObject({ name: 'Renamed shop', timeZone: 'Europe/Berlin' });
+    const me = await agent.get('/api/me').expect(200);
+    expect(me.body.organization).toMatchObject({ name: 'Renamed shop', timeZone: 'Europe/Berlin' });
+    // The other shop is untouched.
+    const other = await signIn(t.app, b.users.admin.email);
+    expect((await other.agent.get('/api/organization').expect(200)).body.name).not.toBe('Renamed shop');
+  });
+});

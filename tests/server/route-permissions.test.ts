@@ -20,6 +20,8 @@ const EXPECTED: Record<string, Role[] | 'public'> = {
   'POST /users': ['admin'],
   'PATCH /users/:id': ['admin'],
   'GET /audit-events': ['admin', 'safety'],
+  'GET /organization': ['admin'],
+  'PATCH /organization': ['admin'],
   'GET /dev/inbox': ALL,
   'GET /plans': ALL,
   'POST /plans': ['admin'],

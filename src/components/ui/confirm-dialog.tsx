@@ -1,4 +1,4 @@
-import { useEffect, useRef, type ReactNode } from 'react';
+import { useEffect, useId, useRef, type ReactNode } from 'react';
 import { Button } from './button';
 
 /** A native modal dialog: focus is trapped and Escape cancels. */
@@ -13,6 +13,7 @@ export function ConfirmDialog({ open, title, children, confirmLabel, tone = 'pri
   onCancel: () => void;
 }) {
   const ref = useRef<HTMLDialogElement>(null);
+  const titleId = useId();
   useEffect(() => {
     const d = ref.current;
     if (!d) return;
@@ -20,9 +21,9 @@ export function ConfirmDialog({ open, title, children, confirmLabel, tone = 'pri
     if (!open && d.open) d.close();
   }, [open]);
   return (
-    <dialog ref={ref} onCancel={(e) => { e.preventDefault(); onCancel(); }} className="m-auto w-[min(32rem,92vw)] rounded border border-steel-300 p-0 shadow-xl backdrop:bg-steel-950/50" aria-labelledby="confirm-title">
+    <dialog ref={ref} onCancel={(e) => { e.preventDefault(); onCancel(); }} className="m-auto w-[min(32rem,92vw)] rounded border border-steel-300 p-0 shadow-xl backdrop:bg-steel-950/50" aria-labelledby={titleId}>
       <div className="space-y-3 p-5">
-        <h2 id="confirm-title" className="text-xl font-bold">{title}</h2>
+        <h2 id={titleId} className="text-xl font-bold">{title}</h2>
         <div className="text-steel-700">{children}</div>
         <div className="flex justify-end gap-2 pt-2">
           <Button variant="secondary" onClick={onCancel}>Cancel</Button>

@@ -20,6 +20,7 @@ export function UsersTable({ currentUserId, timeZone }: { currentUserId: string;
   const [role, setRole] = useState<Role | ''>('');
   const [status, setStatus] = useState<ListUsersQuery['status'] | ''>('');
   const [pending, setPending] = useState<{ row: MemberRow; active: boolean } | null>(null);
+  const [pendingRole, setPendingRole] = useState<{ row: MemberRow; role: Role } | null>(null);
   const [message, setMessage] = useState<{ tone: 'danger' | 'safe'; text: string } | null>(null);
   const update = useUpdateMember();
   const pageSize = 25;
@@ -45,7 +46,7 @@ export function UsersTable({ currentUserId, timeZone }: { currentUserId: string;
         const row = c.row.original;
         if (row.userId === currentUserId) return ROLE_LABELS[row.role];
         return (
-          <select aria-label={`Role of ${row.name}`} className="min-h-touch rounded border border-steel-400 bg-white px-2" value={row.role} disabled={update.isPending} onChange={(e) => changeRole(row, e.target.value as Role)}>
+          <select aria-label={`Role of ${row.name}`} className="min-h-touch rounded border border-steel-400 bg-white px-2" value={row.role} disabled={update.isPending} onChange={(e) => setPendingRole({ row, role: e.target.value as Role })}>
             {ROLES.map((r) => <option key={r} value={r}>{ROLE_LABELS[r]}</option>)}
           </select>
         );
@@ -104,6 +105,21 @@ export function UsersTable({ currentUserId, timeZone }: { currentUserId: string;
           </>
         }
       />
+      <ConfirmDialog
+        open={pendingRole !== null}
+        title={`Make ${pendingRole?.row.name} ${pendingRole ? ROLE_LABELS[pendingRole.role] : ''}?`}
+        confirmLabel="Change role"
+        busy={update.isPending}
+        onCancel={() => setPendingRole(null)}
+        onConfirm={async () => {
+          if (pendingRole) await changeRole(pendingRole.row, pendingRole.role);
+          setPendingRole(null);
+        }}
+      >
+        {pendingRole?.role === 'admin'
+          ? 'Admins manage people, machines, plans and site settings. The change applies at their next click.'
+          : 'What they can see and do changes at their next click. You can change it back at any time.'}
+      </ConfirmDialog>
       <ConfirmDialog
         open={pending !== null}
         title={pending?.active ? `Reactivate ${pending?.row.name}?` : `Deactivate ${pending?.row.name}?`}

@@ -1,0 +1,11 @@
+import { z } from 'zod';
+import { IANAZone } from 'luxon';
+
+export const orgSettingsSchema = z.object({
+  name: z.string().trim().min(2, 'Enter the shop’s name').max(200, 'Name is too long'),
+  timeZone: z
+    .string()
+    .trim()
+    .refine((tz) => IANAZone.isValidZone(tz), 'Not a known time zone: use an IANA name such as America/Chicago'),
+});
+export type OrgSettingsInput = z.infer<typeof orgSettingsSchema>;

@@ -1,0 +1,17 @@
+import { queryOptions, useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
+import { api } from '../../../lib/api-client';
+import type { OrgSettingsInput } from '../../../../shared/schemas/organization';
+
+export type OrganizationSettings = { id: string; name: string; timeZone: string };
+
+export const getOrganizationQueryOptions = () => queryOptions({ queryKey: ['organization'], queryFn: () => api<OrganizationSettings>('/organization') });
+export const useOrganization = () => useQuery(getOrganizationQueryOptions());
+
+export function useUpdateOrganization() {
+  const qc = useQueryClient();
+  return useMutation({
+    mutationFn: (input: OrgSettingsInput) => api<OrganizationSettings>('/organization', { method: 'PATCH', body: input }),
+    // The shop's name and zone appear in the header and every date: refresh both.
+    onSuccess: () => Promise.all([qc.invalidateQueries({ queryKey: ['organization'] }), qc.invalidateQueries({ queryKey: ['auth', 'me'] })]),
+  });
+}
