@@ -54,6 +54,14 @@ function lineText(w: WorkLine, timeZone: string): string {
   return `WO ${w.number} · ${w.machineCode} ${w.machineName} — ${w.title} (due ${formatWhen(w.dueAt, timeZone)}${flags.length ? `; ${flags.join(', ')}` : ''})`;
 }
 
+/** A mail lists this many lines at most; the rest is a count and a link to the list. */
+export const MAX_LINES = 30;
+
+function listText(lines: WorkLine[], timeZone: string): string[] {
+  const shown = lines.slice(0, MAX_LINES).map((w) => lineText(w, timeZone));
+  return lines.length > MAX_LINES ? [...shown, `… and ${lines.length - MAX_LINES} more: see the list in Kerfbook.`] : shown;
+}
+
 /** Groups work lines per recipient so one pass sends each person at most one mail of a kind. */
 export function groupByPerson(lines: WorkLine[], pick: (w: WorkLine) => Person[]): Map<string, { person: Person; lines: WorkLine[] }> {
   const out = new Map<string, { person: Person; lines: WorkLine[] }>();
@@ -84,7 +92,7 @@ export function queueRaisedNotices(em: EntityManager, ctx: Ctx, lines: WorkLine[
         paragraphs: [
           `Hello ${person.name},`,
           one ? `Kerfbook raised this work for you${one.reason ? ` because ${one.reason}` : ''}.` : 'Kerfbook raised this work for you:',
-          ...mine.map((w) => lineText(w, ctx.timeZone)),
+          ...listText(mine, ctx.timeZone),
           'You can change how often Kerfbook mails you under My notices.',
         ],
         action: one ? { label: `Open WO ${one.number}`, url: workLink(ctx.appUrl, one.id) } : { label: 'Open my work', url: `${ctx.appUrl}/work-orders?assignee=me` },
@@ -111,7 +119,7 @@ export function queueEscalations(em: EntityManager, ctx: Ctx, lines: WorkLine[],
       subject: `${safety ? 'Safety work past due' : 'Work past due'}: ${mine.length === 1 ? `WO ${mine[0].number} ${mine[0].title}` : `${mine.length} work orders`}`,
       ...renderMail({
         heading: safety ? 'Safety work is past due' : 'Work is past due',
-        paragraphs: [`Hello ${person.name},`, 'This work is past its due point and not signed off yet:', ...mine.map((w) => lineText(w, ctx.timeZone)), 'Please see that it is done or re-planned.'],
+        paragraphs: [`Hello ${person.name},`, 'This work is past its due point and not signed off yet:', ...listText(mine, ctx.timeZone), 'Please see that it is done or re-planned.'],
         action: { label: 'Open past-due work', url: `${ctx.appUrl}/work-orders?due=overdue` },
         caution: true,
       }),
@@ -130,7 +138,7 @@ export function queueEscalations(em: EntityManager, ctx: Ctx, lines: WorkLine[],
         heading: safety ? 'Your safety work is past due' : 'Your work is past due',
         paragraphs: [
           `Hello ${person.name},`,
-          ...mine.map((w) => lineText(w, ctx.timeZone)),
+          ...listText(mine, ctx.timeZone),
           safety ? 'Notices about past-due safety work are always sent, whatever your notice setting.' : 'Your admin has been told as well.',
         ],
         action: mine.length === 1 ? { label: `Open WO ${mine[0].number}`, url: workLink(ctx.appUrl, mine[0].id) } : { label: 'Open my work', url: `${ctx.appUrl}/work-orders?assignee=me` },
@@ -152,7 +160,7 @@ export function queueDigest(em: EntityManager, ctx: Ctx, person: Person, lines: 
     subject: `Your work for ${localDate}: ${lines.length} open${overdue ? `, ${overdue} past due` : ''}`,
     ...renderMail({
       heading: `Open work for ${person.name}`,
-      paragraphs: [`Summary for ${localDate} at ${ctx.orgName}.`, ...lines.map((w) => lineText(w, ctx.timeZone))],
+      paragraphs: [`Summary for ${localDate} at ${ctx.orgName}.`, ...listText(lines, ctx.timeZone)],
       action: { label: 'Open my work', url: `${ctx.appUrl}/work-orders?assignee=me` },
       caution: true,
     }),

@@ -41,7 +41,7 @@ import { logger } from '../logger';
 
 const DAY_MS = 86_400_000;
 /** Plans read per query; raises written per transaction. */
-const PLAN_BATCH = 5000;
+const PLAN_BATCH = 2000;
 const RAISE_BATCH = 200;
 const OPEN_STATES = `('open', 'in-progress', 'on-hold')`;
 /** Job run rows are kept this long. */
@@ -100,13 +100,19 @@ class Run {
 
 type Evaluated = { row: EnginePlanRow; ev: Evaluation; inputsAt: number | null; newBaselines: MeterBaselines | null; human: (s: string) => string };
 
+/**
+ * "Time alone will not change this" (due.ts changesAt is null), stored as a far date: a null
+ * recheck time means "evaluate at the next pass" (new, edited, or work still to raise).
+ */
+export const NO_TIME_BOUNDARY = new Date('9999-12-31T00:00:00.000Z');
+
 /** What the plan row stores from an evaluation (status cache, explanation in people's words, next re-check). */
 export function statusColumns(ev: Evaluation, human: (s: string) => string = (s) => s) {
   return {
     status: ev.status,
     nextDueAt: ev.dueAt,
     statusReason: human(ev.reason),
-    recheckAt: ev.changesAt,
+    recheckAt: ev.changesAt ?? NO_TIME_BOUNDARY,
     evaluation: {
       triggers: ev.triggers.map((t) => ({ kind: t.kind, status: t.status, dueAt: t.dueAt?.toISOString() ?? null, reason: human(t.reason) })),
       meterDue: ev.dueMeter.map((m) => ({ meterId: m.meterId, dueValue: m.dueValue, current: m.current, forecastAt: m.forecastAt?.toISOString() ?? null })),
@@ -231,7 +237,7 @@ async function raiseWork(orm: MikroORM, run: Run, orgId: string, items: Evaluate
             planned_parts: d.parts ?? [],
             estimated_minutes: d.estimated_minutes,
             _d: d,
-            _changesAt: ev.changesAt?.toISOString() ?? null,
+            _changesAt: (ev.changesAt ?? NO_TIME_BOUNDARY).toISOString(),
           };
         });
         const inserted: { id: string; plan_id: string }[] = await tx.execute(
@@ -285,8 +291,16 @@ async function raiseWork(orm: MikroORM, run: Run, orgId: string, items: Evaluate
   }
 }
 
-/** Marks past-due open work as overdue once and tells the people who must know. */
+/** Marks past-due open work as overdue once and tells the people who must know (in chunks, until none is left). */
 async function escalate(orm: MikroORM, run: Run, now: Date, orgId?: string) {
+  for (let round = 0; round < 100; round++) {
+    if ((await escalateChunk(orm, run, now, orgId)) < ESCALATE_CHUNK) return;
+  }
+}
+
+const ESCALATE_CHUNK = 5000;
+
+async function escalateChunk(orm: MikroORM, run: Run, now: Date, orgId?: string): Promise<number> {
   const em = orm.em.fork();
   const rows: {
     id: string;
@@ -306,7 +320,7 @@ async function escalate(orm: MikroORM, run: Run, now: Date, orgId?: string) {
       where w.status in ${OPEN_STATES} and w.escalated_at is null ${orgId ? 'and w.organization_id = ?' : ''}
         and ((p.id is not null and p.status = 'overdue' and w.occurrence_key = p.last_raised_key)
           or (w.plan_id is null and w.due_at is not null and w.due_at < ?))
-      order by w.organization_id, w.number limit 5000`,
+      order by w.organization_id, w.number limit ${ESCALATE_CHUNK}`,
     [...(orgId ? [orgId] : []), new Date(now.getTime() - DAY_MS)],
   );
   const byOrg = new Map<string, typeof rows>();
@@ -349,8 +363,10 @@ async function escalate(orm: MikroORM, run: Run, now: Date, orgId?: string) {
     } catch (err) {
       logger.error({ err, org }, 'escalation failed');
       run.error(org, `escalation failed: ${err instanceof Error ? err.message : String(err)}`);
+      return 0; // stop: the same rows would fail again in this pass
     }
   }
+  return rows.length;
 }
 
 /**

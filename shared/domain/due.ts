@@ -33,10 +33,21 @@
  * Pure: no I/O; runs in the browser too.
  */
 import { DateTime } from 'luxon';
-import { canonicalZone, expandRecurrence, previousOccurrence } from './recurrence';
+import { canonicalZone as canonicalZoneUncached, expandRecurrence, previousOccurrence } from './recurrence';
 import { usageRatePerDay } from './forecast';
 
 const DAY_MS = 86_400_000;
+
+// Zone names are few and their lookup (Intl) is slow; the answer for a name never changes.
+const zoneNames = new Map<string, string>();
+function canonicalZone(tz: string): string {
+  let z = zoneNames.get(tz);
+  if (z === undefined) {
+    z = canonicalZoneUncached(tz);
+    if (zoneNames.size < 1000) zoneNames.set(tz, z);
+  }
+  return z;
+}
 /** Minimum grace after a due point (see module comment). */
 export const MIN_GRACE_MS = DAY_MS;
 /** How many fixed-calendar occurrences after the last completion are checked for early completion. */
@@ -225,26 +236,37 @@ function evalFixed(t: Extract<Trigger, { kind: 'calendar-fixed' }>, input: PlanI
   const done = lastDoneAt;
   // Occurrences at or before the last completion are done; those before the start do not count.
   const after = done !== null && done.getTime() >= startedAt.getTime() ? done : new Date(startedAt.getTime() - 1);
-  const next = expandRecurrence(t.ical, { after, limit: COVER_SCAN });
+  // Nearly always the first or second occurrence decides; the long scan is only for work done well ahead.
+  let next = expandRecurrence(t.ical, { after, limit: 2 });
   if (next.length === 0) {
     return { ...base, status: 'not-due', dueAt: null, key: null, reason: `calendar: no occurrence after ${iso(after)}`, changesAt: null };
   }
-  const before0 = previousOccurrence(t.ical, next[0]);
+  // The interval only matters for a window that is a share of it; look back only then.
+  let before0: Date | null | undefined;
   const intervalOf = (i: number): number => {
+    if ((dueSoon.fraction ?? 0) <= 0) return 0;
+    if (i === 0 && before0 === undefined) before0 = previousOccurrence(t.ical, next[0]);
     const prev = i === 0 ? before0 : next[i - 1];
     if (prev) return next[i].getTime() - prev.getTime();
     return i + 1 < next.length ? next[i + 1].getTime() - next[i].getTime() : 0;
   };
   let first = -1;
   let windowMs = 0;
-  for (let i = 0; i < next.length; i++) {
-    const w = calendarWindowMs(dueSoon, intervalOf(i));
-    const coveredEarly = done !== null && done.getTime() >= next[i].getTime() - w;
-    if (!coveredEarly) {
-      first = i;
-      windowMs = w;
-      break;
+  const scan = () => {
+    for (let i = 0; i < next.length; i++) {
+      const w = calendarWindowMs(dueSoon, intervalOf(i));
+      const coveredEarly = done !== null && done.getTime() >= next[i].getTime() - w;
+      if (!coveredEarly) {
+        first = i;
+        windowMs = w;
+        return;
+      }
     }
+  };
+  scan();
+  if (first < 0 && next.length === 2) {
+    next = expandRecurrence(t.ical, { after, limit: COVER_SCAN });
+    scan();
   }
   if (first < 0) {
     return { ...base, status: 'not-due', dueAt: null, key: null, reason: `calendar: the next ${next.length} occurrences are already covered by the completion at ${iso(done as Date)}`, changesAt: null };

@@ -55,7 +55,7 @@ export function Component() {
           {record ? (
             <>
               <Panel title="Record a result">
-                <OilAnalysisForm key={unit.id} units={list} defaultMachineId={unit.id} />
+                <OilAnalysisForm key={unit.id} units={list} defaultMachineId={unit.id} timeZone={tz} />
               </Panel>
               <Panel title={`Targets for ${unit.code}`}>
                 <OilTargetForm key={unit.id} unit={unit} />

@@ -11,6 +11,7 @@ import { WorkLogForm } from '../../features/work-orders/components/work-log-form
 import { CloseWork } from '../../features/work-orders/components/close-work';
 import { Attachments } from '../../features/work-orders/components/attachments';
 import { WorkHistory } from '../../features/work-orders/components/work-history';
+import { ReplanForm } from '../../features/work-orders/components/replan-form';
 import { queryClient } from '../../lib/query-client';
 import { can } from '../../../shared/permissions';
 
@@ -44,6 +45,11 @@ export function Component() {
         }
       />
       <WorkOrderSummary wo={wo} timeZone={tz} />
+      {worker && open ? (
+        <Panel title="Who and when">
+          <ReplanForm wo={wo} timeZone={tz} />
+        </Panel>
+      ) : null}
       <Panel title="Checklist">
         <ChecklistForm workOrderId={wo.id} lines={wo.checklist} readOnly={readOnly} />
       </Panel>

@@ -26,7 +26,7 @@ export function Component() {
       />
       {raising ? (
         <Panel title="Report a fault or job">
-          <RaiseWorkForm onRaised={(r) => navigate(`/work-orders/${r.id}`)} />
+          <RaiseWorkForm timeZone={me.organization.timeZone} onRaised={(r) => navigate(`/work-orders/${r.id}`)} />
         </Panel>
       ) : null}
       <Panel>

@@ -1,4 +1,5 @@
 import { useState } from 'react';
+import { DateTime } from 'luxon';
 import { useForm } from 'react-hook-form';
 import { zodResolver } from '@hookform/resolvers/zod';
 import type { z } from 'zod';
@@ -17,11 +18,11 @@ const num = (x: unknown) => (x === '' || x === null || x === undefined ? undefin
 const numOrNull = (x: unknown) => (x === '' || x === null || x === undefined ? null : Number(String(x).replace(',', '.')));
 
 /** Enter a lab (or on-site counter) result; the ISO 4406 code is worked out as you type. */
-export function OilAnalysisForm({ units, defaultMachineId }: { units: HydraulicUnitView[]; defaultMachineId?: string }) {
+export function OilAnalysisForm({ units, defaultMachineId, timeZone }: { units: HydraulicUnitView[]; defaultMachineId?: string; timeZone: string }) {
   const record = useRecordOilAnalysis();
   const [formError, setFormError] = useState<string | null>(null);
   const [saved, setSaved] = useState<OilAnalysisRow | null>(null);
-  const [sampled, setSampled] = useState(() => new Date(Date.now() - new Date().getTimezoneOffset() * 60_000).toISOString().slice(0, 16));
+  const [sampled, setSampled] = useState(() => DateTime.now().setZone(timeZone).toFormat("yyyy-MM-dd'T'HH:mm"));
   const { register, handleSubmit, setError, formState, watch, reset } = useForm<In, unknown, Out>({
     resolver: zodResolver(oilAnalysisInput),
     defaultValues: { machineId: defaultMachineId ?? units[0]?.id ?? '', sampledAt: new Date().toISOString(), viscosity40: null, waterPpm: null, temperatureC: null },
@@ -37,7 +38,8 @@ export function OilAnalysisForm({ units, defaultMachineId }: { units: HydraulicU
     setFormError(null);
     setSaved(null);
     try {
-      const r = await record.mutateAsync({ ...v, sampledAt: new Date(sampled).toISOString() });
+      // Read in the site's zone, whatever the browser's zone.
+      const r = await record.mutateAsync({ ...v, sampledAt: DateTime.fromISO(sampled, { zone: timeZone }).toUTC().toISO()! });
       setSaved(r);
       reset({ machineId: v.machineId, sampledAt: new Date().toISOString(), viscosity40: null, waterPpm: null, temperatureC: null });
     } catch (err) {
@@ -49,7 +51,7 @@ export function OilAnalysisForm({ units, defaultMachineId }: { units: HydraulicU
       {formError ? <div className="md:col-span-3"><Notice tone="danger" role="alert">{formError}</Notice></div> : null}
       <SelectField label="Hydraulic unit" error={formState.errors.machineId?.message} options={units.map((u) => ({ value: u.id, label: `${u.code} · ${u.name}` }))} {...register('machineId')} />
       <div className="space-y-1">
-        <label htmlFor="oil-sampled" className="block text-sm font-semibold">Sampled at</label>
+        <label htmlFor="oil-sampled" className="block text-sm font-semibold">Sampled at (site time)</label>
         <input id="oil-sampled" type="datetime-local" className="block w-full min-h-touch rounded border border-steel-400 bg-white px-3 py-2" value={sampled} onChange={(e) => setSampled(e.target.value)} />
       </div>
       <TextField label="Lab reference" error={formState.errors.labReference?.message} {...register('labReference')} />

@@ -1,3 +1,5 @@
+import { DateTime } from 'luxon';
+
 /** Dates in the shop's own time zone, the way people at the machine read them. */
 export function formatWhen(iso: string | null, timeZone: string, withTime = true): string {
   if (!iso) return '—';
@@ -16,3 +18,13 @@ export function relative(iso: string | null): string {
 }
 
 export const inputClass = 'block w-full min-h-touch rounded border border-steel-400 bg-white px-3 py-2 text-base';
+
+/** An instant as "YYYY-MM-DDTHH:mm" in the shop's zone, for a datetime-local field. */
+export function toShopLocal(iso: string | null, timeZone: string): string {
+  return iso ? DateTime.fromISO(iso).setZone(timeZone).toFormat("yyyy-MM-dd'T'HH:mm") : '';
+}
+
+/** A datetime-local value read in the shop's zone (not the browser's) as an ISO instant, or null. */
+export function fromShopLocal(local: string, timeZone: string): string | null {
+  return local ? DateTime.fromISO(local, { zone: timeZone }).toUTC().toISO() : null;
+}

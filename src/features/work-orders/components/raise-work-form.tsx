@@ -10,13 +10,13 @@ import { Notice } from '../../../components/ui/notice';
 import { applyServerErrors } from '../../../lib/form-errors';
 import { useRaiseWorkOrder } from '../api/raise-work-order';
 import { useWorkLookups } from '../api/get-work-lookups';
-import { inputClass } from './format';
+import { fromShopLocal, inputClass } from './format';
 
 type In = z.input<typeof raiseWorkOrderInput>;
 type Out = z.output<typeof raiseWorkOrderInput>;
 
 /** Report a fault or ask for repair work by hand. */
-export function RaiseWorkForm({ onRaised, defaultMachineId }: { onRaised: (r: { id: string; number: number }) => void; defaultMachineId?: string }) {
+export function RaiseWorkForm({ onRaised, defaultMachineId, timeZone }: { onRaised: (r: { id: string; number: number }) => void; defaultMachineId?: string; timeZone: string }) {
   const raise = useRaiseWorkOrder();
   const lookups = useWorkLookups();
   const [formError, setFormError] = useState<string | null>(null);
@@ -28,8 +28,7 @@ export function RaiseWorkForm({ onRaised, defaultMachineId }: { onRaised: (r: { 
   const onSubmit = handleSubmit(async (values) => {
     setFormError(null);
     try {
-      // The browser's local date-time becomes an instant here; the server stores instants.
-      const r = await raise.mutateAsync({ ...values, dueAt: dueLocal ? new Date(dueLocal).toISOString() : null });
+      const r = await raise.mutateAsync({ ...values, dueAt: fromShopLocal(dueLocal, timeZone) });
       onRaised(r);
     } catch (err) {
       setFormError(applyServerErrors(err, setError, ['machineId', 'title', 'instructions', 'assigneeId', 'responsibleRole', 'dueAt']));
@@ -51,7 +50,7 @@ export function RaiseWorkForm({ onRaised, defaultMachineId }: { onRaised: (r: { 
         <textarea id="raise-instructions" rows={3} className={inputClass} {...register('instructions')} />
       </div>
       <div className="space-y-1">
-        <label htmlFor="raise-due" className="block text-sm font-semibold text-steel-800">Needed by (optional)</label>
+        <label htmlFor="raise-due" className="block text-sm font-semibold text-steel-800">Needed by (optional, site time)</label>
         <input id="raise-due" type="datetime-local" className={inputClass} value={dueLocal} onChange={(e) => setDueLocal(e.target.value)} />
       </div>
       <SelectField
