@@ -86,3 +86,22 @@ test('the operator home works on a tablet viewport', async ({ browser }) => {
   await snap(page, 'home-operator-tablet');
   await context.close();
 });
+
+test('admin opens site settings; an unknown time zone is refused on its field', async ({ page }) => {
+  await signIn(page, 'admin@alder-row.example');
+  await page.getByRole('link', { name: 'Site settings' }).click();
+  const form = page.getByRole('form', { name: 'Site settings' });
+  await expect(form.getByLabel('Time zone')).toHaveValue('America/Chicago');
+  await expectAccessible(page, 'site settings');
+  await form.getByLabel('Time zone').fill('Mars/Olympus');
+  await form.getByRole('button', { name: 'Save settings' }).click();
+  await expect(form.getByText('Not a known time zone')).toBeVisible();
+  await snap(page, 'site-settings');
+});
+
+test('the operator menu stays short', async ({ page }) => {
+  await signIn(page, 'operator@alder-row.example');
+  const nav = page.getByRole('navigation', { name: 'Main' });
+  for (const hidden of ['Plans', 'Stock', 'Oil analysis', 'People', 'Site settings']) await expect(nav.getByRole('link', { name: hidden, exact: true })).toHaveCount(0);
+  await expect(nav.getByRole('link', { name: 'PPE check' })).toBeVisible();
+});
