@@ -65,7 +65,7 @@ export const MEANING_STATEMENTS: Record<SignMeaning, string> = {
 /** The password re-entered at signing (21 CFR 11.200-style re-authentication, house rule). */
 export const signPassword = z.string({ message: 'Enter your password to sign' }).min(1, 'Enter your password to sign').max(200, 'Password is too long');
 
-export const listSignOffsQuery = paging.extend({
+const listSignOffsObject = paging.extend({
   machineId: z.uuid({ message: 'Not a valid machine id' }).optional(),
   signerId: z.uuid({ message: 'Not a valid person id' }).optional(),
   meaning: z.enum(SIGN_MEANINGS, { message: 'Unknown meaning' }).optional(),
@@ -74,9 +74,19 @@ export const listSignOffsQuery = paging.extend({
   sort: z.enum(['signedAt', 'signerName', 'meaning', 'machine', 'seq']).default('signedAt'),
   dir: z.enum(['asc', 'desc']).default('desc'),
 });
+
+/** The message for a "To" date before the "From" date; the audit screen shows the same words. */
+export const reversedRangeMessage = (from: string) => `"To" must be on or after "From" (${from})`;
+
+/** A reversed range is a mistake, not an empty result: say so on the "To" field. */
+function rangeInOrder(q: { from?: string; to?: string }, ctx: z.RefinementCtx) {
+  if (q.from && q.to && q.to < q.from) ctx.addIssue({ code: 'custom', path: ['to'], message: reversedRangeMessage(q.from) });
+}
+
+export const listSignOffsQuery = listSignOffsObject.superRefine(rangeInOrder);
 export type ListSignOffsQuery = z.infer<typeof listSignOffsQuery>;
 /** The same filters without paging, for the CSV and PDF exports. */
-export const exportSignOffsQuery = listSignOffsQuery.omit({ page: true, pageSize: true });
+export const exportSignOffsQuery = listSignOffsObject.omit({ page: true, pageSize: true }).superRefine(rangeInOrder);
 export type ExportSignOffsQuery = z.infer<typeof exportSignOffsQuery>;
 
 export const correctionSchema = z.object({

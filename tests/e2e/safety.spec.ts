@@ -190,6 +190,30 @@ test('the safety officer filters the audit, verifies the chain and exports CSV a
   await expectAccessible(page, 'safety audit');
   await snap(page, 'safety-audit');
 
+  // Filters live in the URL: a reload (or a shared link) shows the same view.
+  await expect(page).toHaveURL(/[?&]meaning=lockout-released/);
+  await page.reload();
+  await expect(page.getByRole('combobox', { name: 'Meaning' })).toHaveValue('lockout-released');
+  await expect(table.getByText(/^C2: area checked, people clear/)).toBeVisible();
+
+  // The correction form opens as a dialog over the table, not below it.
+  await table.getByRole('button', { name: /^Add correction/ }).first().click();
+  const correction = page.getByRole('dialog', { name: /^Add a correction to #\d+/ });
+  await expect(correction).toBeVisible();
+  await expect(correction.getByRole('button', { name: 'Sign: correction' })).toBeDisabled();
+  await expectAccessible(page, 'correction dialog');
+  await snap(page, 'safety-audit-correction-dialog');
+  await correction.getByRole('button', { name: 'Cancel' }).click();
+  await expect(correction).toBeHidden();
+
+  // A reversed date range is an error on "To", not "no signatures".
+  await page.getByLabel('From', { exact: true }).fill('2026-03-10');
+  await page.getByLabel('To', { exact: true }).fill('2026-03-01');
+  await expect(page.getByLabel('To', { exact: true })).toHaveAttribute('aria-invalid', 'true');
+  await expect(page.getByRole('alert').filter({ hasText: '"To" must be on or after "From" (2026-03-10)' })).toBeVisible();
+  await expect(page.getByText('No signatures match these filters')).toBeHidden();
+  await snap(page, 'safety-audit-reversed-dates');
+
   const dir = mkdtempSync(path.join(tmpdir(), 'kb-e2e-audit-'));
   await page.getByRole('combobox', { name: 'Meaning' }).selectOption({ label: 'Any meaning' });
   await page.getByRole('combobox', { name: 'Person' }).selectOption({ label: 'Everyone' });

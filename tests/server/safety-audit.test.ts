@@ -64,6 +64,11 @@ describe('the safety officer’s audit', () => {
     expect(ranged.body.total).toBe(0);
     const bad = await get(shop.s.safety, '/safety/sign-offs?from=yesterday').expect(400);
     expect(bad.body.fields[0]).toEqual({ path: 'from', message: 'Use a date like 2026-03-01' });
+    // A reversed range is an error on "To", not an empty list; the exports refuse it the same way.
+    const reversed = await get(shop.s.safety, '/safety/sign-offs?from=2026-03-10&to=2026-03-01').expect(400);
+    expect(reversed.body.fields).toEqual([{ path: 'to', message: '"To" must be on or after "From" (2026-03-10)' }]);
+    await get(shop.s.safety, '/safety/audit/export.csv?from=2026-03-10&to=2026-03-01').expect(400);
+    await get(shop.s.safety, '/safety/sign-offs?from=2026-03-01&to=2026-03-01').expect(200);
     await get(shop.s.technician, '/safety/sign-offs').expect(403);
     const bySigner = await get(shop.s.safety, `/safety/sign-offs?sort=signerName&dir=asc&from=${today.slice(0, 4)}-01-01`).expect(200);
     const names = bySigner.body.rows.map((r: { signerName: string }) => r.signerName);

@@ -1,4 +1,5 @@
-import { useState } from 'react';
+import { useEffect, useRef, useState } from 'react';
+import { useSearchParams } from 'react-router-dom';
 import { createColumnHelper, type SortingState } from '@tanstack/react-table';
 import { Bar, BarChart, CartesianGrid, Legend, Line, LineChart, ResponsiveContainer, Tooltip, XAxis, YAxis } from 'recharts';
 import { DataTable } from '../../../components/ui/data-table';
@@ -7,7 +8,7 @@ import { TextField } from '../../../components/ui/field';
 import { Badge, EmptyState, Notice, Panel } from '../../../components/ui/notice';
 import { ApiError } from '../../../lib/api-client';
 import { ROLE_LABELS, type Role } from '../../../../shared/permissions';
-import { MEANING_LABELS, SIGN_MEANINGS, type ListSignOffsQuery, type SignMeaning, type SignOffRow } from '../../../../shared/schemas/safety-sign-offs';
+import { MEANING_LABELS, reversedRangeMessage, SIGN_MEANINGS, type ListSignOffsQuery, type SignMeaning, type SignOffRow } from '../../../../shared/schemas/safety-sign-offs';
 import type { MachineCompliance } from '../../../../shared/schemas/safety-audit';
 import { exportHref, useSignOffs } from '../api/get-sign-offs';
 import { useChainVerification } from '../api/verify-chain';
@@ -157,51 +158,137 @@ export function Compliance() {
 
 const col = createColumnHelper<SignOffRow>();
 
-/** Every signature, filtered and sorted on the server, with exports using the same filters. */
-export function SignOffAudit({ me, timeZone }: { me: { name: string; role: Role }; timeZone: string }) {
-  const [page, setPage] = useState(1);
-  const [sorting, setSorting] = useState<SortingState>([{ id: 'signedAt', desc: true }]);
-  const [machineId, setMachineId] = useState('');
-  const [signerId, setSignerId] = useState('');
-  const [meaning, setMeaning] = useState<SignMeaning | ''>('');
-  const [from, setFrom] = useState('');
-  const [to, setTo] = useState('');
-  const [correcting, setCorrecting] = useState<SignOffRow | null>(null);
+/** The correction form as a modal beside the table, so it opens where the row was clicked, not below the table. */
+function CorrectionDialog({ row, me, onDone, onClose }: { row: SignOffRow; me: { name: string; role: Role }; onDone: (seq: number) => void; onClose: () => void }) {
+  const ref = useRef<HTMLDialogElement>(null);
   const [note, setNote] = useState('');
+  const [error, setError] = useState<string | null>(null);
+  const correct = useCorrectSignOff();
+  const { sign, dialog } = useSignFlow(me);
+  useEffect(() => {
+    const d = ref.current;
+    if (d && !d.open) d.showModal();
+    return () => d?.close();
+  }, []);
+  return (
+    <dialog
+      ref={ref}
+      onCancel={(e) => (e.preventDefault(), onClose())}
+      aria-labelledby="correction-title"
+      className="m-auto w-[min(36rem,92vw)] rounded border border-steel-300 p-0 shadow-xl backdrop:bg-steel-950/50"
+    >
+      <div className="space-y-3 p-5">
+        <h2 id="correction-title" className="text-xl font-bold">
+          Add a correction to #{row.seq}
+        </h2>
+        <p className="text-steel-700">
+          {row.signerName}, {MEANING_LABELS[row.meaning]}: {row.summary}
+        </p>
+        <p className="text-sm text-steel-700">The original stays unchanged; the correction is a new signature that points to it.</p>
+        <TextField label="What was wrong and what is right" hint="At least 5 characters" value={note} onChange={(e) => setNote(e.target.value)} />
+        {error ? (
+          <Notice tone="danger" role="alert">
+            {error}
+          </Notice>
+        ) : null}
+        <div className="flex flex-wrap justify-end gap-2 pt-2">
+          <Button variant="secondary" onClick={onClose}>
+            Cancel
+          </Button>
+          <Button
+            disabled={note.trim().length < 5}
+            onClick={() =>
+              sign(
+                'correction',
+                async (password) => {
+                  setError(null);
+                  const r = await correct.mutateAsync({ id: row.id, note: note.trim(), password });
+                  onDone(r.seq);
+                },
+                { onError: (err) => setError(err instanceof ApiError ? err.message : 'Could not sign the correction') },
+              )
+            }
+          >
+            Sign: correction
+          </Button>
+        </div>
+      </div>
+      {dialog}
+    </dialog>
+  );
+}
+
+const FILTER_KEYS = ['machine', 'person', 'meaning', 'from', 'to', 'page'] as const;
+
+/** Every signature, filtered and sorted on the server, with exports using the same filters. Filters live in the URL so a view can be shared or reloaded. */
+export function SignOffAudit({ me, timeZone }: { me: { name: string; role: Role }; timeZone: string }) {
+  const [params, setParams] = useSearchParams();
+  const machineId = params.get('machine') ?? '';
+  const signerId = params.get('person') ?? '';
+  const meaning = (params.get('meaning') ?? '') as SignMeaning | '';
+  const from = params.get('from') ?? '';
+  const to = params.get('to') ?? '';
+  const page = Math.max(1, Number(params.get('page')) || 1);
+  const setFilter = (key: (typeof FILTER_KEYS)[number], value: string) =>
+    setParams(
+      (p) => {
+        const next = new URLSearchParams(p);
+        if (value) next.set(key, value);
+        else next.delete(key);
+        if (key !== 'page') next.delete('page');
+        return next;
+      },
+      { replace: true },
+    );
+  const [sorting, setSorting] = useState<SortingState>([{ id: 'signedAt', desc: true }]);
+  const [correcting, setCorrecting] = useState<SignOffRow | null>(null);
   const [message, setMessage] = useState<{ tone: 'safe' | 'danger'; text: string } | null>(null);
   const machines = useSafetyMachines();
   const people = useSafetyPeople();
-  const correct = useCorrectSignOff();
-  const { sign, dialog } = useSignFlow(me);
+  const rangeError = from && to && to < from ? reversedRangeMessage(from) : null;
   const filters = { machineId: machineId || undefined, signerId: signerId || undefined, meaning: meaning || undefined, from: from || undefined, to: to || undefined, sort: (sorting[0]?.id ?? 'signedAt') as ListSignOffsQuery['sort'], dir: (sorting[0]?.desc ? 'desc' : 'asc') as 'asc' | 'desc' };
-  const q = useSignOffs({ ...filters, page, pageSize: 25 });
-  const reset = (fn: () => void) => () => (fn(), setPage(1));
+  const q = useSignOffs({ ...filters, page, pageSize: 25 }, !rangeError);
+  const exportLink = 'flex min-h-touch items-center rounded border border-steel-400 bg-white px-4 font-semibold';
 
   return (
     <Panel title="Signatures">
       <div className="mb-3 flex flex-wrap gap-2">
-        <a className="flex min-h-touch items-center rounded border border-steel-400 bg-white px-4 font-semibold" href={exportHref('csv', filters)} download>
-          Export CSV
-        </a>
-        <a className="flex min-h-touch items-center rounded border border-steel-400 bg-white px-4 font-semibold" href={exportHref('pdf', filters)} download>
-          Export PDF
-        </a>
-        <span className="self-center text-sm text-steel-700">Exports use the filters below and include the chain check.</span>
+        {rangeError ? (
+          <>
+            <span className={`${exportLink} text-steel-600`} aria-disabled="true">
+              Export CSV
+            </span>
+            <span className={`${exportLink} text-steel-600`} aria-disabled="true">
+              Export PDF
+            </span>
+            <span className="self-center text-sm text-steel-700">Fix the dates to export.</span>
+          </>
+        ) : (
+          <>
+            <a className={exportLink} href={exportHref('csv', filters)} download>
+              Export CSV
+            </a>
+            <a className={exportLink} href={exportHref('pdf', filters)} download>
+              Export PDF
+            </a>
+            <span className="self-center text-sm text-steel-700">Exports use the filters below and include the chain check.</span>
+          </>
+        )}
       </div>
       {message ? <Notice tone={message.tone} role={message.tone === 'danger' ? 'alert' : 'status'}>{message.text}</Notice> : null}
       {q.isError ? <Notice tone="danger" role="alert">{q.error.message}</Notice> : null}
       <DataTable
         caption="Safety signatures"
-        data={q.data?.rows ?? []}
-        loading={q.isLoading}
+        data={rangeError ? [] : (q.data?.rows ?? [])}
+        loading={!rangeError && q.isLoading}
         getRowId={(r) => r.id}
-        empty={<EmptyState title="No signatures match these filters" />}
-        server={{ total: q.data?.total ?? 0, page, pageSize: 25, sorting, onSortingChange: (s) => (setSorting(s), setPage(1)), onPageChange: setPage }}
+        empty={rangeError ? <EmptyState title="Fix the date range to see signatures" /> : <EmptyState title="No signatures match these filters" />}
+        server={{ total: rangeError ? 0 : (q.data?.total ?? 0), page, pageSize: 25, sorting, onSortingChange: (s) => (setSorting(s), setFilter('page', '')), onPageChange: (n) => setFilter('page', n > 1 ? String(n) : '') }}
         toolbar={
           <>
             <label className="flex flex-col text-sm font-semibold">
               Machine
-              <select className={filterClass} value={machineId} onChange={(e) => reset(() => setMachineId(e.target.value))()}>
+              <select className={filterClass} value={machineId} onChange={(e) => setFilter('machine', e.target.value)}>
                 <option value="">All machines</option>
                 {(machines.data ?? []).map((m) => (
                   <option key={m.id} value={m.id}>
@@ -212,7 +299,7 @@ export function SignOffAudit({ me, timeZone }: { me: { name: string; role: Role 
             </label>
             <label className="flex flex-col text-sm font-semibold">
               Person
-              <select className={filterClass} value={signerId} onChange={(e) => reset(() => setSignerId(e.target.value))()}>
+              <select className={filterClass} value={signerId} onChange={(e) => setFilter('person', e.target.value)}>
                 <option value="">Everyone</option>
                 {(people.data ?? []).map((p) => (
                   <option key={p.id} value={p.id}>
@@ -223,7 +310,7 @@ export function SignOffAudit({ me, timeZone }: { me: { name: string; role: Role 
             </label>
             <label className="flex flex-col text-sm font-semibold">
               Meaning
-              <select className={filterClass} value={meaning} onChange={(e) => reset(() => setMeaning(e.target.value as SignMeaning | ''))()}>
+              <select className={filterClass} value={meaning} onChange={(e) => setFilter('meaning', e.target.value)}>
                 <option value="">Any meaning</option>
                 {SIGN_MEANINGS.map((m) => (
                   <option key={m} value={m}>
@@ -234,12 +321,26 @@ export function SignOffAudit({ me, timeZone }: { me: { name: string; role: Role 
             </label>
             <label className="flex flex-col text-sm font-semibold">
               From
-              <input type="date" className={filterClass} value={from} onChange={(e) => reset(() => setFrom(e.target.value))()} />
+              <input type="date" className={filterClass} value={from} onChange={(e) => setFilter('from', e.target.value)} />
             </label>
-            <label className="flex flex-col text-sm font-semibold">
-              To
-              <input type="date" className={filterClass} value={to} onChange={(e) => reset(() => setTo(e.target.value))()} />
-            </label>
+            <div className="flex flex-col text-sm font-semibold">
+              <label htmlFor="audit-to">To</label>
+              <input
+                id="audit-to"
+                type="date"
+                className={`${filterClass} ${rangeError ? 'border-2 border-danger' : ''}`}
+                value={to}
+                min={from || undefined}
+                aria-invalid={rangeError ? true : undefined}
+                aria-describedby={rangeError ? 'audit-to-error' : undefined}
+                onChange={(e) => setFilter('to', e.target.value)}
+              />
+              {rangeError ? (
+                <p id="audit-to-error" role="alert" className="max-w-56 font-semibold text-danger">
+                  {rangeError}
+                </p>
+              ) : null}
+            </div>
           </>
         }
         columns={[
@@ -264,43 +365,24 @@ export function SignOffAudit({ me, timeZone }: { me: { name: string; role: Role 
             header: 'Correction',
             cell: (c) =>
               me.role === 'safety' ? (
-                <Button variant="ghost" onClick={() => (setCorrecting(c.row.original), setNote(''))}>
-                  Correct
+                <Button variant="secondary" aria-label={`Add correction to #${c.row.original.seq}`} onClick={() => (setMessage(null), setCorrecting(c.row.original))}>
+                  Add correction
                 </Button>
               ) : null,
           }),
         ]}
       />
       {correcting ? (
-        <div className="mt-4 space-y-2 rounded border border-caution bg-caution-soft p-3">
-          <p className="font-semibold">
-            Correct #{correcting.seq} ({correcting.signerName}, {MEANING_LABELS[correcting.meaning]}). The original stays unchanged; the correction is a new signature that points to it.
-          </p>
-          <TextField label="What was wrong and what is right" value={note} onChange={(e) => setNote(e.target.value)} />
-          <div className="flex gap-2">
-            <Button variant="secondary" onClick={() => setCorrecting(null)}>
-              Cancel
-            </Button>
-            <Button
-              disabled={note.trim().length < 5}
-              onClick={() =>
-                sign(
-                  'correction',
-                  async (password) => {
-                    const r = await correct.mutateAsync({ id: correcting.id, note: note.trim(), password });
-                    setMessage({ tone: 'safe', text: `Correction signed as #${r.seq}.` });
-                    setCorrecting(null);
-                  },
-                  { onError: (err) => setMessage({ tone: 'danger', text: err instanceof ApiError ? err.message : 'Could not sign the correction' }) },
-                )
-              }
-            >
-              Sign: correction
-            </Button>
-          </div>
-        </div>
+        <CorrectionDialog
+          row={correcting}
+          me={me}
+          onClose={() => setCorrecting(null)}
+          onDone={(seq) => {
+            setMessage({ tone: 'safe', text: `Correction signed as #${seq}.` });
+            setCorrecting(null);
+          }}
+        />
       ) : null}
-      {dialog}
     </Panel>
   );
 }
