@@ -148,4 +148,8 @@ export type SafetyTaskRow = {
   dueAt: string | null;
   status: 'due' | 'overdue';
   raisedAt: string;
+  /** Where the work is done: the PPE check of this machine, the inspection of this procedure, the training of this person. */
+  machineId: string | null;
+  procedureId: string | null;
+  personId: string | null;
 };

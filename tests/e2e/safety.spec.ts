@@ -194,7 +194,8 @@ test('the safety officer filters the audit, verifies the chain and exports CSV a
   await expect(page).toHaveURL(/[?&]meaning=lockout-released/);
   await page.reload();
   await expect(page.getByRole('combobox', { name: 'Meaning' })).toHaveValue('lockout-released');
-  await expect(table.getByText(/^C2: area checked, people clear/)).toBeVisible();
+  await expect(page.getByRole('combobox', { name: 'Person' })).toHaveValue(/.+/);
+  await expect(table.getByText(/^C2: area checked, people clear, affected employees told; removed C2-E1 lock E2E-1/)).toBeVisible();
 
   // The correction form opens as a dialog over the table, not below it.
   await table.getByRole('button', { name: /^Add correction/ }).first().click();
@@ -261,6 +262,21 @@ test('the safety screens read well and pass the accessibility scan', async ({ pa
     await expectAccessible(page, name);
     await snap(page, name);
   }
+  // Each row of "Safety work due" opens the place where that work is done, prefilled.
+  await page.goto('/safety');
+  const due = page.getByRole('table', { name: 'Safety work due' });
+  await due.getByRole('link', { name: /^Retrain .* on C1/ }).first().click();
+  await expect(page).toHaveURL(/\/safety\/records\?train=[^&]+&procedure=/);
+  const training = page.getByRole('form', { name: 'Record training' });
+  await expect(training).toBeVisible();
+  await expect(training.getByLabel('Person')).toHaveValue(/.+/);
+  await expect(training.getByLabel('Procedure (its approved version)')).toHaveValue(/.+/);
+  await snap(page, 'safety-records-from-due-task');
+  await page.goto('/safety');
+  await due.getByRole('link', { name: /^PPE check at P1/ }).click();
+  await expect(page).toHaveURL(/\/safety\/ppe\?machineId=/);
+  await expect(page.getByRole('button', { name: /^P1/ })).toHaveAttribute('aria-pressed', 'true');
+
   await page.goto('/safety/procedures');
   await page.getByRole('link', { name: /Full energy isolation of Punch\/plasma cell 1/ }).click();
   await expect(page.getByText('Apply energy control — in this order')).toBeVisible();

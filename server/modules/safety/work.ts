@@ -16,7 +16,7 @@ import { TASK_KIND_LABELS } from '../../../shared/schemas/safety-records';
 export const RETRAIN_DAYS = 14;
 const DAY_MS = 86_400_000;
 
-type Occurrence = { kind: SafetyTaskKind; key: string; title: string; machineId: string | null; dueAt: Date | null; status: 'due' | 'overdue' };
+type Occurrence = { kind: SafetyTaskKind; key: string; title: string; machineId: string | null; procedureId?: string; personId?: string; dueAt: Date | null; status: 'due' | 'overdue' };
 
 /** Everything safety-related that is due or overdue in one shop right now. */
 export async function currentSafetyWork(em: EntityManager, orgId: string, now: Date): Promise<Occurrence[]> {
@@ -37,7 +37,7 @@ export async function currentSafetyWork(em: EntityManager, orgId: string, now: D
     const ev = inspectionEvaluation({ firstApprovedAt: first, lastInspectedOn: last?.inspectedOn ?? null, months: settings.inspectionIntervalMonths, timeZone: tz, now });
     if ((ev.status === 'due' || ev.status === 'overdue') && ev.occurrenceKey) {
       const m = p.machine.getEntity();
-      out.push({ kind: 'periodic-inspection', key: `${p.id}:${ev.occurrenceKey}`, title: `Periodic inspection of ${m.code} “${p.title}” (OSHA 29 CFR 1910.147(c)(6))`, machineId: m.id, dueAt: ev.dueAt, status: ev.status });
+      out.push({ kind: 'periodic-inspection', key: `${p.id}:${ev.occurrenceKey}`, title: `Periodic inspection of ${m.code} “${p.title}” (OSHA 29 CFR 1910.147(c)(6))`, machineId: m.id, procedureId: p.id, dueAt: ev.dueAt, status: ev.status });
     }
   }
 
@@ -68,6 +68,8 @@ export async function currentSafetyWork(em: EntityManager, orgId: string, now: D
       key: `${k}:v${needing.version}`,
       title: `Retrain ${t.person.getEntity().name} on ${proc.machine.getEntity().code} “${proc.title}” version ${needing.version}`,
       machineId: proc.machine.id,
+      procedureId: proc.id,
+      personId: t.person.id,
       dueAt,
       status: now > dueAt ? 'overdue' : 'due',
     });
@@ -168,6 +170,9 @@ export async function listSafetyTasks(em: EntityManager, orgId: string, now = ne
         dueAt: o.dueAt ? o.dueAt.toISOString() : null,
         status: o.status,
         raisedAt: (t?.raisedAt ?? now).toISOString(),
+        machineId: o.machineId,
+        procedureId: o.procedureId ?? null,
+        personId: o.personId ?? null,
       };
     })
     .sort((a, b) => Number(b.status === 'overdue') - Number(a.status === 'overdue') || (a.dueAt ?? '').localeCompare(b.dueAt ?? ''));

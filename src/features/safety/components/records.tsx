@@ -1,4 +1,5 @@
-import { useState } from 'react';
+import { useEffect, useRef, useState } from 'react';
+import { useSearchParams } from 'react-router-dom';
 import { useForm } from 'react-hook-form';
 import { zodResolver } from '@hookform/resolvers/zod';
 import { createColumnHelper } from '@tanstack/react-table';
@@ -27,16 +28,20 @@ const inspectionForm = inspectionSchema.omit({ password: true });
 const trainingForm = trainingSchema.omit({ password: true });
 const area = 'block min-h-20 w-full rounded border border-steel-400 bg-white px-3 py-2';
 
-function InspectionForm({ me, timeZone, onDone }: { me: Me; timeZone: string; onDone: (m: string) => void }) {
+function InspectionForm({ me, timeZone, onDone, procedureId }: { me: Me; timeZone: string; onDone: (m: string) => void; procedureId?: string }) {
   const procedures = useProcedures();
   const people = useSafetyPeople();
   const record = useRecordInspection();
   const { sign, dialog } = useSignFlow(me);
   const [formError, setFormError] = useState<string | null>(null);
-  const { register, handleSubmit, setError, reset, formState } = useForm<z.input<typeof inspectionForm>, unknown, z.output<typeof inspectionForm>>({
+  const { register, handleSubmit, setError, reset, formState, setValue } = useForm<z.input<typeof inspectionForm>, unknown, z.output<typeof inspectionForm>>({
     resolver: zodResolver(inspectionForm),
     defaultValues: { procedureId: '', inspectedOn: todayIn(timeZone), employeeIds: [], findings: '', deviations: '' },
   });
+  // Opened from a due task: choose its procedure once the options exist.
+  useEffect(() => {
+    if (procedureId && procedures.data) setValue('procedureId', procedureId);
+  }, [procedureId, procedures.data, setValue]);
   const e = formState.errors;
   const submit = handleSubmit((v) =>
     sign(
@@ -96,16 +101,21 @@ function InspectionForm({ me, timeZone, onDone }: { me: Me; timeZone: string; on
   );
 }
 
-function TrainingForm({ me, timeZone, onDone }: { me: Me; timeZone: string; onDone: (m: string) => void }) {
+function TrainingForm({ me, timeZone, onDone, personId, procedureId }: { me: Me; timeZone: string; onDone: (m: string) => void; personId?: string; procedureId?: string }) {
   const procedures = useProcedures();
   const people = useSafetyPeople();
   const record = useRecordTraining();
   const { sign, dialog } = useSignFlow(me);
   const [formError, setFormError] = useState<string | null>(null);
-  const { register, handleSubmit, setError, formState } = useForm<z.input<typeof trainingForm>, unknown, z.output<typeof trainingForm>>({
+  const { register, handleSubmit, setError, formState, setValue } = useForm<z.input<typeof trainingForm>, unknown, z.output<typeof trainingForm>>({
     resolver: zodResolver(trainingForm),
     defaultValues: { userId: '', procedureId: '', kind: 'authorized', trainedOn: todayIn(timeZone), note: '' },
   });
+  // Opened from a due retraining task: choose the person and procedure once the options exist.
+  useEffect(() => {
+    if (personId && people.data) setValue('userId', personId);
+    if (procedureId && procedures.data) setValue('procedureId', procedureId);
+  }, [personId, procedureId, people.data, procedures.data, setValue]);
   const e = formState.errors;
   const submit = handleSubmit((v) =>
     sign(
@@ -146,6 +156,19 @@ export function SafetyRecords({ me, timeZone }: { me: Me; timeZone: string }) {
   const { sign, dialog } = useSignFlow(me);
   const [message, setMessage] = useState<{ tone: 'safe' | 'danger'; text: string } | null>(null);
   const ok = (text: string) => setMessage({ tone: 'safe', text });
+  // Links from "Safety work due" open the form where that work is recorded, prefilled.
+  const [params] = useSearchParams();
+  const inspect = params.get('inspect') ?? undefined;
+  const trainPerson = params.get('train') ?? undefined;
+  const trainProcedure = params.get('procedure') ?? undefined;
+  const inspectRef = useRef<HTMLDetailsElement>(null);
+  const trainRef = useRef<HTMLDetailsElement>(null);
+  useEffect(() => {
+    const target = inspect ? inspectRef.current : trainPerson ? trainRef.current : null;
+    if (!target) return;
+    target.open = true;
+    target.scrollIntoView({ block: 'start' });
+  }, [inspect, trainPerson]);
   return (
     <div className="space-y-4">
       {message ? <Notice tone={message.tone} role={message.tone === 'danger' ? 'alert' : 'status'}>{message.text}</Notice> : null}
@@ -186,9 +209,9 @@ export function SafetyRecords({ me, timeZone }: { me: Me; timeZone: string }) {
           ]}
         />
         {can(me.role, 'safety.inspection.perform') ? (
-          <details className="mt-4 rounded border border-steel-300 p-3">
+          <details ref={inspectRef} id="record-inspection" className="mt-4 scroll-mt-4 rounded border border-steel-300 p-3">
             <summary className="flex min-h-touch cursor-pointer items-center font-semibold">Record an inspection I performed</summary>
-            <InspectionForm me={me} timeZone={timeZone} onDone={ok} />
+            <InspectionForm me={me} timeZone={timeZone} onDone={ok} procedureId={inspect} />
           </details>
         ) : null}
       </Panel>
@@ -211,9 +234,9 @@ export function SafetyRecords({ me, timeZone }: { me: Me; timeZone: string }) {
           ]}
         />
         {can(me.role, 'safety.training.manage') ? (
-          <details className="mt-4 rounded border border-steel-300 p-3">
+          <details ref={trainRef} id="record-training" className="mt-4 scroll-mt-4 rounded border border-steel-300 p-3">
             <summary className="flex min-h-touch cursor-pointer items-center font-semibold">Record training</summary>
-            <TrainingForm me={me} timeZone={timeZone} onDone={ok} />
+            <TrainingForm me={me} timeZone={timeZone} onDone={ok} personId={trainPerson} procedureId={trainProcedure} />
           </details>
         ) : null}
       </Panel>

@@ -16,6 +16,14 @@ import { fmtDateTime, fmtTime } from './format';
 const taskCol = createColumnHelper<SafetyTaskRow>();
 const lockCol = createColumnHelper<LockoutRow>();
 
+/** Where a due task is done: the PPE check of its machine, the inspection form for its procedure, the person's training form. */
+function taskHref(t: SafetyTaskRow): string {
+  const records = paths.safetyRecords.getHref();
+  if (t.kind === 'ppe-check') return paths.safetyPpe.getHref(t.machineId ?? undefined);
+  if (t.kind === 'periodic-inspection') return `${records}?${new URLSearchParams(t.procedureId ? { inspect: t.procedureId } : {})}#record-inspection`;
+  return `${records}?${new URLSearchParams({ ...(t.personId ? { train: t.personId } : {}), ...(t.procedureId ? { procedure: t.procedureId } : {}) })}#record-training`;
+}
+
 const action = 'flex min-h-touch items-center justify-center rounded px-4 py-3 text-center text-base font-semibold';
 
 /** The front page of the safety log: what to act on now, and the way to each record. */
@@ -117,7 +125,14 @@ export function SafetyHub({ role, timeZone }: { role: Role; timeZone: string }) 
             columns={[
               taskCol.accessor('status', { header: 'Status', cell: (c) => <Badge tone={c.getValue() === 'overdue' ? 'danger' : 'caution'}>{c.getValue() === 'overdue' ? 'Overdue' : 'Due'}</Badge> }),
               taskCol.accessor('kind', { header: 'Kind', cell: (c) => TASK_KIND_LABELS[c.getValue() as SafetyTaskRow['kind']] }),
-              taskCol.accessor('title', { header: 'What' }),
+              taskCol.accessor('title', {
+                header: 'What',
+                cell: (c) => (
+                  <Link className="inline-flex min-h-touch items-center font-semibold underline" to={taskHref(c.row.original)}>
+                    {c.getValue()}
+                  </Link>
+                ),
+              }),
               taskCol.accessor('dueAt', { header: 'Due', cell: (c) => fmtDateTime(c.getValue(), timeZone) }),
             ]}
           />
