@@ -85,6 +85,8 @@ export type PartTypeRow = {
   lifeUnit: LifeUnit | null;
   expectedLife: number | null;
   unitCost: number;
+  /** ISO 4217 code from the shop's settings, or null when none is set. */
+  currency: string | null;
   onHand: number;
   leadTimeDays: number;
   serviceLevel: number;

@@ -40,6 +40,15 @@ test('technician walks machines, meters, stock and consumable life', async ({ pa
   await expect(page.getByRole('table', { name: 'Part catalogue' })).toContainText('TX-2201');
   await page.getByRole('button', { name: 'Moves of TX-2201' }).click();
   await expect(page.getByRole('table', { name: 'Stock moves' })).toContainText('Consumable change on C1-T');
+  // A use is typed as a plain count; the move takes it out.
+  const moveForm = page.getByRole('form', { name: 'Stock move for TX-2201' });
+  await moveForm.getByLabel('Move').selectOption({ label: 'Used (takes out)' });
+  await moveForm.getByLabel(/How many/).fill('1');
+  await expect(moveForm.getByText('Takes 1 pc out')).toBeVisible();
+  await moveForm.getByLabel('Why').fill('Test cut');
+  await moveForm.getByRole('button', { name: 'Record move' }).click();
+  await expect(moveForm.getByRole('status')).toContainText('Recorded: took out 1 pc.');
+  await expect(page.getByRole('table', { name: 'Stock moves' }).getByRole('row').nth(1)).toContainText('-1 pc');
   await expectAccessible(page, 'stock');
   await snap(page, 'stock');
 

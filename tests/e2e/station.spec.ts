@@ -17,7 +17,7 @@ function tapper() {
   };
 }
 
-const onHandOf = async (item: Locator) => Number((await item.innerText()).match(/(\d+) pcs in stock/)![1]);
+const onHandOf = async (item: Locator) => Number((await item.innerText()).match(/(\d+) pcs? in stock/)![1]);
 
 test.describe('station page on a tablet', () => {
   test.use(tablet);

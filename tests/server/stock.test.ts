@@ -94,3 +94,17 @@ describe('part catalogue and stock', () => {
     expect((await otherTech.agent.get('/api/part-types').expect(200)).body).toEqual([]);
   });
 });
+
+describe('costs in the shop currency', () => {
+  it("gives each part the currency from the shop's settings, and none when unset or not a currency code", async () => {
+    const setCurrency = (v: unknown) => t.em().getConnection().execute(`update organization set settings = jsonb_set(coalesce(settings, '{}'::jsonb), '{currency}', ?::jsonb) where id = ?`, [JSON.stringify(v), a.orgId]);
+    const row = async () => (await op.agent.get(`/api/part-types/${electrode}`).expect(200)).body;
+    expect((await row()).currency).toBeNull();
+    await setCurrency('EUR');
+    expect((await row()).currency).toBe('EUR');
+    expect((await op.agent.get('/api/part-types').expect(200)).body.every((p: { currency: string }) => p.currency === 'EUR')).toBe(true);
+    expect((await otherTech.agent.get('/api/part-types').expect(200)).body.every((p: { currency: string | null }) => p.currency === null)).toBe(true);
+    await setCurrency('euros');
+    expect((await row()).currency).toBeNull();
+  });
+});

@@ -1,6 +1,6 @@
 import type { EntityManager } from '@mikro-orm/postgresql';
 import { PartType, StockMove, type IPartType } from './stock.entity';
-import { Organization } from '../organizations/organization.entity';
+import { Organization, type OrgSettings } from '../organizations/organization.entity';
 import { applyStockChanges } from './stock.service';
 import type { Principal } from '../../http/principal';
 import { conflict, notFound } from '../../http/errors';
@@ -36,7 +36,13 @@ async function dailyUsage(em: EntityManager, orgId: string, timeZone: string, pa
   return out;
 }
 
-function toRow(p: IPartType, usage: number[]): PartTypeRow {
+/** The shop's currency code from its settings, when it names one we can format; else costs go without a symbol. */
+function currencyOf(settings: OrgSettings | null | undefined): string | null {
+  const c = settings?.currency;
+  return typeof c === 'string' && /^[A-Z]{3}$/.test(c) ? c : null;
+}
+
+function toRow(p: IPartType, usage: number[], currency: string | null = null): PartTypeRow {
   const { mean, sd } = demandStats(usage);
   const rop = reorderPointUnits({ dailyDemandMean: mean, dailyDemandSd: sd, leadTimeDays: p.leadTimeDays, serviceLevel: p.serviceLevel });
   return {
@@ -48,6 +54,7 @@ function toRow(p: IPartType, usage: number[]): PartTypeRow {
     lifeUnit: p.lifeUnit ?? null,
     expectedLife: p.expectedLife ?? null,
     unitCost: Number(p.unitCost),
+    currency,
     onHand: p.onHand,
     leadTimeDays: p.leadTimeDays,
     serviceLevel: p.serviceLevel,
@@ -65,7 +72,7 @@ export async function listPartTypes(em: EntityManager, who: Principal, q: { lowO
   const parts = await em.find(PartType, q.includeInactive ? {} : { active: true }, { orderBy: { category: 'asc', partNumber: 'asc' } });
   const org = await em.findOneOrFail(Organization, who.orgId);
   const usage = await dailyUsage(em, who.orgId, org.timeZone, parts.map((p) => p.id));
-  const rows = parts.map((p) => toRow(p, usage.get(p.id)!));
+  const rows = parts.map((p) => toRow(p, usage.get(p.id)!, currencyOf(org.settings)));
   return q.lowOnly ? rows.filter((r) => r.low) : rows;
 }
 
@@ -74,7 +81,7 @@ export async function getPartType(em: EntityManager, who: Principal, id: string)
   if (!p) throw notFound('Part');
   const org = await em.findOneOrFail(Organization, who.orgId);
   const usage = await dailyUsage(em, who.orgId, org.timeZone, [p.id]);
-  return toRow(p, usage.get(p.id)!);
+  return toRow(p, usage.get(p.id)!, currencyOf(org.settings));
 }
 
 async function assertPartNumberFree(em: EntityManager, partNumber: string, selfId: string | null) {

@@ -11,6 +11,7 @@ import { TextField } from '../../../components/ui/field';
 import { Notice } from '../../../components/ui/notice';
 import { applyServerErrors } from '../../../lib/form-errors';
 import { useLogChange } from '../api/log-change';
+import { formatQty } from '../../stock/components/format';
 
 type In = z.input<typeof consumableChangeSchema>;
 type Out = z.output<typeof consumableChangeSchema>;
@@ -158,7 +159,7 @@ export function ChangeForm({ torch, parts, pitLimit, onDone, onCancel }: { torch
               <select id={`part-${torch.id}-${c}`} className="block min-h-touch w-full rounded border border-steel-400 bg-white px-3" defaultValue={installedPart(c) ?? ''} {...register(`partTypeIds.${c}`, { setValueAs: (v) => (v === '' ? undefined : v) })}>
                 {!installedPart(c) ? <option value="">Choose a part</option> : null}
                 {parts.filter((p) => p.category === c).map((p) => (
-                  <option key={p.id} value={p.id}>{p.partNumber} {p.name} — {p.onHand} {p.stockUnit} in stock</option>
+                  <option key={p.id} value={p.id}>{p.partNumber} {p.name} — {formatQty(p.onHand, p.stockUnit)} in stock</option>
                 ))}
               </select>
               {e.partTypeIds?.[c] ? <p role="alert" className="text-sm font-semibold text-danger">{e.partTypeIds[c]?.message}</p> : null}

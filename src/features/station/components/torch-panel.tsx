@@ -3,6 +3,7 @@ import type { PartOption, ReferenceValue, TorchStation } from '../../../../share
 import { LIFE_UNIT_LABELS, PART_CATEGORY_LABELS } from '../../../../shared/schemas/stock';
 import { Button } from '../../../components/ui/button';
 import { Notice } from '../../../components/ui/notice';
+import { formatQty } from '../../stock/components/format';
 import { LifeBar } from './life-bar';
 import { ChangeForm } from './change-form';
 
@@ -64,7 +65,7 @@ export function TorchPanel({ torch, parts, pitLimit, canLog }: { torch: TorchSta
               <p className="flex flex-wrap items-baseline justify-between gap-2">
                 <span className="text-lg font-bold">{PART_CATEGORY_LABELS[i.category]}</span>
                 <span className="text-sm text-steel-700">
-                  {i.partType.partNumber} · in since {when.format(new Date(i.installedAt))} · {i.partType.onHand} {i.partType.stockUnit} in stock
+                  {i.partType.partNumber} · in since {when.format(new Date(i.installedAt))} · {formatQty(i.partType.onHand, i.partType.stockUnit)} in stock
                 </span>
               </p>
               <LifeBar label={PART_CATEGORY_LABELS[i.category]} used={i.used} expected={i.expected} unit={i.partType.lifeUnit ? LIFE_UNIT_LABELS[i.partType.lifeUnit] : ''} fraction={i.fraction} />

@@ -21,7 +21,7 @@ export function LowStockPanel() {
                 <span className="font-semibold">{p.partNumber}</span> <span className="text-steel-700">{p.name} · {PART_CATEGORY_LABELS[p.category]}</span>
               </span>
               <span className="rounded border-l-8 border-caution bg-caution-soft px-2 py-1 text-sm font-semibold text-caution-ink">
-                Reorder: {formatQty(p.onHand, p.stockUnit)} on hand, reorder point {formatQty(p.reorderPoint, p.stockUnit)}
+                Reorder: {formatQty(p.onHand, p.stockUnit)} on hand, {p.reorderPoint === 0 && p.usagePerDay === 0 ? `no use in ${p.usageWindowDays} days` : `reorder point ${formatQty(p.reorderPoint, p.stockUnit)}`}
               </span>
             </li>
           ))}

@@ -42,7 +42,7 @@ export function PartEditForm({ part }: { part: PartTypeRow }) {
       </div>
       <TextField label="Name" error={e.name?.message} {...register('name')} />
       <TextField label="Expected life" inputMode="decimal" error={e.expectedLife?.message} {...register('expectedLife', { setValueAs: numOrNull })} />
-      <TextField label="Unit cost" inputMode="decimal" error={e.unitCost?.message} {...register('unitCost', { setValueAs: num })} />
+      <TextField label={part.currency ? `Unit cost (${part.currency})` : 'Unit cost'} inputMode="decimal" error={e.unitCost?.message} {...register('unitCost', { setValueAs: num })} />
       <TextField label="Lead time (days)" inputMode="numeric" error={e.leadTimeDays?.message} {...register('leadTimeDays', { setValueAs: num })} />
       <TextField label="Service level" inputMode="decimal" error={e.serviceLevel?.message} {...register('serviceLevel', { setValueAs: num })} />
       <div className="md:col-span-5">

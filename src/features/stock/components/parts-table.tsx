@@ -22,11 +22,31 @@ export function PartsTable({ rows, loading, selectedId, onSelect, toolbar }: { r
         </span>
       ),
     }),
-    col.accessor('reorderPoint', { header: 'Reorder point', cell: (c) => <span className="tabular-nums" title={`${dec.format(c.row.original.usagePerDay)} per day over ${c.row.original.usageWindowDays} days, ${c.row.original.leadTimeDays} days lead time, ${Math.round(c.row.original.serviceLevel * 100)} % service level`}>{formatQty(c.getValue(), c.row.original.stockUnit)}</span> }),
+    col.accessor('reorderPoint', {
+      header: 'Reorder point',
+      cell: (c) => {
+        const r = c.row.original;
+        // Zero from no recorded use is "not known yet", not "keep none".
+        if (c.getValue() === 0 && r.usagePerDay === 0) {
+          return (
+            <span className="flex flex-col">
+              <span aria-hidden>—</span>
+              <span className="text-sm text-steel-700">no use in {r.usageWindowDays} days</span>
+            </span>
+          );
+        }
+        return (
+          <span className="flex flex-col">
+            <span className="tabular-nums">{formatQty(c.getValue(), r.stockUnit)}</span>
+            <span className="text-sm text-steel-700">{dec.format(r.usagePerDay)}/day, {r.leadTimeDays} d lead time</span>
+          </span>
+        );
+      },
+    }),
     col.accessor('usagePerDay', { header: 'Use per day', cell: (c) => dec.format(c.getValue()) }),
     col.accessor('leadTimeDays', { header: 'Lead time', cell: (c) => `${c.getValue()} d` }),
     col.accessor('expectedLife', { header: 'Expected life', cell: (c) => (c.getValue() !== null ? `${dec.format(c.getValue()!)} ${c.row.original.lifeUnit ? LIFE_UNIT_LABELS[c.row.original.lifeUnit] : ''}` : '—') }),
-    col.accessor('unitCost', { header: 'Unit cost', cell: (c) => formatMoney(c.getValue()) }),
+    col.accessor('unitCost', { header: 'Unit cost', cell: (c) => <span className="tabular-nums">{formatMoney(c.getValue(), c.row.original.currency)}</span> }),
     col.display({
       id: 'select',
       header: 'Moves',
