@@ -63,6 +63,9 @@ test('operator finds the stations on the home page of a phone', async ({ browser
   const context = await browser.newContext({ viewport: { width: 390, height: 844 }, hasTouch: true, isMobile: true });
   const page = await context.newPage();
   await signIn(page, 'operator@alder-row.example');
+  // The stations come before every other panel on the operator's home.
+  await expect(page.getByRole('heading', { level: 2 }).first()).toHaveText('Stations');
+  await expect(page.getByRole('link', { name: /^C2/ })).toBeInViewport();
   await page.getByRole('link', { name: /^C2/ }).tap();
   await expect(page.getByRole('heading', { name: 'C2 · Punch/plasma cell 2' })).toBeVisible();
   await expect(page.getByRole('button', { name: 'Log a change' })).toBeVisible();

@@ -96,6 +96,28 @@ test.describe('station page on a tablet', () => {
     await expect(hint).toHaveText('Last 5 starts');
   });
 
+  test('a punch tool far past its sharpening interval is overdue, not just due', async ({ page }) => {
+    await signIn(page, 'operator@alder-row.example');
+    // Fix the tool wear in the answer so the page's thresholds are what is tested.
+    await page.route('**/api/stations/P1', async (route) => {
+      const res = await route.fetch();
+      const body = await res.json();
+      const tool = (id: string, hits: number) => ({ id, code: `T-${id}`, name: `Round ${id}`, stationSize: 'B', hitsSince: hits, interval: 10_000, fraction: hits / 10_000, due: hits >= 10_000 });
+      body.tools = [tool('ok', 5_000), tool('due', 11_900), tool('over', 12_000)];
+      await route.fulfill({ response: res, json: body });
+    });
+    await page.goto('/station/P1');
+    const tools = page.getByRole('list', { name: 'Punch tools' });
+    const item = (code: string) => tools.getByRole('listitem').filter({ hasText: code });
+    await expect(item('T-over')).toContainText('Sharpening overdue');
+    await expect(item('T-over')).toContainText('12,000 of 10,000 hits since sharpening (120 %)');
+    await expect(item('T-due')).toContainText('Sharpening due');
+    await expect(item('T-due')).not.toContainText('overdue');
+    await expect(item('T-ok')).not.toContainText('Sharpening');
+    await expect(tools.getByRole('listitem').first()).toContainText('T-over');
+    await expectAccessible(page, 'station punch tools');
+  });
+
   test('the QR label opens the station page', async ({ page }) => {
     await signIn(page, 'operator@alder-row.example');
     await page.goto('/station/C2');

@@ -16,6 +16,8 @@ export function Component() {
   if (!me) return null;
   return (
     <RoleHome role={me.role} name={me.user.name}>
+      {/* At the machine the station is what an operator came for: first, above the fold on a phone. */}
+      {me.role === 'operator' ? <StationPicker /> : null}
       <MyWorkPanel timeZone={me.organization.timeZone} scope={me.role === 'admin' ? 'shop' : 'mine'} />
       <SafetyHomePanel role={me.role} />
       {me.role === 'operator' || me.role === 'technician' ? (
@@ -24,7 +26,7 @@ export function Component() {
         </Panel>
       ) : null}
       {can(me.role, 'stock.manage') ? <LowStockPanel /> : null}
-      {can(me.role, 'consumables.log') ? <StationPicker /> : null}
+      {can(me.role, 'consumables.log') && me.role !== 'operator' ? <StationPicker /> : null}
       {can(me.role, 'users.manage') ? (
         <Panel title="People" actions={<Link className="font-semibold text-mandatory underline" to={paths.users.getHref()}>Manage people</Link>}>
           <p className="text-steel-700">Invite operators, technicians and the safety officer; change roles; remove access for people who left.</p>
