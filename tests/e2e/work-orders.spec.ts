@@ -170,7 +170,22 @@ test('work orders list filters and the tablet detail view', async ({ browser }) 
   await page.getByRole('table', { name: 'Work orders' }).getByRole('link').nth(1).click();
   await expect(page.getByRole('heading', { name: /^WO \d+ · / })).toBeVisible();
   await snap(page, 'work-order-tablet');
+  const url = page.url();
   await context.close();
+
+  // Phone: the menu folds away; the work order still reads top to bottom with 44 px targets.
+  const phone = await browser.newContext({ viewport: { width: 390, height: 844 }, hasTouch: true, isMobile: true });
+  const p2 = await phone.newPage();
+  await signIn(p2, 'tech@alder-row.example');
+  await p2.goto(url);
+  await expect(p2.getByRole('heading', { name: /^WO \d+ · / })).toBeVisible();
+  const ok = p2.getByRole('radiogroup').first().getByText('OK', { exact: true });
+  expect((await ok.boundingBox())!.height).toBeGreaterThanOrEqual(44);
+  await expectAccessible(p2, 'work order (phone)');
+  await snap(p2, 'work-order-phone');
+  await p2.getByRole('button', { name: 'Menu' }).click();
+  await expect(p2.getByRole('link', { name: 'Plans', exact: true })).toBeVisible();
+  await phone.close();
 });
 
 test('oil analysis, my notices and the starter plans', async ({ page }) => {
