@@ -158,6 +158,11 @@ describe('energy-control procedures', () => {
     expect(order.every((i) => i >= 0)).toBe(true);
     expect([...order].sort((a, b) => a - b)).toEqual(order);
     expect(text.replace(/\s+/g, ' ')).toContain(WORK_CAUTION.slice(0, 60).replace(/’/g, '’'));
+    // One sheet at the machine, printed time in the shop's zone (named), the machine name once.
+    expect(execFileSync('pdfinfo', [file], { encoding: 'utf8' })).toMatch(/^Pages:\s+1$/m);
+    expect(text).toMatch(/printed \d{4}-\d\d-\d\d \d\d:\d\d America\/Chicago/);
+    expect(text).not.toContain('UTC');
+    expect(text.split('Cell 1').length - 1).toBe(1);
     execFileSync('pdftoppm', ['-png', '-r', '40', '-f', '1', '-l', '1', file, path.join(dir, 'p')]);
     if (process.env.KEEP_PDF) writeFileSync(process.env.KEEP_PDF, res.body as Buffer);
   });
