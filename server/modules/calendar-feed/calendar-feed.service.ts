@@ -5,7 +5,6 @@ import { CalendarFeed } from './calendar-feed.entity';
 import { Membership } from '../users/user.entity';
 import { Organization } from '../organizations/organization.entity';
 import type { Principal } from '../../http/principal';
-import { notFound } from '../../http/errors';
 import { recordAudit } from '../audit/audit';
 import { WORK_CAUTION } from '../../../shared/domain/cautions';
 import { DUE_STATE_LABELS, type DueState } from '../../../shared/schemas/plans';

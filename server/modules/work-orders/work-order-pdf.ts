@@ -10,7 +10,7 @@ const REGULAR = require.resolve('@fontsource/roboto-condensed/files/roboto-conde
 const BOLD = require.resolve('@fontsource/roboto-condensed/files/roboto-condensed-latin-700-normal.woff');
 
 /** The latin subset has no math signs; keep text inside it. */
-const t = (s: string) => s.replace(/≥/g, '>=').replace(/≤/g, '<=').replace(/…/g, '...').replace(/[^\u0000-\u024F\u2010-\u2027\u2030-\u203A\u20AC°µ]/g, '?');
+const t = (s: string) => s.replace(/≥/g, '>=').replace(/≤/g, '<=').replace(/…/g, '...').replace(/[^\n\t\u0020-\u024F\u2010-\u2027\u2030-\u203A\u20AC°µ]/g, '?');
 
 /** A printable work order sheet for the clipboard at the machine, caution first. */
 export function workOrderPdf(wo: WorkOrderDetail, shop: { name: string; timeZone: string }): Promise<Buffer> {
