@@ -229,6 +229,7 @@ test('the safety officer filters the audit, verifies the chain and exports CSV a
   expect(csv).toContain('printed_name');
   for (const name of [TECH, OPERATOR]) expect(csv).toContain(name);
   expect(csv).toContain('Locks applied');
+  expect(csv).toContain('Maintenance technician');
   expect(csv).not.toContain('ALTERED');
 
   const [pdfDownload] = await Promise.all([page.waitForEvent('download'), page.getByRole('link', { name: 'Export PDF' }).click()]);
@@ -262,6 +263,11 @@ test('the safety screens read well and pass the accessibility scan', async ({ pa
     await expectAccessible(page, name);
     await snap(page, name);
   }
+  await page.goto('/safety/settings');
+  const shades = page.getByRole('table', { name: 'Plasma cutting shades in use' });
+  await expect(shades.getByRole('cell', { name: 'Light (under 300 A)' })).toBeVisible();
+  await expect(shades.getByRole('cell', { name: 'light', exact: true })).toHaveCount(0);
+
   // Each row of "Safety work due" opens the place where that work is done, prefilled.
   await page.goto('/safety');
   const due = page.getByRole('table', { name: 'Safety work due' });

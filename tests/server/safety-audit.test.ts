@@ -81,7 +81,7 @@ describe('the safety officer’s audit', () => {
     expect(res.headers['content-disposition']).toMatch(/^attachment; filename="safety-sign-offs-audit-/);
     const parsed = Papa.parse<Record<string, string>>(res.text.replace(/^\uFEFF/, ''), { header: true, skipEmptyLines: true });
     expect(parsed.data).toHaveLength(5);
-    expect(parsed.data[1]).toMatchObject({ seq: '2', printed_name: `technician of ${shop.slug}`, role: 'technician', meaning: 'Locks applied', machine: 'C1', chain_check: 'verified', time_zone: 'America/Chicago' });
+    expect(parsed.data[1]).toMatchObject({ seq: '2', printed_name: `technician of ${shop.slug}`, role: 'Maintenance technician', meaning: 'Locks applied', machine: 'C1', chain_check: 'verified', time_zone: 'America/Chicago' });
     expect(parsed.data[1].signed_at_utc).toMatch(/^\d{4}-\d\d-\d\dT\d\d:\d\d:\d\d\.\d{3}Z$/);
     expect(parsed.data[3].statement).toBe('I am wearing every item of PPE this task requires, in good condition.');
   });

@@ -141,7 +141,7 @@ export async function exportCsv(em: EntityManager, who: Principal, q: ExportSign
       DateTime.fromISO(r.signedAt, { zone: tz }).toFormat('yyyy-LL-dd HH:mm:ss'),
       tz,
       r.signerName,
-      r.signerRole,
+      ROLE_LABELS[r.signerRole as Role] ?? r.signerRole,
       MEANING_LABELS[r.meaning],
       r.statement,
       r.machineCode ?? '',

@@ -5,6 +5,7 @@ import { TextField } from '../../../components/ui/field';
 import { Notice, Panel } from '../../../components/ui/notice';
 import { applyServerErrors } from '../../../lib/form-errors';
 import { PLASMA_ARC_CUTTING_SHADES } from '../../../../shared/domain/shade';
+import { shadeBandLabel } from './format';
 import { safetySettingsSchema, WEEKDAYS, type SafetySettings, type SafetySettingsView } from '../../../../shared/schemas/safety-records';
 import { useUpdateSafetySettings } from '../api/update-safety-settings';
 
@@ -46,7 +47,8 @@ const fromSettings = (s: SafetySettingsView): FormValues => {
     hearingRuleSource: s.hearingRuleSource,
     siteShade: s.shadeTable !== null,
     shadeSource: s.shadeTable ? t.source : '',
-    bands: t.bands.map((b) => ({ label: b.label, fromA: String(b.fromA), toA: String(b.toA), minimum: String(b.minimum), suggested: String(b.suggested) })),
+    // The built-in table's names are lower-case words; a site copy starts from readable names.
+    bands: t.bands.map((b) => ({ label: s.shadeTable ? b.label : b.label.charAt(0).toUpperCase() + b.label.slice(1), fromA: String(b.fromA), toA: String(b.toA), minimum: String(b.minimum), suggested: String(b.suggested) })),
     shiftStarts: s.shiftStarts.join(', '),
     workDays: s.workDays,
     inspectionIntervalMonths: String(s.inspectionIntervalMonths),
@@ -151,8 +153,7 @@ export function SafetySettingsForm({ settings }: { settings: SafetySettingsView 
           <table className="text-sm" aria-label="Plasma cutting shades in use">
             <thead>
               <tr>
-                <th className="pr-4 text-left">Band</th>
-                <th className="pr-4 text-left">Arc current</th>
+                <th className="pr-4 text-left">Band (arc current)</th>
                 <th className="pr-4 text-left">Minimum</th>
                 <th className="text-left">Suggested</th>
               </tr>
@@ -160,10 +161,7 @@ export function SafetySettingsForm({ settings }: { settings: SafetySettingsView 
             <tbody>
               {PLASMA_ARC_CUTTING_SHADES.bands.map((b) => (
                 <tr key={b.label}>
-                  <td className="pr-4">{b.label}</td>
-                  <td className="pr-4">
-                    {b.fromA}–{b.toA} A
-                  </td>
+                  <td className="pr-4">{shadeBandLabel(b)}</td>
                   <td className="pr-4">{b.minimum}</td>
                   <td>{b.suggested}</td>
                 </tr>
