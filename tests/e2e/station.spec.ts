@@ -118,6 +118,36 @@ test.describe('station page on a tablet', () => {
     await expectAccessible(page, 'station punch tools');
   });
 
+  test('an applied lockout tops the page in red, and open work links to its work order', async ({ page }) => {
+    await signIn(page, 'operator@alder-row.example');
+    const due = (await (await page.request.get('/api/stations/C1')).json()).due as { id: string; number: number; title: string }[];
+    await page.route('**/api/stations/C1', async (route) => {
+      const res = await route.fetch();
+      const body = await res.json();
+      body.lockouts = [{ id: '00000000-0000-4000-8000-000000000001', machineCode: 'C1', state: 'locked', appliedAt: new Date().toISOString(), reason: 'Replace the clamp cylinder' }];
+      await route.fulfill({ response: res, json: body });
+    });
+    await page.goto('/station/C1');
+    const banner = page.getByRole('alert').filter({ hasText: 'Locked out — do not operate' });
+    await expect(banner).toContainText('C1 · Replace the clamp cylinder');
+    const dueList = page.getByRole('region', { name: 'Due on C1' });
+    if (due.length) {
+      await dueList.getByRole('link', { name: new RegExp(`#${due[0].number} `) }).tap();
+      await expect(page).toHaveURL(new RegExp(`/work-orders/${due[0].id}$`));
+      await page.goBack();
+    } else {
+      await expect(dueList).toContainText('No open work orders.');
+    }
+    await expect(banner).toBeVisible();
+    await expectAccessible(page, 'station with a lockout');
+    await snap(page, 'station-lockout-tablet');
+    await page.setViewportSize({ width: 390, height: 844 });
+    await snap(page, 'station-lockout-phone');
+    await page.screenshot({ path: 'tests/e2e/artifacts/station-lockout-phone-top.png' });
+    await page.getByRole('button', { name: 'Record counters' }).scrollIntoViewIfNeeded();
+    await page.screenshot({ path: 'tests/e2e/artifacts/station-lockout-phone-counters.png' });
+  });
+
   test('the QR label opens the station page', async ({ page }) => {
     await signIn(page, 'operator@alder-row.example');
     await page.goto('/station/C2');
