@@ -10,4 +10,6 @@ echo "Building the client..."
 npx vite build --logLevel warn
 # exec: Ctrl-C goes straight to the server, which shuts down gracefully.
 # PostgreSQL keeps running for a fast restart; `npm run db:stop` stops it.
+# A heap cap makes V8 collect early: the due pass creates much short-lived garbage (docs/performance.md).
+export NODE_OPTIONS="--max-old-space-size=${KERFBOOK_HEAP_MB:-512} ${NODE_OPTIONS:-}"
 exec npx tsx server/index.ts
