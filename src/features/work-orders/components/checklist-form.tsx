@@ -1,11 +1,10 @@
-import { useEffect, useState } from 'react';
+import { useEffect, useRef, useState } from 'react';
 import { useForm, useWatch } from 'react-hook-form';
 import { zodResolver } from '@hookform/resolvers/zod';
 import type { z } from 'zod';
 import { CHECK_RESULTS, CHECK_RESULT_LABELS, checklistResultsInput, type ChecklistLine } from '../../../../shared/schemas/work-orders';
-import { Button } from '../../../components/ui/button';
 import { Notice } from '../../../components/ui/notice';
-import { applyServerErrors } from '../../../lib/form-errors';
+import { ApiError } from '../../../lib/api-client';
 import { useSaveChecklist } from '../api/save-checklist';
 import { inputClass } from './format';
 
@@ -29,30 +28,60 @@ function limitsText(c: ChecklistLine) {
 const outside = (c: ChecklistLine, v: number | null | undefined) =>
   v !== null && v !== undefined && !Number.isNaN(v) && ((c.min !== undefined && v < c.min) || (c.max !== undefined && v > c.max));
 
-/** Answer each line OK / Not OK / Not applicable; measured lines take the value and are checked against their limits. */
+/** Answer each line OK / Not OK / Not applicable; each answer is saved as it is given (values and notes when the field is left). */
 export function ChecklistForm({ workOrderId, lines, readOnly }: { workOrderId: string; lines: ChecklistLine[]; readOnly: boolean }) {
   const save = useSaveChecklist();
   const [message, setMessage] = useState<{ tone: 'danger' | 'safe'; text: string } | null>(null);
+  const [pending, setPending] = useState(0);
+  const queue = useRef<Promise<unknown>>(Promise.resolve());
   const defaults = { results: lines.map((l) => ({ key: l.key, result: l.result, value: l.value, note: l.note })) };
-  const { register, handleSubmit, setError, formState, control, reset } = useForm<In, unknown, Out>({ resolver: zodResolver(checklistResultsInput), defaultValues: defaults });
-  // Server state wins after a save (other people may answer lines too).
-  useEffect(() => reset(defaults), [JSON.stringify(lines)]); // eslint-disable-line react-hooks/exhaustive-deps
+  const { register, setError, clearErrors, formState, control, reset, getValues, setValue } = useForm<In, unknown, Out>({ resolver: zodResolver(checklistResultsInput), defaultValues: defaults });
+  // Server state wins after a save (other people may answer lines too); a field being edited keeps its text.
+  useEffect(() => reset(defaults, { keepDirtyValues: true, keepErrors: true }), [JSON.stringify(lines)]); // eslint-disable-line react-hooks/exhaustive-deps
   const values = useWatch({ control, name: 'results' });
-  const onSubmit = handleSubmit(async (v) => {
-    setMessage(null);
-    try {
-      await save.mutateAsync({ id: workOrderId, results: v.results });
-      const open = v.results.filter((r) => r.result === null).length;
-      setMessage({ tone: 'safe', text: open ? `Saved. ${open} line${open === 1 ? '' : 's'} still to answer.` : 'Saved. Every line is answered.' });
-    } catch (err) {
-      const paths = lines.flatMap((_, i) => [`results.${i}.result`, `results.${i}.value`, `results.${i}.key`]);
-      setMessage({ tone: 'danger', text: applyServerErrors(err, setError, paths) ?? 'Some answers need another look (marked below).' });
+  // Warn before leaving while an answer is still on its way.
+  useEffect(() => {
+    if (!pending) return;
+    const warn = (e: BeforeUnloadEvent) => e.preventDefault();
+    window.addEventListener('beforeunload', warn);
+    return () => window.removeEventListener('beforeunload', warn);
+  }, [pending]);
+  /** One request per change, one after another so a later answer never lands before an earlier one. */
+  const saveLine = (i: number, onlyIfChanged = false) => {
+    const v = getValues(`results.${i}`);
+    if (onlyIfChanged && lines[i] && (v.value ?? null) === (lines[i].value ?? null) && (v.note || null) === (lines[i].note || null)) return;
+    const value = v.value === undefined || v.value === null ? null : Number(v.value);
+    if (value !== null && !Number.isFinite(value)) {
+      setError(`results.${i}.value`, { type: 'client', message: 'Enter a number' });
+      return;
     }
-  });
+    clearErrors(`results.${i}`);
+    const line = { key: v.key, result: v.result ?? null, value, note: v.note ? v.note : null };
+    const before = lines[i];
+    setPending((n) => n + 1);
+    setMessage(null);
+    queue.current = queue.current.then(async () => {
+      try {
+        const r = await save.mutateAsync({ id: workOrderId, results: [line] });
+        const open = r.checklist.filter((c) => c.result === null).length;
+        setMessage({ tone: 'safe', text: open ? `Saved. ${open} line${open === 1 ? '' : 's'} still to answer.` : 'Saved. Every line is answered.' });
+      } catch (err) {
+        // Put the line back as it was last saved, and say why.
+        if (before) setValue(`results.${i}`, { key: before.key, result: before.result, value: before.value, note: before.note });
+        // One line is sent at a time, so its field errors belong to line i.
+        const fieldMsg = err instanceof ApiError ? err.fields[0]?.message : undefined;
+        if (fieldMsg) setError(`results.${i}.result`, { type: 'server', message: fieldMsg });
+        const text = err instanceof ApiError ? err.message : 'Could not reach the server. Check the connection and try again.';
+        setMessage({ tone: 'danger', text: `Not saved: “${before?.label ?? 'this line'}” is back to its last saved answer. ${fieldMsg ?? text}` });
+      } finally {
+        setPending((n) => n - 1);
+      }
+    });
+  };
   if (lines.length === 0) return <p className="text-steel-600">This work order has no checklist.</p>;
   const answered = (values ?? []).filter((r) => r?.result).length;
   return (
-    <form onSubmit={onSubmit} noValidate aria-label="Checklist" className="space-y-4">
+    <form onSubmit={(e) => e.preventDefault()} noValidate aria-label="Checklist" className="space-y-4">
       <p className="text-sm font-semibold text-steel-700" aria-live="polite">{answered} of {lines.length} answered</p>
       <ol className="space-y-3">
         {lines.map((c, i) => {
@@ -71,7 +100,7 @@ export function ChecklistForm({ workOrderId, lines, readOnly }: { workOrderId: s
                 <div className="mt-2 flex flex-wrap gap-2" role="radiogroup" aria-label={`Answer for ${c.label}`}>
                   {CHECK_RESULTS.map((r) => (
                     <label key={r} className="relative">
-                      <input type="radio" value={r} className="peer sr-only" {...register(`results.${i}.result`)} />
+                      <input type="radio" value={r} className="peer sr-only" {...register(`results.${i}.result`, { onChange: () => saveLine(i) })} />
                       <span className={`flex min-h-touch min-w-24 cursor-pointer items-center justify-center rounded border-2 border-steel-400 bg-white px-4 font-semibold peer-focus-visible:outline-3 peer-focus-visible:outline-offset-2 peer-focus-visible:outline-mandatory ${toneOf[r]}`}>
                         {CHECK_RESULT_LABELS[r]}
                       </span>
@@ -87,7 +116,7 @@ export function ChecklistForm({ workOrderId, lines, readOnly }: { workOrderId: s
                         inputMode="decimal"
                         className={inputClass}
                         aria-invalid={off || !!err?.value || undefined}
-                        {...register(`results.${i}.value`, { setValueAs: (x) => (x === '' || x === null || x === undefined ? null : Number(String(x).replace(',', '.'))) })}
+                        {...register(`results.${i}.value`, { onBlur: () => saveLine(i, true), setValueAs: (x) => (x === '' || x === null || x === undefined ? null : Number(String(x).replace(',', '.'))) })}
                       />
                     </div>
                     {off ? (
@@ -97,7 +126,7 @@ export function ChecklistForm({ workOrderId, lines, readOnly }: { workOrderId: s
                 ) : null}
                 <div className="mt-2">
                   <label htmlFor={`cl-${c.key}-note`} className="block text-sm font-semibold">Note (optional)</label>
-                  <input id={`cl-${c.key}-note`} className={inputClass} {...register(`results.${i}.note`, { setValueAs: (x) => (x ? x : null) })} />
+                  <input id={`cl-${c.key}-note`} className={inputClass} {...register(`results.${i}.note`, { onBlur: () => saveLine(i, true), setValueAs: (x) => (x ? x : null) })} />
                 </div>
                 {err?.result?.message || err?.value?.message ? (
                   <p className="mt-1 text-sm font-semibold text-danger" role="alert">{err?.result?.message ?? err?.value?.message}</p>
@@ -108,7 +137,11 @@ export function ChecklistForm({ workOrderId, lines, readOnly }: { workOrderId: s
         })}
       </ol>
       {message ? <Notice tone={message.tone} role={message.tone === 'danger' ? 'alert' : 'status'}>{message.text}</Notice> : null}
-      {readOnly ? null : <Button type="submit" busy={formState.isSubmitting}>Save checklist</Button>}
+      {readOnly ? null : (
+        <p className="text-sm text-steel-600" role="status" aria-live="polite">
+          {pending ? 'Saving answers…' : 'Each answer is saved as you give it; measured values and notes when you leave the field.'}
+        </p>
+      )}
     </form>
   );
 }
