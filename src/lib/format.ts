@@ -37,3 +37,17 @@ export function fromShopLocal(local: string, timeZone: string): string | null {
 
 /** 12345.6 → "12,345.6": counters are read at a glance. */
 export const formatNumber = (n: number, maxFractionDigits = 1) => new Intl.NumberFormat('en-GB', { maximumFractionDigits: maxFractionDigits }).format(n);
+
+// The signed-in shop's zone, set once by the app layout, for formatters made at module level.
+let shopTimeZone: string | undefined;
+export function setShopTimeZone(timeZone: string) {
+  shopTimeZone = timeZone;
+}
+
+/** Like `new Intl.DateTimeFormat`, but always on the shop's clock (read when formatting). */
+export function shopFormatter(options: Intl.DateTimeFormatOptions) {
+  return {
+    format: (value: Date | number | string) =>
+      new Intl.DateTimeFormat('en-GB', { ...options, ...(options.timeStyle ? { hourCycle: 'h23' } : {}), timeZone: shopTimeZone }).format(new Date(value)),
+  };
+}

@@ -5,12 +5,14 @@ import { useLogout } from '../../features/auth/api/logout';
 import { ROLE_LABELS } from '../../../shared/permissions';
 import { navFor } from '../nav';
 import { paths } from '../../config/paths';
+import { setShopTimeZone } from '../../lib/format';
 
 export function Component() {
   const { data: me } = useMe();
   const logout = useLogout();
   const navigate = useNavigate();
   if (!me) return null; // the loader redirects before this happens
+  setShopTimeZone(me.organization.timeZone);
   return (
     <AppShell
       shopName={me.organization.name}

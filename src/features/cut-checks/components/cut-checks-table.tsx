@@ -4,9 +4,10 @@ import { DataTable } from '../../../components/ui/data-table';
 import { Badge, EmptyState, Notice } from '../../../components/ui/notice';
 import type { CutCheckRow } from '../../../../shared/schemas/consumables';
 import { useCutChecks } from '../api/get-cut-checks';
+import { shopFormatter } from '../../../lib/format';
 
 const col = createColumnHelper<CutCheckRow>();
-const when = new Intl.DateTimeFormat(undefined, { dateStyle: 'medium', timeStyle: 'short' });
+const when = shopFormatter({ dateStyle: 'medium', timeStyle: 'short' });
 const signed = new Intl.NumberFormat(undefined, { signDisplay: 'always', minimumFractionDigits: 2, maximumFractionDigits: 3 });
 const columns = [
   col.accessor('checkedAt', { header: 'When', enableSorting: false, cell: (c) => when.format(new Date(c.getValue())) }),

@@ -7,6 +7,7 @@ import type { ImportPreview, ImportResult } from '../../../../shared/schemas/cou
 import type { RowError } from '../../../../shared/domain/counter-import';
 import { COUNTER_IMPORT_MAX_BYTES } from '../../../../shared/schemas/counter-import';
 import { useImportCounterCsv, usePreviewCounterCsv, type UploadProgress } from '../api/upload-counter-csv';
+import { shopFormatter } from '../../../lib/format';
 
 const errCol = createColumnHelper<RowError>();
 const errorColumns = [
@@ -16,7 +17,7 @@ const errorColumns = [
 ];
 type Sample = ImportPreview['sample'][number];
 const sampleCol = createColumnHelper<Sample>();
-const when = new Intl.DateTimeFormat(undefined, { dateStyle: 'medium', timeStyle: 'short' });
+const when = shopFormatter({ dateStyle: 'medium', timeStyle: 'short' });
 const STATUS = { add: { tone: 'safe', label: 'Will be added' }, duplicate: { tone: 'info', label: 'Already recorded' }, error: { tone: 'danger', label: 'Problem' } } as const;
 // While the file has problems nothing is added, so a good row only says it is fine.
 const statusOf = (s: Sample['status'], blocked: boolean) => (s === 'add' && blocked ? { tone: 'info' as const, label: 'Row is fine' } : STATUS[s]);

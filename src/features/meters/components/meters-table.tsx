@@ -5,9 +5,10 @@ import { Badge, EmptyState } from '../../../components/ui/notice';
 import type { MeterRow } from '../../../../shared/schemas/machines';
 import { paths } from '../../../config/paths';
 import { formatValue, limitState } from './format';
+import { shopFormatter } from '../../../lib/format';
 
 const col = createColumnHelper<MeterRow>();
-const when = new Intl.DateTimeFormat(undefined, { dateStyle: 'medium', timeStyle: 'short' });
+const when = shopFormatter({ dateStyle: 'medium', timeStyle: 'short' });
 const KIND = { count: 'Count', 'running-time': 'Running time', condition: 'Condition' } as const;
 
 /** `compact` (the station page): meter name and unit only; codes and kinds are for the people who set meters up. */

@@ -5,9 +5,10 @@ import { Badge, EmptyState, Notice } from '../../../components/ui/notice';
 import type { MeterRow, ReadingRow } from '../../../../shared/schemas/machines';
 import { useReadings } from '../api/get-readings';
 import { formatValue } from './format';
+import { shopFormatter } from '../../../lib/format';
 
 const col = createColumnHelper<ReadingRow>();
-const when = new Intl.DateTimeFormat(undefined, { dateStyle: 'medium', timeStyle: 'short' });
+const when = shopFormatter({ dateStyle: 'medium', timeStyle: 'short' });
 const SOURCE = { manual: 'Typed in', import: 'Imported', 'work-order': 'Work order', 'consumable-change': 'Consumable change' } as const;
 
 export function ReadingsTable({ meter }: { meter: MeterRow }) {

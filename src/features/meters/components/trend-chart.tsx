@@ -2,9 +2,10 @@ import { CartesianGrid, Line, LineChart, ReferenceLine, ResponsiveContainer, Too
 import { EmptyState, Notice } from '../../../components/ui/notice';
 import { useTrend } from '../api/get-trend';
 import { formatValue } from './format';
+import { shopFormatter } from '../../../lib/format';
 
-const day = new Intl.DateTimeFormat(undefined, { month: 'short', day: 'numeric' });
-const full = new Intl.DateTimeFormat(undefined, { dateStyle: 'medium', timeStyle: 'short' });
+const day = shopFormatter({ month: 'short', day: 'numeric' });
+const full = shopFormatter({ dateStyle: 'medium', timeStyle: 'short' });
 const num = new Intl.NumberFormat(undefined, { maximumFractionDigits: 1 });
 
 /** Readings over time; condition meters show their limits as dashed red lines. */

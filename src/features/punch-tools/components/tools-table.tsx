@@ -8,10 +8,11 @@ import { WorkCaution } from '../../../components/ui/caution';
 import type { PunchToolRow } from '../../../../shared/schemas/punch-tools';
 import { usePunchTools } from '../api/get-punch-tools';
 import { useRecordSharpening } from '../api/record-sharpening';
+import { shopFormatter } from '../../../lib/format';
 
 const col = createColumnHelper<PunchToolRow>();
 const int = new Intl.NumberFormat(undefined, { maximumFractionDigits: 0 });
-const when = new Intl.DateTimeFormat(undefined, { dateStyle: 'medium' });
+const when = shopFormatter({ dateStyle: 'medium' });
 
 /** Punch tools with hits since their last sharpening; reaching the interval raises a caution badge. */
 export function ToolsTable({ machineId, canManage }: { machineId?: string; canManage: boolean }) {

@@ -5,9 +5,10 @@ import { EmptyState, Notice } from '../../../components/ui/notice';
 import { CHANGE_REASON_LABELS, type ChangeRow } from '../../../../shared/schemas/consumables';
 import { PART_CATEGORY_LABELS } from '../../../../shared/schemas/stock';
 import { useChanges } from '../api/get-changes';
+import { shopFormatter } from '../../../lib/format';
 
 const col = createColumnHelper<ChangeRow>();
-const when = new Intl.DateTimeFormat(undefined, { dateStyle: 'medium', timeStyle: 'short' });
+const when = shopFormatter({ dateStyle: 'medium', timeStyle: 'short' });
 const int = new Intl.NumberFormat(undefined, { maximumFractionDigits: 1 });
 
 const columns = [

@@ -3,9 +3,10 @@ import type { StationDueRow, StationLockout } from '../../../../shared/schemas/c
 import { WORK_STATE_LABELS } from '../../../../shared/schemas/work-orders';
 import { Badge } from '../../../components/ui/notice';
 import { paths } from '../../../config/paths';
+import { shopFormatter } from '../../../lib/format';
 
-const when = new Intl.DateTimeFormat(undefined, { dateStyle: 'medium', timeStyle: 'short' });
-const day = new Intl.DateTimeFormat(undefined, { dateStyle: 'medium' });
+const when = shopFormatter({ dateStyle: 'medium', timeStyle: 'short' });
+const day = shopFormatter({ dateStyle: 'medium' });
 
 /** First thing on the station page: an applied lockout means the machine must not be run. */
 export function LockoutBanner({ lockouts }: { lockouts: StationLockout[] }) {

@@ -6,9 +6,10 @@ import { Notice } from '../../../components/ui/notice';
 import { formatQty } from '../../stock/components/format';
 import { LifeBar } from './life-bar';
 import { ChangeForm } from './change-form';
+import { shopFormatter } from '../../../lib/format';
 
 const int = new Intl.NumberFormat(undefined, { maximumFractionDigits: 1 });
-const when = new Intl.DateTimeFormat(undefined, { dateStyle: 'medium', timeStyle: 'short' });
+const when = shopFormatter({ dateStyle: 'medium', timeStyle: 'short' });
 
 function Counter({ label, value, unit, at }: { label: string; value: number | null; unit: string; at: string | null }) {
   return (

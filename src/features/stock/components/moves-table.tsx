@@ -5,9 +5,10 @@ import { EmptyState, Notice } from '../../../components/ui/notice';
 import type { StockMoveRow } from '../../../../shared/schemas/stock';
 import { useStockMoves } from '../api/get-stock-moves';
 import { formatQty, unitFor } from './format';
+import { shopFormatter } from '../../../lib/format';
 
 const col = createColumnHelper<StockMoveRow>();
-const when = new Intl.DateTimeFormat(undefined, { dateStyle: 'medium', timeStyle: 'short' });
+const when = shopFormatter({ dateStyle: 'medium', timeStyle: 'short' });
 const KIND = { received: 'Received', used: 'Used', adjusted: 'Adjusted' } as const;
 const REF: Record<string, string> = { ConsumableChange: 'consumable change', WorkOrder: 'work order' };
 const signed = new Intl.NumberFormat(undefined, { signDisplay: 'always', maximumFractionDigits: 2 });
