@@ -4,6 +4,7 @@ import { User, Membership, UserToken } from './modules/users/user.entity';
 import { AuditEvent } from './modules/audit/audit-event.entity';
 import { OutboxMail } from './mail/outbox.entity';
 import { Machine } from './modules/machines/machine.entity';
+import { MachinePhoto } from './modules/machines/machine-photo.entity';
 import { Meter, MeterReading } from './modules/meters/meter.entity';
 import { PartType, StockMove } from './modules/stock/stock.entity';
 import { MaintenancePlan } from './modules/plans/plan.entity';
@@ -15,4 +16,4 @@ import { safetyEntities } from './modules/safety/index';
 import { ConsumableChange, ConsumableInstall, ConsumablePhoto, CutCheck } from './modules/consumables/consumable.entity';
 import { PunchTool, ToolSharpening } from './modules/punch-tools/punch-tool.entity';
 
-export const entities = [Organization, User, Membership, UserToken, AuditEvent, OutboxMail, Machine, Meter, MeterReading, PartType, StockMove, MaintenancePlan, WorkOrder, WorkOrderPart, WorkOrderAttachment, WorkOrderCounter, NotifyPreference, OilTarget, OilAnalysis, CalendarFeed, JobRun, ...safetyEntities, ConsumableChange, ConsumableInstall, ConsumablePhoto, CutCheck, PunchTool, ToolSharpening];
+export const entities = [Organization, User, Membership, UserToken, AuditEvent, OutboxMail, Machine, Meter, MeterReading, PartType, StockMove, MaintenancePlan, WorkOrder, WorkOrderPart, WorkOrderAttachment, WorkOrderCounter, NotifyPreference, OilTarget, OilAnalysis, CalendarFeed, JobRun, ...safetyEntities, ConsumableChange, ConsumableInstall, ConsumablePhoto, CutCheck, PunchTool, ToolSharpening, MachinePhoto];

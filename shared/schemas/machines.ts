@@ -182,3 +182,10 @@ export const readingBatchSchema = z.object({
     .max(50, 'At most 50 readings at once'),
 });
 export type ReadingBatchInput = z.output<typeof readingBatchSchema>;
+
+/** Fields sent beside a machine photo (multipart). */
+export const machinePhotoFields = z.object({
+  caption: z.string().trim().max(200, 'Caption: at most 200 characters').optional().transform((v) => (v ? v : null)),
+});
+export const machinePhotoParams = z.object({ id: z.uuid(), photoId: z.uuid() });
+export type MachinePhotoRow = { id: string; caption: string | null; mimeType: string; byteSize: number; createdAt: string; uploadedBy: string | null };
