@@ -5,6 +5,7 @@ import { Panel, Notice, Badge } from '../../components/ui/notice';
 import { Button } from '../../components/ui/button';
 import { MachinesTable } from '../../features/machines/components/machines-table';
 import { MachineForm } from '../../features/machines/components/machine-form';
+import { MachinePhotos } from '../../features/machines/components/machine-photos';
 import { getMachineQueryOptions, useMachine } from '../../features/machines/api/get-machine';
 import { useMachines } from '../../features/machines/api/get-machines';
 import { useUpdateMachine } from '../../features/machines/api/update-machine';
@@ -67,6 +68,9 @@ export function Component() {
           <MachineForm machines={all.data ?? []} machine={m} onDone={() => setEditing(false)} />
         </Panel>
       ) : null}
+      <Panel title="Photos">
+        <MachinePhotos machineId={m.id} code={m.code} canManage={manage} />
+      </Panel>
       <Panel title="Components" actions={<Badge>{m.components.length}</Badge>}>
         <MachinesTable rows={m.components} />
         {manage ? (
