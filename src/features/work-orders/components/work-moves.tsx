@@ -1,4 +1,6 @@
-import { useState } from 'react';
+import { useEffect, useRef, useState } from 'react';
+import { Link } from 'react-router-dom';
+import { paths } from '../../../config/paths';
 import type { WorkMove, WorkOrderDetail } from '../../../../shared/schemas/work-orders';
 import { Button } from '../../../components/ui/button';
 import { Notice } from '../../../components/ui/notice';
@@ -22,15 +24,24 @@ export function WorkMoves({ wo }: { wo: WorkOrderDetail }) {
       setError(err instanceof Error ? err.message : 'Could not change the state');
     }
   };
+  const needsLockout = wo.requiresLockout && !wo.lockoutSessionId && !wo.lockoutReleasedAt;
+  const [warnLockout, setWarnLockout] = useState(false);
   const can = (m: WorkMove) =>
     ({ start: wo.status === 'open', pause: wo.status === 'open' || wo.status === 'in-progress', resume: wo.status === 'on-hold', cancel: ['open', 'in-progress', 'on-hold'].includes(wo.status) })[m];
   return (
     <div className="flex flex-wrap items-center gap-2">
-      {can('start') ? <Button onClick={() => go('start')} busy={move.isPending && move.variables?.move === 'start'}>Start work</Button> : null}
+      {can('start') ? <Button onClick={() => (needsLockout ? setWarnLockout(true) : go('start'))} busy={move.isPending && move.variables?.move === 'start'}>Start work</Button> : null}
       {can('resume') ? <Button onClick={() => go('resume')} busy={move.isPending && move.variables?.move === 'resume'}>Resume</Button> : null}
       {can('pause') ? <Button variant="secondary" onClick={() => setAsking('pause')}>Pause</Button> : null}
       {can('cancel') ? <Button variant="secondary" onClick={() => setAsking('cancel')}>Call off</Button> : null}
       {error ? <Notice tone="danger" role="alert">{error}</Notice> : null}
+      <LockoutFirstDialog
+        open={warnLockout}
+        lockoutHref={paths.safetyLockoutNew.getHref({ machineId: wo.machine.id, workOrderId: wo.id })}
+        busy={move.isPending}
+        onStartAnyway={async () => { await go('start'); setWarnLockout(false); }}
+        onCancel={() => setWarnLockout(false)}
+      />
       <ConfirmDialog
         open={asking !== null}
         title={asking === 'pause' ? `Pause WO ${wo.number}?` : `Call off WO ${wo.number}?`}
@@ -48,5 +59,29 @@ export function WorkMoves({ wo }: { wo: WorkOrderDetail }) {
         {error ? <p className="mt-2 text-sm font-semibold text-danger" role="alert">{error}</p> : null}
       </ConfirmDialog>
     </div>
+  );
+}
+
+/** Caution before starting work that needs a lockout which is not applied yet. */
+function LockoutFirstDialog({ open, lockoutHref, busy, onStartAnyway, onCancel }: { open: boolean; lockoutHref: string; busy: boolean; onStartAnyway: () => void; onCancel: () => void }) {
+  const ref = useRef<HTMLDialogElement>(null);
+  useEffect(() => {
+    const d = ref.current;
+    if (!d) return;
+    if (open && !d.open) d.showModal();
+    if (!open && d.open) d.close();
+  }, [open]);
+  return (
+    <dialog ref={ref} onCancel={(e) => { e.preventDefault(); onCancel(); }} aria-labelledby="lockout-first-title" className="m-auto w-[min(32rem,92vw)] rounded border-2 border-caution p-0 shadow-xl backdrop:bg-steel-950/50">
+      <div className="space-y-3 bg-caution-soft p-5 text-caution-ink">
+        <h2 id="lockout-first-title" className="text-xl font-bold"><span aria-hidden="true">⚠ </span>Caution: lockout needed</h2>
+        <p>This work needs a lockout first: isolate the machine under the site’s energy-control procedure before anyone works on it. No lockout is applied for this work yet.</p>
+        <div className="flex flex-wrap justify-end gap-2 pt-2">
+          <Button variant="secondary" onClick={onCancel}>Cancel</Button>
+          <Button variant="secondary" busy={busy} onClick={onStartAnyway}>Start anyway</Button>
+          <Link to={lockoutHref} className="inline-flex min-h-touch min-w-touch items-center justify-center rounded bg-steel-800 px-4 py-2 font-semibold text-white hover:bg-steel-700">Lock out first</Link>
+        </div>
+      </div>
+    </dialog>
   );
 }

@@ -71,7 +71,9 @@ export function WorkOrderSummary({ wo, timeZone }: { wo: WorkOrderDetail; timeZo
             ) : (
               <Notice tone="mandatory" title="Apply lockout before work">
                 This work needs the machine isolated under the site’s energy-control procedure.{' '}
-                {open ? <Link className="font-semibold underline" to={paths.safetyLockoutNew.getHref({ machineId: wo.machine.id, workOrderId: wo.id })}>Start a lockout for this work</Link> : null}
+                {open ? (
+                  <Link className="mt-3 flex min-h-touch items-center justify-center rounded bg-steel-800 px-4 py-2 font-semibold text-white hover:bg-steel-700" to={paths.safetyLockoutNew.getHref({ machineId: wo.machine.id, workOrderId: wo.id })}>Start a lockout for this work</Link>
+                ) : null}
               </Notice>
             )}
           </Panel>
