@@ -70,10 +70,16 @@ export function StartersPanel({ lookups }: { lookups: PlanLookups }) {
       ) : null}
       {machine ? <Button onClick={run} disabled={chosen.size === 0} busy={apply.isPending}>Apply {chosen.size || ''} starter plan{chosen.size === 1 ? '' : 's'}</Button> : null}
       {error ? <Notice tone="danger" role="alert">{error}</Notice> : null}
-      {result ? (
-        <Notice tone={result.created.length ? 'safe' : 'caution'} title={`${result.created.length} plan${result.created.length === 1 ? '' : 's'} created`} role="status">
+      {result && result.created.length ? (
+        <Notice tone="safe" title={`${result.created.length} plan${result.created.length === 1 ? '' : 's'} created`} role="status">
           <ul className="list-disc pl-5">
             {result.created.map((c) => <li key={c.planId}><Link className="underline" to={`/plans/${c.planId}`}>{c.title}</Link></li>)}
+          </ul>
+        </Notice>
+      ) : null}
+      {result && result.skipped.length ? (
+        <Notice tone="caution" title={result.created.length ? 'Check these' : 'No plans created: check these'} role="status">
+          <ul className="list-disc pl-5">
             {result.skipped.map((s) => <li key={`${s.key}-${s.reason}`}>{s.title}: {s.reason}</li>)}
           </ul>
         </Notice>
