@@ -24,7 +24,7 @@ export function PlanView({ plan }: { plan: PlanDetail }) {
             <dd>{formatWhen(plan.nextDueAt, tz)} {plan.nextDueAt ? <span className="text-steel-600">({relative(plan.nextDueAt)})</span> : null}</dd>
             <dt className="font-semibold">Last done</dt>
             <dd>{plan.lastDoneAt ? formatWhen(plan.lastDoneAt, tz) : 'Not yet'}</dd>
-            <dt className="font-semibold">Done by</dt>
+            <dt className="font-semibold">For (role or person)</dt>
             <dd>{plan.responsibleUser?.name ?? (plan.responsibleRole ? `Any ${ROLE_LABELS[plan.responsibleRole].toLowerCase()}` : '—')}</dd>
           </dl>
           {plan.openWorkOrder ? (

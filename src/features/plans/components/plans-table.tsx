@@ -62,7 +62,7 @@ export function PlansTable({ timeZone, machineId: fixedMachine }: { timeZone: st
         ),
       }),
       col.accessor('lastDoneAt', { id: 'lastDoneAt', header: 'Last done', enableSorting: false, cell: (c) => formatWhen(c.getValue(), timeZone, false) }),
-      col.accessor('responsible', { id: 'responsible', header: 'Done by', enableSorting: false }),
+      col.accessor('responsible', { id: 'responsible', header: 'For (role or person)', enableSorting: false }),
     ],
     [timeZone],
   );
