@@ -4,6 +4,7 @@ import { Button } from '../../../components/ui/button';
 import { Notice } from '../../../components/ui/notice';
 import { useUpdateWorkOrder } from '../api/update-work-order';
 import { inputClass } from './format';
+import { ApiError } from '../../../lib/api-client';
 
 /** Time spent and notes; kept as the work goes on, and offered again at sign-off. */
 export function WorkLogForm({ wo, readOnly }: { wo: WorkOrderDetail; readOnly: boolean }) {
@@ -11,23 +12,37 @@ export function WorkLogForm({ wo, readOnly }: { wo: WorkOrderDetail; readOnly: b
   const [minutes, setMinutes] = useState(String(wo.labourMinutes || ''));
   const [notes, setNotes] = useState(wo.notes);
   const [message, setMessage] = useState<{ tone: 'danger' | 'safe'; text: string } | null>(null);
+  const [minutesError, setMinutesError] = useState<string | null>(null);
   const save = async (e: React.FormEvent) => {
     e.preventDefault();
     setMessage(null);
+    setMinutesError(null);
     const n = minutes.trim() === '' ? 0 : Number(minutes);
-    if (!Number.isInteger(n) || n < 0) return setMessage({ tone: 'danger', text: 'Time spent: enter whole minutes, 0 or more.' });
+    if (!Number.isInteger(n) || n < 0) return setMinutesError(n < 0 ? 'Cannot be negative: enter whole minutes, 0 or more.' : 'Enter whole minutes, 0 or more.');
     try {
       await update.mutateAsync({ id: wo.id, labourMinutes: n, notes });
       setMessage({ tone: 'safe', text: 'Saved.' });
     } catch (err) {
-      setMessage({ tone: 'danger', text: err instanceof Error ? err.message : 'Could not save' });
+      const onField = err instanceof ApiError ? err.fields.find((f) => f.path === 'labourMinutes') : undefined;
+      if (onField) setMinutesError(onField.message);
+      else setMessage({ tone: 'danger', text: err instanceof Error ? err.message : 'Could not save' });
     }
   };
   return (
     <form onSubmit={save} aria-label="Time and notes" className="grid gap-3 sm:grid-cols-[12rem_1fr]">
       <div>
         <label htmlFor="wo-minutes" className="block text-sm font-semibold">Time spent (minutes)</label>
-        <input id="wo-minutes" inputMode="numeric" className={inputClass} value={minutes} disabled={readOnly} onChange={(e) => setMinutes(e.target.value)} />
+        <input
+          id="wo-minutes"
+          inputMode="numeric"
+          className={inputClass}
+          value={minutes}
+          disabled={readOnly}
+          aria-invalid={minutesError ? true : undefined}
+          aria-describedby={minutesError ? 'wo-minutes-error' : undefined}
+          onChange={(e) => { setMinutes(e.target.value); setMinutesError(null); }}
+        />
+        {minutesError ? <p id="wo-minutes-error" className="mt-1 text-sm font-semibold text-danger" role="alert">{minutesError}</p> : null}
       </div>
       <div>
         <label htmlFor="wo-notes" className="block text-sm font-semibold">Notes</label>
