@@ -152,4 +152,5 @@ export type SafetyTaskRow = {
   machineId: string | null;
   procedureId: string | null;
   personId: string | null;
+  trainingKind: TrainingKind | null;
 };

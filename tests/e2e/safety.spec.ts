@@ -277,6 +277,7 @@ test('the safety screens read well and pass the accessibility scan', async ({ pa
   await expect(training).toBeVisible();
   await expect(training.getByLabel('Person')).toHaveValue(/.+/);
   await expect(training.getByLabel('Procedure (its approved version)')).toHaveValue(/.+/);
+  await expect(training.getByLabel('Kind of training')).toHaveValue('affected'); // the demo operator is trained as an affected employee
   await snap(page, 'safety-records-from-due-task');
   await page.goto('/safety');
   await due.getByRole('link', { name: /^PPE check at P1/ }).click();

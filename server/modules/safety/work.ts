@@ -9,14 +9,14 @@ import { queueMail } from '../../mail/outbox';
 import { renderMail } from '../../mail/templates';
 import { loadConfig } from '../../config';
 import type { JobStep } from '../../jobs/scheduler';
-import type { SafetyTaskKind, SafetyTaskRow } from '../../../shared/schemas/safety-records';
+import type { SafetyTaskKind, SafetyTaskRow, TrainingKind } from '../../../shared/schemas/safety-records';
 import { TASK_KIND_LABELS } from '../../../shared/schemas/safety-records';
 
 /** Retraining is due this long after a changed procedure is approved (house rule). */
 export const RETRAIN_DAYS = 14;
 const DAY_MS = 86_400_000;
 
-type Occurrence = { kind: SafetyTaskKind; key: string; title: string; machineId: string | null; procedureId?: string; personId?: string; dueAt: Date | null; status: 'due' | 'overdue' };
+type Occurrence = { kind: SafetyTaskKind; key: string; title: string; machineId: string | null; procedureId?: string; personId?: string; trainingKind?: TrainingKind; dueAt: Date | null; status: 'due' | 'overdue' };
 
 /** Everything safety-related that is due or overdue in one shop right now. */
 export async function currentSafetyWork(em: EntityManager, orgId: string, now: Date): Promise<Occurrence[]> {
@@ -70,6 +70,7 @@ export async function currentSafetyWork(em: EntityManager, orgId: string, now: D
       machineId: proc.machine.id,
       procedureId: proc.id,
       personId: t.person.id,
+      trainingKind: t.kind,
       dueAt,
       status: now > dueAt ? 'overdue' : 'due',
     });
@@ -173,6 +174,7 @@ export async function listSafetyTasks(em: EntityManager, orgId: string, now = ne
         machineId: o.machineId,
         procedureId: o.procedureId ?? null,
         personId: o.personId ?? null,
+        trainingKind: o.trainingKind ?? null,
       };
     })
     .sort((a, b) => Number(b.status === 'overdue') - Number(a.status === 'overdue') || (a.dueAt ?? '').localeCompare(b.dueAt ?? ''));

@@ -255,13 +255,13 @@ export function SignOffAudit({ me, timeZone }: { me: { name: string; role: Role 
       <div className="mb-3 flex flex-wrap gap-2">
         {rangeError ? (
           <>
-            <span className={`${exportLink} text-steel-600`} aria-disabled="true">
-              Export CSV
+            <span className={`${exportLink} cursor-not-allowed border-dashed text-steel-700`} aria-disabled="true">
+              Export CSV (dates to fix)
             </span>
-            <span className={`${exportLink} text-steel-600`} aria-disabled="true">
-              Export PDF
+            <span className={`${exportLink} cursor-not-allowed border-dashed text-steel-700`} aria-disabled="true">
+              Export PDF (dates to fix)
             </span>
-            <span className="self-center text-sm text-steel-700">Fix the dates to export.</span>
+            <span className="self-center text-sm text-steel-700">Exports use the filters below: fix the dates first.</span>
           </>
         ) : (
           <>
@@ -285,7 +285,8 @@ export function SignOffAudit({ me, timeZone }: { me: { name: string; role: Role 
         empty={rangeError ? <EmptyState title="Fix the date range to see signatures" /> : <EmptyState title="No signatures match these filters" />}
         server={{ total: rangeError ? 0 : (q.data?.total ?? 0), page, pageSize: 25, sorting, onSortingChange: (s) => (setSorting(s), setFilter('page', '')), onPageChange: (n) => setFilter('page', n > 1 ? String(n) : '') }}
         toolbar={
-          <>
+          // Top-aligned so the error under "To" does not push the other filters out of line.
+          <div className="flex flex-wrap items-start gap-3">
             <label className="flex flex-col text-sm font-semibold">
               Machine
               <select className={filterClass} value={machineId} onChange={(e) => setFilter('machine', e.target.value)}>
@@ -341,7 +342,7 @@ export function SignOffAudit({ me, timeZone }: { me: { name: string; role: Role 
                 </p>
               ) : null}
             </div>
-          </>
+          </div>
         }
         columns={[
           col.accessor('seq', { header: '#' }),

@@ -11,7 +11,7 @@ import { Badge, EmptyState, Notice, Panel } from '../../../components/ui/notice'
 import { ApiError } from '../../../lib/api-client';
 import { applyServerErrors } from '../../../lib/form-errors';
 import { can, ROLE_LABELS, type Role } from '../../../../shared/permissions';
-import { inspectionSchema, TRAINING_KIND_LABELS, TRAINING_KINDS, trainingSchema, type InspectionRow, type TrainingRow } from '../../../../shared/schemas/safety-records';
+import { inspectionSchema, TRAINING_KIND_LABELS, TRAINING_KINDS, trainingSchema, type InspectionRow, type TrainingKind, type TrainingRow } from '../../../../shared/schemas/safety-records';
 import { useInspections } from '../api/get-inspections';
 import { useRecordInspection } from '../api/record-inspection';
 import { useCertifyInspection } from '../api/certify-inspection';
@@ -101,7 +101,7 @@ function InspectionForm({ me, timeZone, onDone, procedureId }: { me: Me; timeZon
   );
 }
 
-function TrainingForm({ me, timeZone, onDone, personId, procedureId }: { me: Me; timeZone: string; onDone: (m: string) => void; personId?: string; procedureId?: string }) {
+function TrainingForm({ me, timeZone, onDone, personId, procedureId, kind }: { me: Me; timeZone: string; onDone: (m: string) => void; personId?: string; procedureId?: string; kind?: TrainingKind }) {
   const procedures = useProcedures();
   const people = useSafetyPeople();
   const record = useRecordTraining();
@@ -115,7 +115,8 @@ function TrainingForm({ me, timeZone, onDone, personId, procedureId }: { me: Me;
   useEffect(() => {
     if (personId && people.data) setValue('userId', personId);
     if (procedureId && procedures.data) setValue('procedureId', procedureId);
-  }, [personId, procedureId, people.data, procedures.data, setValue]);
+    if (kind) setValue('kind', kind);
+  }, [personId, procedureId, kind, people.data, procedures.data, setValue]);
   const e = formState.errors;
   const submit = handleSubmit((v) =>
     sign(
@@ -161,6 +162,7 @@ export function SafetyRecords({ me, timeZone }: { me: Me; timeZone: string }) {
   const inspect = params.get('inspect') ?? undefined;
   const trainPerson = params.get('train') ?? undefined;
   const trainProcedure = params.get('procedure') ?? undefined;
+  const trainAs = TRAINING_KINDS.find((k) => k === params.get('as'));
   const inspectRef = useRef<HTMLDetailsElement>(null);
   const trainRef = useRef<HTMLDetailsElement>(null);
   useEffect(() => {
@@ -236,7 +238,7 @@ export function SafetyRecords({ me, timeZone }: { me: Me; timeZone: string }) {
         {can(me.role, 'safety.training.manage') ? (
           <details ref={trainRef} id="record-training" className="mt-4 scroll-mt-4 rounded border border-steel-300 p-3">
             <summary className="flex min-h-touch cursor-pointer items-center font-semibold">Record training</summary>
-            <TrainingForm me={me} timeZone={timeZone} onDone={ok} personId={trainPerson} procedureId={trainProcedure} />
+            <TrainingForm me={me} timeZone={timeZone} onDone={ok} personId={trainPerson} procedureId={trainProcedure} kind={trainAs} />
           </details>
         ) : null}
       </Panel>

@@ -21,7 +21,7 @@ function taskHref(t: SafetyTaskRow): string {
   const records = paths.safetyRecords.getHref();
   if (t.kind === 'ppe-check') return paths.safetyPpe.getHref(t.machineId ?? undefined);
   if (t.kind === 'periodic-inspection') return `${records}?${new URLSearchParams(t.procedureId ? { inspect: t.procedureId } : {})}#record-inspection`;
-  return `${records}?${new URLSearchParams({ ...(t.personId ? { train: t.personId } : {}), ...(t.procedureId ? { procedure: t.procedureId } : {}) })}#record-training`;
+  return `${records}?${new URLSearchParams({ ...(t.personId ? { train: t.personId } : {}), ...(t.procedureId ? { procedure: t.procedureId } : {}), ...(t.trainingKind ? { as: t.trainingKind } : {}) })}#record-training`;
 }
 
 const action = 'flex min-h-touch items-center justify-center rounded px-4 py-3 text-center text-base font-semibold';
