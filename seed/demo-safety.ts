@@ -4,7 +4,6 @@
  * valid signature chain. Runs after the machines step; without machines it does nothing.
  * Every person, place and machine here is invented.
  */
-import type { EntityManager } from '@mikro-orm/postgresql';
 import { DateTime } from 'luxon';
 import { Machine, type IMachine } from '../server/modules/machines/machine.entity';
 import { Membership } from '../server/modules/users/user.entity';

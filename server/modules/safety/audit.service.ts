@@ -51,12 +51,16 @@ async function shopZone(em: EntityManager, orgId: string) {
 function whereFor(q: ExportSignOffsQuery, orgId: string, tz: string) {
   const params: unknown[] = [orgId];
   let where = 's.organization_id = ?';
-  if (q.machineId) (where += ' and s.machine_id = ?'), params.push(q.machineId);
-  if (q.signerId) (where += ' and s.signer_id = ?'), params.push(q.signerId);
-  if (q.meaning) (where += ' and s.meaning = ?'), params.push(q.meaning);
+  const add = (clause: string, value: unknown) => {
+    where += ` and ${clause}`;
+    params.push(value);
+  };
+  if (q.machineId) add('s.machine_id = ?', q.machineId);
+  if (q.signerId) add('s.signer_id = ?', q.signerId);
+  if (q.meaning) add('s.meaning = ?', q.meaning);
   // Dates are the shop's calendar days.
-  if (q.from) (where += ' and s.signed_at >= ?'), params.push(DateTime.fromISO(q.from, { zone: tz }).startOf('day').toJSDate());
-  if (q.to) (where += ' and s.signed_at < ?'), params.push(DateTime.fromISO(q.to, { zone: tz }).plus({ days: 1 }).startOf('day').toJSDate());
+  if (q.from) add('s.signed_at >= ?', DateTime.fromISO(q.from, { zone: tz }).startOf('day').toJSDate());
+  if (q.to) add('s.signed_at < ?', DateTime.fromISO(q.to, { zone: tz }).plus({ days: 1 }).startOf('day').toJSDate());
   return { where, params };
 }
 

@@ -19,6 +19,7 @@ export const COLORS = {
 };
 
 /** The latin subset of the font has no math signs; keep PDF text inside it. */
+// eslint-disable-next-line no-control-regex -- the range starts at U+0000 on purpose: everything outside the font is replaced
 export const pdfText = (s: string) => s.replace(/≥/g, '>=').replace(/≤/g, '<=').replace(/→/g, '->').replace(/[^\u0000-\u024F\u2010-\u2027\u2030-\u203A\u20AC]/g, '?');
 
 export function newDoc(info: { Title: string; Subject?: string }, layout: 'portrait' | 'landscape' = 'portrait') {

@@ -218,7 +218,6 @@ function CorrectionDialog({ row, me, onDone, onClose }: { row: SignOffRow; me: {
   );
 }
 
-const FILTER_KEYS = ['machine', 'person', 'meaning', 'from', 'to', 'page'] as const;
 
 /** Every signature, filtered and sorted on the server, with exports using the same filters. Filters live in the URL so a view can be shared or reloaded. */
 export function SignOffAudit({ me, timeZone }: { me: { name: string; role: Role }; timeZone: string }) {
@@ -229,7 +228,7 @@ export function SignOffAudit({ me, timeZone }: { me: { name: string; role: Role 
   const from = params.get('from') ?? '';
   const to = params.get('to') ?? '';
   const page = Math.max(1, Number(params.get('page')) || 1);
-  const setFilter = (key: (typeof FILTER_KEYS)[number], value: string) =>
+  const setFilter = (key: 'machine' | 'person' | 'meaning' | 'from' | 'to' | 'page', value: string) =>
     setParams(
       (p) => {
         const next = new URLSearchParams(p);
