@@ -216,7 +216,19 @@ function formatWallIcal(w: WallClock, dateOnly: boolean): string {
  * Canonical IANA time-zone id (RFC 5545 §3.2.19 TZID values are IANA ids here), e.g.
  * 'europe/berlin' → 'Europe/Berlin'; throws an Error naming an unknown id.
  */
+// Intl zone checks cost tens of microseconds each; ids are few, so remember the good ones.
+const canonicalZoneCache = new Map<string, string>();
+
 export function canonicalZone(tzid: string): string {
+  const hit = typeof tzid === 'string' ? canonicalZoneCache.get(tzid) : undefined;
+  if (hit !== undefined) return hit;
+  const id = canonicalZoneUncached(tzid);
+  if (canonicalZoneCache.size >= 256) canonicalZoneCache.clear();
+  canonicalZoneCache.set(tzid, id);
+  return id;
+}
+
+function canonicalZoneUncached(tzid: string): string {
   const trimmed = tzid.trim();
   if (!trimmed || !IANAZone.isValidZone(trimmed)) {
     fail(`unknown time zone "${tzid}" (expected an IANA id such as Europe/Berlin)`);
@@ -445,7 +457,20 @@ interface ZoneConv {
   fixed: boolean;
 }
 
+// One converter per zone, so its offset cache is shared by every rule in that zone.
+const zoneCache = new Map<string, ZoneConv>();
+
 function makeZone(tzid: string): ZoneConv {
+  let z = zoneCache.get(tzid);
+  if (z === undefined) {
+    z = makeZoneUncached(tzid);
+    if (zoneCache.size >= 256) zoneCache.clear();
+    zoneCache.set(tzid, z);
+  }
+  return z;
+}
+
+function makeZoneUncached(tzid: string): ZoneConv {
   if (tzid === 'UTC' || tzid === 'Etc/UTC') return { offsetAt: () => 0, fixed: true };
   const zone = IANAZone.create(tzid);
   const cache = new Map<number, number>();
@@ -527,7 +552,31 @@ function assertHasInstances(internal: Internal): void {
   if (!any) fail('the rule produces no occurrences (none within 100 years of DTSTART)');
 }
 
+/**
+ * Parsed, checked rules by text and options. Plans share few distinct rule texts, and parsing plus
+ * the no-instances probe cost far more than a short walk. Prepared values are never mutated and the
+ * RRule is built with noCache, so sharing is safe. Failures are not cached (they rethrow anew).
+ */
+const PREPARED_CACHE_SIZE = 1000;
+const preparedCache = new Map<string, Prepared>();
+
 function prepare(ical: string, floatingZone: string | undefined, policy: NonexistentTimePolicy | undefined): Prepared {
+  if (typeof ical !== 'string') return prepareUncached(ical, floatingZone, policy);
+  const key = `${floatingZone ?? ''}\u0000${policy ?? ''}\u0000${ical}`;
+  let prep = preparedCache.get(key);
+  if (prep !== undefined) {
+    // Least recently used first: move a hit to the end.
+    preparedCache.delete(key);
+    preparedCache.set(key, prep);
+    return prep;
+  }
+  prep = prepareUncached(ical, floatingZone, policy);
+  if (preparedCache.size >= PREPARED_CACHE_SIZE) preparedCache.delete(preparedCache.keys().next().value as string);
+  preparedCache.set(key, prep);
+  return prep;
+}
+
+function prepareUncached(ical: string, floatingZone: string | undefined, policy: NonexistentTimePolicy | undefined): Prepared {
   const internal = parseInternal(ical);
   const p = internal.parsed;
   const zoneId = p.tzid ?? canonicalZone(floatingZone ?? 'UTC');
