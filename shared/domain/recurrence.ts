@@ -49,6 +49,11 @@ export interface ExpandOptions {
    * §3.3.10, which says such instances "MUST be ignored and MUST NOT be counted".
    */
   nonexistent?: NonexistentTimePolicy;
+  /**
+   * Start the walk near `after` instead of at DTSTART when that gives the same set (default
+   * true). Off only in tests, to compare with the plain walk.
+   */
+  skipAhead?: boolean;
 }
 
 /** A local calendar date and time with no zone attached. */
@@ -534,6 +539,12 @@ interface Prepared {
   zone: ZoneConv;
   policy: NonexistentTimePolicy;
   rule: RRule;
+  /**
+   * The rule's options with every part rrule would default from DTSTART written out, so DTSTART
+   * can be moved to a later period start without changing the set; null when moving is not
+   * provably equivalent (COUNT, YEARLY). See {@link skipAheadRule}.
+   */
+  skipBase: Partial<RRuleOptions> | null;
 }
 
 /** Rejects a rule with no instance in the 100-500 years after DTSTART (see PROBE_LAST_YEAR). */
@@ -603,7 +614,71 @@ function prepareUncached(ical: string, floatingZone: string | undefined, policy:
   };
   // noCache: results depend on our own filters, and rrule's cache would keep every Date alive.
   const rule = new RRule(options, true);
-  return { internal, zone, policy: p.dateOnly ? 'shift-forward' : pol, rule };
+  return { internal, zone, policy: p.dateOnly ? 'shift-forward' : pol, rule, skipBase: skipBaseOf(p, options) };
+}
+
+/**
+ * Options for {@link skipAheadRule}, or null. Only without COUNT (counting needs every instance
+ * from DTSTART) and only for DAILY, WEEKLY and MONTHLY, whose periods are whole days, weeks (from
+ * WKST) and months; YEARLY is skipped (BYWEEKNO periods spill across years, and it walks little).
+ * Mirrors rrule's parseOptions defaults: BYxxx parts taken from DTSTART when none is given.
+ */
+function skipBaseOf(p: ParsedRecurrence, options: Partial<RRuleOptions>): Partial<RRuleOptions> | null {
+  if (p.count !== null) return null;
+  if (p.freq !== 'DAILY' && p.freq !== 'WEEKLY' && p.freq !== 'MONTHLY') return null;
+  const start = options.dtstart as Date;
+  const o: Partial<RRuleOptions> = { ...options };
+  // parseRuleValue never leaves an empty list, so "present" is rrule's "given" here.
+  const hasDayPart = o.byweekno != null || o.byyearday != null || o.bymonthday != null || o.byweekday != null;
+  if (!hasDayPart) {
+    if (p.freq === 'MONTHLY') o.bymonthday = [start.getUTCDate()];
+    if (p.freq === 'WEEKLY') o.byweekday = [new Weekday((start.getUTCDay() + 6) % 7)];
+  }
+  if (o.byhour == null) o.byhour = [start.getUTCHours()];
+  if (o.byminute == null) o.byminute = [start.getUTCMinutes()];
+  if (o.bysecond == null) o.bysecond = [start.getUTCSeconds()];
+  return o;
+}
+
+/**
+ * An RRule equal to `prep.rule` on and after its own DTSTART, which is the start (00:00 wall) of
+ * the last FREQ×INTERVAL period that begins at or before `lowWall`; null when that would not move
+ * DTSTART forward or the rule cannot be moved. Every instance before `lowWall` that it drops is one
+ * the callers would not convert anyway; the new first period is whole, like every original period
+ * after the first, so BYSETPOS picks the same instances.
+ */
+function skipAheadRule(prep: Prepared, lowWall: number): RRule | null {
+  const base = prep.skipBase;
+  if (base === null || !Number.isFinite(lowWall)) return null;
+  const startMs = prep.internal.startWallMs;
+  if (lowWall <= startMs) return null;
+  const interval = base.interval ?? 1;
+  const startDay = Math.floor(startMs / DAY_MS);
+  const targetDay = Math.floor(lowWall / DAY_MS);
+  let newStart: number;
+  if (base.freq === Frequency.MONTHLY) {
+    const s = new Date(startMs);
+    const t = new Date(lowWall);
+    const m0 = s.getUTCFullYear() * 12 + s.getUTCMonth();
+    const k = Math.floor((t.getUTCFullYear() * 12 + t.getUTCMonth() - m0) / interval);
+    if (k < 1) return null;
+    const m = m0 + k * interval;
+    const d = new Date(0);
+    d.setUTCFullYear(Math.floor(m / 12), m % 12, 1);
+    newStart = d.getTime();
+  } else {
+    // rrule numbers weekdays Monday = 0; a WEEKLY period starts on WKST (default Monday).
+    const periodStart =
+      base.freq === Frequency.WEEKLY
+        ? startDay - ((((new Date(startMs).getUTCDay() + 6) % 7) - ((base.wkst as number | undefined) ?? 0) + 7) % 7)
+        : startDay;
+    const stride = base.freq === Frequency.WEEKLY ? 7 * interval : interval;
+    const k = Math.floor((targetDay - periodStart) / stride);
+    if (k < 1) return null;
+    newStart = (periodStart + k * stride) * DAY_MS;
+  }
+  if (newStart <= startMs || newStart > lowWall) return null;
+  return new RRule({ ...base, dtstart: new Date(newStart) }, true);
 }
 
 interface Visit {
@@ -617,8 +692,10 @@ interface Visit {
  * `lowWall`: below this wall time conversion may be skipped (when it cannot matter).
  * The visitor returns false to stop.
  */
-function walk(prep: Prepared, lowWall: number, visit: (v: Visit) => boolean): void {
-  const { internal, zone, policy, rule } = prep;
+function walk(prep: Prepared, lowWall: number, visit: (v: Visit) => boolean, skipAhead = false): boolean {
+  const { internal, zone, policy } = prep;
+  const skipped = skipAhead ? skipAheadRule(prep, lowWall) : null;
+  const rule = skipped ?? prep.rule;
   const { count, until } = internal.parsed;
   // Under 'skip' a gap instance is not part of the set, so every instance must be checked.
   const mustConvertAll = policy === 'skip';
@@ -662,6 +739,7 @@ function walk(prep: Prepared, lowWall: number, visit: (v: Visit) => boolean): vo
     }
     return true;
   });
+  return skipped !== null;
 }
 
 function checkDate(d: Date | undefined, name: string): number | null {
@@ -704,7 +782,7 @@ export function expandRecurrence(ical: string, options: ExpandOptions = {}): Dat
     // Gap shifts can reorder instants slightly; keep going a little past the limit, then sort.
     if (found.length >= limit && cutoffWall === Infinity) cutoffWall = wallMs + SLACK_MS;
     return true;
-  });
+  }, options.skipAhead ?? true);
   found.sort((a, b) => a - b);
   const out: Date[] = [];
   for (const ms of found) {
@@ -722,7 +800,7 @@ export function expandRecurrence(ical: string, options: ExpandOptions = {}): Dat
 export function previousOccurrence(
   ical: string,
   at: Date,
-  options: Pick<ExpandOptions, 'inclusive' | 'floatingZone' | 'nonexistent'> = {},
+  options: Pick<ExpandOptions, 'inclusive' | 'floatingZone' | 'nonexistent' | 'skipAhead'> = {},
 ): Date | null {
   if (at === undefined) fail('at is required');
   const atMs = checkDate(at, 'at') as number;
@@ -731,7 +809,7 @@ export function previousOccurrence(
   const inclusive = options.inclusive ?? false;
   let best: number | null = null;
   let lastUnconverted: number | null = null;
-  walk(prep, atWall - SLACK_MS, ({ wallMs, ms }) => {
+  const visit = ({ wallMs, ms }: Visit): boolean => {
     if (wallMs > atWall + SLACK_MS) return false;
     if (ms === null) {
       lastUnconverted = wallMs;
@@ -739,7 +817,12 @@ export function previousOccurrence(
     }
     if ((inclusive ? ms <= atMs : ms < atMs) && (best === null || ms > best)) best = ms;
     return true;
-  });
+  };
+  const skipped = walk(prep, atWall - SLACK_MS, visit, options.skipAhead ?? true);
+  if (skipped && best === null && lastUnconverted === null) {
+    // The answer may lie before the skipped-to period (a sparse rule); walk from DTSTART.
+    walk(prep, atWall - SLACK_MS, visit);
+  }
   if (best === null && lastUnconverted !== null) {
     // Only reached when conversion was skipped, i.e. shift-forward policy: every wall time converts.
     best = wallToInstant(lastUnconverted, prep.zone).ms;
