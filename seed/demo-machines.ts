@@ -17,17 +17,11 @@ import { PunchTool, ToolSharpening } from '../server/modules/punch-tools/punch-t
 import { couponResult } from '../shared/domain/consumables';
 import type { ChangeReason } from '../shared/schemas/consumables';
 import type { TorchCategory } from '../shared/schemas/stock';
+import { mulberry32 } from './prng';
 
 /** mulberry32: small, fast, deterministic. */
 function prng(seed: number) {
-  let a = seed >>> 0;
-  const next = () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
+  const next = mulberry32(seed);
   return {
     next,
     between: (lo: number, hi: number) => lo + (hi - lo) * next(),

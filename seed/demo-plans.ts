@@ -17,6 +17,7 @@ import { runDueEngine } from '../server/jobs/due-engine';
 import { uuidArray } from '../server/jobs/due-engine-inputs';
 import type { Principal } from '../server/http/principal';
 import type { ChecklistLine } from '../shared/schemas/work-orders';
+import { mulberry32 } from './prng';
 
 const DAY = 86_400_000;
 
@@ -30,17 +31,7 @@ const STARTERS: Record<string, string[]> = {
   B1: ['brake-guarding'],
 };
 
-/** Deterministic pseudo-random numbers (mulberry32) so every seed tells the same story. */
-function prng(seed: number) {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
+const prng = mulberry32;
 
 /** A plausible answer for each checklist line: OK, with measured values inside their limits. */
 function answered(lines: ChecklistLine[], r: () => number): ChecklistLine[] {
