@@ -113,6 +113,25 @@ async function checkPeopleAndParts(em: EntityManager, who: Principal, input: Pla
 
 const meterIdsOf = (ts: StoredTrigger[]) => ts.filter((t): t is Extract<StoredTrigger, { kind: 'meter' }> => t.kind === 'meter').map((t) => t.meterId);
 
+/** The plan columns a create or an edit takes straight from the form. */
+function editableFields(input: PlanInput, triggers: Awaited<ReturnType<typeof resolveTriggers>>) {
+  return {
+    title: input.title,
+    instructions: input.instructions,
+    checklist: input.checklist,
+    estimatedMinutes: input.estimatedMinutes,
+    parts: input.parts,
+    responsibleRole: input.responsibleRole,
+    responsibleUser: input.responsibleUserId,
+    requiresLockout: input.requiresLockout,
+    safetyCritical: input.safetyCritical,
+    triggers,
+    dueSoonDays: input.dueSoonDays,
+    dueSoonFraction: input.dueSoonFraction,
+    active: input.active,
+  };
+}
+
 export async function createPlan(em: EntityManager, who: Principal, input: PlanInput, extra: { starterKey?: string } = {}): Promise<{ id: string }> {
   return em.transactional(async (tx) => {
     const machine = await findMachine(tx, input.machineId);
@@ -122,19 +141,7 @@ export async function createPlan(em: EntityManager, who: Principal, input: PlanI
     const plan = tx.create(MaintenancePlan, {
       organization: who.orgId,
       machine,
-      title: input.title,
-      instructions: input.instructions,
-      checklist: input.checklist,
-      estimatedMinutes: input.estimatedMinutes,
-      parts: input.parts,
-      responsibleRole: input.responsibleRole,
-      responsibleUser: input.responsibleUserId,
-      requiresLockout: input.requiresLockout,
-      safetyCritical: input.safetyCritical,
-      triggers,
-      dueSoonDays: input.dueSoonDays,
-      dueSoonFraction: input.dueSoonFraction,
-      active: input.active,
+      ...editableFields(input, triggers),
       startedAt: new Date(),
       meterBaselines: await currentBaselines(tx, meterIdsOf(triggers)),
       starterKey: extra.starterKey ?? null,
@@ -158,19 +165,7 @@ export async function updatePlan(em: EntityManager, who: Principal, id: string, 
     const before = { title: plan.title, triggers: plan.triggers, active: plan.active };
     Object.assign(plan, {
       machine,
-      title: input.title,
-      instructions: input.instructions,
-      checklist: input.checklist,
-      estimatedMinutes: input.estimatedMinutes,
-      parts: input.parts,
-      responsibleRole: input.responsibleRole,
-      responsibleUser: input.responsibleUserId,
-      requiresLockout: input.requiresLockout,
-      safetyCritical: input.safetyCritical,
-      triggers,
-      dueSoonDays: input.dueSoonDays,
-      dueSoonFraction: input.dueSoonFraction,
-      active: input.active,
+      ...editableFields(input, triggers),
       meterBaselines: { ...plan.meterBaselines, ...fresh },
     });
     await refreshPlanStatus(tx, plan, tz);
