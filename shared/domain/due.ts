@@ -35,6 +35,7 @@
 import { DateTime } from 'luxon';
 import { canonicalZone as canonicalZoneUncached, expandRecurrence, previousOccurrence } from './recurrence';
 import { usageRatePerDay } from './forecast';
+import { cachedZone } from './zone-offsets';
 
 const DAY_MS = 86_400_000;
 
@@ -203,18 +204,46 @@ function checkMeter(input: PlanInput, meterId: string, where: string): void {
   const m = input.meters?.[meterId];
   if (!m) fail(`${where} refers to meter "${meterId}", which is not in meters`);
   if (!Number.isFinite(m.baseline)) fail(`meter "${meterId}" baseline must be a finite number`);
-  const all = [...(m.recent ?? []), ...(m.latest ? [m.latest] : [])];
-  all.forEach((r, i) => {
-    if (!r || !isDate(r.at) || !Number.isFinite(r.value)) fail(`meter "${meterId}" has an invalid reading (#${i}): needs a valid Date and a finite value`);
-  });
+  const recent = m.recent ?? [];
+  if (!checkedReadings.has(recent)) {
+    recent.forEach((r, i) => checkReading(r, meterId, i));
+    checkedReadings.add(recent);
+  }
+  if (m.latest) checkReading(m.latest, meterId, recent.length);
 }
+
+const checkedReadings = new WeakSet<Reading[]>();
+
+function checkReading(r: Reading, meterId: string, i: number): void {
+  if (!r || !isDate(r.at) || !Number.isFinite(r.value)) fail(`meter "${meterId}" has an invalid reading (#${i}): needs a valid Date and a finite value`);
+}
+
+// Plans on one machine share its meters' reading lists (the server passes the same arrays), so the
+// sorted list and its usage rate are worked out once per list. Inputs are treated as immutable.
+const sortedReadings = new WeakMap<Reading[], { latest: Reading | null; sorted: Reading[] }>();
+const usageRates = new WeakMap<Reading[], number | null>();
 
 /** Readings in time order, one per instant (`latest` wins a tie). */
 function readingsOf(m: MeterInput): Reading[] {
+  const recent = m.recent ?? [];
+  const latest = m.latest ?? null;
+  const known = sortedReadings.get(recent);
+  if (known !== undefined && known.latest === latest) return known.sorted;
   const byTime = new Map<number, Reading>();
-  for (const r of m.recent ?? []) byTime.set(r.at.getTime(), r);
-  if (m.latest) byTime.set(m.latest.at.getTime(), m.latest);
-  return [...byTime.values()].sort((a, b) => a.at.getTime() - b.at.getTime());
+  for (const r of recent) byTime.set(r.at.getTime(), r);
+  if (latest) byTime.set(latest.at.getTime(), latest);
+  const sorted = [...byTime.values()].sort((a, b) => a.at.getTime() - b.at.getTime());
+  sortedReadings.set(recent, { latest, sorted });
+  return sorted;
+}
+
+function usageRateOf(readings: Reading[]): number | null {
+  let rate = usageRates.get(readings);
+  if (rate === undefined) {
+    rate = usageRatePerDay(readings);
+    usageRates.set(readings, rate);
+  }
+  return rate;
 }
 
 /** The instant just past `ms`: a status decided with a strict ">" changes one millisecond later. */
@@ -304,7 +333,7 @@ function evalFloating(t: Extract<Trigger, { kind: 'calendar-floating' }>, input:
   const zone = canonicalZone(t.tz);
   // Calendar arithmetic in the plan's zone: "1 month after 31 Jan" is the end of February and
   // "7 days after 09:00" is 09:00 local even across a DST change (luxon plus()).
-  const dueAt = DateTime.fromJSDate(anchor, { zone }).plus({ [`${t.unit}s`]: t.every }).toJSDate();
+  const dueAt = DateTime.fromJSDate(anchor, { zone: cachedZone(zone) }).plus({ [`${t.unit}s`]: t.every }).toJSDate();
   const windowMs = calendarWindowMs(dueSoon, dueAt.getTime() - anchor.getTime());
   const sinceMs = now.getTime() - dueAt.getTime();
   const what = `every ${t.every} ${t.unit}${t.every === 1 ? '' : 's'} since ${lastDoneAt ? 'last done' : 'plan start'} ${iso(anchor)}`;
@@ -345,7 +374,7 @@ function crossingTime(readings: Reading[], target: number): Date | null {
 /** Forecast from the latest reading along the OLS usage rate (./forecast usageRatePerDay). */
 function forecastFromLatest(readings: Reading[], target: number): Date | null {
   if (readings.length < 2) return null;
-  const ratePerDay = usageRatePerDay(readings);
+  const ratePerDay = usageRateOf(readings);
   const last = readings[readings.length - 1];
   if (ratePerDay === null || ratePerDay === 0) return null;
   const days = (target - last.value) / ratePerDay;

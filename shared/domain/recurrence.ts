@@ -12,6 +12,7 @@
  */
 import { IANAZone } from 'luxon';
 import { RRule, Frequency, Weekday, type Options as RRuleOptions } from './rrule';
+import { cachedZone } from './zone-offsets';
 
 const MINUTE_MS = 60_000;
 const DAY_MS = 86_400_000;
@@ -477,20 +478,8 @@ function makeZone(tzid: string): ZoneConv {
 
 function makeZoneUncached(tzid: string): ZoneConv {
   if (tzid === 'UTC' || tzid === 'Etc/UTC') return { offsetAt: () => 0, fixed: true };
-  const zone = IANAZone.create(tzid);
-  const cache = new Map<number, number>();
-  return {
-    fixed: false,
-    offsetAt(ms: number): number {
-      let o = cache.get(ms);
-      if (o === undefined) {
-        o = zone.offset(ms);
-        if (cache.size > 4096) cache.clear();
-        cache.set(ms, o);
-      }
-      return o;
-    },
-  };
+  const zone = cachedZone(tzid);
+  return { fixed: false, offsetAt: (ms: number) => zone.offset(ms) };
 }
 
 /**
@@ -545,6 +534,21 @@ interface Prepared {
    * provably equivalent (COUNT, YEARLY). See {@link skipAheadRule}.
    */
   skipBase: Partial<RRuleOptions> | null;
+  /** Calls answered so far; a window is built only for a rule asked about repeatedly. */
+  uses: number;
+  window: OccurrenceWindow | null;
+}
+
+/**
+ * Every instant of a rule whose wall time lies in [fromWall, toWall], sorted and without
+ * duplicates. `complete`: the rule has no instance after toWall; `fromStart`: none before fromWall.
+ */
+interface OccurrenceWindow {
+  fromWall: number;
+  toWall: number;
+  complete: boolean;
+  fromStart: boolean;
+  ms: number[];
 }
 
 /** Rejects a rule with no instance in the 100-500 years after DTSTART (see PROBE_LAST_YEAR). */
@@ -565,7 +569,7 @@ function assertHasInstances(internal: Internal): void {
 
 /**
  * Parsed, checked rules by text and options. Plans share few distinct rule texts, and parsing plus
- * the no-instances probe cost far more than a short walk. Prepared values are never mutated and the
+ * the no-instances probe cost far more than a short walk. Prepared values are never mutated (but for the window below) and the
  * RRule is built with noCache, so sharing is safe. Failures are not cached (they rethrow anew).
  */
 const PREPARED_CACHE_SIZE = 1000;
@@ -614,7 +618,7 @@ function prepareUncached(ical: string, floatingZone: string | undefined, policy:
   };
   // noCache: results depend on our own filters, and rrule's cache would keep every Date alive.
   const rule = new RRule(options, true);
-  return { internal, zone, policy: p.dateOnly ? 'shift-forward' : pol, rule, skipBase: skipBaseOf(p, options) };
+  return { internal, zone, policy: p.dateOnly ? 'shift-forward' : pol, rule, skipBase: skipBaseOf(p, options), uses: 0, window: null };
 }
 
 /**
@@ -692,9 +696,9 @@ interface Visit {
  * `lowWall`: below this wall time conversion may be skipped (when it cannot matter).
  * The visitor returns false to stop.
  */
-function walk(prep: Prepared, lowWall: number, visit: (v: Visit) => boolean, skipAhead = false): boolean {
+function walk(prep: Prepared, lowWall: number, visit: (v: Visit) => boolean, skipAhead = false, skipTo = lowWall): { skipped: boolean; ended: boolean } {
   const { internal, zone, policy } = prep;
-  const skipped = skipAhead ? skipAheadRule(prep, lowWall) : null;
+  const skipped = skipAhead ? skipAheadRule(prep, Math.min(skipTo, lowWall)) : null;
   const rule = skipped ?? prep.rule;
   const { count, until } = internal.parsed;
   // Under 'skip' a gap instance is not part of the set, so every instance must be checked.
@@ -702,6 +706,7 @@ function walk(prep: Prepared, lowWall: number, visit: (v: Visit) => boolean, ski
   let produced = 0;
   let scanned = 0;
   let stopped = false;
+  let visitorStopped = false;
   rule.all((d) => {
     if (stopped) return false;
     scanned++;
@@ -735,11 +740,114 @@ function walk(prep: Prepared, lowWall: number, visit: (v: Visit) => boolean, ski
     }
     if (!visit({ wallMs, ms })) {
       stopped = true;
+      visitorStopped = true;
       return false;
     }
     return true;
   });
-  return skipped !== null;
+  // `ended`: the rule ran out (UNTIL, COUNT or its last instance) before the visitor stopped it.
+  return { skipped: skipped !== null, ended: !visitorStopped };
+}
+
+/** Rough length of one FREQ×INTERVAL period, for looking back a few periods. */
+function periodMs(prep: Prepared): number {
+  const interval = prep.skipBase?.interval ?? 1;
+  switch (prep.skipBase?.freq) {
+    case Frequency.DAILY:
+      return interval * DAY_MS;
+    case Frequency.WEEKLY:
+      return 7 * interval * DAY_MS;
+    default:
+      return 31 * interval * DAY_MS;
+  }
+}
+
+// Rules asked about many times (plans share rule texts) are answered from a window of their
+// instants around the last question, instead of a fresh rrule walk per question.
+const WINDOW_AFTER_USES = 3;
+const WINDOW_SPAN_MS = 500 * DAY_MS;
+const WINDOW_MAX_INSTANTS = 2048;
+
+function buildWindow(prep: Prepared, aroundWall: number): OccurrenceWindow {
+  const fromWall = aroundWall - WINDOW_SPAN_MS;
+  let toWall = aroundWall + WINDOW_SPAN_MS;
+  const ms: number[] = [];
+  // rrule yields days in order but a day's times as the rule lists them, so the walk goes on a
+  // slack past toWall before it can be sure no instant at or before toWall is still to come.
+  const { ended } = walk(
+    prep,
+    fromWall,
+    (v) => {
+      if (v.wallMs > toWall + SLACK_MS) return false;
+      if (v.wallMs < fromWall || v.ms === null) return true;
+      if (ms.length >= WINDOW_MAX_INSTANTS && toWall === aroundWall + WINDOW_SPAN_MS) {
+        // Dense rule: end the window well before this instant.
+        toWall = Math.max(fromWall, v.wallMs - SLACK_MS);
+      }
+      ms.push(v.ms);
+      return true;
+    },
+    true,
+  );
+  ms.sort((a, b) => a - b);
+  const unique = ms.filter((x, i) => i === 0 || x !== ms[i - 1]);
+  return { fromWall, toWall, complete: ended, fromStart: fromWall <= prep.internal.startWallMs, ms: unique };
+}
+
+/** The rule's window when it is worth having (built or rebuilt around `aroundWall`), else null. */
+function windowFor(prep: Prepared, aroundWall: number, covers: (w: OccurrenceWindow) => boolean): OccurrenceWindow | null {
+  // Only rules the walk can start near any time (DAILY, WEEKLY, MONTHLY without COUNT): building a
+  // window for the others would mean walking from DTSTART.
+  if (prep.skipBase === null) return null;
+  prep.uses++;
+  if (prep.window && covers(prep.window)) return prep.window;
+  if (prep.uses < WINDOW_AFTER_USES || !Number.isFinite(aroundWall)) return null;
+  const w = buildWindow(prep, aroundWall);
+  prep.window = w;
+  return covers(w) ? w : null;
+}
+
+/** First index in sorted `xs` whose value is > x, or >= x when `orEqual`. */
+function firstAbove(xs: number[], x: number, orEqual: boolean): number {
+  let lo = 0;
+  let hi = xs.length;
+  while (lo < hi) {
+    const mid = (lo + hi) >>> 1;
+    if (orEqual ? xs[mid] >= x : xs[mid] > x) hi = mid;
+    else lo = mid + 1;
+  }
+  return lo;
+}
+
+/**
+ * expandRecurrence from the window, or null when the window cannot prove the answer complete.
+ * Offsets differ by less than SLACK_MS, so an instant after `after` has a wall time above
+ * afterWall − SLACK_MS, and one missing beyond toWall has an instant above toWall − SLACK_MS.
+ */
+function expandFromWindow(prep: Prepared, afterMs: number, afterWall: number, beforeMs: number | null, inclusive: boolean, limit: number): number[] | null {
+  const w = windowFor(prep, afterWall, (x) => x.fromWall <= afterWall - SLACK_MS);
+  if (w === null) return null;
+  const out: number[] = [];
+  for (let i = firstAbove(w.ms, afterMs, inclusive); i < w.ms.length && out.length < limit; i++) {
+    const ms = w.ms[i];
+    if (beforeMs !== null && (inclusive ? ms > beforeMs : ms >= beforeMs)) break;
+    out.push(ms);
+  }
+  if (w.complete) return out;
+  const safeUpTo = w.toWall - SLACK_MS;
+  if (out.length === limit && out[out.length - 1] < safeUpTo) return out;
+  if (beforeMs !== null && beforeMs < safeUpTo) return out;
+  return null;
+}
+
+/** previousOccurrence from the window, or null when the window cannot prove the answer (see above). */
+function previousFromWindow(prep: Prepared, atMs: number, atWall: number, inclusive: boolean): { ms: number | null } | null {
+  const w = windowFor(prep, atWall, (x) => x.complete || atMs < x.toWall - SLACK_MS);
+  if (w === null) return null;
+  const i = firstAbove(w.ms, atMs, !inclusive) - 1;
+  const best = i >= 0 ? w.ms[i] : null;
+  if (w.fromStart || (best !== null && best > w.fromWall + SLACK_MS)) return { ms: best };
+  return null;
 }
 
 function checkDate(d: Date | undefined, name: string): number | null {
@@ -770,6 +878,10 @@ export function expandRecurrence(ical: string, options: ExpandOptions = {}): Dat
   const afterWall = afterMs === null ? -Infinity : instantToWall(afterMs, prep.zone);
   const beforeWall = beforeMs === null ? Infinity : instantToWall(beforeMs, prep.zone);
   if (afterMs !== null && beforeMs !== null && beforeMs < afterMs) return [];
+  if (afterMs !== null && options.skipAhead !== false) {
+    const fromWindow = expandFromWindow(prep, afterMs, afterWall, beforeMs, inclusive, limit);
+    if (fromWindow !== null) return fromWindow.map((ms) => new Date(ms));
+  }
 
   const found: number[] = [];
   let cutoffWall = Infinity;
@@ -807,22 +919,31 @@ export function previousOccurrence(
   const prep = prepare(ical, options.floatingZone, options.nonexistent);
   const atWall = instantToWall(atMs, prep.zone);
   const inclusive = options.inclusive ?? false;
+  if (options.skipAhead !== false) {
+    const fromWindow = previousFromWindow(prep, atMs, atWall, inclusive);
+    if (fromWindow !== null) return fromWindow.ms === null ? null : new Date(fromWindow.ms);
+  }
   let best: number | null = null;
   let lastUnconverted: number | null = null;
   const visit = ({ wallMs, ms }: Visit): boolean => {
     if (wallMs > atWall + SLACK_MS) return false;
     if (ms === null) {
-      lastUnconverted = wallMs;
+      // rrule yields a day's times in BYHOUR/BYMINUTE order as written, not sorted: keep the latest.
+      if (lastUnconverted === null || wallMs > lastUnconverted) lastUnconverted = wallMs;
       return true;
     }
     if ((inclusive ? ms <= atMs : ms < atMs) && (best === null || ms > best)) best = ms;
     return true;
   };
-  const skipped = walk(prep, atWall - SLACK_MS, visit, options.skipAhead ?? true);
-  if (skipped && best === null && lastUnconverted === null) {
-    // The answer may lie before the skipped-to period (a sparse rule); walk from DTSTART.
-    walk(prep, atWall - SLACK_MS, visit);
+  const skipAhead = options.skipAhead ?? true;
+  let { skipped } = walk(prep, atWall - SLACK_MS, visit, skipAhead);
+  // The answer may lie before the skipped-to period (a sparse rule, or an instance at the start of
+  // its period): look a few periods further back, then walk from DTSTART.
+  for (const periods of [2, 16]) {
+    if (!skipped || best !== null || lastUnconverted !== null) break;
+    skipped = walk(prep, atWall - SLACK_MS, visit, true, atWall - SLACK_MS - periods * periodMs(prep)).skipped;
   }
+  if (skipped && best === null && lastUnconverted === null) walk(prep, atWall - SLACK_MS, visit);
   if (best === null && lastUnconverted !== null) {
     // Only reached when conversion was skipped, i.e. shift-forward policy: every wall time converts.
     best = wallToInstant(lastUnconverted, prep.zone).ms;

@@ -85,6 +85,40 @@ describe('recurrence skip-ahead', () => {
     expect(checked).toBe(1500);
   });
 
+  it('answers repeated questions about the same rule (its cached window of instants) like the plain walk', () => {
+    const r = prng(4242);
+    let rules = 0;
+    let questions = 0;
+    while (rules < 250) {
+      const ical = randomIcal(r);
+      const nonexistent = r() < 0.3 ? ('skip' as const) : ('shift-forward' as const);
+      if (!validateRecurrence(ical).ok) continue;
+      rules++;
+      // Questions clustered around one time (as for plans sharing a rule), with a few far away;
+      // some land exactly on an instant, to test the inclusive and exclusive edges.
+      const centre = Date.UTC(2020, 0, 1) + Math.floor(r() * 7 * 365 * DAY);
+      let onInstant: Date | null = null;
+      for (let q = 0; q < 14; q++) {
+        const far = r() < 0.15;
+        const at: Date =
+          onInstant && r() < 0.3 ? onInstant : new Date(centre + Math.floor((r() - 0.5) * (far ? 6 * 365 : 400) * DAY) + Math.floor(r() * 48) * 1_800_000);
+        const inclusive = r() < 0.4;
+        const limit = 1 + Math.floor(r() * 4);
+        const before = r() < 0.2 ? new Date(at.getTime() + Math.floor(r() * 60) * DAY) : undefined;
+        const opts = { after: at, before, inclusive, limit, nonexistent };
+        const plain: string[] | string = (() => { try { return iso(expandRecurrence(ical, { ...opts, skipAhead: false })); } catch (e) { return String(e); } })();
+        const fast = (() => { try { return iso(expandRecurrence(ical, opts)); } catch (e) { return String(e); } })();
+        expect(fast, `${ical} ${JSON.stringify(opts)}`).toEqual(plain);
+        const prevPlain = previousOccurrence(ical, at, { inclusive, nonexistent, skipAhead: false });
+        const prevFast = previousOccurrence(ical, at, { inclusive, nonexistent });
+        expect(prevFast?.toISOString() ?? null, `${ical} previous ${at.toISOString()} inclusive=${inclusive}`).toEqual(prevPlain?.toISOString() ?? null);
+        if (Array.isArray(plain) && plain.length > 0) onInstant = new Date(plain[0]);
+        questions++;
+      }
+    }
+    expect(questions).toBe(250 * 14);
+  });
+
   it('agrees across DST changes for rules at the changeover hours', () => {
     const cases = [
       'DTSTART;TZID=America/Chicago:20200102T020000\nRRULE:FREQ=WEEKLY;BYDAY=SU',
