@@ -28,11 +28,13 @@ export type EnginePlanRow = {
   status: string;
   recheck_at: Date | null;
   inputs_at: Date | null;
+  /** Digest of the stored status (due-engine.ts statusColumns); null before the first evaluation. */
+  status_hash: string | null;
 };
 
 /** The columns the pass reads for every active plan. */
 export const PLAN_COLUMNS = `id, organization_id, machine_id, triggers, due_soon_days, due_soon_fraction, started_at, last_done_at,
-  last_raised_key, meter_baselines, status, recheck_at, inputs_at`;
+  last_raised_key, meter_baselines, status, recheck_at, inputs_at, status_hash`;
 
 export type MeterSeries = {
   /** Readings since the latest reset, oldest first. */

@@ -1,6 +1,7 @@
 /** Who hears about maintenance work, and the words of those mails. Every one carries the work caution. */
 import type { EntityManager } from '@mikro-orm/postgresql';
 import { DateTime } from 'luxon';
+import { cachedZone } from '../../shared/domain/zone-offsets';
 import type { Role } from '../../shared/permissions';
 import type { NotifyMode } from '../../shared/schemas/work-orders';
 import { queueMail } from '../mail/outbox';
@@ -46,7 +47,7 @@ export const workLink = (appUrl: string, id: string) => `${appUrl}/work-orders/$
 
 export function formatWhen(d: Date | null, timeZone: string): string {
   if (!d) return 'no due date';
-  return DateTime.fromJSDate(d, { zone: timeZone }).toFormat('ccc d LLL yyyy, HH:mm');
+  return DateTime.fromJSDate(d, { zone: cachedZone(timeZone) }).toFormat('ccc d LLL yyyy, HH:mm');
 }
 
 function lineText(w: WorkLine, timeZone: string): string {
@@ -64,12 +65,15 @@ function listText(lines: WorkLine[], timeZone: string): string[] {
 
 /** Groups work lines per recipient so one pass sends each person at most one mail of a kind. */
 export function groupByPerson(lines: WorkLine[], pick: (w: WorkLine) => Person[]): Map<string, { person: Person; lines: WorkLine[] }> {
-  const out = new Map<string, { person: Person; lines: WorkLine[] }>();
+  const out = new Map<string, { person: Person; lines: WorkLine[]; ids: Set<string> }>();
   for (const w of lines) {
     for (const p of pick(w)) {
       let g = out.get(p.userId);
-      if (!g) out.set(p.userId, (g = { person: p, lines: [] }));
-      if (!g.lines.some((l) => l.id === w.id)) g.lines.push(w);
+      if (!g) out.set(p.userId, (g = { person: p, lines: [], ids: new Set() }));
+      if (!g.ids.has(w.id)) {
+        g.ids.add(w.id);
+        g.lines.push(w);
+      }
     }
   }
   return out;

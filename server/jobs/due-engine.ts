@@ -8,7 +8,7 @@
  * under a row lock, and the database refuses a second work order for the same (plan, occurrence
  * key) — `on conflict do nothing`.
  */
-import { randomUUID } from 'node:crypto';
+import { createHash, randomUUID } from 'node:crypto';
 import type { EntityManager, MikroORM } from '@mikro-orm/postgresql';
 import { evaluatePlan, type Evaluation } from '../../shared/domain/due';
 import type { ChecklistTemplateItem } from '../../shared/schemas/plans';
@@ -33,7 +33,8 @@ import {
 import { loadPeople, queueEscalations, queueRaisedNotices, type Person, type WorkLine } from './due-engine-mail';
 import { sendDigests } from './due-engine-digest';
 import { humanReason, type MeterLabel } from './due-engine-reason';
-import { recordAudit } from '../modules/audit/audit';
+import { insertAuditRows } from '../modules/audit/audit';
+import { executeBound } from '../db';
 import { manualPass } from '../modules/job-runs/job-run-context';
 import type { MeterBaselines } from '../modules/plans/plan.entity';
 import { loadConfig } from '../config';
@@ -98,13 +99,23 @@ class Run {
   }
 }
 
-type Evaluated = { row: EnginePlanRow; ev: Evaluation; inputsAt: number | null; newBaselines: MeterBaselines | null; human: (s: string) => string };
+type Evaluated = {
+  row: EnginePlanRow;
+  ev: Evaluation;
+  /** evaluationHash of this evaluation. */
+  hash: string;
+  inputsAt: number | null;
+  newBaselines: MeterBaselines | null;
+  human: (s: string) => string;
+};
 
 /**
  * "Time alone will not change this" (due.ts changesAt is null), stored as a far date: a null
  * recheck time means "evaluate at the next pass" (new, edited, or work still to raise).
  */
 export const NO_TIME_BOUNDARY = new Date('9999-12-31T00:00:00.000Z');
+
+const msOf = (d: Date | string | null) => (d === null ? null : new Date(d).getTime());
 
 /** What the plan row stores from an evaluation (status cache, explanation in people's words, next re-check). */
 export function statusColumns(ev: Evaluation, human: (s: string) => string = (s) => s) {
@@ -120,39 +131,77 @@ export function statusColumns(ev: Evaluation, human: (s: string) => string = (s)
   };
 }
 
+/**
+ * Digest of everything the shown status is made from: the evaluation, the shop's time zone and the
+ * names of the plan's meters (reasons are written with them). Stored with the status, so a pass
+ * that works out the same again leaves the row alone without rewriting its reasons. Every writer of
+ * the status columns stores it (here and plans/plan-evaluation.ts).
+ */
+export function evaluationHash(ev: Evaluation, timeZone: string, meterNames: string[]): string {
+  const ms = (d: Date | null) => (d === null ? '' : String(d.getTime()));
+  let text = `${ev.status}|${ms(ev.dueAt)}|${ev.reason}|${timeZone}|${meterNames.join('\u0001')}`;
+  for (const t of ev.triggers) text += `|${t.kind}|${t.status}|${ms(t.dueAt)}|${t.reason}`;
+  for (const m of ev.dueMeter) text += `|${m.meterId}|${m.dueValue}|${m.current}|${ms(m.forecastAt)}`;
+  return createHash('sha1').update(text).digest('base64');
+}
+
 /** A due occurrence this evaluation has not raised yet. */
 const pendingRaise = (ev: Evaluation) => ev.occurrenceKey !== null && !ev.alreadyRaised;
 
-/** Writes evaluated statuses in one statement; a plan completed meanwhile keeps its own newer status. */
+/**
+ * Writes evaluated statuses: a changed status in full, an unchanged one only when its re-check time,
+ * input time or baselines moved, and nothing at all when the pass found the same answer again.
+ * A plan completed meanwhile keeps its own newer status.
+ */
 async function writeStatuses(em: EntityManager, items: Evaluated[], now: Date) {
-  if (items.length === 0) return;
-  const payload = items.map(({ row, ev, inputsAt, newBaselines, human }) => {
-    const c = statusColumns(ev, human);
-    return {
-      id: row.id,
-      status: c.status,
-      next_due_at: c.nextDueAt?.toISOString() ?? null,
-      reason: c.statusReason,
-      evaluation: c.evaluation,
-      // Work still to raise: look again at the next pass until the raise has gone through.
-      recheck_at: pendingRaise(ev) ? null : (c.recheckAt?.toISOString() ?? null),
-      inputs_at: inputsAt === null ? null : new Date(inputsAt).toISOString(),
-      seen_done: row.last_done_at ? new Date(row.last_done_at).toISOString() : null,
-      baselines: newBaselines ?? {},
-    };
-  });
-  await em.execute(
-    `update maintenance_plan p set status = v.status, next_due_at = v.next_due_at, status_reason = v.reason, evaluation = v.evaluation,
-            recheck_at = v.recheck_at, inputs_at = v.inputs_at, evaluated_at = ?, updated_at = now(),
-            meter_baselines = v.baselines || p.meter_baselines
-       from jsonb_to_recordset(?::jsonb) as v(id uuid, status text, next_due_at timestamptz, reason text, evaluation jsonb,
-            recheck_at timestamptz, inputs_at timestamptz, seen_done timestamptz, baselines jsonb)
-      where p.id = v.id and p.last_done_at is not distinct from v.seen_done`,
-    [now, JSON.stringify(payload)],
-  );
+  const changed: Record<string, unknown>[] = [];
+  const touched: Record<string, unknown>[] = [];
+  for (const { row, ev, hash, inputsAt, newBaselines, human } of items) {
+    // Work still to raise: look again at the next pass until the raise has gone through.
+    const recheckAt = pendingRaise(ev) ? null : (ev.changesAt ?? NO_TIME_BOUNDARY);
+    const seenDone = row.last_done_at ? new Date(row.last_done_at).toISOString() : null;
+    const inputsIso = inputsAt === null ? null : new Date(inputsAt).toISOString();
+    if (hash !== row.status_hash) {
+      const c = statusColumns(ev, human);
+      changed.push({
+        id: row.id,
+        status: c.status,
+        next_due_at: c.nextDueAt?.toISOString() ?? null,
+        reason: c.statusReason,
+        evaluation: c.evaluation,
+        hash,
+        recheck_at: recheckAt?.toISOString() ?? null,
+        inputs_at: inputsIso,
+        seen_done: seenDone,
+        baselines: newBaselines ?? {},
+      });
+    } else if (msOf(recheckAt) !== msOf(row.recheck_at) || inputsAt !== msOf(row.inputs_at) || newBaselines) {
+      touched.push({ id: row.id, recheck_at: recheckAt?.toISOString() ?? null, inputs_at: inputsIso, seen_done: seenDone, baselines: newBaselines ?? {} });
+    }
+  }
+  if (changed.length > 0) {
+    await executeBound(
+      em,
+      `update maintenance_plan p set status = v.status, next_due_at = v.next_due_at, status_reason = v.reason, evaluation = v.evaluation,
+              status_hash = v.hash, recheck_at = v.recheck_at, inputs_at = v.inputs_at, evaluated_at = ?, updated_at = now(),
+              meter_baselines = v.baselines || p.meter_baselines
+         from jsonb_to_recordset(?::jsonb) as v(id uuid, status text, next_due_at timestamptz, reason text, evaluation jsonb, hash text,
+              recheck_at timestamptz, inputs_at timestamptz, seen_done timestamptz, baselines jsonb)
+        where p.id = v.id and p.last_done_at is not distinct from v.seen_done`,
+      [now, JSON.stringify(changed)],
+    );
+  }
+  if (touched.length > 0) {
+    await executeBound(
+      em,
+      `update maintenance_plan p set recheck_at = v.recheck_at, inputs_at = v.inputs_at, meter_baselines = v.baselines || p.meter_baselines
+         from jsonb_to_recordset(?::jsonb) as v(id uuid, recheck_at timestamptz, inputs_at timestamptz, seen_done timestamptz, baselines jsonb)
+        where p.id = v.id and p.last_done_at is not distinct from v.seen_done`,
+      [JSON.stringify(touched)],
+    );
+  }
 }
 
-const msOf = (d: Date | string | null) => (d === null ? null : new Date(d).getTime());
 
 /** The deciding trigger's due point: when this occurrence fell due. */
 function occurrenceDueAt(ev: Evaluation, now: Date): Date {
@@ -240,7 +289,8 @@ async function raiseWork(orm: MikroORM, run: Run, orgId: string, items: Evaluate
             _changesAt: (ev.changesAt ?? NO_TIME_BOUNDARY).toISOString(),
           };
         });
-        const inserted: { id: string; plan_id: string }[] = await tx.execute(
+        const inserted = await executeBound<{ id: string; plan_id: string }>(
+          tx,
           `insert into work_order (id, created_at, updated_at, organization_id, number, machine_id, plan_id, occurrence_key, kind, title,
                   instructions, reason, status, due_at, overdue, assignee_id, responsible_role, requires_lockout, safety_critical,
                   checklist, planned_parts, estimated_minutes, labour_minutes, notes)
@@ -257,14 +307,17 @@ async function raiseWork(orm: MikroORM, run: Run, orgId: string, items: Evaluate
         if (inserted.length === 0) return;
         const insertedIds = new Set(inserted.map((r) => r.id));
         const raised = records.filter((r) => insertedIds.has(r.id));
-        await tx.execute(
+        await executeBound(
+          tx,
           `update maintenance_plan p set last_raised_key = v.key, recheck_at = v.recheck_at, updated_at = now()
              from jsonb_to_recordset(?::jsonb) as v(id uuid, key text, recheck_at timestamptz) where p.id = v.id`,
           [JSON.stringify(raised.map((r) => ({ id: r.plan_id, key: r.occurrence_key, recheck_at: r._changesAt })))],
         );
-        for (const r of raised) {
-          recordAudit(tx, { orgId, userId: null }, 'work-order.raised', { type: 'WorkOrder', id: r.id }, { number: r.number, planId: r.plan_id, occurrenceKey: r.occurrence_key });
-        }
+        await insertAuditRows(
+          tx,
+          orgId,
+          raised.map((r) => ({ action: 'work-order.raised', entityType: 'WorkOrder', entityId: r.id, details: { number: r.number, planId: r.plan_id, occurrenceKey: r.occurrence_key } })),
+        );
         const lines: WorkLine[] = raised.map((r) => ({
           id: r.id,
           number: r.number,
@@ -333,7 +386,8 @@ async function escalateChunk(orm: MikroORM, run: Run, now: Date, orgId?: string)
     if (!run.orgs.has(org)) continue;
     try {
       await orm.em.fork().transactional(async (tx) => {
-        const done: { id: string }[] = await tx.execute(
+        const done = await executeBound<{ id: string }>(
+          tx,
           `update work_order set overdue = true, escalated_at = ?, updated_at = now() where id = any(?::uuid[]) and escalated_at is null returning id`,
           [now, uuidArray(list.map((l) => l.id))],
         );
@@ -354,7 +408,7 @@ async function escalateChunk(orm: MikroORM, run: Run, now: Date, orgId?: string)
             responsibleRole: l.responsible_role,
           }));
         if (lines.length === 0) return;
-        for (const l of lines) recordAudit(tx, { orgId: org, userId: null }, 'work-order.escalated', { type: 'WorkOrder', id: l.id }, { number: l.number });
+        await insertAuditRows(tx, org, lines.map((l) => ({ action: 'work-order.escalated', entityType: 'WorkOrder', entityId: l.id, details: { number: l.number } })));
         const mails = queueEscalations(tx, run.ctx(org), lines, await run.peopleOf(tx, org));
         const s = run.of(org);
         s.escalations += lines.length;
@@ -367,6 +421,22 @@ async function escalateChunk(orm: MikroORM, run: Run, now: Date, orgId?: string)
     }
   }
   return rows.length;
+}
+
+/** At most one write in flight; its failure is rethrown by the next `wait`. */
+class WriteQueue {
+  private inFlight: Promise<void> | null = null;
+  private failure: { error: unknown } | null = null;
+  start(work: () => Promise<void>) {
+    this.inFlight = work().catch((error: unknown) => {
+      this.failure = { error };
+    });
+  }
+  async wait() {
+    if (this.inFlight) await this.inFlight;
+    this.inFlight = null;
+    if (this.failure) throw this.failure.error;
+  }
 }
 
 /**
@@ -383,6 +453,7 @@ export async function runDueEngine(orm: MikroORM, now: Date, opts: EngineOptions
   const series = new Map<string, MeterSeries>();
   const labels = new Map<string, MeterLabel>();
 
+  const writes = new WriteQueue();
   let lastId = '00000000-0000-0000-0000-000000000000';
   for (;;) {
     const params: unknown[] = [lastId];
@@ -425,23 +496,37 @@ export async function runDueEngine(orm: MikroORM, now: Date, opts: EngineOptions
           const newBaselines = missingBaselines(row, series);
           if (newBaselines) row.meter_baselines = { ...row.meter_baselines, ...newBaselines };
           const ev = evaluatePlan(toPlanInput(row, now, org.time_zone, series));
-          evaluated.push({ row, ev, inputsAt: inputsAtOf(row, latest), newBaselines, human: (s) => humanReason(s, (id) => labels.get(id), org.time_zone) });
+          const names = inputsOf(row).meters.map((id) => labels.get(id)?.name ?? '');
+          evaluated.push({
+            row,
+            ev,
+            hash: evaluationHash(ev, org.time_zone, names),
+            inputsAt: inputsAtOf(row, latest),
+            newBaselines,
+            human: (s) => humanReason(s, (id) => labels.get(id), org.time_zone),
+          });
         } catch (err) {
           run.error(row.organization_id, err instanceof Error ? err.message : String(err), row.id);
         }
       }
-      await writeStatuses(em, evaluated, now);
-      const toRaise = new Map<string, Evaluated[]>();
-      for (const e of evaluated) {
-        if (!e.ev.occurrenceKey || e.ev.alreadyRaised) continue;
-        let l = toRaise.get(e.row.organization_id);
-        if (!l) toRaise.set(e.row.organization_id, (l = []));
-        l.push(e);
-      }
-      for (const [org, list] of toRaise) await raiseWork(orm, run, org, list, now);
+      // Writing one batch overlaps with reading and evaluating the next (PostgreSQL works while this
+      // process computes); writes stay in order, one batch at a time.
+      await writes.wait();
+      writes.start(async () => {
+        await writeStatuses(em.fork(), evaluated, now);
+        const toRaise = new Map<string, Evaluated[]>();
+        for (const e of evaluated) {
+          if (!pendingRaise(e.ev)) continue;
+          let l = toRaise.get(e.row.organization_id);
+          if (!l) toRaise.set(e.row.organization_id, (l = []));
+          l.push(e);
+        }
+        for (const [org, list] of toRaise) await raiseWork(orm, run, org, list, now);
+      });
     }
     if (rows.length < PLAN_BATCH) break;
   }
+  await writes.wait();
   if (opts.escalate !== false) await escalate(orm, run, now, opts.orgId);
   return run.stats;
 }

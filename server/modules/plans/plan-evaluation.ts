@@ -1,7 +1,7 @@
 import type { EntityManager } from '@mikro-orm/postgresql';
 import { evaluatePlan } from '../../../shared/domain/due';
 import { uuidArray, inputsOf, loadMeterSeries, loadOilSeries, missingBaselines, oilMeterId, toPlanInput, type EnginePlanRow } from '../../jobs/due-engine-inputs';
-import { statusColumns } from '../../jobs/due-engine';
+import { evaluationHash, statusColumns } from '../../jobs/due-engine';
 import { humanReason, type MeterLabel } from '../../jobs/due-engine-reason';
 import type { IMaintenancePlan, MeterBaselines } from './plan.entity';
 
@@ -24,6 +24,7 @@ export async function refreshPlanStatus(em: EntityManager, plan: IMaintenancePla
     status: plan.status,
     recheck_at: null,
     inputs_at: null,
+    status_hash: null,
   };
   const ins = inputsOf(row);
   const series = await loadMeterSeries(em, ins.meters, now);
@@ -49,6 +50,7 @@ export async function refreshPlanStatus(em: EntityManager, plan: IMaintenancePla
   plan.nextDueAt = c.nextDueAt;
   plan.statusReason = c.statusReason;
   plan.evaluation = c.evaluation;
+  plan.statusHash = evaluationHash(ev, timeZone, ins.meters.map((id) => labels.get(id)?.name ?? ''));
   // A due occurrence is raised by the next pass: keep the plan in that pass's list.
   plan.recheckAt = ev.occurrenceKey && !ev.alreadyRaised ? null : c.recheckAt;
   plan.inputsAt = inputsAt === null ? null : new Date(inputsAt);

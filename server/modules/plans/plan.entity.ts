@@ -55,6 +55,8 @@ export const MaintenancePlan = defineEntity({
     recheckAt: p.datetime().nullable(),
     /** Newest meter reading or oil sample the last evaluation saw; a newer one means evaluate again. */
     inputsAt: p.datetime().nullable(),
+    /** Digest of status, next due, reason and evaluation: a pass that finds the same answer skips the write. */
+    statusHash: p.string().length(40).nullable(),
   },
 });
 export type IMaintenancePlan = InferEntity<typeof MaintenancePlan>;
