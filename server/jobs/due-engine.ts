@@ -43,7 +43,7 @@ import { logger } from '../logger';
 const DAY_MS = 86_400_000;
 /** Plans read per query; raises written per transaction. */
 const PLAN_BATCH = 2000;
-const RAISE_BATCH = 200;
+const RAISE_BATCH = 1000;
 const OPEN_STATES = `('open', 'in-progress', 'on-hold')`;
 /** Job run rows are kept this long. */
 const RUN_HISTORY_DAYS = 30;
@@ -150,8 +150,9 @@ const pendingRaise = (ev: Evaluation) => ev.occurrenceKey !== null && !ev.alread
 
 /**
  * Writes evaluated statuses: a changed status in full, an unchanged one only when its re-check time,
- * input time or baselines moved, and nothing at all when the pass found the same answer again.
- * A plan completed meanwhile keeps its own newer status.
+ * input time or baselines moved, and nothing at all when the pass found the same answer again (so
+ * `evaluated_at` is the last time a pass wrote the row). A plan completed or re-evaluated by a
+ * request meanwhile (its digest moved) keeps its own newer status.
  */
 async function writeStatuses(em: EntityManager, items: Evaluated[], now: Date) {
   const changed: Record<string, unknown>[] = [];
@@ -170,13 +171,14 @@ async function writeStatuses(em: EntityManager, items: Evaluated[], now: Date) {
         reason: c.statusReason,
         evaluation: c.evaluation,
         hash,
+        read_hash: row.status_hash,
         recheck_at: recheckAt?.toISOString() ?? null,
         inputs_at: inputsIso,
         seen_done: seenDone,
         baselines: newBaselines ?? {},
       });
     } else if (msOf(recheckAt) !== msOf(row.recheck_at) || inputsAt !== msOf(row.inputs_at) || newBaselines) {
-      touched.push({ id: row.id, recheck_at: recheckAt?.toISOString() ?? null, inputs_at: inputsIso, seen_done: seenDone, baselines: newBaselines ?? {} });
+      touched.push({ id: row.id, read_hash: row.status_hash, recheck_at: recheckAt?.toISOString() ?? null, inputs_at: inputsIso, seen_done: seenDone, baselines: newBaselines ?? {} });
     }
   }
   if (changed.length > 0) {
@@ -186,18 +188,18 @@ async function writeStatuses(em: EntityManager, items: Evaluated[], now: Date) {
               status_hash = v.hash, recheck_at = v.recheck_at, inputs_at = v.inputs_at, evaluated_at = ?, updated_at = now(),
               meter_baselines = v.baselines || p.meter_baselines
          from jsonb_to_recordset(?::jsonb) as v(id uuid, status text, next_due_at timestamptz, reason text, evaluation jsonb, hash text,
-              recheck_at timestamptz, inputs_at timestamptz, seen_done timestamptz, baselines jsonb)
-        where p.id = v.id and p.last_done_at is not distinct from v.seen_done`,
+              read_hash text, recheck_at timestamptz, inputs_at timestamptz, seen_done timestamptz, baselines jsonb)
+        where p.id = v.id and p.last_done_at is not distinct from v.seen_done and p.status_hash is not distinct from v.read_hash`,
       [now, JSON.stringify(changed)],
     );
   }
   if (touched.length > 0) {
     await executeBound(
       em,
-      `update maintenance_plan p set recheck_at = v.recheck_at, inputs_at = v.inputs_at, meter_baselines = v.baselines || p.meter_baselines
-         from jsonb_to_recordset(?::jsonb) as v(id uuid, recheck_at timestamptz, inputs_at timestamptz, seen_done timestamptz, baselines jsonb)
-        where p.id = v.id and p.last_done_at is not distinct from v.seen_done`,
-      [JSON.stringify(touched)],
+      `update maintenance_plan p set recheck_at = v.recheck_at, inputs_at = v.inputs_at, evaluated_at = ?, meter_baselines = v.baselines || p.meter_baselines
+         from jsonb_to_recordset(?::jsonb) as v(id uuid, read_hash text, recheck_at timestamptz, inputs_at timestamptz, seen_done timestamptz, baselines jsonb)
+        where p.id = v.id and p.last_done_at is not distinct from v.seen_done and p.status_hash is not distinct from v.read_hash`,
+      [now, JSON.stringify(touched)],
     );
   }
 }
@@ -435,7 +437,9 @@ class WriteQueue {
   async wait() {
     if (this.inFlight) await this.inFlight;
     this.inFlight = null;
-    if (this.failure) throw this.failure.error;
+    const failed = this.failure;
+    this.failure = null;
+    if (failed) throw failed.error;
   }
 }
 
@@ -448,12 +452,27 @@ export async function runDueEngine(orm: MikroORM, now: Date, opts: EngineOptions
   const orgRows: Org[] = await em.execute(`select id, name, time_zone from organization ${opts.orgId ? 'where id = ?' : ''}`, opts.orgId ? [opts.orgId] : []);
   const run = new Run(new Map(orgRows.map((o) => [o.id, o])), loadConfig().APP_URL, opts.notify !== false);
   for (const o of orgRows) run.of(o.id);
+
+  const writes = new WriteQueue();
+  try {
+    await evaluateAll(orm, em, run, now, opts, writes);
+  } finally {
+    // Whatever stopped the loop, the batch still being written finishes (and reports) before the pass ends.
+    await writes.wait().catch((err: unknown) => {
+      logger.error({ err }, 'writing plan statuses failed');
+      for (const org of run.orgs.keys()) run.error(org, `writing plan statuses failed: ${err instanceof Error ? err.message : String(err)}`);
+    });
+  }
+  if (opts.escalate !== false) await escalate(orm, run, now, opts.orgId);
+  return run.stats;
+}
+
+/** Reads the plans in batches, evaluates each and hands the writes of each batch to `writes`. */
+async function evaluateAll(orm: MikroORM, em: EntityManager, run: Run, now: Date, opts: EngineOptions, writes: WriteQueue) {
   const nowMs = now.getTime();
   const latest = await loadLatestInputTimes(em, now);
   const series = new Map<string, MeterSeries>();
   const labels = new Map<string, MeterLabel>();
-
-  const writes = new WriteQueue();
   let lastId = '00000000-0000-0000-0000-000000000000';
   for (;;) {
     const params: unknown[] = [lastId];
@@ -527,8 +546,6 @@ export async function runDueEngine(orm: MikroORM, now: Date, opts: EngineOptions
     if (rows.length < PLAN_BATCH) break;
   }
   await writes.wait();
-  if (opts.escalate !== false) await escalate(orm, run, now, opts.orgId);
-  return run.stats;
 }
 
 /** Writes one job run row per shop for a pass. */

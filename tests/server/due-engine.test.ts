@@ -214,6 +214,48 @@ describe('a plan falls due', () => {
   });
 });
 
+describe('a pass that finds the same answer', () => {
+  type PlanRow = { status: string; status_reason: string; status_hash: string | null; evaluated_at: string | null; updated_at: string; recheck_at: string | null };
+  const planRow = async (id: string): Promise<PlanRow> =>
+    (await orm.em.fork().execute<PlanRow[]>(`select status, status_reason, status_hash, evaluated_at, updated_at, recheck_at from maintenance_plan where id = ?`, [id]))[0];
+  const forceRecheck = (id: string) => orm.em.fork().execute(`update maintenance_plan set recheck_at = null where id = ?`, [id]);
+
+  it('leaves the stored status alone, but rewrites it when the answer or a meter name changes', async () => {
+    const planId = await makePlan({ title: 'Renew return filter', triggers: [{ kind: 'meter', meterId: pumpHours, every: 500 }] }, '2026-01-01T00:00:00Z');
+    await runDueEngine(orm, new Date('2026-01-02T09:00:00Z'), { orgId: shop.orgId });
+    const first = await planRow(planId);
+    expect(first.status).toBe('not-due');
+    expect(first.status_reason).toContain('pump hours reads 1000 of 1500');
+    expect(first.status_hash).not.toBeNull();
+
+    // Evaluated again with nothing new: the status is not rewritten, only the re-check time is put back.
+    await forceRecheck(planId);
+    await runDueEngine(orm, new Date('2026-01-02T09:05:00Z'), { orgId: shop.orgId });
+    const same = await planRow(planId);
+    expect(new Date(same.updated_at).getTime()).toBe(new Date(first.updated_at).getTime());
+    expect(new Date(same.evaluated_at!).toISOString()).toBe('2026-01-02T09:05:00.000Z');
+    expect(same.status_hash).toBe(first.status_hash);
+    expect(same.recheck_at).not.toBeNull();
+
+    // Reasons carry the meter's name: renaming it changes what people read, so the row is rewritten.
+    await orm.em.fork().execute(`update meter set name = 'Pump running hours' where id = ?`, [pumpHours]);
+    await forceRecheck(planId);
+    await runDueEngine(orm, new Date('2026-01-02T09:10:00Z'), { orgId: shop.orgId });
+    const renamed = await planRow(planId);
+    expect(renamed.status_reason).toContain('Pump running hours reads 1000 of 1500');
+    expect(renamed.status_hash).not.toBe(first.status_hash);
+    expect(new Date(renamed.evaluated_at!).toISOString()).toBe('2026-01-02T09:10:00.000Z');
+
+    // A new reading past the mark changes the answer.
+    await addReadings(scoped(t.em(), shop.orgId), shop.orgId, pumpHours, [{ at: '2026-01-03T08:00:00Z', value: 1510 }]);
+    await runDueEngine(orm, new Date('2026-01-03T09:00:00Z'), { orgId: shop.orgId });
+    const due = await planRow(planId);
+    expect(due.status).toBe('due');
+    expect(due.status_reason).toContain('Pump running hours reads 1510, due at 1500');
+    expect(await workOf(planId)).toHaveLength(1);
+  });
+});
+
 describe('mail while the mail server is down', () => {
   it('keeps every notice queued and delivers each exactly once when the server is back', async () => {
     const port = 26_000 + Math.floor(Math.random() * 1000);
