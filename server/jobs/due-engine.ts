@@ -233,8 +233,6 @@ type PlanDetail = {
   requires_lockout: boolean;
   safety_critical: boolean;
   machine_id: string;
-  code: string;
-  name: string;
 };
 
 /** Raises work for one shop's due occurrences, in one transaction per batch. */
@@ -257,8 +255,8 @@ async function raiseWork(orm: MikroORM, run: Run, orgId: string, items: Evaluate
         if (ok.length === 0) return;
         const details: PlanDetail[] = await tx.execute(
           `select p.id, p.title, p.instructions, p.checklist, p.parts, p.estimated_minutes, p.responsible_role, p.responsible_user_id,
-                  p.requires_lockout, p.safety_critical, p.machine_id, m.code, m.name
-             from maintenance_plan p join machine m on m.id = p.machine_id where p.id = any(?::uuid[])`,
+                  p.requires_lockout, p.safety_critical, p.machine_id
+             from maintenance_plan p where p.id = any(?::uuid[])`,
           [uuidArray(ok.map((o) => o.row.id))],
         );
         const detailOf = new Map(details.map((d) => [d.id, d]));
@@ -287,7 +285,8 @@ async function raiseWork(orm: MikroORM, run: Run, orgId: string, items: Evaluate
             checklist,
             planned_parts: d.parts ?? [],
             estimated_minutes: d.estimated_minutes,
-            _d: d,
+            // The notice step tells people after the raising (one mail per person per pass); a replay without notices marks it told.
+            notified_at: run.notify ? null : now.toISOString(),
             _changesAt: (ev.changesAt ?? NO_TIME_BOUNDARY).toISOString(),
           };
         });
@@ -295,16 +294,17 @@ async function raiseWork(orm: MikroORM, run: Run, orgId: string, items: Evaluate
           tx,
           `insert into work_order (id, created_at, updated_at, organization_id, number, machine_id, plan_id, occurrence_key, kind, title,
                   instructions, reason, status, due_at, overdue, assignee_id, responsible_role, requires_lockout, safety_critical,
-                  checklist, planned_parts, estimated_minutes, labour_minutes, notes)
+                  checklist, planned_parts, estimated_minutes, labour_minutes, notes, notified_at)
            select x.id, now(), now(), x.organization_id, x.number, x.machine_id, x.plan_id, x.occurrence_key, x.kind, x.title,
                   x.instructions, x.reason, 'open', x.due_at, x.overdue, x.assignee_id, x.responsible_role, x.requires_lockout, x.safety_critical,
-                  x.checklist, x.planned_parts, x.estimated_minutes, 0, ''
+                  x.checklist, x.planned_parts, x.estimated_minutes, 0, '', x.notified_at
              from jsonb_to_recordset(?::jsonb) as x(id uuid, organization_id uuid, number int, machine_id uuid, plan_id uuid, occurrence_key text,
                   kind text, title text, instructions text, reason text, due_at timestamptz, overdue boolean, assignee_id uuid,
-                  responsible_role text, requires_lockout boolean, safety_critical boolean, checklist jsonb, planned_parts jsonb, estimated_minutes int)
+                  responsible_role text, requires_lockout boolean, safety_critical boolean, checklist jsonb, planned_parts jsonb, estimated_minutes int,
+                  notified_at timestamptz)
            on conflict (plan_id, occurrence_key) do nothing
            returning id, plan_id`,
-          [JSON.stringify(records.map(({ _d, _changesAt, ...r }) => r))],
+          [JSON.stringify(records.map(({ _changesAt, ...r }) => r))],
         );
         if (inserted.length === 0) return;
         const insertedIds = new Set(inserted.map((r) => r.id));
@@ -320,29 +320,52 @@ async function raiseWork(orm: MikroORM, run: Run, orgId: string, items: Evaluate
           orgId,
           raised.map((r) => ({ action: 'work-order.raised', entityType: 'WorkOrder', entityId: r.id, details: { number: r.number, planId: r.plan_id, occurrenceKey: r.occurrence_key } })),
         );
-        const lines: WorkLine[] = raised.map((r) => ({
-          id: r.id,
-          number: r.number,
-          title: r.title,
-          machineCode: r._d.code,
-          machineName: r._d.name,
-          dueAt: new Date(r.due_at),
-          overdue: false,
-          safetyCritical: r.safety_critical,
-          requiresLockout: r.requires_lockout,
-          assigneeId: r.assignee_id,
-          responsibleRole: r.responsible_role,
-          reason: r.reason,
-        }));
-        const mails = run.notify ? queueRaisedNotices(tx, run.ctx(orgId), lines, await run.peopleOf(tx, orgId)) : 0;
-        const s = run.of(orgId);
-        s.workOrdersRaised += raised.length;
-        s.mailsQueued += mails;
+        run.of(orgId).workOrdersRaised += raised.length;
       });
     } catch (err) {
       logger.error({ err, orgId }, 'raising work failed');
       for (const b of batch) run.error(orgId, `raising work failed: ${err instanceof Error ? err.message : String(err)}`, b.row.id);
     }
+  }
+}
+
+const NOTIFY_CHUNK = 5000;
+
+/**
+ * Tells the people responsible about raised work nobody has been told of yet: one mail per person
+ * per shop (per 5,000 work orders), after the raising, so a pass that raises a backlog sends one
+ * notice, not one per batch. Work raised by a pass that stopped before this step is told next time.
+ */
+async function notifyRaised(orm: MikroORM, run: Run, now: Date) {
+  for (const org of run.orgs.keys()) {
+    for (let round = 0; round < 100; round++) {
+      if ((await notifyChunk(orm, run, org, now)) < NOTIFY_CHUNK) break;
+    }
+  }
+}
+
+async function notifyChunk(orm: MikroORM, run: Run, orgId: string, now: Date): Promise<number> {
+  try {
+    return await orm.em.fork().transactional(async (tx) => {
+      const rows: (WorkRow & { status: string; overdue: boolean; reason: string | null })[] = await tx.execute(
+        `select w.id, w.number, w.title, w.due_at, w.status, w.overdue, w.reason, w.safety_critical, w.requires_lockout, w.assignee_id,
+                w.responsible_role, m.code, m.name
+           from work_order w join machine m on m.id = w.machine_id
+          where w.organization_id = ? and w.notified_at is null and w.plan_id is not null
+          order by w.number limit ${NOTIFY_CHUNK} for update of w skip locked`,
+        [orgId],
+      );
+      if (rows.length === 0) return 0;
+      await executeBound(tx, `update work_order set notified_at = ? where id = any(?::uuid[])`, [now, uuidArray(rows.map((r) => r.id))]);
+      const open = rows.filter((r) => r.status === 'open' || r.status === 'in-progress' || r.status === 'on-hold');
+      const lines = open.map((r) => ({ ...workLine(r, r.overdue), reason: r.reason }));
+      run.of(orgId).mailsQueued += lines.length ? queueRaisedNotices(tx, run.ctx(orgId), lines, await run.peopleOf(tx, orgId)) : 0;
+      return rows.length;
+    });
+  } catch (err) {
+    logger.error({ err, orgId }, 'notices of raised work failed');
+    run.error(orgId, `notices of raised work failed: ${err instanceof Error ? err.message : String(err)}`);
+    return 0;
   }
 }
 
@@ -355,21 +378,39 @@ async function escalate(orm: MikroORM, run: Run, now: Date, orgId?: string) {
 
 const ESCALATE_CHUNK = 5000;
 
+/** A work order as the notice and escalation steps read it (joined with its machine's code and name). */
+type WorkRow = {
+  id: string;
+  number: number;
+  title: string;
+  due_at: Date | null;
+  safety_critical: boolean;
+  requires_lockout: boolean;
+  assignee_id: string | null;
+  responsible_role: Role | null;
+  code: string;
+  name: string;
+};
+
+function workLine(r: WorkRow, overdue: boolean): WorkLine {
+  return {
+    id: r.id,
+    number: r.number,
+    title: r.title,
+    machineCode: r.code,
+    machineName: r.name,
+    dueAt: r.due_at ? new Date(r.due_at) : null,
+    overdue,
+    safetyCritical: r.safety_critical,
+    requiresLockout: r.requires_lockout,
+    assigneeId: r.assignee_id,
+    responsibleRole: r.responsible_role,
+  };
+}
+
 async function escalateChunk(orm: MikroORM, run: Run, now: Date, orgId?: string): Promise<number> {
   const em = orm.em.fork();
-  const rows: {
-    id: string;
-    organization_id: string;
-    number: number;
-    title: string;
-    due_at: Date | null;
-    safety_critical: boolean;
-    requires_lockout: boolean;
-    assignee_id: string | null;
-    responsible_role: Role | null;
-    code: string;
-    name: string;
-  }[] = await em.execute(
+  const rows: (WorkRow & { organization_id: string })[] = await em.execute(
     `select w.id, w.organization_id, w.number, w.title, w.due_at, w.safety_critical, w.requires_lockout, w.assignee_id, w.responsible_role, m.code, m.name
        from work_order w join machine m on m.id = w.machine_id left join maintenance_plan p on p.id = w.plan_id
       where w.status in ${OPEN_STATES} and w.escalated_at is null ${orgId ? 'and w.organization_id = ?' : ''}
@@ -394,21 +435,7 @@ async function escalateChunk(orm: MikroORM, run: Run, now: Date, orgId?: string)
           [now, uuidArray(list.map((l) => l.id))],
         );
         const ids = new Set(done.map((d) => d.id));
-        const lines: WorkLine[] = list
-          .filter((l) => ids.has(l.id))
-          .map((l) => ({
-            id: l.id,
-            number: l.number,
-            title: l.title,
-            machineCode: l.code,
-            machineName: l.name,
-            dueAt: l.due_at ? new Date(l.due_at) : null,
-            overdue: true,
-            safetyCritical: l.safety_critical,
-            requiresLockout: l.requires_lockout,
-            assigneeId: l.assignee_id,
-            responsibleRole: l.responsible_role,
-          }));
+        const lines = list.filter((l) => ids.has(l.id)).map((l) => workLine(l, true));
         if (lines.length === 0) return;
         await insertAuditRows(tx, org, lines.map((l) => ({ action: 'work-order.escalated', entityType: 'WorkOrder', entityId: l.id, details: { number: l.number } })));
         const mails = queueEscalations(tx, run.ctx(org), lines, await run.peopleOf(tx, org));
@@ -463,6 +490,7 @@ export async function runDueEngine(orm: MikroORM, now: Date, opts: EngineOptions
       for (const org of run.orgs.keys()) run.error(org, `writing plan statuses failed: ${err instanceof Error ? err.message : String(err)}`);
     });
   }
+  if (run.notify) await notifyRaised(orm, run, now);
   if (opts.escalate !== false) await escalate(orm, run, now, opts.orgId);
   return run.stats;
 }

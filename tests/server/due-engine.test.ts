@@ -214,6 +214,31 @@ describe('a plan falls due', () => {
   });
 });
 
+describe('notices of raised work', () => {
+  it('go out once per person per pass, after the raising, and a pass that stopped before telling anyone is caught up by the next', async () => {
+    await drainOutbox(orm);
+    const ids: string[] = [];
+    for (const title of ['Renew return filter', 'Check pump coupling', 'Sample the oil']) {
+      ids.push(await makePlan({ title, triggers: [{ kind: 'meter', meterId: pumpHours, every: 200 }] }, '2026-01-01T00:00:00Z'));
+    }
+    await addReadings(scoped(t.em(), shop.orgId), shop.orgId, pumpHours, [{ at: '2026-01-05T08:00:00Z', value: 1250 }]);
+    await runDueEngine(orm, new Date('2026-01-05T09:00:00Z'), { orgId: shop.orgId });
+    const raised = (await pendingMails(orm, shop.orgId)).filter((m) => m.kind === 'work-raised');
+    expect(raised.map((m) => m.subject)).toEqual([`3 new work orders for you at Test ${shop.slug}`]);
+    await drainOutbox(orm);
+
+    // As if the pass had stopped after raising this one: nobody was told.
+    const [wo] = await workOf(ids[0]);
+    await orm.em.fork().execute(`update work_order set notified_at = null where id = ?`, [wo.id]);
+    await runDueEngine(orm, new Date('2026-01-05T09:05:00Z'), { orgId: shop.orgId });
+    const late = (await pendingMails(orm, shop.orgId)).filter((m) => m.kind === 'work-raised');
+    expect(late.map((m) => m.subject)).toEqual([`New work: WO ${wo.number} Renew return filter on HU1`]);
+    expect(late[0].toAddress).toBe(shop.users.technician.email);
+    await runDueEngine(orm, new Date('2026-01-05T09:10:00Z'), { orgId: shop.orgId });
+    expect((await pendingMails(orm, shop.orgId)).filter((m) => m.kind === 'work-raised')).toHaveLength(1);
+  });
+});
+
 describe('a pass that finds the same answer', () => {
   type PlanRow = { status: string; status_reason: string; status_hash: string | null; evaluated_at: string | null; updated_at: string; recheck_at: string | null };
   const planRow = async (id: string): Promise<PlanRow> =>

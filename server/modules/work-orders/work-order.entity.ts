@@ -17,7 +17,16 @@ export const WorkOrder = defineEntity({
   tableName: 'work_order',
   filters: orgFilter,
   uniques: [{ properties: ['plan', 'occurrenceKey'] }, { properties: ['organization', 'number'] }],
-  indexes: [{ properties: ['organization', 'status', 'dueAt'] }, { properties: ['assignee', 'status'] }, { properties: ['machine'] }],
+  indexes: [
+    { properties: ['organization', 'status', 'dueAt'] },
+    { properties: ['assignee', 'status'] },
+    { properties: ['machine'] },
+    // The due engine's notice step reads only raised work nobody has been told about yet.
+    {
+      name: 'work_order_unnotified_index',
+      expression: 'create index "work_order_unnotified_index" on "work_order" ("organization_id", "number") where "notified_at" is null and "plan_id" is not null',
+    },
+  ],
   properties: {
     ...baseProperties,
     organization: () => p.manyToOne(Organization).ref(),
@@ -35,6 +44,8 @@ export const WorkOrder = defineEntity({
     dueAt: p.datetime().nullable(),
     overdue: p.boolean().default(false),
     escalatedAt: p.datetime().nullable(),
+    /** When the people responsible were told of raised work (the due engine's notice step); null: not yet. */
+    notifiedAt: p.datetime().nullable(),
     assignee: () => p.manyToOne(User).ref().nullable(),
     responsibleRole: p.enum([...ROLES]).nullable(),
     raisedBy: () => p.manyToOne(User).ref().nullable(),

@@ -270,6 +270,8 @@ export async function raiseWorkOrder(em: EntityManager, who: Principal, input: R
       safetyCritical: input.safetyCritical,
       checklist: [],
       plannedParts: [],
+      // Told below, in this transaction.
+      notifiedAt: new Date(),
     });
     recordAudit(tx, who, 'work-order.raised', { type: 'WorkOrder', id: wo.id }, { number, kind: 'corrective', title: input.title });
     const org = await tx.findOneOrFail(Organization, who.orgId);
