@@ -177,6 +177,42 @@ async function bareRead(orm: MikroORM, now: Date) {
   return n;
 }
 
+/**
+ * The first pass's writes alone, as plain SQL inside PostgreSQL (no client, no evaluation), rolled
+ * back: every plan's status rewritten, the raised work orders inserted again, the escalated ones
+ * marked, their audit rows. A lower bound for any pass that has to write that backlog.
+ */
+async function writeFloor(orm: MikroORM): Promise<void> {
+  const conn = orm.em.fork().getConnection();
+  const trx = await conn.begin();
+  try {
+    await conn.execute(`update maintenance_plan set status_reason = status_reason || ' ', evaluation = evaluation || '{}'::jsonb, status_hash = 'x'`, [], 'run', trx);
+    await conn.execute(
+      `insert into work_order (id, created_at, updated_at, organization_id, number, machine_id, plan_id, occurrence_key, kind, title, instructions,
+              reason, status, due_at, overdue, assignee_id, responsible_role, requires_lockout, safety_critical, checklist, planned_parts,
+              estimated_minutes, labour_minutes, notes, notified_at)
+       select gen_random_uuid(), now(), now(), organization_id, number + 10000000, machine_id, plan_id, occurrence_key || '#floor', kind, title,
+              instructions, reason, status, due_at, false, assignee_id, responsible_role, requires_lockout, safety_critical, checklist, planned_parts,
+              estimated_minutes, 0, '', now()
+         from work_order where plan_id is not null`,
+      [],
+      'run',
+      trx,
+    );
+    await conn.execute(`update work_order set overdue = true, escalated_at = now() where number > 10000000 and occurrence_key like '%#floor' and plan_id in (select id from maintenance_plan where status = 'overdue')`, [], 'run', trx);
+    await conn.execute(
+      `insert into audit_event (id, created_at, updated_at, organization_id, actor_id, action, entity_type, entity_id, details)
+       select gen_random_uuid(), now(), now(), organization_id, null, action, entity_type, entity_id, details from audit_event
+        where action in ('work-order.raised', 'work-order.escalated')`,
+      [],
+      'run',
+      trx,
+    );
+  } finally {
+    await conn.rollback(trx);
+  }
+}
+
 const phasePeak: Record<string, number> = {};
 async function timed<T>(label: string, fn: () => Promise<T>): Promise<{ seconds: number; result: T }> {
   const before = peakRss;
@@ -225,6 +261,8 @@ async function main() {
   };
   const first = process.env.BENCH_SKIP_FIRST ? { seconds: 0, result: new Map() } : await timed('first', () => runDueEngine(orm, nowDate));
 
+  const floor = process.env.BENCH_SKIP_FIRST ? { seconds: 0, result: undefined } : await timed('floor', () => writeFloor(orm));
+
   // Five minutes of shop activity: a new reading on 2 % of the meters.
   const r = prng(5);
   const fresh = seeded.meters.filter(() => r() < 0.02);
@@ -243,13 +281,15 @@ async function main() {
   const rows = [
     ['bare read of the rows a pass reads', bare.seconds, `${bare.result.toLocaleString('en-US')} plans + readings`],
     ['first pass (every plan evaluated, backlog raised)', first.seconds, JSON.stringify(sum(first.result))],
+    ["the first pass's writes alone, as SQL in PostgreSQL (rolled back)", floor.seconds, 'status of every plan, raised work, escalations, audit rows'],
     ['steady pass (5 min later, 2 % of meters read)', steady.seconds, JSON.stringify(sum(steady.result))],
     ['every plan re-evaluated, nothing new to raise', full.seconds, JSON.stringify(sum(full.result))],
   ] as const;
   console.log('\n| measurement | time | × bare read | counts |\n|---|---|---|---|');
   for (const [label, s, note] of rows) console.log(`| ${label} | ${s.toFixed(2)} s | ${(s / bare.seconds).toFixed(2)} | ${note} |`);
   console.log(`\npeak RSS per step: ${Object.entries(phasePeak).map(([k, v]) => `${k} ${mb(v)}`).join(', ')}`);
-  console.log(`peak memory: RSS ${mb(peakRss)}, heap ${mb(peakHeap)} (target: steady pass within 3× the bare read, under 500 MB)`);
+  console.log(`peak memory: RSS ${mb(peakRss)}, heap ${mb(peakHeap)}`);
+  console.log('target: the scheduled (steady) pass within 3× the bare read, every pass under 500 MB; see docs/performance.md for the other rows');
   await closeORM();
 }
 
