@@ -19,6 +19,7 @@ const EXPECTED: Record<string, Role[] | 'public'> = {
   'GET /users': ['admin'],
   'POST /users': ['admin'],
   'PATCH /users/:id': ['admin'],
+  'POST /users/:id/resend-invitation': ['admin'],
   'GET /audit-events': ['admin', 'safety'],
   'GET /organization': ['admin'],
   'PATCH /organization': ['admin'],

@@ -36,6 +36,42 @@ describe('user management', () => {
     await signIn(t.app, email, 'a long new passphrase');
   });
 
+  it('resends an invitation with a new link; the old link stops working; someone who accepted gets none', async () => {
+    const admin = await signIn(t.app, shop.users.admin.email);
+    const email = `late-reader@${shop.slug}.example`;
+    const created = await admin.agent.post('/api/users').set('X-CSRF-Token', admin.csrf).send({ name: 'Late Reader', email, role: 'technician' }).expect(201);
+    const first = linkToken((await t.em().findOneOrFail(OutboxMail, { toAddress: email, kind: 'invitation' })).textBody);
+
+    await admin.agent.post(`/api/users/${created.body.membershipId}/resend-invitation`).set('X-CSRF-Token', admin.csrf).expect(200);
+    const mails = await t.em().find(OutboxMail, { toAddress: email, kind: 'invitation' }, { orderBy: { createdAt: 'asc' } });
+    expect(mails).toHaveLength(2);
+    const second = linkToken(mails[1].textBody);
+    expect(second).toBeTruthy();
+    expect(second).not.toBe(first);
+
+    const anon = await anonymous(t.app);
+    const old = await anon.agent.post('/api/auth/redeem').set('X-CSRF-Token', anon.csrf).send({ token: first, password: 'a long new passphrase', confirm: 'a long new passphrase' }).expect(400);
+    expect(old.body.message).toMatch(/already used/);
+    await anon.agent.post('/api/auth/redeem').set('X-CSRF-Token', anon.csrf).send({ token: second, password: 'a long new passphrase', confirm: 'a long new passphrase' }).expect(200);
+
+    const again = await admin.agent.post(`/api/users/${created.body.membershipId}/resend-invitation`).set('X-CSRF-Token', admin.csrf).expect(409);
+    expect(again.body.message).toMatch(/already accepted/);
+    expect(await t.em().count(OutboxMail, { toAddress: email, kind: 'invitation' })).toBe(2);
+  });
+
+  it('withdrawing an invitation (deactivating before it is accepted) makes its link stop working', async () => {
+    const admin = await signIn(t.app, shop.users.admin.email);
+    const email = `changed-mind@${shop.slug}.example`;
+    const created = await admin.agent.post('/api/users').set('X-CSRF-Token', admin.csrf).send({ name: 'Changed Mind', email, role: 'operator' }).expect(201);
+    const token = linkToken((await t.em().findOneOrFail(OutboxMail, { toAddress: email, kind: 'invitation' })).textBody);
+    await admin.agent.patch(`/api/users/${created.body.membershipId}`).set('X-CSRF-Token', admin.csrf).send({ active: false }).expect(200);
+    const anon = await anonymous(t.app);
+    const res = await anon.agent.post('/api/auth/redeem').set('X-CSRF-Token', anon.csrf).send({ token, password: 'a long new passphrase', confirm: 'a long new passphrase' }).expect(400);
+    expect(res.body.message).toMatch(/already used/);
+    const resend = await admin.agent.post(`/api/users/${created.body.membershipId}/resend-invitation`).set('X-CSRF-Token', admin.csrf).expect(409);
+    expect(resend.body.message).toMatch(/deactivated/);
+  });
+
   it('refuses a duplicate invitation with the error on the e-mail field', async () => {
     const admin = await signIn(t.app, shop.users.admin.email);
     const res = await admin.agent.post('/api/users').set('X-CSRF-Token', admin.csrf).send({ name: 'Again', email: shop.users.operator.email, role: 'operator' }).expect(409);

@@ -70,7 +70,7 @@ export async function redeemToken(em: EntityManager, token: string, password: st
   return em.transactional(async (tx) => {
     const row = await tx.findOne(UserToken, { tokenHash: hashToken(token) }, noScope);
     if (!row) throw badRequest('This link is not valid. Ask for a new one.', [{ path: 'token', message: 'Link not valid' }]);
-    if (row.usedAt) throw badRequest('This link was already used. Ask for a new one.', [{ path: 'token', message: 'Link already used' }]);
+    if (row.usedAt) throw badRequest('This link was already used, or a newer one replaced it. Ask for a new one.', [{ path: 'token', message: 'Link already used' }]);
     if (row.expiresAt.getTime() < Date.now()) throw badRequest('This link has expired. Ask for a new one.', [{ path: 'token', message: 'Link expired' }]);
     const user = await tx.findOneOrFail(User, row.user.id, noScope);
     user.passwordHash = await hashPassword(password);

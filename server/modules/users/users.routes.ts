@@ -4,7 +4,7 @@ import { requestEm } from '../../db';
 import { requirePrincipal } from '../../http/principal';
 import { inviteUserSchema, listUsersQuery, updateMemberSchema } from '../../../shared/schemas/users';
 import { uuidParam } from '../../../shared/schemas/common';
-import { inviteMember, listMembers, updateMember } from './users.service';
+import { inviteMember, listMembers, resendInvitation, updateMember } from './users.service';
 import type { Config } from '../../config';
 
 export function registerUserRoutes(r: ApiRouter, config: Config) {
@@ -16,6 +16,10 @@ export function registerUserRoutes(r: ApiRouter, config: Config) {
   });
   route(r, 'patch', '/users/:id', { access: 'users.manage', params: uuidParam, body: updateMemberSchema }, async (req, res) => {
     await updateMember(requestEm() as EntityManager, requirePrincipal(req), res.locals.params.id, res.locals.body);
+    res.json({ ok: true });
+  });
+  route(r, 'post', '/users/:id/resend-invitation', { access: 'users.manage', params: uuidParam }, async (req, res) => {
+    await resendInvitation(requestEm() as EntityManager, requirePrincipal(req), res.locals.params.id, config.APP_URL);
     res.json({ ok: true });
   });
 }

@@ -1,5 +1,5 @@
 import type { EntityManager } from '@mikro-orm/postgresql';
-import { Membership, User } from './user.entity';
+import { Membership, User, UserToken } from './user.entity';
 import { Organization } from '../organizations/organization.entity';
 import type { Principal } from '../../http/principal';
 import type { InviteUserInput, ListUsersQuery, MemberRow, Page, UpdateMemberInput } from '../../../shared/schemas/users';
@@ -61,6 +61,20 @@ export async function listMembers(em: EntityManager, who: Principal, q: ListUser
   };
 }
 
+function queueInvitation(em: EntityManager, who: Principal, to: { email: string; name: string; role: MemberRow['role'] }, shopName: string, token: string, appUrl: string) {
+  queueMail(em, {
+    to: to.email,
+    kind: 'invitation',
+    organizationId: who.orgId,
+    subject: `You are invited to ${shopName} on Kerfbook`,
+    ...renderMail({
+      heading: `Join ${shopName} on Kerfbook`,
+      paragraphs: [`Hello ${to.name},`, `${who.name} invited you as ${ROLE_LABELS[to.role]}. Choose a password to start. The link works once, for seven days.`],
+      action: { label: 'Accept the invitation', url: `${appUrl}/accept-invite?token=${token}` },
+    }),
+  });
+}
+
 export async function inviteMember(em: EntityManager, who: Principal, input: InviteUserInput, appUrl: string): Promise<{ membershipId: string }> {
   return em.transactional(async (tx) => {
     let user = await tx.findOne(User, { email: input.email }, { filters: false });
@@ -73,17 +87,7 @@ export async function inviteMember(em: EntityManager, who: Principal, input: Inv
     const membership = tx.create(Membership, { user, organization: who.orgId, role: input.role });
     const org = await tx.findOneOrFail(Organization, who.orgId);
     const token = issueToken(tx, user.id, 'invite');
-    queueMail(tx, {
-      to: user.email,
-      kind: 'invitation',
-      organizationId: who.orgId,
-      subject: `You are invited to ${org.name} on Kerfbook`,
-      ...renderMail({
-        heading: `Join ${org.name} on Kerfbook`,
-        paragraphs: [`Hello ${input.name},`, `${who.name} invited you as ${ROLE_LABELS[input.role]}. Choose a password to start. The link works once, for seven days.`],
-        action: { label: 'Accept the invitation', url: `${appUrl}/accept-invite?token=${token}` },
-      }),
-    });
+    queueInvitation(tx, who, { email: user.email, name: input.name, role: input.role }, org.name, token, appUrl);
     recordAudit(tx, who, 'user.invited', { type: 'Membership', id: membership.id }, { email: input.email, role: input.role });
     return { membershipId: membership.id };
   });
@@ -104,6 +108,26 @@ export async function updateMember(em: EntityManager, who: Principal, membership
       const admins = await tx.count(Membership, { organization: who.orgId, role: 'admin', active: true, id: { $ne: m.id } }, { filters: false });
       if (admins === 0) throw conflict('The shop needs at least one active admin');
     }
+    // A deactivated member's open links (invitation, password reset) stop working with it.
+    if (before.active && !m.active) await tx.nativeUpdate(UserToken, { user: m.user.id, usedAt: null }, { usedAt: new Date() });
     recordAudit(tx, who, 'user.updated', { type: 'Membership', id: m.id }, { before, after: { role: m.role, active: m.active } });
+  });
+}
+
+/**
+ * Sends a fresh invitation link to someone who has not accepted yet (the mail got lost, or the
+ * seven days ran out). Earlier links stop working, so only the newest mail can be used.
+ */
+export async function resendInvitation(em: EntityManager, who: Principal, membershipId: string, appUrl: string): Promise<void> {
+  await em.transactional(async (tx) => {
+    const m = await tx.findOne(Membership, { id: membershipId, organization: who.orgId }, { filters: false, populate: ['user'] });
+    if (!m) throw notFound('Member');
+    const user = m.user.getEntity();
+    if (user.passwordHash) throw conflict(`${user.name} has already accepted the invitation and signs in with a password`);
+    if (!m.active) throw conflict(`${user.name}'s membership is deactivated; reactivate it first`);
+    await tx.nativeUpdate(UserToken, { user: user.id, purpose: 'invite', usedAt: null }, { usedAt: new Date() });
+    const org = await tx.findOneOrFail(Organization, who.orgId);
+    queueInvitation(tx, who, { email: user.email, name: user.name, role: m.role }, org.name, issueToken(tx, user.id, 'invite'), appUrl);
+    recordAudit(tx, who, 'user.invitation-resent', { type: 'Membership', id: m.id }, { email: user.email });
   });
 }

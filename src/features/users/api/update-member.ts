@@ -9,3 +9,10 @@ export function useUpdateMember() {
     onSuccess: () => qc.invalidateQueries({ queryKey: ['users'] }),
   });
 }
+
+/** A fresh invitation link for someone who has not accepted yet (earlier links stop working). */
+export function useResendInvitation() {
+  return useMutation({
+    mutationFn: (membershipId: string) => api<{ ok: true }>(`/users/${membershipId}/resend-invitation`, { method: 'POST' }),
+  });
+}

@@ -7,7 +7,7 @@ import { ConfirmDialog } from '../../../components/ui/confirm-dialog';
 import { ROLES, ROLE_LABELS, type Role } from '../../../../shared/permissions';
 import type { ListUsersQuery, MemberRow } from '../../../../shared/schemas/users';
 import { useUsers } from '../api/get-users';
-import { useUpdateMember } from '../api/update-member';
+import { useResendInvitation, useUpdateMember } from '../api/update-member';
 import { formatWhen } from '../../../lib/format';
 
 const col = createColumnHelper<MemberRow>();
@@ -23,6 +23,7 @@ export function UsersTable({ currentUserId, timeZone }: { currentUserId: string;
   const [pendingRole, setPendingRole] = useState<{ row: MemberRow; role: Role } | null>(null);
   const [message, setMessage] = useState<{ tone: 'danger' | 'safe'; text: string } | null>(null);
   const update = useUpdateMember();
+  const resend = useResendInvitation();
   const pageSize = 25;
   const sort = (sorting[0]?.id ?? 'name') as ListUsersQuery['sort'];
   const users = useUsers({ page, pageSize, q: q || undefined, role: role || undefined, status: status || undefined, sort, dir: sorting[0]?.desc ? 'desc' : 'asc' });
@@ -62,9 +63,29 @@ export function UsersTable({ currentUserId, timeZone }: { currentUserId: string;
         if (row.userId === currentUserId) return <span className="text-steel-500">You</span>;
         const active = row.status !== 'deactivated';
         return (
-          <Button variant={active ? 'secondary' : 'ghost'} onClick={() => setPending({ row, active: !active })}>
-            {active ? 'Deactivate' : 'Reactivate'}
-          </Button>
+          <div className="flex flex-wrap gap-2">
+            {row.status === 'invited' ? (
+              <Button
+                variant="secondary"
+                disabled={resend.isPending}
+                aria-label={`Resend the invitation to ${row.name}`}
+                onClick={async () => {
+                  setMessage(null);
+                  try {
+                    await resend.mutateAsync(row.membershipId);
+                    setMessage({ tone: 'safe', text: `A new invitation is on its way to ${row.email}; the earlier link no longer works.` });
+                  } catch (err) {
+                    setMessage({ tone: 'danger', text: err instanceof Error ? err.message : 'Could not resend the invitation' });
+                  }
+                }}
+              >
+                Resend invitation
+              </Button>
+            ) : null}
+            <Button variant={active ? 'secondary' : 'ghost'} onClick={() => setPending({ row, active: !active })}>
+              {active ? (row.status === 'invited' ? 'Withdraw invitation' : 'Deactivate') : 'Reactivate'}
+            </Button>
+          </div>
         );
       },
     }),
@@ -122,8 +143,8 @@ export function UsersTable({ currentUserId, timeZone }: { currentUserId: string;
       </ConfirmDialog>
       <ConfirmDialog
         open={pending !== null}
-        title={pending?.active ? `Reactivate ${pending?.row.name}?` : `Deactivate ${pending?.row.name}?`}
-        confirmLabel={pending?.active ? 'Reactivate' : 'Deactivate'}
+        title={pending?.active ? `Reactivate ${pending?.row.name}?` : pending?.row.status === 'invited' ? `Withdraw the invitation to ${pending?.row.name}?` : `Deactivate ${pending?.row.name}?`}
+        confirmLabel={pending?.active ? 'Reactivate' : pending?.row.status === 'invited' ? 'Withdraw invitation' : 'Deactivate'}
         tone={pending?.active ? 'primary' : 'danger'}
         busy={update.isPending}
         onCancel={() => setPending(null)}
@@ -139,8 +160,12 @@ export function UsersTable({ currentUserId, timeZone }: { currentUserId: string;
         }}
       >
         {pending?.active
-          ? 'They will be able to sign in again with their password.'
-          : 'They are signed out at once and cannot sign in. Their records and signatures stay in the log. You can reactivate them later.'}
+          ? pending.row.status === 'invited'
+            ? 'Then send them a new invitation: the earlier link stopped working when it was withdrawn.'
+            : 'They will be able to sign in again with their password.'
+          : pending?.row.status === 'invited'
+            ? 'The link in their invitation mail stops working. You can reactivate them and resend it later.'
+            : 'They are signed out at once and cannot sign in. Their records and signatures stay in the log. You can reactivate them later.'}
       </ConfirmDialog>
     </div>
   );
