@@ -2,11 +2,12 @@ import { useEffect, useId, useRef, type ReactNode } from 'react';
 import { Button } from './button';
 
 /** A native modal dialog: focus is trapped and Escape cancels. */
-export function ConfirmDialog({ open, title, children, confirmLabel, tone = 'primary', busy, onConfirm, onCancel }: {
+export function ConfirmDialog({ open, title, children, confirmLabel, cancelLabel = 'Cancel', tone = 'primary', busy, onConfirm, onCancel }: {
   open: boolean;
   title: string;
   children: ReactNode;
   confirmLabel: string;
+  cancelLabel?: string;
   tone?: 'primary' | 'danger';
   busy?: boolean;
   onConfirm: () => void;
@@ -26,7 +27,7 @@ export function ConfirmDialog({ open, title, children, confirmLabel, tone = 'pri
         <h2 id={titleId} className="text-xl font-bold">{title}</h2>
         <div className="text-steel-700">{children}</div>
         <div className="flex justify-end gap-2 pt-2">
-          <Button variant="secondary" onClick={onCancel}>Cancel</Button>
+          <Button variant="secondary" onClick={onCancel}>{cancelLabel}</Button>
           <Button variant={tone === 'danger' ? 'danger' : 'primary'} busy={busy} onClick={onConfirm}>{confirmLabel}</Button>
         </div>
       </div>

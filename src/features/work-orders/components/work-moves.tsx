@@ -5,6 +5,7 @@ import type { WorkMove, WorkOrderDetail } from '../../../../shared/schemas/work-
 import { Button } from '../../../components/ui/button';
 import { Notice } from '../../../components/ui/notice';
 import { ConfirmDialog } from '../../../components/ui/confirm-dialog';
+import { ApiError } from '../../../lib/api-client';
 import { useMoveWorkOrder } from '../api/move-work-order';
 import { inputClass } from './format';
 
@@ -16,12 +17,17 @@ export function WorkMoves({ wo }: { wo: WorkOrderDetail }) {
   const [error, setError] = useState<string | null>(null);
   const go = async (m: WorkMove, why?: string) => {
     setError(null);
+    // Same rule as the server (3+ characters), said before a round trip and without the field path.
+    if ((m === 'pause' || m === 'cancel') && (why ?? '').length < 3) {
+      setError(m === 'pause' ? 'Say what the work is waiting for (a few words), then pause it.' : 'Say why the work is called off (a few words), then call it off.');
+      return;
+    }
     try {
       await move.mutateAsync({ id: wo.id, move: m, ...(why ? { reason: why } : {}) });
       setAsking(null);
       setReason('');
     } catch (err) {
-      setError(err instanceof Error ? err.message : 'Could not change the state');
+      setError(err instanceof ApiError && err.fields[0] ? err.fields[0].message : err instanceof Error ? err.message : 'Could not change the state');
     }
   };
   const needsLockout = wo.requiresLockout && !wo.lockoutSessionId && !wo.lockoutReleasedAt;
@@ -32,9 +38,10 @@ export function WorkMoves({ wo }: { wo: WorkOrderDetail }) {
     <div className="flex flex-wrap items-center gap-2">
       {can('start') ? <Button onClick={() => (needsLockout ? setWarnLockout(true) : go('start'))} busy={move.isPending && move.variables?.move === 'start'}>Start work</Button> : null}
       {can('resume') ? <Button onClick={() => go('resume')} busy={move.isPending && move.variables?.move === 'resume'}>Resume</Button> : null}
-      {can('pause') ? <Button variant="secondary" onClick={() => setAsking('pause')}>Pause</Button> : null}
-      {can('cancel') ? <Button variant="secondary" onClick={() => setAsking('cancel')}>Call off</Button> : null}
-      {error ? <Notice tone="danger" role="alert">{error}</Notice> : null}
+      {can('pause') ? <Button variant="secondary" onClick={() => { setError(null); setAsking('pause'); }}>Pause</Button> : null}
+      {can('cancel') ? <Button variant="secondary" onClick={() => { setError(null); setAsking('cancel'); }}>Call off</Button> : null}
+      {/* While the reason dialog is open its own message says it; one alert, not two. */}
+      {error && asking === null ? <Notice tone="danger" role="alert">{error}</Notice> : null}
       <LockoutFirstDialog
         open={warnLockout}
         lockoutHref={paths.safetyLockoutNew.getHref({ machineId: wo.machine.id, workOrderId: wo.id })}
@@ -46,6 +53,8 @@ export function WorkMoves({ wo }: { wo: WorkOrderDetail }) {
         open={asking !== null}
         title={asking === 'pause' ? `Pause WO ${wo.number}?` : `Call off WO ${wo.number}?`}
         confirmLabel={asking === 'pause' ? 'Pause' : 'Call off'}
+        // “Cancel” beside “Call off” reads as the same thing; name what the button keeps.
+        cancelLabel={asking === 'pause' ? 'Keep working' : 'Keep the work'}
         tone={asking === 'cancel' ? 'danger' : 'primary'}
         busy={move.isPending}
         onCancel={() => { setAsking(null); setError(null); }}
@@ -54,9 +63,9 @@ export function WorkMoves({ wo }: { wo: WorkOrderDetail }) {
         <label htmlFor="move-reason" className="block text-sm font-semibold text-steel-800">
           {asking === 'pause' ? 'What is the work waiting for?' : 'Why is the work called off?'}
         </label>
-        <input id="move-reason" className={inputClass} value={reason} onChange={(e) => setReason(e.target.value)} />
+        <input id="move-reason" className={inputClass} value={reason} maxLength={500} required aria-invalid={error ? true : undefined} aria-describedby={error ? 'move-reason-error' : undefined} onChange={(e) => setReason(e.target.value)} />
         {asking === 'cancel' && wo.plan ? <p className="mt-2 text-sm">Calling off planned work skips this occurrence; the plan schedules the next one from today.</p> : null}
-        {error ? <p className="mt-2 text-sm font-semibold text-danger" role="alert">{error}</p> : null}
+        {error ? <p id="move-reason-error" className="mt-2 text-sm font-semibold text-danger" role="alert">{error}</p> : null}
       </ConfirmDialog>
     </div>
   );
