@@ -41,9 +41,10 @@ export function Attachments({ wo, timeZone, canUpload }: { wo: WorkOrderDetail; 
       </ul>
       {canUpload ? (
         <div className="flex flex-wrap items-end gap-3">
+          {/* The browser's own file button is tiny; styled to the same glove-sized target as the rest. */}
           <div>
             <label htmlFor="wo-file" className="block text-sm font-semibold">Photo or PDF (up to {ATTACHMENT_MAX_BYTES / 1024 / 1024} MB)</label>
-            <input id="wo-file" ref={input} type="file" accept="image/jpeg,image/png,image/webp,application/pdf" capture="environment" className="block min-h-touch text-base" />
+            <input id="wo-file" ref={input} type="file" accept="image/jpeg,image/png,image/webp,application/pdf" capture="environment" className="block min-h-touch w-full max-w-md text-base file:mr-3 file:min-h-touch file:cursor-pointer file:rounded file:border-2 file:border-steel-400 file:bg-white file:px-4 file:font-semibold file:text-steel-900" />
           </div>
           <Button variant="secondary" onClick={send} busy={upload.isPending}>Attach</Button>
         </div>
