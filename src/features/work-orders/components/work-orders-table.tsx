@@ -7,6 +7,7 @@ import { DUE_FILTERS, DUE_FILTER_LABELS, WORK_KIND_LABELS, WORK_STATES, WORK_STA
 import { ROLE_LABELS } from '../../../../shared/permissions';
 import { useWorkOrders } from '../api/get-work-orders';
 import { useWorkLookups } from '../api/get-work-lookups';
+import { usePlanOptions } from '../api/get-plan-options';
 import { DueBadge, LockoutBadge, StateBadge } from './work-badges';
 import { formatWhen, relative } from './format';
 
@@ -33,6 +34,7 @@ export function WorkOrdersTable({
 }) {
   const [params, setParams] = useSearchParams();
   const lookups = useWorkLookups();
+  const plans = usePlanOptions();
   const get = (k: string) => params.get(k) ?? '';
   const page = Number(params.get('page') ?? '1') || 1;
   const sort = (params.get('sort') ?? 'dueAt') as ListWorkOrdersQuery['sort'];
@@ -54,6 +56,7 @@ export function WorkOrdersTable({
     machineId: get('machineId') || undefined,
     due: (get('due') || undefined) as ListWorkOrdersQuery['due'],
     assignee: get('assignee') || undefined,
+    planId: get('planId') || undefined,
     q: get('q') || undefined,
     ...fixed,
   };
@@ -164,6 +167,18 @@ export function WorkOrdersTable({
                 {DUE_FILTERS.map((d) => <option key={d} value={d}>{DUE_FILTER_LABELS[d]}</option>)}
               </select>
             </label>
+            {fixed.planId ? null : (
+              <label className="flex flex-col text-sm font-semibold">
+                Plan
+                <select className={`${filterClass} max-w-64`} value={get('planId')} onChange={(e) => set('planId', e.target.value)}>
+                  <option value="">Any plan, or none</option>
+                  {(plans.data?.rows ?? [])
+                    // Narrowed to the chosen machine, but a chosen plan stays listed so the select never shows blank.
+                    .filter((p) => !get('machineId') || p.machine.id === get('machineId') || p.id === get('planId'))
+                    .map((p) => <option key={p.id} value={p.id}>{p.machine.code} · {p.title}{p.active ? '' : ' (retired)'}</option>)}
+                </select>
+              </label>
+            )}
             {fixed.assignee ? null : (
               <label className="flex flex-col text-sm font-semibold">
                 For
