@@ -13,6 +13,7 @@ import { Attachments } from '../../features/work-orders/components/attachments';
 import { WorkHistory } from '../../features/work-orders/components/work-history';
 import { ReplanForm } from '../../features/work-orders/components/replan-form';
 import { queryClient } from '../../lib/query-client';
+import { paths } from '../../config/paths';
 import { can } from '../../../shared/permissions';
 
 export const loader = ({ params }: LoaderFunctionArgs) => queryClient.ensureQueryData(getWorkOrderQueryOptions(params.id!)).catch(() => null);
@@ -29,6 +30,7 @@ export function Component() {
   const worker = can(me.role, 'work-orders.work');
   const open = wo.status !== 'done' && wo.status !== 'cancelled';
   const readOnly = !worker || !open;
+  const failed = wo.checklist.filter((c) => c.result === 'fail');
   return (
     <>
       <nav aria-label="Breadcrumb" className="text-sm">
@@ -52,6 +54,19 @@ export function Component() {
       ) : null}
       <Panel title="Checklist">
         <ChecklistForm workOrderId={wo.id} lines={wo.checklist} readOnly={readOnly} />
+        {failed.length && can(me.role, 'work-orders.raise') ? (
+          <div className="mt-4">
+            <Notice tone="danger" title={`${failed.length} line${failed.length === 1 ? '' : 's'} not OK`}>
+              <p>{failed.map((c) => c.label).join('; ')}. If the repair is not done in this work, raise follow-up work so it is tracked.</p>
+              <Link
+                className="mt-2 inline-flex min-h-touch items-center rounded border-2 border-danger bg-white px-4 font-semibold text-danger-ink"
+                to={paths.workOrders.getHref({ raise: '1', machineId: wo.machine.id, from: String(wo.number) })}
+              >
+                Raise follow-up work
+              </Link>
+            </Notice>
+          </div>
+        ) : null}
       </Panel>
       <div className="grid gap-4 lg:grid-cols-2">
         <Panel title="Parts, oil and grease">

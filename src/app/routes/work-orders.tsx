@@ -1,5 +1,5 @@
 import { useState } from 'react';
-import { useNavigate } from 'react-router-dom';
+import { useNavigate, useSearchParams } from 'react-router-dom';
 import { PageTitle } from '../../components/layout/app-shell';
 import { Panel } from '../../components/ui/notice';
 import { Button } from '../../components/ui/button';
@@ -15,7 +15,10 @@ export const loader = () => queryClient.ensureQueryData(getWorkLookupsQueryOptio
 export function Component() {
   const { data: me } = useMe();
   const navigate = useNavigate();
-  const [raising, setRaising] = useState(false);
+  // ?raise=1&machineId=…&from=1234 opens the form prefilled: follow-up work from a failed check.
+  const [params] = useSearchParams();
+  const [raising, setRaising] = useState(params.get('raise') === '1');
+  const from = params.get('from');
   if (!me) return null;
   return (
     <>
@@ -26,7 +29,12 @@ export function Component() {
       />
       {raising ? (
         <Panel title="Report a fault or job">
-          <RaiseWorkForm timeZone={me.organization.timeZone} onRaised={(r) => navigate(`/work-orders/${r.id}`)} />
+          <RaiseWorkForm
+            timeZone={me.organization.timeZone}
+            defaultMachineId={params.get('raise') === '1' ? (params.get('machineId') ?? undefined) : undefined}
+            defaultInstructions={from && /^\d+$/.test(from) ? `Follow-up to WO ${from}: ` : undefined}
+            onRaised={(r) => navigate(`/work-orders/${r.id}`)}
+          />
         </Panel>
       ) : null}
       <Panel>

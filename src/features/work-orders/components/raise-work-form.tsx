@@ -16,14 +16,14 @@ type In = z.input<typeof raiseWorkOrderInput>;
 type Out = z.output<typeof raiseWorkOrderInput>;
 
 /** Report a fault or ask for repair work by hand. */
-export function RaiseWorkForm({ onRaised, defaultMachineId, timeZone }: { onRaised: (r: { id: string; number: number }) => void; defaultMachineId?: string; timeZone: string }) {
+export function RaiseWorkForm({ onRaised, defaultMachineId, defaultInstructions, timeZone }: { onRaised: (r: { id: string; number: number }) => void; defaultMachineId?: string; defaultInstructions?: string; timeZone: string }) {
   const raise = useRaiseWorkOrder();
   const lookups = useWorkLookups();
   const [formError, setFormError] = useState<string | null>(null);
   const [dueLocal, setDueLocal] = useState('');
   const { register, handleSubmit, setError, formState } = useForm<In, unknown, Out>({
     resolver: zodResolver(raiseWorkOrderInput),
-    defaultValues: { machineId: defaultMachineId ?? '', title: '', instructions: '', responsibleRole: 'technician', requiresLockout: false, safetyCritical: false, assigneeId: null, dueAt: null },
+    defaultValues: { machineId: defaultMachineId ?? '', title: '', instructions: defaultInstructions ?? '', responsibleRole: 'technician', requiresLockout: false, safetyCritical: false, assigneeId: null, dueAt: null },
   });
   const onSubmit = handleSubmit(async (values) => {
     setFormError(null);
