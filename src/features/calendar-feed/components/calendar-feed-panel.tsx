@@ -1,12 +1,11 @@
-import { useState } from 'react';
+import { useRef, useState } from 'react';
 import { Button } from '../../../components/ui/button';
 import { Notice } from '../../../components/ui/notice';
 import { ConfirmDialog } from '../../../components/ui/confirm-dialog';
+import { useMe } from '../../auth/api/get-me';
 import { useCalendarFeed } from '../api/get-calendar-feed';
 import { useCreateCalendarFeed } from '../api/create-calendar-feed';
 import { useRevokeCalendarFeed } from '../api/revoke-calendar-feed';
-
-const fmt = new Intl.DateTimeFormat('en-GB', { dateStyle: 'medium', timeStyle: 'short' });
 
 /** A private iCalendar address of my due work, shown once when made; revoking it stops it at once. */
 export function CalendarFeedPanel() {
@@ -16,12 +15,40 @@ export function CalendarFeedPanel() {
   const [url, setUrl] = useState<string | null>(null);
   const [copied, setCopied] = useState(false);
   const [confirm, setConfirm] = useState<'new' | 'revoke' | null>(null);
+  const [error, setError] = useState<string | null>(null);
+  const [copyHint, setCopyHint] = useState<string | null>(null);
+  const addressRef = useRef<HTMLInputElement>(null);
+  const { data: me } = useMe();
+  if (q.isError) return <Notice tone="danger" role="alert">Could not load your calendar feed: {q.error.message}</Notice>;
   if (!q.data) return <p role="status">Loading…</p>;
+  // Site time, like every other time in Kerfbook, not the browser's zone.
+  const fmt = new Intl.DateTimeFormat('en-GB', { dateStyle: 'medium', timeStyle: 'short', timeZone: me?.organization.timeZone });
   const make = async () => {
     setConfirm(null);
-    const r = await create.mutateAsync();
-    setUrl(r.url);
-    setCopied(false);
+    setError(null);
+    try {
+      const r = await create.mutateAsync();
+      setUrl(r.url);
+      setCopied(false);
+      setCopyHint(null);
+    } catch (err) {
+      setError(`The calendar address was not made: ${err instanceof Error ? err.message : 'no answer from the server'}.`);
+    }
+  };
+  // The clipboard API exists only on HTTPS (or localhost); a shop server on plain HTTP has none, so
+  // say "Copied" only when it was, and otherwise leave the address selected for Ctrl+C / long-press.
+  const copy = async () => {
+    setCopyHint(null);
+    try {
+      if (!navigator.clipboard) throw new Error('no clipboard');
+      await navigator.clipboard.writeText(url ?? '');
+      setCopied(true);
+    } catch {
+      addressRef.current?.focus();
+      addressRef.current?.select();
+      setCopied(false);
+      setCopyHint('This browser did not allow copying here. The address is selected: copy it with Ctrl+C, or press and hold it.');
+    }
   };
   return (
     <div className="space-y-3">
@@ -29,9 +56,10 @@ export function CalendarFeedPanel() {
       {url ? (
         <Notice tone="mandatory" title="Your calendar address (shown only now)">
           <div className="flex flex-wrap items-center gap-2">
-            <input aria-label="Calendar address" readOnly value={url} className="min-h-touch w-full flex-1 rounded border border-steel-400 bg-white px-2 font-mono text-sm" onFocus={(e) => e.currentTarget.select()} />
-            <Button variant="secondary" onClick={async () => { await navigator.clipboard?.writeText(url).catch(() => undefined); setCopied(true); }}>{copied ? 'Copied' : 'Copy'}</Button>
+            <input ref={addressRef} aria-label="Calendar address" readOnly value={url} className="min-h-touch w-full flex-1 rounded border border-steel-400 bg-white px-2 font-mono text-sm" onFocus={(e) => e.currentTarget.select()} />
+            <Button variant="secondary" onClick={copy}>{copied ? 'Copied' : 'Copy'}</Button>
           </div>
+          {copyHint ? <p className="mt-2 text-sm font-semibold" role="status">{copyHint}</p> : null}
         </Notice>
       ) : null}
       {q.data.active ? (
@@ -42,6 +70,7 @@ export function CalendarFeedPanel() {
       ) : (
         <p>No calendar feed is on.</p>
       )}
+      {error ? <Notice tone="danger" role="alert">{error}</Notice> : null}
       <div className="flex flex-wrap gap-2">
         <Button onClick={() => (q.data.active ? setConfirm('new') : make())} busy={create.isPending}>{q.data.active ? 'Make a new address' : 'Turn on my calendar feed'}</Button>
         {q.data.active ? <Button variant="secondary" onClick={() => setConfirm('revoke')}>Turn off</Button> : null}
@@ -55,8 +84,13 @@ export function CalendarFeedPanel() {
         onCancel={() => setConfirm(null)}
         onConfirm={async () => {
           if (confirm === 'revoke') {
-            await revoke.mutateAsync();
-            setUrl(null);
+            setError(null);
+            try {
+              await revoke.mutateAsync();
+              setUrl(null);
+            } catch (err) {
+              setError(`The feed is still on: ${err instanceof Error ? err.message : 'no answer from the server'}.`);
+            }
             setConfirm(null);
           } else await make();
         }}
