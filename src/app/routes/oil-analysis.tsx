@@ -9,6 +9,7 @@ import { OilTargetForm } from '../../features/oil-analysis/components/oil-target
 import { OilTrendCharts } from '../../features/oil-analysis/components/oil-trend-charts';
 import { OilAnalysesTable } from '../../features/oil-analysis/components/oil-analyses-table';
 import { OilVerdict } from '../../features/oil-analysis/components/oil-badges';
+import { OilLatest } from '../../features/oil-analysis/components/oil-latest';
 import { queryClient } from '../../lib/query-client';
 import { can } from '../../../shared/permissions';
 
@@ -42,12 +43,7 @@ export function Component() {
       {unit ? (
         <>
           <Panel title={`${unit.code}: latest result`} actions={unit.latest ? <OilVerdict row={unit.latest} /> : null}>
-            {unit.latest ? (
-              <div className="space-y-2">
-                <p className="text-2xl font-bold">{unit.latest.isoCode} <span className="text-base font-normal text-steel-600">target {unit.target?.targetCode ?? 'not set'}</span></p>
-                {unit.latest.findings.map((f) => <Notice key={f.message} tone={f.severity}>{f.message}</Notice>)}
-              </div>
-            ) : <p className="text-steel-600">No results yet.</p>}
+            {unit.latest ? <OilLatest row={unit.latest} target={unit.target} timeZone={tz} /> : <p className="text-steel-600">No results yet.</p>}
           </Panel>
           <Panel title="Trends">
             <OilTrendCharts rows={trend.data?.rows ?? []} target={unit.target} timeZone={tz} />

@@ -23,6 +23,7 @@ export function OilAnalysesTable({ machineId, timeZone }: { machineId?: string; 
       col.accessor('targetCode', { header: 'Target', enableSorting: false, cell: (c) => c.getValue() ?? '—' }),
       col.accessor('viscosity40', { header: 'Viscosity 40 °C', enableSorting: false, cell: (c) => (c.getValue() === null ? '—' : `${c.getValue()} mm²/s`) }),
       col.accessor('waterPpm', { header: 'Water', enableSorting: false, cell: (c) => (c.getValue() === null ? '—' : `${c.getValue()} ppm`) }),
+      col.accessor('temperatureC', { header: 'Oil temp.', enableSorting: false, cell: (c) => (c.getValue() === null ? '—' : `${c.getValue()} °C`) }),
       col.display({ id: 'verdict', header: 'Verdict', cell: (c) => <OilVerdict row={c.row.original} /> }),
       col.display({
         id: 'work',
