@@ -179,6 +179,12 @@ export const applyStartersInput = z.object({
 });
 export type ApplyStartersInput = z.infer<typeof applyStartersInput>;
 
+/** Query of the starter list: with a machine, each starter says whether it fits that machine. */
+export const starterListQuery = z.object({ machineId: z.uuid({ message: 'Choose a machine' }).optional() });
+
+/** fits: every trigger finds its meter; partial: a meter trigger is left out, the rest still work; no: cannot be applied. */
+export type StarterFit = { status: 'fits' | 'partial' | 'no'; reason: string | null };
+
 export type StarterView = {
   key: string;
   title: string;
@@ -187,6 +193,8 @@ export type StarterView = {
   needsMeters: string[];
   requiresLockout: boolean;
   safetyCritical: boolean;
+  /** Only when the list was asked for one machine. */
+  fit?: StarterFit;
 };
 
 export type ApplyStartersResult = {

@@ -210,6 +210,11 @@ test('oil analysis, my notices and the starter plans', async ({ page }) => {
 
   await page.getByRole('link', { name: 'Plans', exact: true }).click();
   await page.getByLabel('Machine', { exact: true }).last().selectOption({ label: 'B1 · Press brake (Press brake)' });
-  await expect(page.getByRole('group', { name: 'Starter plans for B1' }).getByText('Function-test press brake guarding')).toBeVisible();
+  const starters = page.getByRole('group', { name: 'Starter plans for B1' });
+  await expect(starters.getByText('Function-test press brake guarding')).toBeVisible();
+  // Before anything is applied the admin sees what fits B1 and why the rest does not.
+  await expect(starters.getByRole('checkbox', { name: /Function-test press brake guarding/ })).toBeDisabled();
+  await expect(starters.getByText('Already applied to B1')).toBeVisible();
+  await expect(starters.getByText('Without its pump-hours (h) trigger: B1 has no such meter').first()).toBeVisible();
   await snap(page, 'starters');
 });

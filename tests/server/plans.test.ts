@@ -39,7 +39,7 @@ describe('starter plans', () => {
     const res = await post(admin, '/plan-starters/apply', { machineId: unit, starterKeys: ['hyd-filters', 'oil-too-hot', 'oil-off-target', 'clamps', 'nope'] }).expect(201);
     expect(res.body.created.map((c: { key: string }) => c.key)).toEqual(['hyd-filters', 'oil-too-hot', 'oil-off-target']);
     expect(res.body.skipped).toEqual([
-      { key: 'clamps', title: 'Inspect sheet clamps and clamp pads', reason: 'Meant for punch-plasma-cell; HU1 is a hydraulic-unit' },
+      { key: 'clamps', title: 'Inspect sheet clamps and clamp pads', reason: 'Meant for a punch/plasma cell; HU1 is a hydraulic unit' },
       { key: 'nope', title: 'nope', reason: 'No starter plan has this key' },
     ]);
     const plan = await get(admin, `/plans/${res.body.created[0].planId}`).expect(200);
@@ -57,6 +57,29 @@ describe('starter plans', () => {
     const again = await post(admin, '/plan-starters/apply', { machineId: unit, starterKeys: ['hyd-filters'] }).expect(201);
     expect(again.body.skipped[0].reason).toBe('Already applied to HU1');
     await post(op, '/plan-starters/apply', { machineId: unit, starterKeys: ['hyd-filters'] }).expect(403);
+  });
+
+  it('says before applying which starters fit a machine and why the others do not, and applying agrees', async () => {
+    const brake = await makeMachine(scoped(t.em(), a.orgId), a.orgId, 'PB1', 'press-brake');
+    const fitOf = async (key: string) => {
+      const res = await get(op, `/plan-starters?machineId=${brake}`).expect(200);
+      return res.body.starters.find((s: { key: string }) => s.key === key).fit;
+    };
+    expect(await fitOf('brake-guarding')).toEqual({ status: 'fits', reason: null });
+    // No pump-hours meter on the brake: the oil change keeps only its calendar trigger.
+    expect(await fitOf('hyd-oil-change')).toEqual({ status: 'partial', reason: 'Without its pump-hours (h) trigger: PB1 has no such meter' });
+    expect(await fitOf('clamps')).toEqual({ status: 'no', reason: 'Meant for a punch/plasma cell; PB1 is a press brake' });
+    // The list without a machine carries no fit.
+    const plain = await get(op, '/plan-starters').expect(200);
+    expect(plain.body.starters[0].fit).toBeUndefined();
+
+    const res = await post(admin, '/plan-starters/apply', { machineId: brake, starterKeys: ['brake-guarding', 'hyd-oil-change'] }).expect(201);
+    expect(res.body.created.map((c: { key: string }) => c.key)).toEqual(['brake-guarding', 'hyd-oil-change']);
+    expect(res.body.skipped).toEqual([{ key: 'hyd-oil-change', title: 'Renew hydraulic oil', reason: 'Created without its pump-hours (h) trigger: PB1 has no such meter' }]);
+    expect(await fitOf('brake-guarding')).toEqual({ status: 'no', reason: 'Already applied to PB1' });
+
+    await get(op, '/plan-starters?machineId=00000000-0000-4000-8000-000000000000').expect(404);
+    await get(op, '/plan-starters?machineId=nope').expect(400);
   });
 });
 

@@ -3,8 +3,8 @@ import { route, type ApiRouter } from '../../http/route';
 import { requestEm } from '../../db';
 import { requirePrincipal } from '../../http/principal';
 import { uuidParam } from '../../../shared/schemas/common';
-import { applyStartersInput, listPlansQuery, planInput } from '../../../shared/schemas/plans';
-import { applyStarters, createPlan, getPlan, listPlans, listStarters, planLookups, updatePlan } from './plans.service';
+import { applyStartersInput, listPlansQuery, planInput, starterListQuery } from '../../../shared/schemas/plans';
+import { applyStarters, createPlan, getPlan, listPlans, listStarters, planLookups, starterFits, updatePlan } from './plans.service';
 
 export function registerPlanRoutes(r: ApiRouter) {
   const em = () => requestEm() as EntityManager;
@@ -24,8 +24,9 @@ export function registerPlanRoutes(r: ApiRouter) {
     await updatePlan(em(), requirePrincipal(req), res.locals.params.id, res.locals.body);
     res.json({ ok: true });
   });
-  route(r, 'get', '/plan-starters', { access: 'plans.read' }, (_req, res) => {
-    res.json({ starters: listStarters() });
+  route(r, 'get', '/plan-starters', { access: 'plans.read', query: starterListQuery }, async (_req, res) => {
+    const { machineId } = res.locals.query;
+    res.json({ starters: machineId ? await starterFits(em(), machineId) : listStarters() });
   });
   route(r, 'post', '/plan-starters/apply', { access: 'plans.manage', body: applyStartersInput }, async (req, res) => {
     res.status(201).json(await applyStarters(em(), requirePrincipal(req), res.locals.body));

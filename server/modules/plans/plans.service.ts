@@ -13,6 +13,7 @@ import { buildRecurrenceText } from '../../../shared/domain/recurrence';
 import { summarizeTrigger, summarizeTriggers } from '../../../shared/domain/plan-summary';
 import { STARTER_PLANS, findStarter, type StarterMeter, type StarterPlan } from '../../../shared/domain/starter-plans';
 import { ROLE_LABELS } from '../../../shared/permissions';
+import { MACHINE_KIND_LABELS, type MachineKind } from '../../../shared/schemas/machines';
 import type { FieldErrors } from '../../../shared/schemas/common';
 import type { Page } from '../../../shared/schemas/users';
 import type {
@@ -24,6 +25,7 @@ import type {
   PlanInput,
   PlanLookups,
   PlanRow,
+  StarterFit,
   StarterView,
   StoredTrigger,
   TriggerInput,
@@ -363,6 +365,61 @@ function pickMeter(meters: MeterInfo[], want: StarterMeter, condition: boolean):
   return byUnit.length === 1 ? byUnit[0] : null;
 }
 
+const kindLabel = (k: string) => MACHINE_KIND_LABELS[k as MachineKind]?.toLowerCase() ?? k;
+const article = (w: string) => (/^[aeiou]/i.test(w) ? 'an' : 'a');
+
+type StarterPick =
+  | { ok: false; reason: string }
+  /** `missing`: meters the machine lacks, for triggers that are left out (a calendar trigger remains). */
+  | { ok: true; triggers: TriggerInput[]; missing: string[] };
+
+/** One place decides whether a starter fits a machine, so the preview and the apply agree. */
+function pickStarter(s: StarterPlan, machine: IMachine, meters: MeterInfo[], applied: Set<string | null | undefined>, today: string | null): StarterPick {
+  if (!s.machineKinds.includes(machine.kind)) {
+    const meant = s.machineKinds.map(kindLabel);
+    return { ok: false, reason: `Meant for ${article(meant[0])} ${meant.join(' or ')}; ${machine.code} is ${article(kindLabel(machine.kind))} ${kindLabel(machine.kind)}` };
+  }
+  if (applied.has(s.key)) return { ok: false, reason: `Already applied to ${machine.code}` };
+  const triggers: TriggerInput[] = [];
+  const missing: string[] = [];
+  for (const t of s.triggers) {
+    if (t.kind === 'meter' || t.kind === 'condition') {
+      const m = pickMeter(meters, t.meter, t.kind === 'condition');
+      if (!m) {
+        missing.push(`${t.meter.codes[0]} (${t.meter.unit})`);
+        continue;
+      }
+      triggers.push(t.kind === 'meter' ? { kind: 'meter', meterId: m.id, every: t.every } : { kind: 'condition', meterId: m.id, above: t.above, below: t.below });
+    } else if (t.kind === 'calendar-fixed') {
+      triggers.push({ kind: 'calendar-fixed', start: `${today}T${t.time}`, rrule: t.rrule });
+    } else {
+      triggers.push(t);
+    }
+  }
+  // A starter whose only triggers are missing meters cannot work; one with a calendar fallback still can.
+  if (triggers.length === 0) return { ok: false, reason: `${machine.code} has no meter for ${missing.join(', ')}` };
+  return { ok: true, triggers, missing };
+}
+
+/** Every starter with whether it fits this machine and why not, before anything is applied. */
+export async function starterFits(em: EntityManager, machineId: string): Promise<StarterView[]> {
+  const machine = await findMachine(em, machineId);
+  const meters = await metersOf(em, await relatedMachineIds(em, machine));
+  const existing = await em.find(MaintenancePlan, { machine: machine.id, active: true, starterKey: { $ne: null } }, { fields: ['starterKey'] });
+  const applied = new Set(existing.map((p) => p.starterKey));
+  const views = listStarters();
+  return STARTER_PLANS.map((s, i) => {
+    // The date only shapes a calendar trigger's start, which the preview does not show.
+    const pick = pickStarter(s, machine, meters, applied, '2000-01-01');
+    const fit: StarterFit = !pick.ok
+      ? { status: 'no', reason: pick.reason }
+      : pick.missing.length
+        ? { status: 'partial', reason: `Without its ${pick.missing.join(', ')} trigger: ${machine.code} has no such meter` }
+        : { status: 'fits', reason: null };
+    return { ...views[i], fit };
+  });
+}
+
 /**
  * Turns starters into plans on one machine, in one transaction; explains every starter it skips.
  * Fixed calendars start today (site time) unless `startDate` (YYYY-MM-DD) says otherwise.
@@ -382,35 +439,12 @@ export async function applyStarters(em: EntityManager, who: Principal, input: Ap
         result.skipped.push({ key, title: key, reason: 'No starter plan has this key' });
         continue;
       }
-      if (!s.machineKinds.includes(machine.kind)) {
-        result.skipped.push({ key, title: s.title, reason: `Meant for ${s.machineKinds.join(', ')}; ${machine.code} is a ${machine.kind}` });
+      const pick = pickStarter(s, machine, meters, have, today);
+      if (!pick.ok) {
+        result.skipped.push({ key, title: s.title, reason: pick.reason });
         continue;
       }
-      if (have.has(key)) {
-        result.skipped.push({ key, title: s.title, reason: `Already applied to ${machine.code}` });
-        continue;
-      }
-      const triggers: TriggerInput[] = [];
-      const missing: string[] = [];
-      for (const t of s.triggers) {
-        if (t.kind === 'meter' || t.kind === 'condition') {
-          const m = pickMeter(meters, t.meter, t.kind === 'condition');
-          if (!m) {
-            missing.push(`${t.meter.codes[0]} (${t.meter.unit})`);
-            continue;
-          }
-          triggers.push(t.kind === 'meter' ? { kind: 'meter', meterId: m.id, every: t.every } : { kind: 'condition', meterId: m.id, above: t.above, below: t.below });
-        } else if (t.kind === 'calendar-fixed') {
-          triggers.push({ kind: 'calendar-fixed', start: `${today}T${t.time}`, rrule: t.rrule });
-        } else {
-          triggers.push(t);
-        }
-      }
-      // A starter whose only triggers are missing meters cannot work; one with a calendar fallback still can.
-      if (triggers.length === 0) {
-        result.skipped.push({ key, title: s.title, reason: `${machine.code} has no meter for ${missing.join(', ')}` });
-        continue;
-      }
+      const { triggers, missing } = pick;
       const parts: PlanInput['parts'] = [];
       for (const p of s.parts) {
         const part = await tx.findOne(PartType, { category: p.category, active: true }, { orderBy: { partNumber: 'asc' } });

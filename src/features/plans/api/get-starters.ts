@@ -2,8 +2,11 @@ import { queryOptions, useQuery } from '@tanstack/react-query';
 import { api } from '../../../lib/api-client';
 import type { StarterView } from '../../../../shared/schemas/plans';
 
-export const getStarters = () => api<{ starters: StarterView[] }>('/plan-starters');
+/** With a machine, each starter says whether it fits that machine (meters found, already applied …). */
+export const getStarters = (machineId?: string) => api<{ starters: StarterView[] }>('/plan-starters', { query: machineId ? { machineId } : {} });
 
-export const getStartersQueryOptions = () => queryOptions({ queryKey: ['plans', 'starters'], queryFn: getStarters, staleTime: Infinity });
+// Under ['plans'] so that applying starters (which invalidates ['plans']) refreshes "already applied".
+export const getStartersQueryOptions = (machineId?: string) =>
+  queryOptions({ queryKey: ['plans', 'starters', machineId ?? 'all'], queryFn: () => getStarters(machineId), staleTime: machineId ? 30_000 : Infinity });
 
-export const useStarters = () => useQuery(getStartersQueryOptions());
+export const useStarters = (machineId?: string) => useQuery({ ...getStartersQueryOptions(machineId), enabled: Boolean(machineId) });
