@@ -55,7 +55,7 @@ describe('machine photos', () => {
 
   it('refuses a photo larger than 8 MB and writes nothing', async () => {
     const before = await photoCount(a.orgId);
-    const res = await upload(tech, machine, Buffer.concat([PNG, Buffer.alloc(8 * 1024 * 1024)]), 'huge.png').expect(400);
+    const res = await upload(tech, machine, Buffer.concat([PNG, Buffer.alloc(8 * 1024 * 1024)]), 'huge.png').expect(413);
     expect(res.body.message).toMatch(/larger than 8 MB/);
     expect(await photoCount(a.orgId)).toBe(before);
   });

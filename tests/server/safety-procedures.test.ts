@@ -123,7 +123,7 @@ describe('energy-control procedures', () => {
     await put(shop.s.safety, `/safety/procedures/${id}/draft`, cellProcedure('Photo procedure')).expect(200);
     res = await upload(Buffer.from('just some text, not an image'), 'fake.png').expect(400);
     expect(res.body.fields).toEqual([{ path: 'photo', message: 'Only JPEG, PNG or WebP photos are accepted (this file is not an image)' }]);
-    res = await upload(Buffer.concat([png(), Buffer.alloc(5 * 1024 * 1024)]), 'huge.png').expect(400);
+    res = await upload(Buffer.concat([png(), Buffer.alloc(5 * 1024 * 1024)]), 'huge.png').expect(413);
     expect(res.body.fields[0]).toEqual({ path: 'photo', message: 'The photo is larger than 5 MB' });
     res = await upload(png(), 'q0.png', 'X9').expect(400);
     expect(res.body.fields[0].path).toBe('sourceKey');

@@ -1,10 +1,10 @@
-import multer from 'multer';
 import { z } from 'zod';
 import type { RequestHandler } from 'express';
 import { route, type ApiRouter } from '../../http/route';
 import { requestEm } from '../../db';
 import { requirePrincipal } from '../../http/principal';
-import { AppError, badRequest } from '../../http/errors';
+import { badRequest } from '../../http/errors';
+import { singleFileUpload } from '../../http/upload';
 import { paging, uuidParam } from '../../../shared/schemas/common';
 import { machineCodeParam } from '../../../shared/schemas/machines';
 import { PHOTO_MAX_BYTES, consumableChangeSchema, consumableSettingsSchema, cutCheckSchema, lifeStatsQuery } from '../../../shared/schemas/consumables';
@@ -14,7 +14,7 @@ import { Machine } from '../machines/machine.entity';
 import { subtreeIds } from '../machines/machines.service';
 import { getConsumableSettings, getPhoto, listChanges, logChange, stationView, updateConsumableSettings } from './consumables.service';
 
-const upload = multer({ storage: multer.memoryStorage(), limits: { fileSize: PHOTO_MAX_BYTES, files: 1, fields: 5 } });
+const upload = singleFileUpload('photo', PHOTO_MAX_BYTES, 'photo');
 
 /**
  * A change may come as JSON, or as multipart with the fields in a JSON `data` part and an
@@ -22,11 +22,7 @@ const upload = multer({ storage: multer.memoryStorage(), limits: { fileSize: PHO
  */
 const receiveChange: RequestHandler = (req, res, next) => {
   if (!req.is('multipart/form-data')) return next();
-  upload.single('photo')(req, res, (err: unknown) => {
-    if (err instanceof multer.MulterError) {
-      if (err.code === 'LIMIT_FILE_SIZE') return next(new AppError(413, 'too_large', `The photo is larger than ${PHOTO_MAX_BYTES / 1024 / 1024} MB`, [{ path: 'photo', message: 'Photo larger than 8 MB' }]));
-      return next(badRequest(`Upload refused: ${err.message}`, [{ path: 'photo', message: err.message }]));
-    }
+  upload(req, res, (err?: unknown) => {
     if (err) return next(err);
     try {
       req.body = JSON.parse(String(req.body?.data ?? '{}'));

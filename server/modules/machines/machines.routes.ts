@@ -1,25 +1,14 @@
-import multer from 'multer';
 import { z } from 'zod';
-import type { RequestHandler } from 'express';
-import { fieldError } from '../../http/errors';
 import { route, type ApiRouter } from '../../http/route';
 import { requestEm } from '../../db';
 import { requirePrincipal } from '../../http/principal';
+import { singleFileUpload } from '../../http/upload';
 import { uuidParam } from '../../../shared/schemas/common';
 import { machineInputSchema, machinePhotoFields, machinePhotoParams, machineUpdateSchema } from '../../../shared/schemas/machines';
 import { MACHINE_PHOTO_MAX_BYTES, addMachinePhoto, deleteMachinePhoto, getMachinePhoto, listMachinePhotos } from './machine-photos.service';
 import { createMachine, getMachine, listMachines, updateMachine } from './machines.service';
 
-/** Multipart photo upload (as for procedure photos); multer's own errors become field errors on `photo`. */
-const upload: RequestHandler = (req, res, next) => {
-  multer({ storage: multer.memoryStorage(), limits: { fileSize: MACHINE_PHOTO_MAX_BYTES, files: 1, fields: 5 } }).single('photo')(req, res, (err: unknown) => {
-    if (!err) return next();
-    if (err instanceof multer.MulterError) {
-      return next(fieldError('photo', err.code === 'LIMIT_FILE_SIZE' ? `The photo is larger than ${MACHINE_PHOTO_MAX_BYTES / 1024 / 1024} MB` : `Upload refused: ${err.message}`));
-    }
-    next(err);
-  });
-};
+const upload = singleFileUpload('photo', MACHINE_PHOTO_MAX_BYTES, 'photo');
 
 const listQuery = z.object({ includeInactive: z.enum(['true', 'false']).optional().transform((v) => v === 'true') });
 

@@ -1,11 +1,11 @@
 import type { RequestHandler } from 'express';
 import type { EntityManager } from '@mikro-orm/postgresql';
-import multer from 'multer';
 import { z } from 'zod';
 import { route, type ApiRouter } from '../../http/route';
 import { requestEm } from '../../db';
 import { requirePrincipal } from '../../http/principal';
-import { AppError, fieldError } from '../../http/errors';
+import { AppError } from '../../http/errors';
+import { singleFileUpload } from '../../http/upload';
 import { registerJobStep } from '../../jobs/scheduler';
 import type { Config } from '../../config';
 import { uuidParam } from '../../../shared/schemas/common';
@@ -37,16 +37,7 @@ import { complianceQuery, timelineQuery } from '../../../shared/schemas/safety-a
 
 const em = () => requestEm() as EntityManager;
 
-/** Multipart photo upload; multer's own errors become field errors on `photo`. */
-const upload: RequestHandler = (req, res, next) => {
-  multer({ storage: multer.memoryStorage(), limits: { fileSize: PHOTO_MAX_BYTES, files: 1, fields: 5 } }).single('photo')(req, res, (err: unknown) => {
-    if (!err) return next();
-    if (err instanceof multer.MulterError) {
-      return next(fieldError('photo', err.code === 'LIMIT_FILE_SIZE' ? `The photo is larger than ${PHOTO_MAX_BYTES / 1024 / 1024} MB` : `Upload refused: ${err.message}`));
-    }
-    next(err);
-  });
-};
+const upload = singleFileUpload('photo', PHOTO_MAX_BYTES, 'photo');
 
 /** Every signing route: the password is checked first, so a wrong one writes nothing. */
 const signed =

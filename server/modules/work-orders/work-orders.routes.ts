@@ -1,11 +1,10 @@
 import type { EntityManager } from '@mikro-orm/postgresql';
-import type { RequestHandler } from 'express';
-import multer from 'multer';
 import { fileTypeFromBuffer } from 'file-type';
 import { route, type ApiRouter } from '../../http/route';
 import { requestEm } from '../../db';
 import { requirePrincipal } from '../../http/principal';
-import { AppError, badRequest } from '../../http/errors';
+import { badRequest } from '../../http/errors';
+import { singleFileUpload } from '../../http/upload';
 import { uuidParam } from '../../../shared/schemas/common';
 import {
   ATTACHMENT_MAX_BYTES,
@@ -42,16 +41,7 @@ import type { Config } from '../../config';
 
 const attachmentParam = z.object({ id: z.uuid({ message: 'Not a valid id' }), attachmentId: z.uuid({ message: 'Not a valid id' }) });
 
-/** One file per upload, held in memory up to the cap; multer's own errors become clear 4xx answers. */
-const upload: RequestHandler = (req, res, next) => {
-  multer({ storage: multer.memoryStorage(), limits: { fileSize: ATTACHMENT_MAX_BYTES, files: 1, fields: 5 } }).single('file')(req, res, (err: unknown) => {
-    if (!err) return next();
-    if (err instanceof multer.MulterError && err.code === 'LIMIT_FILE_SIZE') {
-      return next(new AppError(413, 'too_large', `The file is larger than ${ATTACHMENT_MAX_BYTES / 1024 / 1024} MB`, [{ path: 'file', message: 'File too large' }]));
-    }
-    next(badRequest(`Upload failed: ${err instanceof Error ? err.message : String(err)}`, [{ path: 'file', message: 'Upload failed' }]));
-  });
-};
+const upload = singleFileUpload('file', ATTACHMENT_MAX_BYTES);
 
 export function registerWorkOrderRoutes(r: ApiRouter, config: Config) {
   const em = () => requestEm() as EntityManager;

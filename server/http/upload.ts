@@ -1,0 +1,23 @@
+import type { RequestHandler } from 'express';
+import multer from 'multer';
+import { AppError, badRequest } from './errors';
+
+/**
+ * One file from a multipart form, held in memory up to `maxBytes` (callers check its content).
+ * Multer's refusals become answers that name the field: 413 with the cap for a file too large,
+ * 400 otherwise.
+ */
+export function singleFileUpload(field: string, maxBytes: number, noun = 'file'): RequestHandler {
+  const parse = multer({ storage: multer.memoryStorage(), limits: { fileSize: maxBytes, files: 1, fields: 5 } }).single(field);
+  return (req, res, next) => {
+    parse(req, res, (err: unknown) => {
+      if (!err) return next();
+      if (err instanceof multer.MulterError && err.code === 'LIMIT_FILE_SIZE') {
+        const message = `The ${noun} is larger than ${maxBytes / 1024 / 1024} MB`;
+        return next(new AppError(413, 'too_large', message, [{ path: field, message }]));
+      }
+      if (err instanceof multer.MulterError) return next(badRequest(`Upload refused: ${err.message}`, [{ path: field, message: err.message }]));
+      next(err);
+    });
+  };
+}
