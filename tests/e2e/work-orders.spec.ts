@@ -187,6 +187,36 @@ test('work orders list filters and the tablet detail view', async ({ browser }) 
   await phone.close();
 });
 
+test('calling off needs a reason, and a failed check leads to follow-up work on the same machine', async ({ page }) => {
+  await signIn(page, 'tech@alder-row.example');
+  await page.goto('/work-orders?q=press%20brake%20guarding');
+  await page.getByRole('table', { name: 'Work orders' }).getByRole('link', { name: 'Function-test press brake guarding' }).first().click();
+  const heading = page.getByRole('heading', { name: /^WO \d+ · Function-test press brake guarding/ });
+  await expect(heading).toBeVisible();
+  const number = (await heading.textContent())!.match(/^WO (\d+)/)![1];
+
+  // No reason: nothing is sent, the dialog says what to write, and the work stays as it was.
+  await page.getByRole('button', { name: 'Call off' }).click();
+  const dialog = page.getByRole('dialog', { name: `Call off WO ${number}?` });
+  await dialog.getByRole('button', { name: 'Call off' }).click();
+  await expect(dialog.getByRole('alert')).toHaveText('Say why the work is called off (a few words), then call it off.');
+  await dialog.getByRole('button', { name: 'Keep the work' }).click();
+  await expect(dialog).toBeHidden();
+  await expect(page.getByText('Waiting', { exact: true }).first()).toBeVisible();
+
+  await page.getByRole('radiogroup', { name: /^Answer for Guard stops the beam/ }).getByText('Not OK', { exact: true }).click();
+  await expect(page.getByText('Saved. 2 lines still to answer.')).toBeVisible();
+  await page.getByRole('link', { name: 'Raise follow-up work' }).click();
+  const form = page.getByRole('form', { name: 'Report work' });
+  await expect(form.getByLabel('Machine')).toHaveValue(/.+/);
+  await expect(form.getByLabel('Machine').locator('option:checked')).toHaveText('B1 · Press brake');
+  await expect(form.getByLabel('Details')).toHaveValue(`Follow-up to WO ${number}: `);
+  await form.getByLabel('What is wrong or needed').fill('Light curtain misses the test piece at the left end');
+  await form.getByRole('button', { name: 'Raise work order' }).click();
+  await expect(page.getByRole('heading', { name: /^WO \d+ · Light curtain misses the test piece/ })).toBeVisible();
+  await expect(page.getByText('B1 Press brake')).toBeVisible();
+});
+
 test('oil analysis, my notices and the starter plans', async ({ page }) => {
   await signIn(page, 'admin@alder-row.example');
   await page.getByRole('link', { name: 'Oil analysis', exact: true }).click();
