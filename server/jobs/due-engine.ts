@@ -11,8 +11,6 @@
 import { createHash, randomUUID } from 'node:crypto';
 import type { EntityManager, MikroORM } from '@mikro-orm/postgresql';
 import { evaluatePlan, type Evaluation } from '../../shared/domain/due';
-import type { ChecklistTemplateItem } from '../../shared/schemas/plans';
-import type { ChecklistLine } from '../../shared/schemas/work-orders';
 import type { Role } from '../../shared/permissions';
 import { registerJobStep } from './scheduler';
 import {
@@ -221,19 +219,6 @@ export async function allocateNumbers(em: EntityManager, orgId: string, n: numbe
   return Number(row.last_number) - n + 1;
 }
 
-type PlanDetail = {
-  id: string;
-  title: string;
-  instructions: string;
-  checklist: ChecklistTemplateItem[];
-  parts: { partTypeId: string; quantity: number }[];
-  estimated_minutes: number | null;
-  responsible_role: Role | null;
-  responsible_user_id: string | null;
-  requires_lockout: boolean;
-  safety_critical: boolean;
-  machine_id: string;
-};
 
 /** Raises work for one shop's due occurrences, in one transaction per batch. */
 async function raiseWork(orm: MikroORM, run: Run, orgId: string, items: Evaluated[], now: Date) {
@@ -253,58 +238,41 @@ async function raiseWork(orm: MikroORM, run: Run, orgId: string, items: Evaluate
           return l && l.active && msOf(l.last_done_at) === msOf(row.last_done_at) && l.last_raised_key === row.last_raised_key;
         });
         if (ok.length === 0) return;
-        const details: PlanDetail[] = await tx.execute(
-          `select p.id, p.title, p.instructions, p.checklist, p.parts, p.estimated_minutes, p.responsible_role, p.responsible_user_id,
-                  p.requires_lockout, p.safety_critical, p.machine_id
-             from maintenance_plan p where p.id = any(?::uuid[])`,
-          [uuidArray(ok.map((o) => o.row.id))],
-        );
-        const detailOf = new Map(details.map((d) => [d.id, d]));
         const first = await allocateNumbers(tx, orgId, ok.length);
         const records = ok.map(({ row, ev, human }, k) => {
-          const d = detailOf.get(row.id)!;
           const decider = row.triggers[ev.decidedBy];
-          const checklist: ChecklistLine[] = (d.checklist ?? []).map((c) => ({ ...c, result: null, value: null, note: null }));
           return {
             id: randomUUID(),
-            organization_id: orgId,
             number: first + k,
-            machine_id: d.machine_id,
             plan_id: row.id,
-            occurrence_key: ev.occurrenceKey,
+            occurrence_key: ev.occurrenceKey as string,
             kind: decider && (decider.kind === 'condition' || decider.kind === 'oil-analysis') ? 'condition' : 'scheduled',
-            title: d.title,
-            instructions: d.instructions ?? '',
             reason: human(ev.reason),
             due_at: occurrenceDueAt(ev, now).toISOString(),
-            overdue: false,
-            assignee_id: d.responsible_user_id,
-            responsible_role: d.responsible_role,
-            requires_lockout: d.requires_lockout,
-            safety_critical: d.safety_critical,
-            checklist,
-            planned_parts: d.parts ?? [],
-            estimated_minutes: d.estimated_minutes,
             // The notice step tells people after the raising (one mail per person per pass); a replay without notices marks it told.
             notified_at: run.notify ? null : now.toISOString(),
-            _changesAt: (ev.changesAt ?? NO_TIME_BOUNDARY).toISOString(),
+            recheck_at: (ev.changesAt ?? NO_TIME_BOUNDARY).toISOString(),
           };
         });
+        // What the work copies from its plan (title, instructions, checklist with empty results, parts,
+        // responsibility) is copied inside PostgreSQL, from the row locked above.
         const inserted = await executeBound<{ id: string; plan_id: string }>(
           tx,
           `insert into work_order (id, created_at, updated_at, organization_id, number, machine_id, plan_id, occurrence_key, kind, title,
                   instructions, reason, status, due_at, overdue, assignee_id, responsible_role, requires_lockout, safety_critical,
                   checklist, planned_parts, estimated_minutes, labour_minutes, notes, notified_at)
-           select x.id, now(), now(), x.organization_id, x.number, x.machine_id, x.plan_id, x.occurrence_key, x.kind, x.title,
-                  x.instructions, x.reason, 'open', x.due_at, x.overdue, x.assignee_id, x.responsible_role, x.requires_lockout, x.safety_critical,
-                  x.checklist, x.planned_parts, x.estimated_minutes, 0, '', x.notified_at
-             from jsonb_to_recordset(?::jsonb) as x(id uuid, organization_id uuid, number int, machine_id uuid, plan_id uuid, occurrence_key text,
-                  kind text, title text, instructions text, reason text, due_at timestamptz, overdue boolean, assignee_id uuid,
-                  responsible_role text, requires_lockout boolean, safety_critical boolean, checklist jsonb, planned_parts jsonb, estimated_minutes int,
-                  notified_at timestamptz)
+           select x.id, now(), now(), p.organization_id, x.number, p.machine_id, p.id, x.occurrence_key, x.kind, p.title,
+                  coalesce(p.instructions, ''), x.reason, 'open', x.due_at, false, p.responsible_user_id, p.responsible_role, p.requires_lockout,
+                  p.safety_critical,
+                  coalesce((select jsonb_agg(c || '{"result": null, "value": null, "note": null}'::jsonb order by n)
+                              from jsonb_array_elements(p.checklist) with ordinality as t(c, n)), '[]'::jsonb),
+                  coalesce(p.parts, '[]'::jsonb), p.estimated_minutes, 0, '', x.notified_at
+             from jsonb_to_recordset(?::jsonb) as x(id uuid, number int, plan_id uuid, occurrence_key text, kind text, reason text,
+                  due_at timestamptz, notified_at timestamptz)
+             join maintenance_plan p on p.id = x.plan_id and p.organization_id = ?
            on conflict (plan_id, occurrence_key) do nothing
            returning id, plan_id`,
-          [JSON.stringify(records.map(({ _changesAt, ...r }) => r))],
+          [JSON.stringify(records.map(({ recheck_at: _, ...r }) => r)), orgId],
         );
         if (inserted.length === 0) return;
         const insertedIds = new Set(inserted.map((r) => r.id));
@@ -313,7 +281,7 @@ async function raiseWork(orm: MikroORM, run: Run, orgId: string, items: Evaluate
           tx,
           `update maintenance_plan p set last_raised_key = v.key, recheck_at = v.recheck_at, updated_at = now()
              from jsonb_to_recordset(?::jsonb) as v(id uuid, key text, recheck_at timestamptz) where p.id = v.id`,
-          [JSON.stringify(raised.map((r) => ({ id: r.plan_id, key: r.occurrence_key, recheck_at: r._changesAt })))],
+          [JSON.stringify(raised.map((r) => ({ id: r.plan_id, key: r.occurrence_key, recheck_at: r.recheck_at })))],
         );
         await insertAuditRows(
           tx,

@@ -68,6 +68,13 @@ describe('a plan falls due', () => {
     const wos = await workOf(planId);
     expect(wos).toHaveLength(1);
     expect(wos[0].occurrence_key).toBe(`meter:${pumpHours}:1500`);
+    // The work copies its plan: instructions, the checklist in order with empty results, the estimate.
+    const copied = wos[0] as WoRow & { instructions: string; checklist: unknown[]; estimated_minutes: number; responsible_role: string; kind: string };
+    expect(copied).toMatchObject({ instructions: 'Isolate, replace, check the indicator.', estimated_minutes: 45, responsible_role: 'technician', kind: 'scheduled' });
+    expect(copied.checklist).toEqual([
+      { key: 'isolated', label: 'Unit isolated', kind: 'check', result: null, value: null, note: null },
+      { key: 'dp', label: 'Filter pressure drop after start', kind: 'measure', unit: 'bar', min: 0, max: 1.5, result: null, value: null, note: null },
+    ]);
     // Crossed 1500 h two thirds of the way from 11 Jan 08:00Z (1300 h) to 21 Jan 08:00Z (1600 h):
     // 11 Jan 08:00Z + 6 d 16 h = 18 Jan 00:00Z (linear between readings).
     expect(new Date(wos[0].due_at).toISOString()).toBe('2026-01-18T00:00:00.000Z');
