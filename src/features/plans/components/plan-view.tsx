@@ -1,9 +1,21 @@
 import { Link } from 'react-router-dom';
 import { Badge, Notice, Panel } from '../../../components/ui/notice';
+import { WorkCaution } from '../../../components/ui/caution';
 import { ROLE_LABELS } from '../../../../shared/permissions';
 import { DUE_STATE_LABELS, TRIGGER_KIND_LABELS, type PlanDetail } from '../../../../shared/schemas/plans';
 import { PlanDueBadge } from './plan-badges';
 import { formatWhen, relative } from './format';
+
+const num = new Intl.NumberFormat('en-US', { maximumFractionDigits: 1 });
+
+/** "Run hours: 12,009.8 h now, due at 11,986.4 h (23.4 h past)": the reading, the mark and the gap in words. */
+function meterLine(name: string, unit: string, current: number | null, due: number): string {
+  const u = unit ? ` ${unit}` : '';
+  if (current === null) return `${name}: no reading yet, due at ${num.format(due)}${u}`;
+  const gap = due - current;
+  const tail = gap > 0 ? `${num.format(gap)}${u} to go` : gap === 0 ? 'at the mark' : `${num.format(-gap)}${u} past`;
+  return `${name}: ${num.format(current)}${u} now, due at ${num.format(due)}${u} (${tail})`;
+}
 
 /** A plan's state at a glance: status and why, each trigger's own view, meters against their marks. */
 export function PlanView({ plan }: { plan: PlanDetail }) {
@@ -58,7 +70,7 @@ export function PlanView({ plan }: { plan: PlanDetail }) {
             const pct = m.current === null ? 0 : Math.min(100, Math.max(0, (m.current / m.dueValue) * 100));
             return (
               <div key={m.meterId}>
-                <p className="text-sm font-semibold">{meter?.name ?? 'Meter'}: {m.current ?? '—'} of {m.dueValue} {meter?.unit}</p>
+                <p className="text-sm font-semibold">{meterLine(meter?.name ?? 'Meter', meter?.unit ?? '', m.current, m.dueValue)}</p>
                 <div className="h-3 w-full rounded bg-steel-200" role="img" aria-label={`${meter?.name ?? 'Meter'} at ${Math.round(pct)} % of the next mark`}>
                   <div className={`h-3 rounded ${pct >= 100 ? 'bg-danger' : pct >= 90 ? 'bg-caution' : 'bg-steel-500'}`} style={{ width: `${pct}%` }} />
                 </div>
@@ -73,6 +85,7 @@ export function PlanView({ plan }: { plan: PlanDetail }) {
         <Panel title="What to do">
           {plan.instructions ? <p className="whitespace-pre-line">{plan.instructions}</p> : <p className="text-steel-600">No instructions written.</p>}
           {plan.estimatedMinutes ? <p className="mt-2 text-sm">Planned time: {plan.estimatedMinutes} min</p> : null}
+          <div className="mt-3"><WorkCaution /></div>
         </Panel>
         <Panel title="Checklist">
           {plan.checklist.length === 0 ? <p className="text-steel-600">No checklist.</p> : (
