@@ -27,6 +27,7 @@ export function Component() {
           lookups={lookups.data}
           initial={toFormValues(plan.data)}
           submitLabel="Save changes"
+          cancelHref={`/plans/${id}`}
           onSubmit={async (v) => {
             await update.mutateAsync({ id: id!, input: v });
             navigate(`/plans/${id}`);

@@ -21,6 +21,7 @@ export function Component() {
         <PlanForm
           lookups={lookups.data}
           submitLabel="Save plan"
+          cancelHref="/plans"
           onSubmit={async (v) => {
             const r = await create.mutateAsync(v);
             navigate(`/plans/${r.id}`);

@@ -1,6 +1,7 @@
 import { useMemo, useState } from 'react';
 import { Controller, useFieldArray, useForm, useWatch, type Control, type UseFormRegister, type FieldErrors } from 'react-hook-form';
 import { zodResolver } from '@hookform/resolvers/zod';
+import { Link } from 'react-router-dom';
 import type { z } from 'zod';
 import { planInput, TRIGGER_KINDS, TRIGGER_KIND_LABELS, type PlanDetail, type PlanLookups, type TriggerInput } from '../../../../shared/schemas/plans';
 import { ROLES, ROLE_LABELS } from '../../../../shared/permissions';
@@ -180,7 +181,7 @@ function TriggerFields({
 }
 
 /** Write or change a maintenance plan: what to do, the checklist, parts, who, and when (whichever trigger comes first). */
-export function PlanForm({ lookups, initial, submitLabel, onSubmit }: { lookups: PlanLookups; initial?: In; submitLabel: string; onSubmit: (v: Out) => Promise<void> }) {
+export function PlanForm({ lookups, initial, submitLabel, cancelHref, onSubmit }: { lookups: PlanLookups; initial?: In; submitLabel: string; cancelHref: string; onSubmit: (v: Out) => Promise<void> }) {
   const [formError, setFormError] = useState<string | null>(null);
   const { register, handleSubmit, control, setError, formState, getValues } = useForm<In, unknown, Out>({
     resolver: zodResolver(planInput),
@@ -271,13 +272,19 @@ export function PlanForm({ lookups, initial, submitLabel, onSubmit }: { lookups:
         </ol>
         {triggers.fields.length < 6 ? <Button variant="secondary" onClick={() => triggers.append(blank('calendar-floating'))}>Add a trigger</Button> : null}
         <div className="grid gap-4 md:grid-cols-2">
-          <TextField label="“Coming up” from this many days before" inputMode="decimal" error={errs.dueSoonDays?.message} {...register('dueSoonDays', { setValueAs: (x) => (x === '' || x === null ? null : Number(x)) })} />
+          <TextField
+            label="“Coming up” from this many days before"
+            hint="Before a date, or before a meter is forecast to reach its mark. The same span is the grace before “Past due”."
+            inputMode="decimal"
+            error={errs.dueSoonDays?.message}
+            {...register('dueSoonDays', { setValueAs: (x) => (x === '' || x === null ? null : Number(x)) })} />
           <Controller
             control={control}
             name="dueSoonFraction"
             render={({ field, fieldState }) => (
               <TextField
                 label="…or this share of the interval (%)"
+                hint="Whichever is longer. Meters: 10 % of every 1,000 h shows “Coming up” from 900 h."
                 inputMode="decimal"
                 error={fieldState.error?.message}
                 value={field.value === null || field.value === undefined ? '' : String(Math.round(field.value * 1000) / 10)}
@@ -347,7 +354,10 @@ export function PlanForm({ lookups, initial, submitLabel, onSubmit }: { lookups:
         />
         <label className="flex min-h-touch items-center gap-3"><input type="checkbox" className="h-6 w-6" {...register('active')} /> Plan in use (unticked: paused, raises no work)</label>
       </section>
-      <Button type="submit" busy={formState.isSubmitting}>{submitLabel}</Button>
+      <div className="flex flex-wrap items-center gap-3">
+        <Button type="submit" busy={formState.isSubmitting}>{submitLabel}</Button>
+        <Link className="inline-flex min-h-touch items-center rounded px-4 font-semibold text-steel-800 underline" to={cancelHref}>Cancel</Link>
+      </div>
     </form>
   );
 }
