@@ -10,6 +10,14 @@ import { ApiError } from '../../../lib/api-client';
 
 const col = createColumnHelper<JobRunRow>();
 
+/** "still running", "20 ms", "3.4 s", "2 min 5 s": short enough to stay on one line on a tablet. */
+function took(ms: number | null): string {
+  if (ms === null) return 'still running';
+  if (ms < 1000) return `${Math.max(1, Math.round(ms))} ms`;
+  if (ms < 60_000) return `${(ms / 1000).toFixed(1)} s`;
+  return `${Math.floor(ms / 60_000)} min ${Math.round((ms % 60_000) / 1000)} s`;
+}
+
 /** Each pass of the scheduled job for this shop, newest first, with a button to run one now. */
 export function JobRuns({ timeZone }: { timeZone: string }) {
   const [page, setPage] = useState(1);
@@ -21,12 +29,18 @@ export function JobRuns({ timeZone }: { timeZone: string }) {
   const fmt = useMemo(() => new Intl.DateTimeFormat('en-GB', { timeZone, dateStyle: 'medium', timeStyle: 'medium' }), [timeZone]);
   const columns = useMemo(
     () => [
-      col.accessor('startedAt', { header: 'Started', enableSorting: false, cell: (c) => fmt.format(new Date(c.getValue())) }),
+      col.accessor('startedAt', { header: 'Started', enableSorting: false, cell: (c) => <span className="whitespace-nowrap">{fmt.format(new Date(c.getValue()))}</span> }),
       col.accessor((r) => (r.finishedAt ? new Date(r.finishedAt).getTime() - new Date(r.startedAt).getTime() : null), {
         id: 'took',
         header: 'Took',
         enableSorting: false,
-        cell: (c) => (c.getValue() === null ? 'running' : `${((c.getValue() as number) / 1000).toFixed(2)} s`),
+        cell: (c) => <span className="whitespace-nowrap">{took(c.getValue() as number | null)}</span>,
+      }),
+      // Problems early: on a tablet the right-hand columns scroll out of sight.
+      col.accessor('errors', {
+        header: 'Problems',
+        enableSorting: false,
+        cell: (c) => (c.getValue().length ? <details><summary className="cursor-pointer"><Badge tone="danger">{c.getValue().length} problem{c.getValue().length === 1 ? '' : 's'}</Badge></summary><ul className="mt-1 list-disc pl-5 text-xs">{c.getValue().map((e, i) => <li key={i}>{e.message}</li>)}</ul></details> : <Badge tone="safe">None</Badge>),
       }),
       col.accessor('trigger', { header: 'Started by', enableSorting: false, cell: (c) => (c.getValue() === 'manual' ? `Run now (${c.row.original.triggeredBy ?? 'admin'})` : 'Schedule') }),
       col.accessor('plansChecked', { header: 'Plans checked', enableSorting: false }),
@@ -34,11 +48,6 @@ export function JobRuns({ timeZone }: { timeZone: string }) {
       col.accessor('workOrdersRaised', { header: 'Work raised', enableSorting: false }),
       col.accessor('escalations', { header: 'Past due reported', enableSorting: false }),
       col.accessor('mailsQueued', { header: 'Mails', enableSorting: false }),
-      col.accessor('errors', {
-        header: 'Problems',
-        enableSorting: false,
-        cell: (c) => (c.getValue().length ? <details><summary className="cursor-pointer"><Badge tone="danger">{c.getValue().length} problem{c.getValue().length === 1 ? '' : 's'}</Badge></summary><ul className="mt-1 list-disc pl-5 text-xs">{c.getValue().map((e, i) => <li key={i}>{e.message}</li>)}</ul></details> : <Badge tone="safe">None</Badge>),
-      }),
     ],
     [fmt],
   );
@@ -64,7 +73,7 @@ export function JobRuns({ timeZone }: { timeZone: string }) {
         data={q.data?.rows ?? []}
         loading={q.isLoading}
         getRowId={(r) => r.id}
-        empty={<EmptyState title="No passes recorded yet" />}
+        empty={<EmptyState title="No passes recorded yet">Each pass checks every plan, raises the work that has fallen due and queues its mails. Use “Run the pass now” to start one at once.</EmptyState>}
         server={{ total: q.data?.total ?? 0, page, pageSize, sorting, onSortingChange: setSorting, onPageChange: setPage }}
       />
     </div>
