@@ -44,6 +44,11 @@ export function setShopTimeZone(timeZone: string) {
   shopTimeZone = timeZone;
 }
 
+/** Today's date (YYYY-MM-DD) on the shop's clock: for a few hours a day the UTC date is another day. */
+export function shopToday(): string {
+  return DateTime.now().setZone(shopTimeZone ?? 'local').toISODate() as string;
+}
+
 /** Like `new Intl.DateTimeFormat`, but always on the shop's clock (read when formatting). */
 export function shopFormatter(options: Intl.DateTimeFormatOptions) {
   return {

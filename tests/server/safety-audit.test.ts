@@ -5,7 +5,7 @@ import { tmpdir } from 'node:os';
 import path from 'node:path';
 import Papa from 'papaparse';
 import { makeTestApp } from '../setup/test-app';
-import { appRole, approvedProcedure, get, lockPoints, makeSafetyShop, PASSWORD, post, superuser, type SafetyShop } from './safety-helpers';
+import { appRole, approvedProcedure, get, lockPoints, makeSafetyShop, PASSWORD, post, shopToday, superuser, type SafetyShop } from './safety-helpers';
 import { runScheduledPass } from '../../server/jobs/scheduler';
 import { initORM } from '../../server/db';
 import { WORK_CAUTION } from '../../shared/domain/cautions';
@@ -59,7 +59,7 @@ describe('the safety officer’s audit', () => {
     expect(released.body.rows[0].summary).toMatch(/^C1: area checked, people clear, affected employees told; removed E1 lock A-01/);
     const byMachine = await get(shop.s.safety, `/safety/sign-offs?machineId=${shop.otherMachineId}`).expect(200);
     expect(byMachine.body.total).toBe(0);
-    const today = new Date().toISOString().slice(0, 10);
+    const today = shopToday();
     const ranged = await get(shop.s.safety, `/safety/sign-offs?from=2000-01-01&to=2000-12-31`).expect(200);
     expect(ranged.body.total).toBe(0);
     const bad = await get(shop.s.safety, '/safety/sign-offs?from=yesterday').expect(400);
@@ -174,7 +174,7 @@ describe('the safety officer’s audit', () => {
     expect(((await get(late.s.safety, '/safety/tasks').expect(200)).body as unknown[]).length).toBe(tasks.length);
 
     // The inspection done and certified, and a PPE check: the tasks close on the next pass.
-    const today = new Date().toISOString().slice(0, 10);
+    const today = shopToday();
     const ins = await post(late.s.safety, '/safety/inspections', { procedureId: lateProc, inspectedOn: today, employeeIds: [late.users.technician.userId], findings: 'All steps followed.', responsibilitiesReviewed: true, password: PASSWORD }).expect(201);
     await post(late.s.safety, `/safety/inspections/${ins.body.id}/certify`, { password: PASSWORD }).expect(201);
     await post(late.s.operator, '/safety/ppe/checks', { requirementId: req.body.id, confirmed: ['safety-glasses'], password: PASSWORD }).expect(201);

@@ -1,5 +1,6 @@
 // Shared set-up for the safety-log tests: a shop with machines, signed-in roles and an approved procedure.
 import pg from 'pg';
+import { DateTime } from 'luxon';
 import type { EntityManager } from '@mikro-orm/postgresql';
 import { makeShop, signIn, type SignedIn, type TestShop } from '../setup/test-app';
 import { Machine } from '../../server/modules/machines/machine.entity';
@@ -9,6 +10,9 @@ import type { ProcedureContent } from '../../shared/schemas/safety-procedures';
 import type { AppHandle } from '../../server/app';
 
 export const PASSWORD = DEMO_PASSWORD;
+
+/** Today's date in the test shops' zone (makeShop: America/Chicago): dates people enter are local, and from 00:00 to 06:00 UTC the UTC date is already tomorrow there. */
+export const shopToday = () => DateTime.now().setZone('America/Chicago').toISODate() as string;
 
 export function cellProcedure(title = 'Full lockout of the punch/plasma cell'): ProcedureContent {
   return {

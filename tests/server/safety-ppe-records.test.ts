@@ -1,6 +1,6 @@
 import { describe, it, expect, beforeAll, afterAll } from 'vitest';
 import { makeTestApp } from '../setup/test-app';
-import { approvedProcedure, cellProcedure, countSignOffs, get, makeSafetyShop, PASSWORD, post, put, superuser, type SafetyShop } from './safety-helpers';
+import { approvedProcedure, cellProcedure, countSignOffs, get, makeSafetyShop, PASSWORD, post, put, shopToday, superuser, type SafetyShop } from './safety-helpers';
 
 let t: Awaited<ReturnType<typeof makeTestApp>>;
 let shop: SafetyShop;
@@ -101,7 +101,7 @@ describe('PPE requirements', () => {
 describe('periodic inspection and training', () => {
   it('refuses an inspector who uses the procedure, and lets only the safety officer certify', async () => {
     const procId = await approvedProcedure(shop, cellProcedure('Inspected procedure'));
-    const today = new Date().toISOString().slice(0, 10);
+    const today = shopToday();
     const body = { procedureId: procId, inspectedOn: today, employeeIds: [shop.users.technician.userId], findings: 'Procedure followed at every step.', responsibilitiesReviewed: true, password: PASSWORD };
     const self = await post(shop.s.technician, '/safety/inspections', body).expect(400);
     expect(self.body.fields[0].path).toBe('employeeIds');
@@ -125,7 +125,7 @@ describe('periodic inspection and training', () => {
 
   it('marks training for retraining when a changed procedure asks for it', async () => {
     const procId = await approvedProcedure(shop, cellProcedure('Trained procedure'));
-    const today = new Date().toISOString().slice(0, 10);
+    const today = shopToday();
     const affectedAsAuthorized = await post(shop.s.safety, '/safety/training', { userId: shop.users.operator.userId, procedureId: procId, kind: 'authorized', trainedOn: today, password: PASSWORD }).expect(400);
     expect(affectedAsAuthorized.body.fields[0].path).toBe('kind');
     await post(shop.s.safety, '/safety/training', { userId: shop.users.operator.userId, procedureId: procId, kind: 'affected', trainedOn: today, password: PASSWORD }).expect(201);

@@ -1,3 +1,4 @@
+import { DateTime } from 'luxon';
 import type { EntityManager, MikroORM } from '@mikro-orm/postgresql';
 import { Organization } from '../organizations/organization.entity';
 import { Machine } from '../machines/machine.entity';
@@ -132,7 +133,7 @@ export async function runSafetyDue(orm: MikroORM, now: Date): Promise<Record<str
               paragraphs: [
                 `Hello ${o.name},`,
                 `These safety tasks at ${org.name} are overdue:`,
-                ...newlyOverdue.map((t) => `• ${TASK_KIND_LABELS[t.kind]}: ${t.title}${t.dueAt ? ` — due ${t.dueAt.toISOString().slice(0, 10)}` : ''}`),
+                ...newlyOverdue.map((t) => `• ${TASK_KIND_LABELS[t.kind]}: ${t.title}${t.dueAt ? ` — due ${DateTime.fromJSDate(t.dueAt, { zone: org.timeZone }).toISODate()}` : ''}`),
                 'Each is listed once here; Kerfbook closes it when the work is signed off.',
               ],
               action: { label: 'Open the safety work list', url: `${appUrl}/safety` },
