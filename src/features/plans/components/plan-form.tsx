@@ -1,4 +1,4 @@
-import { useMemo, useState } from 'react';
+import { useEffect, useMemo, useRef, useState } from 'react';
 import { Controller, useFieldArray, useForm, useWatch, type Control, type UseFormRegister, type FieldErrors } from 'react-hook-form';
 import { zodResolver } from '@hookform/resolvers/zod';
 import { Link } from 'react-router-dom';
@@ -11,6 +11,7 @@ import { Notice } from '../../../components/ui/notice';
 import { SelectField, TextField } from '../../../components/ui/field';
 import { applyServerErrors } from '../../../lib/form-errors';
 import { inputClass } from './format';
+import { shopToday } from '../../../lib/format';
 
 type In = z.input<typeof planInput>;
 type Out = z.output<typeof planInput>;
@@ -27,7 +28,7 @@ const RULE_PRESETS = [
 const blank = (kind: TriggerInput['kind']): TriggerInput => {
   switch (kind) {
     case 'calendar-fixed':
-      return { kind, start: new Date().toISOString().slice(0, 10) + 'T07:00', rrule: 'FREQ=WEEKLY;BYDAY=MO' };
+      return { kind, start: `${shopToday()}T07:00`, rrule: 'FREQ=WEEKLY;BYDAY=MO' };
     case 'calendar-floating':
       return { kind, every: 1, unit: 'month' };
     case 'meter':
@@ -183,7 +184,7 @@ function TriggerFields({
 /** Write or change a maintenance plan: what to do, the checklist, parts, who, and when (whichever trigger comes first). */
 export function PlanForm({ lookups, initial, submitLabel, cancelHref, onSubmit }: { lookups: PlanLookups; initial?: In; submitLabel: string; cancelHref: string; onSubmit: (v: Out) => Promise<void> }) {
   const [formError, setFormError] = useState<string | null>(null);
-  const { register, handleSubmit, control, setError, formState, getValues } = useForm<In, unknown, Out>({
+  const { register, handleSubmit, control, setError, formState, getValues, setValue } = useForm<In, unknown, Out>({
     resolver: zodResolver(planInput),
     defaultValues: initial ?? {
       machineId: '',
@@ -214,6 +215,17 @@ export function PlanForm({ lookups, initial, submitLabel, cancelHref, onSubmit }
   }, [machineId, lookups.machines]);
   const meters = lookups.meters.filter((m) => related.has(m.machineId));
   const errs = formState.errors;
+  // A meter picked for the machine chosen before belongs to that machine: clear it when the machine
+  // changes, so the form asks for one of this machine's meters instead of the server refusing it.
+  const shownMachine = useRef(machineId);
+  useEffect(() => {
+    if (shownMachine.current === machineId) return;
+    shownMachine.current = machineId;
+    const own = new Set(lookups.meters.filter((m) => related.has(m.machineId)).map((m) => m.id));
+    (getValues('triggers') ?? []).forEach((t, i) => {
+      if ('meterId' in t && t.meterId && !own.has(t.meterId)) setValue(`triggers.${i}.meterId` as const, '', { shouldDirty: true });
+    });
+  }, [machineId, related, lookups.meters, getValues, setValue]);
 
   const submit = handleSubmit(async (v) => {
     setFormError(null);

@@ -69,10 +69,14 @@ export function WorkOrdersTable({
         id: 'number',
         header: 'WO',
         enableHiding: false,
+        // A big target for gloved fingers; keyboards and screen readers use the title link of the same row.
         cell: (c) => (
-          <Link className="inline-flex min-h-touch items-center font-bold text-mandatory underline" to={`/work-orders/${c.row.original.id}`}>
-            {c.getValue()}
-          </Link>
+          <>
+            <Link className="inline-flex min-h-touch items-center font-bold text-mandatory underline" to={`/work-orders/${c.row.original.id}`} tabIndex={-1} aria-hidden="true">
+              {c.getValue()}
+            </Link>
+            <span className="sr-only">{c.getValue()}</span>
+          </>
         ),
       }),
       col.accessor('title', {
@@ -141,7 +145,7 @@ export function WorkOrdersTable({
               Search
               <input className={filterClass} value={get('q')} placeholder="Title, machine or WO number" onChange={(e) => set('q', e.target.value)} />
             </label>
-            {fixed.machineId ? null : (
+            {fixed.machineId || fixed.planId ? null : (
               <label className="flex flex-col text-sm font-semibold">
                 Machine
                 <select className={filterClass} value={get('machineId')} onChange={(e) => set('machineId', e.target.value)}>
