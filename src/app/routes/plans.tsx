@@ -20,15 +20,25 @@ export function Component() {
       <PageTitle
         title="Maintenance plans"
         subtitle="Recurring work per machine: by calendar, by meter, by condition — whichever comes first."
-        actions={manage ? <Link className="inline-flex min-h-touch items-center rounded bg-steel-800 px-4 font-semibold text-white" to="/plans/new">Write a plan</Link> : null}
+        actions={
+          manage ? (
+            <div className="flex flex-wrap gap-2">
+              {/* The starter panel sits below a list that grows with the shop: a way straight to it. */}
+              <a className="inline-flex min-h-touch items-center rounded border border-steel-500 bg-white px-4 font-semibold text-steel-900" href="#starter-plans">Apply starter plans</a>
+              <Link className="inline-flex min-h-touch items-center rounded bg-steel-800 px-4 font-semibold text-white" to="/plans/new">Write a plan</Link>
+            </div>
+          ) : null
+        }
       />
       <Panel>
         <PlansTable timeZone={me.organization.timeZone} />
       </Panel>
       {manage && lookups.data ? (
-        <Panel title="Starter plans">
-          <StartersPanel lookups={lookups.data} />
-        </Panel>
+        <div id="starter-plans" className="scroll-mt-4">
+          <Panel title="Starter plans">
+            <StartersPanel lookups={lookups.data} />
+          </Panel>
+        </div>
       ) : null}
     </>
   );
