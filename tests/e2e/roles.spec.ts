@@ -37,8 +37,10 @@ for (const r of roles) {
 
 test('admin invites a person who accepts through the mailed link', async ({ page, browser }) => {
   await signIn(page, 'admin@alder-row.example');
-  await page.getByRole('link', { name: 'People', exact: true }).click();
+  // The admin pages are one menu entry, with tabs on each page.
+  await page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'Shop admin', exact: true }).click();
   await expect(page.getByRole('heading', { name: 'People' })).toBeVisible();
+  await expect(page.getByRole('navigation', { name: 'Shop admin' }).getByRole('link', { name: 'People', exact: true })).toHaveAttribute('aria-current', 'page');
   await expectAccessible(page, 'people');
   // Server errors land on the field they concern.
   const form = page.getByRole('form', { name: 'Invite someone' });
@@ -89,7 +91,8 @@ test('the operator home works on a tablet viewport', async ({ browser }) => {
 
 test('admin opens site settings; an unknown time zone is refused on its field', async ({ page }) => {
   await signIn(page, 'admin@alder-row.example');
-  await page.getByRole('link', { name: 'Site settings' }).click();
+  await page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'Shop admin', exact: true }).click();
+  await page.getByRole('navigation', { name: 'Shop admin' }).getByRole('link', { name: 'Site settings' }).click();
   const form = page.getByRole('form', { name: 'Site settings' });
   await expect(form.getByLabel('Time zone')).toHaveValue('America/Chicago');
   await expectAccessible(page, 'site settings');

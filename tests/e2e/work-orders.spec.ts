@@ -6,7 +6,8 @@ const PNG = Buffer.from('iVBORw0KGgoAAAANSUhEUgAAAAEAAAABCAYAAAAfFcSJAAAADUlEQVR
 const TITLE = 'Check cartridge door seals';
 
 async function runPassNow(page: Page) {
-  await page.getByRole('link', { name: 'Pass log', exact: true }).click();
+  await page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'Shop admin', exact: true }).click();
+  await page.getByRole('navigation', { name: 'Shop admin' }).getByRole('link', { name: 'Pass log', exact: true }).click();
   await expect(page.getByRole('heading', { name: 'Pass log' })).toBeVisible();
   // The scheduled pass may be running at the same moment; the button says so and we try again.
   for (let attempt = 0; attempt < 5; attempt++) {
