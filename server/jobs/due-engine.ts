@@ -297,11 +297,11 @@ async function raiseWork(orm: MikroORM, run: Run, orgId: string, items: Evaluate
   }
 }
 
-const NOTIFY_CHUNK = 5000;
+const NOTIFY_CHUNK = 50_000;
 
 /**
  * Tells the people responsible about raised work nobody has been told of yet: one mail per person
- * per shop (per 5,000 work orders), after the raising, so a pass that raises a backlog sends one
+ * per shop (per 50,000 work orders), after the raising, so a pass that raises a backlog sends one
  * notice, not one per batch. Work raised by a pass that stopped before this step is told next time.
  */
 async function notifyRaised(orm: MikroORM, run: Run, now: Date) {
@@ -344,7 +344,9 @@ async function escalate(orm: MikroORM, run: Run, now: Date, orgId?: string) {
   }
 }
 
-const ESCALATE_CHUNK = 5000;
+// Each chunk mails its lines in the transaction that marks them, so a chunk is one mail per person:
+// large enough that a shop's whole backlog escalates in one (a bound on memory, not a batch size).
+const ESCALATE_CHUNK = 50_000;
 
 /** A work order as the notice and escalation steps read it (joined with its machine's code and name). */
 type WorkRow = {
