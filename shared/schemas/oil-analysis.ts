@@ -34,7 +34,13 @@ export const oilTargetInput = z.object({
 });
 export type OilTargetInput = z.infer<typeof oilTargetInput>;
 
-export const listOilAnalysesQuery = paging.extend({ machineId: z.uuid().optional() });
+export const OIL_SORTS = ['sampledAt', 'unit', 'viscosity40', 'waterPpm', 'temperatureC'] as const;
+export const listOilAnalysesQuery = paging.extend({
+  machineId: z.uuid().optional(),
+  sort: z.enum(OIL_SORTS, { message: `Sort by one of: ${OIL_SORTS.join(', ')}` }).default('sampledAt'),
+  dir: z.enum(['asc', 'desc'], { message: 'Direction is asc or desc' }).default('desc'),
+});
+export type ListOilAnalysesQuery = z.infer<typeof listOilAnalysesQuery>;
 
 export type OilTarget = OilTargetInput & { machineId: string };
 

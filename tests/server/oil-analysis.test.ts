@@ -75,5 +75,15 @@ describe('oil analysis', () => {
     expect(list.body.rows.map((r: { isoCode: string }) => r.isoCode)).toEqual(['19/17/14', '19/17/14', '17/15/12']);
     const units = await get(op, '/oil-units').expect(200);
     expect(units.body.units).toEqual([expect.objectContaining({ code: 'HU1', target: expect.objectContaining({ targetCode: '17/15/12', vgGrade: 46 }), latest: expect.objectContaining({ sampledAt: '2026-08-10T14:00:00.000Z' }) })]);
+    // Sortable by the sample date and by measured values (a value missing sorts last either way).
+    const oldest = await get(op, `/oil-analyses?machineId=${unit}&sort=sampledAt&dir=asc`).expect(200);
+    expect(oldest.body.rows.map((r: { isoCode: string }) => r.isoCode)).toEqual(['17/15/12', '19/17/14', '19/17/14']);
+    await post(tech, '/oil-analyses', sample({ sampledAt: '2026-08-20T09:00:00-05:00', viscosity40: 41.2, waterPpm: null })).expect(201);
+    const byWater = await get(op, `/oil-analyses?machineId=${unit}&sort=waterPpm&dir=desc`).expect(200);
+    expect(byWater.body.rows.at(-1).waterPpm).toBeNull();
+    const byViscosity = await get(op, `/oil-analyses?machineId=${unit}&sort=viscosity40&dir=asc`).expect(200);
+    expect(byViscosity.body.rows[0].viscosity40).toBe(41.2);
+    const bad = await get(op, '/oil-analyses?sort=colour').expect(400);
+    expect(bad.body.fields[0].path).toBe('sort');
   });
 });

@@ -1,4 +1,4 @@
-import type { EntityManager, MikroORM } from '@mikro-orm/postgresql';
+import { QueryOrder, type EntityManager, type MikroORM } from '@mikro-orm/postgresql';
 import { OilAnalysis, OilTarget, type IOilAnalysis, type IOilTarget } from './oil-analysis.entity';
 import { Machine } from '../machines/machine.entity';
 import { MaintenancePlan } from '../plans/plan.entity';
@@ -10,7 +10,7 @@ import { compareToTarget, iso4406Code } from '../../../shared/domain/cleanliness
 import { viscosityStatus } from '../../../shared/domain/viscosity';
 import { allocateNumbers, runDueEngine } from '../../jobs/due-engine';
 import { uuidArray } from '../../jobs/due-engine-inputs';
-import type { HydraulicUnitView, OilAnalysisInput, OilAnalysisRow, OilFinding, OilTarget as OilTargetView, OilTargetInput } from '../../../shared/schemas/oil-analysis';
+import type { HydraulicUnitView, OilAnalysisInput, OilAnalysisRow, OilFinding, OilTarget as OilTargetView, OilTargetInput, ListOilAnalysesQuery } from '../../../shared/schemas/oil-analysis';
 import type { Page } from '../../../shared/schemas/users';
 
 /** Inside ±5 % of the grade mid-point is fine; beyond that (still inside the ±10 % ISO 3448 band) is a drift warning. */
@@ -115,9 +115,12 @@ export async function setTarget(em: EntityManager, who: Principal, machineId: st
   });
 }
 
-export async function listAnalyses(em: EntityManager, q: { machineId?: string; page: number; pageSize: number }): Promise<Page<OilAnalysisRow>> {
+export async function listAnalyses(em: EntityManager, q: ListOilAnalysesQuery): Promise<Page<OilAnalysisRow>> {
+  // Missing values sort last either way; ties fall back to the newest sample first.
+  const dir = q.dir === 'asc' ? QueryOrder.ASC_NULLS_LAST : QueryOrder.DESC_NULLS_LAST;
+  const first = q.sort === 'unit' ? { machine: { code: dir } } : { [q.sort]: dir };
   const [items, total] = await em.findAndCount(OilAnalysis, q.machineId ? { machine: q.machineId } : {}, {
-    orderBy: { sampledAt: 'desc' },
+    orderBy: [first, { sampledAt: QueryOrder.DESC }, { id: QueryOrder.ASC }],
     limit: q.pageSize,
     offset: (q.page - 1) * q.pageSize,
     populate: ['machine', 'workOrder'],

@@ -1,9 +1,9 @@
 import { keepPreviousData, queryOptions, useQuery } from '@tanstack/react-query';
 import { api } from '../../../lib/api-client';
-import type { OilAnalysisRow } from '../../../../shared/schemas/oil-analysis';
+import type { ListOilAnalysesQuery, OilAnalysisRow } from '../../../../shared/schemas/oil-analysis';
 import type { Page } from '../../../../shared/schemas/users';
 
-export type OilFilters = { machineId?: string; page: number; pageSize: number };
+export type OilFilters = { machineId?: string; page: number; pageSize: number; sort?: ListOilAnalysesQuery['sort']; dir?: ListOilAnalysesQuery['dir'] };
 
 export const getOilAnalyses = (f: OilFilters) => api<Page<OilAnalysisRow>>('/oil-analyses', { query: f });
 
