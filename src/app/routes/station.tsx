@@ -15,6 +15,9 @@ import { can } from '../../../shared/permissions';
 import { paths } from '../../config/paths';
 import { MACHINE_KIND_LABELS, type MachineKind } from '../../../shared/schemas/machines';
 
+// Only these carry a plasma torch; on a press brake or hydraulic unit a missing torch is normal, not a setup gap.
+const CUTS_WITH_PLASMA: MachineKind[] = ['punch-plasma-cell', 'plasma-table'];
+
 export const loader = ({ params }: LoaderFunctionArgs) => queryClient.ensureQueryData(getStationQueryOptions(params.code!)).catch(() => null);
 
 /** The operator's page at the machine, opened from the QR label. */
@@ -23,7 +26,18 @@ export function Component() {
   const { data: me } = useMe();
   const q = useStation(code!);
   if (!me) return null;
-  if (q.isError) return <Notice tone="danger" role="alert" title="Station not found">{q.error.message}. Check the code on the label, or open it from the machine list.</Notice>;
+  if (q.isError)
+    return (
+      <div className="space-y-4">
+        <Notice tone="danger" role="alert" title="Station not found">{q.error.message}. Check the code on the label, or pick the machine from the list.</Notice>
+        {/* Those who log changes have the station buttons on Today; everyone else finds the machine in the machine list. */}
+        {can(me.role, 'consumables.log') ? (
+          <Link to={paths.home.getHref()} className="inline-flex min-h-touch items-center rounded border border-steel-400 bg-white px-4 font-semibold">Back to the stations</Link>
+        ) : (
+          <Link to={paths.machines.getHref()} className="inline-flex min-h-touch items-center rounded border border-steel-400 bg-white px-4 font-semibold">Open the machine list</Link>
+        )}
+      </div>
+    );
   if (!q.data) return <p role="status">Loading station…</p>;
   const s = q.data;
   return (
@@ -41,7 +55,7 @@ export function Component() {
         </div>
       </div>
       <DueList code={s.machine.code} rows={s.due} />
-      {s.torches.length === 0 ? <Notice title="No torch on this machine">Consumables are logged on a torch. Add a component of kind “Plasma torch” to {s.machine.code} with arc-start and arc-time meters.</Notice> : null}
+      {s.torches.length === 0 && CUTS_WITH_PLASMA.includes(s.machine.kind as MachineKind) ? <Notice title="No torch on this machine">Consumables are logged on a torch. Add a component of kind “Plasma torch” to {s.machine.code} with arc-start and arc-time meters.</Notice> : null}
       {s.torches.map((t) => (
         <TorchPanel key={t.id} torch={t} parts={s.partOptions} pitLimit={s.reference.pitLimitMm} canLog={can(me.role, 'consumables.log')} />
       ))}
@@ -69,9 +83,11 @@ export function Component() {
           </div>
         </Panel>
       ) : null}
-      <Panel title="Recent changes">
-        <RecentChanges rows={s.recentChanges} />
-      </Panel>
+      {s.torches.length || s.recentChanges.length ? (
+        <Panel title="Recent consumable changes">
+          <RecentChanges rows={s.recentChanges} />
+        </Panel>
+      ) : null}
     </div>
   );
 }
