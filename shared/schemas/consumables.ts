@@ -106,8 +106,8 @@ export type ChangeRow = {
 
 export type ReferenceValue = { value: number; unit: string; source: string; overridden: boolean };
 
-export type StationLockout = { id: string; machineCode: string; state: 'locked' | 'verified'; appliedAt: string; reason: string };
-export type StationDueRow = { id: string; number: number; machineCode: string; title: string; status: 'open' | 'in-progress' | 'on-hold'; dueAt: string | null; overdue: boolean };
+export type StationLockout = { id: string; machineCode: string; state: 'locked' | 'verified'; appliedAt: string; reason: string; heldBy: string };
+export type StationDueRow = { id: string; number: number; machineCode: string; title: string; status: 'open' | 'in-progress' | 'on-hold'; dueAt: string | null; overdue: boolean; requiresLockout: boolean };
 
 export type StationView = {
   machine: { id: string; code: string; name: string; kind: string; location: string | null };

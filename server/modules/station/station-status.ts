@@ -11,15 +11,16 @@ export async function stationStatus(em: EntityManager, orgId: string, machineIds
   if (machineIds.length === 0) return { lockouts: [], due: [] };
   const ids = `{${machineIds.join(',')}}`;
   const lockable = `{${[...machineIds, ...ancestorIds].join(',')}}`;
-  const lockouts: { id: string; code: string; state: string; applied_at: Date; reason: string }[] = await em.execute(
-    `select l.id, m.code, l.state, l.applied_at, l.reason
-       from safety_lockout l join machine m on m.id = l.machine_id
+  // The holder's name tells the operator whom to ask before anything is switched back on.
+  const lockouts: { id: string; code: string; state: string; applied_at: Date; reason: string; held_by: string }[] = await em.execute(
+    `select l.id, m.code, l.state, l.applied_at, l.reason, u.name as held_by
+       from safety_lockout l join machine m on m.id = l.machine_id join app_user u on u.id = l.primary_id
       where l.organization_id = ? and l.machine_id = any(?::uuid[]) and l.state <> 'released' and l.released_at is null
       order by l.applied_at desc`,
     [orgId, lockable],
   );
-  const due: { id: string; number: number; code: string; title: string; status: string; due_at: Date | null; overdue: boolean }[] = await em.execute(
-    `select w.id, w.number, m.code, w.title, w.status, w.due_at, w.overdue
+  const due: { id: string; number: number; code: string; title: string; status: string; due_at: Date | null; overdue: boolean; requires_lockout: boolean }[] = await em.execute(
+    `select w.id, w.number, m.code, w.title, w.status, w.due_at, w.overdue, w.requires_lockout
        from work_order w join machine m on m.id = w.machine_id
       where w.organization_id = ? and w.machine_id = any(?::uuid[]) and w.status in ('open', 'in-progress', 'on-hold')
       order by w.due_at asc nulls last, w.number asc
@@ -28,10 +29,10 @@ export async function stationStatus(em: EntityManager, orgId: string, machineIds
   );
   const now = Date.now();
   return {
-    lockouts: lockouts.map((l) => ({ id: l.id, machineCode: l.code, state: l.state as StationLockout['state'], appliedAt: new Date(l.applied_at).toISOString(), reason: l.reason })),
+    lockouts: lockouts.map((l) => ({ id: l.id, machineCode: l.code, state: l.state as StationLockout['state'], appliedAt: new Date(l.applied_at).toISOString(), reason: l.reason, heldBy: l.held_by })),
     due: due.map((w) => {
       const dueAt = w.due_at ? new Date(w.due_at) : null;
-      return { id: w.id, number: w.number, machineCode: w.code, title: w.title, status: w.status as StationDueRow['status'], dueAt: dueAt?.toISOString() ?? null, overdue: w.overdue || (!!dueAt && dueAt.getTime() < now) };
+      return { id: w.id, number: w.number, machineCode: w.code, title: w.title, status: w.status as StationDueRow['status'], dueAt: dueAt?.toISOString() ?? null, overdue: w.overdue || (!!dueAt && dueAt.getTime() < now), requiresLockout: w.requires_lockout };
     }),
   };
 }

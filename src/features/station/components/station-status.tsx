@@ -1,7 +1,7 @@
 import { Link } from 'react-router-dom';
 import type { StationDueRow, StationLockout } from '../../../../shared/schemas/consumables';
 import { WORK_STATE_LABELS } from '../../../../shared/schemas/work-orders';
-import { Badge } from '../../../components/ui/notice';
+import { DueBadge, LockoutBadge } from '../../work-orders/components/work-badges';
 import { paths } from '../../../config/paths';
 import { shopFormatter } from '../../../lib/format';
 
@@ -17,7 +17,7 @@ export function LockoutBanner({ lockouts }: { lockouts: StationLockout[] }) {
       <ul className="mt-1 space-y-1">
         {lockouts.map((l) => (
           <li key={l.id}>
-            {l.machineCode} · {l.reason} · locked since {when.format(new Date(l.appliedAt))}
+            {l.machineCode} · {l.reason} · locked since {when.format(new Date(l.appliedAt))} by {l.heldBy}
             {l.state === 'verified' ? ' · isolation verified' : ''}
           </li>
         ))}
@@ -39,8 +39,10 @@ export function DueList({ code, rows }: { code: string; rows: StationDueRow[] })
               <span className="font-semibold text-mandatory-ink underline">#{w.number} {w.title}</span>
               <span className="text-sm text-steel-700">{w.machineCode !== code ? `${w.machineCode} · ` : ''}{WORK_STATE_LABELS[w.status]}</span>
               <span className="ml-auto inline-flex items-center gap-2 text-sm tabular-nums">
+                {/* Same badges as the work lists, so "lockout required" reads the same at the machine. */}
+                {w.requiresLockout ? <LockoutBadge /> : null}
                 {w.dueAt ? `due ${day.format(new Date(w.dueAt))}` : 'no due date'}
-                {w.overdue ? <Badge tone="danger">Overdue</Badge> : null}
+                {w.overdue ? <DueBadge state="overdue" /> : null}
               </span>
             </Link>
           </li>
