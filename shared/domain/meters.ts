@@ -16,6 +16,15 @@ export interface TimedReading {
 // Fixed locale: the same message comes from the server and the browser, and large counters need grouping to be read.
 export const grouped = new Intl.NumberFormat('en-US', { maximumFractionDigits: 3 });
 
+/**
+ * A reading's time in a message, as the shop's clocks show it (the screens show readings in the
+ * shop's zone, so a UTC time beside them read as a different reading); UTC, named, without a zone.
+ */
+export function readingTime(at: Date, timeZone?: string): string {
+  if (!timeZone) return `${at.toISOString().slice(0, 16).replace('T', ' ')} UTC`;
+  return new Intl.DateTimeFormat('en-GB', { dateStyle: 'medium', timeStyle: 'short', hourCycle: 'h23', timeZone }).format(at);
+}
+
 /** Counts and hours only grow; condition readings move both ways. */
 export const isCumulative = (kind: MeterKind) => kind !== 'condition';
 
@@ -24,12 +33,12 @@ export const isCumulative = (kind: MeterKind) => kind !== 'condition';
  * A cumulative meter refuses a lower value unless `next` is a reset; a negative count or
  * time is refused always (a reset starts from zero, it does not go below it).
  */
-export function readingOrderProblem(kind: MeterKind, prev: TimedReading | null, next: TimedReading, unit: string): string | null {
+export function readingOrderProblem(kind: MeterKind, prev: TimedReading | null, next: TimedReading, unit: string, timeZone?: string): string | null {
   if (!Number.isFinite(next.value)) return 'The reading is not a number';
   if (!isCumulative(kind)) return null;
   if (next.value < 0) return `A ${kind === 'count' ? 'count' : 'running time'} cannot be negative (${grouped.format(next.value)} ${unit})`;
   if (prev && !next.isReset && next.value < prev.value) {
-    return `${grouped.format(next.value)} ${unit} is lower than the reading before it (${grouped.format(prev.value)} ${unit} on ${prev.at.toISOString().slice(0, 16).replace('T', ' ')} UTC); record it as a reset if the counter started again from zero`;
+    return `${grouped.format(next.value)} ${unit} is lower than the reading before it (${grouped.format(prev.value)} ${unit} on ${readingTime(prev.at, timeZone)}); record it as a reset if the counter started again from zero`;
   }
   return null;
 }

@@ -14,6 +14,11 @@ describe('readingOrderProblem', () => {
     expect(readingOrderProblem('running-time', null, r(2, 5), 'h')).toBeNull();
   });
 
+  it("names the earlier reading's time in the shop's zone when it is given, as the screens show it", () => {
+    // 2026-01-01 00:00 UTC is the evening before in America/Chicago (UTC-6 in winter).
+    expect(readingOrderProblem('count', r(1, 100), r(2, 99), 'starts', 'America/Chicago')).toBe('99 starts is lower than the reading before it (100 starts on 31 Dec 2025, 18:00); record it as a reset if the counter started again from zero');
+  });
+
   it('groups thousands in the message so a long counter can be read at a glance', () => {
     expect(readingOrderProblem('count', r(1, 1_234_567), r(2, 98_765.5), 'starts')).toMatch(/^98,765\.5 starts is lower than the reading before it \(1,234,567 starts on /);
   });

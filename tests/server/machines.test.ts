@@ -89,7 +89,8 @@ describe('machines and components', () => {
       await post(op, `/meters/${starts}/readings`, { value: 1500, readAt: day(3) }).expect(201);
       const back = await post(op, `/meters/${starts}/readings`, { value: 1200, readAt: day(4) }).expect(400);
       expect(back.body.fields[0].path).toBe('value');
-      expect(back.body.message).toMatch(/Arc starts: 1,200 starts is lower than the reading before it \(1,500 starts on 2026-01-03 08:00 UTC\); record it as a reset/);
+      // The time is the shop's (America/Chicago), as the screens show readings: 08:00 UTC is 02:00 there.
+      expect(back.body.message).toMatch(/Arc starts: 1,200 starts is lower than the reading before it \(1,500 starts on 3 Jan 2026, 02:00\); record it as a reset/);
       // A backfilled reading higher than a later one is refused too.
       const ahead = await post(op, `/meters/${starts}/readings`, { value: 1700, readAt: day(2) }).expect(400);
       expect(ahead.body.message).toMatch(/higher than a later reading \(1,500 starts/);

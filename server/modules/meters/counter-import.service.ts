@@ -7,7 +7,7 @@ import type { Principal } from '../../http/principal';
 import { badRequest } from '../../http/errors';
 import { recordAudit } from '../audit/audit';
 import { importKeySource, mapHeader, parseRow, type ParsedRow, type RowError } from '../../../shared/domain/counter-import';
-import { readingOrderProblem } from '../../../shared/domain/meters';
+import { readingOrderProblem, readingTime } from '../../../shared/domain/meters';
 import type { ImportMeterSummary, ImportPreview, ImportResult } from '../../../shared/schemas/counter-import';
 import type { MeterKind } from '../../../shared/schemas/machines';
 
@@ -125,13 +125,13 @@ export async function analyseCounterCsv(em: EntityManager, who: Principal, file:
       const p = points[i];
       const prev = i > 0 ? points[i - 1] : null;
       if (p.row) {
-        const problem = readingOrderProblem(meter.kind, prev, p, meter.unit);
+        const problem = readingOrderProblem(meter.kind, prev, p, meter.unit, org.timeZone);
         if (problem) {
           errors.push({ line: p.row.line, column: 'value', message: `${meter.machineCode}/${meter.code}: ${problem}` });
           p.row.status = 'error';
         }
       } else if (prev?.row && prev.row.status === 'add' && readingOrderProblem(meter.kind, prev, p, meter.unit)) {
-        errors.push({ line: prev.row.line, column: 'value', message: `${meter.machineCode}/${meter.code}: ${prev.value} ${meter.unit} is higher than the stored reading after it (${p.value} ${meter.unit} on ${p.at.toISOString().slice(0, 16).replace('T', ' ')} UTC)` });
+        errors.push({ line: prev.row.line, column: 'value', message: `${meter.machineCode}/${meter.code}: ${prev.value} ${meter.unit} is higher than the stored reading after it (${p.value} ${meter.unit} on ${readingTime(p.at, org.timeZone)})` });
         prev.row.status = 'error';
       }
     }

@@ -5,7 +5,8 @@ import { Machine } from '../machines/machine.entity';
 import type { Principal } from '../../http/principal';
 import { AppError, conflict, fieldError, notFound } from '../../http/errors';
 import { recordAudit } from '../audit/audit';
-import { grouped, readingOrderProblem, thinSeries } from '../../../shared/domain/meters';
+import { grouped, readingOrderProblem, readingTime, thinSeries } from '../../../shared/domain/meters';
+import { Organization } from '../organizations/organization.entity';
 import { usageRatePerDay } from '../../../shared/domain/forecast';
 import type { LatestReading, ListReadingsQuery, MeterInput, MeterRow, MeterTrend, MeterUpdate, ReadingBatchInput, ReadingInput, ReadingRow } from '../../../shared/schemas/machines';
 import type { Page } from '../../../shared/schemas/users';
@@ -106,10 +107,11 @@ export async function recordReading(
   const at = input.readAt ? new Date(input.readAt) : new Date();
   const candidate = { at, value: input.value, isReset: input.isReset };
   const { prev, next } = await neighbours(em, meter.id, at);
-  const before = readingOrderProblem(meter.kind, prev, candidate, meter.unit);
+  const timeZone = (await em.findOne(Organization, who.orgId))?.timeZone;
+  const before = readingOrderProblem(meter.kind, prev, candidate, meter.unit, timeZone);
   if (before) throw fieldError('value', `${meter.name}: ${before}`);
   if (next && readingOrderProblem(meter.kind, candidate, next, meter.unit)) {
-    throw fieldError('value', `${meter.name}: ${grouped.format(input.value)} ${meter.unit} is higher than a later reading (${grouped.format(next.value)} ${meter.unit} on ${next.at.toISOString().slice(0, 16).replace('T', ' ')} UTC)`);
+    throw fieldError('value', `${meter.name}: ${grouped.format(input.value)} ${meter.unit} is higher than a later reading (${grouped.format(next.value)} ${meter.unit} on ${readingTime(next.at, timeZone)})`);
   }
   const reading = em.create(MeterReading, { organization: who.orgId, meter, value: input.value, readAt: at, source, isReset: input.isReset, note: input.note ?? null, recordedBy: who.userId });
   return reading;
