@@ -11,6 +11,15 @@ function toFields(error: z.ZodError, where: string) {
   }));
 }
 
+/** "triggers.0.every" → "triggers 1 › every": the summary is read by people; `fields` keep the exact paths for forms. */
+function readablePath(path: string): string {
+  return path
+    .split('.')
+    .map((part) => (/^\d+$/.test(part) ? String(Number(part) + 1) : part))
+    .join(' › ')
+    .replace(/ › (\d+)/g, ' $1');
+}
+
 /**
  * Parses body, query and params with the shared zod schemas. Parsed values land on
  * `res.locals.body/query/params` (Express 5's req.query is a read-only getter).
@@ -24,7 +33,7 @@ export function validate(schemas: Schemas): RequestHandler {
       const result = schema.safeParse(input);
       if (!result.success) {
         const fields = toFields(result.error, where);
-        return next(badRequest(`Invalid ${where === 'body' ? 'input' : where}: ${fields.map((f) => `${f.path}: ${f.message}`).join('; ')}`, fields));
+        return next(badRequest(`Please check ${fields.map((f) => `${readablePath(f.path)}: ${f.message}`).join('; ')}`, fields));
       }
       res.locals[where] = result.data;
     }
