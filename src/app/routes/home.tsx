@@ -34,7 +34,7 @@ export function Component() {
       ) : null}
       {can(me.role, 'audit.read') ? (
         <Panel title="Latest activity" className="lg:col-span-2">
-          <AuditTable pageSize={5} timeZone={me.organization.timeZone} />
+          <AuditTable pageSize={5} timeZone={me.organization.timeZone} filters={false} />
         </Panel>
       ) : null}
     </RoleHome>
