@@ -2,7 +2,7 @@
 import type { MikroORM } from '@mikro-orm/postgresql';
 import { DateTime } from 'luxon';
 import type { Role } from '../../shared/permissions';
-import { queueDigest, type WorkLine } from './due-engine-mail';
+import { queueDigest, workLine, type WorkRow } from './due-engine-mail';
 import { loadConfig } from '../config';
 import { logger } from '../logger';
 
@@ -43,7 +43,7 @@ export async function sendDigests(orm: MikroORM, now: Date): Promise<Map<string,
           [date, c.id, date],
         );
         if (claimed.length === 0) return 0;
-        const rows: { id: string; number: number; title: string; due_at: Date | null; overdue: boolean; safety_critical: boolean; requires_lockout: boolean; assignee_id: string | null; responsible_role: Role | null; code: string; name: string }[] =
+        const rows: (WorkRow & { overdue: boolean })[] =
           await tx.execute(
             `select w.id, w.number, w.title, w.due_at, w.overdue, w.safety_critical, w.requires_lockout, w.assignee_id, w.responsible_role, m.code, m.name
                from work_order w join machine m on m.id = w.machine_id
@@ -53,19 +53,7 @@ export async function sendDigests(orm: MikroORM, now: Date): Promise<Map<string,
             [c.organization_id, c.user_id, c.role],
           );
         if (rows.length === 0) return 0;
-        const lines: WorkLine[] = rows.map((r) => ({
-          id: r.id,
-          number: r.number,
-          title: r.title,
-          machineCode: r.code,
-          machineName: r.name,
-          dueAt: r.due_at ? new Date(r.due_at) : null,
-          overdue: r.overdue,
-          safetyCritical: r.safety_critical,
-          requiresLockout: r.requires_lockout,
-          assigneeId: r.assignee_id,
-          responsibleRole: r.responsible_role,
-        }));
+        const lines = rows.map((r) => workLine(r, r.overdue));
         queueDigest(tx, { orgId: c.organization_id, orgName: c.org_name, timeZone: c.time_zone, appUrl }, { userId: c.user_id, email: c.email, name: c.name, role: c.role, mode: 'daily' }, lines, date);
         return 1;
       });

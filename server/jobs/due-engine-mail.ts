@@ -36,6 +36,36 @@ export type WorkLine = {
   reason?: string | null;
 };
 
+/** A work order as the notice, escalation and digest steps read it (joined with its machine's code and name). */
+export type WorkRow = {
+  id: string;
+  number: number;
+  title: string;
+  due_at: Date | null;
+  safety_critical: boolean;
+  requires_lockout: boolean;
+  assignee_id: string | null;
+  responsible_role: Role | null;
+  code: string;
+  name: string;
+};
+
+export function workLine(r: WorkRow, overdue: boolean): WorkLine {
+  return {
+    id: r.id,
+    number: r.number,
+    title: r.title,
+    machineCode: r.code,
+    machineName: r.name,
+    dueAt: r.due_at ? new Date(r.due_at) : null,
+    overdue,
+    safetyCritical: r.safety_critical,
+    requiresLockout: r.requires_lockout,
+    assigneeId: r.assignee_id,
+    responsibleRole: r.responsible_role,
+  };
+}
+
 /** The person named on the work, or else everyone holding its responsible role. */
 export function responsibleFor(w: Pick<WorkLine, 'assigneeId' | 'responsibleRole'>, people: Person[]): Person[] {
   if (w.assigneeId) return people.filter((p) => p.userId === w.assigneeId);

@@ -11,7 +11,6 @@
 import { createHash, randomUUID } from 'node:crypto';
 import type { EntityManager, MikroORM } from '@mikro-orm/postgresql';
 import { evaluatePlan, type Evaluation } from '../../shared/domain/due';
-import type { Role } from '../../shared/permissions';
 import { registerJobStep } from './scheduler';
 import {
   PLAN_COLUMNS,
@@ -28,7 +27,7 @@ import {
   type EnginePlanRow,
   type MeterSeries,
 } from './due-engine-inputs';
-import { loadPeople, queueEscalations, queueRaisedNotices, type Person, type WorkLine } from './due-engine-mail';
+import { loadPeople, queueEscalations, queueRaisedNotices, workLine, type Person, type WorkRow } from './due-engine-mail';
 import { sendDigests } from './due-engine-digest';
 import { humanReason, type MeterLabel } from './due-engine-reason';
 import { insertAuditRows } from '../modules/audit/audit';
@@ -348,35 +347,6 @@ async function escalate(orm: MikroORM, run: Run, now: Date, orgId?: string) {
 // large enough that a shop's whole backlog escalates in one (a bound on memory, not a batch size).
 const ESCALATE_CHUNK = 50_000;
 
-/** A work order as the notice and escalation steps read it (joined with its machine's code and name). */
-type WorkRow = {
-  id: string;
-  number: number;
-  title: string;
-  due_at: Date | null;
-  safety_critical: boolean;
-  requires_lockout: boolean;
-  assignee_id: string | null;
-  responsible_role: Role | null;
-  code: string;
-  name: string;
-};
-
-function workLine(r: WorkRow, overdue: boolean): WorkLine {
-  return {
-    id: r.id,
-    number: r.number,
-    title: r.title,
-    machineCode: r.code,
-    machineName: r.name,
-    dueAt: r.due_at ? new Date(r.due_at) : null,
-    overdue,
-    safetyCritical: r.safety_critical,
-    requiresLockout: r.requires_lockout,
-    assigneeId: r.assignee_id,
-    responsibleRole: r.responsible_role,
-  };
-}
 
 async function escalateChunk(orm: MikroORM, run: Run, now: Date, orgId?: string): Promise<number> {
   const em = orm.em.fork();
