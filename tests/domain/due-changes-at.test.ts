@@ -1,52 +1,40 @@
 import { describe, expect, it } from 'vitest';
 import { evaluatePlan, type PlanInput, type Trigger } from '../../shared/domain/due';
+import { D, plan, WEEKLY_MONDAY } from './due-fixtures';
 
 // `changesAt` is the earliest instant at which an evaluation's status can change with time alone.
 // Checks: hand-worked boundaries from the house rules in shared/domain/due.ts (window, grace = max(window, 1 day)),
 // and an invariant over many generated plans: between `now` and `changesAt` the status stays the same.
 // Calendar facts: 2024-03-04 and 2024-03-11 are Mondays; Europe/Berlin is UTC+1 in March before the 31st.
 
-const D = (iso: string) => new Date(iso);
 const DAY = 86_400_000;
-const WEEKLY_MONDAY: Trigger = { kind: 'calendar-fixed', ical: 'DTSTART;TZID=Europe/Berlin:20240304T070000\nRRULE:FREQ=WEEKLY;BYDAY=MO' };
-
-const base = (o: Partial<PlanInput>): PlanInput => ({
-  now: D('2024-03-08T12:00:00Z'),
-  startedAt: D('2024-03-01T00:00:00Z'),
-  lastDoneAt: D('2024-03-04T10:00:00Z'),
-  lastRaisedKey: null,
-  triggers: [WEEKLY_MONDAY],
-  meters: {},
-  dueSoon: { days: 2 },
-  ...o,
-});
 
 describe('changesAt, hand-worked', () => {
   it('fixed calendar: not due → coming up at occurrence − window', () => {
     // Next occurrence Mon 11 Mar 07:00 CET = 06:00Z; window 2 d → due-soon from Sat 9 Mar 06:00Z.
-    const e = evaluatePlan(base({}));
+    const e = evaluatePlan(plan({}));
     expect(e.status).toBe('not-due');
     expect(e.changesAt?.toISOString()).toBe('2024-03-09T06:00:00.000Z');
-    expect(evaluatePlan(base({ now: e.changesAt! })).status).toBe('due-soon');
+    expect(evaluatePlan(plan({ now: e.changesAt! })).status).toBe('due-soon');
   });
 
   it('fixed calendar: coming up → due at the occurrence; due → overdue just after the grace', () => {
-    const soon = evaluatePlan(base({ now: D('2024-03-10T00:00:00Z') }));
+    const soon = evaluatePlan(plan({ now: D('2024-03-10T00:00:00Z') }));
     expect(soon.changesAt?.toISOString()).toBe('2024-03-11T06:00:00.000Z');
-    const due = evaluatePlan(base({ now: D('2024-03-11T06:00:00Z') }));
+    const due = evaluatePlan(plan({ now: D('2024-03-11T06:00:00Z') }));
     expect(due.status).toBe('due');
     // Grace = max(2 d window, 1 d) = 2 d; overdue is "more than" the grace, so 1 ms after.
     expect(due.changesAt?.toISOString()).toBe('2024-03-13T06:00:00.001Z');
-    expect(evaluatePlan(base({ now: D('2024-03-13T06:00:00.000Z') })).status).toBe('due');
-    expect(evaluatePlan(base({ now: due.changesAt! })).status).toBe('overdue');
+    expect(evaluatePlan(plan({ now: D('2024-03-13T06:00:00.000Z') })).status).toBe('due');
+    expect(evaluatePlan(plan({ now: due.changesAt! })).status).toBe('overdue');
   });
 
   it('overdue has no time boundary left', () => {
-    expect(evaluatePlan(base({ now: D('2024-03-20T00:00:00Z') })).changesAt).toBeNull();
+    expect(evaluatePlan(plan({ now: D('2024-03-20T00:00:00Z') })).changesAt).toBeNull();
   });
 
   it('meter without readings changes only with new readings', () => {
-    const e = evaluatePlan(base({ triggers: [{ kind: 'meter', meterId: 'h', every: 100 }], meters: { h: { baseline: 0, latest: null, recent: [] } } }));
+    const e = evaluatePlan(plan({ triggers: [{ kind: 'meter', meterId: 'h', every: 100 }], meters: { h: { baseline: 0, latest: null, recent: [] } } }));
     expect(e.changesAt).toBeNull();
   });
 
@@ -56,7 +44,7 @@ describe('changesAt, hand-worked', () => {
       { at: D('2024-03-01T00:00:00Z'), value: 0 },
       { at: D('2024-03-06T00:00:00Z'), value: 50 },
     ];
-    const e = evaluatePlan(base({ now: D('2024-03-07T00:00:00Z'), triggers: [{ kind: 'meter', meterId: 'h', every: 100 }], meters: { h: { baseline: 0, latest: readings[1], recent: readings } } }));
+    const e = evaluatePlan(plan({ now: D('2024-03-07T00:00:00Z'), triggers: [{ kind: 'meter', meterId: 'h', every: 100 }], meters: { h: { baseline: 0, latest: readings[1], recent: readings } } }));
     expect(e.status).toBe('not-due');
     expect(e.changesAt?.toISOString()).toBe('2024-03-09T00:00:00.000Z');
   });
@@ -64,7 +52,7 @@ describe('changesAt, hand-worked', () => {
   it('whichever first: the earliest boundary of all triggers', () => {
     const floating: Trigger = { kind: 'calendar-floating', every: 1, unit: 'day', tz: 'UTC' };
     // Floating: done 4 Mar 10:00Z + 1 day = 5 Mar 10:00Z, window 2 d → due-soon already; due at 5 Mar 10:00Z.
-    const e = evaluatePlan(base({ now: D('2024-03-04T12:00:00Z'), triggers: [WEEKLY_MONDAY, floating] }));
+    const e = evaluatePlan(plan({ now: D('2024-03-04T12:00:00Z'), triggers: [WEEKLY_MONDAY, floating] }));
     expect(e.changesAt?.toISOString()).toBe('2024-03-05T10:00:00.000Z');
   });
 });

@@ -1,31 +1,11 @@
 import { describe, expect, it } from 'vitest';
 import { evaluatePlan, type PlanInput, type Trigger } from '../../shared/domain/due';
+import { D, plan } from './due-fixtures';
 
 // All expectations below are hand-worked from the scenario data and the house rules documented at
 // the top of shared/domain/due.ts (due-soon window, grace = max(window, 1 day), one key per plan).
 // Calendar facts used: 2024-03-04 and 2024-04-01 are Mondays; Europe/Berlin is CET (UTC+1) until
 // 01:00 UTC on 31 March 2024 and CEST (UTC+2) after (Directive 2000/84/EC: last Sunday of March).
-
-const D = (iso: string) => new Date(iso);
-
-// Mondays 07:00 Europe/Berlin: 06:00Z in March (CET), 05:00Z from 1 April (CEST).
-const WEEKLY_MONDAY: Trigger = {
-  kind: 'calendar-fixed',
-  ical: 'DTSTART;TZID=Europe/Berlin:20240304T070000\nRRULE:FREQ=WEEKLY;BYDAY=MO',
-};
-
-function plan(overrides: Partial<PlanInput>): PlanInput {
-  return {
-    now: D('2024-03-08T12:00:00Z'),
-    startedAt: D('2024-03-01T00:00:00Z'),
-    lastDoneAt: D('2024-03-04T10:00:00Z'),
-    lastRaisedKey: null,
-    triggers: [WEEKLY_MONDAY],
-    meters: {},
-    dueSoon: { days: 2 },
-    ...overrides,
-  };
-}
 
 describe('calendar-fixed weekly plan (hand-worked)', () => {
   it('not due more than the window before the next occurrence', () => {
