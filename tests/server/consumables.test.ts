@@ -1,5 +1,5 @@
 import { describe, it, expect, beforeAll, afterAll } from 'vitest';
-import { makeShop, makeTestApp, signIn, type SignedIn, type TestShop } from '../setup/test-app';
+import { makeShop, makeTestApp, post, signIn, type SignedIn, type TestShop } from '../setup/test-app';
 import { ConsumableChange, ConsumableInstall, ConsumablePhoto } from '../../server/modules/consumables/consumable.entity';
 import { MeterReading } from '../../server/modules/meters/meter.entity';
 import { StockMove } from '../../server/modules/stock/stock.entity';
@@ -16,7 +16,6 @@ let nozzle: string;
 let startsMeter: string;
 let hoursMeter: string;
 
-const post = (s: SignedIn, url: string, body: object) => s.agent.post(`/api${url}`).set('X-CSRF-Token', s.csrf).send(body);
 const hoursAgo = (h: number) => new Date(Date.now() - h * 3600_000).toISOString();
 // A real PNG: signature, IHDR for a 1×1 image, IDAT, IEND.
 const PNG = Buffer.from('iVBORw0KGgoAAAANSUhEUgAAAAEAAAABCAYAAAAfFcSJAAAADUlEQVR42mNk+M9QDwADhgGAWjR9awAAAABJRU5ErkJggg==', 'base64');

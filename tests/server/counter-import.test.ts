@@ -1,5 +1,5 @@
 import { describe, it, expect, beforeAll, afterAll } from 'vitest';
-import { makeShop, makeTestApp, signIn, type SignedIn, type TestShop } from '../setup/test-app';
+import { makeShop, makeTestApp, post, signIn, type SignedIn, type TestShop } from '../setup/test-app';
 import { MeterReading } from '../../server/modules/meters/meter.entity';
 import { COUNTER_IMPORT_MAX_BYTES } from '../../shared/schemas/counter-import';
 
@@ -10,7 +10,6 @@ let tech: SignedIn;
 let otherTech: SignedIn;
 let startsId: string;
 
-const post = (s: SignedIn, url: string, body: object) => s.agent.post(`/api${url}`).set('X-CSRF-Token', s.csrf).send(body);
 const upload = (s: SignedIn, url: string, csv: string | Buffer, accept = 'application/json') =>
   s.agent.post(`/api${url}`).set('X-CSRF-Token', s.csrf).set('Accept', accept).attach('file', Buffer.isBuffer(csv) ? csv : Buffer.from(csv), { filename: 'counters.csv', contentType: 'text/csv' });
 

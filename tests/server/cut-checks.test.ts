@@ -1,5 +1,5 @@
 import { describe, it, expect, beforeAll, afterAll } from 'vitest';
-import { makeShop, makeTestApp, signIn, type SignedIn, type TestShop } from '../setup/test-app';
+import { makeShop, makeTestApp, post, signIn, type SignedIn, type TestShop } from '../setup/test-app';
 import { CutCheck } from '../../server/modules/consumables/consumable.entity';
 
 let t: Awaited<ReturnType<typeof makeTestApp>>;
@@ -9,7 +9,6 @@ let tech: SignedIn;
 let op: SignedIn;
 let torch: string;
 
-const post = (s: SignedIn, url: string, body: object) => s.agent.post(`/api${url}`).set('X-CSRF-Token', s.csrf).send(body);
 const minutesAgo = (m: number) => new Date(Date.now() - m * 60_000).toISOString();
 const coupon = (length: number, width: number) => [
   { label: 'Length', nominalMm: 100, measuredMm: length },

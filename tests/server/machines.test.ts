@@ -1,5 +1,5 @@
 import { describe, it, expect, beforeAll, afterAll } from 'vitest';
-import { makeShop, makeTestApp, signIn, type SignedIn, type TestShop } from '../setup/test-app';
+import { makeShop, makeTestApp, post, patch, signIn, type SignedIn, type TestShop } from '../setup/test-app';
 import { MeterReading } from '../../server/modules/meters/meter.entity';
 
 let t: Awaited<ReturnType<typeof makeTestApp>>;
@@ -9,8 +9,6 @@ let tech: SignedIn;
 let op: SignedIn;
 let otherTech: SignedIn;
 
-const post = (s: SignedIn, url: string, body: object) => s.agent.post(`/api${url}`).set('X-CSRF-Token', s.csrf).send(body);
-const patch = (s: SignedIn, url: string, body: object) => s.agent.patch(`/api${url}`).set('X-CSRF-Token', s.csrf).send(body);
 
 beforeAll(async () => {
   t = await makeTestApp();

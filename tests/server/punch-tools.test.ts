@@ -1,5 +1,5 @@
 import { describe, it, expect, beforeAll, afterAll } from 'vitest';
-import { makeShop, makeTestApp, signIn, type SignedIn, type TestShop } from '../setup/test-app';
+import { makeShop, makeTestApp, post, signIn, type SignedIn, type TestShop } from '../setup/test-app';
 
 let t: Awaited<ReturnType<typeof makeTestApp>>;
 let a: TestShop;
@@ -10,7 +10,6 @@ let head: string;
 let hits: string;
 let tool: string;
 
-const post = (s: SignedIn, url: string, body: object) => s.agent.post(`/api${url}`).set('X-CSRF-Token', s.csrf).send(body);
 const hoursAgo = (h: number) => new Date(Date.now() - h * 3600_000).toISOString();
 
 beforeAll(async () => {

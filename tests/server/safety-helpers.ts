@@ -2,7 +2,9 @@
 import pg from 'pg';
 import { DateTime } from 'luxon';
 import type { EntityManager } from '@mikro-orm/postgresql';
-import { makeShop, signIn, type SignedIn, type TestShop } from '../setup/test-app';
+import { get, makeShop, post, put, signIn, type SignedIn, type TestShop } from '../setup/test-app';
+
+export { get, post, put };
 import { Machine } from '../../server/modules/machines/machine.entity';
 import { DEMO_PASSWORD } from '../../seed/factories';
 import { ROLES, type Role } from '../../shared/permissions';
@@ -47,9 +49,6 @@ export async function makeSafetyShop(app: AppHandle['app'], em: EntityManager, l
   return { ...shop, machineId: m1.id, machineCode: 'C1', otherMachineId: m2.id, s };
 }
 
-export const post = (who: SignedIn, path: string, body: unknown) => who.agent.post(`/api${path}`).set('X-CSRF-Token', who.csrf).send(body as object);
-export const put = (who: SignedIn, path: string, body: unknown) => who.agent.put(`/api${path}`).set('X-CSRF-Token', who.csrf).send(body as object);
-export const get = (who: SignedIn, path: string) => who.agent.get(`/api${path}`);
 
 /** Creates and approves a procedure for the shop's cell; returns its id. */
 export async function approvedProcedure(shop: SafetyShop, content = cellProcedure(), machineId = shop.machineId): Promise<string> {

@@ -1,5 +1,5 @@
 import { describe, it, expect, beforeAll, afterAll } from 'vitest';
-import { makeShop, makeTestApp, signIn, type SignedIn, type TestShop } from '../setup/test-app';
+import { makeShop, makeTestApp, post, signIn, type SignedIn, type TestShop } from '../setup/test-app';
 import { StockMove } from '../../server/modules/stock/stock.entity';
 
 let t: Awaited<ReturnType<typeof makeTestApp>>;
@@ -10,7 +10,6 @@ let op: SignedIn;
 let otherTech: SignedIn;
 let electrode: string;
 
-const post = (s: SignedIn, url: string, body: object) => s.agent.post(`/api${url}`).set('X-CSRF-Token', s.csrf).send(body);
 
 async function moveCount(orgId: string) {
   const em = t.em();

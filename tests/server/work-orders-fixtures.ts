@@ -7,13 +7,8 @@ import { PartType } from '../../server/modules/stock/stock.entity';
 import { OutboxMail } from '../../server/mail/outbox.entity';
 import type { MachineKind, MeterKind } from '../../shared/schemas/machines';
 import type { PartCategory } from '../../shared/schemas/stock';
-import type { SignedIn } from '../setup/test-app';
+export { del, get, patch, post, put } from '../setup/test-app';
 
-export const post = (s: SignedIn, url: string, body: object = {}) => s.agent.post(`/api${url}`).set('X-CSRF-Token', s.csrf).send(body);
-export const put = (s: SignedIn, url: string, body: object = {}) => s.agent.put(`/api${url}`).set('X-CSRF-Token', s.csrf).send(body);
-export const patch = (s: SignedIn, url: string, body: object = {}) => s.agent.patch(`/api${url}`).set('X-CSRF-Token', s.csrf).send(body);
-export const del = (s: SignedIn, url: string) => s.agent.delete(`/api${url}`).set('X-CSRF-Token', s.csrf).send({});
-export const get = (s: SignedIn, url: string) => s.agent.get(`/api${url}`);
 
 export function scoped(em: EntityManager, orgId: string): EntityManager {
   em.setFilterParams('org', { orgId });

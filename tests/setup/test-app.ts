@@ -33,6 +33,13 @@ export async function makeShop(em: EntityManager, label = 'shop'): Promise<TestS
 
 export type SignedIn = { agent: TestAgent; csrf: string };
 
+// API calls as a signed-in person; every change carries the CSRF header.
+export const get = (s: SignedIn, url: string) => s.agent.get(`/api${url}`);
+export const post = (s: SignedIn, url: string, body: unknown = {}) => s.agent.post(`/api${url}`).set('X-CSRF-Token', s.csrf).send(body as object);
+export const put = (s: SignedIn, url: string, body: unknown = {}) => s.agent.put(`/api${url}`).set('X-CSRF-Token', s.csrf).send(body as object);
+export const patch = (s: SignedIn, url: string, body: unknown = {}) => s.agent.patch(`/api${url}`).set('X-CSRF-Token', s.csrf).send(body as object);
+export const del = (s: SignedIn, url: string) => s.agent.delete(`/api${url}`).set('X-CSRF-Token', s.csrf).send({});
+
 /** Signs in through the real endpoints (CSRF token first, then login). */
 export async function signIn(app: AppHandle['app'], email: string, password = DEMO_PASSWORD): Promise<SignedIn> {
   const agent = supertest.agent(app);
