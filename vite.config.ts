@@ -25,6 +25,8 @@ export default defineConfig({
           name: 'domain',
           include: ['tests/domain/**/*.test.ts'],
           environment: 'node',
+          // Vitest's 5 s default fails property checks when the machine is busy.
+          testTimeout: 30_000,
         },
       },
       {

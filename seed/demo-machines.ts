@@ -18,6 +18,7 @@ import { couponResult } from '../shared/domain/consumables';
 import type { ChangeReason } from '../shared/schemas/consumables';
 import type { TorchCategory } from '../shared/schemas/stock';
 import { mulberry32 } from './prng';
+import { clock } from '../shared/clock';
 
 /** mulberry32: small, fast, deterministic. */
 function prng(seed: number) {
@@ -57,7 +58,7 @@ export const seedMachines: SeedStep = async (em, shop) => {
   const operator = byRole('operator');
   const tech = byRole('technician');
 
-  const now = new Date();
+  const now = clock.now();
   const today = Date.UTC(now.getUTCFullYear(), now.getUTCMonth(), now.getUTCDate());
   const start = today - 365 * DAY;
   const created = new Date(start - 30 * DAY);

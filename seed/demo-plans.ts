@@ -18,6 +18,7 @@ import { uuidArray } from '../server/jobs/due-engine-inputs';
 import type { Principal } from '../server/http/principal';
 import type { ChecklistLine } from '../shared/schemas/work-orders';
 import { mulberry32 } from './prng';
+import { clock } from '../shared/clock';
 
 const DAY = 86_400_000;
 
@@ -54,7 +55,7 @@ export const seedPlansDemo: SeedStep = async (rootEm, shop) => {
   if (!admin || !tech) return;
   const who: Principal = { userId: admin.user.id, orgId: shop.id, role: 'admin', name: admin.user.getEntity().name, email: admin.user.getEntity().email };
 
-  const now = Date.now();
+  const now = clock.ms();
   const start = now - 364 * DAY;
   const startDate = new Date(start).toISOString().slice(0, 10);
   for (const m of machines) await applyStarters(em, who, { machineId: m.id, starterKeys: STARTERS[m.code] }, { startDate });
@@ -98,7 +99,7 @@ export const seedPlansDemo: SeedStep = async (rootEm, shop) => {
         await em.flush();
       }
     }
-    const mark = new Date();
+    const mark = clock.now();
     await runDueEngine(orm, new Date(day), { orgId: shop.id, escalate: false, notify: false });
     // Work raised in this replayed week carries that week's date, not the seeding clock's.
     await conn.execute(`update work_order set created_at = ?, updated_at = ? where organization_id = ? and created_at >= ?`, [new Date(day), new Date(day), shop.id, mark]);
@@ -153,5 +154,5 @@ export const seedPlansDemo: SeedStep = async (rootEm, shop) => {
   );
   // Today: the real pass raises what is due now and reports what is past due.
   await conn.execute(`update maintenance_plan set recheck_at = null where organization_id = ?`, [shop.id]);
-  await runDueEngine(orm, new Date(), { orgId: shop.id });
+  await runDueEngine(orm, clock.now(), { orgId: shop.id });
 };

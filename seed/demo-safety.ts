@@ -8,8 +8,8 @@ import { DateTime } from 'luxon';
 import { Machine, type IMachine } from '../server/modules/machines/machine.entity';
 import { Membership } from '../server/modules/users/user.entity';
 import { EnergyProcedure, ProcedureVersion, type IProcedureVersion } from '../server/modules/safety/procedure.entity';
-import { LockoutMember, LockoutPoint, LockoutSession } from '../server/modules/safety/lockout.entity';
-import { FireWatch, PeriodicInspection, PpeCheck, PpeRequirement, TrainingRecord } from '../server/modules/safety/records.entity';
+import { LockoutMember, LockoutPoint, LockoutSession, type ILockoutMember, type ILockoutSession } from '../server/modules/safety/lockout.entity';
+import { FireWatch, PeriodicInspection, PpeCheck, PpeRequirement, TrainingRecord, type IFireWatch, type IPeriodicInspection } from '../server/modules/safety/records.entity';
 import { appendSignOff, type SignInput } from '../server/modules/safety/chain';
 import { contentDigest } from '../server/modules/safety/procedures.service';
 import { deriveRequiredItems } from '../shared/schemas/safety-ppe-derive';
@@ -18,6 +18,7 @@ import type { Principal } from '../server/http/principal';
 import { pointTag, type ProcedureContent, type EnergySource } from '../shared/schemas/safety-procedures';
 import type { PpeItem } from '../shared/schemas/safety-ppe';
 import type { SeedStep } from './demo';
+import { clock } from '../shared/clock';
 
 const src = (s: EnergySource) => s;
 
@@ -152,7 +153,7 @@ export const seedSafetyDemo: SeedStep = async (rootEm, shop) => {
   const tech = person('technician');
   const operator = person('operator');
   const tz = shop.timeZone;
-  const now = DateTime.now().setZone(tz);
+  const now = DateTime.fromMillis(clock.ms()).setZone(tz);
   const day = (daysAgo: number, hour: number, minute = 0) => now.minus({ days: daysAgo }).set({ hour, minute, second: 0, millisecond: 0 }).toJSDate();
   const dateOf = (d: Date) => DateTime.fromJSDate(d, { zone: tz }).toISODate()!;
   const hm = (d: Date) => DateTime.fromJSDate(d, { zone: tz }).toFormat("HH:mm 'on' d LLL yyyy ('" + tz + "')");
@@ -221,10 +222,13 @@ export const seedSafetyDemo: SeedStep = async (rootEm, shop) => {
 
     // Lockouts: about every three weeks on some machine, applied, verified and released by the technician.
     let lockNo = 10;
-    const lockout = (m: IMachine, daysAgo: number, reason: string, opts: { group?: boolean; open?: boolean } = {}) => {
+    const lockout = (m: IMachine, start: Date, reason: string, opts: { group?: boolean; open?: boolean } = {}) => {
       const procId = procs.get(m.id);
       if (!procId) return;
-      const start = day(daysAgo, 7, 30);
+      // Each signature is its own event, so another record signed in between lands between them on the chain.
+      let s: ILockoutSession;
+      let points: { key: string; device: 'blocking' | 'tag-only' | 'lock-and-tag'; lock: string }[] = [];
+      const verifyAt = new Date(start.getTime() + 12 * 60_000);
       events.push({
         at: start,
         run: async () => {
@@ -232,24 +236,44 @@ export const seedSafetyDemo: SeedStep = async (rootEm, shop) => {
           const latest = versions.get(m.id)!;
           const version = latest.approvedAt && latest.approvedAt <= start ? latest : firstVersions.get(m.id)!;
           const content = version.content;
-          const s = tx.create(LockoutSession, { organization: shop.id, machine: m, procedure: procId, procedureVersion: version, workOrderId: null, reason, group: !!opts.group, state: 'locked', primary: tech.userId, appliedAt: start });
-          const points = content.sources.map((x) => ({ key: x.key, device: x.kind === 'gravity' ? ('blocking' as const) : x.kind === 'thermal' || x.kind === 'stored-mechanical' ? ('tag-only' as const) : ('lock-and-tag' as const), lock: `A-${String(lockNo++).padStart(3, '0')}` }));
+          s = tx.create(LockoutSession, { organization: shop.id, machine: m, procedure: procId, procedureVersion: version, workOrderId: null, reason, group: !!opts.group, state: 'locked', primary: tech.userId, appliedAt: start });
+          points = content.sources.map((x) => ({ key: x.key, device: x.kind === 'gravity' ? ('blocking' as const) : x.kind === 'thermal' || x.kind === 'stored-mechanical' ? ('tag-only' as const) : ('lock-and-tag' as const), lock: `A-${String(lockNo++).padStart(3, '0')}` }));
           for (const pt of points) tx.create(LockoutPoint, { organization: shop.id, session: s, sourceKey: pt.key, device: pt.device, lockNumber: pt.lock, tagNumber: null, appliedBy: tech.userId, holder: tech.userId, appliedAt: start });
           await sign(tech, { meaning: 'lockout-applied', subjectType: 'lockout-session', subjectId: s.id, machineId: m.id, details: { summary: `${m.code} v${version.version}: ${points.map((x) => `${x.key} ${x.device.replace(/-/g, ' ')} ${x.lock}`).join(', ')} — ${reason}`, procedureId: procId, procedureVersion: version.version, reason, group: !!opts.group, workOrderId: null, points: points.map((x) => ({ key: x.key, device: x.device, lock: x.lock, tag: null })) } }, start);
-          const verifyAt = new Date(start.getTime() + 12 * 60_000);
+        },
+      });
+      events.push({
+        at: verifyAt,
+        run: async () => {
           await sign(tech, { meaning: 'isolation-verified', subjectType: 'lockout-session', subjectId: s.id, machineId: m.id, details: { summary: `${m.code}: start attempted; zero energy at ${points.map((x) => x.key).join(', ')}`, points: points.map((x) => x.key), startAttempted: true } }, verifyAt);
           s.state = 'verified';
           s.verifiedAt = verifyAt;
-          if (opts.group) {
-            const joinAt = new Date(verifyAt.getTime() + 5 * 60_000);
-            const member = tx.create(LockoutMember, { organization: shop.id, session: s, user: safety.userId, lockNumber: 'P-TV1', joinedAt: joinAt });
+        },
+      });
+      if (opts.group) {
+        const joinAt = new Date(verifyAt.getTime() + 5 * 60_000);
+        const leaveAt = new Date(joinAt.getTime() + 100 * 60_000);
+        let member: ILockoutMember;
+        events.push({
+          at: joinAt,
+          run: async () => {
+            member = tx.create(LockoutMember, { organization: shop.id, session: s, user: safety.userId, lockNumber: 'P-TV1', joinedAt: joinAt });
             await sign(safety, { meaning: 'member-joined', subjectType: 'lockout-session', subjectId: s.id, machineId: m.id, details: { summary: `${m.code}: personal lock P-TV1 on the group lockout held by ${tech.name}`, lock: 'P-TV1', memberId: member.id } }, joinAt);
-            const leaveAt = new Date(joinAt.getTime() + 100 * 60_000);
+          },
+        });
+        events.push({
+          at: leaveAt,
+          run: async () => {
             member.leftAt = leaveAt;
             await sign(safety, { meaning: 'member-left', subjectType: 'lockout-session', subjectId: s.id, machineId: m.id, details: { summary: `${m.code}: personal lock P-TV1 removed`, lock: 'P-TV1', memberId: member.id } }, leaveAt);
-          }
-          if (opts.open) return;
-          const releaseAt = new Date(start.getTime() + 150 * 60_000);
+          },
+        });
+      }
+      if (opts.open) return;
+      const releaseAt = new Date(start.getTime() + 150 * 60_000);
+      events.push({
+        at: releaseAt,
+        run: async () => {
           await sign(tech, { meaning: 'lockout-released', subjectType: 'lockout-session', subjectId: s.id, machineId: m.id, details: { summary: `${m.code}: area checked, people clear, affected employees told; removed ${points.map((x) => `${x.key} lock ${x.lock}`).join(', ')}`, areaChecked: true, peopleClear: true, affectedNotified: true, removed: points.map((x) => ({ key: x.key, lock: x.lock })), workOrderId: null } }, releaseAt);
           const pts = await tx.find(LockoutPoint, { session: s.id });
           for (const pt of pts) Object.assign(pt, { removedAt: releaseAt, removedBy: tech.userId });
@@ -259,8 +283,10 @@ export const seedSafetyDemo: SeedStep = async (rootEm, shop) => {
     };
     const rota = [...cells, table, brake, hyd, fume].filter((m): m is IMachine => !!m);
     const reasons = ['Change punch station tooling', 'Replace torch lead', 'Change hydraulic return filter', 'Change extractor cartridges', 'Replace clamp pads', 'Clean and re-level slats', 'Swap ball-screw wiper'];
-    for (let i = 0, d = 290; d > 5; i++, d -= 20) lockout(rota[i % rota.length], d, reasons[i % reasons.length], { group: i % 5 === 2 });
-    if (hyd) lockout(hyd, 0, 'Hose replacement in progress', { open: true });
+    for (let i = 0, d = 290; d > 5; i++, d -= 20) lockout(rota[i % rota.length], day(d, 7, 30), reasons[i % reasons.length], { group: i % 5 === 2 });
+    // Still open: applied earlier today, or in the last hours when the seed runs before the day shift.
+    const openedAt = DateTime.min(DateTime.fromJSDate(day(0, 7, 30)), now.minus({ hours: 3 }).startOf('hour'))!.toJSDate();
+    if (hyd) lockout(hyd, openedAt, 'Hose replacement in progress', { open: true });
 
     // PPE requirements and ten weeks of shift checks (a few missed).
     const reqs: { m: IMachine; task: string; items: PpeItem[]; arc: number | null; noise: { levelDbA: number; hours: number }[] }[] = [];
@@ -297,15 +323,25 @@ export const seedSafetyDemo: SeedStep = async (rootEm, shop) => {
     const inspect = (m: IMachine | undefined, daysAgo: number, certify: boolean) => {
       if (!m || !procs.get(m.id)) return;
       const at = day(daysAgo, 9, 30);
+      let performed: IPeriodicInspection;
       events.push({
         at,
         run: async () => {
           const v = versions.get(m.id)!;
           const employees = [{ id: tech.userId, name: tech.name }];
           const ins = tx.create(PeriodicInspection, { organization: shop.id, procedure: procs.get(m.id)!, procedureVersion: v.version, inspectedOn: dateOf(at), inspector: safety.userId, employees, findings: 'Watched a full application: every point locked, V7 opened, try-start done. Technician explained each step.', deviations: null, performedSignOff: null as never });
+          performed = ins;
           ins.performedSignOff = (await sign(safety, { meaning: 'inspection-performed', subjectType: 'periodic-inspection', subjectId: ins.id, machineId: m.id, details: { summary: `${m.code} ${v.content.title} v${v.version}, ${dateOf(at)}: ${tech.name}`, procedureId: procs.get(m.id)!, procedureVersion: v.version, inspectedOn: dateOf(at), employees, findings: ins.findings, deviations: null, responsibilitiesReviewed: true } }, at)) as never;
-          if (!certify) return;
-          const cAt = new Date(at.getTime() + 26 * 3600_000);
+        },
+      });
+      if (!certify) return;
+      const cAt = new Date(at.getTime() + 26 * 3600_000);
+      events.push({
+        at: cAt,
+        run: async () => {
+          const v = versions.get(m.id)!;
+          const ins = performed;
+          const employees = ins.employees;
           const c = await sign(safety, { meaning: 'inspection-certified', subjectType: 'periodic-inspection', subjectId: ins.id, machineId: m.id, details: { summary: `${m.code} ${v.content.title} v${v.version}: inspected ${dateOf(at)} by ${safety.name}; employees ${tech.name}`, procedureId: procs.get(m.id)!, procedureVersion: v.version, inspectedOn: dateOf(at), inspectorId: safety.userId, inspectorName: safety.name, employees, performedSignOffId: ins.performedSignOff.id } }, cAt);
           Object.assign(ins, { certifiedAt: cAt, certifiedBy: safety.userId, certifySignOff: c });
         },
@@ -318,13 +354,19 @@ export const seedSafetyDemo: SeedStep = async (rootEm, shop) => {
     if (table) {
       for (const d of [9, 4, 2]) {
         const ended = day(d, 15, 40);
+        const until = new Date(ended.getTime() + 30 * 60_000);
+        const endAt = new Date(until.getTime() + 3 * 60_000);
+        let fw: IFireWatch;
         events.push({
           at: ended,
           run: async () => {
-            const until = new Date(ended.getTime() + 30 * 60_000);
-            const fw = tx.create(FireWatch, { organization: shop.id, machine: table, watcher: operator.userId, cuttingEndedAt: ended, until, rule: 'osha-1910.252', area: 'Plasma table and the pallet rack behind it', startSignOff: null as never });
+            fw = tx.create(FireWatch, { organization: shop.id, machine: table, watcher: operator.userId, cuttingEndedAt: ended, until, rule: 'osha-1910.252', area: 'Plasma table and the pallet rack behind it', startSignOff: null as never });
             fw.startSignOff = (await sign(operator, { meaning: 'fire-watch-started', subjectType: 'fire-watch', subjectId: fw.id, machineId: table.id, details: { summary: `${table.code}: cutting ended ${hm(ended)}, watch until ${hm(until)} (OSHA 29 CFR 1910.252(a)(2)(iii)(B))`, cuttingEndedAt: ended.toISOString(), until: until.toISOString(), rule: 'osha-1910.252', area: fw.area } }, ended)) as never;
-            const endAt = new Date(until.getTime() + 3 * 60_000);
+          },
+        });
+        events.push({
+          at: endAt,
+          run: async () => {
             fw.endSignOff = (await sign(operator, { meaning: 'fire-watch-ended', subjectType: 'fire-watch', subjectId: fw.id, machineId: table.id, details: { summary: `${table.code}: watched from ${hm(ended)} to ${hm(endAt)}, no fire found`, noFireFound: true, rule: 'osha-1910.252' } }, endAt)) as never;
             fw.endedAt = endAt;
           },

@@ -36,6 +36,7 @@ import { manualPass } from '../modules/job-runs/job-run-context';
 import type { MeterBaselines } from '../modules/plans/plan.entity';
 import { loadConfig } from '../config';
 import { logger } from '../logger';
+import { clock } from '../../shared/clock';
 
 const DAY_MS = 86_400_000;
 /** Plans read per query; raises written per transaction. */
@@ -519,7 +520,7 @@ async function evaluateAll(orm: MikroORM, em: EntityManager, run: Run, now: Date
 /** Writes one job run row per shop for a pass. */
 async function recordRuns(orm: MikroORM, passId: string, startedAt: Date, stats: Map<string, OrgStats>) {
   const manual = manualPass.getStore();
-  const finishedAt = new Date();
+  const finishedAt = clock.now();
   const rows = [...stats].map(([orgId, s]) => ({
     id: randomUUID(),
     organization_id: orgId,
@@ -549,7 +550,7 @@ async function recordRuns(orm: MikroORM, passId: string, startedAt: Date, stats:
 /** The scheduled step: evaluate every plan, raise, escalate, send daily summaries, record the run. */
 export async function runMaintenancePass(orm: MikroORM, now: Date): Promise<Record<string, number>> {
   const passId = randomUUID();
-  const startedAt = new Date();
+  const startedAt = clock.now();
   let stats = new Map<string, OrgStats>();
   let failure: unknown = null;
   try {

@@ -2,6 +2,7 @@ import cron, { type ScheduledTask } from 'node-cron';
 import type { MikroORM } from '@mikro-orm/postgresql';
 import { LOCKS, withAdvisoryLock } from './advisory-lock';
 import { logger } from '../logger';
+import { clock } from '../../shared/clock';
 
 export type JobStep = { name: string; run: (orm: MikroORM, now: Date) => Promise<Record<string, number>> };
 
@@ -21,7 +22,7 @@ export function registerJobStep(step: JobStep) {
 }
 
 /** One scheduled pass over every step, under the advisory lock. */
-export async function runScheduledPass(orm: MikroORM, now = new Date()) {
+export async function runScheduledPass(orm: MikroORM, now = clock.now()) {
   return withAdvisoryLock(orm, LOCKS.scheduledPass, async () => {
     const results: Record<string, Record<string, number> | { error: string }> = {};
     for (const step of steps) {

@@ -1,5 +1,6 @@
 import { SMTPServer } from 'smtp-server';
 import { simpleParser } from 'mailparser';
+import { clock } from '../../shared/clock';
 
 export type CapturedMail = {
   id: number;
@@ -37,7 +38,7 @@ export class FakeSmtp {
             const to = session.envelope.rcptTo.map((r) => r.address.toLowerCase());
             this.mails.unshift({
               id: this.nextId++,
-              receivedAt: new Date().toISOString(),
+              receivedAt: clock.now().toISOString(),
               from: session.envelope.mailFrom ? session.envelope.mailFrom.address : '',
               to,
               subject: parsed.subject ?? '',

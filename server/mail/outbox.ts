@@ -1,5 +1,6 @@
 import type { EntityManager } from '@mikro-orm/postgresql';
 import { OutboxMail } from './outbox.entity';
+import { clock } from '../../shared/clock';
 
 export type MailMessage = {
   to: string;
@@ -22,6 +23,6 @@ export function queueMail(em: EntityManager, mail: MailMessage) {
     htmlBody: mail.html ?? null,
     kind: mail.kind,
     organizationId: mail.organizationId ?? null,
-    nextAttemptAt: new Date(),
+    nextAttemptAt: clock.now(),
   });
 }

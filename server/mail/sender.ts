@@ -1,5 +1,6 @@
 import type { MikroORM } from '@mikro-orm/postgresql';
 import type { Transporter } from 'nodemailer';
+import { clock } from '../../shared/clock';
 
 export const MAX_ATTEMPTS = 12;
 
@@ -35,7 +36,7 @@ export async function deliverOutbox(orm: MikroORM, transport: Transporter, from:
       } catch (err) {
         const attempts = row.attempts + 1;
         const status = attempts >= MAX_ATTEMPTS ? 'failed' : 'pending';
-        const next = new Date(Date.now() + backoffMs(attempts));
+        const next = new Date(clock.ms() + backoffMs(attempts));
         await conn.execute(`update outbox_mail set status = ?, attempts = ?, next_attempt_at = ?, last_error = ?, updated_at = now() where id = ?`, [status, attempts, next, String(err instanceof Error ? err.message : err).slice(0, 2000), row.id]);
         return 'failed' as const;
       }

@@ -5,6 +5,7 @@
  * Pure: no I/O; the server looks up machines and meters, this checks the text.
  */
 import { DateTime } from 'luxon';
+import { clock } from '../clock';
 
 export const REQUIRED_COLUMNS = ['machine_code', 'meter_code', 'read_at', 'value'] as const;
 export const OPTIONAL_COLUMNS = ['reset', 'unit'] as const;
@@ -58,7 +59,7 @@ export function parseReadAt(text: string, timeZone: string): Date | null {
 const RESET_WORDS: Record<string, boolean> = { '': false, no: false, false: false, '0': false, n: false, yes: true, true: true, '1': true, y: true };
 
 /** Parses one data row; `line` is the 1-based line number in the file (header = 1). */
-export function parseRow(cells: string[], map: Partial<Record<CounterColumn, number>>, line: number, timeZone: string, now = new Date()): ParsedRow | RowError[] {
+export function parseRow(cells: string[], map: Partial<Record<CounterColumn, number>>, line: number, timeZone: string, now = clock.now()): ParsedRow | RowError[] {
   const cell = (c: CounterColumn) => (map[c] === undefined ? '' : (cells[map[c]!] ?? '').trim());
   const errors: RowError[] = [];
   const expected = Object.keys(map).length;

@@ -1,6 +1,7 @@
 import { z } from 'zod';
 import { TORCH_CATEGORIES, type LifeUnit, type PartCategory, type TorchCategory } from './stock';
 import type { MeterRow } from './machines';
+import { clock } from '../clock';
 
 /** Why a consumable came out. Our own labels; the first three mean the part reached the end of its life. */
 export const CHANGE_REASONS = ['normal-wear', 'failed-start', 'poor-cut', 'damaged', 'preventive'] as const;
@@ -45,7 +46,7 @@ export const consumableChangeSchema = z
     changedAt: z.iso
       .datetime({ offset: true, message: 'Not a valid time' })
       .optional()
-      .refine((v) => !v || new Date(v).getTime() <= Date.now() + 5 * 60_000, 'The change time lies in the future'),
+      .refine((v) => !v || new Date(v).getTime() <= clock.ms() + 5 * 60_000, 'The change time lies in the future'),
     pitDepthMm: z.number({ message: 'Enter the pit depth in mm' }).min(0, 'The pit depth cannot be negative').max(10, 'A pit deeper than 10 mm is not plausible').nullish().transform((v) => v ?? null),
     note: z.string().trim().max(500, 'The note is too long (at most 500 characters)').nullish().transform((v) => v || null),
     /** Off when the parts came from somewhere other than the shop's stock. */

@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { clock } from '../clock';
 
 export const MACHINE_KINDS = ['punch-plasma-cell', 'plasma-table', 'press-brake', 'hydraulic-unit', 'fume-extractor', 'torch', 'punch-head', 'other'] as const;
 export type MachineKind = (typeof MACHINE_KINDS)[number];
@@ -145,7 +146,7 @@ export const readingInputSchema = z.object({
   readAt: z.iso
     .datetime({ offset: true, message: 'Enter the time as an ISO date-time, e.g. 2026-03-14T07:30:00Z' })
     .optional()
-    .refine((v) => !v || new Date(v).getTime() <= Date.now() + 5 * 60_000, 'The reading time lies in the future'),
+    .refine((v) => !v || new Date(v).getTime() <= clock.ms() + 5 * 60_000, 'The reading time lies in the future'),
   isReset: z.boolean().default(false),
   note: optionalText(300, 'Note'),
 });

@@ -1,5 +1,6 @@
 import { z } from 'zod';
 import { codeSchema } from './machines';
+import { clock } from '../clock';
 
 /** Thick-turret station sizes as the trade names them (A smallest … E largest). */
 export const STATION_SIZES = ['A', 'B', 'C', 'D', 'E'] as const;
@@ -27,7 +28,7 @@ export const sharpeningSchema = z.object({
   sharpenedAt: z.iso
     .datetime({ offset: true, message: 'Not a valid time' })
     .optional()
-    .refine((v) => !v || new Date(v).getTime() <= Date.now() + 5 * 60_000, 'The time lies in the future'),
+    .refine((v) => !v || new Date(v).getTime() <= clock.ms() + 5 * 60_000, 'The time lies in the future'),
   removedMm: z.number({ message: 'Enter the amount ground off in mm' }).min(0, 'Cannot be negative').max(5, 'More than 5 mm is not plausible').nullish().transform((v) => v ?? null),
   note: z.string().trim().max(300).nullish().transform((v) => v || null),
 });

@@ -3,6 +3,9 @@
 import { describe, expect, it } from 'vitest';
 import { expandRecurrence, previousOccurrence, validateRecurrence } from '../../shared/domain/recurrence';
 
+// Property checks: generous on a busy 2-core machine; each finishes in a few seconds alone.
+const PROPERTY_CHECK_TIMEOUT_MS = 60_000;
+
 function prng(seed: number) {
   let a = seed >>> 0;
   return () => {
@@ -83,7 +86,7 @@ describe('recurrence skip-ahead', () => {
       checked++;
     }
     expect(checked).toBe(1500);
-  });
+  }, PROPERTY_CHECK_TIMEOUT_MS);
 
   it('answers repeated questions about the same rule (its cached window of instants) like the plain walk', () => {
     const r = prng(4242);
@@ -117,7 +120,7 @@ describe('recurrence skip-ahead', () => {
       }
     }
     expect(questions).toBe(250 * 14);
-  });
+  }, PROPERTY_CHECK_TIMEOUT_MS);
 
   it('agrees across DST changes for rules at the changeover hours', () => {
     const cases = [
@@ -138,5 +141,5 @@ describe('recurrence skip-ahead', () => {
         }
       }
     }
-  });
+  }, PROPERTY_CHECK_TIMEOUT_MS);
 });

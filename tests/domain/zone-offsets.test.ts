@@ -6,6 +6,9 @@ import { DateTime, IANAZone } from 'luxon';
 import { cachedZone } from '../../shared/domain/zone-offsets';
 import { mulberry32 } from '../../seed/prng';
 
+// Property checks: generous on a busy 2-core machine; each finishes in a few seconds alone.
+const PROPERTY_CHECK_TIMEOUT_MS = 60_000;
+
 const ZONES = ['America/Chicago', 'Europe/Berlin', 'Australia/Lord_Howe', 'Asia/Kathmandu', 'Pacific/Apia', 'America/Sao_Paulo', 'Europe/Dublin', 'UTC'];
 const MINUTE = 60_000;
 
@@ -22,7 +25,7 @@ describe('cachedZone', () => {
     expect(chicago.offset(back)).toBe(-360);
     // Nepal keeps UTC+05:45 all year (tz database, Asia/Kathmandu since 1986).
     expect(cachedZone('Asia/Kathmandu').offset(change)).toBe(345);
-  });
+  }, PROPERTY_CHECK_TIMEOUT_MS);
 
   it('matches IANAZone at random instants from 1900 to 2100', () => {
     const r = mulberry32(4406);
@@ -36,7 +39,7 @@ describe('cachedZone', () => {
         expect(fast.offset(ts), `${name} at ${new Date(ts).toISOString()}`).toBe(slow.offset(ts));
       }
     }
-  });
+  }, PROPERTY_CHECK_TIMEOUT_MS);
 
   it('matches IANAZone minute by minute around every change of 2025-2027', () => {
     for (const name of ZONES) {
@@ -54,7 +57,7 @@ describe('cachedZone', () => {
       }
       if (name === 'America/Chicago' || name === 'Australia/Lord_Howe') expect(checked).toBeGreaterThan(500);
     }
-  });
+  }, PROPERTY_CHECK_TIMEOUT_MS);
 
   it('is a drop-in zone for luxon: same local times, names and calendar arithmetic', () => {
     const zone = cachedZone('Australia/Lord_Howe');
@@ -69,5 +72,5 @@ describe('cachedZone', () => {
       expect(a.plus({ months: 1 }).toMillis()).toBe(b.plus({ months: 1 }).toMillis());
       expect(a.plus({ days: 7 }).toMillis()).toBe(b.plus({ days: 7 }).toMillis());
     }
-  });
+  }, PROPERTY_CHECK_TIMEOUT_MS);
 });

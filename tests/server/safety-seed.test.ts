@@ -1,14 +1,16 @@
-import { describe, it, expect, beforeAll, afterAll } from 'vitest';
+import { describe, it, expect, beforeAll, afterAll, afterEach } from 'vitest';
 import { makeShop, makeTestApp, signIn } from '../setup/test-app';
 import { Machine } from '../../server/modules/machines/machine.entity';
 import { seedSafetyDemo } from '../../seed/demo-safety';
 import { get } from './safety-helpers';
+import { setClock } from '../../shared/clock';
 
 let t: Awaited<ReturnType<typeof makeTestApp>>;
 beforeAll(async () => {
   t = await makeTestApp();
 });
 afterAll(() => t.close());
+afterEach(() => setClock(null));
 
 describe('demo safety seed', () => {
   it('does nothing in a shop without machines', async () => {
@@ -18,8 +20,15 @@ describe('demo safety seed', () => {
     expect((await get(s, '/safety/chain/verify').expect(200)).body.total).toBe(0);
   });
 
-  it('writes a year of history with a valid chain for the demo machines', async () => {
-    const shop = await makeShop(t.em(), 'seed-full');
+  // The seed's history depends on the day it runs: a weekday or not 44 days back, before or after
+  // the day shift, on a DST change. Seed at instants that once broke the time order.
+  it.each([
+    ['a Saturday night, UTC early morning', '2026-12-05T04:30:00Z', 'seed-sat'],
+    ['a Wednesday before the day shift (05:00 in the shop)', '2026-12-09T11:00:00Z', 'seed-wed'],
+    ['twenty minutes before the spring DST change', '2027-03-14T07:40:00Z', 'seed-dst'],
+  ])('writes a year of history with a valid chain for the demo machines, seeded on %s', async (_when, at, slug) => {
+    setClock(at);
+    const shop = await makeShop(t.em(), slug);
     const em = t.em();
     for (const [code, kind, name] of [
       ['C1', 'punch-plasma-cell', 'Cell 1'],
@@ -55,6 +64,8 @@ describe('demo safety seed', () => {
     // Signatures are in time order along the chain.
     const rows = (await get(s, '/safety/sign-offs?sort=seq&dir=asc&pageSize=200').expect(200)).body.rows as { signedAt: string }[];
     for (let i = 1; i < rows.length; i++) expect(rows[i].signedAt >= rows[i - 1].signedAt).toBe(true);
+    // Nothing is signed in the future of the day it was seeded.
+    expect(rows.filter((r) => new Date(r.signedAt).getTime() > new Date(at).getTime() + 60_000)).toEqual([]);
     const compliance = (await get(s, '/safety/audit/compliance?days=14').expect(200)).body;
     expect(compliance.totals.openLockouts).toBe(1);
     expect(compliance.totals.missedPpeChecks).toBeGreaterThan(0);

@@ -1,4 +1,6 @@
-import { describe, it, expect, beforeAll, afterAll } from 'vitest';
+import { describe, it, expect, beforeAll, afterAll, afterEach } from 'vitest';
+import { DateTime } from 'luxon';
+import { clock, setClock } from '../../shared/clock';
 import type { MikroORM } from '@mikro-orm/postgresql';
 import { makeShop, makeTestApp, signIn, type SignedIn, type TestShop } from '../setup/test-app';
 import { initORM } from '../../server/db';
@@ -59,6 +61,7 @@ beforeAll(async () => {
   filter = await makePart(em, a.orgId, 'HF-10', 3);
   otherUnit = await makeMachine(scoped(t.em(), b.orgId), b.orgId, 'HU9');
 });
+afterEach(() => setClock(null));
 afterAll(() => t.close());
 
 describe('plans: bad input gets a clear error and nothing is written', () => {
@@ -152,6 +155,8 @@ describe('work order lifecycle', () => {
   });
 
   it('needs the lockout released before closing work that requires one; completion moves the floating schedule', async () => {
+    // Signed off on the Wednesday before the shop's spring DST change, so its week is 167 hours long.
+    setClock('2027-03-10T15:00:00Z');
     const { woId, planId } = await raisedWork({ requiresLockout: true });
     await answerAll(tech, woId).expect(200);
     const refused = await post(tech, `/work-orders/${woId}/close`, {}).expect(409);
@@ -168,18 +173,21 @@ describe('work order lifecycle', () => {
     await expect(
       orm.em.fork().transactional(async (em) => {
         em.setFilterParams('org', { orgId: b.orgId });
-        await markLockoutReleased(em, woId, new Date());
+        await markLockoutReleased(em, woId, clock.now());
       }),
     ).rejects.toThrow('Work order not found');
     await orm.em.fork().transactional(async (em) => {
       em.setFilterParams('org', { orgId: a.orgId });
-      await markLockoutReleased(em, woId, new Date());
+      await markLockoutReleased(em, woId, clock.now());
     });
     const closed = await post(tech, `/work-orders/${woId}/close`, { labourMinutes: 55, notes: 'Element was loaded.' }).expect(200);
     const plan = await get(admin, `/plans/${planId}`).expect(200);
-    // Floating weekly: next due one week after the completion, in the site's zone.
-    const done = new Date(plan.body.lastDoneAt).getTime();
-    expect(new Date(plan.body.nextDueAt).getTime() - done).toBe(7 * 86_400_000);
+    // Floating weekly: next due one week after the completion on the site's wall clock (luxon's
+    // calendar arithmetic in the zone), which across the DST change is 167 h, not 7 × 24 h.
+    const done = DateTime.fromISO(plan.body.lastDoneAt, { zone: 'America/Chicago' });
+    expect(Math.abs(done.toMillis() - Date.parse('2027-03-10T15:00:00Z'))).toBeLessThan(60_000); // 09:00 in the shop
+    expect(plan.body.nextDueAt).toBe(done.plus({ weeks: 1 }).toUTC().toISO());
+    expect(new Date(plan.body.nextDueAt).getTime() - done.toMillis()).toBe(167 * 3_600_000);
     expect(closed.body.planNextDueAt).toBe(plan.body.nextDueAt);
     expect(plan.body.status).toBe('not-due');
     expect(plan.body.openWorkOrder).toBeNull();

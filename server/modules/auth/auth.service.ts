@@ -6,6 +6,7 @@ import { recordAudit } from '../audit/audit';
 import { queueMail } from '../../mail/outbox';
 import { renderMail } from '../../mail/templates';
 import type { Principal } from '../../http/principal';
+import { clock } from '../../../shared/clock';
 
 const noScope = { filters: false } as const;
 
@@ -26,7 +27,7 @@ export async function authenticate(em: EntityManager, email: string, password: s
   if (!user || !ok) throw unauthorized('E-mail or password is wrong');
   const membership = await em.findOne(Membership, { user, active: true }, { orderBy: { createdAt: 'asc' }, ...noScope });
   if (!membership) throw unauthorized('This account is deactivated. Ask your admin.');
-  user.lastSignInAt = new Date();
+  user.lastSignInAt = clock.now();
   recordAudit(em, { orgId: membership.organization.id, userId: user.id }, 'auth.sign-in', { type: 'User', id: user.id });
   await em.flush();
   return { userId: user.id, orgId: membership.organization.id, role: membership.role, name: user.name, email: user.email };
@@ -39,7 +40,7 @@ export function issueToken(em: EntityManager, userId: string, purpose: 'invite' 
     user: userId,
     purpose,
     tokenHash: hashToken(token),
-    expiresAt: new Date(Date.now() + (purpose === 'invite' ? INVITE_TTL_MS : RESET_TTL_MS)),
+    expiresAt: new Date(clock.ms() + (purpose === 'invite' ? INVITE_TTL_MS : RESET_TTL_MS)),
   });
   return token;
 }
@@ -71,10 +72,10 @@ export async function redeemToken(em: EntityManager, token: string, password: st
     const row = await tx.findOne(UserToken, { tokenHash: hashToken(token) }, noScope);
     if (!row) throw badRequest('This link is not valid. Ask for a new one.', [{ path: 'token', message: 'Link not valid' }]);
     if (row.usedAt) throw badRequest('This link was already used, or a newer one replaced it. Ask for a new one.', [{ path: 'token', message: 'Link already used' }]);
-    if (row.expiresAt.getTime() < Date.now()) throw badRequest('This link has expired. Ask for a new one.', [{ path: 'token', message: 'Link expired' }]);
+    if (row.expiresAt.getTime() < clock.ms()) throw badRequest('This link has expired. Ask for a new one.', [{ path: 'token', message: 'Link expired' }]);
     const user = await tx.findOneOrFail(User, row.user.id, noScope);
     user.passwordHash = await hashPassword(password);
-    row.usedAt = new Date();
+    row.usedAt = clock.now();
     const membership = await tx.findOne(Membership, { user }, noScope);
     if (membership) recordAudit(tx, { orgId: membership.organization.id, userId: user.id }, row.purpose === 'invite' ? 'auth.invite-accepted' : 'auth.password-reset', { type: 'User', id: user.id });
     return { email: user.email };

@@ -10,6 +10,7 @@ import { WORK_CAUTION } from '../../../shared/domain/cautions';
 import { DUE_STATE_LABELS, type DueState } from '../../../shared/schemas/plans';
 import type { CalendarFeedStatus } from '../../../shared/schemas/calendar-feed';
 import type { Role } from '../../../shared/permissions';
+import { clock } from '../../../shared/clock';
 
 const hash = (token: string) => createHash('sha256').update(token).digest('hex');
 const feedUrl = (appUrl: string, token: string) => `${appUrl}/api/calendar/${token}.ics`;
@@ -24,17 +25,17 @@ export async function feedStatus(em: EntityManager, who: Principal): Promise<Cal
 /** Makes a new private URL (revoking any earlier one). The token is shown this once; only its hash is kept. */
 export async function createFeed(em: EntityManager, who: Principal, appUrl: string): Promise<CalendarFeedStatus> {
   return em.transactional(async (tx) => {
-    await tx.nativeUpdate(CalendarFeed, { user: who.userId, revokedAt: null }, { revokedAt: new Date() });
+    await tx.nativeUpdate(CalendarFeed, { user: who.userId, revokedAt: null }, { revokedAt: clock.now() });
     const token = randomBytes(32).toString('base64url');
     const f = tx.create(CalendarFeed, { organization: who.orgId, user: who.userId, tokenHash: hash(token) });
     recordAudit(tx, who, 'calendar-feed.created', { type: 'CalendarFeed', id: f.id });
-    return { active: true, createdAt: new Date().toISOString(), lastUsedAt: null, url: feedUrl(appUrl, token) };
+    return { active: true, createdAt: clock.now().toISOString(), lastUsedAt: null, url: feedUrl(appUrl, token) };
   });
 }
 
 export async function revokeFeed(em: EntityManager, who: Principal): Promise<CalendarFeedStatus> {
   await em.transactional(async (tx) => {
-    const n = await tx.nativeUpdate(CalendarFeed, { user: who.userId, revokedAt: null }, { revokedAt: new Date() });
+    const n = await tx.nativeUpdate(CalendarFeed, { user: who.userId, revokedAt: null }, { revokedAt: clock.now() });
     if (n > 0) recordAudit(tx, who, 'calendar-feed.revoked', { type: 'CalendarFeed', id: null });
   });
   return { active: false, createdAt: null, lastUsedAt: null, url: null };
@@ -73,7 +74,7 @@ export async function renderFeed(em: EntityManager, token: string, appUrl: strin
       order by p.next_due_at limit 500`,
     [orgId, f.user.id, role],
   );
-  await em.nativeUpdate(CalendarFeed, { id: f.id }, { lastUsedAt: new Date() }, { filters: false });
+  await em.nativeUpdate(CalendarFeed, { id: f.id }, { lastUsedAt: clock.now() }, { filters: false });
   const cal = ical({ name: `Kerfbook — ${f.user.getEntity().name} at ${org.name}`, prodId: { company: 'Kerfbook', product: 'due-work', language: 'EN' }, timezone: org.timeZone, ttl: 3600 });
   const minutes = (n: number | null) => Math.max(15, n ?? 30) * 60_000;
   for (const w of work) {

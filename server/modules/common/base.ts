@@ -1,14 +1,15 @@
 import { randomUUID } from 'node:crypto';
 import { p, type EventArgs, type EventSubscriber } from '@mikro-orm/core';
+import { clock } from '../../../shared/clock';
 
 /** Columns every table has. */
 export const baseProperties = {
   id: p.uuid().primary().onCreate(() => randomUUID()),
-  createdAt: p.datetime().onCreate(() => new Date()),
+  createdAt: p.datetime().onCreate(() => clock.now()),
   updatedAt: p
     .datetime()
-    .onCreate(() => new Date())
-    .onUpdate(() => new Date()),
+    .onCreate(() => clock.now())
+    .onUpdate(() => clock.now()),
 };
 
 /**

@@ -20,6 +20,7 @@ import { PART_CATEGORY_LABELS, TORCH_CATEGORIES, type TorchCategory } from '../.
 import { PHOTO_TYPES, type ChangeRow, type ConsumableChangeInput, type ConsumableSettingsInput, type InstalledPart, type StationView, type TorchStation } from '../../../shared/schemas/consumables';
 import type { MeterRow } from '../../../shared/schemas/machines';
 import type { Page } from '../../../shared/schemas/users';
+import { clock } from '../../../shared/clock';
 
 const article = (noun: string) => `${/^[aeiou]/i.test(noun) ? 'an' : 'a'} ${noun.toLowerCase()}`;
 
@@ -189,7 +190,7 @@ export async function logChange(em: EntityManager, who: Principal, input: Consum
     const torch = await tx.findOne(Machine, { id: input.torchId }, { lockMode: LockMode.PESSIMISTIC_WRITE });
     if (!torch) throw notFound('Torch');
     if (torch.kind !== 'torch') throw fieldError('torchId', `${torch.code} is not a torch`);
-    const changedAt = input.changedAt ? new Date(input.changedAt) : new Date();
+    const changedAt = input.changedAt ? new Date(input.changedAt) : clock.now();
     const meters = (await torchMeters(tx, [torch])).get(torch.id)!;
     if (input.startsReset && input.startsReading === null) throw fieldError('startsReading', 'Enter the counter as it reads now, after the reset');
     if (input.arcHoursReset && input.arcHoursReading === null) throw fieldError('arcHoursReading', 'Enter the counter as it reads now, after the reset');

@@ -8,6 +8,7 @@ import { recordAudit } from '../audit/audit';
 import { couponResult, referenceValues } from '../../../shared/domain/consumables';
 import type { CutCheckInput, CutCheckRow } from '../../../shared/schemas/consumables';
 import type { Page } from '../../../shared/schemas/users';
+import { clock } from '../../../shared/clock';
 
 /**
  * Records a test coupon measured against nominal with the shop's tolerance, tied to the
@@ -18,8 +19,8 @@ export async function recordCutCheck(em: EntityManager, who: Principal, input: C
     const torch = await tx.findOne(Machine, { id: input.torchId });
     if (!torch) throw notFound('Torch');
     if (torch.kind !== 'torch') throw fieldError('torchId', `${torch.code} is not a torch`);
-    const at = input.checkedAt ? new Date(input.checkedAt) : new Date();
-    if (at.getTime() > Date.now() + 5 * 60_000) throw fieldError('checkedAt', 'The check time lies in the future');
+    const at = input.checkedAt ? new Date(input.checkedAt) : clock.now();
+    if (at.getTime() > clock.ms() + 5 * 60_000) throw fieldError('checkedAt', 'The check time lies in the future');
     const org = await tx.findOneOrFail(Organization, who.orgId);
     const tolerance = referenceValues(org.settings as never).cutToleranceMm.value;
     const result = couponResult(input.dimensions, tolerance);

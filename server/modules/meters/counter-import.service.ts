@@ -10,6 +10,7 @@ import { importKeySource, mapHeader, parseRow, type ParsedRow, type RowError } f
 import { readingOrderProblem, readingTime } from '../../../shared/domain/meters';
 import type { ImportMeterSummary, ImportPreview, ImportResult } from '../../../shared/schemas/counter-import';
 import type { MeterKind } from '../../../shared/schemas/machines';
+import { clock } from '../../../shared/clock';
 
 export type Progress = (p: { phase: 'reading' | 'checking' | 'writing'; done: number; total: number }) => void | Promise<void>;
 
@@ -50,7 +51,7 @@ export async function analyseCounterCsv(em: EntityManager, who: Principal, file:
 
   const errors: RowError[] = [];
   const rows: Planned[] = [];
-  const now = new Date();
+  const now = clock.now();
   // Papaparse's own complaints (an unclosed quote …) name the data row; the file line is one more.
   const csvErrors = new Map<number, string>();
   for (const e of parsed.errors) if (e.row !== undefined) csvErrors.set(e.row, e.message);

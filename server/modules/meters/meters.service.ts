@@ -10,6 +10,7 @@ import { Organization } from '../organizations/organization.entity';
 import { usageRatePerDay } from '../../../shared/domain/forecast';
 import type { LatestReading, ListReadingsQuery, MeterInput, MeterRow, MeterTrend, MeterUpdate, ReadingBatchInput, ReadingInput, ReadingRow } from '../../../shared/schemas/machines';
 import type { Page } from '../../../shared/schemas/users';
+import { clock } from '../../../shared/clock';
 
 // ── Service functions other modules call (the due engine, consumables) ─────────
 
@@ -104,7 +105,7 @@ export async function recordReading(
 ) {
   const meter = await em.findOne(Meter, { id: meterId }, { lockMode: LockMode.PESSIMISTIC_WRITE });
   if (!meter) throw notFound('Meter');
-  const at = input.readAt ? new Date(input.readAt) : new Date();
+  const at = input.readAt ? new Date(input.readAt) : clock.now();
   const candidate = { at, value: input.value, isReset: input.isReset };
   const { prev, next } = await neighbours(em, meter.id, at);
   const timeZone = (await em.findOne(Organization, who.orgId))?.timeZone;
@@ -163,7 +164,7 @@ export async function listReadings(em: EntityManager, meterId: string, q: ListRe
 /** Readings of the last `days` days for a chart (thinned to 400 points) and the usage rate. */
 export async function meterTrend(em: EntityManager, meterId: string, days: number): Promise<MeterTrend> {
   const meter = await getMeter(em, meterId);
-  const since = new Date(Date.now() - days * 86_400_000);
+  const since = new Date(clock.ms() - days * 86_400_000);
   const all = await readingsSince(em, meterId, since);
   // The rate is fitted after the last reset only: across a reset the line would be meaningless.
   let lastReset = -1;

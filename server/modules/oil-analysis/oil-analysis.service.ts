@@ -12,6 +12,7 @@ import { allocateNumbers, runDueEngine } from '../../jobs/due-engine';
 import { uuidArray } from '../../jobs/due-engine-inputs';
 import type { HydraulicUnitView, OilAnalysisInput, OilAnalysisRow, OilFinding, OilTarget as OilTargetView, OilTargetInput, ListOilAnalysesQuery } from '../../../shared/schemas/oil-analysis';
 import type { Page } from '../../../shared/schemas/users';
+import { clock } from '../../../shared/clock';
 
 /** Inside ±5 % of the grade mid-point is fine; beyond that (still inside the ±10 % ISO 3448 band) is a drift warning. */
 const VISCOSITY_WARN = 0.05;
@@ -179,7 +180,7 @@ export async function recordAnalysis(orm: MikroORM, em: EntityManager, who: Prin
         title: `Oil result outside targets on ${unit.code}`,
         instructions: verdict.findings.map((f) => f.message).join('\n'),
         reason: `oil sample of ${input.sampledAt.slice(0, 10)}: ${verdict.findings.filter((f) => f.severity === 'danger').map((f) => f.message).join('; ')}`,
-        dueAt: new Date(),
+        dueAt: clock.now(),
         responsibleRole: 'technician',
         requiresLockout: false,
         checklist: [],
@@ -193,7 +194,7 @@ export async function recordAnalysis(orm: MikroORM, em: EntityManager, who: Prin
   });
   if (saved.oilPlanIds.length) {
     // After the result is committed, so the engine reads it.
-    await runDueEngine(orm, new Date(), { orgId: who.orgId, planIds: saved.oilPlanIds, escalate: false });
+    await runDueEngine(orm, clock.now(), { orgId: who.orgId, planIds: saved.oilPlanIds, escalate: false });
     const [wo]: { id: string }[] = await em.execute(
       `select w.id from work_order w join maintenance_plan p on p.id = w.plan_id and w.occurrence_key = p.last_raised_key
         where p.id = any(?::uuid[]) and w.status in ('open', 'in-progress', 'on-hold') order by w.created_at desc limit 1`,

@@ -4,12 +4,13 @@ import { uuidArray, inputsOf, loadMeterSeries, loadOilSeries, missingBaselines, 
 import { evaluationHash, statusColumns } from '../../jobs/due-engine';
 import { humanReason, type MeterLabel } from '../../jobs/due-engine-reason';
 import type { IMaintenancePlan, MeterBaselines } from './plan.entity';
+import { clock } from '../../../shared/clock';
 
 /**
  * Evaluates one plan inside a request (after it was created, edited or completed) so its status and
  * next due point show at once. Raising work stays with the scheduled pass; this only stores status.
  */
-export async function refreshPlanStatus(em: EntityManager, plan: IMaintenancePlan, timeZone: string, now = new Date()): Promise<void> {
+export async function refreshPlanStatus(em: EntityManager, plan: IMaintenancePlan, timeZone: string, now = clock.now()): Promise<void> {
   const row: EnginePlanRow = {
     id: plan.id,
     organization_id: plan.organization.id,

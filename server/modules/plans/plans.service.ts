@@ -31,6 +31,7 @@ import type {
   TriggerInput,
 } from '../../../shared/schemas/plans';
 import { currentBaselines, refreshPlanStatus } from './plan-evaluation';
+import { clock } from '../../../shared/clock';
 
 type MeterInfo = { id: string; code: string; name: string; unit: string; kind: string; machineId: string };
 
@@ -144,7 +145,7 @@ export async function createPlan(em: EntityManager, who: Principal, input: PlanI
       organization: who.orgId,
       machine,
       ...editableFields(input, triggers),
-      startedAt: new Date(),
+      startedAt: clock.now(),
       meterBaselines: await currentBaselines(tx, meterIdsOf(triggers)),
       starterKey: extra.starterKey ?? null,
     });
@@ -431,7 +432,7 @@ export async function applyStarters(em: EntityManager, who: Principal, input: Ap
     const meters = await metersOf(tx, await relatedMachineIds(tx, machine));
     const existing = await tx.find(MaintenancePlan, { machine: machine.id, active: true, starterKey: { $ne: null } }, { fields: ['starterKey'] });
     const have = new Set(existing.map((p) => p.starterKey));
-    const today = opts.startDate ?? DateTime.now().setZone(tz).toISODate();
+    const today = opts.startDate ?? DateTime.fromMillis(clock.ms()).setZone(tz).toISODate();
     const result: ApplyStartersResult = { created: [], skipped: [] };
     for (const key of [...new Set(input.starterKeys)]) {
       const s = findStarter(key);

@@ -9,6 +9,7 @@ import { conflict, fieldError, notFound } from '../../http/errors';
 import { recordAudit } from '../audit/audit';
 import { advanceSince } from '../../../shared/domain/meters';
 import type { PunchToolInput, PunchToolRow, SharpeningInput, SharpeningRow } from '../../../shared/schemas/punch-tools';
+import { clock } from '../../../shared/clock';
 
 type Reading = { at: Date; value: number; isReset: boolean };
 
@@ -87,7 +88,7 @@ export async function recordSharpening(em: EntityManager, who: Principal, toolId
   return em.transactional(async (tx) => {
     const tool = await tx.findOne(PunchTool, { id: toolId }, { lockMode: LockMode.PESSIMISTIC_WRITE });
     if (!tool) throw notFound('Tool');
-    const at = input.sharpenedAt ? new Date(input.sharpenedAt) : new Date();
+    const at = input.sharpenedAt ? new Date(input.sharpenedAt) : clock.now();
     if (tool.lastSharpenedAt && at < tool.lastSharpenedAt) throw fieldError('sharpenedAt', `The last sharpening was later (${tool.lastSharpenedAt.toISOString().slice(0, 16).replace('T', ' ')} UTC)`);
     const { prev } = await neighbours(tx, tool.hitsMeter.id, at);
     const reading = prev?.value ?? tool.hitsAtLastSharpening;

@@ -17,6 +17,7 @@ import type { Principal } from '../../http/principal';
 import type { Page } from '../../../shared/schemas/users';
 import { MEANING_LABELS, type ChainVerification, type ExportSignOffsQuery, type ListSignOffsQuery, type SignOffRow } from '../../../shared/schemas/safety-sign-offs';
 import type { ComplianceSummary, MachineCompliance, TimelineWeek } from '../../../shared/schemas/safety-audit';
+import { clock } from '../../../shared/clock';
 
 const SORT: Record<ListSignOffsQuery['sort'], string> = { signedAt: 's.signed_at', signerName: 's.signer_name', meaning: 's.meaning', machine: 'm.code', seq: 's.seq' };
 
@@ -156,7 +157,7 @@ export async function exportCsv(em: EntityManager, who: Principal, q: ExportSign
       chainStatus(verification, r.seq),
     ]),
   });
-  const stamp = DateTime.now().setZone(tz).toFormat('yyyyLLdd-HHmm');
+  const stamp = DateTime.fromMillis(clock.ms()).setZone(tz).toFormat('yyyyLLdd-HHmm');
   return { csv: `\uFEFF${csv}\r\n`, fileName: `safety-sign-offs-${org.slug}-${stamp}.csv`, verification };
 }
 
@@ -169,7 +170,7 @@ export async function exportPdf(em: EntityManager, who: Principal, q: ExportSign
   const W = doc.page.width;
   const M = 36;
   const inner = W - 2 * M;
-  const generated = DateTime.now().setZone(tz);
+  const generated = DateTime.fromMillis(clock.ms()).setZone(tz);
 
   doc.rect(0, 0, W, 6).fill(COLORS.steel900);
   doc.fillColor(COLORS.steel900).font('bold').fontSize(18).text(pdfText(`Safety sign-offs — ${org.name}`), M, 20);
@@ -270,7 +271,7 @@ function inspectionState(inp: Inputs, procId: string, at: Date) {
 /** Per-machine state: overdue inspections, missed PPE checks in the window, open lockouts, retraining. */
 export async function compliance(em: EntityManager, who: Principal, days: number): Promise<ComplianceSummary> {
   const inp = await loadInputs(em, who.orgId);
-  const now = new Date();
+  const now = clock.now();
   const from = new Date(now.getTime() - days * 86_400_000);
   const checks = await em.find(PpeCheck, { checkedAt: { $gte: new Date(from.getTime() - 7 * 86_400_000) } });
   const open = await em.find(LockoutSession, { state: { $ne: 'released' } });
@@ -330,8 +331,8 @@ export async function compliance(em: EntityManager, who: Principal, days: number
 /** Weekly figures for the charts, weeks starting Monday in the shop's time zone. */
 export async function timeline(em: EntityManager, who: Principal, weeks: number): Promise<TimelineWeek[]> {
   const inp = await loadInputs(em, who.orgId);
-  const now = new Date();
-  const firstWeek = DateTime.now().setZone(inp.tz).startOf('week').minus({ weeks: weeks - 1 });
+  const now = clock.now();
+  const firstWeek = DateTime.fromMillis(clock.ms()).setZone(inp.tz).startOf('week').minus({ weeks: weeks - 1 });
   const since = firstWeek.toJSDate();
   const checks = await em.find(PpeCheck, { checkedAt: { $gte: new Date(since.getTime() - 7 * 86_400_000) } });
   // The week label is computed in SQL as text, so no driver time-zone conversion can shift it.

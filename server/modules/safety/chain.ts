@@ -7,6 +7,7 @@ import { AppError } from '../../http/errors';
 import type { Principal } from '../../http/principal';
 import { chainHash, verifyChain, GENESIS_HASH } from '../../../shared/domain/signature-chain';
 import { MEANING_STATEMENTS, type ChainVerification, type SignMeaning } from '../../../shared/schemas/safety-sign-offs';
+import { clock } from '../../../shared/clock';
 
 /** FIPS 180-4 SHA-256 of the UTF-8 bytes, lowercase hex (what signature-chain.ts expects). */
 export const sha256Hex = (s: string) => createHash('sha256').update(s, 'utf8').digest('hex');
@@ -94,7 +95,7 @@ export async function appendSignOff(tx: EntityManager, signer: Principal, input:
     id: randomUUID(),
     organizationId: orgId,
     seq: Number(head.last_seq) + 1,
-    signedAt: at ?? new Date(),
+    signedAt: at ?? clock.now(),
     signerId: signer.userId,
     signerName: signer.name,
     signerRole: signer.role,
@@ -182,7 +183,7 @@ export async function verifyShopChain(em: EntityManager, orgId: string): Promise
   }));
   const result = verifyChain(records, sha256Hex);
   const headSeq = head ? Number(head.last_seq) : 0;
-  const base = { total: rows.length, headSeq, verifiedAt: new Date().toISOString() };
+  const base = { total: rows.length, headSeq, verifiedAt: clock.now().toISOString() };
   const describe = (r: Row | undefined, seq: number) =>
     r ? { id: r.id, seq: Number(r.seq), signedAt: new Date(r.signed_at).toISOString(), signerName: r.signer_name, meaning: r.meaning } : { id: null, seq, signedAt: null, signerName: null, meaning: null };
   if (!result.ok) {

@@ -24,6 +24,7 @@ import {
   type VerifyLockoutInput,
 } from '../../../shared/schemas/safety-lockout';
 import { ENERGY_KIND_LABELS } from '../../../shared/schemas/safety-procedures';
+import { clock } from '../../../shared/clock';
 
 const AUTHORIZED_ROLES = ['technician', 'safety'] as const;
 const SUBJECT = 'lockout-session';
@@ -82,7 +83,7 @@ export async function applyLockout(em: EntityManager, who: Principal, input: App
       if (where && p.device !== 'tag-only' && p.device !== 'blocking') throw conflict(`Lock ${p.lockNumber} is already on ${where}`, [{ path: `points.${i}.lockNumber`, message: `Already on ${where}` }]);
     });
     const machine = proc.machine.getEntity();
-    const now = new Date();
+    const now = clock.now();
     const session = tx.create(LockoutSession, {
       organization: who.orgId,
       machine,
@@ -163,7 +164,7 @@ export async function joinLockout(em: EntityManager, who: Principal, id: string,
     const used = await locksInUse(tx, who.orgId, [input.lockNumber]);
     const where = used.get(input.lockNumber.toUpperCase());
     if (where) throw conflict(`Lock ${input.lockNumber} is already on ${where}`, [{ path: 'lockNumber', message: `Already on ${where}` }]);
-    const member = tx.create(LockoutMember, { organization: who.orgId, session: s, user: who.userId, lockNumber: input.lockNumber, joinedAt: new Date() });
+    const member = tx.create(LockoutMember, { organization: who.orgId, session: s, user: who.userId, lockNumber: input.lockNumber, joinedAt: clock.now() });
     s.group = true;
     const signOff = await appendSignOff(tx, who, {
       meaning: 'member-joined',
@@ -236,7 +237,7 @@ export async function acceptHandover(em: EntityManager, who: Principal, id: stri
       const where = used.get(l.lockNumber.toUpperCase());
       if (where) throw conflict(`Lock ${l.lockNumber} is already on ${where}`, [{ path: 'locks', message: `Lock ${l.lockNumber} already on ${where}` }]);
     }
-    const now = new Date();
+    const now = clock.now();
     const swaps: { key: string; from: string; to: string }[] = [];
     for (const p of mine) {
       const lock = input.locks.find((l) => l.pointId === p.id)!;
@@ -275,7 +276,7 @@ export async function releaseLockout(em: EntityManager, who: Principal, id: stri
       throw conflict(`Personal locks are still on this group lockout: ${members.map((m) => `${m.user.getEntity().name} (${m.lockNumber})`).join(', ')}. Each person removes their own lock first.`);
     }
     if (s.pendingHandoverTo) throw conflict('A hand-over is waiting to be accepted; it must be accepted before the lockout can be released');
-    const now = new Date();
+    const now = clock.now();
     for (const p of points) {
       p.removedAt = now;
       p.removedBy = tx.getReference(User, who.userId) as never;

@@ -8,6 +8,7 @@ import { Organization } from '../organizations/organization.entity';
 import { conflict, notFound } from '../../http/errors';
 import { WORK_CAUTION } from '../../../shared/domain/cautions';
 import { ENERGY_KIND_LABELS, PHASE_LABELS, PROCEDURE_PHASES } from '../../../shared/schemas/safety-procedures';
+import { clock } from '../../../shared/clock';
 
 /**
  * The placard posted at the machine: our own layout. A red band says what to do before work,
@@ -157,7 +158,7 @@ export async function renderPlacard(em: EntityManager, procedureId: string, appU
   ensure(doc.heightOfString(pdfText(WORK_CAUTION), { width: inner - 22 }) + 18);
   cautionBox(doc, WORK_CAUTION, M, y, inner);
   // Printed time in the site's own zone, named, so the placard matches the clocks in the shop.
-  stampPages(doc, `Kerfbook placard · ${machine.code} · version ${v.version} · printed ${inZone(new Date(), 'yyyy-MM-dd HH:mm')} ${tz} · check the current version before use`);
+  stampPages(doc, `Kerfbook placard · ${machine.code} · version ${v.version} · printed ${inZone(clock.now(), 'yyyy-MM-dd HH:mm')} ${tz} · check the current version before use`);
   const pdf = await toBuffer(doc);
   return { pdf, fileName: `placard-${machine.code}-v${v.version}.pdf`.replace(/[^A-Za-z0-9._-]/g, '_') };
 }

@@ -10,6 +10,7 @@ import { deriveRequiredItems } from '../../../shared/schemas/safety-ppe-derive';
 import type { ShadeTable } from '../../../shared/domain/shade';
 import type { SafetySettings } from '../../../shared/schemas/safety-records';
 import type { PpeCheckInput, PpeRequirementInput, PpeRequirementRow } from '../../../shared/schemas/safety-ppe';
+import { clock } from '../../../shared/clock';
 
 export const deriveSettings = (s: SafetySettings) => ({ shadeTable: (s.shadeTable as ShadeTable | null) ?? null, hearingRequiredFromDbA: s.hearingRequiredFromDbA, hearingRuleSource: s.hearingRuleSource });
 
@@ -93,7 +94,7 @@ export async function recordPpeCheck(em: EntityManager, who: Principal, input: P
       machine,
       requirement: r,
       person: who.userId,
-      checkedAt: new Date(),
+      checkedAt: clock.now(),
       items: derived.required.map((i) => i.code),
       signOff: null as never,
     });

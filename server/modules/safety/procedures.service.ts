@@ -21,6 +21,7 @@ import {
 } from '../../../shared/schemas/safety-procedures';
 import { inspectionEvaluation } from './due';
 import { loadSafetySettings } from './settings';
+import { clock } from '../../../shared/clock';
 
 const iso = (d: Date | null | undefined) => (d ? d.toISOString() : null);
 
@@ -30,7 +31,7 @@ export async function listProcedures(em: EntityManager, who: Principal): Promise
   const versions = await em.find(ProcedureVersion, { procedure: { $in: procedures.map((p) => p.id) } }, { orderBy: { version: 'asc' } });
   const inspections = await em.find(PeriodicInspection, { procedure: { $in: procedures.map((p) => p.id) }, certifiedAt: { $ne: null } }, { orderBy: { inspectedOn: 'asc' } });
   const { settings, timeZone } = await loadSafetySettings(em, who.orgId);
-  const now = new Date();
+  const now = clock.now();
   return procedures.map((proc) => {
     const mine = versions.filter((v) => v.procedure.id === proc.id);
     const current = mine.filter((v) => v.status === 'approved').at(-1) ?? null;

@@ -20,6 +20,7 @@ import {
   type TrainingInput,
   type TrainingRow,
 } from '../../../shared/schemas/safety-records';
+import { clock } from '../../../shared/clock';
 
 const AUTHORIZED = ['technician', 'safety'];
 /** Times in summaries read as the shop's clock, with the zone named. */
@@ -39,7 +40,7 @@ async function activeMembers(tx: EntityManager, orgId: string, userIds: string[]
 }
 
 function notInFuture(date: string, tz: string, path: string) {
-  if (DateTime.fromISO(date, { zone: tz }).startOf('day') > DateTime.now().setZone(tz).startOf('day')) throw fieldError(path, 'The date cannot be in the future');
+  if (DateTime.fromISO(date, { zone: tz }).startOf('day') > DateTime.fromMillis(clock.ms()).setZone(tz).startOf('day')) throw fieldError(path, 'The date cannot be in the future');
 }
 
 /**
@@ -269,7 +270,7 @@ export async function startFireWatch(em: EntityManager, who: Principal, input: S
     const machine = await tx.findOne(Machine, input.machineId);
     if (!machine) throw notFound('Machine');
     const { settings, timeZone } = await loadSafetySettings(tx, who.orgId);
-    const now = new Date();
+    const now = clock.now();
     const ended = input.cuttingEndedAt ? new Date(input.cuttingEndedAt) : now;
     if (ended.getTime() > now.getTime() + 60_000) throw fieldError('cuttingEndedAt', 'Cutting cannot have ended in the future');
     if (now.getTime() - ended.getTime() > 24 * 3600_000) throw fieldError('cuttingEndedAt', 'Cutting ended more than a day ago; a fire watch starts when cutting stops');
@@ -304,7 +305,7 @@ export async function endFireWatch(em: EntityManager, who: Principal, id: string
     if (!fw) throw notFound('Fire watch');
     if (fw.endedAt) throw conflict('This fire watch has already ended');
     if (fw.watcher.id !== who.userId) throw forbidden(`${fw.watcher.getEntity().name} keeps this fire watch; only they can end it`);
-    const now = new Date();
+    const now = clock.now();
     if (now < fw.until) {
       const mins = Math.ceil((fw.until.getTime() - now.getTime()) / 60_000);
       throw conflict(`Keep watching: the fire watch runs until ${fw.until.toISOString()} (${FIRE_WATCH_RULES[fw.rule as FireWatchRuleId]?.source ?? fw.rule}), ${mins} min to go`);

@@ -12,6 +12,7 @@ import { loadConfig } from '../../config';
 import type { JobStep } from '../../jobs/scheduler';
 import type { SafetyTaskKind, SafetyTaskRow, TrainingKind } from '../../../shared/schemas/safety-records';
 import { TASK_KIND_LABELS } from '../../../shared/schemas/safety-records';
+import { clock } from '../../../shared/clock';
 
 /** Retraining is due this long after a changed procedure is approved (house rule). */
 export const RETRAIN_DAYS = 14;
@@ -156,7 +157,7 @@ export const safetyDueStep: JobStep = { name: 'safety-due', run: runSafetyDue };
  * What is due right now, evaluated live (so the list is current between scheduled passes),
  * with the raised time of the stored task where the pass has raised it already.
  */
-export async function listSafetyTasks(em: EntityManager, orgId: string, now = new Date()): Promise<SafetyTaskRow[]> {
+export async function listSafetyTasks(em: EntityManager, orgId: string, now = clock.now()): Promise<SafetyTaskRow[]> {
   const current = await currentSafetyWork(em, orgId, now);
   const stored = await em.find(SafetyTask, { status: { $in: ['due', 'overdue'] } });
   const ids = [...new Set(current.map((o) => o.machineId).filter((x): x is string => !!x))];

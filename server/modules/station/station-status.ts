@@ -1,5 +1,6 @@
 import type { EntityManager } from '@mikro-orm/postgresql';
 import type { StationDueRow, StationLockout } from '../../../shared/schemas/consumables';
+import { clock } from '../../../shared/clock';
 
 /**
  * What an operator must know before touching the machine: open lockouts on it, its
@@ -27,7 +28,7 @@ export async function stationStatus(em: EntityManager, orgId: string, machineIds
       limit 20`,
     [orgId, ids],
   );
-  const now = Date.now();
+  const now = clock.ms();
   return {
     lockouts: lockouts.map((l) => ({ id: l.id, machineCode: l.code, state: l.state as StationLockout['state'], appliedAt: new Date(l.applied_at).toISOString(), reason: l.reason, heldBy: l.held_by })),
     due: due.map((w) => {

@@ -9,6 +9,7 @@ import { queueMail } from '../../mail/outbox';
 import { renderMail } from '../../mail/templates';
 import { recordAudit } from '../audit/audit';
 import { ROLE_LABELS } from '../../../shared/permissions';
+import { clock } from '../../../shared/clock';
 
 // Memberships are the shop-scoped rows here; users are global (one person, one e-mail).
 type MemberSql = { membership_id: string; user_id: string; name: string; email: string; role: MemberRow['role']; status: MemberRow['status']; last_sign_in_at: Date | null; total: string };
@@ -109,7 +110,7 @@ export async function updateMember(em: EntityManager, who: Principal, membership
       if (admins === 0) throw conflict('The shop needs at least one active admin');
     }
     // A deactivated member's open links (invitation, password reset) stop working with it.
-    if (before.active && !m.active) await tx.nativeUpdate(UserToken, { user: m.user.id, usedAt: null }, { usedAt: new Date() });
+    if (before.active && !m.active) await tx.nativeUpdate(UserToken, { user: m.user.id, usedAt: null }, { usedAt: clock.now() });
     recordAudit(tx, who, 'user.updated', { type: 'Membership', id: m.id }, { before, after: { role: m.role, active: m.active } });
   });
 }
@@ -125,7 +126,7 @@ export async function resendInvitation(em: EntityManager, who: Principal, member
     const user = m.user.getEntity();
     if (user.passwordHash) throw conflict(`${user.name} has already accepted the invitation and signs in with a password`);
     if (!m.active) throw conflict(`${user.name}'s membership is deactivated; reactivate it first`);
-    await tx.nativeUpdate(UserToken, { user: user.id, purpose: 'invite', usedAt: null }, { usedAt: new Date() });
+    await tx.nativeUpdate(UserToken, { user: user.id, purpose: 'invite', usedAt: null }, { usedAt: clock.now() });
     const org = await tx.findOneOrFail(Organization, who.orgId);
     queueInvitation(tx, who, { email: user.email, name: user.name, role: m.role }, org.name, issueToken(tx, user.id, 'invite'), appUrl);
     recordAudit(tx, who, 'user.invitation-resent', { type: 'Membership', id: m.id }, { email: user.email });

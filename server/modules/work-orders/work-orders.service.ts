@@ -32,6 +32,7 @@ import type {
 } from '../../../shared/schemas/work-orders';
 import type { Page } from '../../../shared/schemas/users';
 import type { FieldErrors } from '../../../shared/schemas/common';
+import { clock } from '../../../shared/clock';
 
 const OPEN: WorkState[] = ['open', 'in-progress', 'on-hold'];
 const iso = (d: Date | null | undefined) => (d ? new Date(d).toISOString() : null);
@@ -45,7 +46,7 @@ const dueStateSql = `case when w.status in ('done', 'cancelled') then 'closed'
   when w.due_at <= now() + interval '${SOON_DAYS} days' then 'due-soon'
   else 'later' end`;
 
-export function dueStateOf(wo: Pick<IWorkOrder, 'status' | 'overdue' | 'dueAt'>, now = new Date()): DueFilter | 'closed' {
+export function dueStateOf(wo: Pick<IWorkOrder, 'status' | 'overdue' | 'dueAt'>, now = clock.now()): DueFilter | 'closed' {
   if (wo.status === 'done' || wo.status === 'cancelled') return 'closed';
   if (wo.overdue) return 'overdue';
   if (!wo.dueAt) return 'none';
@@ -271,7 +272,7 @@ export async function raiseWorkOrder(em: EntityManager, who: Principal, input: R
       checklist: [],
       plannedParts: [],
       // Told below, in this transaction.
-      notifiedAt: new Date(),
+      notifiedAt: clock.now(),
     });
     recordAudit(tx, who, 'work-order.raised', { type: 'WorkOrder', id: wo.id }, { number, kind: 'corrective', title: input.title });
     const org = await tx.findOneOrFail(Organization, who.orgId);
@@ -350,7 +351,7 @@ export async function moveWorkOrder(em: EntityManager, who: Principal, id: strin
     if (!m.from.includes(wo.status)) {
       throw conflict(`WO ${wo.number} is ${WORK_STATE_LABELS[wo.status as WorkState]}; “${input.move}” only applies to work that is ${m.from.map((s) => WORK_STATE_LABELS[s]).join(' or ')}`);
     }
-    const now = new Date();
+    const now = clock.now();
     const from = wo.status;
     wo.status = m.to;
     if (input.move === 'start' || input.move === 'resume') {
@@ -397,7 +398,7 @@ export async function saveChecklist(em: EntityManager, who: Principal, id: strin
     wo.checklist = lines;
     if (wo.status === 'open') {
       wo.status = 'in-progress';
-      wo.startedAt ??= new Date();
+      wo.startedAt ??= clock.now();
     }
     recordAudit(tx, who, 'work-order.checklist', { type: 'WorkOrder', id: wo.id }, { answered: lines.filter((l) => l.result !== null).length, of: lines.length });
     return lines;
@@ -446,7 +447,7 @@ export async function closeWorkOrder(em: EntityManager, who: Principal, id: stri
       });
       throw conflict(`WO ${wo.number} cannot be signed off yet: ${blockers.join('. ')}`, fields.length ? fields : undefined);
     }
-    const now = new Date();
+    const now = clock.now();
     wo.status = 'done';
     wo.completedAt = now;
     wo.completedBy = who.userId as never;
