@@ -104,15 +104,16 @@ export const seedPlansDemo: SeedStep = async (rootEm, shop) => {
     // Work raised in this replayed week carries that week's date, not the seeding clock's.
     await conn.execute(`update work_order set created_at = ?, updated_at = ? where organization_id = ? and created_at >= ?`, [new Date(day), new Date(day), shop.id, mark]);
     await conn.execute(`update audit_event set created_at = ?, updated_at = ? where organization_id = ? and entity_type = 'WorkOrder' and created_at >= ?`, [new Date(day), new Date(day), shop.id, mark]);
-    // Sign off what was raised, a day or two later; the last two weeks are left partly open.
-    const open: { id: string; plan_id: string; created_at: Date; estimated_minutes: number | null; checklist: ChecklistLine[]; requires_lockout: boolean }[] = await conn.execute(
-      `select id, plan_id, created_at, estimated_minutes, checklist, requires_lockout from work_order
+    // Sign off what was raised, a day or two later. The last two weeks are left partly open, and
+    // safety-critical work raised in them always: whatever day the demo is seeded, a safety check waits.
+    const open: { id: string; plan_id: string; created_at: Date; estimated_minutes: number | null; checklist: ChecklistLine[]; requires_lockout: boolean; safety_critical: boolean }[] = await conn.execute(
+      `select id, plan_id, created_at, estimated_minutes, checklist, requires_lockout, safety_critical from work_order
         where organization_id = ? and status = 'open' and plan_id is not null`,
       [shop.id],
     );
     for (const w of open) {
       const doneAt = day + (0.2 + r() * 2) * DAY;
-      if (doneAt > now - 14 * DAY && r() < 0.4) continue;
+      if (doneAt > now - 14 * DAY && (r() < 0.4 || w.safety_critical)) continue;
       if (doneAt > now) continue;
       const minutes = Math.max(5, Math.round((w.estimated_minutes ?? 30) * (0.7 + r() * 0.7)));
       await conn.execute(
