@@ -14,7 +14,7 @@ import { OilAnalysis, OilTarget } from '../server/modules/oil-analysis/oil-analy
 import { applyStarters } from '../server/modules/plans/plans.service';
 import { judge } from '../server/modules/oil-analysis/oil-analysis.service';
 import { runDueEngine } from '../server/jobs/due-engine';
-import { uuidArray } from '../server/jobs/due-engine-inputs';
+import { uuidArray } from '../server/db';
 import type { Principal } from '../server/http/principal';
 import type { ChecklistLine } from '../shared/schemas/work-orders';
 import { mulberry32 } from './prng';
@@ -44,7 +44,9 @@ function answered(lines: ChecklistLine[], r: () => number): ChecklistLine[] {
   });
 }
 
-export const seedPlansDemo: SeedStep = async (rootEm, shop) => {
+export const seedPlansDemo: SeedStep = async (rootEm, shop, settings) => {
+  if (!settings) throw new Error('The plans demo queues mails: pass the app URL (DemoSettings)');
+  const { appUrl } = settings;
   const em = rootEm.fork() as EntityManager;
   em.setFilterParams('org', { orgId: shop.id });
   const machines = await em.find(Machine, { code: { $in: Object.keys(STARTERS) } });
@@ -100,7 +102,7 @@ export const seedPlansDemo: SeedStep = async (rootEm, shop) => {
       }
     }
     const mark = clock.now();
-    await runDueEngine(orm, new Date(day), { orgId: shop.id, escalate: false, notify: false });
+    await runDueEngine(orm, new Date(day), { appUrl, orgId: shop.id, escalate: false, notify: false });
     // Work raised in this replayed week carries that week's date, not the seeding clock's.
     await conn.execute(`update work_order set created_at = ?, updated_at = ? where organization_id = ? and created_at >= ?`, [new Date(day), new Date(day), shop.id, mark]);
     await conn.execute(`update audit_event set created_at = ?, updated_at = ? where organization_id = ? and entity_type = 'WorkOrder' and created_at >= ?`, [new Date(day), new Date(day), shop.id, mark]);
@@ -155,5 +157,5 @@ export const seedPlansDemo: SeedStep = async (rootEm, shop) => {
   );
   // Today: the real pass raises what is due now and reports what is past due.
   await conn.execute(`update maintenance_plan set recheck_at = null where organization_id = ?`, [shop.id]);
-  await runDueEngine(orm, clock.now(), { orgId: shop.id });
+  await runDueEngine(orm, clock.now(), { appUrl, orgId: shop.id });
 };

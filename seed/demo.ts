@@ -13,7 +13,9 @@ export const DEMO_USERS = [
   { email: 'operator@alder-row.example', name: 'Dario Fenwick', role: 'operator' },
 ] as const;
 
-export type SeedStep = (em: EntityManager, shop: { id: string; timeZone: string }) => Promise<void>;
+/** What the demo needs from the configuration: the base of the links in the mails its passes queue. */
+export type DemoSettings = { appUrl: string };
+export type SeedStep = (em: EntityManager, shop: { id: string; timeZone: string }, settings?: DemoSettings) => Promise<void>;
 /** Feature modules add their demo data here (machines, history …). */
 export const demoSteps: SeedStep[] = [];
 // Machines, meters and consumable history first: later steps attach to these machines.
@@ -21,13 +23,13 @@ demoSteps.push(seedMachines);
 // Plans and their work history: after the machines, found by code.
 demoSteps.push(seedPlansDemo);
 
-export async function seedDemo(em: EntityManager): Promise<boolean> {
+export async function seedDemo(em: EntityManager, settings: DemoSettings): Promise<boolean> {
   if (await em.findOne(Organization, { slug: 'alder-row' }, { filters: false })) return false;
   const alder = await createShop(em, { name: 'Alder Row Sheetworks', slug: 'alder-row', timeZone: 'America/Chicago' });
   for (const u of DEMO_USERS) await createMember(em, alder, u);
   const birch = await createShop(em, { name: 'Birch Yard Fabrication', slug: 'birch-yard', timeZone: 'Europe/Berlin' });
   await createMember(em, birch, { email: 'admin@birch-yard.example', name: 'Saoirse Lindqvist', role: 'admin' });
-  for (const step of demoSteps) await step(em, alder);
+  for (const step of demoSteps) await step(em, alder, settings);
   return true;
 }
 

@@ -29,6 +29,8 @@ import { registerWorkOrderRoutes } from './modules/work-orders/work-orders.route
 import { registerOilAnalysisRoutes } from './modules/oil-analysis/oil-analysis.routes';
 import { registerCalendarFeedRoutes } from './modules/calendar-feed/calendar-feed.routes';
 import { registerJobRunRoutes } from './modules/job-runs/job-runs.routes';
+import { runScheduledPass } from './jobs/scheduler';
+import { planEvaluator } from './jobs/due-engine';
 import type { FakeSmtp } from './mail/fake-smtp';
 import { logger } from './logger';
 
@@ -90,9 +92,9 @@ export function createApp({ orm, config, smtp = null }: AppDeps): AppHandle {
   registerPunchToolRoutes(api);
   registerPlanRoutes(api);
   registerWorkOrderRoutes(api, config);
-  registerOilAnalysisRoutes(api, orm);
+  registerOilAnalysisRoutes(api, planEvaluator(orm, config.APP_URL));
   registerCalendarFeedRoutes(api, config);
-  registerJobRunRoutes(api, orm);
+  registerJobRunRoutes(api, () => runScheduledPass(orm));
   registerDevInboxRoutes(api, config.MAIL_CAPTURE ? smtp : null);
 
   api.use(() => {

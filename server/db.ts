@@ -34,3 +34,6 @@ export async function executeBound<T = Record<string, unknown>>(em: EntityManage
   const result = (await knex.raw(sql, params as Knex.RawBinding[])) as { rows: T[] };
   return result.rows;
 }
+
+/** A PostgreSQL array literal for `?::uuid[]` (the driver would expand a JS array into a list). */
+export const uuidArray = (ids: string[]) => `{${ids.join(',')}}`;

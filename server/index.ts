@@ -5,6 +5,7 @@ import { FakeSmtp } from './mail/fake-smtp';
 import { createTransport } from './mail/transport';
 import { startOutboxSender } from './mail/sender';
 import { startScheduler } from './jobs/scheduler';
+import { registerJobSteps } from './jobs/register';
 import { logger } from './logger';
 
 async function main() {
@@ -17,6 +18,7 @@ async function main() {
   if (smtp) await smtp.start();
   const transport = createTransport(config);
   const stopSender = startOutboxSender(orm, transport, config.MAIL_FROM, 3_000, (msg, err) => (err ? logger.warn({ err }, msg) : logger.info(msg)));
+  registerJobSteps(config);
   const task = startScheduler(orm, config.JOB_SCHEDULE);
 
   const { app, close } = createApp({ orm, config, smtp });

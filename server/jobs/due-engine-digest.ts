@@ -2,8 +2,7 @@
 import type { MikroORM } from '@mikro-orm/postgresql';
 import { DateTime } from 'luxon';
 import type { Role } from '../../shared/permissions';
-import { queueDigest, workLine, type WorkRow } from './due-engine-mail';
-import { loadConfig } from '../config';
+import { queueDigest, workLine, type WorkRow } from '../modules/work-orders/work-order-mail';
 import { logger } from '../logger';
 
 type Due = {
@@ -19,10 +18,9 @@ type Due = {
   org_name: string;
 };
 
-/** Sends the summaries due at `now`; returns mails queued per shop. */
-export async function sendDigests(orm: MikroORM, now: Date): Promise<Map<string, number>> {
+/** Sends the summaries due at `now` (links start with `appUrl`); returns mails queued per shop. */
+export async function sendDigests(orm: MikroORM, now: Date, appUrl: string): Promise<Map<string, number>> {
   const out = new Map<string, number>();
-  const appUrl = loadConfig().APP_URL;
   const candidates: Due[] = await orm.em.fork().execute(
     `select np.id, np.organization_id, np.user_id, np.digest_hour, np.last_digest_date, u.email, u.name, m.role, o.time_zone, o.name as org_name
        from notify_preference np

@@ -16,9 +16,12 @@ const steps: JobStep[] = [
   },
 ];
 
-/** Feature modules add their steps (the due engine, digests …). */
+/** Start-up adds the feature steps (jobs/register.ts). */
 export function registerJobStep(step: JobStep) {
-  if (!steps.some((s) => s.name === step.name)) steps.push(step);
+  // Registering again (a new configuration) replaces the step in its place.
+  const at = steps.findIndex((s) => s.name === step.name);
+  if (at >= 0) steps[at] = step;
+  else steps.push(step);
 }
 
 /** One scheduled pass over every step, under the advisory lock. */

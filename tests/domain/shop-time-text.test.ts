@@ -2,7 +2,7 @@
 // (a general-purpose date library, zone data from the IANA tz database through Intl).
 import { describe, expect, it } from 'vitest';
 import { DateTime } from 'luxon';
-import { humanReason, shopTimeText } from '../../server/jobs/due-engine-reason';
+import { humanReason, shopTimeText } from '../../server/modules/plans/plan-reason';
 import { mulberry32 } from '../../seed/prng';
 
 const ZONES = ['America/Chicago', 'Europe/Berlin', 'Australia/Lord_Howe', 'Asia/Kathmandu', 'Pacific/Apia', 'America/St_Johns', 'UTC'];

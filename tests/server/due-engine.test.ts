@@ -3,7 +3,8 @@ import type { MikroORM } from '@mikro-orm/postgresql';
 import { makeShop, makeTestApp, signIn, type SignedIn, type TestShop } from '../setup/test-app';
 import { initORM } from '../../server/db';
 import { runScheduledPass } from '../../server/jobs/scheduler';
-import { runDueEngine, runMaintenancePass } from '../../server/jobs/due-engine';
+import { runDueEngine } from '../../server/jobs/due-engine';
+import { runMaintenancePass } from '../../server/jobs/due-engine-pass';
 import { FakeSmtp } from '../../server/mail/fake-smtp';
 import { createTransport } from '../../server/mail/transport';
 import { deliverOutbox } from '../../server/mail/sender';
@@ -61,8 +62,8 @@ describe('a plan falls due', () => {
       { at: '2026-01-21T08:00:00Z', value: 1600 },
     ]);
     const now = new Date('2026-01-21T09:00:00Z');
-    await runDueEngine(orm, now, { orgId: shop.orgId });
-    await runDueEngine(orm, now, { orgId: shop.orgId });
+    await runDueEngine(orm, now, { appUrl: t.config.APP_URL, orgId: shop.orgId });
+    await runDueEngine(orm, now, { appUrl: t.config.APP_URL, orgId: shop.orgId });
     await runScheduledPass(orm, now);
 
     const wos = await workOf(planId);
@@ -99,7 +100,7 @@ describe('a plan falls due', () => {
     // The condition is past due already; the calendar trigger alone would not be due for a month.
     const res = await post(admin, '/plans', planBody(unit, { title: 'Change cartridges', triggers: [{ kind: 'condition', meterId: dp, above: 1500 }, { kind: 'calendar-floating', every: 1, unit: 'month' }] })).expect(201);
     expect((await get(admin, `/plans/${res.body.id}`).expect(200)).body.status).toBe('overdue');
-    await runDueEngine(orm, new Date(), { orgId: shop.orgId });
+    await runDueEngine(orm, new Date(), { appUrl: t.config.APP_URL, orgId: shop.orgId });
     const wos = await workOf(res.body.id);
     expect(wos.map((w) => w.occurrence_key)).toEqual([`cond:${dp}:2026-01-11T08:00:00.000Z`]);
   });
@@ -116,7 +117,7 @@ describe('a plan falls due', () => {
     const more: string[] = [];
     for (let i = 0; i < 6; i++) more.push(await makePlan({ title: `Fortnightly check ${i}`, triggers: [{ kind: 'calendar-floating', every: 2, unit: 'week' }] }, '2026-02-01T06:00:00Z'));
     const later = new Date('2026-02-15T07:00:00Z');
-    await Promise.all([runDueEngine(orm, later, { orgId: shop.orgId }), runDueEngine(orm, later, { orgId: shop.orgId }), runDueEngine(orm, later, { orgId: shop.orgId })]);
+    await Promise.all([runDueEngine(orm, later, { appUrl: t.config.APP_URL, orgId: shop.orgId }), runDueEngine(orm, later, { appUrl: t.config.APP_URL, orgId: shop.orgId }), runDueEngine(orm, later, { appUrl: t.config.APP_URL, orgId: shop.orgId })]);
     for (const id of [...ids, ...more]) expect(await workOf(id), id).toHaveLength(1);
   });
 
@@ -126,16 +127,16 @@ describe('a plan falls due', () => {
     const plan = await get(admin, `/plans/${planId}`).expect(200);
     expect(plan.body.triggers[0].ical).toBe('DTSTART;TZID=America/Chicago:20260223T070000\nRRULE:FREQ=WEEKLY;BYDAY=MO');
 
-    await runDueEngine(orm, new Date('2026-03-02T13:00:00Z'), { orgId: shop.orgId });
+    await runDueEngine(orm, new Date('2026-03-02T13:00:00Z'), { appUrl: t.config.APP_URL, orgId: shop.orgId });
     let wos = await workOf(planId);
     expect(wos.map((w) => w.occurrence_key)).toEqual(['cal:2026-03-02T13:00:00.000Z']);
     // Done that morning (as if signed off then).
     await orm.em.fork().execute(`update work_order set status = 'done', completed_at = ? where id = ?`, [new Date('2026-03-02T15:00:00Z'), wos[0].id]);
     await orm.em.fork().execute(`update maintenance_plan set last_done_at = ?, recheck_at = null where id = ?`, [new Date('2026-03-02T15:00:00Z'), planId]);
 
-    await runDueEngine(orm, new Date('2026-03-09T11:59:00Z'), { orgId: shop.orgId });
+    await runDueEngine(orm, new Date('2026-03-09T11:59:00Z'), { appUrl: t.config.APP_URL, orgId: shop.orgId });
     expect(await workOf(planId)).toHaveLength(1); // 06:59 CDT: not yet
-    await runDueEngine(orm, new Date('2026-03-09T12:00:00Z'), { orgId: shop.orgId });
+    await runDueEngine(orm, new Date('2026-03-09T12:00:00Z'), { appUrl: t.config.APP_URL, orgId: shop.orgId });
     wos = await workOf(planId);
     expect(wos.map((w) => w.occurrence_key)).toEqual(['cal:2026-03-02T13:00:00.000Z', 'cal:2026-03-09T12:00:00.000Z']);
     expect(new Date(wos[1].due_at).toISOString()).toBe('2026-03-09T12:00:00.000Z');
@@ -148,7 +149,7 @@ describe('a plan falls due', () => {
       ids.push(await makePlan({ title: `Lubricate guides (${day})`, triggers: [{ kind: 'calendar-fixed', start: '2026-04-06T06:00', rrule: `FREQ=WEEKLY;BYDAY=${day}` }] }, '2026-04-01T00:00:00Z'));
     }
     // Nobody ran a pass from 1 April to 20 May: seven weeks of missed occurrences.
-    await runDueEngine(orm, new Date('2026-05-20T15:00:00Z'), { orgId: shop.orgId });
+    await runDueEngine(orm, new Date('2026-05-20T15:00:00Z'), { appUrl: t.config.APP_URL, orgId: shop.orgId });
     const keys = [];
     for (const id of ids) {
       const wos = await workOf(id);
@@ -170,16 +171,16 @@ describe('a plan falls due', () => {
     await put(tech, '/notify-preference', { mode: 'none', digestHour: 6 }).expect(200);
     await drainOutbox(orm);
     const planId = await makePlan({ title: 'Inspect torch lead', safetyCritical: true, triggers: [{ kind: 'calendar-floating', every: 1, unit: 'week' }] }, '2026-06-01T06:00:00Z');
-    await runDueEngine(orm, new Date('2026-06-08T07:00:00Z'), { orgId: shop.orgId });
+    await runDueEngine(orm, new Date('2026-06-08T07:00:00Z'), { appUrl: t.config.APP_URL, orgId: shop.orgId });
     expect((await pendingMails(orm, shop.orgId)).filter((m) => m.kind === 'work-raised')).toHaveLength(0); // "none": no routine notice
-    await runDueEngine(orm, new Date('2026-06-11T07:00:00Z'), { orgId: shop.orgId }); // 3 days past, grace 2 days
+    await runDueEngine(orm, new Date('2026-06-11T07:00:00Z'), { appUrl: t.config.APP_URL, orgId: shop.orgId }); // 3 days past, grace 2 days
     const mails = await pendingMails(orm, shop.orgId);
     expect(mails.filter((m) => m.kind === 'work-escalated').map((m) => m.toAddress).sort()).toEqual([shop.users.admin.email, shop.users.safety.email].sort());
     const mandatory = mails.filter((m) => m.kind === 'work-overdue-safety');
     expect(mandatory.map((m) => m.toAddress)).toEqual([shop.users.technician.email]);
     expect(mandatory[0].textBody).toContain(WORK_CAUTION);
     // Escalated once only.
-    await runDueEngine(orm, new Date('2026-06-12T07:00:00Z'), { orgId: shop.orgId });
+    await runDueEngine(orm, new Date('2026-06-12T07:00:00Z'), { appUrl: t.config.APP_URL, orgId: shop.orgId });
     expect((await pendingMails(orm, shop.orgId)).filter((m) => m.kind.startsWith('work-overdue') || m.kind === 'work-escalated')).toHaveLength(3);
     expect((await workOf(planId))[0].escalated_at).not.toBeNull();
     await put(tech, '/notify-preference', { mode: 'immediate', digestHour: 6 }).expect(200);
@@ -188,20 +189,20 @@ describe('a plan falls due', () => {
   it('sends a daily summary once per local day after the chosen hour', async () => {
     await put(tech, '/notify-preference', { mode: 'daily', digestHour: 6 }).expect(200);
     await makePlan({ title: 'Top up tool oil', triggers: [{ kind: 'calendar-floating', every: 1, unit: 'week' }] }, '2026-06-01T06:00:00Z');
-    await runDueEngine(orm, new Date('2026-06-08T07:00:00Z'), { orgId: shop.orgId });
+    await runDueEngine(orm, new Date('2026-06-08T07:00:00Z'), { appUrl: t.config.APP_URL, orgId: shop.orgId });
     // "daily": no notice for the new work, it waits for the summary.
     expect((await pendingMails(orm, shop.orgId)).filter((m) => m.kind === 'work-raised')).toHaveLength(0);
     await drainOutbox(orm);
     // 05:30 CDT: too early; 06:10 CDT: sent; 09:00 the same day: not again; next day: again.
-    await runMaintenancePass(orm, new Date('2026-06-15T10:30:00Z'));
+    await runMaintenancePass(orm, new Date('2026-06-15T10:30:00Z'), { appUrl: t.config.APP_URL });
     expect((await pendingMails(orm, shop.orgId)).filter((m) => m.kind === 'work-digest')).toHaveLength(0);
-    await runMaintenancePass(orm, new Date('2026-06-15T11:10:00Z'));
-    await runMaintenancePass(orm, new Date('2026-06-15T14:00:00Z'));
+    await runMaintenancePass(orm, new Date('2026-06-15T11:10:00Z'), { appUrl: t.config.APP_URL });
+    await runMaintenancePass(orm, new Date('2026-06-15T14:00:00Z'), { appUrl: t.config.APP_URL });
     let digests = (await pendingMails(orm, shop.orgId)).filter((m) => m.kind === 'work-digest');
     expect(digests.map((m) => m.toAddress)).toEqual([shop.users.technician.email]);
     expect(digests[0].subject).toMatch(/^Your work for 2026-06-15: \d+ open/);
     expect(digests[0].textBody).toContain(WORK_CAUTION);
-    await runMaintenancePass(orm, new Date('2026-06-16T12:00:00Z'));
+    await runMaintenancePass(orm, new Date('2026-06-16T12:00:00Z'), { appUrl: t.config.APP_URL });
     digests = (await pendingMails(orm, shop.orgId)).filter((m) => m.kind === 'work-digest');
     expect(digests).toHaveLength(2);
     await put(tech, '/notify-preference', { mode: 'immediate', digestHour: 6 }).expect(200);
@@ -229,7 +230,7 @@ describe('notices of raised work', () => {
       ids.push(await makePlan({ title, triggers: [{ kind: 'meter', meterId: pumpHours, every: 200 }] }, '2026-01-01T00:00:00Z'));
     }
     await addReadings(scoped(t.em(), shop.orgId), shop.orgId, pumpHours, [{ at: '2026-01-05T08:00:00Z', value: 1250 }]);
-    await runDueEngine(orm, new Date('2026-01-05T09:00:00Z'), { orgId: shop.orgId });
+    await runDueEngine(orm, new Date('2026-01-05T09:00:00Z'), { appUrl: t.config.APP_URL, orgId: shop.orgId });
     const raised = (await pendingMails(orm, shop.orgId)).filter((m) => m.kind === 'work-raised');
     expect(raised.map((m) => m.subject)).toEqual([`3 new work orders for you at Test ${shop.slug}`]);
     await drainOutbox(orm);
@@ -237,11 +238,11 @@ describe('notices of raised work', () => {
     // As if the pass had stopped after raising this one: nobody was told.
     const [wo] = await workOf(ids[0]);
     await orm.em.fork().execute(`update work_order set notified_at = null where id = ?`, [wo.id]);
-    await runDueEngine(orm, new Date('2026-01-05T09:05:00Z'), { orgId: shop.orgId });
+    await runDueEngine(orm, new Date('2026-01-05T09:05:00Z'), { appUrl: t.config.APP_URL, orgId: shop.orgId });
     const late = (await pendingMails(orm, shop.orgId)).filter((m) => m.kind === 'work-raised');
     expect(late.map((m) => m.subject)).toEqual([`New work: WO ${wo.number} Renew return filter on HU1`]);
     expect(late[0].toAddress).toBe(shop.users.technician.email);
-    await runDueEngine(orm, new Date('2026-01-05T09:10:00Z'), { orgId: shop.orgId });
+    await runDueEngine(orm, new Date('2026-01-05T09:10:00Z'), { appUrl: t.config.APP_URL, orgId: shop.orgId });
     expect((await pendingMails(orm, shop.orgId)).filter((m) => m.kind === 'work-raised')).toHaveLength(1);
   });
 });
@@ -254,7 +255,7 @@ describe('a pass that finds the same answer', () => {
 
   it('leaves the stored status alone, but rewrites it when the answer or a meter name changes', async () => {
     const planId = await makePlan({ title: 'Renew return filter', triggers: [{ kind: 'meter', meterId: pumpHours, every: 500 }] }, '2026-01-01T00:00:00Z');
-    await runDueEngine(orm, new Date('2026-01-02T09:00:00Z'), { orgId: shop.orgId });
+    await runDueEngine(orm, new Date('2026-01-02T09:00:00Z'), { appUrl: t.config.APP_URL, orgId: shop.orgId });
     const first = await planRow(planId);
     expect(first.status).toBe('not-due');
     expect(first.status_reason).toContain('pump hours reads 1000 of 1500');
@@ -262,7 +263,7 @@ describe('a pass that finds the same answer', () => {
 
     // Evaluated again with nothing new: the status is not rewritten, only the re-check time is put back.
     await forceRecheck(planId);
-    await runDueEngine(orm, new Date('2026-01-02T09:05:00Z'), { orgId: shop.orgId });
+    await runDueEngine(orm, new Date('2026-01-02T09:05:00Z'), { appUrl: t.config.APP_URL, orgId: shop.orgId });
     const same = await planRow(planId);
     expect(new Date(same.updated_at).getTime()).toBe(new Date(first.updated_at).getTime());
     expect(new Date(same.evaluated_at!).toISOString()).toBe('2026-01-02T09:05:00.000Z');
@@ -272,7 +273,7 @@ describe('a pass that finds the same answer', () => {
     // Reasons carry the meter's name: renaming it changes what people read, so the row is rewritten.
     await orm.em.fork().execute(`update meter set name = 'Pump running hours' where id = ?`, [pumpHours]);
     await forceRecheck(planId);
-    await runDueEngine(orm, new Date('2026-01-02T09:10:00Z'), { orgId: shop.orgId });
+    await runDueEngine(orm, new Date('2026-01-02T09:10:00Z'), { appUrl: t.config.APP_URL, orgId: shop.orgId });
     const renamed = await planRow(planId);
     expect(renamed.status_reason).toContain('Pump running hours reads 1000 of 1500');
     expect(renamed.status_hash).not.toBe(first.status_hash);
@@ -280,7 +281,7 @@ describe('a pass that finds the same answer', () => {
 
     // A new reading past the mark changes the answer.
     await addReadings(scoped(t.em(), shop.orgId), shop.orgId, pumpHours, [{ at: '2026-01-03T08:00:00Z', value: 1510 }]);
-    await runDueEngine(orm, new Date('2026-01-03T09:00:00Z'), { orgId: shop.orgId });
+    await runDueEngine(orm, new Date('2026-01-03T09:00:00Z'), { appUrl: t.config.APP_URL, orgId: shop.orgId });
     const due = await planRow(planId);
     expect(due.status).toBe('due');
     expect(due.status_reason).toContain('Pump running hours reads 1510, due at 1500');
@@ -300,7 +301,7 @@ describe('mail while the mail server is down', () => {
     for (const role of ['technician', 'safety', 'admin']) {
       ids.push(await makePlan({ title: `Drain water trap (${role})`, responsibleRole: role, triggers: [{ kind: 'calendar-floating', every: 3, unit: 'day' }] }, '2026-07-01T06:00:00Z'));
     }
-    await runDueEngine(orm, new Date('2026-07-04T07:00:00Z'), { orgId: shop.orgId });
+    await runDueEngine(orm, new Date('2026-07-04T07:00:00Z'), { appUrl: t.config.APP_URL, orgId: shop.orgId });
     const queued = await pendingMails(orm, shop.orgId);
     expect(queued.map((m) => m.toAddress).sort()).toEqual([shop.users.admin.email, shop.users.safety.email, shop.users.technician.email].sort());
 

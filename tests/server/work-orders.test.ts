@@ -31,7 +31,7 @@ async function raisedWork(over: Record<string, unknown> = {}, startedAt = '2026-
   expect(res.status, JSON.stringify(res.body)).toBe(201);
   const planId = res.body.id as string;
   await orm.em.fork().execute(`update maintenance_plan set started_at = ?, recheck_at = null where id = ?`, [new Date(startedAt), planId]);
-  await runDueEngine(orm, new Date(now), { orgId: a.orgId });
+  await runDueEngine(orm, new Date(now), { appUrl: t.config.APP_URL, orgId: a.orgId });
   const [wo]: { id: string }[] = await orm.em.fork().execute(`select id from work_order where plan_id = ?`, [planId]);
   expect(wo, 'work order raised').toBeTruthy();
   return { planId, woId: wo.id };
@@ -202,7 +202,7 @@ describe('work order lifecycle', () => {
     const planId = res.body.id as string;
     // Baseline 1000 h (latest reading when the plan was made); 1 600 h later on → due at 1 500 h.
     await addReadings(scoped(t.em(), a.orgId), a.orgId, pumpHours, [{ at: '2026-02-01T08:00:00Z', value: 1600 }]);
-    await runDueEngine(orm, new Date('2026-02-01T09:00:00Z'), { orgId: a.orgId });
+    await runDueEngine(orm, new Date('2026-02-01T09:00:00Z'), { appUrl: t.config.APP_URL, orgId: a.orgId });
     const [wo]: { id: string; occurrence_key: string }[] = await orm.em.fork().execute(`select id, occurrence_key from work_order where plan_id = ?`, [planId]);
     expect(wo.occurrence_key).toBe(`meter:${pumpHours}:1500`);
     await answerAll(tech, wo.id).expect(200);

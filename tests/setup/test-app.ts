@@ -8,12 +8,14 @@ import { loadConfig, type Config } from '../../server/config';
 import { createMember, createShop, DEMO_PASSWORD } from '../../seed/factories';
 import type { Role } from '../../shared/permissions';
 import { FakeSmtp } from '../../server/mail/fake-smtp';
+import { registerJobSteps } from '../../server/jobs/register';
 
 export type TestShop = { orgId: string; slug: string; users: Record<Role, { email: string; userId: string; membershipId: string }> };
 
 export async function makeTestApp(env: Record<string, string> = {}, smtp: FakeSmtp | null = null): Promise<AppHandle & { config: Config; em: () => EntityManager }> {
   const config = loadConfig({ ...process.env, NODE_ENV: 'test', LOGIN_LIMIT_PER_ADDRESS: '10000', ...env });
   const orm = await initORM(config.DATABASE_URL);
+  registerJobSteps(config); // as server/index.ts does at start
   const handle = createApp({ orm, config, smtp });
   return { ...handle, config, em: () => orm.em.fork() as EntityManager };
 }

@@ -1,13 +1,11 @@
-import type { EntityManager, MikroORM } from '@mikro-orm/postgresql';
+import type { EntityManager } from '@mikro-orm/postgresql';
 import { route, type ApiRouter } from '../../http/route';
 import { requestEm } from '../../db';
 import { requirePrincipal } from '../../http/principal';
 import { listJobRunsQuery, type JobRunRow, type RunNowResult } from '../../../shared/schemas/job-runs';
 import { JobRun, type IJobRun } from './job-run.entity';
-import { runScheduledPass } from '../../jobs/scheduler';
 import { manualPass } from './job-run-context';
 import { recordAudit } from '../audit/audit';
-import '../../jobs/due-engine'; // registers the due engine's step with the scheduler
 
 function toRow(j: IJobRun): JobRunRow {
   return {
@@ -26,7 +24,8 @@ function toRow(j: IJobRun): JobRunRow {
   };
 }
 
-export function registerJobRunRoutes(r: ApiRouter, orm: MikroORM) {
+/** `runPass` runs the scheduled pass now (server/jobs); it resolves to null while another pass holds the lock. */
+export function registerJobRunRoutes(r: ApiRouter, runPass: () => Promise<object | null>) {
   const em = () => requestEm() as EntityManager;
   route(r, 'get', '/job-runs', { access: 'jobs.run', query: listJobRunsQuery }, async (_req, res) => {
     const q = res.locals.query;
@@ -35,7 +34,7 @@ export function registerJobRunRoutes(r: ApiRouter, orm: MikroORM) {
   });
   route(r, 'post', '/job-runs', { access: 'jobs.run' }, async (req, res) => {
     const who = requirePrincipal(req);
-    const result = await manualPass.run({ orgId: who.orgId, userId: who.userId }, () => runScheduledPass(orm));
+    const result = await manualPass.run({ orgId: who.orgId, userId: who.userId }, runPass);
     if (result === null) {
       const body: RunNowResult = { ran: false, message: 'A pass is running right now; its results appear below in a moment.', run: null };
       return res.status(409).json({ error: 'conflict', ...body });

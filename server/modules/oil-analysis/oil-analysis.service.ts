@@ -1,4 +1,4 @@
-import { QueryOrder, type EntityManager, type MikroORM } from '@mikro-orm/postgresql';
+import { QueryOrder, type EntityManager } from '@mikro-orm/postgresql';
 import { OilAnalysis, OilTarget, type IOilAnalysis, type IOilTarget } from './oil-analysis.entity';
 import { Machine } from '../machines/machine.entity';
 import { MaintenancePlan } from '../plans/plan.entity';
@@ -8,8 +8,9 @@ import { badRequest, notFound } from '../../http/errors';
 import { recordAudit } from '../audit/audit';
 import { compareToTarget, iso4406Code } from '../../../shared/domain/cleanliness';
 import { viscosityStatus } from '../../../shared/domain/viscosity';
-import { allocateNumbers, runDueEngine } from '../../jobs/due-engine';
-import { uuidArray } from '../../jobs/due-engine-inputs';
+import { raiseWorkOrders } from '../work-orders/raise-work-orders';
+import type { EvaluatePlansNow } from '../plans/plan-evaluation';
+import { uuidArray } from '../../db';
 import type { HydraulicUnitView, OilAnalysisInput, OilAnalysisRow, OilFinding, OilTarget as OilTargetView, OilTargetInput, ListOilAnalysesQuery } from '../../../shared/schemas/oil-analysis';
 import type { Page } from '../../../shared/schemas/users';
 import { clock } from '../../../shared/clock';
@@ -139,10 +140,10 @@ export async function listAnalyses(em: EntityManager, q: ListOilAnalysesQuery): 
 
 /**
  * Records a result. Outside its targets it raises condition work: through the unit's plans with an
- * oil-analysis trigger when there are any (the due engine, so the occurrence is raised once), else
- * as a condition work order of its own.
+ * oil-analysis trigger when there are any (`evaluatePlansNow`, the due engine, so the occurrence is
+ * raised once), else as a condition work order of its own.
  */
-export async function recordAnalysis(orm: MikroORM, em: EntityManager, who: Principal, input: OilAnalysisInput): Promise<OilAnalysisRow> {
+export async function recordAnalysis(em: EntityManager, who: Principal, input: OilAnalysisInput, evaluatePlansNow: EvaluatePlansNow): Promise<OilAnalysisRow> {
   const saved = await em.transactional(async (tx) => {
     const unit = await hydraulicUnit(tx, input.machineId);
     const t = await tx.findOne(OilTarget, { machine: unit.id });
@@ -171,30 +172,39 @@ export async function recordAnalysis(orm: MikroORM, em: EntityManager, who: Prin
     const plans = verdict.outOfLimits ? await tx.find(MaintenancePlan, { machine: unit.id, active: true }) : [];
     const oilPlans = plans.filter((p) => p.triggers.some((tr) => tr.kind === 'oil-analysis'));
     if (verdict.outOfLimits && oilPlans.length === 0) {
-      const number = await allocateNumbers(tx, who.orgId, 1);
-      const wo = tx.create(WorkOrder, {
-        organization: who.orgId,
-        number,
-        machine: unit,
-        kind: 'condition',
-        title: `Oil result outside targets on ${unit.code}`,
-        instructions: verdict.findings.map((f) => f.message).join('\n'),
-        reason: `oil sample of ${input.sampledAt.slice(0, 10)}: ${verdict.findings.filter((f) => f.severity === 'danger').map((f) => f.message).join('; ')}`,
-        dueAt: clock.now(),
-        responsibleRole: 'technician',
-        requiresLockout: false,
-        checklist: [],
-        plannedParts: [],
-      });
-      a.workOrder = wo as never;
-      recordAudit(tx, who, 'work-order.raised', { type: 'WorkOrder', id: wo.id }, { number, kind: 'condition', oilAnalysisId: a.id });
+      const [wo] = await raiseWorkOrders(
+        tx,
+        who.orgId,
+        who,
+        [
+          {
+            standalone: {
+              machineId: unit.id,
+              kind: 'condition',
+              title: `Oil result outside targets on ${unit.code}`,
+              instructions: verdict.findings.map((f) => f.message).join('\n'),
+              reason: `oil sample of ${input.sampledAt.slice(0, 10)}: ${verdict.findings.filter((f) => f.severity === 'danger').map((f) => f.message).join('; ')}`,
+              dueAt: clock.now(),
+              assigneeId: null,
+              responsibleRole: 'technician',
+              requiresLockout: false,
+              safetyCritical: false,
+              raisedById: null,
+              auditDetails: { oilAnalysisId: a.id },
+            },
+          },
+        ],
+        // Not announced today: the pass's notice step tells of plan work only.
+        { mode: 'by-pass' },
+      );
+      a.workOrder = tx.getReference(WorkOrder, wo.id, { wrapped: true });
     }
     recordAudit(tx, who, 'oil.recorded', { type: 'OilAnalysis', id: a.id }, { machine: unit.code, isoCode: verdict.isoCode, outOfLimits: verdict.outOfLimits });
     return { id: a.id, unit: { id: unit.id, code: unit.code, name: unit.name }, oilPlanIds: oilPlans.map((p) => p.id) };
   });
   if (saved.oilPlanIds.length) {
     // After the result is committed, so the engine reads it.
-    await runDueEngine(orm, clock.now(), { orgId: who.orgId, planIds: saved.oilPlanIds, escalate: false });
+    await evaluatePlansNow(who.orgId, saved.oilPlanIds);
     const [wo]: { id: string }[] = await em.execute(
       `select w.id from work_order w join maintenance_plan p on p.id = w.plan_id and w.occurrence_key = p.last_raised_key
         where p.id = any(?::uuid[]) and w.status in ('open', 'in-progress', 'on-hold') order by w.created_at desc limit 1`,

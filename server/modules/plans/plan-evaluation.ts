@@ -1,10 +1,18 @@
 import type { EntityManager } from '@mikro-orm/postgresql';
 import { evaluatePlan } from '../../../shared/domain/due';
-import { uuidArray, inputsOf, loadMeterSeries, loadOilSeries, missingBaselines, oilMeterId, toPlanInput, type EnginePlanRow } from '../../jobs/due-engine-inputs';
-import { evaluationHash, statusColumns } from '../../jobs/due-engine';
-import { humanReason, type MeterLabel } from '../../jobs/due-engine-reason';
+import { uuidArray } from '../../db';
+import { inputsOf, loadMeterSeries, loadOilSeries, missingBaselines, oilMeterId, toPlanInput, type EnginePlanRow } from './plan-inputs';
+import { evaluationHash, pendingRaise, statusColumns } from './plan-status';
+import { humanReason, type MeterLabel } from './plan-reason';
 import type { IMaintenancePlan, MeterBaselines } from './plan.entity';
 import { clock } from '../../../shared/clock';
+
+/**
+ * Evaluates the given plans of one shop at once and raises what is due, as the scheduled pass
+ * would (so an occurrence is still raised once). The pass lives above the modules (server/jobs);
+ * start-up hands this to a module whose change makes plans due (an oil result outside targets).
+ */
+export type EvaluatePlansNow = (orgId: string, planIds: string[]) => Promise<void>;
 
 /**
  * Evaluates one plan inside a request (after it was created, edited or completed) so its status and
@@ -53,7 +61,7 @@ export async function refreshPlanStatus(em: EntityManager, plan: IMaintenancePla
   plan.evaluation = c.evaluation;
   plan.statusHash = evaluationHash(ev, timeZone, ins.meters.map((id) => labels.get(id)?.name ?? ''));
   // A due occurrence is raised by the next pass: keep the plan in that pass's list.
-  plan.recheckAt = ev.occurrenceKey && !ev.alreadyRaised ? null : c.recheckAt;
+  plan.recheckAt = pendingRaise(ev) ? null : c.recheckAt;
   plan.inputsAt = inputsAt === null ? null : new Date(inputsAt);
   plan.evaluatedAt = now;
 }

@@ -6,7 +6,6 @@ import { requestEm } from '../../db';
 import { requirePrincipal } from '../../http/principal';
 import { AppError } from '../../http/errors';
 import { singleFileUpload } from '../../http/upload';
-import { registerJobStep } from '../../jobs/scheduler';
 import type { Config } from '../../config';
 import { uuidParam } from '../../../shared/schemas/common';
 import { confirmSignature, verifyShopChain } from './chain';
@@ -18,7 +17,7 @@ import { listRequirements, recordPpeCheck, retireRequirement, saveRequirement } 
 import { certifyInspection, endFireWatch, listFireWatches, listInspections, listTraining, recordInspection, recordTraining, startFireWatch } from './records.service';
 import { correctSignOff } from './corrections.service';
 import { compliance, exportCsv, exportPdf, listSignOffs, timeline } from './audit.service';
-import { listSafetyTasks, safetyDueStep } from './work';
+import { listSafetyTasks } from './work';
 import { approveVersionSchema, createProcedureSchema, photoParams, photoUploadFields, procedureContentSchema, PHOTO_MAX_BYTES, versionParams } from '../../../shared/schemas/safety-procedures';
 import {
   acceptHandoverSchema,
@@ -52,7 +51,6 @@ const mapQuery = z.object({ machineId: z.uuid().optional() });
 const versionQuery = z.object({ version: z.coerce.number().int().min(1).optional() });
 
 export function registerSafetyRoutes(r: ApiRouter, config: Config) {
-  registerJobStep(safetyDueStep);
   const who = (req: Parameters<RequestHandler>[0]) => requirePrincipal(req);
   // A signature re-asks the password, so wrong passwords are limited per person as at sign-in.
   // Only wrong passwords count (a counter that also counted requests in flight would refuse

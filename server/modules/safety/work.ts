@@ -9,7 +9,6 @@ import { inspectionEvaluation, ppeEvaluation } from './due';
 import { queueMail } from '../../mail/outbox';
 import { renderMail } from '../../mail/templates';
 import { loadConfig } from '../../config';
-import type { JobStep } from '../../jobs/scheduler';
 import type { SafetyTaskKind, SafetyTaskRow, TrainingKind } from '../../../shared/schemas/safety-records';
 import { TASK_KIND_LABELS } from '../../../shared/schemas/safety-records';
 import { clock } from '../../../shared/clock';
@@ -150,8 +149,6 @@ export async function runSafetyDue(orm: MikroORM, now: Date): Promise<Record<str
   }
   return totals;
 }
-
-export const safetyDueStep: JobStep = { name: 'safety-due', run: runSafetyDue };
 
 /**
  * What is due right now, evaluated live (so the list is current between scheduled passes),

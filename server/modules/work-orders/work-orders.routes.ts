@@ -20,21 +20,10 @@ import {
   usePartInput,
 } from '../../../shared/schemas/work-orders';
 import { z } from 'zod';
-import {
-  addAttachment,
-  closeWorkOrder,
-  getAttachment,
-  getNotifyPreference,
-  getWorkOrder,
-  listWorkOrders,
-  moveWorkOrder,
-  raiseWorkOrder,
-  returnPart,
-  saveChecklist,
-  setNotifyPreference,
-  updateWorkOrder,
-  usePart,
-} from './work-orders.service';
+import { closeWorkOrder, moveWorkOrder, raiseWorkOrder, returnPart, saveChecklist, updateWorkOrder, usePart } from './work-orders.service';
+import { getWorkOrder, listWorkOrders } from './work-orders.queries';
+import { addAttachment, getAttachment } from './work-order-attachments.service';
+import { getNotifyPreference, setNotifyPreference } from './notify-preference.service';
 import { workOrderPdf } from './work-order-pdf';
 import { Organization } from '../organizations/organization.entity';
 import type { Config } from '../../config';

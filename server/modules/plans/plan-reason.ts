@@ -2,7 +2,7 @@
  * The due evaluation explains itself with ids and UTC instants (shared/domain/due.ts); people read
  * meter names and their own shop's local time. This rewrites a reason for screens and mails.
  */
-import { cachedZone } from '../../shared/domain/zone-offsets';
+import { cachedZone } from '../../../shared/domain/zone-offsets';
 
 const UUID = '[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}';
 // Compiled once: the engine rewrites every reason of every plan it evaluates.

@@ -1,11 +1,11 @@
 /** Who hears about maintenance work, and the words of those mails. Every one carries the work caution. */
 import type { EntityManager } from '@mikro-orm/postgresql';
 import { DateTime } from 'luxon';
-import { cachedZone } from '../../shared/domain/zone-offsets';
-import type { Role } from '../../shared/permissions';
-import type { NotifyMode } from '../../shared/schemas/work-orders';
-import { queueMail } from '../mail/outbox';
-import { renderMail } from '../mail/templates';
+import { cachedZone } from '../../../shared/domain/zone-offsets';
+import type { Role } from '../../../shared/permissions';
+import type { NotifyMode } from '../../../shared/schemas/work-orders';
+import { queueMail } from '../../mail/outbox';
+import { renderMail } from '../../mail/templates';
 
 export type Person = { userId: string; email: string; name: string; role: Role; mode: NotifyMode };
 

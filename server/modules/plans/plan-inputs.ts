@@ -4,12 +4,10 @@
  * on purpose and every query says which rows it reads.
  */
 import type { EntityManager } from '@mikro-orm/postgresql';
-import type { PlanInput, Reading, Trigger } from '../../shared/domain/due';
-import type { StoredTrigger } from '../../shared/schemas/plans';
-import type { MeterBaselines } from '../modules/plans/plan.entity';
-
-/** A PostgreSQL array literal for `?::uuid[]` (the driver would expand a JS array into a list). */
-export const uuidArray = (ids: string[]) => `{${ids.join(',')}}`;
+import type { PlanInput, Reading, Trigger } from '../../../shared/domain/due';
+import type { StoredTrigger } from '../../../shared/schemas/plans';
+import type { MeterBaselines } from './plan.entity';
+import { uuidArray } from '../../db';
 
 /** Readings kept per meter for the usage trend and condition runs (the newest ones). */
 export const RECENT_READINGS = 24;
@@ -28,7 +26,7 @@ export type EnginePlanRow = {
   status: string;
   recheck_at: Date | null;
   inputs_at: Date | null;
-  /** Digest of the stored status (due-engine.ts statusColumns); null before the first evaluation. */
+  /** Digest of the stored status (plan-status.ts evaluationHash); null before the first evaluation. */
   status_hash: string | null;
 };
 
