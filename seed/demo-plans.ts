@@ -11,7 +11,7 @@ import { initORM } from '../server/db';
 import { Machine } from '../server/modules/machines/machine.entity';
 import { Membership } from '../server/modules/users/user.entity';
 import { OilAnalysis, OilTarget } from '../server/modules/oil-analysis/oil-analysis.entity';
-import { applyStarters } from '../server/modules/plans/plans.service';
+import { applyStarters } from '../server/modules/plans/plan-starters';
 import { judge } from '../server/modules/oil-analysis/oil-analysis.service';
 import { runDueEngine } from '../server/jobs/due-engine';
 import { uuidArray } from '../server/db';

@@ -4,7 +4,9 @@ import { requestEm } from '../../db';
 import { requirePrincipal } from '../../http/principal';
 import { uuidParam } from '../../../shared/schemas/common';
 import { applyStartersInput, listPlansQuery, planInput, starterListQuery } from '../../../shared/schemas/plans';
-import { applyStarters, createPlan, getPlan, listPlans, listStarters, planLookups, starterFits, updatePlan } from './plans.service';
+import { createPlan, updatePlan } from './plans.service';
+import { getPlan, listPlans, planLookups } from './plans.queries';
+import { applyStarters, listStarters, starterFits } from './plan-starters';
 
 export function registerPlanRoutes(r: ApiRouter) {
   const em = () => requestEm() as EntityManager;
