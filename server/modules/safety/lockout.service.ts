@@ -1,24 +1,19 @@
+/** A lockout's life: applied, verified, joined and left, handed over and released, each step signed into the chain. */
 import type { EntityManager } from '@mikro-orm/postgresql';
 import { Membership, User } from '../users/user.entity';
-import { Machine } from '../machines/machine.entity';
 import { WorkOrder } from '../work-orders/work-order.entity';
 import { markLockoutApplied, markLockoutReleased } from '../work-orders/work-order-lockout';
 import { EnergyProcedure, ProcedureVersion } from './procedure.entity';
 import { LockoutMember, LockoutPoint, LockoutSession, type ILockoutPoint, type ILockoutSession } from './lockout.entity';
-import { SafetySignOff } from './sign-off.entity';
 import { appendSignOff } from './chain';
 import { badRequest, conflict, fieldError, forbidden, notFound } from '../../http/errors';
 import { recordAudit } from '../audit/audit';
 import type { Principal } from '../../http/principal';
-import type { Page } from '../../../shared/schemas/users';
 import {
   LOCK_DEVICE_LABELS,
   type AcceptHandoverInput,
   type ApplyLockoutInput,
   type JoinLockoutInput,
-  type ListLockoutsQuery,
-  type LockoutDetail,
-  type LockoutRow,
   type OfferHandoverInput,
   type ReleaseLockoutInput,
   type VerifyLockoutInput,
@@ -29,7 +24,6 @@ import { clock } from '../../../shared/clock';
 const AUTHORIZED_ROLES = ['technician', 'safety'] as const;
 const SUBJECT = 'lockout-session';
 const NIL = '00000000-0000-0000-0000-000000000000';
-const iso = (d: Date | null | undefined) => (d ? d.toISOString() : null);
 
 /** Locks already hanging somewhere in this shop: a physical lock cannot be in two places. */
 async function locksInUse(tx: EntityManager, orgId: string, numbers: string[], exceptSession?: string): Promise<Map<string, string>> {
@@ -206,7 +200,7 @@ export async function offerHandover(em: EntityManager, who: Principal, id: strin
     const m = await tx.findOne(Membership, { user: input.toUserId, organization: who.orgId, active: true }, { filters: false, populate: ['user'] });
     if (!m) throw fieldError('toUserId', 'This person is not an active member of your shop');
     if (!(AUTHORIZED_ROLES as readonly string[]).includes(m.role)) throw fieldError('toUserId', `${m.user.getEntity().name} is not an authorized employee (technician or safety officer) and cannot hold a lockout`);
-    s.pendingHandoverTo = tx.getReference(User, input.toUserId) as never;
+    s.pendingHandoverTo = tx.getReference(User, input.toUserId, { wrapped: true });
     const signOff = await appendSignOff(tx, who, {
       meaning: 'handover-offered',
       subjectType: SUBJECT,
@@ -242,11 +236,11 @@ export async function acceptHandover(em: EntityManager, who: Principal, id: stri
     for (const p of mine) {
       const lock = input.locks.find((l) => l.pointId === p.id)!;
       p.removedAt = now;
-      p.removedBy = tx.getReference(User, from.id) as never;
+      p.removedBy = tx.getReference(User, from.id, { wrapped: true });
       tx.create(LockoutPoint, { organization: who.orgId, session: s, sourceKey: p.sourceKey, device: p.device, lockNumber: lock.lockNumber, tagNumber: p.tagNumber, appliedBy: who.userId, holder: who.userId, appliedAt: now });
       swaps.push({ key: p.sourceKey, from: p.lockNumber, to: lock.lockNumber });
     }
-    s.primary = tx.getReference(User, who.userId) as never;
+    s.primary = tx.getReference(User, who.userId, { wrapped: true });
     s.pendingHandoverTo = null;
     const signOff = await appendSignOff(tx, who, {
       meaning: 'handover-accepted',
@@ -279,7 +273,7 @@ export async function releaseLockout(em: EntityManager, who: Principal, id: stri
     const now = clock.now();
     for (const p of points) {
       p.removedAt = now;
-      p.removedBy = tx.getReference(User, who.userId) as never;
+      p.removedBy = tx.getReference(User, who.userId, { wrapped: true });
     }
     s.state = 'released';
     const machine = s.machine.getEntity();
@@ -303,132 +297,4 @@ export async function releaseLockout(em: EntityManager, who: Principal, id: stri
     recordAudit(tx, who, 'safety.lockout-released', { type: 'LockoutSession', id: s.id }, { signOffId: signOff.id });
     return { id: s.id, signOffId: signOff.id };
   });
-}
-
-const rowSql = `select s.id, s.state, s.machine_id, m.code as machine_code, m.name as machine_name, s.reason, s."group", s.primary_id, u.name as primary_name,
-    v.version as procedure_version, s.work_order_id, s.applied_at, s.verified_at, s.released_at, s.procedure_id,
-    (select count(*) from safety_lockout_member lm where lm.session_id = s.id and lm.left_at is null) as active_members, count(*) over () as total
-  from safety_lockout s join machine m on m.id = s.machine_id join app_user u on u.id = s.primary_id join safety_procedure_version v on v.id = s.procedure_version_id`;
-
-type RowSql = {
-  id: string;
-  state: LockoutRow['state'];
-  machine_id: string;
-  machine_code: string;
-  machine_name: string;
-  reason: string;
-  group: boolean;
-  primary_id: string;
-  primary_name: string;
-  procedure_version: number;
-  work_order_id: string | null;
-  applied_at: Date;
-  verified_at: Date | null;
-  released_at: Date | null;
-  procedure_id: string;
-  active_members: string;
-  total: string;
-};
-
-const toRow = (r: RowSql): LockoutRow => ({
-  id: r.id,
-  state: r.state,
-  machineId: r.machine_id,
-  machineCode: r.machine_code,
-  machineName: r.machine_name,
-  reason: r.reason,
-  group: r.group,
-  primaryId: r.primary_id,
-  primaryName: r.primary_name,
-  procedureVersion: Number(r.procedure_version),
-  workOrderId: r.work_order_id,
-  appliedAt: new Date(r.applied_at).toISOString(),
-  verifiedAt: r.verified_at ? new Date(r.verified_at).toISOString() : null,
-  releasedAt: r.released_at ? new Date(r.released_at).toISOString() : null,
-  activeMembers: Number(r.active_members),
-});
-
-export async function listLockouts(em: EntityManager, who: Principal, q: ListLockoutsQuery): Promise<Page<LockoutRow>> {
-  const params: unknown[] = [who.orgId];
-  let where = 's.organization_id = ?';
-  if (q.state === 'open') where += ` and s.state <> 'released'`;
-  else if (q.state) {
-    where += ' and s.state = ?';
-    params.push(q.state);
-  }
-  if (q.machineId) {
-    where += ' and s.machine_id = ?';
-    params.push(q.machineId);
-  }
-  const rows = await em.getConnection().execute<RowSql[]>(`${rowSql} where ${where} order by (s.state = 'released'), s.applied_at desc limit ? offset ?`, [...params, q.pageSize, (q.page - 1) * q.pageSize]);
-  return { rows: rows.map(toRow), total: rows[0] ? Number(rows[0].total) : 0, page: q.page, pageSize: q.pageSize };
-}
-
-export async function getLockout(em: EntityManager, who: Principal, id: string): Promise<LockoutDetail> {
-  const [r] = await em.getConnection().execute<RowSql[]>(`${rowSql} where s.organization_id = ? and s.id = ?`, [who.orgId, id]);
-  if (!r) throw notFound('Lockout');
-  const session = await em.findOneOrFail(LockoutSession, id, { populate: ['pendingHandoverTo', 'procedureVersion'] });
-  const points = await em.find(LockoutPoint, { session: id }, { populate: ['holder', 'appliedBy', 'removedBy'], orderBy: { appliedAt: 'asc', sourceKey: 'asc' } });
-  const members = await em.find(LockoutMember, { session: id }, { populate: ['user'], orderBy: { joinedAt: 'asc' } });
-  const signOffs = await em.find(SafetySignOff, { subjectId: id }, { orderBy: { seq: 'asc' } });
-  const sources = session.procedureVersion.getEntity().content.sources;
-  // Points in the procedure's order (as on the placard), the newest device of each point first.
-  const order = (k: string) => sources.findIndex((x) => x.key === k);
-  points.sort((a, b) => order(a.sourceKey) - order(b.sourceKey) || Number(a.removedAt !== null) - Number(b.removedAt !== null));
-  return {
-    ...toRow(r),
-    procedureId: r.procedure_id,
-    pendingHandoverToId: session.pendingHandoverTo?.id ?? null,
-    pendingHandoverToName: session.pendingHandoverTo?.getEntity().name ?? null,
-    points: points.map((p) => {
-      const src = sources.find((x) => x.key === p.sourceKey);
-      return {
-        id: p.id,
-        sourceKey: p.sourceKey,
-        sourceKind: src ? ENERGY_KIND_LABELS[src.kind] : '?',
-        isolationDevice: src?.isolationDevice ?? '?',
-        location: src?.location ?? '?',
-        device: p.device,
-        lockNumber: p.lockNumber,
-        tagNumber: p.tagNumber ?? null,
-        holderId: p.holder.id,
-        holderName: p.holder.getEntity().name,
-        appliedByName: p.appliedBy.getEntity().name,
-        appliedAt: p.appliedAt.toISOString(),
-        removedAt: iso(p.removedAt),
-        removedByName: p.removedBy?.getEntity().name ?? null,
-      };
-    }),
-    members: members.map((m) => ({ id: m.id, userId: m.user.id, name: m.user.getEntity().name, lockNumber: m.lockNumber, joinedAt: m.joinedAt.toISOString(), leftAt: iso(m.leftAt) })),
-    signOffs: signOffs.map((x) => ({ id: x.id, seq: x.seq, signedAt: x.signedAt.toISOString(), signerName: x.signerName, meaning: x.meaning, statement: x.statement })),
-  };
-}
-
-/** Machines with what the safety screens need: procedure and open lockouts. */
-export async function safetyMachines(em: EntityManager, who: Principal) {
-  // Whole machines only: procedures and lockouts are per machine, not per component.
-  const machines = await em.find(Machine, { active: true, parent: null }, { orderBy: { code: 'asc' } });
-  const procs = await em.getConnection().execute<{ id: string; machine_id: string; title: string; version: number | null }[]>(
-    `select p.id, p.machine_id, p.title, (select max(v.version) from safety_procedure_version v where v.procedure_id = p.id and v.status = 'approved') as version
-       from safety_procedure p where p.organization_id = ? order by p.title`,
-    [who.orgId],
-  );
-  const open = await em.getConnection().execute<{ machine_id: string; n: string }[]>(`select machine_id, count(*) as n from safety_lockout where organization_id = ? and state <> 'released' group by machine_id`, [who.orgId]);
-  return machines.map((m) => ({
-    id: m.id,
-    code: m.code,
-    name: m.name,
-    kind: m.kind,
-    procedures: procs.filter((p) => p.machine_id === m.id).map((p) => ({ id: p.id, title: p.title, approvedVersion: p.version === null ? null : Number(p.version) })),
-    openLockouts: Number(open.find((o) => o.machine_id === m.id)?.n ?? 0),
-  }));
-}
-
-/** Active people of the shop, for pickers (hand-over, inspection, training). */
-export async function safetyPeople(em: EntityManager, who: Principal) {
-  const rows = await em.getConnection().execute<{ id: string; name: string; role: string }[]>(
-    `select u.id, u.name, m.role from membership m join app_user u on u.id = m.user_id where m.organization_id = ? and m.active order by u.name`,
-    [who.orgId],
-  );
-  return rows;
 }
