@@ -194,7 +194,7 @@ export async function recordAnalysis(em: EntityManager, who: Principal, input: O
             },
           },
         ],
-        // Not announced today: the pass's notice step tells of plan work only.
+        // Left for the pass's notice step, as before (that step reads plan work only, so no mail goes out).
         { mode: 'by-pass' },
       );
       a.workOrder = tx.getReference(WorkOrder, wo.id, { wrapped: true });

@@ -55,7 +55,7 @@ export type RaiseNotice =
 export type RaisedWorkOrder = { id: string; number: number; planId: string | null; occurrenceKey: string | null };
 
 /** Hands out `n` consecutive work order numbers for a shop (row-locked counter). Returns the first. */
-export async function allocateNumbers(em: EntityManager, orgId: string, n: number): Promise<number> {
+async function allocateNumbers(em: EntityManager, orgId: string, n: number): Promise<number> {
   const [row] = await em.execute<{ last_number: number }[]>(
     `insert into work_order_counter (id, created_at, updated_at, organization_id, last_number) values (?, now(), now(), ?, ?)
        on conflict (organization_id) do update set last_number = work_order_counter.last_number + ?, updated_at = now()
