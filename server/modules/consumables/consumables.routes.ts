@@ -10,8 +10,7 @@ import { machineCodeParam } from '../../../shared/schemas/machines';
 import { PHOTO_MAX_BYTES, consumableChangeSchema, consumableSettingsSchema, cutCheckSchema, lifeStatsQuery } from '../../../shared/schemas/consumables';
 import { listCutChecks, recordCutCheck } from './cut-checks.service';
 import { lifeStats } from './life-stats.service';
-import { Machine } from '../machines/machine.entity';
-import { subtreeIds } from '../machines/machines.service';
+import { subtreeMachines } from '../machines/machines.service';
 import { getConsumableSettings, getPhoto, listChanges, logChange, stationView, updateConsumableSettings } from './consumables.service';
 
 const upload = singleFileUpload('photo', PHOTO_MAX_BYTES, 'photo');
@@ -45,12 +44,7 @@ export function registerConsumableRoutes(r: ApiRouter) {
   route(r, 'get', '/consumable-changes', { access: 'machines.read', query: changesQuery }, async (_req, res) => {
     const em = requestEm();
     const q = res.locals.query as z.output<typeof changesQuery>;
-    let torchIds: string[] | undefined;
-    if (q.machineId) {
-      const all = await em.find(Machine, {});
-      const ids = new Set(subtreeIds(all, q.machineId));
-      torchIds = all.filter((m) => ids.has(m.id) && m.kind === 'torch').map((m) => m.id);
-    }
+    const torchIds = q.machineId ? (await subtreeMachines(em, q.machineId)).filter((m) => m.kind === 'torch').map((m) => m.id) : undefined;
     res.json(await listChanges(em, { torchIds, page: q.page, pageSize: q.pageSize }));
   });
   route(r, 'get', '/consumable-changes/:id/photo', { access: 'machines.read', params: uuidParam }, async (_req, res) => {
@@ -67,9 +61,8 @@ export function registerConsumableRoutes(r: ApiRouter) {
   route(r, 'get', '/cut-checks', { access: 'machines.read', query: changesQuery }, async (_req, res) => {
     const em = requestEm();
     const q = res.locals.query as z.output<typeof changesQuery>;
-    const all = q.machineId ? await em.find(Machine, {}) : [];
-    const ids = q.machineId ? new Set(subtreeIds(all, q.machineId)) : null;
-    res.json(await listCutChecks(em, { torchIds: ids ? all.filter((m) => ids.has(m.id)).map((m) => m.id) : undefined, page: q.page, pageSize: q.pageSize }));
+    const torchIds = q.machineId ? (await subtreeMachines(em, q.machineId)).map((m) => m.id) : undefined;
+    res.json(await listCutChecks(em, { torchIds, page: q.page, pageSize: q.pageSize }));
   });
   route(r, 'get', '/consumable-settings', { access: 'machines.read' }, async (req, res) => {
     res.json(await getConsumableSettings(requestEm(), requirePrincipal(req)));

@@ -163,3 +163,10 @@ export function subtreeIds(all: Pick<IMachine, 'id' | 'parent'>[], rootId: strin
   }
   return [...ids];
 }
+
+/** A machine and everything below it (a cell's torch and punch head), for filters that name the cell. */
+export async function subtreeMachines(em: EntityManager, rootId: string): Promise<IMachine[]> {
+  const all = await em.find(Machine, {});
+  const ids = new Set(subtreeIds(all, rootId));
+  return all.filter((m) => ids.has(m.id));
+}

@@ -11,7 +11,7 @@ import { TextField } from '../../../components/ui/field';
 import { Notice } from '../../../components/ui/notice';
 import { applyServerErrors } from '../../../lib/form-errors';
 import { useLogChange } from '../api/log-change';
-import { formatQty } from '../../stock/components/format';
+import { formatQty } from '../../../lib/format-quantity';
 
 type In = z.input<typeof consumableChangeSchema>;
 type Out = z.output<typeof consumableChangeSchema>;

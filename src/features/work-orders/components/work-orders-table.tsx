@@ -8,7 +8,7 @@ import { ROLE_LABELS } from '../../../../shared/permissions';
 import { useWorkOrders } from '../api/get-work-orders';
 import { useWorkLookups } from '../api/get-work-lookups';
 import { usePlanOptions } from '../api/get-plan-options';
-import { DueBadge, LockoutBadge, StateBadge } from './work-badges';
+import { DueBadge, LockoutBadge, StateBadge } from '../../../components/ui/work-badges';
 import { formatWhen, relative } from './format';
 
 const col = createColumnHelper<WorkOrderRow>();

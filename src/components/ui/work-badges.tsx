@@ -1,5 +1,5 @@
-import { Badge } from '../../../components/ui/notice';
-import { DUE_FILTER_LABELS, WORK_KIND_LABELS, WORK_STATE_LABELS, type DueFilter, type WorkKind, type WorkState } from '../../../../shared/schemas/work-orders';
+import { Badge } from './notice';
+import { DUE_FILTER_LABELS, WORK_KIND_LABELS, WORK_STATE_LABELS, type DueFilter, type WorkKind, type WorkState } from '../../../shared/schemas/work-orders';
 
 /** ISO 3864-1 meanings: red = past due, yellow = due now / coming up, green = done; the words say it too. */
 export function DueBadge({ state }: { state: DueFilter | 'closed' }) {
