@@ -10,7 +10,10 @@ import globals from 'globals';
 
 const root = path.resolve(import.meta.dirname, '..');
 const abs = (glob) => path.join(root, glob);
-const features = fs.readdirSync(path.join(root, 'src/features'), { withFileTypes: true }).filter((d) => d.isDirectory()).map((d) => d.name);
+const features = fs
+  .readdirSync(path.join(root, 'src/features'), { withFileTypes: true })
+  .filter((d) => d.isDirectory())
+  .map((d) => d.name);
 
 /**
  * The import direction of docs/architecture.md. Each zone forbids `target` files to import
@@ -32,14 +35,23 @@ const importZones = [
   { target: 'server', from: 'src', message: 'The server may not import client code.' },
   // Server: routes -> services -> entities; jobs sit above modules and call their services.
   { target: 'server/modules', from: 'server/jobs', message: 'Modules may not import jobs; the job calls the module’s service instead.' },
-  { target: ['server/http', 'server/mail'], from: ['server/modules', 'server/jobs'], except: ['./common'], message: 'server/http and server/mail sit below the modules.' },
+  {
+    target: ['server/http', 'server/mail'],
+    from: ['server/modules', 'server/jobs'],
+    except: ['./common'],
+    message: 'server/http and server/mail sit below the modules.',
+  },
   {
     target: [abs('server/!(app).ts'), abs('server/*/**/!(*.routes).ts')],
     from: [abs('server/**/*.routes.ts')],
     message: 'Only server/app.ts registers routes; services, entities and jobs never import a routes file.',
   },
   { target: abs('server/app.ts'), from: [abs('server/**/*.entity.ts')], message: 'server/app.ts wires routes; queries belong in a service.' },
-  { target: abs('server/**/*.routes.ts'), from: [abs('server/**/*.entity.ts')], message: 'A routes file calls a service; queries on entities belong in the service.' },
+  {
+    target: abs('server/**/*.routes.ts'),
+    from: [abs('server/**/*.entity.ts')],
+    message: 'A routes file calls a service; queries on entities belong in the service.',
+  },
   {
     target: abs('server/**/*.entity.ts'),
     from: [abs('server/**/*.ts')],

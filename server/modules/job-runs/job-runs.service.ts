@@ -21,7 +21,11 @@ function toRow(j: IJobRun): JobRunRow {
 
 /** The scheduled passes, newest first. */
 export async function listJobRuns(em: EntityManager, q: { page: number; pageSize: number }) {
-  const [items, total] = await em.findAndCount(JobRun, {}, { orderBy: { startedAt: 'desc' }, limit: q.pageSize, offset: (q.page - 1) * q.pageSize, populate: ['triggeredBy'] });
+  const [items, total] = await em.findAndCount(
+    JobRun,
+    {},
+    { orderBy: { startedAt: 'desc' }, limit: q.pageSize, offset: (q.page - 1) * q.pageSize, populate: ['triggeredBy'] },
+  );
   return { rows: items.map(toRow), total, page: q.page, pageSize: q.pageSize };
 }
 
