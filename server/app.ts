@@ -22,7 +22,7 @@ import { registerMachineRoutes } from './modules/machines/machines.routes';
 import { registerMeterRoutes } from './modules/meters/meters.routes';
 import { registerCounterImportRoutes } from './modules/meters/counter-import.routes';
 import { registerStockRoutes } from './modules/stock/stock.routes';
-import { registerConsumableRoutes } from './modules/consumables/consumables.routes';
+import { registerStationRoutes } from './modules/station/station.routes';
 import { registerPunchToolRoutes } from './modules/punch-tools/punch-tools.routes';
 import { registerPlanRoutes } from './modules/plans/plans.routes';
 import { registerWorkOrderRoutes } from './modules/work-orders/work-orders.routes';
@@ -86,7 +86,7 @@ export function createApp({ orm, config, smtp = null }: AppDeps): AppHandle {
   registerMeterRoutes(api);
   registerCounterImportRoutes(api);
   registerStockRoutes(api);
-  registerConsumableRoutes(api);
+  registerStationRoutes(api);
   registerPunchToolRoutes(api);
   registerPlanRoutes(api);
   registerWorkOrderRoutes(api, config);

@@ -13,7 +13,7 @@ import { OilTarget, OilAnalysis } from './modules/oil-analysis/oil-analysis.enti
 import { CalendarFeed } from './modules/calendar-feed/calendar-feed.entity';
 import { JobRun } from './modules/job-runs/job-run.entity';
 import { safetyEntities } from './modules/safety/index';
-import { ConsumableChange, ConsumableInstall, ConsumablePhoto, CutCheck } from './modules/consumables/consumable.entity';
+import { ConsumableChange, ConsumableInstall, ConsumablePhoto, CutCheck } from './modules/station/consumable.entity';
 import { PunchTool, ToolSharpening } from './modules/punch-tools/punch-tool.entity';
 
 export const entities = [Organization, User, Membership, UserToken, AuditEvent, OutboxMail, Machine, Meter, MeterReading, PartType, StockMove, MaintenancePlan, WorkOrder, WorkOrderPart, WorkOrderAttachment, WorkOrderCounter, NotifyPreference, OilTarget, OilAnalysis, CalendarFeed, JobRun, ...safetyEntities, ConsumableChange, ConsumableInstall, ConsumablePhoto, CutCheck, PunchTool, ToolSharpening, MachinePhoto];

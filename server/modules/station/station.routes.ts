@@ -11,7 +11,7 @@ import { PHOTO_MAX_BYTES, consumableChangeSchema, consumableSettingsSchema, cutC
 import { listCutChecks, recordCutCheck } from './cut-checks.service';
 import { lifeStats } from './life-stats.service';
 import { subtreeMachines } from '../machines/machines.service';
-import { getConsumableSettings, getPhoto, listChanges, logChange, stationView, updateConsumableSettings } from './consumables.service';
+import { getConsumableSettings, getPhoto, listChanges, logChange, stationView, updateConsumableSettings } from './station.service';
 
 const upload = singleFileUpload('photo', PHOTO_MAX_BYTES, 'photo');
 
@@ -34,7 +34,8 @@ const receiveChange: RequestHandler = (req, res, next) => {
 
 const changesQuery = paging.extend({ machineId: z.uuid().optional() });
 
-export function registerConsumableRoutes(r: ApiRouter) {
+/** The station page at the machine: its view, consumable changes with photos, cut checks and consumable lives. */
+export function registerStationRoutes(r: ApiRouter) {
   route(r, 'get', '/stations/:code', { access: 'machines.read', params: machineCodeParam }, async (req, res) => {
     res.json(await stationView(requestEm(), requirePrincipal(req), res.locals.params.code));
   });

@@ -10,7 +10,7 @@ import { applyStockChanges } from '../stock/stock.service';
 import { latestReadings, meterRow, neighbours, readingsSince, recordReading } from '../meters/meters.service';
 import { machineByCode, metersOf, subtreeIds } from '../machines/machines.service';
 import { listTools } from '../punch-tools/punch-tools.service';
-import { stationStatus } from '../station/station-status';
+import { stationStatus } from './station-status';
 import type { Principal } from '../../http/principal';
 import { AppError, fieldError, notFound } from '../../http/errors';
 import { recordAudit } from '../audit/audit';

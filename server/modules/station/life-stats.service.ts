@@ -4,7 +4,7 @@ import { Machine } from '../machines/machine.entity';
 import { PartType } from '../stock/stock.entity';
 import { Organization } from '../organizations/organization.entity';
 import { readingsSince } from '../meters/meters.service';
-import { torchMeters } from './consumables.service';
+import { torchMeters } from './station.service';
 import { subtreeIds } from '../machines/machines.service';
 import type { Principal } from '../../http/principal';
 import { notFound } from '../../http/errors';
