@@ -15,7 +15,7 @@ import { registerAuthRoutes } from './modules/auth/auth.routes';
 import { registerUserRoutes } from './modules/users/users.routes';
 import { registerHealthRoutes } from './modules/health/health.routes';
 import { registerDevInboxRoutes } from './modules/dev-inbox/dev-inbox.routes';
-import { registerAuditRoutes } from './modules/audit/audit.routes';
+import { registerActivityLogRoutes } from './modules/activity-log/activity-log.routes';
 import { registerOrganizationRoutes } from './modules/organizations/organizations.routes';
 import { registerSafetyRoutes } from './modules/safety/safety.routes';
 import { registerMachineRoutes } from './modules/machines/machines.routes';
@@ -79,7 +79,7 @@ export function createApp({ orm, config, smtp = null }: AppDeps): AppHandle {
   registerHealthRoutes(api, orm);
   registerAuthRoutes(api, config);
   registerUserRoutes(api, config);
-  registerAuditRoutes(api);
+  registerActivityLogRoutes(api);
   registerOrganizationRoutes(api);
   registerSafetyRoutes(api, config);
   registerMachineRoutes(api);

@@ -30,7 +30,7 @@ import {
 import { loadPeople, queueEscalations, queueRaisedNotices, workLine, type Person, type WorkRow } from './due-engine-mail';
 import { sendDigests } from './due-engine-digest';
 import { humanReason, type MeterLabel } from './due-engine-reason';
-import { insertAuditRows } from '../modules/audit/audit';
+import { insertActivityRows } from '../modules/activity-log/activity-log.service';
 import { executeBound } from '../db';
 import { manualPass } from '../modules/job-runs/job-run-context';
 import type { MeterBaselines } from '../modules/plans/plan.entity';
@@ -283,7 +283,7 @@ async function raiseWork(orm: MikroORM, run: Run, orgId: string, items: Evaluate
              from jsonb_to_recordset(?::jsonb) as v(id uuid, key text, recheck_at timestamptz) where p.id = v.id`,
           [JSON.stringify(raised.map((r) => ({ id: r.plan_id, key: r.occurrence_key, recheck_at: r.recheck_at })))],
         );
-        await insertAuditRows(
+        await insertActivityRows(
           tx,
           orgId,
           raised.map((r) => ({ action: 'work-order.raised', entityType: 'WorkOrder', entityId: r.id, details: { number: r.number, planId: r.plan_id, occurrenceKey: r.occurrence_key } })),
@@ -378,7 +378,7 @@ async function escalateChunk(orm: MikroORM, run: Run, now: Date, orgId?: string)
         const ids = new Set(done.map((d) => d.id));
         const lines = list.filter((l) => ids.has(l.id)).map((l) => workLine(l, true));
         if (lines.length === 0) return;
-        await insertAuditRows(tx, org, lines.map((l) => ({ action: 'work-order.escalated', entityType: 'WorkOrder', entityId: l.id, details: { number: l.number } })));
+        await insertActivityRows(tx, org, lines.map((l) => ({ action: 'work-order.escalated', entityType: 'WorkOrder', entityId: l.id, details: { number: l.number } })));
         const mails = queueEscalations(tx, run.ctx(org), lines, await run.peopleOf(tx, org));
         const s = run.of(org);
         s.escalations += lines.length;

@@ -7,7 +7,7 @@ import { authenticate, redeemToken, requestPasswordReset } from './auth.service'
 import { destroy, ensureCsrfToken, regenerate, save, SESSION_COOKIE } from '../../http/session';
 import { requirePrincipal } from '../../http/principal';
 import type { Config } from '../../config';
-import { recordAudit } from '../audit/audit';
+import { recordActivity } from '../activity-log/activity-log.service';
 import type { EntityManager } from '@mikro-orm/postgresql';
 import { getShopProfile } from '../organizations/organizations.service';
 
@@ -57,7 +57,7 @@ export function registerAuthRoutes(r: ApiRouter, config: Config) {
   route(r, 'post', '/auth/logout', { access: 'public' }, async (req, res) => {
     if (req.principal) {
       const em = requestEm() as EntityManager;
-      recordAudit(em, req.principal, 'auth.sign-out', { type: 'User', id: req.principal.userId });
+      recordActivity(em, req.principal, 'auth.sign-out', { type: 'User', id: req.principal.userId });
       await em.flush();
     }
     await destroy(req);

@@ -6,7 +6,7 @@ import { listJobRunsQuery, type RunNowResult } from '../../../shared/schemas/job
 import { latestJobRun, listJobRuns } from './job-runs.service';
 import { runScheduledPass } from '../../jobs/scheduler';
 import { manualPass } from './job-run-context';
-import { recordAudit } from '../audit/audit';
+import { recordActivity } from '../activity-log/activity-log.service';
 import '../../jobs/due-engine'; // registers the due engine's step with the scheduler
 
 export function registerJobRunRoutes(r: ApiRouter, orm: MikroORM) {
@@ -22,7 +22,7 @@ export function registerJobRunRoutes(r: ApiRouter, orm: MikroORM) {
       return res.status(409).json({ error: 'conflict', ...body });
     }
     await em().transactional(async (tx) => {
-      recordAudit(tx, who, 'jobs.run-now', { type: 'JobRun', id: null });
+      recordActivity(tx, who, 'jobs.run-now', { type: 'JobRun', id: null });
     });
     const body: RunNowResult = { ran: true, message: 'Pass finished.', run: await latestJobRun(em()) };
     res.json(body);

@@ -4,7 +4,7 @@ import { Machine } from './machine.entity';
 import { MachinePhoto } from './machine-photo.entity';
 import type { Principal } from '../../http/principal';
 import { fieldError, notFound } from '../../http/errors';
-import { recordAudit } from '../audit/audit';
+import { recordActivity } from '../activity-log/activity-log.service';
 import { PHOTO_TYPES } from '../../../shared/schemas/safety-procedures';
 import { PHOTO_MAX_BYTES } from '../../../shared/schemas/consumables';
 import type { MachinePhotoRow } from '../../../shared/schemas/machines';
@@ -42,7 +42,7 @@ export async function addMachinePhoto(em: EntityManager, who: Principal, machine
   return em.transactional(async (tx) => {
     const machine = await machineOr404(tx, machineId);
     const photo = tx.create(MachinePhoto, { organization: who.orgId, machine, caption, mimeType: type.mime, byteSize: file.size, data: file.buffer, uploadedBy: who.userId });
-    recordAudit(tx, who, 'machine.photo-added', { type: 'MachinePhoto', id: photo.id }, { machineId, size: file.size });
+    recordActivity(tx, who, 'machine.photo-added', { type: 'MachinePhoto', id: photo.id }, { machineId, size: file.size });
     return { id: photo.id };
   });
 }
@@ -57,7 +57,7 @@ export async function deleteMachinePhoto(em: EntityManager, who: Principal, mach
   await em.transactional(async (tx) => {
     const photo = await tx.findOne(MachinePhoto, { id: photoId, machine: machineId });
     if (!photo) throw notFound('Photo');
-    recordAudit(tx, who, 'machine.photo-deleted', { type: 'MachinePhoto', id: photoId }, { machineId, caption: photo.caption ?? null });
+    recordActivity(tx, who, 'machine.photo-deleted', { type: 'MachinePhoto', id: photoId }, { machineId, caption: photo.caption ?? null });
     tx.remove(photo);
   });
 }

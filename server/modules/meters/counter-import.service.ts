@@ -5,7 +5,7 @@ import { Meter } from './meter.entity';
 import { Organization } from '../organizations/organization.entity';
 import type { Principal } from '../../http/principal';
 import { badRequest } from '../../http/errors';
-import { recordAudit } from '../audit/audit';
+import { recordActivity } from '../activity-log/activity-log.service';
 import { importKeySource, mapHeader, parseRow, templateCsv, type ParsedRow, type RowError } from '../../../shared/domain/counter-import';
 import { readingOrderProblem, readingTime } from '../../../shared/domain/meters';
 import type { ImportMeterSummary, ImportPreview, ImportResult } from '../../../shared/schemas/counter-import';
@@ -199,7 +199,7 @@ export async function importCounterCsv(em: EntityManager, who: Principal, file: 
       added += Number(res[0].n);
       await progress?.({ phase: 'writing', done: Math.min(i + WRITE_CHUNK, toInsert.length), total: toInsert.length });
     }
-    recordAudit(tx, who, 'meter.readings-imported', { type: 'CounterImport' }, { rows: preview.rows, added, duplicates: preview.duplicates + (toInsert.length - added), meters: preview.meters.map((m) => `${m.machineCode}/${m.meterCode}`) });
+    recordActivity(tx, who, 'meter.readings-imported', { type: 'CounterImport' }, { rows: preview.rows, added, duplicates: preview.duplicates + (toInsert.length - added), meters: preview.meters.map((m) => `${m.machineCode}/${m.meterCode}`) });
     return { rows: preview.rows, added, duplicates: preview.duplicates + (toInsert.length - added) };
   });
 }

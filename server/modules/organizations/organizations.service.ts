@@ -2,7 +2,7 @@ import type { EntityManager } from '@mikro-orm/postgresql';
 import type { Principal } from '../../http/principal';
 import type { OrgSettingsInput } from '../../../shared/schemas/organization';
 import { Organization } from './organization.entity';
-import { recordAudit } from '../audit/audit';
+import { recordActivity } from '../activity-log/activity-log.service';
 
 export type ShopProfile = { id: string; name: string; timeZone: string };
 
@@ -17,7 +17,7 @@ export async function updateShopProfile(em: EntityManager, who: Principal, input
   const before = { name: org.name, timeZone: org.timeZone };
   org.name = input.name;
   org.timeZone = input.timeZone;
-  recordAudit(em, who, 'organization.updated', { type: 'Organization', id: org.id }, { before, after: input });
+  recordActivity(em, who, 'organization.updated', { type: 'Organization', id: org.id }, { before, after: input });
   await em.flush();
   return { id: org.id, name: org.name, timeZone: org.timeZone };
 }

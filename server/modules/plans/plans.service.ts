@@ -8,14 +8,13 @@ import { Membership } from '../users/user.entity';
 import { Organization } from '../organizations/organization.entity';
 import type { Principal } from '../../http/principal';
 import { badRequest, notFound } from '../../http/errors';
-import { recordAudit } from '../audit/audit';
+import { recordActivity } from '../activity-log/activity-log.service';
 import { buildRecurrenceText } from '../../../shared/domain/recurrence';
 import { summarizeTrigger, summarizeTriggers } from '../../../shared/domain/plan-summary';
 import { STARTER_PLANS, findStarter, type StarterMeter, type StarterPlan } from '../../../shared/domain/starter-plans';
 import { ROLE_LABELS } from '../../../shared/permissions';
 import { MACHINE_KIND_LABELS, type MachineKind } from '../../../shared/schemas/machines';
 import type { FieldErrors } from '../../../shared/schemas/common';
-import type { Page } from '../../../shared/schemas/users';
 import type {
   ApplyStartersInput,
   ApplyStartersResult,
@@ -32,6 +31,7 @@ import type {
 } from '../../../shared/schemas/plans';
 import { currentBaselines, refreshPlanStatus } from './plan-evaluation';
 import { clock } from '../../../shared/clock';
+import type { Page } from '../../../shared/schemas/paging';
 
 type MeterInfo = { id: string; code: string; name: string; unit: string; kind: string; machineId: string };
 
@@ -150,7 +150,7 @@ export async function createPlan(em: EntityManager, who: Principal, input: PlanI
       starterKey: extra.starterKey ?? null,
     });
     await refreshPlanStatus(tx, plan, tz);
-    recordAudit(tx, who, 'plan.created', { type: 'MaintenancePlan', id: plan.id }, { title: plan.title, machine: machine.code, starter: extra.starterKey ?? null });
+    recordActivity(tx, who, 'plan.created', { type: 'MaintenancePlan', id: plan.id }, { title: plan.title, machine: machine.code, starter: extra.starterKey ?? null });
     return { id: plan.id };
   });
 }
@@ -172,7 +172,7 @@ export async function updatePlan(em: EntityManager, who: Principal, id: string, 
       meterBaselines: { ...plan.meterBaselines, ...fresh },
     });
     await refreshPlanStatus(tx, plan, tz);
-    recordAudit(tx, who, 'plan.updated', { type: 'MaintenancePlan', id: plan.id }, { before, after: { title: plan.title, triggers: plan.triggers, active: plan.active } });
+    recordActivity(tx, who, 'plan.updated', { type: 'MaintenancePlan', id: plan.id }, { before, after: { title: plan.title, triggers: plan.triggers, active: plan.active } });
   });
 }
 

@@ -17,7 +17,7 @@ import { acceptHandover, applyLockout, getLockout, joinLockout, leaveLockout, li
 import { listRequirements, recordPpeCheck, retireRequirement, saveRequirement } from './ppe.service';
 import { certifyInspection, endFireWatch, listFireWatches, listInspections, listTraining, recordInspection, recordTraining, startFireWatch } from './records.service';
 import { correctSignOff } from './corrections.service';
-import { compliance, exportCsv, exportPdf, listSignOffs, timeline } from './audit.service';
+import { compliance, exportCsv, exportPdf, listSignOffs, timeline } from './safety-audit.service';
 import { listSafetyTasks, safetyDueStep } from './work';
 import { approveVersionSchema, createProcedureSchema, photoParams, photoUploadFields, procedureContentSchema, PHOTO_MAX_BYTES, versionParams } from '../../../shared/schemas/safety-procedures';
 import {

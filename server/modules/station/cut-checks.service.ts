@@ -4,11 +4,11 @@ import { Machine } from '../machines/machine.entity';
 import { Organization } from '../organizations/organization.entity';
 import type { Principal } from '../../http/principal';
 import { fieldError, notFound } from '../../http/errors';
-import { recordAudit } from '../audit/audit';
+import { recordActivity } from '../activity-log/activity-log.service';
 import { couponResult, referenceValues } from '../../../shared/domain/consumables';
 import type { CutCheckInput, CutCheckRow } from '../../../shared/schemas/consumables';
-import type { Page } from '../../../shared/schemas/users';
 import { clock } from '../../../shared/clock';
+import type { Page } from '../../../shared/schemas/paging';
 
 /**
  * Records a test coupon measured against nominal with the shop's tolerance, tied to the
@@ -37,7 +37,7 @@ export async function recordCutCheck(em: EntityManager, who: Principal, input: C
       by: who.userId,
       note: input.note,
     });
-    recordAudit(tx, who, 'cut-check.recorded', { type: 'CutCheck', id: check.id }, { torch: torch.code, passed: result.passed, maxDeviationMm: result.maxDeviationMm });
+    recordActivity(tx, who, 'cut-check.recorded', { type: 'CutCheck', id: check.id }, { torch: torch.code, passed: result.passed, maxDeviationMm: result.maxDeviationMm });
     return check.id;
   });
   return (await listCutChecks(em, { ids: [id], page: 1, pageSize: 1 })).rows[0];

@@ -13,14 +13,14 @@ import { listTools } from '../punch-tools/punch-tools.service';
 import { stationStatus } from './station-status';
 import type { Principal } from '../../http/principal';
 import { AppError, fieldError, notFound } from '../../http/errors';
-import { recordAudit } from '../audit/audit';
+import { recordActivity } from '../activity-log/activity-log.service';
 import { advanceSince } from '../../../shared/domain/meters';
 import { lifeFraction, referenceValues } from '../../../shared/domain/consumables';
 import { PART_CATEGORY_LABELS, TORCH_CATEGORIES, type TorchCategory } from '../../../shared/schemas/stock';
 import { PHOTO_TYPES, type ChangeRow, type ConsumableChangeInput, type ConsumableSettingsInput, type InstalledPart, type StationView, type TorchStation } from '../../../shared/schemas/consumables';
 import type { MeterRow } from '../../../shared/schemas/machines';
-import type { Page } from '../../../shared/schemas/users';
 import { clock } from '../../../shared/clock';
+import type { Page } from '../../../shared/schemas/paging';
 
 const article = (noun: string) => `${/^[aeiou]/i.test(noun) ? 'an' : 'a'} ${noun.toLowerCase()}`;
 
@@ -224,7 +224,7 @@ export async function logChange(em: EntityManager, who: Principal, input: Consum
       await applyStockChanges(tx, who, taken.map((id) => ({ partTypeId: id, quantity: -1, kind: 'used' as const, reason: `Consumable change on ${torch.code}`, ref: { type: 'ConsumableChange', id: change.id } })));
     }
     if (photo && mime) tx.create(ConsumablePhoto, { organization: who.orgId, change, mimeType: mime, byteSize: photo.length, data: photo });
-    recordAudit(tx, who, 'consumable.changed', { type: 'ConsumableChange', id: change.id }, { torch: torch.code, categories: input.categories, reason: input.reason, starts, arcHours, fromStock: input.takeFromStock });
+    recordActivity(tx, who, 'consumable.changed', { type: 'ConsumableChange', id: change.id }, { torch: torch.code, categories: input.categories, reason: input.reason, starts, arcHours, fromStock: input.takeFromStock });
     return { id: change.id, closed: open.length, opened: taken.length };
   });
 }
@@ -284,7 +284,7 @@ export async function updateConsumableSettings(em: EntityManager, who: Principal
       else next[k] = v;
     }
     org.settings = next;
-    recordAudit(tx, who, 'settings.consumables-updated', { type: 'Organization', id: org.id }, { ...input });
+    recordActivity(tx, who, 'settings.consumables-updated', { type: 'Organization', id: org.id }, { ...input });
     return settingsOf(org);
   });
 }

@@ -8,7 +8,7 @@ import { Organization } from '../organizations/organization.entity';
 import { applyStockChanges } from '../stock/stock.service';
 import type { Principal } from '../../http/principal';
 import { badRequest, conflict, notFound } from '../../http/errors';
-import { recordAudit } from '../audit/audit';
+import { recordActivity } from '../activity-log/activity-log.service';
 import { allocateNumbers } from '../../jobs/due-engine';
 import { loadPeople, queueRaisedNotices } from '../../jobs/due-engine-mail';
 import { currentBaselines, refreshPlanStatus } from '../plans/plan-evaluation';
@@ -30,9 +30,9 @@ import type {
   WorkOrderRow,
   WorkState,
 } from '../../../shared/schemas/work-orders';
-import type { Page } from '../../../shared/schemas/users';
 import type { FieldErrors } from '../../../shared/schemas/common';
 import { clock } from '../../../shared/clock';
+import type { Page } from '../../../shared/schemas/paging';
 
 const OPEN: WorkState[] = ['open', 'in-progress', 'on-hold'];
 const iso = (d: Date | null | undefined) => (d ? new Date(d).toISOString() : null);
@@ -274,7 +274,7 @@ export async function raiseWorkOrder(em: EntityManager, who: Principal, input: R
       // Told below, in this transaction.
       notifiedAt: clock.now(),
     });
-    recordAudit(tx, who, 'work-order.raised', { type: 'WorkOrder', id: wo.id }, { number, kind: 'corrective', title: input.title });
+    recordActivity(tx, who, 'work-order.raised', { type: 'WorkOrder', id: wo.id }, { number, kind: 'corrective', title: input.title });
     const org = await tx.findOneOrFail(Organization, who.orgId);
     const people = (await loadPeople(tx, who.orgId)).filter((p) => p.userId !== who.userId);
     queueRaisedNotices(
@@ -318,7 +318,7 @@ export async function updateWorkOrder(em: EntityManager, who: Principal, id: str
     if (input.labourMinutes !== undefined) wo.labourMinutes = input.labourMinutes;
     if (input.notes !== undefined) wo.notes = input.notes;
     if (input.requiresLockout !== undefined) wo.requiresLockout = input.requiresLockout;
-    recordAudit(tx, who, 'work-order.updated', { type: 'WorkOrder', id: wo.id }, { before, after: input });
+    recordActivity(tx, who, 'work-order.updated', { type: 'WorkOrder', id: wo.id }, { before, after: input });
   });
 }
 
@@ -365,7 +365,7 @@ export async function moveWorkOrder(em: EntityManager, who: Principal, id: strin
       // Calling off planned work skips this occurrence; the plan schedules the next one.
       await restartPlanCycle(tx, who, wo, now);
     }
-    recordAudit(tx, who, `work-order.${input.move}`, { type: 'WorkOrder', id: wo.id }, { from, to: wo.status, ...(input.reason ? { reason: input.reason } : {}) });
+    recordActivity(tx, who, `work-order.${input.move}`, { type: 'WorkOrder', id: wo.id }, { from, to: wo.status, ...(input.reason ? { reason: input.reason } : {}) });
   });
 }
 
@@ -400,7 +400,7 @@ export async function saveChecklist(em: EntityManager, who: Principal, id: strin
       wo.status = 'in-progress';
       wo.startedAt ??= clock.now();
     }
-    recordAudit(tx, who, 'work-order.checklist', { type: 'WorkOrder', id: wo.id }, { answered: lines.filter((l) => l.result !== null).length, of: lines.length });
+    recordActivity(tx, who, 'work-order.checklist', { type: 'WorkOrder', id: wo.id }, { answered: lines.filter((l) => l.result !== null).length, of: lines.length });
     return lines;
   });
 }
@@ -414,7 +414,7 @@ export async function usePart(em: EntityManager, who: Principal, id: string, inp
       { partTypeId: input.partTypeId, quantity: -input.quantity, kind: 'used', reason: `WO ${wo.number}: ${wo.title}`.slice(0, 300), ref: { type: 'WorkOrder', id: wo.id } },
     ]);
     const line = tx.create(WorkOrderPart, { organization: who.orgId, workOrder: wo, partType: input.partTypeId, quantity: input.quantity, stockMove: move, by: who.userId });
-    recordAudit(tx, who, 'work-order.part-used', { type: 'WorkOrder', id: wo.id }, { partTypeId: input.partTypeId, quantity: input.quantity });
+    recordActivity(tx, who, 'work-order.part-used', { type: 'WorkOrder', id: wo.id }, { partTypeId: input.partTypeId, quantity: input.quantity });
     return { id: line.id };
   });
 }
@@ -427,7 +427,7 @@ export async function returnPart(em: EntityManager, who: Principal, id: string, 
     const line = await tx.findOne(WorkOrderPart, { id: lineId, workOrder: wo.id });
     if (!line) throw notFound('Part line');
     await applyStockChanges(tx, who, [{ partTypeId: line.partType.id, quantity: line.quantity, kind: 'adjusted', reason: `Returned from WO ${wo.number}`, ref: { type: 'WorkOrder', id: wo.id } }]);
-    recordAudit(tx, who, 'work-order.part-returned', { type: 'WorkOrder', id: wo.id }, { partTypeId: line.partType.id, quantity: line.quantity });
+    recordActivity(tx, who, 'work-order.part-returned', { type: 'WorkOrder', id: wo.id }, { partTypeId: line.partType.id, quantity: line.quantity });
     tx.remove(line);
   });
 }
@@ -452,7 +452,7 @@ export async function closeWorkOrder(em: EntityManager, who: Principal, id: stri
     wo.completedAt = now;
     wo.completedBy = who.userId as never;
     await restartPlanCycle(tx, who, wo, now);
-    recordAudit(tx, who, 'work-order.closed', { type: 'WorkOrder', id: wo.id }, { labourMinutes: wo.labourMinutes, failed: wo.checklist.filter((c) => c.result === 'fail').map((c) => c.key) });
+    recordActivity(tx, who, 'work-order.closed', { type: 'WorkOrder', id: wo.id }, { labourMinutes: wo.labourMinutes, failed: wo.checklist.filter((c) => c.result === 'fail').map((c) => c.key) });
     await tx.flush();
     const plan = wo.plan ? await tx.findOne(MaintenancePlan, { id: wo.plan.id }) : null;
     return { planNextDueAt: iso(plan?.nextDueAt) };
@@ -475,7 +475,7 @@ export async function addAttachment(em: EntityManager, who: Principal, id: strin
       data: file.data,
       uploadedBy: who.userId,
     });
-    recordAudit(tx, who, 'work-order.attachment', { type: 'WorkOrder', id: wo.id }, { fileName: a.fileName, size: a.size, mimeType: a.mimeType });
+    recordActivity(tx, who, 'work-order.attachment', { type: 'WorkOrder', id: wo.id }, { fileName: a.fileName, size: a.size, mimeType: a.mimeType });
     return { id: a.id };
   });
 }
@@ -504,7 +504,7 @@ export async function setNotifyPreference(em: EntityManager, who: Principal, inp
     } else {
       tx.create(NotifyPreference, { organization: who.orgId, user: who.userId, mode: input.mode, digestHour: input.digestHour });
     }
-    recordAudit(tx, who, 'notices.preference', { type: 'User', id: who.userId }, input);
+    recordActivity(tx, who, 'notices.preference', { type: 'User', id: who.userId }, input);
   });
   return getNotifyPreference(em, who);
 }

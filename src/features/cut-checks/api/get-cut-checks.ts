@@ -1,8 +1,8 @@
 import { keepPreviousData, queryOptions, useQuery } from '@tanstack/react-query';
 import { api } from '../../../lib/api-client';
 import type { CutCheckRow } from '../../../../shared/schemas/consumables';
-import type { Page } from '../../../../shared/schemas/users';
 import { cutCheckKeys } from './keys';
+import type { Page } from '../../../../shared/schemas/paging';
 
 export type CutCheckFilters = { machineId?: string; page: number; pageSize: number };
 

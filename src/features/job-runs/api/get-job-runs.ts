@@ -1,8 +1,8 @@
 import { keepPreviousData, queryOptions, useQuery } from '@tanstack/react-query';
 import { api } from '../../../lib/api-client';
 import type { JobRunRow } from '../../../../shared/schemas/job-runs';
-import type { Page } from '../../../../shared/schemas/users';
 import { jobRunKeys } from './keys';
+import type { Page } from '../../../../shared/schemas/paging';
 
 export const getJobRuns = (f: { page: number; pageSize: number }) => api<Page<JobRunRow>>('/job-runs', { query: f });
 

@@ -1,8 +1,8 @@
 import { keepPreviousData, queryOptions, useQuery } from '@tanstack/react-query';
 import { api } from '../../../lib/api-client';
 import type { ReadingRow } from '../../../../shared/schemas/machines';
-import type { Page } from '../../../../shared/schemas/users';
 import { meterKeys } from './keys';
+import type { Page } from '../../../../shared/schemas/paging';
 
 export type ReadingsFilters = { page: number; pageSize: number; dir: 'asc' | 'desc' };
 

@@ -1,8 +1,8 @@
 import { keepPreviousData, queryOptions, useQuery } from '@tanstack/react-query';
 import { api } from '../../../lib/api-client';
 import type { ListOilAnalysesQuery, OilAnalysisRow } from '../../../../shared/schemas/oil-analysis';
-import type { Page } from '../../../../shared/schemas/users';
 import { oilAnalysisKeys } from './keys';
+import type { Page } from '../../../../shared/schemas/paging';
 
 export type OilFilters = { machineId?: string; page: number; pageSize: number; sort?: ListOilAnalysesQuery['sort']; dir?: ListOilAnalysesQuery['dir'] };
 

@@ -1,8 +1,8 @@
 import { keepPreviousData, queryOptions, useQuery } from '@tanstack/react-query';
 import { api } from '../../../lib/api-client';
 import type { ListPlansQuery, PlanRow } from '../../../../shared/schemas/plans';
-import type { Page } from '../../../../shared/schemas/users';
 import { planKeys } from './keys';
+import type { Page } from '../../../../shared/schemas/paging';
 
 export type PlanFilters = Partial<ListPlansQuery> & { page: number; pageSize: number };
 

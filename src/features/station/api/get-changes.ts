@@ -1,8 +1,8 @@
 import { keepPreviousData, queryOptions, useQuery } from '@tanstack/react-query';
 import { api } from '../../../lib/api-client';
 import type { ChangeRow } from '../../../../shared/schemas/consumables';
-import type { Page } from '../../../../shared/schemas/users';
 import { stationKeys } from './keys';
+import type { Page } from '../../../../shared/schemas/paging';
 
 export type ChangesFilters = { machineId: string; page: number; pageSize: number };
 

@@ -1,8 +1,8 @@
 import { keepPreviousData, queryOptions, useQuery } from '@tanstack/react-query';
 import { api } from '../../../lib/api-client';
 import type { StockMoveRow } from '../../../../shared/schemas/stock';
-import type { Page } from '../../../../shared/schemas/users';
 import { stockKeys } from './keys';
+import type { Page } from '../../../../shared/schemas/paging';
 
 export const getStockMoves = (partTypeId: string, page: number, pageSize: number) => api<Page<StockMoveRow>>(`/part-types/${partTypeId}/moves`, { query: { page, pageSize } });
 

@@ -1,7 +1,8 @@
 import { keepPreviousData, queryOptions, useQuery } from '@tanstack/react-query';
 import { api } from '../../../lib/api-client';
-import type { ListUsersQuery, MemberRow, Page } from '../../../../shared/schemas/users';
+import type { ListUsersQuery, MemberRow } from '../../../../shared/schemas/users';
 import { userKeys } from './keys';
+import type { Page } from '../../../../shared/schemas/paging';
 
 export type UsersFilters = Partial<ListUsersQuery> & { page: number; pageSize: number };
 

@@ -1,8 +1,8 @@
 import { keepPreviousData, queryOptions, useQuery } from '@tanstack/react-query';
 import { api } from '../../../lib/api-client';
 import type { ListWorkOrdersQuery, WorkOrderRow } from '../../../../shared/schemas/work-orders';
-import type { Page } from '../../../../shared/schemas/users';
 import { workOrderKeys } from './keys';
+import type { Page } from '../../../../shared/schemas/paging';
 
 export type WorkOrderFilters = Partial<ListWorkOrdersQuery> & { page: number; pageSize: number };
 

@@ -14,10 +14,10 @@ import { COLORS, newDoc, pdfText, stampPages, toBuffer } from './pdf';
 import { notFound } from '../../http/errors';
 import { ROLE_LABELS, type Role } from '../../../shared/permissions';
 import type { Principal } from '../../http/principal';
-import type { Page } from '../../../shared/schemas/users';
 import { MEANING_LABELS, type ChainVerification, type ExportSignOffsQuery, type ListSignOffsQuery, type SignOffRow } from '../../../shared/schemas/safety-sign-offs';
 import type { ComplianceSummary, MachineCompliance, TimelineWeek } from '../../../shared/schemas/safety-audit';
 import { clock } from '../../../shared/clock';
+import type { Page } from '../../../shared/schemas/paging';
 
 const SORT: Record<ListSignOffsQuery['sort'], string> = { signedAt: 's.signed_at', signerName: 's.signer_name', meaning: 's.meaning', machine: 'm.code', seq: 's.seq' };
 

@@ -3,8 +3,9 @@ import { baseProperties, orgFilter } from '../common/base';
 import { Organization } from '../organizations/organization.entity';
 import { User } from '../users/user.entity';
 
-export const AuditEvent = defineEntity({
-  name: 'AuditEvent',
+export const ActivityEvent = defineEntity({
+  name: 'ActivityEvent',
+  // The table keeps the name it was created with: renaming it would need a migration and gain nothing.
   tableName: 'audit_event',
   filters: orgFilter,
   indexes: [{ properties: ['organization', 'createdAt'] }],
@@ -18,4 +19,4 @@ export const AuditEvent = defineEntity({
     details: p.json<Record<string, unknown>>().nullable(),
   },
 });
-export type IAuditEvent = InferEntity<typeof AuditEvent>;
+export type IActivityEvent = InferEntity<typeof ActivityEvent>;

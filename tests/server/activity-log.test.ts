@@ -1,6 +1,6 @@
 import { describe, it, expect, beforeAll, afterAll } from 'vitest';
 import { makeShop, makeTestApp, signIn, type TestShop } from '../setup/test-app';
-import { recordAudit } from '../../server/modules/audit/audit';
+import { recordActivity } from '../../server/modules/activity-log/activity-log.service';
 
 let t: Awaited<ReturnType<typeof makeTestApp>>;
 let shop: TestShop;
@@ -10,9 +10,9 @@ beforeAll(async () => {
   shop = await makeShop(t.em(), 'activity');
   const em = t.em();
   const at = (minutes: number) => new Date(Date.UTC(2026, 10, 2, 8, minutes));
-  recordAudit(em, { orgId: shop.orgId, userId: shop.users.technician.userId }, 'work-order.closed', { type: 'WorkOrder', id: 'w1' }, { number: 1042 }).createdAt = at(1);
-  recordAudit(em, { orgId: shop.orgId, userId: null }, 'work-order.raised', { type: 'WorkOrder', id: 'w2' }, { number: 1043 }).createdAt = at(2);
-  recordAudit(em, { orgId: shop.orgId, userId: shop.users.admin.userId }, 'plan.updated', { type: 'MaintenancePlan', id: 'p1' }, { title: 'Renew filter' }).createdAt = at(3);
+  recordActivity(em, { orgId: shop.orgId, userId: shop.users.technician.userId }, 'work-order.closed', { type: 'WorkOrder', id: 'w1' }, { number: 1042 }).createdAt = at(1);
+  recordActivity(em, { orgId: shop.orgId, userId: null }, 'work-order.raised', { type: 'WorkOrder', id: 'w2' }, { number: 1043 }).createdAt = at(2);
+  recordActivity(em, { orgId: shop.orgId, userId: shop.users.admin.userId }, 'plan.updated', { type: 'MaintenancePlan', id: 'p1' }, { title: 'Renew filter' }).createdAt = at(3);
   await em.flush();
 });
 afterAll(() => t.close());

@@ -2,10 +2,10 @@ import { useState } from 'react';
 import { createColumnHelper, type SortingState } from '@tanstack/react-table';
 import { DataTable } from '../../../components/ui/data-table';
 import { EmptyState, Notice } from '../../../components/ui/notice';
-import { useAuditEvents, type AuditRow } from '../api/get-audit-events';
+import { useActivityLog, type ActivityRow } from '../api/get-activity-log';
 import { formatWhen } from '../../../lib/format';
 
-const col = createColumnHelper<AuditRow>();
+const col = createColumnHelper<ActivityRow>();
 const words = (s: string) => s.replace(/[-_]/g, ' ');
 const capital = (s: string) => `${s.charAt(0).toUpperCase()}${s.slice(1)}`;
 /** 'work-order.closed' → 'Work order: closed' — readable without a label for every action. */
@@ -15,7 +15,7 @@ const describeAction = (action: string) => {
   return rest.length ? `${capital(head)}: ${words(rest.join(' '))}` : head;
 };
 /** 'WorkOrder' with its number → 'Work order 1042'; with a title or name, that; else the kind of record. */
-const describeRecord = (r: AuditRow) => {
+const describeRecord = (r: ActivityRow) => {
   const kind = capital(r.entityType.replace(/([a-z])([A-Z])/g, '$1 $2').toLowerCase());
   const d = r.details ?? {};
   const label = typeof d.number === 'number' ? String(d.number) : typeof d.title === 'string' ? d.title : typeof d.code === 'string' ? d.code : typeof d.email === 'string' ? d.email : null;
@@ -29,12 +29,12 @@ const columnsFor = (timeZone: string) => [
 ];
 
 /** The shop's activity; `filters` off for the short list on the home page. */
-export function AuditTable({ pageSize = 25, timeZone, filters = true }: { pageSize?: number; timeZone: string; filters?: boolean }) {
+export function ActivityLogTable({ pageSize = 25, timeZone, filters = true }: { pageSize?: number; timeZone: string; filters?: boolean }) {
   const [page, setPage] = useState(1);
   const [area, setArea] = useState('');
   const [actor, setActor] = useState('');
   const [sorting, setSorting] = useState<SortingState>([{ id: 'at', desc: true }]);
-  const q = useAuditEvents({ page, pageSize, area: area || undefined, actor: actor || undefined, dir: sorting[0] && !sorting[0].desc ? 'asc' : 'desc' });
+  const q = useActivityLog({ page, pageSize, area: area || undefined, actor: actor || undefined, dir: sorting[0] && !sorting[0].desc ? 'asc' : 'desc' });
   if (q.isError) return <Notice tone="danger">{q.error.message}</Notice>;
   const filterClass = 'min-h-touch rounded border border-steel-400 bg-white px-3 font-normal';
   return (

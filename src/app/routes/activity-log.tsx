@@ -1,11 +1,11 @@
 import { PageTitle } from '../../components/layout/app-shell';
 import { Panel } from '../../components/ui/notice';
-import { AuditTable } from '../../features/audit/components/audit-table';
+import { ActivityLogTable } from '../../features/activity-log/components/activity-log-table';
 import { queryClient } from '../../lib/query-client';
-import { getAuditEventsQueryOptions } from '../../features/audit/api/get-audit-events';
+import { getActivityLogQueryOptions } from '../../features/activity-log/api/get-activity-log';
 import { useMe } from '../../features/auth/api/get-me';
 
-export const loader = () => queryClient.ensureQueryData(getAuditEventsQueryOptions({ page: 1, pageSize: 25 })).catch(() => null);
+export const loader = () => queryClient.ensureQueryData(getActivityLogQueryOptions({ page: 1, pageSize: 25 })).catch(() => null);
 
 export function Component() {
   const { data: me } = useMe();
@@ -14,7 +14,7 @@ export function Component() {
     <>
       <PageTitle title="Activity" subtitle="Who did what, newest first: sign-ins, invitations, role changes and every recorded change." />
       <Panel>
-        <AuditTable timeZone={me.organization.timeZone} />
+        <ActivityLogTable timeZone={me.organization.timeZone} />
       </Panel>
     </>
   );
