@@ -10,8 +10,6 @@ import { recordActivity } from '../activity-log/activity-log.service';
 import type { Principal } from '../../http/principal';
 import { canonicalize } from '../../../shared/domain/signature-chain';
 import {
-  PHOTO_MAX_BYTES,
-  PHOTO_TYPES,
   type CreateProcedureInput,
   type ProcedureContent,
   type ProcedureDetail,
@@ -22,6 +20,7 @@ import {
 import { inspectionEvaluation } from './due';
 import { loadSafetySettings } from './settings';
 import { clock } from '../../../shared/clock';
+import { PHOTO_TYPES, PROCEDURE_PHOTO_MAX_BYTES, megabytes } from '../../../shared/schemas/photos';
 
 const iso = (d: Date | null | undefined) => (d ? d.toISOString() : null);
 
@@ -180,7 +179,7 @@ export async function approveVersion(em: EntityManager, who: Principal, procedur
 
 export async function addPhoto(em: EntityManager, who: Principal, procedureId: string, file: { buffer: Buffer; size: number } | undefined, fields: { sourceKey: string; caption?: string }) {
   if (!file) throw fieldError('photo', 'Choose a photo to upload');
-  if (file.size > PHOTO_MAX_BYTES) throw fieldError('photo', `The photo is larger than ${PHOTO_MAX_BYTES / 1024 / 1024} MB`);
+  if (file.size > PROCEDURE_PHOTO_MAX_BYTES) throw fieldError('photo', `The photo is larger than ${megabytes(PROCEDURE_PHOTO_MAX_BYTES)} MB`);
   // Trust the bytes, not the file name or the browser's content type.
   const type = await fileTypeFromBuffer(file.buffer);
   if (!type || !(PHOTO_TYPES as readonly string[]).includes(type.mime)) {

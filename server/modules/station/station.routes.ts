@@ -7,12 +7,13 @@ import { badRequest } from '../../http/errors';
 import { singleFileUpload } from '../../http/upload';
 import { uuidParam } from '../../../shared/schemas/common';
 import { machineCodeParam } from '../../../shared/schemas/machines';
-import { PHOTO_MAX_BYTES, consumableChangeSchema, consumableSettingsSchema, cutCheckSchema, lifeStatsQuery } from '../../../shared/schemas/consumables';
+import { consumableChangeSchema, consumableSettingsSchema, cutCheckSchema, lifeStatsQuery } from '../../../shared/schemas/consumables';
 import { listCutChecks, recordCutCheck } from './cut-checks.service';
 import { lifeStats } from './life-stats.service';
 import { subtreeMachines } from '../machines/machines.service';
 import { getConsumableSettings, getPhoto, listChanges, logChange, stationView, updateConsumableSettings } from './station.service';
 import { paging } from '../../../shared/schemas/paging';
+import { PHOTO_MAX_BYTES } from '../../../shared/schemas/photos';
 
 const upload = singleFileUpload('photo', PHOTO_MAX_BYTES, 'photo');
 

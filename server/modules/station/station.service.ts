@@ -17,10 +17,11 @@ import { recordActivity } from '../activity-log/activity-log.service';
 import { advanceSince } from '../../../shared/domain/meters';
 import { lifeFraction, referenceValues } from '../../../shared/domain/consumables';
 import { PART_CATEGORY_LABELS, TORCH_CATEGORIES, type TorchCategory } from '../../../shared/schemas/stock';
-import { PHOTO_TYPES, type ChangeRow, type ConsumableChangeInput, type ConsumableSettingsInput, type InstalledPart, type StationView, type TorchStation } from '../../../shared/schemas/consumables';
+import { type ChangeRow, type ConsumableChangeInput, type ConsumableSettingsInput, type InstalledPart, type StationView, type TorchStation } from '../../../shared/schemas/consumables';
 import type { MeterRow } from '../../../shared/schemas/machines';
 import { clock } from '../../../shared/clock';
 import type { Page } from '../../../shared/schemas/paging';
+import { CHANGE_PHOTO_TYPES } from '../../../shared/schemas/photos';
 
 const article = (noun: string) => `${/^[aeiou]/i.test(noun) ? 'an' : 'a'} ${noun.toLowerCase()}`;
 
@@ -173,7 +174,7 @@ async function counterAt(em: EntityManager, who: Principal, meter: IMeter | null
 /** Checks an uploaded photo is an image by its content, not its name. */
 export async function checkPhoto(buffer: Buffer): Promise<string> {
   const type = await fileTypeFromBuffer(buffer);
-  if (!type || !(PHOTO_TYPES as readonly string[]).includes(type.mime)) {
+  if (!type || !(CHANGE_PHOTO_TYPES as readonly string[]).includes(type.mime)) {
     throw fieldError('photo', `The photo is not an image we take (JPEG, PNG, WebP, HEIC or AVIF)${type ? `; it looks like ${type.mime}` : ''}`);
   }
   return type.mime;
