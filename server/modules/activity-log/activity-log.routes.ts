@@ -9,7 +9,11 @@ import { paging } from '../../../shared/schemas/paging';
 const query = paging.extend({
   action: z.string().max(80).optional(),
   /** The part of the action before the dot: 'work-order', 'plan', 'user' … */
-  area: z.string().max(60).regex(/^[a-z0-9-]+$/, { message: 'An area is a word like work-order' }).optional(),
+  area: z
+    .string()
+    .max(60)
+    .regex(/^[a-z0-9-]+$/, { message: 'An area is a word like work-order' })
+    .optional(),
   /** A person's id, or 'system' for what the scheduled pass did. */
   actor: z.union([z.literal('system'), z.uuid({ message: 'Not a valid person' })]).optional(),
   dir: z.enum(['asc', 'desc'], { message: 'Direction is asc or desc' }).default('desc'),

@@ -45,7 +45,10 @@ const areasCache = new Map<string, { at: number; areas: string[] }>();
 async function areasOf(em: EntityManager, orgId: string): Promise<string[]> {
   const known = areasCache.get(orgId);
   if (known && Date.now() - known.at < AREAS_TTL_MS) return known.areas;
-  const rows: { area: string }[] = await em.execute(`select distinct split_part(action, '.', 1) as area from audit_event where organization_id = ? order by 1`, [orgId]);
+  const rows: { area: string }[] = await em.execute(
+    `select distinct split_part(action, '.', 1) as area from audit_event where organization_id = ? order by 1`,
+    [orgId],
+  );
   const areas = rows.map((r) => r.area);
   if (areasCache.size > 1000) areasCache.clear();
   areasCache.set(orgId, { at: Date.now(), areas });
@@ -72,7 +75,15 @@ export async function listActivity(em: EntityManager, who: Principal, q: Activit
     [who.orgId],
   );
   return {
-    rows: rows.map((e) => ({ id: e.id, at: e.createdAt, action: e.action, entityType: e.entityType, entityId: e.entityId, actor: e.actor?.isInitialized() ? e.actor.getEntity().name : null, details: e.details })),
+    rows: rows.map((e) => ({
+      id: e.id,
+      at: e.createdAt,
+      action: e.action,
+      entityType: e.entityType,
+      entityId: e.entityId,
+      actor: e.actor?.isInitialized() ? e.actor.getEntity().name : null,
+      details: e.details,
+    })),
     total,
     page: q.page,
     pageSize: q.pageSize,
