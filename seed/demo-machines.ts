@@ -12,7 +12,7 @@ import { Membership } from '../server/modules/users/user.entity';
 import { Machine } from '../server/modules/machines/machine.entity';
 import { Meter, MeterReading } from '../server/modules/meters/meter.entity';
 import { PartType, StockMove } from '../server/modules/stock/stock.entity';
-import { ConsumableChange, ConsumableInstall, CutCheck } from '../server/modules/consumables/consumable.entity';
+import { ConsumableChange, ConsumableInstall, CutCheck } from '../server/modules/station/consumable.entity';
 import { PunchTool, ToolSharpening } from '../server/modules/punch-tools/punch-tool.entity';
 import { couponResult } from '../shared/domain/consumables';
 import type { ChangeReason } from '../shared/schemas/consumables';

@@ -17,7 +17,7 @@ const everyone = ROLES;
 export const PERMISSIONS = {
   'users.read': ['admin'],
   'users.manage': ['admin'],
-  'audit.read': ['admin', 'safety'],
+  'activity-log.read': ['admin', 'safety'],
   'org.settings.manage': ['admin'],
   'jobs.run': ['admin'],
   'mail.inbox.all': ['admin'],

@@ -1,7 +1,7 @@
 /** The due engine's escalation: past-due open work is marked overdue once, and the people who must know are told. */
 import type { MikroORM } from '@mikro-orm/postgresql';
 import { executeBound, uuidArray } from '../db';
-import { insertAuditRows } from '../modules/audit/audit';
+import { insertActivityRows } from '../modules/activity-log/activity-log.service';
 import { queueEscalations, workLine, type WorkRow } from '../modules/work-orders/work-order-mail';
 import { logger } from '../logger';
 import { errorText, type Run } from './due-engine-run';
@@ -49,7 +49,7 @@ async function escalateChunk(orm: MikroORM, run: Run, now: Date, orgId?: string)
         const ids = new Set(done.map((d) => d.id));
         const lines = list.filter((l) => ids.has(l.id)).map((l) => workLine(l, true));
         if (lines.length === 0) return;
-        await insertAuditRows(tx, org, lines.map((l) => ({ action: 'work-order.escalated', entityType: 'WorkOrder', entityId: l.id, details: { number: l.number } })));
+        await insertActivityRows(tx, org, lines.map((l) => ({ action: 'work-order.escalated', entityType: 'WorkOrder', entityId: l.id, details: { number: l.number } })));
         const mails = queueEscalations(tx, run.ctx(org), lines, await run.peopleOf(tx, org));
         const s = run.of(org);
         s.escalations += lines.length;

@@ -14,11 +14,6 @@ export const newPassword = z
   .min(12, 'Use at least 12 characters')
   .max(200, 'Use at most 200 characters');
 
-export const paging = z.object({
-  page: z.coerce.number().int().min(1).default(1),
-  pageSize: z.coerce.number().int().min(1).max(200).default(25),
-});
-
 export type FieldErrors = { path: string; message: string }[];
 
 /** The JSON body every error response carries. */

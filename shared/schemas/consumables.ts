@@ -19,9 +19,6 @@ export const CHANGE_REASON_LABELS: Record<ChangeReason, string> = {
  */
 export const WEAR_OUT_REASONS: readonly ChangeReason[] = ['normal-wear', 'failed-start', 'poor-cut'];
 
-/** Photos of the electrode pit or a damaged part: images only, at most 8 MB. */
-export const PHOTO_MAX_BYTES = 8 * 1024 * 1024;
-export const PHOTO_TYPES = ['image/jpeg', 'image/png', 'image/webp', 'image/heic', 'image/avif'] as const;
 
 const optionalCounter = (label: string) =>
   z

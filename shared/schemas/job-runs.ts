@@ -1,4 +1,4 @@
-import { paging } from './common';
+import { paging } from './paging';
 
 export const listJobRunsQuery = paging;
 

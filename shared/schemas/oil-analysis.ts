@@ -1,6 +1,6 @@
 import { z } from 'zod';
 import { ISO_VG_GRADES } from '../domain/viscosity';
-import { paging } from './common';
+import { paging } from './paging';
 
 const count = (size: string) => z.number({ message: `Enter the count at ≥${size} µm(c)` }).finite().min(0, 'Counts cannot be negative').max(1e9);
 

@@ -1,6 +1,6 @@
 import { z } from 'zod';
 import { ROLES, type Role } from '../permissions';
-import { paging } from './common';
+import { paging } from './paging';
 
 /** Plan status as the due engine sees it (shared/domain/due.ts DueStatus). */
 export const DUE_STATES = ['not-due', 'due-soon', 'due', 'overdue'] as const;

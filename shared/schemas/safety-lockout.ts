@@ -1,6 +1,6 @@
 import { z } from 'zod';
-import { paging } from './common';
 import { signPassword } from './safety-sign-offs';
+import { paging } from './paging';
 
 /** Devices put on an isolation point (OSHA 29 CFR 1910.147(c)(5) lockout and tagout devices). */
 export const LOCK_DEVICES = ['lock-and-tag', 'lock', 'tag-only', 'valve-cover', 'plug-cover', 'blocking'] as const;

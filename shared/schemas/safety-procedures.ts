@@ -113,8 +113,6 @@ export const photoUploadFields = z.object({
   sourceKey: z.string().trim().regex(/^[A-Z][A-Z0-9-]{0,7}$/, 'Choose the isolation point this photo shows'),
   caption: z.string().trim().max(200, 'Caption: at most 200 characters').optional(),
 });
-export const PHOTO_MAX_BYTES = 5 * 1024 * 1024;
-export const PHOTO_TYPES = ['image/jpeg', 'image/png', 'image/webp'] as const;
 
 export type VersionStatus = 'draft' | 'approved' | 'superseded';
 

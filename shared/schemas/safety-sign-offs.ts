@@ -1,5 +1,5 @@
 import { z } from 'zod';
-import { paging } from './common';
+import { paging } from './paging';
 
 /**
  * What a safety signature means. Every record in the safety log is one of these; the

@@ -1,6 +1,7 @@
 import { z } from 'zod';
 import { ROLES } from '../permissions';
-import { email, paging } from './common';
+import { email } from './common';
+import { paging } from './paging';
 
 export const roleSchema = z.enum(ROLES, { message: 'Choose a role' });
 
@@ -34,4 +35,3 @@ export type MemberRow = {
   status: 'active' | 'invited' | 'deactivated';
   lastSignInAt: string | null;
 };
-export type Page<T> = { rows: T[]; total: number; page: number; pageSize: number };

@@ -1,7 +1,7 @@
 import { z } from 'zod';
 import { ROLES, type Role } from '../permissions';
-import { paging } from './common';
 import type { ChecklistTemplateItem } from './plans';
+import { paging } from './paging';
 
 /** Lifecycle: open → in-progress ⇄ on-hold → done; open / in-progress / on-hold → cancelled (with a reason). */
 export const WORK_STATES = ['open', 'in-progress', 'on-hold', 'done', 'cancelled'] as const;

@@ -24,7 +24,7 @@ const items: Entry[] = [
   { to: paths.safetyAudit.getHref(), label: 'Safety audit', permission: 'safety.audit' },
   { to: paths.users.getHref(), label: 'People', permission: 'users.read', group: ADMIN },
   { to: paths.siteSettings.getHref(), label: 'Site settings', permission: 'org.settings.manage', group: ADMIN },
-  { to: paths.audit.getHref(), label: 'Activity', permission: 'audit.read', group: ADMIN },
+  { to: paths.activityLog.getHref(), label: 'Activity', permission: 'activity-log.read', group: ADMIN },
   { to: paths.jobRuns.getHref(), label: 'Pass log', permission: 'jobs.run', group: ADMIN },
   { to: paths.myNotices.getHref(), label: 'My notices', personal: true },
   { to: paths.devInbox.getHref(), label: 'Dev inbox', permission: 'mail.inbox.own', personal: true },

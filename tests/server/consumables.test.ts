@@ -1,6 +1,6 @@
 import { describe, it, expect, beforeAll, afterAll } from 'vitest';
 import { makeShop, makeTestApp, post, signIn, type SignedIn, type TestShop } from '../setup/test-app';
-import { ConsumableChange, ConsumableInstall, ConsumablePhoto } from '../../server/modules/consumables/consumable.entity';
+import { ConsumableChange, ConsumableInstall, ConsumablePhoto } from '../../server/modules/station/consumable.entity';
 import { MeterReading } from '../../server/modules/meters/meter.entity';
 import { StockMove } from '../../server/modules/stock/stock.entity';
 

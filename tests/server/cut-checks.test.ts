@@ -1,6 +1,6 @@
 import { describe, it, expect, beforeAll, afterAll } from 'vitest';
 import { makeShop, makeTestApp, post, signIn, type SignedIn, type TestShop } from '../setup/test-app';
-import { CutCheck } from '../../server/modules/consumables/consumable.entity';
+import { CutCheck } from '../../server/modules/station/consumable.entity';
 
 let t: Awaited<ReturnType<typeof makeTestApp>>;
 let a: TestShop;

@@ -1,7 +1,7 @@
 import { describe, it, expect, beforeAll, afterAll } from 'vitest';
 import { makeShop, makeTestApp, signIn, type TestShop } from '../setup/test-app';
-import { AuditEvent } from '../../server/modules/audit/audit-event.entity';
-import { recordAudit } from '../../server/modules/audit/audit';
+import { ActivityEvent } from '../../server/modules/activity-log/activity-event.entity';
+import { recordActivity } from '../../server/modules/activity-log/activity-log.service';
 
 let t: Awaited<ReturnType<typeof makeTestApp>>;
 let a: TestShop;
@@ -12,7 +12,7 @@ beforeAll(async () => {
   a = await makeShop(t.em(), 'iso-a');
   b = await makeShop(t.em(), 'iso-b');
   const em = t.em();
-  recordAudit(em, { orgId: b.orgId, userId: b.users.admin.userId }, 'test.secret-of-b', { type: 'Test', id: 'b' });
+  recordActivity(em, { orgId: b.orgId, userId: b.users.admin.userId }, 'test.secret-of-b', { type: 'Test', id: 'b' });
   await em.flush();
 });
 afterAll(() => t.close());
@@ -42,7 +42,7 @@ describe('shop isolation', () => {
   });
 
   it('refuses a scoped query made without a shop (the filter has no default)', async () => {
-    await expect(t.em().find(AuditEvent, {})).rejects.toThrow(/No arguments provided for filter/);
+    await expect(t.em().find(ActivityEvent, {})).rejects.toThrow(/No arguments provided for filter/);
   });
 });
 

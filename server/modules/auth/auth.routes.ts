@@ -7,9 +7,9 @@ import { authenticate, redeemToken, requestPasswordReset } from './auth.service'
 import { destroy, ensureCsrfToken, regenerate, save, SESSION_COOKIE } from '../../http/session';
 import { requirePrincipal } from '../../http/principal';
 import type { Config } from '../../config';
-import { recordAudit } from '../audit/audit';
+import { recordActivity } from '../activity-log/activity-log.service';
 import type { EntityManager } from '@mikro-orm/postgresql';
-import { Organization } from '../organizations/organization.entity';
+import { getShopProfile } from '../organizations/organizations.service';
 
 function tooMany(message: string) {
   return { error: 'too_many_requests', message };
@@ -57,7 +57,7 @@ export function registerAuthRoutes(r: ApiRouter, config: Config) {
   route(r, 'post', '/auth/logout', { access: 'public' }, async (req, res) => {
     if (req.principal) {
       const em = requestEm() as EntityManager;
-      recordAudit(em, req.principal, 'auth.sign-out', { type: 'User', id: req.principal.userId });
+      recordActivity(em, req.principal, 'auth.sign-out', { type: 'User', id: req.principal.userId });
       await em.flush();
     }
     await destroy(req);
@@ -77,7 +77,7 @@ export function registerAuthRoutes(r: ApiRouter, config: Config) {
 
   route(r, 'get', '/me', { access: 'signed-in' }, async (req, res) => {
     const p = requirePrincipal(req);
-    const org = await (requestEm() as EntityManager).findOneOrFail(Organization, p.orgId);
+    const org = await getShopProfile(requestEm() as EntityManager, p);
     res.json({
       user: { id: p.userId, email: p.email, name: p.name },
       role: p.role,

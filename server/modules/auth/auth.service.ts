@@ -2,7 +2,7 @@ import type { EntityManager } from '@mikro-orm/postgresql';
 import { Membership, User, UserToken } from '../users/user.entity';
 import { hashPassword, hashToken, newToken, verifyPassword } from './passwords';
 import { badRequest, unauthorized } from '../../http/errors';
-import { recordAudit } from '../audit/audit';
+import { recordActivity } from '../activity-log/activity-log.service';
 import { queueMail } from '../../mail/outbox';
 import { renderMail } from '../../mail/templates';
 import type { Principal } from '../../http/principal';
@@ -28,7 +28,7 @@ export async function authenticate(em: EntityManager, email: string, password: s
   const membership = await em.findOne(Membership, { user, active: true }, { orderBy: { createdAt: 'asc' }, ...noScope });
   if (!membership) throw unauthorized('This account is deactivated. Ask your admin.');
   user.lastSignInAt = clock.now();
-  recordAudit(em, { orgId: membership.organization.id, userId: user.id }, 'auth.sign-in', { type: 'User', id: user.id });
+  recordActivity(em, { orgId: membership.organization.id, userId: user.id }, 'auth.sign-in', { type: 'User', id: user.id });
   await em.flush();
   return { userId: user.id, orgId: membership.organization.id, role: membership.role, name: user.name, email: user.email };
 }
@@ -77,7 +77,7 @@ export async function redeemToken(em: EntityManager, token: string, password: st
     user.passwordHash = await hashPassword(password);
     row.usedAt = clock.now();
     const membership = await tx.findOne(Membership, { user }, noScope);
-    if (membership) recordAudit(tx, { orgId: membership.organization.id, userId: user.id }, row.purpose === 'invite' ? 'auth.invite-accepted' : 'auth.password-reset', { type: 'User', id: user.id });
+    if (membership) recordActivity(tx, { orgId: membership.organization.id, userId: user.id }, row.purpose === 'invite' ? 'auth.invite-accepted' : 'auth.password-reset', { type: 'User', id: user.id });
     return { email: user.email };
   });
 }

@@ -5,7 +5,7 @@ import { CalendarFeed } from './calendar-feed.entity';
 import { Membership } from '../users/user.entity';
 import { Organization } from '../organizations/organization.entity';
 import type { Principal } from '../../http/principal';
-import { recordAudit } from '../audit/audit';
+import { recordActivity } from '../activity-log/activity-log.service';
 import { WORK_CAUTION } from '../../../shared/domain/cautions';
 import { DUE_STATE_LABELS, type DueState } from '../../../shared/schemas/plans';
 import type { CalendarFeedStatus } from '../../../shared/schemas/calendar-feed';
@@ -28,7 +28,7 @@ export async function createFeed(em: EntityManager, who: Principal, appUrl: stri
     await tx.nativeUpdate(CalendarFeed, { user: who.userId, revokedAt: null }, { revokedAt: clock.now() });
     const token = randomBytes(32).toString('base64url');
     const f = tx.create(CalendarFeed, { organization: who.orgId, user: who.userId, tokenHash: hash(token) });
-    recordAudit(tx, who, 'calendar-feed.created', { type: 'CalendarFeed', id: f.id });
+    recordActivity(tx, who, 'calendar-feed.created', { type: 'CalendarFeed', id: f.id });
     return { active: true, createdAt: clock.now().toISOString(), lastUsedAt: null, url: feedUrl(appUrl, token) };
   });
 }
@@ -36,7 +36,7 @@ export async function createFeed(em: EntityManager, who: Principal, appUrl: stri
 export async function revokeFeed(em: EntityManager, who: Principal): Promise<CalendarFeedStatus> {
   await em.transactional(async (tx) => {
     const n = await tx.nativeUpdate(CalendarFeed, { user: who.userId, revokedAt: null }, { revokedAt: clock.now() });
-    if (n > 0) recordAudit(tx, who, 'calendar-feed.revoked', { type: 'CalendarFeed', id: null });
+    if (n > 0) recordActivity(tx, who, 'calendar-feed.revoked', { type: 'CalendarFeed', id: null });
   });
   return { active: false, createdAt: null, lastUsedAt: null, url: null };
 }

@@ -28,7 +28,7 @@ export const orgFilter = {
 
 /**
  * Gives new entities their uuid at `em.create` time instead of at flush, so services can
- * link rows and write audit records before anything is flushed.
+ * link rows and write activity-log records before anything is flushed.
  */
 export class AssignIdOnCreate implements EventSubscriber {
   onInit(args: EventArgs<{ id?: string }>) {

@@ -2,35 +2,16 @@ import type { EntityManager } from '@mikro-orm/postgresql';
 import { route, type ApiRouter } from '../../http/route';
 import { requestEm } from '../../db';
 import { requirePrincipal } from '../../http/principal';
-import { listJobRunsQuery, type JobRunRow, type RunNowResult } from '../../../shared/schemas/job-runs';
-import { JobRun, type IJobRun } from './job-run.entity';
+import { listJobRunsQuery, type RunNowResult } from '../../../shared/schemas/job-runs';
+import { latestJobRun, listJobRuns } from './job-runs.service';
 import { manualPass } from './job-run-context';
-import { recordAudit } from '../audit/audit';
-
-function toRow(j: IJobRun): JobRunRow {
-  return {
-    id: j.id,
-    passId: j.passId,
-    trigger: j.trigger,
-    triggeredBy: j.triggeredBy?.isInitialized() ? j.triggeredBy.getEntity().name : null,
-    startedAt: j.startedAt.toISOString(),
-    finishedAt: j.finishedAt?.toISOString() ?? null,
-    plansChecked: j.plansChecked,
-    plansEvaluated: j.plansEvaluated,
-    workOrdersRaised: j.workOrdersRaised,
-    escalations: j.escalations,
-    mailsQueued: j.mailsQueued,
-    errors: j.errors,
-  };
-}
+import { recordActivity } from '../activity-log/activity-log.service';
 
 /** `runPass` runs the scheduled pass now (server/jobs); it resolves to null while another pass holds the lock. */
 export function registerJobRunRoutes(r: ApiRouter, runPass: () => Promise<object | null>) {
   const em = () => requestEm() as EntityManager;
   route(r, 'get', '/job-runs', { access: 'jobs.run', query: listJobRunsQuery }, async (_req, res) => {
-    const q = res.locals.query;
-    const [items, total] = await em().findAndCount(JobRun, {}, { orderBy: { startedAt: 'desc' }, limit: q.pageSize, offset: (q.page - 1) * q.pageSize, populate: ['triggeredBy'] });
-    res.json({ rows: items.map(toRow), total, page: q.page, pageSize: q.pageSize });
+    res.json(await listJobRuns(em(), res.locals.query));
   });
   route(r, 'post', '/job-runs', { access: 'jobs.run' }, async (req, res) => {
     const who = requirePrincipal(req);
@@ -40,10 +21,9 @@ export function registerJobRunRoutes(r: ApiRouter, runPass: () => Promise<object
       return res.status(409).json({ error: 'conflict', ...body });
     }
     await em().transactional(async (tx) => {
-      recordAudit(tx, who, 'jobs.run-now', { type: 'JobRun', id: null });
+      recordActivity(tx, who, 'jobs.run-now', { type: 'JobRun', id: null });
     });
-    const [latest] = await em().find(JobRun, {}, { orderBy: { startedAt: 'desc' }, limit: 1, populate: ['triggeredBy'] });
-    const body: RunNowResult = { ran: true, message: 'Pass finished.', run: latest ? toRow(latest) : null };
+    const body: RunNowResult = { ran: true, message: 'Pass finished.', run: await latestJobRun(em()) };
     res.json(body);
   });
 }

@@ -4,12 +4,10 @@ import { Machine } from './machine.entity';
 import { MachinePhoto } from './machine-photo.entity';
 import type { Principal } from '../../http/principal';
 import { fieldError, notFound } from '../../http/errors';
-import { recordAudit } from '../audit/audit';
-import { PHOTO_TYPES } from '../../../shared/schemas/safety-procedures';
-import { PHOTO_MAX_BYTES } from '../../../shared/schemas/consumables';
+import { recordActivity } from '../activity-log/activity-log.service';
+import { PHOTO_MAX_BYTES, PHOTO_TYPES, megabytes } from '../../../shared/schemas/photos';
 import type { MachinePhotoRow } from '../../../shared/schemas/machines';
 
-/** Same limits as consumable change photos (8 MB) and types as procedure photos (JPEG, PNG, WebP). */
 export const MACHINE_PHOTO_MAX_BYTES = PHOTO_MAX_BYTES;
 
 async function machineOr404(em: EntityManager, id: string) {
@@ -33,7 +31,7 @@ export async function listMachinePhotos(em: EntityManager, machineId: string): P
 
 export async function addMachinePhoto(em: EntityManager, who: Principal, machineId: string, file: { buffer: Buffer; size: number } | undefined, caption: string | null) {
   if (!file) throw fieldError('photo', 'Choose a photo to upload');
-  if (file.size > MACHINE_PHOTO_MAX_BYTES) throw fieldError('photo', `The photo is larger than ${MACHINE_PHOTO_MAX_BYTES / 1024 / 1024} MB`);
+  if (file.size > MACHINE_PHOTO_MAX_BYTES) throw fieldError('photo', `The photo is larger than ${megabytes(MACHINE_PHOTO_MAX_BYTES)} MB`);
   // Trust the bytes, not the file name or the browser's content type.
   const type = await fileTypeFromBuffer(file.buffer);
   if (!type || !(PHOTO_TYPES as readonly string[]).includes(type.mime)) {
@@ -42,7 +40,7 @@ export async function addMachinePhoto(em: EntityManager, who: Principal, machine
   return em.transactional(async (tx) => {
     const machine = await machineOr404(tx, machineId);
     const photo = tx.create(MachinePhoto, { organization: who.orgId, machine, caption, mimeType: type.mime, byteSize: file.size, data: file.buffer, uploadedBy: who.userId });
-    recordAudit(tx, who, 'machine.photo-added', { type: 'MachinePhoto', id: photo.id }, { machineId, size: file.size });
+    recordActivity(tx, who, 'machine.photo-added', { type: 'MachinePhoto', id: photo.id }, { machineId, size: file.size });
     return { id: photo.id };
   });
 }
@@ -57,7 +55,7 @@ export async function deleteMachinePhoto(em: EntityManager, who: Principal, mach
   await em.transactional(async (tx) => {
     const photo = await tx.findOne(MachinePhoto, { id: photoId, machine: machineId });
     if (!photo) throw notFound('Photo');
-    recordAudit(tx, who, 'machine.photo-deleted', { type: 'MachinePhoto', id: photoId }, { machineId, caption: photo.caption ?? null });
+    recordActivity(tx, who, 'machine.photo-deleted', { type: 'MachinePhoto', id: photoId }, { machineId, caption: photo.caption ?? null });
     tx.remove(photo);
   });
 }

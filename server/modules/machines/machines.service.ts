@@ -3,7 +3,7 @@ import { Machine, type IMachine } from './machine.entity';
 import { Meter } from '../meters/meter.entity';
 import type { Principal } from '../../http/principal';
 import { conflict, fieldError, notFound } from '../../http/errors';
-import { recordAudit } from '../audit/audit';
+import { recordActivity } from '../activity-log/activity-log.service';
 import { latestReadings } from '../meters/meters.service';
 import type { MachineDetail, MachineInput, MachineRow, MachineUpdate, MeterRow } from '../../../shared/schemas/machines';
 
@@ -117,7 +117,7 @@ export async function createMachine(em: EntityManager, who: Principal, input: Ma
     await assertCodeFree(tx, input.code, null);
     await assertParent(tx, null, input.parentId);
     const m = tx.create(Machine, { organization: who.orgId, code: input.code, name: input.name, kind: input.kind, parent: input.parentId, location: input.location, serial: input.serial, notes: input.notes });
-    recordAudit(tx, who, 'machine.created', { type: 'Machine', id: m.id }, { code: input.code, name: input.name });
+    recordActivity(tx, who, 'machine.created', { type: 'Machine', id: m.id }, { code: input.code, name: input.name });
     return { id: m.id };
   });
 }
@@ -137,7 +137,7 @@ export async function updateMachine(em: EntityManager, who: Principal, id: strin
     if (input.serial !== undefined) m.serial = input.serial;
     if (input.notes !== undefined) m.notes = input.notes;
     if (input.active !== undefined) m.active = input.active;
-    recordAudit(tx, who, 'machine.updated', { type: 'Machine', id }, { before, after: { code: m.code, name: m.name, parentId: m.parent?.id ?? null, active: m.active } });
+    recordActivity(tx, who, 'machine.updated', { type: 'Machine', id }, { before, after: { code: m.code, name: m.name, parentId: m.parent?.id ?? null, active: m.active } });
   });
 }
 
@@ -162,4 +162,11 @@ export function subtreeIds(all: Pick<IMachine, 'id' | 'parent'>[], rootId: strin
     }
   }
   return [...ids];
+}
+
+/** A machine and everything below it (a cell's torch and punch head), for filters that name the cell. */
+export async function subtreeMachines(em: EntityManager, rootId: string): Promise<IMachine[]> {
+  const all = await em.find(Machine, {});
+  const ids = new Set(subtreeIds(all, rootId));
+  return all.filter((m) => ids.has(m.id));
 }

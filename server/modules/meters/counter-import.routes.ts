@@ -4,10 +4,8 @@ import { route, type ApiRouter } from '../../http/route';
 import { requestEm } from '../../db';
 import { requirePrincipal } from '../../http/principal';
 import { AppError, badRequest } from '../../http/errors';
-import { Meter } from './meter.entity';
-import { templateCsv } from '../../../shared/domain/counter-import';
 import { COUNTER_IMPORT_MAX_BYTES, type ImportStreamLine } from '../../../shared/schemas/counter-import';
-import { importCounterCsv, previewCounterCsv, type Progress } from './counter-import.service';
+import { counterImportTemplate, importCounterCsv, previewCounterCsv, type Progress } from './counter-import.service';
 
 const upload = multer({ storage: multer.memoryStorage(), limits: { fileSize: COUNTER_IMPORT_MAX_BYTES, files: 1 } });
 
@@ -50,11 +48,7 @@ async function answer(req: Request, res: Response, work: (progress?: Progress) =
 
 export function registerCounterImportRoutes(r: ApiRouter) {
   route(r, 'get', '/counter-import/template', { access: 'machines.read' }, async (_req, res) => {
-    const meters = await requestEm().find(Meter, {}, { populate: ['machine'], orderBy: { code: 'asc' }, limit: 3 });
-    const examples = meters.length
-      ? meters.map((m, i) => ({ machineCode: m.machine.getEntity().code, meterCode: m.code, unit: m.unit, value: m.kind === 'condition' ? 850 : (i + 1) * 12500 }))
-      : [{ machineCode: 'C1-T', meterCode: 'arc-starts', unit: 'starts', value: 184220 }];
-    res.type('text/csv').attachment('kerfbook-counter-import.csv').send(templateCsv(examples));
+    res.type('text/csv').attachment('kerfbook-counter-import.csv').send(await counterImportTemplate(requestEm()));
   });
   route(r, 'post', '/counter-import/preview', { access: 'readings.import', before: [receiveFile] }, async (req, res) => {
     await answer(req, res, async (progress) => ({ type: 'preview', preview: await previewCounterCsv(requestEm(), requirePrincipal(req), req.file!.buffer, progress) }));

@@ -5,8 +5,8 @@ import { Meter } from './meter.entity';
 import { Organization } from '../organizations/organization.entity';
 import type { Principal } from '../../http/principal';
 import { badRequest } from '../../http/errors';
-import { recordAudit } from '../audit/audit';
-import { importKeySource, mapHeader, parseRow, type ParsedRow, type RowError } from '../../../shared/domain/counter-import';
+import { recordActivity } from '../activity-log/activity-log.service';
+import { importKeySource, mapHeader, parseRow, templateCsv, type ParsedRow, type RowError } from '../../../shared/domain/counter-import';
 import { readingOrderProblem, readingTime } from '../../../shared/domain/meters';
 import type { ImportMeterSummary, ImportPreview, ImportResult } from '../../../shared/schemas/counter-import';
 import type { MeterKind } from '../../../shared/schemas/machines';
@@ -199,7 +199,16 @@ export async function importCounterCsv(em: EntityManager, who: Principal, file: 
       added += Number(res[0].n);
       await progress?.({ phase: 'writing', done: Math.min(i + WRITE_CHUNK, toInsert.length), total: toInsert.length });
     }
-    recordAudit(tx, who, 'meter.readings-imported', { type: 'CounterImport' }, { rows: preview.rows, added, duplicates: preview.duplicates + (toInsert.length - added), meters: preview.meters.map((m) => `${m.machineCode}/${m.meterCode}`) });
+    recordActivity(tx, who, 'meter.readings-imported', { type: 'CounterImport' }, { rows: preview.rows, added, duplicates: preview.duplicates + (toInsert.length - added), meters: preview.meters.map((m) => `${m.machineCode}/${m.meterCode}`) });
     return { rows: preview.rows, added, duplicates: preview.duplicates + (toInsert.length - added) };
   });
+}
+
+/** A CSV template whose example rows name this shop's own meters (or an invented one when it has none). */
+export async function counterImportTemplate(em: EntityManager): Promise<string> {
+  const meters = await em.find(Meter, {}, { populate: ['machine'], orderBy: { code: 'asc' }, limit: 3 });
+  const examples = meters.length
+    ? meters.map((m, i) => ({ machineCode: m.machine.getEntity().code, meterCode: m.code, unit: m.unit, value: m.kind === 'condition' ? 850 : (i + 1) * 12500 }))
+    : [{ machineCode: 'C1-T', meterCode: 'arc-starts', unit: 'starts', value: 184220 }];
+  return templateCsv(examples);
 }

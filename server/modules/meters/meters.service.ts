@@ -4,13 +4,13 @@ import { Meter, MeterReading, type IMeter } from './meter.entity';
 import { Machine } from '../machines/machine.entity';
 import type { Principal } from '../../http/principal';
 import { AppError, conflict, fieldError, notFound } from '../../http/errors';
-import { recordAudit } from '../audit/audit';
+import { recordActivity } from '../activity-log/activity-log.service';
 import { grouped, readingOrderProblem, readingTime, thinSeries } from '../../../shared/domain/meters';
 import { Organization } from '../organizations/organization.entity';
 import { usageRatePerDay } from '../../../shared/domain/forecast';
 import type { LatestReading, ListReadingsQuery, MeterInput, MeterRow, MeterTrend, MeterUpdate, ReadingBatchInput, ReadingInput, ReadingRow } from '../../../shared/schemas/machines';
-import type { Page } from '../../../shared/schemas/users';
 import { clock } from '../../../shared/clock';
+import type { Page } from '../../../shared/schemas/paging';
 
 // ── Service functions other modules call (the due engine, consumables) ─────────
 
@@ -69,7 +69,7 @@ export async function createMeter(em: EntityManager, who: Principal, input: Mete
     const clash = await tx.findOne(Meter, { machine: machine.id, code: input.code });
     if (clash) throw conflict(`${machine.code} already has a meter with the code ${input.code}`, [{ path: 'code', message: `Code ${input.code} is taken on ${machine.code}` }]);
     const m = tx.create(Meter, { organization: who.orgId, machine, code: input.code, name: input.name, kind: input.kind, unit: input.unit, lowerLimit: input.lowerLimit, upperLimit: input.upperLimit });
-    recordAudit(tx, who, 'meter.created', { type: 'Meter', id: m.id }, { machine: machine.code, code: input.code, unit: input.unit });
+    recordActivity(tx, who, 'meter.created', { type: 'Meter', id: m.id }, { machine: machine.code, code: input.code, unit: input.unit });
     return { id: m.id };
   });
 }
@@ -85,7 +85,7 @@ export async function updateMeter(em: EntityManager, who: Principal, id: string,
     if (input.name !== undefined) m.name = input.name;
     m.lowerLimit = lower;
     m.upperLimit = upper;
-    recordAudit(tx, who, 'meter.updated', { type: 'Meter', id }, { ...input });
+    recordActivity(tx, who, 'meter.updated', { type: 'Meter', id }, { ...input });
   });
 }
 
@@ -121,7 +121,7 @@ export async function recordReading(
 export async function addReading(em: EntityManager, who: Principal, meterId: string, input: ReadingInput): Promise<{ id: string }> {
   return em.transactional(async (tx) => {
     const r = await recordReading(tx, who, meterId, input);
-    recordAudit(tx, who, 'meter.reading-recorded', { type: 'Meter', id: meterId }, { value: input.value, isReset: input.isReset, readAt: r.readAt.toISOString() });
+    recordActivity(tx, who, 'meter.reading-recorded', { type: 'Meter', id: meterId }, { value: input.value, isReset: input.isReset, readAt: r.readAt.toISOString() });
     return { id: r.id };
   });
 }
@@ -140,7 +140,7 @@ export async function addReadings(em: EntityManager, who: Principal, input: Read
         throw err;
       }
     }
-    recordAudit(tx, who, 'meter.readings-recorded', { type: 'Meter' }, { count: ids.length });
+    recordActivity(tx, who, 'meter.readings-recorded', { type: 'Meter' }, { count: ids.length });
     return { ids };
   });
 }

@@ -5,15 +5,15 @@ import { MaintenancePlan } from '../plans/plan.entity';
 import { WorkOrder } from '../work-orders/work-order.entity';
 import type { Principal } from '../../http/principal';
 import { badRequest, notFound } from '../../http/errors';
-import { recordAudit } from '../audit/audit';
+import { recordActivity } from '../activity-log/activity-log.service';
 import { compareToTarget, iso4406Code } from '../../../shared/domain/cleanliness';
 import { viscosityStatus } from '../../../shared/domain/viscosity';
 import { raiseWorkOrders } from '../work-orders/raise-work-orders';
 import type { EvaluatePlansNow } from '../plans/plan-evaluation';
 import { uuidArray } from '../../db';
 import type { HydraulicUnitView, OilAnalysisInput, OilAnalysisRow, OilFinding, OilTarget as OilTargetView, OilTargetInput, ListOilAnalysesQuery } from '../../../shared/schemas/oil-analysis';
-import type { Page } from '../../../shared/schemas/users';
 import { clock } from '../../../shared/clock';
+import type { Page } from '../../../shared/schemas/paging';
 
 /** Inside ±5 % of the grade mid-point is fine; beyond that (still inside the ±10 % ISO 3448 band) is a drift warning. */
 const VISCOSITY_WARN = 0.05;
@@ -112,7 +112,7 @@ export async function setTarget(em: EntityManager, who: Principal, machineId: st
     const before = t ? targetView(t) : null;
     if (t) Object.assign(t, input);
     else t = tx.create(OilTarget, { organization: who.orgId, machine: unit, ...input });
-    recordAudit(tx, who, 'oil.target', { type: 'Machine', id: unit.id }, { before, after: input });
+    recordActivity(tx, who, 'oil.target', { type: 'Machine', id: unit.id }, { before, after: input });
     return targetView(t);
   });
 }
@@ -199,7 +199,7 @@ export async function recordAnalysis(em: EntityManager, who: Principal, input: O
       );
       a.workOrder = tx.getReference(WorkOrder, wo.id, { wrapped: true });
     }
-    recordAudit(tx, who, 'oil.recorded', { type: 'OilAnalysis', id: a.id }, { machine: unit.code, isoCode: verdict.isoCode, outOfLimits: verdict.outOfLimits });
+    recordActivity(tx, who, 'oil.recorded', { type: 'OilAnalysis', id: a.id }, { machine: unit.code, isoCode: verdict.isoCode, outOfLimits: verdict.outOfLimits });
     return { id: a.id, unit: { id: unit.id, code: unit.code, name: unit.name }, oilPlanIds: oilPlans.map((p) => p.id) };
   });
   if (saved.oilPlanIds.length) {

@@ -3,24 +3,14 @@ import { route, type ApiRouter } from '../../http/route';
 import { requestEm } from '../../db';
 import { requirePrincipal } from '../../http/principal';
 import { orgSettingsSchema } from '../../../shared/schemas/organization';
-import { Organization } from './organization.entity';
-import { recordAudit } from '../audit/audit';
+import { getShopProfile, updateShopProfile } from './organizations.service';
 
 export function registerOrganizationRoutes(r: ApiRouter) {
   route(r, 'get', '/organization', { access: 'org.settings.manage' }, async (req, res) => {
-    const org = await (requestEm() as EntityManager).findOneOrFail(Organization, requirePrincipal(req).orgId);
-    res.json({ id: org.id, name: org.name, timeZone: org.timeZone });
+    res.json(await getShopProfile(requestEm() as EntityManager, requirePrincipal(req)));
   });
 
   route(r, 'patch', '/organization', { access: 'org.settings.manage', body: orgSettingsSchema }, async (req, res) => {
-    const who = requirePrincipal(req);
-    const em = requestEm() as EntityManager;
-    const org = await em.findOneOrFail(Organization, who.orgId);
-    const before = { name: org.name, timeZone: org.timeZone };
-    org.name = res.locals.body.name;
-    org.timeZone = res.locals.body.timeZone;
-    recordAudit(em, who, 'organization.updated', { type: 'Organization', id: org.id }, { before, after: res.locals.body });
-    await em.flush();
-    res.json({ id: org.id, name: org.name, timeZone: org.timeZone });
+    res.json(await updateShopProfile(requestEm() as EntityManager, requirePrincipal(req), res.locals.body));
   });
 }

@@ -8,7 +8,7 @@ import type { Principal } from '../../http/principal';
 import { notFound } from '../../http/errors';
 import { summarizeTrigger, summarizeTriggers } from '../../../shared/domain/plan-summary';
 import { ROLE_LABELS } from '../../../shared/permissions';
-import type { Page } from '../../../shared/schemas/users';
+import type { Page } from '../../../shared/schemas/paging';
 import type { DueState, ListPlansQuery, PlanDetail, PlanLookups, PlanRow, StoredTrigger } from '../../../shared/schemas/plans';
 import { shopTimeZone } from './plans.service';
 

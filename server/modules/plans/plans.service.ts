@@ -8,7 +8,7 @@ import { Membership } from '../users/user.entity';
 import { Organization } from '../organizations/organization.entity';
 import type { Principal } from '../../http/principal';
 import { badRequest, notFound } from '../../http/errors';
-import { recordAudit } from '../audit/audit';
+import { recordActivity } from '../activity-log/activity-log.service';
 import { buildRecurrenceText } from '../../../shared/domain/recurrence';
 import type { FieldErrors } from '../../../shared/schemas/common';
 import type { PlanInput, StoredTrigger, TriggerInput } from '../../../shared/schemas/plans';
@@ -132,7 +132,7 @@ export async function createPlan(em: EntityManager, who: Principal, input: PlanI
       starterKey: extra.starterKey ?? null,
     });
     await refreshPlanStatus(tx, plan, tz);
-    recordAudit(tx, who, 'plan.created', { type: 'MaintenancePlan', id: plan.id }, { title: plan.title, machine: machine.code, starter: extra.starterKey ?? null });
+    recordActivity(tx, who, 'plan.created', { type: 'MaintenancePlan', id: plan.id }, { title: plan.title, machine: machine.code, starter: extra.starterKey ?? null });
     return { id: plan.id };
   });
 }
@@ -154,7 +154,7 @@ export async function updatePlan(em: EntityManager, who: Principal, id: string, 
       meterBaselines: { ...plan.meterBaselines, ...fresh },
     });
     await refreshPlanStatus(tx, plan, tz);
-    recordAudit(tx, who, 'plan.updated', { type: 'MaintenancePlan', id: plan.id }, { before, after: { title: plan.title, triggers: plan.triggers, active: plan.active } });
+    recordActivity(tx, who, 'plan.updated', { type: 'MaintenancePlan', id: plan.id }, { before, after: { title: plan.title, triggers: plan.triggers, active: plan.active } });
   });
 }
 

@@ -5,8 +5,7 @@ import { requirePrincipal } from '../../http/principal';
 import { uuidParam } from '../../../shared/schemas/common';
 import { punchToolInputSchema, punchToolUpdateSchema, sharpeningSchema } from '../../../shared/schemas/punch-tools';
 import { createTool, listSharpenings, listTools, recordSharpening, updateTool } from './punch-tools.service';
-import { Machine } from '../machines/machine.entity';
-import { subtreeIds } from '../machines/machines.service';
+import { subtreeMachines } from '../machines/machines.service';
 
 const listQuery = z.object({ machineId: z.uuid().optional(), includeInactive: z.enum(['true', 'false']).optional().transform((v) => v === 'true') });
 
@@ -15,7 +14,7 @@ export function registerPunchToolRoutes(r: ApiRouter) {
     const q = res.locals.query as z.output<typeof listQuery>;
     const em = requestEm();
     // A machine's tools include those on its components (a cell's punch head).
-    const machineIds = q.machineId ? subtreeIds(await em.find(Machine, {}), q.machineId) : undefined;
+    const machineIds = q.machineId ? (await subtreeMachines(em, q.machineId)).map((m) => m.id) : undefined;
     res.json(await listTools(em, { machineIds, includeInactive: q.includeInactive }));
   });
   route(r, 'post', '/punch-tools', { access: 'tools.manage', body: punchToolInputSchema }, async (req, res) => {

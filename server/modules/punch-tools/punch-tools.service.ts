@@ -6,7 +6,7 @@ import { Meter } from '../meters/meter.entity';
 import { latestReadings, readingsSince, neighbours } from '../meters/meters.service';
 import type { Principal } from '../../http/principal';
 import { conflict, fieldError, notFound } from '../../http/errors';
-import { recordAudit } from '../audit/audit';
+import { recordActivity } from '../activity-log/activity-log.service';
 import { advanceSince } from '../../../shared/domain/meters';
 import type { PunchToolInput, PunchToolRow, SharpeningInput, SharpeningRow } from '../../../shared/schemas/punch-tools';
 import { clock } from '../../../shared/clock';
@@ -69,7 +69,7 @@ export async function createTool(em: EntityManager, who: Principal, input: Punch
     if (await tx.findOne(PunchTool, { code: input.code })) throw conflict(`A tool with the code ${input.code} exists`, [{ path: 'code', message: `Code ${input.code} is taken` }]);
     const latest = (await latestReadings(tx, [meter.id])).get(meter.id);
     const tool = tx.create(PunchTool, { organization: who.orgId, machine, hitsMeter: meter, code: input.code, name: input.name, stationSize: input.stationSize, sharpeningIntervalHits: input.sharpeningIntervalHits, hitsAtLastSharpening: latest?.value ?? 0, lastSharpenedAt: null });
-    recordAudit(tx, who, 'tool.created', { type: 'PunchTool', id: tool.id }, { code: input.code });
+    recordActivity(tx, who, 'tool.created', { type: 'PunchTool', id: tool.id }, { code: input.code });
     return { id: tool.id };
   });
 }
@@ -79,7 +79,7 @@ export async function updateTool(em: EntityManager, who: Principal, id: string, 
     const tool = await tx.findOne(PunchTool, { id });
     if (!tool) throw notFound('Tool');
     tx.assign(tool, input);
-    recordAudit(tx, who, 'tool.updated', { type: 'PunchTool', id }, { ...input });
+    recordActivity(tx, who, 'tool.updated', { type: 'PunchTool', id }, { ...input });
   });
 }
 
@@ -98,7 +98,7 @@ export async function recordSharpening(em: EntityManager, who: Principal, toolId
     const s = tx.create(ToolSharpening, { organization: who.orgId, tool, sharpenedAt: at, hitsReading: reading, hitsSincePrevious, removedMm: input.removedMm, by: who.userId, note: input.note });
     tool.hitsAtLastSharpening = reading;
     tool.lastSharpenedAt = at;
-    recordAudit(tx, who, 'tool.sharpened', { type: 'PunchTool', id: tool.id }, { hitsSincePrevious, removedMm: input.removedMm });
+    recordActivity(tx, who, 'tool.sharpened', { type: 'PunchTool', id: tool.id }, { hitsSincePrevious, removedMm: input.removedMm });
     return { id: s.id, hitsSincePrevious };
   });
 }

@@ -2,7 +2,7 @@ import type { EntityManager } from '@mikro-orm/postgresql';
 import { SafetySignOff } from './sign-off.entity';
 import { appendSignOff } from './chain';
 import { forbidden, notFound } from '../../http/errors';
-import { recordAudit } from '../audit/audit';
+import { recordActivity } from '../activity-log/activity-log.service';
 import type { Principal } from '../../http/principal';
 
 /**
@@ -23,7 +23,7 @@ export async function correctSignOff(em: EntityManager, who: Principal, id: stri
       note,
       correctsId: original.id,
     });
-    recordAudit(tx, who, 'safety.sign-off-corrected', { type: 'SafetySignOff', id: original.id }, { correctionId: signOff.id });
+    recordActivity(tx, who, 'safety.sign-off-corrected', { type: 'SafetySignOff', id: original.id }, { correctionId: signOff.id });
     return { id: signOff.id, seq: signOff.seq };
   });
 }

@@ -4,7 +4,7 @@ import { LockoutMember, LockoutPoint, LockoutSession } from './lockout.entity';
 import { SafetySignOff } from './sign-off.entity';
 import { notFound } from '../../http/errors';
 import type { Principal } from '../../http/principal';
-import type { Page } from '../../../shared/schemas/users';
+import type { Page } from '../../../shared/schemas/paging';
 import type { ListLockoutsQuery, LockoutDetail, LockoutRow } from '../../../shared/schemas/safety-lockout';
 import { ENERGY_KIND_LABELS } from '../../../shared/schemas/safety-procedures';
 

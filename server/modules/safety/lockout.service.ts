@@ -7,7 +7,7 @@ import { EnergyProcedure, ProcedureVersion } from './procedure.entity';
 import { LockoutMember, LockoutPoint, LockoutSession, type ILockoutPoint, type ILockoutSession } from './lockout.entity';
 import { appendSignOff } from './chain';
 import { badRequest, conflict, fieldError, forbidden, notFound } from '../../http/errors';
-import { recordAudit } from '../audit/audit';
+import { recordActivity } from '../activity-log/activity-log.service';
 import type { Principal } from '../../http/principal';
 import {
   LOCK_DEVICE_LABELS,
@@ -115,7 +115,7 @@ export async function applyLockout(em: EntityManager, who: Principal, input: App
         points: input.points.map((p) => ({ key: p.sourceKey, device: p.device, lock: p.lockNumber, tag: p.tagNumber ?? null })),
       },
     });
-    recordAudit(tx, who, 'safety.lockout-applied', { type: 'LockoutSession', id: session.id }, { machine: machine.code, signOffId: signOff.id });
+    recordActivity(tx, who, 'safety.lockout-applied', { type: 'LockoutSession', id: session.id }, { machine: machine.code, signOffId: signOff.id });
     return { id: session.id, signOffId: signOff.id };
   });
 }
@@ -144,7 +144,7 @@ export async function verifyLockout(em: EntityManager, who: Principal, id: strin
       note: input.note ?? null,
     });
     s.verifiedAt = signOff.signedAt;
-    recordAudit(tx, who, 'safety.lockout-verified', { type: 'LockoutSession', id: s.id }, { signOffId: signOff.id });
+    recordActivity(tx, who, 'safety.lockout-verified', { type: 'LockoutSession', id: s.id }, { signOffId: signOff.id });
     return { id: s.id, signOffId: signOff.id };
   });
 }
@@ -168,7 +168,7 @@ export async function joinLockout(em: EntityManager, who: Principal, id: string,
       details: { summary: `${s.machine.getEntity().code}: personal lock ${input.lockNumber} on the group lockout held by ${s.primary.getEntity().name}`, lock: input.lockNumber, memberId: member.id },
     });
     member.joinedAt = signOff.signedAt;
-    recordAudit(tx, who, 'safety.lockout-joined', { type: 'LockoutSession', id: s.id }, { signOffId: signOff.id });
+    recordActivity(tx, who, 'safety.lockout-joined', { type: 'LockoutSession', id: s.id }, { signOffId: signOff.id });
     return { id: member.id, signOffId: signOff.id };
   });
 }
@@ -186,7 +186,7 @@ export async function leaveLockout(em: EntityManager, who: Principal, id: string
       details: { summary: `${s.machine.getEntity().code}: personal lock ${member.lockNumber} removed`, lock: member.lockNumber, memberId: member.id },
     });
     member.leftAt = signOff.signedAt;
-    recordAudit(tx, who, 'safety.lockout-left', { type: 'LockoutSession', id: s.id }, { signOffId: signOff.id });
+    recordActivity(tx, who, 'safety.lockout-left', { type: 'LockoutSession', id: s.id }, { signOffId: signOff.id });
     return { signOffId: signOff.id };
   });
 }
@@ -209,7 +209,7 @@ export async function offerHandover(em: EntityManager, who: Principal, id: strin
       details: { summary: `${s.machine.getEntity().code}: handing over to ${m.user.getEntity().name}`, toUserId: input.toUserId, toName: m.user.getEntity().name },
       note: input.note ?? null,
     });
-    recordAudit(tx, who, 'safety.lockout-handover-offered', { type: 'LockoutSession', id: s.id }, { to: input.toUserId, signOffId: signOff.id });
+    recordActivity(tx, who, 'safety.lockout-handover-offered', { type: 'LockoutSession', id: s.id }, { to: input.toUserId, signOffId: signOff.id });
     return { signOffId: signOff.id };
   });
 }
@@ -249,7 +249,7 @@ export async function acceptHandover(em: EntityManager, who: Principal, id: stri
       machineId: s.machine.id,
       details: { summary: `${s.machine.getEntity().code}: taken over from ${from.name}; ${swaps.map((x) => `${x.key} ${x.from} → ${x.to}`).join(', ')}`, fromUserId: from.id, fromName: from.name, locks: swaps },
     });
-    recordAudit(tx, who, 'safety.lockout-handover-accepted', { type: 'LockoutSession', id: s.id }, { from: from.id, signOffId: signOff.id });
+    recordActivity(tx, who, 'safety.lockout-handover-accepted', { type: 'LockoutSession', id: s.id }, { from: from.id, signOffId: signOff.id });
     return { signOffId: signOff.id };
   });
 }
@@ -294,7 +294,7 @@ export async function releaseLockout(em: EntityManager, who: Principal, id: stri
     });
     s.releasedAt = signOff.signedAt;
     if (s.workOrderId) await markLockoutReleased(tx, s.workOrderId, signOff.signedAt);
-    recordAudit(tx, who, 'safety.lockout-released', { type: 'LockoutSession', id: s.id }, { signOffId: signOff.id });
+    recordActivity(tx, who, 'safety.lockout-released', { type: 'LockoutSession', id: s.id }, { signOffId: signOff.id });
     return { id: s.id, signOffId: signOff.id };
   });
 }

@@ -3,7 +3,7 @@ import { Machine } from '../machines/machine.entity';
 import { PpeCheck, PpeRequirement, type IPpeRequirement } from './records.entity';
 import { appendSignOff } from './chain';
 import { fieldError, notFound } from '../../http/errors';
-import { recordAudit } from '../audit/audit';
+import { recordActivity } from '../activity-log/activity-log.service';
 import type { Principal } from '../../http/principal';
 import { loadSafetySettings } from './settings';
 import { deriveRequiredItems } from '../../../shared/schemas/safety-ppe-derive';
@@ -63,7 +63,7 @@ export async function saveRequirement(em: EntityManager, who: Principal, input: 
     } else {
       r = tx.create(PpeRequirement, { organization: who.orgId, machine, task: input.task, items: input.items, otherItems: input.otherItems, arcCurrentA: input.arcCurrentA, noise: input.noise, cadence: input.cadence, active: true });
     }
-    recordAudit(tx, who, id ? 'safety.ppe-requirement-changed' : 'safety.ppe-requirement-created', { type: 'PpeRequirement', id: r.id }, { machine: machine.code, task: input.task, required: derived.required.map((x) => x.code) });
+    recordActivity(tx, who, id ? 'safety.ppe-requirement-changed' : 'safety.ppe-requirement-created', { type: 'PpeRequirement', id: r.id }, { machine: machine.code, task: input.task, required: derived.required.map((x) => x.code) });
     return { id: r.id };
   });
 }
@@ -73,7 +73,7 @@ export async function retireRequirement(em: EntityManager, who: Principal, id: s
     const r = await tx.findOne(PpeRequirement, id);
     if (!r) throw notFound('PPE requirement');
     r.active = false;
-    recordAudit(tx, who, 'safety.ppe-requirement-retired', { type: 'PpeRequirement', id: r.id });
+    recordActivity(tx, who, 'safety.ppe-requirement-retired', { type: 'PpeRequirement', id: r.id });
   });
 }
 
@@ -114,7 +114,7 @@ export async function recordPpeCheck(em: EntityManager, who: Principal, input: P
     });
     check.checkedAt = signOff.signedAt;
     check.signOff = signOff as never;
-    recordAudit(tx, who, 'safety.ppe-check', { type: 'PpeCheck', id: check.id }, { machine: machine.code, signOffId: signOff.id });
+    recordActivity(tx, who, 'safety.ppe-check', { type: 'PpeCheck', id: check.id }, { machine: machine.code, signOffId: signOff.id });
     return { id: check.id, signOffId: signOff.id };
   });
 }

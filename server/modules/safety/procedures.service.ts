@@ -6,12 +6,10 @@ import { EnergyProcedure, ProcedurePhoto, ProcedureVersion, type IProcedureVersi
 import { PeriodicInspection } from './records.entity';
 import { appendSignOff, sha256Hex } from './chain';
 import { badRequest, conflict, fieldError, notFound } from '../../http/errors';
-import { recordAudit } from '../audit/audit';
+import { recordActivity } from '../activity-log/activity-log.service';
 import type { Principal } from '../../http/principal';
 import { canonicalize } from '../../../shared/domain/signature-chain';
 import {
-  PHOTO_MAX_BYTES,
-  PHOTO_TYPES,
   type CreateProcedureInput,
   type ProcedureContent,
   type ProcedureDetail,
@@ -22,6 +20,7 @@ import {
 import { inspectionEvaluation } from './due';
 import { loadSafetySettings } from './settings';
 import { clock } from '../../../shared/clock';
+import { PHOTO_TYPES, PROCEDURE_PHOTO_MAX_BYTES, megabytes } from '../../../shared/schemas/photos';
 
 const iso = (d: Date | null | undefined) => (d ? d.toISOString() : null);
 
@@ -98,7 +97,7 @@ export async function createProcedure(em: EntityManager, who: Principal, input: 
     await refuseMachineCodeTags(tx, machine, content);
     const proc = tx.create(EnergyProcedure, { organization: who.orgId, machine, title: content.title });
     const v = tx.create(ProcedureVersion, { organization: who.orgId, procedure: proc, version: 1, status: 'draft', content, author: who.userId, retrainingRequired: true });
-    recordAudit(tx, who, 'safety.procedure-created', { type: 'EnergyProcedure', id: proc.id }, { machine: machine.code, title: content.title });
+    recordActivity(tx, who, 'safety.procedure-created', { type: 'EnergyProcedure', id: proc.id }, { machine: machine.code, title: content.title });
     return { id: proc.id, versionId: v.id };
   });
 }
@@ -131,7 +130,7 @@ export async function saveDraft(em: EntityManager, who: Principal, procedureId: 
       const photos = await tx.find(ProcedurePhoto, { version: latest.id }, { populate: ['data'] });
       for (const p of photos) tx.create(ProcedurePhoto, { organization: who.orgId, version: draft, sourceKey: p.sourceKey, caption: p.caption, mime: p.mime, size: p.size, data: p.data });
     }
-    recordAudit(tx, who, 'safety.procedure-draft-saved', { type: 'ProcedureVersion', id: draft.id }, { version: draft.version });
+    recordActivity(tx, who, 'safety.procedure-draft-saved', { type: 'ProcedureVersion', id: draft.id }, { version: draft.version });
     return { versionId: draft.id, version: draft.version };
   });
 }
@@ -173,14 +172,14 @@ export async function approveVersion(em: EntityManager, who: Principal, procedur
     // The first version always counts as a change people must be trained on.
     v.retrainingRequired = previous.length === 0 ? true : retrainingRequired;
     proc.title = v.content.title;
-    recordAudit(tx, who, 'safety.procedure-approved', { type: 'ProcedureVersion', id: v.id }, { version: v.version, signOffId: signOff.id });
+    recordActivity(tx, who, 'safety.procedure-approved', { type: 'ProcedureVersion', id: v.id }, { version: v.version, signOffId: signOff.id });
     return { versionId: v.id, version: v.version, signOffId: signOff.id };
   });
 }
 
 export async function addPhoto(em: EntityManager, who: Principal, procedureId: string, file: { buffer: Buffer; size: number } | undefined, fields: { sourceKey: string; caption?: string }) {
   if (!file) throw fieldError('photo', 'Choose a photo to upload');
-  if (file.size > PHOTO_MAX_BYTES) throw fieldError('photo', `The photo is larger than ${PHOTO_MAX_BYTES / 1024 / 1024} MB`);
+  if (file.size > PROCEDURE_PHOTO_MAX_BYTES) throw fieldError('photo', `The photo is larger than ${megabytes(PROCEDURE_PHOTO_MAX_BYTES)} MB`);
   // Trust the bytes, not the file name or the browser's content type.
   const type = await fileTypeFromBuffer(file.buffer);
   if (!type || !(PHOTO_TYPES as readonly string[]).includes(type.mime)) {
@@ -195,7 +194,7 @@ export async function addPhoto(em: EntityManager, who: Principal, procedureId: s
     const count = await tx.count(ProcedurePhoto, { version: draft.id });
     if (count >= 20) throw badRequest('A version holds at most 20 photos');
     const photo = tx.create(ProcedurePhoto, { organization: who.orgId, version: draft, sourceKey: fields.sourceKey, caption: fields.caption ?? null, mime: type.mime, size: file.size, data: file.buffer });
-    recordAudit(tx, who, 'safety.procedure-photo-added', { type: 'ProcedurePhoto', id: photo.id }, { version: draft.version, sourceKey: fields.sourceKey, size: file.size });
+    recordActivity(tx, who, 'safety.procedure-photo-added', { type: 'ProcedurePhoto', id: photo.id }, { version: draft.version, sourceKey: fields.sourceKey, size: file.size });
     return { id: photo.id, versionId: draft.id };
   });
 }
@@ -211,7 +210,7 @@ export async function deletePhoto(em: EntityManager, who: Principal, procedureId
     const photo = await tx.findOne(ProcedurePhoto, { id: photoId, version: { procedure: procedureId } }, { populate: ['version'] });
     if (!photo) throw notFound('Photo');
     if (photo.version.getEntity().status !== 'draft') throw conflict('This photo belongs to an approved version, which does not change');
-    recordAudit(tx, who, 'safety.procedure-photo-removed', { type: 'ProcedurePhoto', id: photo.id });
+    recordActivity(tx, who, 'safety.procedure-photo-removed', { type: 'ProcedurePhoto', id: photo.id });
     tx.remove(photo);
   });
 }

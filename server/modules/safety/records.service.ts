@@ -6,7 +6,7 @@ import { EnergyProcedure, ProcedureVersion } from './procedure.entity';
 import { FireWatch, PeriodicInspection, TrainingRecord, type IFireWatch, type IPeriodicInspection } from './records.entity';
 import { appendSignOff } from './chain';
 import { conflict, fieldError, forbidden, notFound } from '../../http/errors';
-import { recordAudit } from '../audit/audit';
+import { recordActivity } from '../activity-log/activity-log.service';
 import type { Principal } from '../../http/principal';
 import { loadSafetySettings } from './settings';
 import { FIRE_WATCH_RULES, fireWatchUntil, type FireWatchRuleId } from '../../../shared/domain/hot-work';
@@ -88,7 +88,7 @@ export async function recordInspection(em: EntityManager, who: Principal, input:
       },
     });
     inspection.performedSignOff = signOff as never;
-    recordAudit(tx, who, 'safety.inspection-performed', { type: 'PeriodicInspection', id: inspection.id }, { signOffId: signOff.id });
+    recordActivity(tx, who, 'safety.inspection-performed', { type: 'PeriodicInspection', id: inspection.id }, { signOffId: signOff.id });
     return { id: inspection.id, signOffId: signOff.id };
   });
 }
@@ -120,7 +120,7 @@ export async function certifyInspection(em: EntityManager, who: Principal, id: s
     ins.certifiedAt = signOff.signedAt;
     ins.certifiedBy = tx.getReference(User, who.userId) as never;
     ins.certifySignOff = signOff as never;
-    recordAudit(tx, who, 'safety.inspection-certified', { type: 'PeriodicInspection', id: ins.id }, { signOffId: signOff.id });
+    recordActivity(tx, who, 'safety.inspection-certified', { type: 'PeriodicInspection', id: ins.id }, { signOffId: signOff.id });
     return { id: ins.id, signOffId: signOff.id };
   });
 }
@@ -203,7 +203,7 @@ export async function recordTraining(em: EntityManager, who: Principal, input: T
       note: input.note || null,
     });
     record.signOff = signOff as never;
-    recordAudit(tx, who, 'safety.training-recorded', { type: 'TrainingRecord', id: record.id }, { signOffId: signOff.id });
+    recordActivity(tx, who, 'safety.training-recorded', { type: 'TrainingRecord', id: record.id }, { signOffId: signOff.id });
     return { id: record.id, signOffId: signOff.id };
   });
 }
@@ -291,7 +291,7 @@ export async function startFireWatch(em: EntityManager, who: Principal, input: S
       },
     });
     fw.startSignOff = signOff as never;
-    recordAudit(tx, who, 'safety.fire-watch-started', { type: 'FireWatch', id: fw.id }, { signOffId: signOff.id });
+    recordActivity(tx, who, 'safety.fire-watch-started', { type: 'FireWatch', id: fw.id }, { signOffId: signOff.id });
     await tx.flush();
     await tx.populate(fw, ['watcher']);
     return fireWatchRow(fw);
@@ -322,7 +322,7 @@ export async function endFireWatch(em: EntityManager, who: Principal, id: string
     });
     fw.endedAt = signOff.signedAt;
     fw.endSignOff = signOff as never;
-    recordAudit(tx, who, 'safety.fire-watch-ended', { type: 'FireWatch', id: fw.id }, { signOffId: signOff.id });
+    recordActivity(tx, who, 'safety.fire-watch-ended', { type: 'FireWatch', id: fw.id }, { signOffId: signOff.id });
     return fireWatchRow(fw);
   });
 }

@@ -18,9 +18,9 @@ import { safetyMachines, safetyPeople } from './safety-lookups';
 import { listRequirements, recordPpeCheck, retireRequirement, saveRequirement } from './ppe.service';
 import { certifyInspection, endFireWatch, listFireWatches, listInspections, listTraining, recordInspection, recordTraining, startFireWatch } from './records.service';
 import { correctSignOff } from './corrections.service';
-import { compliance, exportCsv, exportPdf, listSignOffs, timeline } from './audit.service';
+import { compliance, exportCsv, exportPdf, listSignOffs, timeline } from './safety-audit.service';
 import { listSafetyTasks } from './work';
-import { approveVersionSchema, createProcedureSchema, photoParams, photoUploadFields, procedureContentSchema, PHOTO_MAX_BYTES, versionParams } from '../../../shared/schemas/safety-procedures';
+import { approveVersionSchema, createProcedureSchema, photoParams, photoUploadFields, procedureContentSchema, versionParams } from '../../../shared/schemas/safety-procedures';
 import {
   acceptHandoverSchema,
   applyLockoutSchema,
@@ -35,10 +35,11 @@ import { ppeCheckSchema, ppeRequirementSchema } from '../../../shared/schemas/sa
 import { certifySchema, endFireWatchSchema, inspectionSchema, safetySettingsSchema, startFireWatchSchema, trainingSchema } from '../../../shared/schemas/safety-records';
 import { correctionSchema, exportSignOffsQuery, listSignOffsQuery } from '../../../shared/schemas/safety-sign-offs';
 import { complianceQuery, timelineQuery } from '../../../shared/schemas/safety-audit';
+import { PROCEDURE_PHOTO_MAX_BYTES } from '../../../shared/schemas/photos';
 
 const em = () => requestEm() as EntityManager;
 
-const upload = singleFileUpload('photo', PHOTO_MAX_BYTES, 'photo');
+const upload = singleFileUpload('photo', PROCEDURE_PHOTO_MAX_BYTES, 'photo');
 
 /** Every signing route: the password is checked first, so a wrong one writes nothing. */
 const signed =

@@ -5,7 +5,7 @@ import type { SafetySettings, SafetySettingsView } from '../../../shared/schemas
 import { FIRE_WATCH_RULES } from '../../../shared/domain/hot-work';
 import { PLASMA_ARC_CUTTING_SHADES, validateShadeTable, type ShadeTable } from '../../../shared/domain/shade';
 import { fieldError } from '../../http/errors';
-import { recordAudit } from '../audit/audit';
+import { recordActivity } from '../activity-log/activity-log.service';
 import type { Principal } from '../../http/principal';
 
 export const DEFAULT_HEARING_SOURCE = 'OSHA 29 CFR 1910.95(c)(1) action level (85 dBA TWA); site rule: wear protectors from there';
@@ -58,7 +58,7 @@ export async function saveSafetySettings(em: EntityManager, who: Principal, inpu
     const before = safetySettingsOf(org);
     const { fireWatchRule, ...rest } = input;
     org.settings = { ...(org.settings ?? {}), fireWatchRule, safety: rest };
-    recordAudit(tx, who, 'safety.settings-changed', { type: 'Organization', id: org.id }, { before, after: input });
+    recordActivity(tx, who, 'safety.settings-changed', { type: 'Organization', id: org.id }, { before, after: input });
     return safetySettingsOf(org);
   });
 }

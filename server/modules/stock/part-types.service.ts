@@ -4,10 +4,10 @@ import { Organization, type OrgSettings } from '../organizations/organization.en
 import { applyStockChanges } from './stock.service';
 import type { Principal } from '../../http/principal';
 import { conflict, notFound } from '../../http/errors';
-import { recordAudit } from '../audit/audit';
+import { recordActivity } from '../activity-log/activity-log.service';
 import { demandStats, reorderPointUnits } from '../../../shared/domain/stock';
 import type { PartTypeInput, PartTypeRow, PartTypeUpdate, RecordStockMoveInput, StockMoveRow } from '../../../shared/schemas/stock';
-import type { Page } from '../../../shared/schemas/users';
+import type { Page } from '../../../shared/schemas/paging';
 
 /** Days of 'used' moves the reorder point learns from; days without use count as zero. */
 export const USAGE_WINDOW_DAYS = 90;
@@ -96,7 +96,7 @@ export async function createPartType(em: EntityManager, who: Principal, input: P
     const p = tx.create(PartType, { organization: who.orgId, ...fields, onHand: 0 });
     await tx.flush();
     if (openingStock > 0) await applyStockChanges(tx, who, [{ partTypeId: p.id, quantity: openingStock, kind: 'adjusted', reason: 'Opening stock' }]);
-    recordAudit(tx, who, 'part.created', { type: 'PartType', id: p.id }, { partNumber: input.partNumber, openingStock });
+    recordActivity(tx, who, 'part.created', { type: 'PartType', id: p.id }, { partNumber: input.partNumber, openingStock });
     return { id: p.id };
   });
 }
@@ -107,14 +107,14 @@ export async function updatePartType(em: EntityManager, who: Principal, id: stri
     if (!p) throw notFound('Part');
     if (input.partNumber !== undefined) await assertPartNumberFree(tx, input.partNumber, id);
     tx.assign(p, input);
-    recordAudit(tx, who, 'part.updated', { type: 'PartType', id }, { ...input });
+    recordActivity(tx, who, 'part.updated', { type: 'PartType', id }, { ...input });
   });
 }
 
 export async function recordStockMove(em: EntityManager, who: Principal, input: RecordStockMoveInput): Promise<{ id: string; onHand: number }> {
   return em.transactional(async (tx) => {
     const [move] = await applyStockChanges(tx, who, [{ partTypeId: input.partTypeId, quantity: input.quantity, kind: input.kind, reason: input.reason ?? null }]);
-    recordAudit(tx, who, `stock.${input.kind}`, { type: 'PartType', id: input.partTypeId }, { quantity: input.quantity, reason: input.reason ?? null });
+    recordActivity(tx, who, `stock.${input.kind}`, { type: 'PartType', id: input.partTypeId }, { quantity: input.quantity, reason: input.reason ?? null });
     return { id: move.id, onHand: move.onHandAfter };
   });
 }

@@ -1,9 +1,10 @@
 import { route, type ApiRouter } from '../../http/route';
 import { requestEm } from '../../db';
 import { requirePrincipal } from '../../http/principal';
-import { paging, uuidParam } from '../../../shared/schemas/common';
+import { uuidParam } from '../../../shared/schemas/common';
 import { listPartTypesQuery, partTypeInputSchema, partTypeUpdateSchema, recordStockMoveSchema } from '../../../shared/schemas/stock';
 import { createPartType, getPartType, listMoves, listPartTypes, recordStockMove, updatePartType } from './part-types.service';
+import { paging } from '../../../shared/schemas/paging';
 
 export function registerStockRoutes(r: ApiRouter) {
   route(r, 'get', '/part-types', { access: 'stock.read', query: listPartTypesQuery }, async (req, res) => {

@@ -2,14 +2,15 @@ import type { EntityManager } from '@mikro-orm/postgresql';
 import { Membership, User, UserToken } from './user.entity';
 import { Organization } from '../organizations/organization.entity';
 import type { Principal } from '../../http/principal';
-import type { InviteUserInput, ListUsersQuery, MemberRow, Page, UpdateMemberInput } from '../../../shared/schemas/users';
+import type { InviteUserInput, ListUsersQuery, MemberRow, UpdateMemberInput } from '../../../shared/schemas/users';
 import { conflict, fieldError, notFound } from '../../http/errors';
 import { issueToken } from '../auth/auth.service';
 import { queueMail } from '../../mail/outbox';
 import { renderMail } from '../../mail/templates';
-import { recordAudit } from '../audit/audit';
+import { recordActivity } from '../activity-log/activity-log.service';
 import { ROLE_LABELS } from '../../../shared/permissions';
 import { clock } from '../../../shared/clock';
+import type { Page } from '../../../shared/schemas/paging';
 
 // Memberships are the shop-scoped rows here; users are global (one person, one e-mail).
 type MemberSql = { membership_id: string; user_id: string; name: string; email: string; role: MemberRow['role']; status: MemberRow['status']; last_sign_in_at: Date | null; total: string };
@@ -89,7 +90,7 @@ export async function inviteMember(em: EntityManager, who: Principal, input: Inv
     const org = await tx.findOneOrFail(Organization, who.orgId);
     const token = issueToken(tx, user.id, 'invite');
     queueInvitation(tx, who, { email: user.email, name: input.name, role: input.role }, org.name, token, appUrl);
-    recordAudit(tx, who, 'user.invited', { type: 'Membership', id: membership.id }, { email: input.email, role: input.role });
+    recordActivity(tx, who, 'user.invited', { type: 'Membership', id: membership.id }, { email: input.email, role: input.role });
     return { membershipId: membership.id };
   });
 }
@@ -111,7 +112,7 @@ export async function updateMember(em: EntityManager, who: Principal, membership
     }
     // A deactivated member's open links (invitation, password reset) stop working with it.
     if (before.active && !m.active) await tx.nativeUpdate(UserToken, { user: m.user.id, usedAt: null }, { usedAt: clock.now() });
-    recordAudit(tx, who, 'user.updated', { type: 'Membership', id: m.id }, { before, after: { role: m.role, active: m.active } });
+    recordActivity(tx, who, 'user.updated', { type: 'Membership', id: m.id }, { before, after: { role: m.role, active: m.active } });
   });
 }
 
@@ -129,6 +130,6 @@ export async function resendInvitation(em: EntityManager, who: Principal, member
     await tx.nativeUpdate(UserToken, { user: user.id, purpose: 'invite', usedAt: null }, { usedAt: clock.now() });
     const org = await tx.findOneOrFail(Organization, who.orgId);
     queueInvitation(tx, who, { email: user.email, name: user.name, role: m.role }, org.name, issueToken(tx, user.id, 'invite'), appUrl);
-    recordAudit(tx, who, 'user.invitation-resent', { type: 'Membership', id: m.id }, { email: user.email });
+    recordActivity(tx, who, 'user.invitation-resent', { type: 'Membership', id: m.id }, { email: user.email });
   });
 }

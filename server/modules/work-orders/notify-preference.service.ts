@@ -2,7 +2,7 @@
 import type { EntityManager } from '@mikro-orm/postgresql';
 import { NotifyPreference } from './work-order.entity';
 import type { Principal } from '../../http/principal';
-import { recordAudit } from '../audit/audit';
+import { recordActivity } from '../activity-log/activity-log.service';
 import { shopTimeZone } from '../plans/plans.service';
 import type { NotifyPreference as NotifyPreferenceView, NotifyPreferenceInput } from '../../../shared/schemas/work-orders';
 
@@ -20,7 +20,7 @@ export async function setNotifyPreference(em: EntityManager, who: Principal, inp
     } else {
       tx.create(NotifyPreference, { organization: who.orgId, user: who.userId, mode: input.mode, digestHour: input.digestHour });
     }
-    recordAudit(tx, who, 'notices.preference', { type: 'User', id: who.userId }, input);
+    recordActivity(tx, who, 'notices.preference', { type: 'User', id: who.userId }, input);
   });
   return getNotifyPreference(em, who);
 }

@@ -10,7 +10,7 @@ import type { EntityManager } from '@mikro-orm/postgresql';
 import type { Role } from '../../../shared/permissions';
 import type { WorkKind } from '../../../shared/schemas/work-orders';
 import { executeBound, uuidArray } from '../../db';
-import { insertAuditRows, recordAudit, type AuditRow } from '../audit/audit';
+import { insertActivityRows, recordActivity, type ActivityRow } from '../activity-log/activity-log.service';
 import { loadPeople, queueRaisedNotices, workLine, type Person, type WorkLine, type WorkRow } from './work-order-mail';
 import { clock } from '../../../shared/clock';
 
@@ -134,7 +134,7 @@ export async function raiseWorkOrders(
   if (inserted.length === 0) return [];
   const insertedIds = new Set(inserted.map((r) => r.id));
   const raised: RaisedWorkOrder[] = [];
-  const audit: AuditRow[] = [];
+  const audit: ActivityRow[] = [];
   work.forEach((w, k) => {
     const r = records[k];
     if (!insertedIds.has(r.id)) return;
@@ -144,8 +144,8 @@ export async function raiseWorkOrders(
     const details = 'plan' in w ? { number: r.number, planId, occurrenceKey } : { number: r.number, kind: w.standalone.kind, ...w.standalone.auditDetails };
     audit.push({ action: 'work-order.raised', entityType: 'WorkOrder', entityId: r.id, details });
   });
-  if (actor) for (const a of audit) recordAudit(tx, { orgId, userId: actor.userId }, a.action, { type: a.entityType, id: a.entityId }, a.details ?? undefined);
-  else await insertAuditRows(tx, orgId, audit);
+  if (actor) for (const a of audit) recordActivity(tx, { orgId, userId: actor.userId }, a.action, { type: a.entityType, id: a.entityId }, a.details ?? undefined);
+  else await insertActivityRows(tx, orgId, audit);
   if (notice.mode === 'now') {
     const rows = await loadWorkRows(tx, raised.map((r) => r.id));
     const shop = await loadShop(tx, orgId, notice.appUrl);

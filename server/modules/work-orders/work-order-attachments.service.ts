@@ -3,7 +3,7 @@ import type { EntityManager } from '@mikro-orm/postgresql';
 import { WorkOrderAttachment } from './work-order.entity';
 import type { Principal } from '../../http/principal';
 import { notFound } from '../../http/errors';
-import { recordAudit } from '../audit/audit';
+import { recordActivity } from '../activity-log/activity-log.service';
 import { findWorkOrder } from './work-orders.queries';
 
 export async function addAttachment(em: EntityManager, who: Principal, id: string, file: { name: string; mime: string; data: Buffer }): Promise<{ id: string }> {
@@ -18,7 +18,7 @@ export async function addAttachment(em: EntityManager, who: Principal, id: strin
       data: file.data,
       uploadedBy: who.userId,
     });
-    recordAudit(tx, who, 'work-order.attachment', { type: 'WorkOrder', id: wo.id }, { fileName: a.fileName, size: a.size, mimeType: a.mimeType });
+    recordActivity(tx, who, 'work-order.attachment', { type: 'WorkOrder', id: wo.id }, { fileName: a.fileName, size: a.size, mimeType: a.mimeType });
     return { id: a.id };
   });
 }

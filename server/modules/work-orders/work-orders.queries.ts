@@ -7,7 +7,7 @@ import { PartType } from '../stock/stock.entity';
 import type { Principal } from '../../http/principal';
 import { notFound } from '../../http/errors';
 import type { DueFilter, ListWorkOrdersQuery, WorkOrderDetail, WorkOrderRow, WorkState } from '../../../shared/schemas/work-orders';
-import type { Page } from '../../../shared/schemas/users';
+import type { Page } from '../../../shared/schemas/paging';
 import { clock } from '../../../shared/clock';
 
 /** States in which work can still be done, re-planned or signed off. */

@@ -25,7 +25,7 @@ import { getWorkOrder, listWorkOrders } from './work-orders.queries';
 import { addAttachment, getAttachment } from './work-order-attachments.service';
 import { getNotifyPreference, setNotifyPreference } from './notify-preference.service';
 import { workOrderPdf } from './work-order-pdf';
-import { Organization } from '../organizations/organization.entity';
+import { getShopProfile } from '../organizations/organizations.service';
 import type { Config } from '../../config';
 
 const attachmentParam = z.object({ id: z.uuid({ message: 'Not a valid id' }), attachmentId: z.uuid({ message: 'Not a valid id' }) });
@@ -84,7 +84,7 @@ export function registerWorkOrderRoutes(r: ApiRouter, config: Config) {
   route(r, 'get', '/work-orders/:id/pdf', { access: 'work-orders.read', params: uuidParam }, async (req, res) => {
     const who = requirePrincipal(req);
     const wo = await getWorkOrder(em(), who, res.locals.params.id);
-    const org = await em().findOneOrFail(Organization, who.orgId);
+    const org = await getShopProfile(em(), who);
     const pdf = await workOrderPdf(wo, { name: org.name, timeZone: org.timeZone });
     res.setHeader('Content-Type', 'application/pdf');
     res.setHeader('Content-Disposition', `inline; filename="WO-${wo.number}.pdf"`);

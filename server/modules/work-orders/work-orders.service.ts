@@ -7,7 +7,7 @@ import { Membership, User } from '../users/user.entity';
 import { applyStockChanges } from '../stock/stock.service';
 import type { Principal } from '../../http/principal';
 import { badRequest, conflict, notFound } from '../../http/errors';
-import { recordAudit } from '../audit/audit';
+import { recordActivity } from '../activity-log/activity-log.service';
 import { currentBaselines, refreshPlanStatus } from '../plans/plan-evaluation';
 import { findMachine, shopTimeZone } from '../plans/plans.service';
 import { raiseWorkOrders } from './raise-work-orders';
@@ -86,7 +86,7 @@ export async function updateWorkOrder(em: EntityManager, who: Principal, id: str
     if (input.labourMinutes !== undefined) wo.labourMinutes = input.labourMinutes;
     if (input.notes !== undefined) wo.notes = input.notes;
     if (input.requiresLockout !== undefined) wo.requiresLockout = input.requiresLockout;
-    recordAudit(tx, who, 'work-order.updated', { type: 'WorkOrder', id: wo.id }, { before, after: input });
+    recordActivity(tx, who, 'work-order.updated', { type: 'WorkOrder', id: wo.id }, { before, after: input });
   });
 }
 
@@ -133,7 +133,7 @@ export async function moveWorkOrder(em: EntityManager, who: Principal, id: strin
       // Calling off planned work skips this occurrence; the plan schedules the next one.
       await restartPlanCycle(tx, who, wo, now);
     }
-    recordAudit(tx, who, `work-order.${input.move}`, { type: 'WorkOrder', id: wo.id }, { from, to: wo.status, ...(input.reason ? { reason: input.reason } : {}) });
+    recordActivity(tx, who, `work-order.${input.move}`, { type: 'WorkOrder', id: wo.id }, { from, to: wo.status, ...(input.reason ? { reason: input.reason } : {}) });
   });
 }
 
@@ -168,7 +168,7 @@ export async function saveChecklist(em: EntityManager, who: Principal, id: strin
       wo.status = 'in-progress';
       wo.startedAt ??= clock.now();
     }
-    recordAudit(tx, who, 'work-order.checklist', { type: 'WorkOrder', id: wo.id }, { answered: lines.filter((l) => l.result !== null).length, of: lines.length });
+    recordActivity(tx, who, 'work-order.checklist', { type: 'WorkOrder', id: wo.id }, { answered: lines.filter((l) => l.result !== null).length, of: lines.length });
     return lines;
   });
 }
@@ -182,7 +182,7 @@ export async function usePart(em: EntityManager, who: Principal, id: string, inp
       { partTypeId: input.partTypeId, quantity: -input.quantity, kind: 'used', reason: `WO ${wo.number}: ${wo.title}`.slice(0, 300), ref: { type: 'WorkOrder', id: wo.id } },
     ]);
     const line = tx.create(WorkOrderPart, { organization: who.orgId, workOrder: wo, partType: input.partTypeId, quantity: input.quantity, stockMove: move, by: who.userId });
-    recordAudit(tx, who, 'work-order.part-used', { type: 'WorkOrder', id: wo.id }, { partTypeId: input.partTypeId, quantity: input.quantity });
+    recordActivity(tx, who, 'work-order.part-used', { type: 'WorkOrder', id: wo.id }, { partTypeId: input.partTypeId, quantity: input.quantity });
     return { id: line.id };
   });
 }
@@ -195,7 +195,7 @@ export async function returnPart(em: EntityManager, who: Principal, id: string, 
     const line = await tx.findOne(WorkOrderPart, { id: lineId, workOrder: wo.id });
     if (!line) throw notFound('Part line');
     await applyStockChanges(tx, who, [{ partTypeId: line.partType.id, quantity: line.quantity, kind: 'adjusted', reason: `Returned from WO ${wo.number}`, ref: { type: 'WorkOrder', id: wo.id } }]);
-    recordAudit(tx, who, 'work-order.part-returned', { type: 'WorkOrder', id: wo.id }, { partTypeId: line.partType.id, quantity: line.quantity });
+    recordActivity(tx, who, 'work-order.part-returned', { type: 'WorkOrder', id: wo.id }, { partTypeId: line.partType.id, quantity: line.quantity });
     tx.remove(line);
   });
 }
@@ -220,7 +220,7 @@ export async function closeWorkOrder(em: EntityManager, who: Principal, id: stri
     wo.completedAt = now;
     wo.completedBy = tx.getReference(User, who.userId, { wrapped: true });
     await restartPlanCycle(tx, who, wo, now);
-    recordAudit(tx, who, 'work-order.closed', { type: 'WorkOrder', id: wo.id }, { labourMinutes: wo.labourMinutes, failed: wo.checklist.filter((c) => c.result === 'fail').map((c) => c.key) });
+    recordActivity(tx, who, 'work-order.closed', { type: 'WorkOrder', id: wo.id }, { labourMinutes: wo.labourMinutes, failed: wo.checklist.filter((c) => c.result === 'fail').map((c) => c.key) });
     await tx.flush();
     const plan = wo.plan ? await tx.findOne(MaintenancePlan, { id: wo.plan.id }) : null;
     return { planNextDueAt: iso(plan?.nextDueAt) };

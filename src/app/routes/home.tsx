@@ -1,7 +1,7 @@
 import { Link } from 'react-router-dom';
 import { useMe } from '../../features/auth/api/get-me';
 import { RoleHome } from '../../features/home/components/role-home';
-import { AuditTable } from '../../features/audit/components/audit-table';
+import { ActivityLogTable } from '../../features/activity-log/components/activity-log-table';
 import { Panel } from '../../components/ui/notice';
 import { WorkCaution } from '../../components/ui/caution';
 import { can } from '../../../shared/permissions';
@@ -32,9 +32,9 @@ export function Component() {
           <p className="text-steel-700">Invite operators, technicians and the safety officer; change roles; remove access for people who left.</p>
         </Panel>
       ) : null}
-      {can(me.role, 'audit.read') ? (
+      {can(me.role, 'activity-log.read') ? (
         <Panel title="Latest activity" className="lg:col-span-2">
-          <AuditTable pageSize={5} timeZone={me.organization.timeZone} filters={false} />
+          <ActivityLogTable pageSize={5} timeZone={me.organization.timeZone} filters={false} />
         </Panel>
       ) : null}
     </RoleHome>

@@ -2,17 +2,17 @@ import { Link, useNavigate, useParams, type LoaderFunctionArgs } from 'react-rou
 import { PageTitle } from '../../components/layout/app-shell';
 import { Notice, Panel } from '../../components/ui/notice';
 import { PlanForm, toFormValues } from '../../features/plans/components/plan-form';
-import { getPlanLookupsQueryOptions, usePlanLookups } from '../../features/plans/api/get-plan-lookups';
+import { getLookupsQueryOptions, useLookups } from '../../lib/lookups';
 import { getPlanQueryOptions, usePlan } from '../../features/plans/api/get-plan';
 import { useUpdatePlan } from '../../features/plans/api/update-plan';
 import { queryClient } from '../../lib/query-client';
 
 export const loader = ({ params }: LoaderFunctionArgs) =>
-  Promise.all([queryClient.ensureQueryData(getPlanLookupsQueryOptions()), queryClient.ensureQueryData(getPlanQueryOptions(params.id!))]).catch(() => null);
+  Promise.all([queryClient.ensureQueryData(getLookupsQueryOptions()), queryClient.ensureQueryData(getPlanQueryOptions(params.id!))]).catch(() => null);
 
 export function Component() {
   const { id } = useParams();
-  const lookups = usePlanLookups();
+  const lookups = useLookups();
   const plan = usePlan(id!);
   const update = useUpdatePlan();
   const navigate = useNavigate();

@@ -2,14 +2,14 @@ import { Link, useNavigate } from 'react-router-dom';
 import { PageTitle } from '../../components/layout/app-shell';
 import { Panel } from '../../components/ui/notice';
 import { PlanForm } from '../../features/plans/components/plan-form';
-import { getPlanLookupsQueryOptions, usePlanLookups } from '../../features/plans/api/get-plan-lookups';
+import { getLookupsQueryOptions, useLookups } from '../../lib/lookups';
 import { useCreatePlan } from '../../features/plans/api/create-plan';
 import { queryClient } from '../../lib/query-client';
 
-export const loader = () => queryClient.ensureQueryData(getPlanLookupsQueryOptions()).catch(() => null);
+export const loader = () => queryClient.ensureQueryData(getLookupsQueryOptions()).catch(() => null);
 
 export function Component() {
-  const lookups = usePlanLookups();
+  const lookups = useLookups();
   const create = useCreatePlan();
   const navigate = useNavigate();
   if (!lookups.data) return <p role="status">Loading…</p>;

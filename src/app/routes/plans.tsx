@@ -4,15 +4,15 @@ import { Panel } from '../../components/ui/notice';
 import { useMe } from '../../features/auth/api/get-me';
 import { PlansTable } from '../../features/plans/components/plans-table';
 import { StartersPanel } from '../../features/plans/components/starters-panel';
-import { getPlanLookupsQueryOptions, usePlanLookups } from '../../features/plans/api/get-plan-lookups';
+import { getLookupsQueryOptions, useLookups } from '../../lib/lookups';
 import { queryClient } from '../../lib/query-client';
 import { can } from '../../../shared/permissions';
 
-export const loader = () => queryClient.ensureQueryData(getPlanLookupsQueryOptions()).catch(() => null);
+export const loader = () => queryClient.ensureQueryData(getLookupsQueryOptions()).catch(() => null);
 
 export function Component() {
   const { data: me } = useMe();
-  const lookups = usePlanLookups();
+  const lookups = useLookups();
   if (!me) return null;
   const manage = can(me.role, 'plans.manage');
   return (

@@ -1,7 +1,7 @@
 import { PageTitle } from '../../components/layout/app-shell';
 import { Notice } from '../../components/ui/notice';
 import { useMe } from '../../features/auth/api/get-me';
-import { ChainCheck, Compliance, SignOffAudit } from '../../features/safety/components/audit';
+import { ChainCheck, Compliance, SignOffAudit } from '../../features/safety/components/safety-audit';
 import { can } from '../../../shared/permissions';
 
 export function Component() {

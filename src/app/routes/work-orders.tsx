@@ -6,11 +6,11 @@ import { Button } from '../../components/ui/button';
 import { useMe } from '../../features/auth/api/get-me';
 import { WorkOrdersTable } from '../../features/work-orders/components/work-orders-table';
 import { RaiseWorkForm } from '../../features/work-orders/components/raise-work-form';
-import { getWorkLookupsQueryOptions } from '../../features/work-orders/api/get-work-lookups';
+import { getLookupsQueryOptions } from '../../lib/lookups';
 import { queryClient } from '../../lib/query-client';
 import { can } from '../../../shared/permissions';
 
-export const loader = () => queryClient.ensureQueryData(getWorkLookupsQueryOptions()).catch(() => null);
+export const loader = () => queryClient.ensureQueryData(getLookupsQueryOptions()).catch(() => null);
 
 export function Component() {
   const { data: me } = useMe();

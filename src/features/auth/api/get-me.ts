@@ -1,6 +1,7 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
 import { api, ApiError } from '../../../lib/api-client';
 import type { Me } from '../../../../shared/schemas/auth';
+import { authKeys } from './keys';
 
 /** The signed-in person, or null when nobody is signed in. */
 export async function getMe(): Promise<Me | null> {
@@ -12,6 +13,6 @@ export async function getMe(): Promise<Me | null> {
   }
 }
 
-export const getMeQueryOptions = () => queryOptions({ queryKey: ['auth', 'me'], queryFn: getMe, staleTime: 60_000 });
+export const getMeQueryOptions = () => queryOptions({ queryKey: authKeys.me(), queryFn: getMe, staleTime: 60_000 });
 
 export const useMe = () => useQuery(getMeQueryOptions());

@@ -2,7 +2,7 @@ import { useRef, useState } from 'react';
 import { Button } from '../../../components/ui/button';
 import { Notice } from '../../../components/ui/notice';
 import { ConfirmDialog } from '../../../components/ui/confirm-dialog';
-import { useMe } from '../../auth/api/get-me';
+import { shopFormatter } from '../../../lib/format';
 import { useCalendarFeed } from '../api/get-calendar-feed';
 import { useCreateCalendarFeed } from '../api/create-calendar-feed';
 import { useRevokeCalendarFeed } from '../api/revoke-calendar-feed';
@@ -18,11 +18,10 @@ export function CalendarFeedPanel() {
   const [error, setError] = useState<string | null>(null);
   const [copyHint, setCopyHint] = useState<string | null>(null);
   const addressRef = useRef<HTMLInputElement>(null);
-  const { data: me } = useMe();
   if (q.isError) return <Notice tone="danger" role="alert">Could not load your calendar feed: {q.error.message}</Notice>;
   if (!q.data) return <p role="status">Loading…</p>;
   // Site time, like every other time in Kerfbook, not the browser's zone.
-  const fmt = new Intl.DateTimeFormat('en-GB', { dateStyle: 'medium', timeStyle: 'short', timeZone: me?.organization.timeZone });
+  const fmt = shopFormatter({ dateStyle: 'medium', timeStyle: 'short' });
   const make = async () => {
     setConfirm(null);
     setError(null);

@@ -2,11 +2,13 @@ import { useMutation, useQueryClient } from '@tanstack/react-query';
 import type { z } from 'zod';
 import { api } from '../../../lib/api-client';
 import type { CutCheckRow, cutCheckSchema } from '../../../../shared/schemas/consumables';
+import { queryRoots } from '../../../lib/query-keys';
+import { cutCheckKeys } from './keys';
 
 export const recordCutCheck = (input: z.input<typeof cutCheckSchema>) => api<CutCheckRow>('/cut-checks', { method: 'POST', body: input });
 
 /** The station page suggests a change after a failed coupon. */
 export function useRecordCutCheck() {
   const qc = useQueryClient();
-  return useMutation({ mutationFn: recordCutCheck, onSuccess: () => Promise.all([qc.invalidateQueries({ queryKey: ['cut-checks'] }), qc.invalidateQueries({ queryKey: ['stations'] })]) });
+  return useMutation({ mutationFn: recordCutCheck, onSuccess: () => Promise.all([qc.invalidateQueries({ queryKey: cutCheckKeys.all }), qc.invalidateQueries({ queryKey: queryRoots.station })]) });
 }

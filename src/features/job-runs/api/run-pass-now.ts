@@ -1,6 +1,8 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { api } from '../../../lib/api-client';
 import type { RunNowResult } from '../../../../shared/schemas/job-runs';
+import { queryRoots } from '../../../lib/query-keys';
+import { jobRunKeys } from './keys';
 
 export const runPassNow = () => api<RunNowResult>('/job-runs', { method: 'POST', body: {} });
 
@@ -10,6 +12,6 @@ export function useRunPassNow() {
   return useMutation({
     mutationFn: runPassNow,
     onSettled: () =>
-      Promise.all([qc.invalidateQueries({ queryKey: ['job-runs'] }), qc.invalidateQueries({ queryKey: ['work-orders'] }), qc.invalidateQueries({ queryKey: ['plans'] })]),
+      Promise.all([qc.invalidateQueries({ queryKey: jobRunKeys.all }), qc.invalidateQueries({ queryKey: queryRoots.workOrders }), qc.invalidateQueries({ queryKey: queryRoots.plans })]),
   });
 }

@@ -1,13 +1,12 @@
 import { queryOptions, useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import { api } from '../../../lib/api-client';
 import type { MachinePhotoRow } from '../../../../shared/schemas/machines';
-
-const key = (machineId: string) => ['machines', 'photos', machineId] as const;
+import { machineKeys } from './keys';
 
 export const machinePhotoUrl = (machineId: string, photoId: string) => `/api/machines/${machineId}/photos/${photoId}`;
 
 export const getMachinePhotos = (machineId: string) => api<MachinePhotoRow[]>(`/machines/${machineId}/photos`);
-export const getMachinePhotosQueryOptions = (machineId: string) => queryOptions({ queryKey: key(machineId), queryFn: () => getMachinePhotos(machineId) });
+export const getMachinePhotosQueryOptions = (machineId: string) => queryOptions({ queryKey: machineKeys.photos(machineId), queryFn: () => getMachinePhotos(machineId) });
 export const useMachinePhotos = (machineId: string) => useQuery(getMachinePhotosQueryOptions(machineId));
 
 export function useUploadMachinePhoto(machineId: string) {
@@ -19,7 +18,7 @@ export function useUploadMachinePhoto(machineId: string) {
       form.set('photo', file);
       return api<{ id: string }>(`/machines/${machineId}/photos`, { method: 'POST', body: form });
     },
-    onSuccess: () => qc.invalidateQueries({ queryKey: key(machineId) }),
+    onSuccess: () => qc.invalidateQueries({ queryKey: machineKeys.photos(machineId) }),
   });
 }
 
@@ -27,6 +26,6 @@ export function useDeleteMachinePhoto(machineId: string) {
   const qc = useQueryClient();
   return useMutation({
     mutationFn: (photoId: string) => api<{ ok: true }>(`/machines/${machineId}/photos/${photoId}`, { method: 'DELETE' }),
-    onSuccess: () => qc.invalidateQueries({ queryKey: key(machineId) }),
+    onSuccess: () => qc.invalidateQueries({ queryKey: machineKeys.photos(machineId) }),
   });
 }

@@ -5,6 +5,7 @@ import { Notice } from '../../../components/ui/notice';
 import { ConfirmDialog } from '../../../components/ui/confirm-dialog';
 import { machinePhotoUrl, useDeleteMachinePhoto, useMachinePhotos, useUploadMachinePhoto } from '../api/machine-photos';
 import type { MachinePhotoRow } from '../../../../shared/schemas/machines';
+import { PHOTO_MAX_BYTES, PHOTO_TYPES, megabytes } from '../../../../shared/schemas/photos';
 
 const altOf = (code: string, p: MachinePhotoRow, i: number) => p.caption ? `${code}: ${p.caption}` : `${code}, photo ${i + 1} (no caption)`;
 
@@ -49,8 +50,8 @@ export function MachinePhotos({ machineId, code, canManage }: { machineId: strin
       {canManage ? (
         <form onSubmit={submit} className="space-y-3" aria-label={`Add a photo of ${code}`}>
           <div>
-            <label htmlFor={`photo-${machineId}`} className="block font-semibold">Photo (JPEG, PNG or WebP, at most 8 MB)</label>
-            <input id={`photo-${machineId}`} ref={fileRef} type="file" accept="image/jpeg,image/png,image/webp" required className="min-h-touch" />
+            <label htmlFor={`photo-${machineId}`} className="block font-semibold">Photo (JPEG, PNG or WebP, at most {megabytes(PHOTO_MAX_BYTES)} MB)</label>
+            <input id={`photo-${machineId}`} ref={fileRef} type="file" accept={PHOTO_TYPES.join(',')} required className="min-h-touch" />
           </div>
           <TextField label="Caption (optional, used as the description for screen readers)" value={caption} maxLength={200} onChange={(e) => setCaption(e.target.value)} />
           {upload.isError ? <Notice tone="danger" role="alert">{upload.error.message}</Notice> : null}

@@ -1,6 +1,8 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { ApiError } from '../../../lib/api-client';
 import type { ImportPreview, ImportResult, ImportStreamLine } from '../../../../shared/schemas/counter-import';
+import { queryRoots } from '../../../lib/query-keys';
+import { meterKeys } from './keys';
 
 export type UploadProgress = { phase: 'uploading' | 'reading' | 'checking' | 'writing'; done: number; total: number };
 
@@ -71,6 +73,6 @@ export function useImportCounterCsv() {
   const qc = useQueryClient();
   return useMutation({
     mutationFn: ({ file, onProgress }: { file: File; onProgress: (p: UploadProgress) => void }) => importCounterCsv(file, onProgress),
-    onSuccess: () => Promise.all([qc.invalidateQueries({ queryKey: ['meters'] }), qc.invalidateQueries({ queryKey: ['machines'] }), qc.invalidateQueries({ queryKey: ['stations'] })]),
+    onSuccess: () => Promise.all([qc.invalidateQueries({ queryKey: meterKeys.all }), qc.invalidateQueries({ queryKey: queryRoots.machines }), qc.invalidateQueries({ queryKey: queryRoots.station })]),
   });
 }

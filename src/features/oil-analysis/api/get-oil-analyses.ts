@@ -1,13 +1,14 @@
 import { keepPreviousData, queryOptions, useQuery } from '@tanstack/react-query';
 import { api } from '../../../lib/api-client';
 import type { ListOilAnalysesQuery, OilAnalysisRow } from '../../../../shared/schemas/oil-analysis';
-import type { Page } from '../../../../shared/schemas/users';
+import { oilAnalysisKeys } from './keys';
+import type { Page } from '../../../../shared/schemas/paging';
 
 export type OilFilters = { machineId?: string; page: number; pageSize: number; sort?: ListOilAnalysesQuery['sort']; dir?: ListOilAnalysesQuery['dir'] };
 
 export const getOilAnalyses = (f: OilFilters) => api<Page<OilAnalysisRow>>('/oil-analyses', { query: f });
 
 export const getOilAnalysesQueryOptions = (f: OilFilters) =>
-  queryOptions({ queryKey: ['oil-analysis', 'list', f], queryFn: () => getOilAnalyses(f), placeholderData: keepPreviousData });
+  queryOptions({ queryKey: oilAnalysisKeys.list(f), queryFn: () => getOilAnalyses(f), placeholderData: keepPreviousData });
 
 export const useOilAnalyses = (f: OilFilters) => useQuery(getOilAnalysesQueryOptions(f));

@@ -5,7 +5,7 @@ import { DataTable } from '../../../components/ui/data-table';
 import { Badge, EmptyState, Notice } from '../../../components/ui/notice';
 import { DUE_STATES, DUE_STATE_LABELS, type DueState, type ListPlansQuery, type PlanRow } from '../../../../shared/schemas/plans';
 import { usePlans } from '../api/get-plans';
-import { usePlanLookups } from '../api/get-plan-lookups';
+import { useLookups } from '../../../lib/lookups';
 import { PlanDueBadge } from './plan-badges';
 import { formatWhen, relative } from './format';
 
@@ -13,7 +13,7 @@ const col = createColumnHelper<PlanRow>();
 const filterClass = 'min-h-touch rounded border border-steel-400 bg-white px-3 font-normal';
 
 export function PlansTable({ timeZone, machineId: fixedMachine }: { timeZone: string; machineId?: string }) {
-  const lookups = usePlanLookups();
+  const lookups = useLookups();
   const [page, setPage] = useState(1);
   const [sorting, setSorting] = useState<SortingState>([{ id: 'nextDueAt', desc: false }]);
   const [q, setQ] = useState('');

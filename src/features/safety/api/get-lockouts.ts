@@ -1,8 +1,8 @@
 import { keepPreviousData, queryOptions, useQuery } from '@tanstack/react-query';
 import { api } from '../../../lib/api-client';
 import type { ListLockoutsQuery, LockoutRow } from '../../../../shared/schemas/safety-lockout';
-import type { Page } from '../../../../shared/schemas/users';
 import { safetyKeys } from './keys';
+import type { Page } from '../../../../shared/schemas/paging';
 
 export type LockoutFilters = Partial<ListLockoutsQuery> & { page: number; pageSize: number };
 export const getLockoutsQueryOptions = (f: LockoutFilters) =>

@@ -1,8 +1,8 @@
 import { keepPreviousData, queryOptions, useQuery } from '@tanstack/react-query';
 import { api } from '../../../lib/api-client';
 import type { ListSignOffsQuery, SignOffRow } from '../../../../shared/schemas/safety-sign-offs';
-import type { Page } from '../../../../shared/schemas/users';
 import { safetyKeys } from './keys';
+import type { Page } from '../../../../shared/schemas/paging';
 
 export type SignOffFilters = Partial<ListSignOffsQuery> & { page: number; pageSize: number };
 export const getSignOffsQueryOptions = (f: SignOffFilters) =>

@@ -1,8 +1,9 @@
 import { useQueryClient } from '@tanstack/react-query';
+import { queryRoots } from '../../../lib/query-keys';
 
 /** Every safety query key starts with 'safety', so one invalidation refreshes the whole log after a signature. */
 export const safetyKeys = {
-  all: ['safety'] as const,
+  all: queryRoots.safety,
   machines: () => ['safety', 'machines'] as const,
   people: () => ['safety', 'people'] as const,
   settings: () => ['safety', 'settings'] as const,
@@ -32,5 +33,5 @@ export function useInvalidateSafety() {
  */
 export function useInvalidateSafetyAndWorkOrders() {
   const qc = useQueryClient();
-  return () => Promise.all([qc.invalidateQueries({ queryKey: safetyKeys.all }), qc.invalidateQueries({ queryKey: ['work-orders'] })]);
+  return () => Promise.all([qc.invalidateQueries({ queryKey: safetyKeys.all }), qc.invalidateQueries({ queryKey: queryRoots.workOrders })]);
 }

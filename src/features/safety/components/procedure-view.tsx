@@ -7,12 +7,13 @@ import { WorkCaution } from '../../../components/ui/caution';
 import { ApiError } from '../../../lib/api-client';
 import { paths } from '../../../config/paths';
 import { can, type Role } from '../../../../shared/permissions';
-import { ENERGY_KIND_LABELS, PHASE_LABELS, PROCEDURE_PHASES, PHOTO_MAX_BYTES, type ProcedureDetail, type VersionDetail } from '../../../../shared/schemas/safety-procedures';
+import { ENERGY_KIND_LABELS, PHASE_LABELS, PROCEDURE_PHASES, type ProcedureDetail, type VersionDetail } from '../../../../shared/schemas/safety-procedures';
 import { useApproveVersion } from '../api/approve-version';
 import { useUploadPhoto } from '../api/upload-photo';
 import { useDeletePhoto } from '../api/delete-photo';
 import { useSignFlow } from './sign-dialog';
 import { fmtDateTime } from './format';
+import { PHOTO_TYPES, PROCEDURE_PHOTO_MAX_BYTES, megabytes } from '../../../../shared/schemas/photos';
 
 const statusTone = { draft: 'caution', approved: 'safe', superseded: 'info' } as const;
 
@@ -183,9 +184,9 @@ export function ProcedureView({ p, me, timeZone, viewingVersion }: { p: Procedur
                   <SelectField label="Isolation point" value={photoKey} onChange={(e) => setPhotoKey(e.target.value)} options={[{ value: '', label: 'Choose' }, ...draft.content.sources.map((s) => ({ value: s.key, label: s.key }))]} />
                   <div className="space-y-1">
                     <label htmlFor="photo-file" className="block text-sm font-semibold">
-                      Photo (JPEG, PNG or WebP, up to {PHOTO_MAX_BYTES / 1024 / 1024} MB)
+                      Photo (JPEG, PNG or WebP, up to {megabytes(PROCEDURE_PHOTO_MAX_BYTES)} MB)
                     </label>
-                    <input id="photo-file" type="file" accept="image/jpeg,image/png,image/webp" className="block min-h-touch w-full text-sm" onChange={(e) => setFile(e.target.files?.[0] ?? null)} />
+                    <input id="photo-file" type="file" accept={PHOTO_TYPES.join(',')} className="block min-h-touch w-full text-sm" onChange={(e) => setFile(e.target.files?.[0] ?? null)} />
                   </div>
                   <TextField label="Caption (optional)" value={caption} onChange={(e) => setCaption(e.target.value)} />
                   <Button

@@ -1,6 +1,7 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
 import { api } from '../../../lib/api-client';
 import type { MachineRow } from '../../../../shared/schemas/machines';
+import { stationKeys } from './keys';
 
 export type StationLink = { code: string; name: string; location: string | null };
 
@@ -19,6 +20,6 @@ export async function getStations(): Promise<StationLink[]> {
   return [...top.values()].filter((m) => wanted.has(m.id)).map((m) => ({ code: m.code, name: m.name, location: m.location }));
 }
 
-export const getStationsQueryOptions = () => queryOptions({ queryKey: ['stations', 'list'], queryFn: getStations });
+export const getStationsQueryOptions = () => queryOptions({ queryKey: stationKeys.list(), queryFn: getStations });
 
 export const useStations = () => useQuery(getStationsQueryOptions());

@@ -2,6 +2,8 @@ import { useMutation, useQueryClient } from '@tanstack/react-query';
 import type { z } from 'zod';
 import { api } from '../../../lib/api-client';
 import type { consumableChangeSchema } from '../../../../shared/schemas/consumables';
+import { queryRoots } from '../../../lib/query-keys';
+import { stationKeys } from './keys';
 
 export type LogChangeInput = z.input<typeof consumableChangeSchema> & { photo?: File | null };
 
@@ -19,6 +21,6 @@ export function useLogChange() {
   const qc = useQueryClient();
   return useMutation({
     mutationFn: logChange,
-    onSuccess: () => Promise.all([qc.invalidateQueries({ queryKey: ['stations'] }), qc.invalidateQueries({ queryKey: ['stock'] }), qc.invalidateQueries({ queryKey: ['meters'] }), qc.invalidateQueries({ queryKey: ['consumables'] })]),
+    onSuccess: () => Promise.all([qc.invalidateQueries({ queryKey: stationKeys.all }), qc.invalidateQueries({ queryKey: queryRoots.stock }), qc.invalidateQueries({ queryKey: queryRoots.meters }), qc.invalidateQueries({ queryKey: queryRoots.consumableLife })]),
   });
 }

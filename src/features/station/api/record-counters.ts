@@ -2,10 +2,12 @@ import { useMutation, useQueryClient } from '@tanstack/react-query';
 import type { z } from 'zod';
 import { api } from '../../../lib/api-client';
 import type { readingBatchSchema } from '../../../../shared/schemas/machines';
+import { queryRoots } from '../../../lib/query-keys';
+import { stationKeys } from './keys';
 
 export const recordCounters = (input: z.input<typeof readingBatchSchema>) => api<{ ids: string[] }>('/meter-readings', { method: 'POST', body: input });
 
 export function useRecordCounters() {
   const qc = useQueryClient();
-  return useMutation({ mutationFn: recordCounters, onSuccess: () => Promise.all([qc.invalidateQueries({ queryKey: ['stations'] }), qc.invalidateQueries({ queryKey: ['meters'] }), qc.invalidateQueries({ queryKey: ['punch-tools'] })]) });
+  return useMutation({ mutationFn: recordCounters, onSuccess: () => Promise.all([qc.invalidateQueries({ queryKey: stationKeys.all }), qc.invalidateQueries({ queryKey: queryRoots.meters }), qc.invalidateQueries({ queryKey: queryRoots.punchTools })]) });
 }

@@ -11,7 +11,8 @@ import { TextField } from '../../../components/ui/field';
 import { Notice } from '../../../components/ui/notice';
 import { applyServerErrors } from '../../../lib/form-errors';
 import { useLogChange } from '../api/log-change';
-import { formatQty } from '../../stock/components/format';
+import { formatQty } from '../../../lib/format-quantity';
+import { CHANGE_PHOTO_TYPES, PHOTO_MAX_BYTES, megabytes } from '../../../../shared/schemas/photos';
 
 type In = z.input<typeof consumableChangeSchema>;
 type Out = z.output<typeof consumableChangeSchema>;
@@ -150,8 +151,8 @@ export function ChangeForm({ torch, parts, pitLimit, onDone, onCancel }: { torch
             </div>
           ) : null}
           <label className="flex flex-col gap-1 text-sm font-semibold text-steel-800">
-            Photo (optional, image up to 8 MB)
-            <input type="file" accept="image/*" capture="environment" className="min-h-touch rounded border border-steel-400 bg-white p-2 font-normal" onChange={(ev) => setPhoto(ev.target.files?.[0] ?? null)} />
+            Photo (optional, image up to {megabytes(PHOTO_MAX_BYTES)} MB)
+            <input type="file" accept={CHANGE_PHOTO_TYPES.join(',')} capture="environment" className="min-h-touch rounded border border-steel-400 bg-white p-2 font-normal" onChange={(ev) => setPhoto(ev.target.files?.[0] ?? null)} />
           </label>
           {categories.map((c) => (
             <div key={c} className="space-y-1">

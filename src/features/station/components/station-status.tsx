@@ -1,7 +1,7 @@
 import { Link } from 'react-router-dom';
 import type { StationDueRow, StationLockout } from '../../../../shared/schemas/consumables';
 import { WORK_STATE_LABELS } from '../../../../shared/schemas/work-orders';
-import { DueBadge, LockoutBadge } from '../../work-orders/components/work-badges';
+import { DueBadge, LockoutBadge } from '../../../components/ui/work-badges';
 import { paths } from '../../../config/paths';
 import { shopFormatter } from '../../../lib/format';
 

@@ -3,7 +3,7 @@ import type { PartOption, ReferenceValue, TorchStation } from '../../../../share
 import { LIFE_UNIT_LABELS, PART_CATEGORY_LABELS } from '../../../../shared/schemas/stock';
 import { Button } from '../../../components/ui/button';
 import { Notice } from '../../../components/ui/notice';
-import { formatQty } from '../../stock/components/format';
+import { formatQty } from '../../../lib/format-quantity';
 import { LifeBar } from './life-bar';
 import { ChangeForm } from './change-form';
 import { shopFormatter } from '../../../lib/format';

@@ -3,7 +3,7 @@ import { Panel, Notice } from '../../../components/ui/notice';
 import { usePartTypes } from '../api/get-part-types';
 import { PART_CATEGORY_LABELS } from '../../../../shared/schemas/stock';
 import { paths } from '../../../config/paths';
-import { formatQty } from './format';
+import { formatQty } from '../../../lib/format-quantity';
 
 /** Parts at or below their reorder point, for the home pages. */
 export function LowStockPanel() {

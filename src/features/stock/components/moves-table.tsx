@@ -4,7 +4,7 @@ import { DataTable } from '../../../components/ui/data-table';
 import { EmptyState, Notice } from '../../../components/ui/notice';
 import type { StockMoveRow } from '../../../../shared/schemas/stock';
 import { useStockMoves } from '../api/get-stock-moves';
-import { formatQty, unitFor } from './format';
+import { formatQty, unitFor } from '../../../lib/format-quantity';
 import { shopFormatter } from '../../../lib/format';
 
 const col = createColumnHelper<StockMoveRow>();

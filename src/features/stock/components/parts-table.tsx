@@ -3,7 +3,7 @@ import { DataTable } from '../../../components/ui/data-table';
 import { Badge, EmptyState } from '../../../components/ui/notice';
 import { Button } from '../../../components/ui/button';
 import { LIFE_UNIT_LABELS, PART_CATEGORY_LABELS, type PartTypeRow } from '../../../../shared/schemas/stock';
-import { formatMoney, formatQty } from './format';
+import { formatMoney, formatQty } from '../../../lib/format-quantity';
 
 const col = createColumnHelper<PartTypeRow>();
 const dec = new Intl.NumberFormat(undefined, { maximumFractionDigits: 2 });

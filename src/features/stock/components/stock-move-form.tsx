@@ -8,7 +8,7 @@ import { Button } from '../../../components/ui/button';
 import { Notice } from '../../../components/ui/notice';
 import { applyServerErrors } from '../../../lib/form-errors';
 import { useRecordStockMove } from '../api/record-stock-move';
-import { formatQty } from './format';
+import { formatQty } from '../../../lib/format-quantity';
 
 /** The move decides the direction, so people type how many, never a sign. */
 const MOVES = {

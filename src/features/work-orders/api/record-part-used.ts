@@ -1,6 +1,8 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { api } from '../../../lib/api-client';
 import type { UsePartInput } from '../../../../shared/schemas/work-orders';
+import { queryRoots } from '../../../lib/query-keys';
+import { workOrderKeys } from './keys';
 
 export const recordPartUsed = ({ id, ...input }: UsePartInput & { id: string }) => api<{ id: string }>(`/work-orders/${id}/parts`, { method: 'POST', body: input });
 
@@ -9,6 +11,6 @@ export function useRecordPartUsed() {
   const qc = useQueryClient();
   return useMutation({
     mutationFn: recordPartUsed,
-    onSuccess: () => Promise.all([qc.invalidateQueries({ queryKey: ['work-orders'] }), qc.invalidateQueries({ queryKey: ['plan-lookups'] })]),
+    onSuccess: () => Promise.all([qc.invalidateQueries({ queryKey: workOrderKeys.all }), qc.invalidateQueries({ queryKey: queryRoots.lookups })]),
   });
 }

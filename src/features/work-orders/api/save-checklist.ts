@@ -2,6 +2,7 @@ import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { api } from '../../../lib/api-client';
 import type { ChecklistLine, ChecklistResultsInput, WorkOrderDetail } from '../../../../shared/schemas/work-orders';
 import { getWorkOrderQueryOptions } from './get-work-order';
+import { workOrderKeys } from './keys';
 
 export const saveChecklist = ({ id, ...input }: ChecklistResultsInput & { id: string }) =>
   api<{ checklist: ChecklistLine[] }>(`/work-orders/${id}/checklist`, { method: 'PUT', body: input });
@@ -35,6 +36,6 @@ export function useSaveChecklist() {
     onError: (_err, _vars, ctx) => {
       if (ctx?.before) qc.setQueryData(ctx.key, ctx.before);
     },
-    onSettled: () => qc.invalidateQueries({ queryKey: ['work-orders'] }),
+    onSettled: () => qc.invalidateQueries({ queryKey: workOrderKeys.all }),
   });
 }

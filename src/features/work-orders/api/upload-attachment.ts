@@ -1,5 +1,6 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { api } from '../../../lib/api-client';
+import { workOrderKeys } from './keys';
 
 export const uploadAttachment = ({ id, file }: { id: string; file: File }) => {
   const body = new FormData();
@@ -9,5 +10,5 @@ export const uploadAttachment = ({ id, file }: { id: string; file: File }) => {
 
 export function useUploadAttachment() {
   const qc = useQueryClient();
-  return useMutation({ mutationFn: uploadAttachment, onSuccess: () => qc.invalidateQueries({ queryKey: ['work-orders'] }) });
+  return useMutation({ mutationFn: uploadAttachment, onSuccess: () => qc.invalidateQueries({ queryKey: workOrderKeys.all }) });
 }

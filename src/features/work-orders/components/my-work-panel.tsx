@@ -1,7 +1,7 @@
 import { Link } from 'react-router-dom';
 import { Panel, EmptyState, Notice } from '../../../components/ui/notice';
 import { useWorkOrders } from '../api/get-work-orders';
-import { DueBadge, LockoutBadge } from './work-badges';
+import { DueBadge, LockoutBadge } from '../../../components/ui/work-badges';
 import { formatWhen, relative } from './format';
 
 /** The home page's short list: my open work, most pressing first. */

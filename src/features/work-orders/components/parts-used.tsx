@@ -9,7 +9,7 @@ import { SelectField, TextField } from '../../../components/ui/field';
 import { applyServerErrors } from '../../../lib/form-errors';
 import { useRecordPartUsed } from '../api/record-part-used';
 import { useReturnPart } from '../api/return-part';
-import { useWorkLookups } from '../api/get-work-lookups';
+import { useLookups } from '../../../lib/lookups';
 import { formatWhen } from './format';
 
 type In = z.input<typeof usePartInput>;
@@ -19,7 +19,7 @@ type Out = z.output<typeof usePartInput>;
 export function PartsUsed({ wo, timeZone, readOnly }: { wo: WorkOrderDetail; timeZone: string; readOnly: boolean }) {
   const record = useRecordPartUsed();
   const giveBack = useReturnPart();
-  const lookups = useWorkLookups();
+  const lookups = useLookups();
   const [message, setMessage] = useState<{ tone: 'danger' | 'safe'; text: string } | null>(null);
   const { register, handleSubmit, setError, formState, reset, setValue } = useForm<In, unknown, Out>({ resolver: zodResolver(usePartInput), defaultValues: { partTypeId: '', quantity: 1 } });
   const parts = lookups.data?.parts ?? [];

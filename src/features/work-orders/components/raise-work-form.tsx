@@ -9,7 +9,7 @@ import { Button } from '../../../components/ui/button';
 import { Notice } from '../../../components/ui/notice';
 import { applyServerErrors } from '../../../lib/form-errors';
 import { useRaiseWorkOrder } from '../api/raise-work-order';
-import { useWorkLookups } from '../api/get-work-lookups';
+import { useLookups } from '../../../lib/lookups';
 import { fromShopLocal, inputClass } from './format';
 
 type In = z.input<typeof raiseWorkOrderInput>;
@@ -18,7 +18,7 @@ type Out = z.output<typeof raiseWorkOrderInput>;
 /** Report a fault or ask for repair work by hand. */
 export function RaiseWorkForm({ onRaised, defaultMachineId, defaultInstructions, timeZone }: { onRaised: (r: { id: string; number: number }) => void; defaultMachineId?: string; defaultInstructions?: string; timeZone: string }) {
   const raise = useRaiseWorkOrder();
-  const lookups = useWorkLookups();
+  const lookups = useLookups();
   const [formError, setFormError] = useState<string | null>(null);
   const [dueLocal, setDueLocal] = useState('');
   const { register, handleSubmit, setError, formState } = useForm<In, unknown, Out>({

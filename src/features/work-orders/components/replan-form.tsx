@@ -4,14 +4,14 @@ import { ROLE_LABELS } from '../../../../shared/permissions';
 import { Button } from '../../../components/ui/button';
 import { Notice } from '../../../components/ui/notice';
 import { useUpdateWorkOrder } from '../api/update-work-order';
-import { useWorkLookups } from '../api/get-work-lookups';
+import { useLookups } from '../../../lib/lookups';
 import { fromShopLocal, inputClass, toShopLocal } from './format';
 
 
 /** Name who does the work and when it is needed by. */
 export function ReplanForm({ wo, timeZone }: { wo: WorkOrderDetail; timeZone: string }) {
   const update = useUpdateWorkOrder();
-  const lookups = useWorkLookups();
+  const lookups = useLookups();
   const [assignee, setAssignee] = useState(wo.assignee?.id ?? '');
   const [due, setDue] = useState(toShopLocal(wo.dueAt, timeZone));
   const [message, setMessage] = useState<{ tone: 'danger' | 'safe'; text: string } | null>(null);

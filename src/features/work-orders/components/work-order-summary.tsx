@@ -4,7 +4,7 @@ import { WorkCaution } from '../../../components/ui/caution';
 import { ROLE_LABELS } from '../../../../shared/permissions';
 import type { WorkOrderDetail } from '../../../../shared/schemas/work-orders';
 import { paths } from '../../../config/paths';
-import { DueBadge, KindBadge, LockoutBadge, SafetyWorkBadge, StateBadge } from './work-badges';
+import { DueBadge, KindBadge, LockoutBadge, SafetyWorkBadge, StateBadge } from '../../../components/ui/work-badges';
 import { formatWhen, relative } from './format';
 
 /** What the work is, where, when, and what must be in place before anyone starts. */

@@ -6,9 +6,9 @@ import { EmptyState, Notice } from '../../../components/ui/notice';
 import { DUE_FILTERS, DUE_FILTER_LABELS, WORK_KIND_LABELS, WORK_STATES, WORK_STATE_LABELS, type ListWorkOrdersQuery, type WorkOrderRow } from '../../../../shared/schemas/work-orders';
 import { ROLE_LABELS } from '../../../../shared/permissions';
 import { useWorkOrders } from '../api/get-work-orders';
-import { useWorkLookups } from '../api/get-work-lookups';
+import { useLookups } from '../../../lib/lookups';
 import { usePlanOptions } from '../api/get-plan-options';
-import { DueBadge, LockoutBadge, StateBadge } from './work-badges';
+import { DueBadge, LockoutBadge, StateBadge } from '../../../components/ui/work-badges';
 import { formatWhen, relative } from './format';
 
 const col = createColumnHelper<WorkOrderRow>();
@@ -33,7 +33,7 @@ export function WorkOrdersTable({
   defaultStatus?: 'active' | 'any';
 }) {
   const [params, setParams] = useSearchParams();
-  const lookups = useWorkLookups();
+  const lookups = useLookups();
   const plans = usePlanOptions();
   const get = (k: string) => params.get(k) ?? '';
   const page = Number(params.get('page') ?? '1') || 1;

@@ -1,0 +1,291 @@
+import type { EntityManager } from '@mikro-orm/postgresql';
+import { LockMode } from '@mikro-orm/core';
+import { fileTypeFromBuffer } from 'file-type';
+import { ConsumableChange, ConsumableInstall, ConsumablePhoto, CutCheck } from './consumable.entity';
+import { Machine, type IMachine } from '../machines/machine.entity';
+import { Meter, type IMeter } from '../meters/meter.entity';
+import { PartType } from '../stock/stock.entity';
+import { Organization, type OrgSettings } from '../organizations/organization.entity';
+import { applyStockChanges } from '../stock/stock.service';
+import { latestReadings, meterRow, neighbours, readingsSince, recordReading } from '../meters/meters.service';
+import { machineByCode, metersOf, subtreeIds } from '../machines/machines.service';
+import { listTools } from '../punch-tools/punch-tools.service';
+import { stationStatus } from './station-status';
+import type { Principal } from '../../http/principal';
+import { AppError, fieldError, notFound } from '../../http/errors';
+import { recordActivity } from '../activity-log/activity-log.service';
+import { advanceSince } from '../../../shared/domain/meters';
+import { lifeFraction, referenceValues } from '../../../shared/domain/consumables';
+import { PART_CATEGORY_LABELS, TORCH_CATEGORIES, type TorchCategory } from '../../../shared/schemas/stock';
+import { type ChangeRow, type ConsumableChangeInput, type ConsumableSettingsInput, type InstalledPart, type StationView, type TorchStation } from '../../../shared/schemas/consumables';
+import type { MeterRow } from '../../../shared/schemas/machines';
+import { clock } from '../../../shared/clock';
+import type { Page } from '../../../shared/schemas/paging';
+import { CHANGE_PHOTO_TYPES } from '../../../shared/schemas/photos';
+
+const article = (noun: string) => `${/^[aeiou]/i.test(noun) ? 'an' : 'a'} ${noun.toLowerCase()}`;
+
+export type TorchMeters = { starts: IMeter | null; arcHours: IMeter | null };
+
+/**
+ * The counters a torch's consumables wear by: a count meter in starts and a running-time
+ * meter whose code names arc time (e.g. arc-hours), on the torch itself, else on the
+ * machine it belongs to.
+ */
+export async function torchMeters(em: EntityManager, torches: IMachine[]): Promise<Map<string, TorchMeters>> {
+  const ids = [...new Set(torches.flatMap((t) => [t.id, t.parent?.id].filter((x): x is string => !!x)))];
+  const meters = ids.length ? await em.find(Meter, { machine: { $in: ids } }, { orderBy: { code: 'asc' } }) : [];
+  const pick = (machineId: string | undefined, test: (m: IMeter) => boolean) => (machineId ? meters.find((m) => m.machine.id === machineId && test(m)) ?? null : null);
+  const isStarts = (m: IMeter) => m.kind === 'count' && m.unit === 'starts';
+  // Arc time only: a cell's run-hours meter also counts in h but says nothing about the torch.
+  const isArcHours = (m: IMeter) => m.kind === 'running-time' && m.code.includes('arc');
+  const out = new Map<string, TorchMeters>();
+  for (const t of torches) {
+    out.set(t.id, {
+      starts: pick(t.id, isStarts) ?? pick(t.parent?.id, isStarts),
+      arcHours: pick(t.id, isArcHours) ?? pick(t.parent?.id, isArcHours),
+    });
+  }
+  return out;
+}
+
+function settingsOf(org: { settings: OrgSettings }) {
+  return referenceValues(org.settings as never);
+}
+
+/** Advance of a meter from an installation to now (or to `until`), or null without a counter. */
+async function advanceFrom(em: EntityManager, meterId: string | undefined, startValue: number | null | undefined, from: Date, until?: Date): Promise<number | null> {
+  if (!meterId || startValue === null || startValue === undefined) return null;
+  const readings = (await readingsSince(em, meterId, from)).filter((r) => r.at > from && (!until || r.at <= until));
+  return advanceSince(startValue, readings);
+}
+
+async function installedOn(em: EntityManager, torch: IMachine, meters: TorchMeters): Promise<InstalledPart[]> {
+  const open = await em.find(ConsumableInstall, { torch: torch.id, removedAt: null }, { populate: ['partType'] });
+  if (open.length === 0) return [];
+  // One read per meter from the oldest installation still in the torch, shared by all parts.
+  const oldest = new Date(Math.min(...open.map((i) => i.installedAt.getTime())));
+  const startsReadings = meters.starts ? await readingsSince(em, meters.starts.id, oldest) : [];
+  const hoursReadings = meters.arcHours ? await readingsSince(em, meters.arcHours.id, oldest) : [];
+  const since = (list: typeof startsReadings, has: boolean, start: number | null | undefined, from: Date) =>
+    !has || start === null || start === undefined ? null : advanceSince(start, list.filter((r) => r.at > from));
+  const out: InstalledPart[] = [];
+  for (const i of open) {
+    const p = i.partType.getEntity();
+    const startsSince = since(startsReadings, !!meters.starts, i.startsAtInstall, i.installedAt);
+    const arcHoursSince = since(hoursReadings, !!meters.arcHours, i.arcHoursAtInstall, i.installedAt);
+    const used = p.lifeUnit === 'starts' ? startsSince : p.lifeUnit === 'arc-hours' ? arcHoursSince : null;
+    const expected = p.expectedLife ?? null;
+    out.push({
+      installId: i.id,
+      category: i.category,
+      partType: { id: p.id, partNumber: p.partNumber, name: p.name, lifeUnit: p.lifeUnit ?? null, expectedLife: expected, onHand: p.onHand, stockUnit: p.stockUnit },
+      installedAt: i.installedAt.toISOString(),
+      startsSince,
+      arcHoursSince,
+      used,
+      expected,
+      expectedSource: expected !== null ? 'catalogue' : null,
+      fraction: lifeFraction(used, expected),
+    });
+  }
+  return out.sort((a, b) => TORCH_CATEGORIES.indexOf(a.category) - TORCH_CATEGORIES.indexOf(b.category));
+}
+
+function subtreeOf(all: IMachine[], rootId: string): IMachine[] {
+  const ids = new Set(subtreeIds(all, rootId));
+  return all.filter((m) => ids.has(m.id));
+}
+
+/** The machines a component belongs to: a lockout on the cell locks its torch and punch head too. */
+function ancestorsOf(all: IMachine[], machine: IMachine): string[] {
+  const byId = new Map(all.map((m) => [m.id, m]));
+  const out: string[] = [];
+  for (let id = machine.parent?.id; id && !out.includes(id); id = byId.get(id)?.parent?.id) out.push(id);
+  return out;
+}
+
+/** Everything the station page shows for one machine, found by its code. */
+export async function stationView(em: EntityManager, who: Principal, code: string): Promise<StationView> {
+  const machine = await machineByCode(em, code);
+  const org = await em.findOneOrFail(Organization, who.orgId);
+  const all = await em.find(Machine, { active: true });
+  const subtree = subtreeOf(all.some((m) => m.id === machine.id) ? all : [...all, machine], machine.id);
+  const torches = subtree.filter((m) => m.kind === 'torch');
+  const meters = await torchMeters(em, torches);
+  const latest = await latestReadings(em, [...meters.values()].flatMap((m) => [m.starts?.id, m.arcHours?.id].filter((x): x is string => !!x)));
+  const codeOf = new Map(all.map((m) => [m.id, m.code]));
+  const asRow = (m: IMeter | null): MeterRow | null => (m ? meterRow(m, codeOf.get(m.machine.id) ?? '', latest.get(m.id) ?? null) : null);
+
+  const torchViews: TorchStation[] = [];
+  for (const t of torches) {
+    const tm = meters.get(t.id)!;
+    const [lastChange] = await em.find(ConsumableChange, { torch: t.id }, { orderBy: { changedAt: 'desc' }, limit: 1 });
+    const [check] = await em.find(CutCheck, { torch: t.id }, { orderBy: { checkedAt: 'desc' }, limit: 1 });
+    const afterLastChange = !!check && (!lastChange || check.checkedAt >= lastChange.changedAt);
+    torchViews.push({
+      id: t.id,
+      code: t.code,
+      name: t.name,
+      startsMeter: asRow(tm.starts),
+      arcHoursMeter: asRow(tm.arcHours),
+      installed: await installedOn(em, t, tm),
+      lastChangeAt: lastChange?.changedAt.toISOString() ?? null,
+      latestCutCheck: check ? { id: check.id, checkedAt: check.checkedAt.toISOString(), passed: check.passed, maxDeviationMm: check.maxDeviationMm, toleranceMm: check.toleranceMm, afterLastChange } : null,
+      suggestChange: !!check && afterLastChange && !check.passed,
+    });
+  }
+  const parts = await em.find(PartType, { active: true, category: { $in: [...TORCH_CATEGORIES] } }, { orderBy: { partNumber: 'asc' } });
+  const ref = settingsOf(org);
+  return {
+    machine: { id: machine.id, code: machine.code, name: machine.name, kind: machine.kind, location: machine.location ?? null },
+    torches: torchViews,
+    meters: await metersOf(em, subtree.map((m) => m.id)),
+    tools: (await listTools(em, { machineIds: subtree.map((m) => m.id) })).map((t) => ({ id: t.id, code: t.code, name: t.name, stationSize: t.stationSize, hitsSince: t.hitsSince, interval: t.sharpeningIntervalHits, fraction: t.fraction, due: t.due })),
+    partOptions: parts.map((p) => ({ id: p.id, partNumber: p.partNumber, name: p.name, category: p.category, onHand: p.onHand, stockUnit: p.stockUnit })),
+    recentChanges: (await listChanges(em, { torchIds: torches.map((t) => t.id), page: 1, pageSize: 5 })).rows,
+    ...(await stationStatus(em, who.orgId, subtree.map((m) => m.id), ancestorsOf(all, machine))),
+    reference: { pitLimitMm: ref.electrodePitLimitMm, cutToleranceMm: ref.cutToleranceMm, changeReliability: ref.changeTargetReliability },
+  };
+}
+
+/**
+ * The counter value at a change: the one typed in (recorded as a reading when it is new),
+ * else the reading at or before the change. A typed value that breaks the meter's order is
+ * refused on the form field it came from.
+ */
+async function counterAt(em: EntityManager, who: Principal, meter: IMeter | null, typed: number | null, at: Date, field: string, isReset = false): Promise<number | null> {
+  if (!meter) {
+    if (typed !== null) throw fieldError(field, 'This torch has no such meter; leave the field empty');
+    return null;
+  }
+  const { prev } = await neighbours(em, meter.id, at);
+  if (typed === null) return prev?.value ?? null;
+  if (prev && prev.value === typed && !isReset) return typed;
+  try {
+    await recordReading(em, who, meter.id, { value: typed, readAt: at.toISOString(), isReset, note: isReset ? 'At a consumable change; counter reset or replaced' : 'At a consumable change' }, 'consumable-change');
+  } catch (err) {
+    if (err instanceof AppError && err.fields?.[0]?.path === 'value') throw fieldError(field, err.message);
+    throw err;
+  }
+  return typed;
+}
+
+/** Checks an uploaded photo is an image by its content, not its name. */
+export async function checkPhoto(buffer: Buffer): Promise<string> {
+  const type = await fileTypeFromBuffer(buffer);
+  if (!type || !(CHANGE_PHOTO_TYPES as readonly string[]).includes(type.mime)) {
+    throw fieldError('photo', `The photo is not an image we take (JPEG, PNG, WebP, HEIC or AVIF)${type ? `; it looks like ${type.mime}` : ''}`);
+  }
+  return type.mime;
+}
+
+/**
+ * Logs a consumable change in one transaction: records new counters, closes each old
+ * installation with its life (the counter advance since it went in), opens the new ones
+ * and takes the parts out of stock. Anything refused leaves nothing written.
+ */
+export async function logChange(em: EntityManager, who: Principal, input: ConsumableChangeInput, photo?: Buffer): Promise<{ id: string; closed: number; opened: number }> {
+  const mime = photo ? await checkPhoto(photo) : null;
+  return em.transactional(async (tx) => {
+    const torch = await tx.findOne(Machine, { id: input.torchId }, { lockMode: LockMode.PESSIMISTIC_WRITE });
+    if (!torch) throw notFound('Torch');
+    if (torch.kind !== 'torch') throw fieldError('torchId', `${torch.code} is not a torch`);
+    const changedAt = input.changedAt ? new Date(input.changedAt) : clock.now();
+    const meters = (await torchMeters(tx, [torch])).get(torch.id)!;
+    if (input.startsReset && input.startsReading === null) throw fieldError('startsReading', 'Enter the counter as it reads now, after the reset');
+    if (input.arcHoursReset && input.arcHoursReading === null) throw fieldError('arcHoursReading', 'Enter the counter as it reads now, after the reset');
+    const starts = await counterAt(tx, who, meters.starts, input.startsReading, changedAt, 'startsReading', input.startsReset);
+    const arcHours = await counterAt(tx, who, meters.arcHours, input.arcHoursReading, changedAt, 'arcHoursReading', input.arcHoursReset);
+    await tx.flush(); // new readings count in the lives computed below
+
+    const open = await tx.find(ConsumableInstall, { torch: torch.id, removedAt: null, category: { $in: input.categories } });
+    const change = tx.create(ConsumableChange, { organization: who.orgId, torch, changedAt, reason: input.reason, startsReading: starts, arcHoursReading: arcHours, pitDepthMm: input.pitDepthMm, note: input.note, by: who.userId });
+    const taken: string[] = [];
+    for (const category of input.categories as TorchCategory[]) {
+      const label = PART_CATEGORY_LABELS[category];
+      const old = open.find((i) => i.category === category);
+      if (old && old.installedAt > changedAt) throw fieldError('changedAt', `The ${label.toLowerCase()} in the torch went in after this time (${old.installedAt.toISOString().slice(0, 16).replace('T', ' ')} UTC)`);
+      const partTypeId = input.partTypeIds[category] ?? old?.partType.id;
+      if (!partTypeId) throw fieldError(`partTypeIds.${category}`, `Choose which ${label.toLowerCase()} goes in`);
+      const part = await tx.findOne(PartType, { id: partTypeId });
+      if (!part) throw fieldError(`partTypeIds.${category}`, `The ${label.toLowerCase()} part was not found`);
+      if (part.category !== category) throw fieldError(`partTypeIds.${category}`, `${part.partNumber} is ${article(PART_CATEGORY_LABELS[part.category])}, not ${article(label)}`);
+      if (old) {
+        old.removedAt = changedAt;
+        old.removalChange = change as never;
+        old.removalReason = input.reason;
+        old.lifeStarts = await advanceFrom(tx, meters.starts?.id, old.startsAtInstall, old.installedAt, changedAt);
+        old.lifeArcHours = await advanceFrom(tx, meters.arcHours?.id, old.arcHoursAtInstall, old.installedAt, changedAt);
+      }
+      tx.create(ConsumableInstall, { organization: who.orgId, torch, partType: part, category, installedAt: changedAt, installChange: change, startsAtInstall: starts, arcHoursAtInstall: arcHours });
+      taken.push(part.id);
+    }
+    if (input.takeFromStock) {
+      await applyStockChanges(tx, who, taken.map((id) => ({ partTypeId: id, quantity: -1, kind: 'used' as const, reason: `Consumable change on ${torch.code}`, ref: { type: 'ConsumableChange', id: change.id } })));
+    }
+    if (photo && mime) tx.create(ConsumablePhoto, { organization: who.orgId, change, mimeType: mime, byteSize: photo.length, data: photo });
+    recordActivity(tx, who, 'consumable.changed', { type: 'ConsumableChange', id: change.id }, { torch: torch.code, categories: input.categories, reason: input.reason, starts, arcHours, fromStock: input.takeFromStock });
+    return { id: change.id, closed: open.length, opened: taken.length };
+  });
+}
+
+export async function listChanges(em: EntityManager, q: { torchIds?: string[]; page: number; pageSize: number }): Promise<Page<ChangeRow>> {
+  const where = q.torchIds ? { torch: { $in: q.torchIds } } : {};
+  const [changes, total] = await em.findAndCount(ConsumableChange, where, { orderBy: { changedAt: 'desc', id: 'asc' }, limit: q.pageSize, offset: (q.page - 1) * q.pageSize, populate: ['torch', 'by'] });
+  const ids = changes.map((c) => c.id);
+  const installs = ids.length ? await em.find(ConsumableInstall, { installChange: { $in: ids } }, { populate: ['partType'] }) : [];
+  const removed = ids.length ? await em.find(ConsumableInstall, { removalChange: { $in: ids } }) : [];
+  const photos: { change_id: string }[] = ids.length ? await em.execute('select change_id from consumable_photo where change_id = any(?::uuid[])', [`{${ids.join(',')}}`]) : [];
+  const withPhoto = new Set(photos.map((p) => p.change_id));
+  return {
+    rows: changes.map((c) => ({
+      id: c.id,
+      changedAt: c.changedAt.toISOString(),
+      torchCode: c.torch.getEntity().code,
+      reason: c.reason,
+      parts: installs
+        .filter((i) => i.installChange?.id === c.id)
+        .sort((a, b) => TORCH_CATEGORIES.indexOf(a.category) - TORCH_CATEGORIES.indexOf(b.category))
+        .map((i) => {
+          const out = removed.find((r) => r.removalChange?.id === c.id && r.category === i.category);
+          return { category: i.category, partNumber: i.partType.getEntity().partNumber, lifeStarts: out?.lifeStarts ?? null, lifeArcHours: out?.lifeArcHours ?? null };
+        }),
+      startsReading: c.startsReading ?? null,
+      arcHoursReading: c.arcHoursReading ?? null,
+      pitDepthMm: c.pitDepthMm ?? null,
+      by: c.by?.getEntity().name ?? null,
+      hasPhoto: withPhoto.has(c.id),
+      note: c.note ?? null,
+    })),
+    total,
+    page: q.page,
+    pageSize: q.pageSize,
+  };
+}
+
+export async function getPhoto(em: EntityManager, changeId: string) {
+  const photo = await em.findOne(ConsumablePhoto, { change: changeId });
+  if (!photo) throw notFound('Photo');
+  return { mimeType: photo.mimeType, data: photo.data as Buffer };
+}
+
+export async function getConsumableSettings(em: EntityManager, who: Principal) {
+  const org = await em.findOneOrFail(Organization, who.orgId);
+  return settingsOf(org);
+}
+
+export async function updateConsumableSettings(em: EntityManager, who: Principal, input: ConsumableSettingsInput) {
+  return em.transactional(async (tx) => {
+    const org = await tx.findOneOrFail(Organization, who.orgId);
+    const next: OrgSettings = { ...(org.settings ?? {}) };
+    for (const [k, v] of Object.entries(input)) {
+      if (v === undefined) continue;
+      if (v === null) delete next[k];
+      else next[k] = v;
+    }
+    org.settings = next;
+    recordActivity(tx, who, 'settings.consumables-updated', { type: 'Organization', id: org.id }, { ...input });
+    return settingsOf(org);
+  });
+}

@@ -1,0 +1,72 @@
+import { useState } from 'react';
+import { createColumnHelper, type SortingState } from '@tanstack/react-table';
+import { DataTable } from '../../../components/ui/data-table';
+import { EmptyState, Notice } from '../../../components/ui/notice';
+import { useActivityLog, type ActivityRow } from '../api/get-activity-log';
+import { formatWhen } from '../../../lib/format';
+
+const col = createColumnHelper<ActivityRow>();
+const words = (s: string) => s.replace(/[-_]/g, ' ');
+const capital = (s: string) => `${s.charAt(0).toUpperCase()}${s.slice(1)}`;
+/** 'work-order.closed' → 'Work order: closed' — readable without a label for every action. */
+const describeAction = (action: string) => {
+  const [area, ...rest] = action.split('.');
+  const head = words(area);
+  return rest.length ? `${capital(head)}: ${words(rest.join(' '))}` : head;
+};
+/** 'WorkOrder' with its number → 'Work order 1042'; with a title or name, that; else the kind of record. */
+const describeRecord = (r: ActivityRow) => {
+  const kind = capital(r.entityType.replace(/([a-z])([A-Z])/g, '$1 $2').toLowerCase());
+  const d = r.details ?? {};
+  const label = typeof d.number === 'number' ? String(d.number) : typeof d.title === 'string' ? d.title : typeof d.code === 'string' ? d.code : typeof d.email === 'string' ? d.email : null;
+  return label ? `${kind} ${label}` : kind;
+};
+const columnsFor = (timeZone: string) => [
+  col.accessor('at', { header: 'When', cell: (c) => formatWhen(c.getValue(), timeZone) }),
+  col.accessor('actor', { header: 'Who', cell: (c) => c.getValue() ?? 'System', enableSorting: false }),
+  col.accessor('action', { header: 'What', cell: (c) => describeAction(c.getValue()), enableSorting: false }),
+  col.display({ id: 'record', header: 'Record', cell: (c) => describeRecord(c.row.original) }),
+];
+
+/** The shop's activity; `filters` off for the short list on the home page. */
+export function ActivityLogTable({ pageSize = 25, timeZone, filters = true }: { pageSize?: number; timeZone: string; filters?: boolean }) {
+  const [page, setPage] = useState(1);
+  const [area, setArea] = useState('');
+  const [actor, setActor] = useState('');
+  const [sorting, setSorting] = useState<SortingState>([{ id: 'at', desc: true }]);
+  const q = useActivityLog({ page, pageSize, area: area || undefined, actor: actor || undefined, dir: sorting[0] && !sorting[0].desc ? 'asc' : 'desc' });
+  if (q.isError) return <Notice tone="danger">{q.error.message}</Notice>;
+  const filterClass = 'min-h-touch rounded border border-steel-400 bg-white px-3 font-normal';
+  return (
+    <DataTable
+      caption="Activity log"
+      columns={columnsFor(timeZone)}
+      data={q.data?.rows ?? []}
+      loading={q.isLoading}
+      getRowId={(r) => r.id}
+      empty={<EmptyState title={area || actor ? 'Nothing matches these filters' : 'No activity yet'} />}
+      server={{ total: q.data?.total ?? 0, page, pageSize, sorting, onSortingChange: (s) => { setSorting(s); setPage(1); }, onPageChange: setPage }}
+      toolbar={
+        filters ? (
+          <>
+            <label className="flex flex-col text-sm font-semibold">
+              Area
+              <select className={filterClass} value={area} onChange={(e) => { setArea(e.target.value); setPage(1); }}>
+                <option value="">Everything</option>
+                {(q.data?.areas ?? []).map((a) => <option key={a} value={a}>{capital(words(a))}</option>)}
+              </select>
+            </label>
+            <label className="flex flex-col text-sm font-semibold">
+              Who
+              <select className={filterClass} value={actor} onChange={(e) => { setActor(e.target.value); setPage(1); }}>
+                <option value="">Anyone</option>
+                <option value="system">System (scheduled pass)</option>
+                {(q.data?.people ?? []).map((p) => <option key={p.id} value={p.id}>{p.name}</option>)}
+              </select>
+            </label>
+          </>
+        ) : undefined
+      }
+    />
+  );
+}

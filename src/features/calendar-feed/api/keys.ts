@@ -1,0 +1,6 @@
+import { queryRoots } from '../../../lib/query-keys';
+
+/** The calendar feed's query keys. */
+export const calendarFeedKeys = {
+  all: queryRoots.calendarFeed,
+};

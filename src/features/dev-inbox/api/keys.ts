@@ -1,0 +1,6 @@
+import { queryRoots } from '../../../lib/query-keys';
+
+/** The development inbox's query keys. */
+export const devInboxKeys = {
+  all: queryRoots.devInbox,
+};

@@ -1,0 +1,6 @@
+import { queryRoots } from '../../../lib/query-keys';
+
+/** The shop's own settings. */
+export const orgSettingsKeys = {
+  all: queryRoots.orgSettings,
+};
