@@ -26,7 +26,7 @@ export default defineConfig({
           include: ['tests/domain/**/*.test.ts'],
           environment: 'node',
           // Vitest's 5 s default fails property checks when the machine is busy.
-          testTimeout: 30_000,
+          testTimeout: 60_000,
         },
       },
       {
@@ -39,8 +39,9 @@ export default defineConfig({
           // Files share one database; each file works in its own shops, but the due-engine
           // and outbox tests take global locks, so files run one at a time.
           fileParallelism: false,
-          testTimeout: 30_000,
-          hookTimeout: 60_000,
+          // Sized for a busy 2-core machine: argon2 checks and whole-database passes slow down several-fold.
+          testTimeout: 120_000,
+          hookTimeout: 180_000,
         },
       },
     ],
