@@ -21,6 +21,8 @@ export async function transactionClient(tx: EntityManager): Promise<PoolClient> 
 }
 
 export async function createStaging(client: PoolClient) {
+  // The checks sort and hash the whole file once; enough memory keeps that off disk (this transaction only).
+  await client.query(`set local work_mem = '64MB'`);
   await client.query(`create temporary table ${STAGING} (
       line integer not null, meter_id uuid not null, read_at timestamptz not null, value double precision not null,
       is_reset boolean not null, import_key varchar(64) not null,

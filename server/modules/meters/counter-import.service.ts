@@ -1,4 +1,4 @@
-import { createHash } from 'node:crypto';
+import { hash } from 'node:crypto';
 import type { PoolClient } from 'pg';
 import type { EntityManager } from '@mikro-orm/postgresql';
 import { Meter } from './meter.entity';
@@ -133,7 +133,7 @@ export async function analyseCounterCsv(tx: EntityManager, who: Principal, fileP
     if (r.unit !== null && r.unit !== meter.unit) {
       return [{ line, column: 'unit', message: `Unit “${r.unit}” does not match meter ${meter.machineCode}/${meter.code}, which counts in ${meter.unit}` }];
     }
-    const key = createHash('sha256').update(importKeySource(meter.id, r.readAt, r.value, r.reset)).digest('hex');
+    const key = hash('sha256', importKeySource(meter.id, r.readAt, r.value, r.reset), 'hex');
     return stagingLine(line, meter.id, r.readAt, r.value, r.reset, key);
   }
   await copyIntoStaging(client, stagingText());
