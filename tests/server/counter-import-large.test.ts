@@ -46,6 +46,17 @@ beforeAll(async () => {
 afterAll(() => t.close());
 
 describe('counter import of a large file', () => {
+  it('reads a file in chunks as one parse of the whole text would: quotes and CRLF across chunk edges, an unclosed quote at the end', async () => {
+    const rows = 20_000; // ≈ 1.2 MB, several read chunks
+    const lines = ['"machine_code","meter_code","read_at","value","reset"'];
+    for (let i = 0; i < rows; i++) lines.push(`"L1-T","arc-starts","${new Date(Date.UTC(2024, 0, 1) + i * 60_000).toISOString()}","${1000 + i}","no"`);
+    lines.push('L1-T,"arc-starts,2024-03-01T00:00:00Z,99999,no');
+    const res = await upload('/counter-import/preview', Buffer.from(lines.join('\r\n'))).expect(200);
+    expect(res.body).toMatchObject({ rows: rows + 1, toAdd: rows, duplicates: 0, errorCount: 1 });
+    expect(res.body.errors).toEqual([{ line: rows + 2, column: null, message: 'Not valid CSV: Quoted field unterminated' }]);
+    expect(res.body.meters).toEqual([{ machineCode: 'L1-T', meterCode: 'arc-starts', unit: 'starts', rows, from: '2024-01-01T00:00:00.000Z', to: new Date(Date.UTC(2024, 0, 1) + (rows - 1) * 60_000).toISOString() }]);
+  });
+
   it('refuses the whole file for one backwards count in the middle, naming its line', { timeout: LARGE_TIMEOUT }, async () => {
     const res = await upload('/counter-import', largeCsv(BAD_LINE)).expect(400);
     expect(res.body.message).toMatch(/^1 problem in the file; nothing was imported\. First: line 100001: L1-T\/arc-starts: 3 starts is lower than the reading before it/);

@@ -43,12 +43,18 @@ export async function copyIntoStaging(client: PoolClient, lines: AsyncIterable<s
 
 /**
  * Marks a row as a duplicate when the same reading comes earlier in the file or is already
- * stored (same meter, time, value and reset: what the import key hashes).
+ * stored (same meter, time, value and reset: what the import key hashes). Compared on those
+ * columns rather than the key text, whose collation-aware sort is slower; stored readings
+ * are looked up only inside each meter's time span in the file.
  */
 export async function markDuplicates(client: PoolClient) {
   await client.query(`update ${STAGING} s set status = 'duplicate'
-     where s.line in (select line from (select line, row_number() over (partition by meter_id, import_key order by line) as n from ${STAGING}) d where d.n > 1)
-        or exists (select 1 from meter_reading r where r.meter_id = s.meter_id and r.read_at = s.read_at and r.value = s.value and r.is_reset = s.is_reset)`);
+      from (select line from (select line, row_number() over (partition by meter_id, read_at, value, is_reset order by line) as n from ${STAGING}) d where d.n > 1) d
+     where s.line = d.line`);
+  await client.query(`with spans as (select meter_id, min(read_at) as first_at, max(read_at) as last_at from ${STAGING} group by meter_id)
+    update ${STAGING} s set status = 'duplicate'
+      from spans p join meter_reading r on r.meter_id = p.meter_id and r.read_at between p.first_at and p.last_at
+     where s.status is null and r.meter_id = s.meter_id and r.read_at = s.read_at and r.value = s.value and r.is_reset = s.is_reset`);
 }
 
 /**

@@ -80,8 +80,8 @@ export async function* readCsvRecords(path: string): AsyncGenerator<CsvBatch> {
     if (partial.length > MAX_RECORD_CHARS) {
       // An unclosed quote: Papaparse would read the rest of the file as this one record.
       stream.destroy();
-      const cells = take(partial, true)[0]?.cells ?? [''];
-      records.push({ cells, csvError: 'Quoted field unterminated' });
+      const [long] = take(partial, true);
+      records.push({ cells: long?.cells ?? [''], csvError: long?.csvError ?? `A record longer than ${MAX_RECORD_CHARS / 1024 / 1024} MB` });
       yield { records, bytesRead: totalBytes, totalBytes };
       return;
     }
