@@ -1,4 +1,7 @@
-import type { RequestHandler } from 'express';
+import { mkdir, rm } from 'node:fs/promises';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import type { NextFunction, RequestHandler } from 'express';
 import multer from 'multer';
 import { AppError, badRequest } from './errors';
 
@@ -19,5 +22,22 @@ export function singleFileUpload(field: string, maxBytes: number, noun = 'file')
       if (err instanceof multer.MulterError) return next(badRequest(`Upload refused: ${err.message}`, [{ path: field, message: err.message }]));
       next(err);
     });
+  };
+}
+
+const uploadDir = join(tmpdir(), 'kerfbook-uploads');
+
+/**
+ * One file from a multipart form, streamed to a temporary file (`req.file.path`) so a large
+ * upload never sits whole in memory; the file is removed when the response is done. Errors
+ * pass to `onError`, which turns multer's refusals into answers.
+ */
+export function singleFileToDisk(field: string, maxBytes: number, onError: (err: unknown, next: NextFunction) => void): RequestHandler {
+  const parse = multer({ storage: multer.diskStorage({ destination: (_req, _file, cb) => mkdir(uploadDir, { recursive: true }).then(() => cb(null, uploadDir), (e: Error) => cb(e, uploadDir)) }), limits: { fileSize: maxBytes, files: 1, fields: 5 } }).single(field);
+  return (req, res, next) => {
+    res.on('close', () => {
+      if (req.file?.path) void rm(req.file.path, { force: true });
+    });
+    parse(req, res, (err: unknown) => (err ? onError(err, next) : next()));
   };
 }

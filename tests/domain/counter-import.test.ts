@@ -1,4 +1,5 @@
 import { describe, it, expect } from 'vitest';
+import { DateTime } from 'luxon';
 import { importKeySource, mapHeader, parseReadAt, parseRow, templateCsv } from '../../shared/domain/counter-import';
 
 // Kerfbook's own CSV layout (docs/counter-import.md); times per ISO 8601 / RFC 3339.
@@ -61,5 +62,22 @@ describe('import keys and template', () => {
     const { map, problems } = mapHeader(csv[0].split(','));
     expect(problems).toEqual([]);
     expect(parseRow(csv[1].split(','), map, 2, 'UTC', new Date('2027-01-01T00:00:00Z'))).toMatchObject({ machineCode: 'C1-T', value: 10, reset: false, unit: 'starts' });
+  });
+});
+
+describe('parseReadAt on plain ISO times with an offset', () => {
+  // Reference: luxon's own ISO 8601 reader (DateTime.fromISO with setZone), which the
+  // short path must agree with on every value and every refusal.
+  const byLuxon = (s: string) => {
+    const dt = DateTime.fromISO(s, { setZone: true });
+    return dt.isValid ? dt.toJSDate().toISOString() : null;
+  };
+  it('agrees with luxon on valid and invalid dates, times, fractions and offsets', () => {
+    const cases: string[] = [];
+    for (const date of ['2026-01-31', '2026-02-28', '2026-02-29', '2024-02-29', '2026-04-31', '2026-00-10', '2026-13-01', '2026-06-00', '2026-12-32', '1970-01-01', '1969-12-31', '0099-05-05'])
+      for (const time of ['00:00', '07:30', '23:59:59', '24:00:00', '12:60', '12:30:60', '07:30:00.5', '07:30:00.05', '07:30:00.999', '07:30:00.1234'])
+        for (const zone of ['Z', '+00:00', '-00:30', '+05:45', '-06:00', '+14:00', '+23:59', '+24:00', '-05:75']) cases.push(`${date}T${time}${zone}`);
+    expect(cases.length).toBe(12 * 10 * 9);
+    for (const s of cases) expect(parseReadAt(s, 'America/Chicago')?.toISOString() ?? null, s).toBe(byLuxon(s));
   });
 });

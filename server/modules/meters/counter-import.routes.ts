@@ -4,18 +4,21 @@ import { route, type ApiRouter } from '../../http/route';
 import { requestEm } from '../../db';
 import { requirePrincipal } from '../../http/principal';
 import { AppError, badRequest } from '../../http/errors';
+import { singleFileToDisk } from '../../http/upload';
 import { COUNTER_IMPORT_MAX_BYTES, type ImportStreamLine } from '../../../shared/schemas/counter-import';
 import { counterImportTemplate, importCounterCsv, previewCounterCsv, type Progress } from './counter-import.service';
 
-const upload = multer({ storage: multer.memoryStorage(), limits: { fileSize: COUNTER_IMPORT_MAX_BYTES, files: 1 } });
+const receiveToDisk = singleFileToDisk('file', COUNTER_IMPORT_MAX_BYTES, (err, next) => {
+  if (err instanceof multer.MulterError) {
+    if (err.code === 'LIMIT_FILE_SIZE') return next(new AppError(413, 'too_large', `The file is larger than ${COUNTER_IMPORT_MAX_BYTES / 1024 / 1024} MB. Split it into smaller files; each is imported on its own.`, [{ path: 'file', message: 'File larger than 50 MB' }]));
+    return next(badRequest(`Upload refused: ${err.message}`, [{ path: 'file', message: err.message }]));
+  }
+  next(err);
+});
 
-/** Multer's own errors become clear HTTP answers (413 for a file over the cap). */
+/** Streams the upload to a temporary file; multer's own errors become clear HTTP answers (413 for a file over the cap). */
 const receiveFile: RequestHandler = (req, res, next) => {
-  upload.single('file')(req, res, (err: unknown) => {
-    if (err instanceof multer.MulterError) {
-      if (err.code === 'LIMIT_FILE_SIZE') return next(new AppError(413, 'too_large', `The file is larger than ${COUNTER_IMPORT_MAX_BYTES / 1024 / 1024} MB. Split it into smaller files; each is imported on its own.`, [{ path: 'file', message: 'File larger than 50 MB' }]));
-      return next(badRequest(`Upload refused: ${err.message}`, [{ path: 'file', message: err.message }]));
-    }
+  receiveToDisk(req, res, (err?: unknown) => {
     if (err) return next(err);
     if (!req.file) return next(badRequest('Choose a CSV file to upload (form field “file”)', [{ path: 'file', message: 'Choose a CSV file' }]));
     next();
@@ -51,9 +54,9 @@ export function registerCounterImportRoutes(r: ApiRouter) {
     res.type('text/csv').attachment('kerfbook-counter-import.csv').send(await counterImportTemplate(requestEm()));
   });
   route(r, 'post', '/counter-import/preview', { access: 'readings.import', before: [receiveFile] }, async (req, res) => {
-    await answer(req, res, async (progress) => ({ type: 'preview', preview: await previewCounterCsv(requestEm(), requirePrincipal(req), req.file!.buffer, progress) }));
+    await answer(req, res, async (progress) => ({ type: 'preview', preview: await previewCounterCsv(requestEm(), requirePrincipal(req), req.file!.path, progress) }));
   });
   route(r, 'post', '/counter-import', { access: 'readings.import', before: [receiveFile] }, async (req, res) => {
-    await answer(req, res, async (progress) => ({ type: 'result', result: await importCounterCsv(requestEm(), requirePrincipal(req), req.file!.buffer, progress) }));
+    await answer(req, res, async (progress) => ({ type: 'result', result: await importCounterCsv(requestEm(), requirePrincipal(req), req.file!.path, progress) }));
   });
 }
