@@ -26,8 +26,3 @@ declare global {
     }
   }
 }
-
-export function requirePrincipal(req: Express.Request): Principal {
-  if (!req.principal) throw new Error('requirePrincipal() on a route without sign-in');
-  return req.principal;
-}

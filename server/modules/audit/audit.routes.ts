@@ -2,7 +2,6 @@ import type { EntityManager } from '@mikro-orm/postgresql';
 import { z } from 'zod';
 import { route, type ApiRouter } from '../../http/route';
 import { requestEm } from '../../db';
-import { requirePrincipal } from '../../http/principal';
 import { paging } from '../../../shared/schemas/common';
 import { AuditEvent } from './audit-event.entity';
 
@@ -29,10 +28,8 @@ async function areasOf(em: EntityManager, orgId: string): Promise<string[]> {
 }
 
 export function registerAuditRoutes(r: ApiRouter) {
-  route(r, 'get', '/audit-events', { access: 'audit.read', query }, async (req, res) => {
-    const q = res.locals.query as z.infer<typeof query>;
+  route(r, 'get', '/audit-events', { access: 'audit.read', query }, async (_req, res, { query: q, principal: who }) => {
     const em = requestEm() as EntityManager;
-    const who = requirePrincipal(req);
     const where: Record<string, unknown> = {};
     if (q.action) where.action = q.action;
     else if (q.area) where.action = { $like: `${q.area}.%` };

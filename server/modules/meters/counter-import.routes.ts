@@ -2,8 +2,7 @@ import multer from 'multer';
 import type { Request, RequestHandler, Response } from 'express';
 import { route, type ApiRouter } from '../../http/route';
 import { requestEm } from '../../db';
-import { requirePrincipal } from '../../http/principal';
-import { AppError, badRequest } from '../../http/errors';
+import { AppError, badRequest, payloadTooLarge } from '../../http/errors';
 import { Meter } from './meter.entity';
 import { templateCsv } from '../../../shared/domain/counter-import';
 import { COUNTER_IMPORT_MAX_BYTES, type ImportStreamLine } from '../../../shared/schemas/counter-import';
@@ -15,7 +14,7 @@ const upload = multer({ storage: multer.memoryStorage(), limits: { fileSize: COU
 const receiveFile: RequestHandler = (req, res, next) => {
   upload.single('file')(req, res, (err: unknown) => {
     if (err instanceof multer.MulterError) {
-      if (err.code === 'LIMIT_FILE_SIZE') return next(new AppError(413, 'too_large', `The file is larger than ${COUNTER_IMPORT_MAX_BYTES / 1024 / 1024} MB. Split it into smaller files; each is imported on its own.`, [{ path: 'file', message: 'File larger than 50 MB' }]));
+      if (err.code === 'LIMIT_FILE_SIZE') return next(payloadTooLarge(`The file is larger than ${COUNTER_IMPORT_MAX_BYTES / 1024 / 1024} MB. Split it into smaller files; each is imported on its own.`, [{ path: 'file', message: 'File larger than 50 MB' }]));
       return next(badRequest(`Upload refused: ${err.message}`, [{ path: 'file', message: err.message }]));
     }
     if (err) return next(err);
@@ -56,10 +55,10 @@ export function registerCounterImportRoutes(r: ApiRouter) {
       : [{ machineCode: 'C1-T', meterCode: 'arc-starts', unit: 'starts', value: 184220 }];
     res.type('text/csv').attachment('kerfbook-counter-import.csv').send(templateCsv(examples));
   });
-  route(r, 'post', '/counter-import/preview', { access: 'readings.import', before: [receiveFile] }, async (req, res) => {
-    await answer(req, res, async (progress) => ({ type: 'preview', preview: await previewCounterCsv(requestEm(), requirePrincipal(req), req.file!.buffer, progress) }));
+  route(r, 'post', '/counter-import/preview', { access: 'readings.import', before: [receiveFile] }, async (req, res, { principal: who }) => {
+    await answer(req, res, async (progress) => ({ type: 'preview', preview: await previewCounterCsv(requestEm(), who, req.file!.buffer, progress) }));
   });
-  route(r, 'post', '/counter-import', { access: 'readings.import', before: [receiveFile] }, async (req, res) => {
-    await answer(req, res, async (progress) => ({ type: 'result', result: await importCounterCsv(requestEm(), requirePrincipal(req), req.file!.buffer, progress) }));
+  route(r, 'post', '/counter-import', { access: 'readings.import', before: [receiveFile] }, async (req, res, { principal: who }) => {
+    await answer(req, res, async (progress) => ({ type: 'result', result: await importCounterCsv(requestEm(), who, req.file!.buffer, progress) }));
   });
 }
