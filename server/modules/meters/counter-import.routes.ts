@@ -38,10 +38,10 @@ async function answer(req: Request, res: Response, work: (progress?: Progress) =
   try {
     write(await work((p) => void write({ type: 'progress', ...p })));
   } catch (err) {
-    if (err instanceof AppError) write({ type: 'error', status: err.status, message: err.message, fields: err.fields });
+    if (err instanceof AppError) write({ type: 'error', status: err.status, error: err.code, message: err.message, fields: err.fields });
     else {
       req.log?.error({ err }, 'counter import failed');
-      write({ type: 'error', status: 500, message: 'Something went wrong on our side. It has been logged.' });
+      write({ type: 'error', status: 500, error: 'internal', message: 'Something went wrong on our side. It has been logged.' });
     }
   }
   res.end();
