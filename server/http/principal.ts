@@ -6,6 +6,8 @@ export type Principal = {
   role: Role;
   name: string;
   email: string;
+  /** The shop's IANA zone: dates and times shown to people are in it. */
+  timeZone: string;
 };
 
 declare module 'express-session' {

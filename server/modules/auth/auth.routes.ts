@@ -81,7 +81,7 @@ export function registerAuthRoutes(r: ApiRouter, config: Config) {
     res.json({
       user: { id: p.userId, email: p.email, name: p.name },
       role: p.role,
-      organization: { id: org.id, name: org.name, timeZone: org.timeZone },
+      organization: { id: org.id, name: org.name, timeZone: p.timeZone },
     });
   });
 }

@@ -52,7 +52,7 @@ function notInFuture(date: string, tz: string, path: string) {
 export async function recordInspection(em: EntityManager, who: Principal, input: InspectionInput) {
   return em.transactional(async (tx) => {
     const { proc, v, machine } = await approvedVersion(tx, input.procedureId);
-    const { timeZone } = await loadSafetySettings(tx, who.orgId);
+    const { timeZone } = who;
     notInFuture(input.inspectedOn, timeZone, 'inspectedOn');
     const ids = [...new Set(input.employeeIds)];
     if (ids.includes(who.userId)) {
@@ -171,7 +171,7 @@ async function requiredVersions(em: EntityManager, procedureIds: string[]) {
 export async function recordTraining(em: EntityManager, who: Principal, input: TrainingInput) {
   return em.transactional(async (tx) => {
     const { proc, v, machine } = await approvedVersion(tx, input.procedureId);
-    const { timeZone } = await loadSafetySettings(tx, who.orgId);
+    const { timeZone } = who;
     notInFuture(input.trainedOn, timeZone, 'trainedOn');
     const members = await activeMembers(tx, who.orgId, [input.userId]);
     const person = members.get(input.userId);
@@ -313,10 +313,10 @@ export async function endFireWatch(em: EntityManager, who: Principal, id: string
     const now = clock.now();
     if (now < fw.until) {
       const mins = Math.ceil((fw.until.getTime() - now.getTime()) / 60_000);
-      throw conflict(`Keep watching: the fire watch runs until ${fw.until.toISOString()} (${FIRE_WATCH_RULES[fw.rule as FireWatchRuleId]?.source ?? fw.rule}), ${mins} min to go`);
+      throw conflict(`Keep watching: the fire watch runs until ${local(fw.until, who.timeZone)} (${FIRE_WATCH_RULES[fw.rule as FireWatchRuleId]?.source ?? fw.rule}), ${mins} min to go`);
     }
     const machine = fw.machine.getEntity();
-    const { timeZone } = await loadSafetySettings(tx, who.orgId);
+    const { timeZone } = who;
     const signOff = await appendSignOff(tx, who, {
       meaning: 'fire-watch-ended',
       subjectType: 'fire-watch',
