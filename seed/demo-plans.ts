@@ -55,7 +55,7 @@ export const seedPlansDemo: SeedStep = async (rootEm, shop, settings) => {
   const admin = people.find((m) => m.role === 'admin');
   const tech = people.find((m) => m.role === 'technician') ?? admin;
   if (!admin || !tech) return;
-  const who: Principal = { userId: admin.user.id, orgId: shop.id, role: 'admin', name: admin.user.getEntity().name, email: admin.user.getEntity().email };
+  const who: Principal = { userId: admin.user.id, orgId: shop.id, role: 'admin', name: admin.user.getEntity().name, email: admin.user.getEntity().email, timeZone: shop.timeZone };
 
   const now = clock.ms();
   const start = now - 364 * DAY;

@@ -147,7 +147,7 @@ export const seedSafetyDemo: SeedStep = async (rootEm, shop) => {
     const m = members.find((x) => x.role === role);
     if (!m) throw new Error(`demo safety seed: no ${role} in the demo shop`);
     const u = m.user.getEntity();
-    return { userId: u.id, orgId: shop.id, role: m.role, name: u.name, email: u.email };
+    return { userId: u.id, orgId: shop.id, role: m.role, name: u.name, email: u.email, timeZone: shop.timeZone };
   };
   const safety = person('safety');
   const tech = person('technician');

@@ -11,6 +11,7 @@ import { createSessionMiddleware, csrfProtection, destroy } from './http/session
 import { errorHandler } from './http/error-handler';
 import { notFound } from './http/errors';
 import { loadPrincipal } from './modules/auth/auth.service';
+import { requestEm } from './db';
 import { registerAuthRoutes } from './modules/auth/auth.routes';
 import { registerUserRoutes } from './modules/users/users.routes';
 import { registerHealthRoutes } from './modules/health/health.routes';
@@ -68,8 +69,8 @@ export function createApp({ orm, config, smtp = null }: AppDeps): AppHandle {
       await destroy(req); // absolute timeout: sign in again after a shift
       return next();
     }
-    const em = RequestContext.getEntityManager()!;
-    const principal = await loadPrincipal(em as never, s.userId, s.orgId);
+    const em = requestEm();
+    const principal = await loadPrincipal(em, s.userId, s.orgId);
     if (principal) {
       req.principal = principal;
       em.setFilterParams('org', { orgId: principal.orgId });

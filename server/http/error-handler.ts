@@ -21,10 +21,10 @@ export const errorHandler: ErrorRequestHandler = (err, req, res, _next) => {
     body = { error: 'conflict', message: 'This record is still referenced by other records' };
   } else if (err?.type === 'entity.parse.failed') {
     status = 400;
-    body = { error: 'bad_request', message: 'The request body is not valid JSON' };
+    body = { error: 'invalid_json', message: 'The request body is not valid JSON' };
   } else if (err?.type === 'entity.too.large') {
     status = 413;
-    body = { error: 'too_large', message: 'The request body is too large' };
+    body = { error: 'payload_too_large', message: 'The request body is too large' };
   }
   if (status >= 500) req.log?.error({ err }, 'request failed');
   res.status(status).json(body);

@@ -6,6 +6,8 @@ export type Principal = {
   role: Role;
   name: string;
   email: string;
+  /** The shop's IANA zone: dates and times shown to people are in it. */
+  timeZone: string;
 };
 
 declare module 'express-session' {
@@ -25,9 +27,4 @@ declare global {
       principal?: Principal;
     }
   }
-}
-
-export function requirePrincipal(req: Express.Request): Principal {
-  if (!req.principal) throw new Error('requirePrincipal() on a route without sign-in');
-  return req.principal;
 }

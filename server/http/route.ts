@@ -1,8 +1,8 @@
-import { Router, type RequestHandler } from 'express';
+import { Router, type Request, type RequestHandler, type Response } from 'express';
 import { can, type Permission } from '../../shared/permissions';
 import { forbidden, unauthorized } from './errors';
-import { validate } from './validate';
-import type { z } from 'zod';
+import { parseInput, type ParsedInput, type Schemas } from './validate';
+import type { Principal } from './principal';
 
 /**
  * Every API route declares who may call it. `public`: anyone; `signed-in`: any role;
@@ -12,14 +12,20 @@ import type { z } from 'zod';
 export type Access = 'public' | 'signed-in' | Permission;
 type Method = 'get' | 'post' | 'put' | 'patch' | 'delete';
 
-export type RouteSpec = {
+export type RouteSpec = Schemas & {
   access: Access;
-  body?: z.ZodType;
-  query?: z.ZodType;
-  params?: z.ZodType;
   /** Middleware that must run before validation (e.g. rate limits that count bad input too). */
-  before?: RequestHandler[];
+  before?: readonly RequestHandler[];
 };
+
+/** What a handler receives: the parsed body, query and params, and who is calling. */
+export type RouteInput<S extends RouteSpec> = ParsedInput<S> & {
+  /** Only a public route can be called without signing in. */
+  principal: S['access'] extends 'public' ? Principal | undefined : Principal;
+};
+
+/** Handlers may be async; Express 5 forwards rejected promises to the error handler. */
+export type RouteHandler<S extends RouteSpec> = (req: Request, res: Response, input: RouteInput<S>) => unknown;
 
 export type ApiRouter = Router & { routeAccess: Map<string, Access> };
 
@@ -38,8 +44,21 @@ export function guard(access: Access): RequestHandler {
   };
 }
 
-/** Handlers may be async; Express 5 forwards rejected promises to the error handler. */
-export function route(router: ApiRouter, method: Method, path: string, spec: RouteSpec, ...handlers: RequestHandler[]) {
+function principalFor<S extends RouteSpec>(spec: S, req: Request): RouteInput<S>['principal'] {
+  if (spec.access === 'public') return req.principal as RouteInput<S>['principal'];
+  // guard() has already refused a request without one; this keeps the type honest.
+  if (!req.principal) throw unauthorized();
+  return req.principal;
+}
+
+/**
+ * Registers one route: access check, `before` middleware, validation with the spec's schemas,
+ * then the handler with the parsed input typed from those schemas.
+ */
+export function route<const S extends RouteSpec>(router: ApiRouter, method: Method, path: string, spec: S, handler: RouteHandler<S>) {
   router.routeAccess.set(`${method.toUpperCase()} ${path}`, spec.access);
-  router[method](path, guard(spec.access), ...(spec.before ?? []), validate(spec), ...handlers);
+  router[method](path, guard(spec.access), ...(spec.before ?? []), async (req, res) => {
+    const input: RouteInput<S> = { ...parseInput(spec, req), principal: principalFor(spec, req) };
+    await handler(req, res, input);
+  });
 }

@@ -4,7 +4,7 @@ import pg from 'pg';
 import { randomBytes, timingSafeEqual } from 'node:crypto';
 import type { RequestHandler } from 'express';
 import type { Config } from '../config';
-import { forbidden } from './errors';
+import { csrfInvalid } from './errors';
 
 export const SESSION_COOKIE = 'kerfbook.sid';
 
@@ -40,10 +40,10 @@ export const csrfProtection: RequestHandler = (req, _res, next) => {
   if (SAFE.has(req.method)) return next();
   const expected = req.session?.csrfToken;
   const sent = req.get('x-csrf-token');
-  if (!expected || !sent) return next(forbidden('Missing CSRF token: fetch /api/auth/csrf and send it as X-CSRF-Token'));
+  if (!expected || !sent) return next(csrfInvalid('Missing CSRF token: fetch /api/auth/csrf and send it as X-CSRF-Token'));
   const a = Buffer.from(expected);
   const b = Buffer.from(sent);
-  if (a.length !== b.length || !timingSafeEqual(a, b)) return next(forbidden('Invalid CSRF token'));
+  if (a.length !== b.length || !timingSafeEqual(a, b)) return next(csrfInvalid('Invalid CSRF token'));
   next();
 };
 

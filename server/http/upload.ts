@@ -3,7 +3,7 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import type { NextFunction, RequestHandler } from 'express';
 import multer from 'multer';
-import { AppError, badRequest } from './errors';
+import { badRequest, payloadTooLarge } from './errors';
 
 /**
  * One file from a multipart form, held in memory up to `maxBytes` (callers check its content).
@@ -17,7 +17,7 @@ export function singleFileUpload(field: string, maxBytes: number, noun = 'file')
       if (!err) return next();
       if (err instanceof multer.MulterError && err.code === 'LIMIT_FILE_SIZE') {
         const message = `The ${noun} is larger than ${maxBytes / 1024 / 1024} MB`;
-        return next(new AppError(413, 'too_large', message, [{ path: field, message }]));
+        return next(payloadTooLarge(message, [{ path: field, message }]));
       }
       if (err instanceof multer.MulterError) return next(badRequest(`Upload refused: ${err.message}`, [{ path: field, message: err.message }]));
       next(err);

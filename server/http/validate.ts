@@ -1,10 +1,19 @@
-import type { RequestHandler } from 'express';
+import type { Request } from 'express';
 import type { z } from 'zod';
-import { badRequest } from './errors';
+import { validationFailed } from './errors';
+import type { FieldErrors } from '../../shared/schemas/common';
 
-type Schemas = { body?: z.ZodType; query?: z.ZodType; params?: z.ZodType };
+export type Schemas = { body?: z.ZodType; query?: z.ZodType; params?: z.ZodType };
 
-function toFields(error: z.ZodError, where: string) {
+/** What a schema parses to, or `undefined` where the route declares none. */
+type Parsed<T> = T extends z.ZodType ? z.output<T> : undefined;
+export type ParsedInput<S extends Schemas> = {
+  body: Parsed<S['body']>;
+  query: Parsed<S['query']>;
+  params: Parsed<S['params']>;
+};
+
+function toFields(error: z.ZodError, where: string): FieldErrors {
   return error.issues.map((i) => ({
     path: i.path.length ? i.path.join('.') : where,
     message: i.message,
@@ -21,22 +30,22 @@ function readablePath(path: string): string {
 }
 
 /**
- * Parses body, query and params with the shared zod schemas. Parsed values land on
- * `res.locals.body/query/params` (Express 5's req.query is a read-only getter).
+ * Parses params, query and body (in that order) with the shared zod schemas and returns the
+ * parsed values, or throws a 400 naming every problem of the first part that fails.
  */
-export function validate(schemas: Schemas): RequestHandler {
-  return (req, res, next) => {
-    for (const where of ['params', 'query', 'body'] as const) {
-      const schema = schemas[where];
-      if (!schema) continue;
-      const input = where === 'body' ? (req.body ?? {}) : req[where];
-      const result = schema.safeParse(input);
-      if (!result.success) {
-        const fields = toFields(result.error, where);
-        return next(badRequest(`Please check ${fields.map((f) => `${readablePath(f.path)}: ${f.message}`).join('; ')}`, fields));
-      }
-      res.locals[where] = result.data;
+export function parseInput<S extends Schemas>(schemas: S, req: Request): ParsedInput<S> {
+  const out: Record<'body' | 'query' | 'params', unknown> = { body: undefined, query: undefined, params: undefined };
+  for (const where of ['params', 'query', 'body'] as const) {
+    const schema = schemas[where];
+    if (!schema) continue;
+    const input = where === 'body' ? (req.body ?? {}) : req[where];
+    const result = schema.safeParse(input);
+    if (!result.success) {
+      const fields = toFields(result.error, where);
+      throw validationFailed(`Please check ${fields.map((f) => `${readablePath(f.path)}: ${f.message}`).join('; ')}`, fields);
     }
-    next();
-  };
+    out[where] = result.data;
+  }
+  // Each part was parsed by its own schema just above; TypeScript cannot follow the loop.
+  return out as ParsedInput<S>;
 }

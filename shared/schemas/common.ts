@@ -16,5 +16,26 @@ export const newPassword = z
 
 export type FieldErrors = { path: string; message: string }[];
 
+/**
+ * Machine-readable codes of error answers; clients branch on these, never on the wording.
+ * `validation_failed` answers carry `fields` with the exact paths of the problems;
+ * `signature_refused` is a wrong password at an electronic signature (the session stays valid).
+ */
+export const ERROR_CODES = [
+  'validation_failed',
+  'bad_request',
+  'invalid_json',
+  'unauthorized',
+  'signature_refused',
+  'forbidden',
+  'csrf_invalid',
+  'not_found',
+  'conflict',
+  'payload_too_large',
+  'rate_limited',
+  'internal',
+] as const;
+export type ErrorCode = (typeof ERROR_CODES)[number];
+
 /** The JSON body every error response carries. */
-export type ApiErrorBody = { error: string; message: string; fields?: FieldErrors };
+export type ApiErrorBody = { error: ErrorCode; message: string; fields?: FieldErrors };

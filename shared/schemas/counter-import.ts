@@ -1,4 +1,5 @@
 import type { RowError } from '../domain/counter-import';
+import type { ErrorCode, FieldErrors } from './common';
 
 /** Files above this are refused before they are read (HTTP 413). */
 export const COUNTER_IMPORT_MAX_BYTES = 50 * 1024 * 1024;
@@ -28,4 +29,4 @@ export type ImportStreamLine =
   | { type: 'progress'; phase: 'reading' | 'checking' | 'writing'; done: number; total: number }
   | { type: 'preview'; preview: ImportPreview }
   | { type: 'result'; result: ImportResult }
-  | { type: 'error'; status: number; message: string; fields?: { path: string; message: string }[] };
+  | { type: 'error'; status: number; error: ErrorCode; message: string; fields?: FieldErrors };

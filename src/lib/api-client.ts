@@ -1,10 +1,13 @@
-import type { ApiErrorBody, FieldErrors } from '../../shared/schemas/common';
+import type { ApiErrorBody, ErrorCode, FieldErrors } from '../../shared/schemas/common';
 
-/** An error answer from the API, with field errors to map back onto a form. */
+/**
+ * An error answer from the API, with field errors to map back onto a form. Besides the server's
+ * codes: `network` when no answer came, `unknown` when the answer carried no code (e.g. a proxy's page).
+ */
 export class ApiError extends Error {
   constructor(
     readonly status: number,
-    readonly code: string,
+    readonly code: ErrorCode | 'network' | 'unknown',
     message: string,
     readonly fields: FieldErrors = [],
   ) {
@@ -51,11 +54,11 @@ export async function api<T>(path: string, { method = 'GET', body, query, signal
   const data = (await res.json().catch(() => ({}))) as Partial<ApiErrorBody> & T;
   if (!res.ok) {
     // A new session (e.g. after the old one expired) has a new CSRF token: fetch it and retry once.
-    if (res.status === 403 && mutating && !retried && /CSRF/.test(data.message ?? '')) {
+    if (data.error === 'csrf_invalid' && mutating && !retried) {
       await fetchCsrfToken();
       return api<T>(path, { method, body, query, signal }, true);
     }
-    throw new ApiError(res.status, data.error ?? 'error', data.message ?? `Request failed (${res.status})`, data.fields ?? []);
+    throw new ApiError(res.status, data.error ?? 'unknown', data.message ?? `Request failed (${res.status})`, data.fields ?? []);
   }
   return data as T;
 }

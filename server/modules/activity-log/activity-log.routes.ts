@@ -2,7 +2,6 @@ import type { EntityManager } from '@mikro-orm/postgresql';
 import { z } from 'zod';
 import { route, type ApiRouter } from '../../http/route';
 import { requestEm } from '../../db';
-import { requirePrincipal } from '../../http/principal';
 import { listActivity } from './activity-log.service';
 import { paging } from '../../../shared/schemas/paging';
 
@@ -21,7 +20,7 @@ const query = paging.extend({
 
 /** The activity log: who did what to which record (the API path keeps its first name, audit-events). */
 export function registerActivityLogRoutes(r: ApiRouter) {
-  route(r, 'get', '/audit-events', { access: 'activity-log.read', query }, async (req, res) => {
-    res.json(await listActivity(requestEm() as EntityManager, requirePrincipal(req), res.locals.query as z.infer<typeof query>));
+  route(r, 'get', '/audit-events', { access: 'activity-log.read', query }, async (_req, res, { query: q, principal: who }) => {
+    res.json(await listActivity(requestEm() as EntityManager, who, q));
   });
 }

@@ -5,14 +5,15 @@ import { requestEm } from '../../db';
 import { loginSchema, requestResetSchema, tokenPasswordSchema } from '../../../shared/schemas/auth';
 import { authenticate, redeemToken, requestPasswordReset } from './auth.service';
 import { destroy, ensureCsrfToken, regenerate, save, SESSION_COOKIE } from '../../http/session';
-import { requirePrincipal } from '../../http/principal';
 import type { Config } from '../../config';
 import { recordActivity } from '../activity-log/activity-log.service';
+import type { ApiErrorBody } from '../../../shared/schemas/common';
 import type { EntityManager } from '@mikro-orm/postgresql';
 import { getShopProfile } from '../organizations/organizations.service';
 
 function tooMany(message: string) {
-  return { error: 'too_many_requests', message };
+  const body: ApiErrorBody = { error: 'rate_limited', message };
+  return body;
 }
 
 export function registerAuthRoutes(r: ApiRouter, config: Config) {
@@ -41,8 +42,8 @@ export function registerAuthRoutes(r: ApiRouter, config: Config) {
     res.json({ token });
   });
 
-  route(r, 'post', '/auth/login', { access: 'public', body: loginSchema, before: [perAddress, perAccount] }, async (req, res) => {
-    const { email, password } = res.locals.body as { email: string; password: string };
+  route(r, 'post', '/auth/login', { access: 'public', body: loginSchema, before: [perAddress, perAccount] }, async (req, res, { body }) => {
+    const { email, password } = body;
     const principal = await authenticate(requestEm() as EntityManager, email, password);
     // New session id at sign-in (no fixation) and a new CSRF token with it.
     await regenerate(req);
@@ -54,10 +55,10 @@ export function registerAuthRoutes(r: ApiRouter, config: Config) {
     res.json({ ok: true, csrfToken, role: principal.role });
   });
 
-  route(r, 'post', '/auth/logout', { access: 'public' }, async (req, res) => {
-    if (req.principal) {
+  route(r, 'post', '/auth/logout', { access: 'public' }, async (req, res, { principal }) => {
+    if (principal) {
       const em = requestEm() as EntityManager;
-      recordActivity(em, req.principal, 'auth.sign-out', { type: 'User', id: req.principal.userId });
+      recordActivity(em, principal, 'auth.sign-out', { type: 'User', id: principal.userId });
       await em.flush();
     }
     await destroy(req);
@@ -65,23 +66,22 @@ export function registerAuthRoutes(r: ApiRouter, config: Config) {
     res.json({ ok: true });
   });
 
-  route(r, 'post', '/auth/request-reset', { access: 'public', body: requestResetSchema, before: [perAddress] }, async (_req, res) => {
-    await requestPasswordReset(requestEm() as EntityManager, res.locals.body.email, config.APP_URL);
+  route(r, 'post', '/auth/request-reset', { access: 'public', body: requestResetSchema, before: [perAddress] }, async (_req, res, { body }) => {
+    await requestPasswordReset(requestEm() as EntityManager, body.email, config.APP_URL);
     res.json({ ok: true, message: 'If that address has an account, a reset link is on its way.' });
   });
 
-  route(r, 'post', '/auth/redeem', { access: 'public', body: tokenPasswordSchema, before: [perAddress] }, async (_req, res) => {
-    const { email } = await redeemToken(requestEm() as EntityManager, res.locals.body.token, res.locals.body.password);
+  route(r, 'post', '/auth/redeem', { access: 'public', body: tokenPasswordSchema, before: [perAddress] }, async (_req, res, { body }) => {
+    const { email } = await redeemToken(requestEm() as EntityManager, body.token, body.password);
     res.json({ ok: true, email });
   });
 
-  route(r, 'get', '/me', { access: 'signed-in' }, async (req, res) => {
-    const p = requirePrincipal(req);
+  route(r, 'get', '/me', { access: 'signed-in' }, async (_req, res, { principal: p }) => {
     const org = await getShopProfile(requestEm() as EntityManager, p);
     res.json({
       user: { id: p.userId, email: p.email, name: p.name },
       role: p.role,
-      organization: { id: org.id, name: org.name, timeZone: org.timeZone },
+      organization: { id: org.id, name: org.name, timeZone: p.timeZone },
     });
   });
 }

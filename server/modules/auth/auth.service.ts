@@ -15,22 +15,23 @@ export const RESET_TTL_MS = 60 * 60_000;
 
 /** The active membership that a session's user acts through, or null. */
 export async function loadPrincipal(em: EntityManager, userId: string, orgId: string): Promise<Principal | null> {
-  const m = await em.findOne(Membership, { user: userId, organization: orgId, active: true }, noScope);
+  // The shop comes joined to the membership (one query), for its time zone.
+  const m = await em.findOne(Membership, { user: userId, organization: orgId, active: true }, { ...noScope, populate: ['organization'] });
   if (!m) return null;
   const user = await em.findOneOrFail(User, userId, noScope);
-  return { userId: user.id, orgId, role: m.role, name: user.name, email: user.email };
+  return { userId: user.id, orgId, role: m.role, name: user.name, email: user.email, timeZone: (await m.organization.loadOrFail(noScope)).timeZone };
 }
 
 export async function authenticate(em: EntityManager, email: string, password: string): Promise<Principal> {
   const user = await em.findOne(User, { email }, noScope);
   const ok = await verifyPassword(user?.passwordHash, password);
   if (!user || !ok) throw unauthorized('E-mail or password is wrong');
-  const membership = await em.findOne(Membership, { user, active: true }, { orderBy: { createdAt: 'asc' }, ...noScope });
+  const membership = await em.findOne(Membership, { user, active: true }, { orderBy: { createdAt: 'asc' }, populate: ['organization'], ...noScope });
   if (!membership) throw unauthorized('This account is deactivated. Ask your admin.');
   user.lastSignInAt = clock.now();
   recordActivity(em, { orgId: membership.organization.id, userId: user.id }, 'auth.sign-in', { type: 'User', id: user.id });
   await em.flush();
-  return { userId: user.id, orgId: membership.organization.id, role: membership.role, name: user.name, email: user.email };
+  return { userId: user.id, orgId: membership.organization.id, role: membership.role, name: user.name, email: user.email, timeZone: (await membership.organization.loadOrFail(noScope)).timeZone };
 }
 
 /** Creates a single-use token and returns the raw value (only its hash is stored). */

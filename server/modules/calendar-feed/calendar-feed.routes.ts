@@ -2,7 +2,6 @@ import type { EntityManager } from '@mikro-orm/postgresql';
 import { z } from 'zod';
 import { route, type ApiRouter } from '../../http/route';
 import { requestEm } from '../../db';
-import { requirePrincipal } from '../../http/principal';
 import { notFound } from '../../http/errors';
 import type { Config } from '../../config';
 import { createFeed, feedStatus, renderFeed, revokeFeed } from './calendar-feed.service';
@@ -12,14 +11,14 @@ const tokenParam = z.object({ token: z.string().regex(/^[A-Za-z0-9_-]{20,100}(\.
 
 export function registerCalendarFeedRoutes(r: ApiRouter, config: Config) {
   const em = () => requestEm() as EntityManager;
-  route(r, 'get', '/calendar-feed', { access: 'signed-in' }, async (req, res) => {
-    res.json(await feedStatus(em(), requirePrincipal(req)));
+  route(r, 'get', '/calendar-feed', { access: 'signed-in' }, async (_req, res, { principal: who }) => {
+    res.json(await feedStatus(em(), who));
   });
-  route(r, 'post', '/calendar-feed', { access: 'signed-in' }, async (req, res) => {
-    res.status(201).json(await createFeed(em(), requirePrincipal(req), config.APP_URL));
+  route(r, 'post', '/calendar-feed', { access: 'signed-in' }, async (_req, res, { principal: who }) => {
+    res.status(201).json(await createFeed(em(), who, config.APP_URL));
   });
-  route(r, 'delete', '/calendar-feed', { access: 'signed-in' }, async (req, res) => {
-    res.json(await revokeFeed(em(), requirePrincipal(req)));
+  route(r, 'delete', '/calendar-feed', { access: 'signed-in' }, async (_req, res, { principal: who }) => {
+    res.json(await revokeFeed(em(), who));
   });
   // Calendar apps fetch this without a session: the unguessable token is the credential.
   route(r, 'get', '/calendar/:token', { access: 'public' }, async (req, res) => {

@@ -1,7 +1,6 @@
 import type { EntityManager } from '@mikro-orm/postgresql';
 import { route, type ApiRouter } from '../../http/route';
 import { requestEm } from '../../db';
-import { requirePrincipal } from '../../http/principal';
 import { listJobRunsQuery, type RunNowResult } from '../../../shared/schemas/job-runs';
 import { latestJobRun, listJobRuns } from './job-runs.service';
 import { manualPass } from './job-run-context';
@@ -10,11 +9,10 @@ import { recordActivity } from '../activity-log/activity-log.service';
 /** `runPass` runs the scheduled pass now (server/jobs); it resolves to null while another pass holds the lock. */
 export function registerJobRunRoutes(r: ApiRouter, runPass: () => Promise<object | null>) {
   const em = () => requestEm() as EntityManager;
-  route(r, 'get', '/job-runs', { access: 'jobs.run', query: listJobRunsQuery }, async (_req, res) => {
-    res.json(await listJobRuns(em(), res.locals.query));
+  route(r, 'get', '/job-runs', { access: 'jobs.run', query: listJobRunsQuery }, async (_req, res, { query: q }) => {
+    res.json(await listJobRuns(em(), q));
   });
-  route(r, 'post', '/job-runs', { access: 'jobs.run' }, async (req, res) => {
-    const who = requirePrincipal(req);
+  route(r, 'post', '/job-runs', { access: 'jobs.run' }, async (_req, res, { principal: who }) => {
     const result = await manualPass.run({ orgId: who.orgId, userId: who.userId }, runPass);
     if (result === null) {
       const body: RunNowResult = { ran: false, message: 'A pass is running right now; its results appear below in a moment.', run: null };

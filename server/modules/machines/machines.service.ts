@@ -132,7 +132,7 @@ export async function updateMachine(em: EntityManager, who: Principal, id: strin
     if (input.code !== undefined) m.code = input.code;
     if (input.name !== undefined) m.name = input.name;
     if (input.kind !== undefined) m.kind = input.kind;
-    if (input.parentId !== undefined) m.parent = (input.parentId ? tx.getReference(Machine, input.parentId) : null) as never;
+    if (input.parentId !== undefined) m.parent = input.parentId ? tx.getReference(Machine, input.parentId, { wrapped: true }) : null;
     if (input.location !== undefined) m.location = input.location;
     if (input.serial !== undefined) m.serial = input.serial;
     if (input.notes !== undefined) m.notes = input.notes;

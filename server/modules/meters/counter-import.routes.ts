@@ -2,7 +2,6 @@ import multer from 'multer';
 import type { Request, RequestHandler, Response } from 'express';
 import { route, type ApiRouter } from '../../http/route';
 import { requestEm } from '../../db';
-import { requirePrincipal } from '../../http/principal';
 import { AppError, badRequest } from '../../http/errors';
 import { singleFileToDisk } from '../../http/upload';
 import { COUNTER_IMPORT_MAX_BYTES, type ImportStreamLine } from '../../../shared/schemas/counter-import';
@@ -10,7 +9,7 @@ import { counterImportTemplate, importCounterCsv, previewCounterCsv, type Progre
 
 const receiveToDisk = singleFileToDisk('file', COUNTER_IMPORT_MAX_BYTES, (err, next) => {
   if (err instanceof multer.MulterError) {
-    if (err.code === 'LIMIT_FILE_SIZE') return next(new AppError(413, 'too_large', `The file is larger than ${COUNTER_IMPORT_MAX_BYTES / 1024 / 1024} MB. Split it into smaller files; each is imported on its own.`, [{ path: 'file', message: 'File larger than 50 MB' }]));
+    if (err.code === 'LIMIT_FILE_SIZE') return next(new AppError(413, 'payload_too_large', `The file is larger than ${COUNTER_IMPORT_MAX_BYTES / 1024 / 1024} MB. Split it into smaller files; each is imported on its own.`, [{ path: 'file', message: 'File larger than 50 MB' }]));
     return next(badRequest(`Upload refused: ${err.message}`, [{ path: 'file', message: err.message }]));
   }
   next(err);
@@ -40,10 +39,10 @@ async function answer(req: Request, res: Response, work: (progress?: Progress) =
   try {
     write(await work((p) => void write({ type: 'progress', ...p })));
   } catch (err) {
-    if (err instanceof AppError) write({ type: 'error', status: err.status, message: err.message, fields: err.fields });
+    if (err instanceof AppError) write({ type: 'error', status: err.status, error: err.code, message: err.message, fields: err.fields });
     else {
       req.log?.error({ err }, 'counter import failed');
-      write({ type: 'error', status: 500, message: 'Something went wrong on our side. It has been logged.' });
+      write({ type: 'error', status: 500, error: 'internal', message: 'Something went wrong on our side. It has been logged.' });
     }
   }
   res.end();
@@ -53,10 +52,10 @@ export function registerCounterImportRoutes(r: ApiRouter) {
   route(r, 'get', '/counter-import/template', { access: 'machines.read' }, async (_req, res) => {
     res.type('text/csv').attachment('kerfbook-counter-import.csv').send(await counterImportTemplate(requestEm()));
   });
-  route(r, 'post', '/counter-import/preview', { access: 'readings.import', before: [receiveFile] }, async (req, res) => {
-    await answer(req, res, async (progress) => ({ type: 'preview', preview: await previewCounterCsv(requestEm(), requirePrincipal(req), req.file!.path, progress) }));
+  route(r, 'post', '/counter-import/preview', { access: 'readings.import', before: [receiveFile] }, async (req, res, { principal: who }) => {
+    await answer(req, res, async (progress) => ({ type: 'preview', preview: await previewCounterCsv(requestEm(), who, req.file!.path, progress) }));
   });
-  route(r, 'post', '/counter-import', { access: 'readings.import', before: [receiveFile] }, async (req, res) => {
-    await answer(req, res, async (progress) => ({ type: 'result', result: await importCounterCsv(requestEm(), requirePrincipal(req), req.file!.path, progress) }));
+  route(r, 'post', '/counter-import', { access: 'readings.import', before: [receiveFile] }, async (req, res, { principal: who }) => {
+    await answer(req, res, async (progress) => ({ type: 'result', result: await importCounterCsv(requestEm(), who, req.file!.path, progress) }));
   });
 }

@@ -1,10 +1,11 @@
 import { defineEntity, p, type InferEntity } from '@mikro-orm/core';
 import { baseProperties } from '../common/base';
+import type { ConsumableSettings } from '../../../shared/domain/consumables';
 
-export type OrgSettings = {
+/** The shop's own reference values for consumables live beside its other settings. */
+export type OrgSettings = ConsumableSettings & {
   /** Fire-watch rule after hot work; a site may follow a different local code. */
   fireWatchRule?: 'osha-1910.252' | 'nfpa-51b-2019';
-  cutToleranceMm?: number;
   [key: string]: unknown;
 };
 

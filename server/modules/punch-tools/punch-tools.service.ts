@@ -1,5 +1,6 @@
 import type { EntityManager } from '@mikro-orm/postgresql';
 import { LockMode } from '@mikro-orm/core';
+import { shopTime } from '../common/shop-time';
 import { PunchTool, ToolSharpening, type IPunchTool } from './punch-tool.entity';
 import { Machine } from '../machines/machine.entity';
 import { Meter } from '../meters/meter.entity';
@@ -89,7 +90,7 @@ export async function recordSharpening(em: EntityManager, who: Principal, toolId
     const tool = await tx.findOne(PunchTool, { id: toolId }, { lockMode: LockMode.PESSIMISTIC_WRITE });
     if (!tool) throw notFound('Tool');
     const at = input.sharpenedAt ? new Date(input.sharpenedAt) : clock.now();
-    if (tool.lastSharpenedAt && at < tool.lastSharpenedAt) throw fieldError('sharpenedAt', `The last sharpening was later (${tool.lastSharpenedAt.toISOString().slice(0, 16).replace('T', ' ')} UTC)`);
+    if (tool.lastSharpenedAt && at < tool.lastSharpenedAt) throw fieldError('sharpenedAt', `The last sharpening was later (${shopTime(tool.lastSharpenedAt, who.timeZone)})`);
     const { prev } = await neighbours(tx, tool.hitsMeter.id, at);
     const reading = prev?.value ?? tool.hitsAtLastSharpening;
     const since = tool.lastSharpenedAt ?? tool.createdAt;

@@ -1,3 +1,4 @@
+import { randomUUID } from 'node:crypto';
 import type { EntityManager } from '@mikro-orm/postgresql';
 import { Machine } from '../machines/machine.entity';
 import { PpeCheck, PpeRequirement, type IPpeRequirement } from './records.entity';
@@ -10,7 +11,6 @@ import { deriveRequiredItems } from '../../../shared/schemas/safety-ppe-derive';
 import type { ShadeTable } from '../../../shared/domain/shade';
 import type { SafetySettings } from '../../../shared/schemas/safety-records';
 import type { PpeCheckInput, PpeRequirementInput, PpeRequirementRow } from '../../../shared/schemas/safety-ppe';
-import { clock } from '../../../shared/clock';
 
 export const deriveSettings = (s: SafetySettings) => ({ shadeTable: (s.shadeTable as ShadeTable | null) ?? null, hearingRequiredFromDbA: s.hearingRequiredFromDbA, hearingRuleSource: s.hearingRuleSource });
 
@@ -89,19 +89,12 @@ export async function recordPpeCheck(em: EntityManager, who: Principal, input: P
       throw fieldError('confirmed', `Do not start: put on ${missing.map((m) => m.label.toLowerCase()).join(', ')} first, then sign`);
     }
     const machine = r.machine.getEntity();
-    const check = tx.create(PpeCheck, {
-      organization: who.orgId,
-      machine,
-      requirement: r,
-      person: who.userId,
-      checkedAt: clock.now(),
-      items: derived.required.map((i) => i.code),
-      signOff: null as never,
-    });
+    // The sign-off names the check and the check points at its sign-off: the id comes first.
+    const checkId = randomUUID();
     const signOff = await appendSignOff(tx, who, {
       meaning: 'ppe-check-done',
       subjectType: 'ppe-check',
-      subjectId: check.id,
+      subjectId: checkId,
       machineId: machine.id,
       details: {
         summary: `${machine.code} ${r.task}: ${derived.required.map((i) => (i.code === 'filter-lens' && derived.shade?.ok ? `${i.label.split(' (')[0]} shade ${derived.shade.minimum}+` : i.label.split(' (')[0])).join(', ')}`,
@@ -112,8 +105,16 @@ export async function recordPpeCheck(em: EntityManager, who: Principal, input: P
         hearing: derived.hearing ? { twaDbA: derived.hearing.twaDbA, required: derived.hearing.required, rule: derived.hearing.ruleSource } : null,
       },
     });
-    check.checkedAt = signOff.signedAt;
-    check.signOff = signOff as never;
+    const check = tx.create(PpeCheck, {
+      id: checkId,
+      organization: who.orgId,
+      machine,
+      requirement: r,
+      person: who.userId,
+      checkedAt: signOff.signedAt,
+      items: derived.required.map((i) => i.code),
+      signOff,
+    });
     recordActivity(tx, who, 'safety.ppe-check', { type: 'PpeCheck', id: check.id }, { machine: machine.code, signOffId: signOff.id });
     return { id: check.id, signOffId: signOff.id };
   });

@@ -1,4 +1,5 @@
 import type { EntityManager } from '@mikro-orm/postgresql';
+import { ref } from '@mikro-orm/core';
 import { fileTypeFromBuffer } from 'file-type';
 import { Machine } from '../machines/machine.entity';
 import { User } from '../users/user.entity';
@@ -122,7 +123,7 @@ export async function saveDraft(em: EntityManager, who: Principal, procedureId: 
     let draft = versions.find((v) => v.status === 'draft');
     if (draft) {
       draft.content = content;
-      draft.author = tx.getReference(User, who.userId) as never;
+      draft.author = tx.getReference(User, who.userId, { wrapped: true });
     } else {
       const latest = versions.at(-1)!;
       draft = tx.create(ProcedureVersion, { organization: who.orgId, procedure: proc, version: latest.version + 1, status: 'draft', content, author: who.userId, retrainingRequired: true });
@@ -167,8 +168,8 @@ export async function approveVersion(em: EntityManager, who: Principal, procedur
     for (const old of previous) old.status = 'superseded';
     v.status = 'approved';
     v.approvedAt = signOff.signedAt;
-    v.approvedBy = tx.getReference(User, who.userId) as never;
-    v.approvalSignOff = signOff as never;
+    v.approvedBy = tx.getReference(User, who.userId, { wrapped: true });
+    v.approvalSignOff = ref(signOff);
     // The first version always counts as a change people must be trained on.
     v.retrainingRequired = previous.length === 0 ? true : retrainingRequired;
     proc.title = v.content.title;

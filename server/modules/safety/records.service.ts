@@ -1,4 +1,6 @@
 import type { EntityManager } from '@mikro-orm/postgresql';
+import { randomUUID } from 'node:crypto';
+import { ref } from '@mikro-orm/core';
 import { DateTime } from 'luxon';
 import { Membership, User } from '../users/user.entity';
 import { Machine } from '../machines/machine.entity';
@@ -50,7 +52,7 @@ function notInFuture(date: string, tz: string, path: string) {
 export async function recordInspection(em: EntityManager, who: Principal, input: InspectionInput) {
   return em.transactional(async (tx) => {
     const { proc, v, machine } = await approvedVersion(tx, input.procedureId);
-    const { timeZone } = await loadSafetySettings(tx, who.orgId);
+    const { timeZone } = who;
     notInFuture(input.inspectedOn, timeZone, 'inspectedOn');
     const ids = [...new Set(input.employeeIds)];
     if (ids.includes(who.userId)) {
@@ -60,21 +62,12 @@ export async function recordInspection(em: EntityManager, who: Principal, input:
     const unknown = ids.filter((id) => !members.has(id));
     if (unknown.length) throw fieldError('employeeIds', 'Some of the employees are not active members of your shop');
     const employees = ids.map((id) => ({ id, name: members.get(id)!.name }));
-    const inspection = tx.create(PeriodicInspection, {
-      organization: who.orgId,
-      procedure: proc,
-      procedureVersion: v.version,
-      inspectedOn: input.inspectedOn,
-      inspector: who.userId,
-      employees,
-      findings: input.findings,
-      deviations: input.deviations || null,
-      performedSignOff: null as never,
-    });
+    // The sign-off names the record and the record points at its sign-off: the id comes first.
+    const inspectionId = randomUUID();
     const signOff = await appendSignOff(tx, who, {
       meaning: 'inspection-performed',
       subjectType: 'periodic-inspection',
-      subjectId: inspection.id,
+      subjectId: inspectionId,
       machineId: machine.id,
       details: {
         summary: `${machine.code} ${v.content.title} v${v.version}, ${input.inspectedOn}: ${employees.map((e) => e.name).join(', ')}`,
@@ -87,7 +80,18 @@ export async function recordInspection(em: EntityManager, who: Principal, input:
         responsibilitiesReviewed: true,
       },
     });
-    inspection.performedSignOff = signOff as never;
+    const inspection = tx.create(PeriodicInspection, {
+      id: inspectionId,
+      organization: who.orgId,
+      procedure: proc,
+      procedureVersion: v.version,
+      inspectedOn: input.inspectedOn,
+      inspector: who.userId,
+      employees,
+      findings: input.findings,
+      deviations: input.deviations || null,
+      performedSignOff: signOff,
+    });
     recordActivity(tx, who, 'safety.inspection-performed', { type: 'PeriodicInspection', id: inspection.id }, { signOffId: signOff.id });
     return { id: inspection.id, signOffId: signOff.id };
   });
@@ -118,8 +122,8 @@ export async function certifyInspection(em: EntityManager, who: Principal, id: s
       },
     });
     ins.certifiedAt = signOff.signedAt;
-    ins.certifiedBy = tx.getReference(User, who.userId) as never;
-    ins.certifySignOff = signOff as never;
+    ins.certifiedBy = tx.getReference(User, who.userId, { wrapped: true });
+    ins.certifySignOff = ref(signOff);
     recordActivity(tx, who, 'safety.inspection-certified', { type: 'PeriodicInspection', id: ins.id }, { signOffId: signOff.id });
     return { id: ins.id, signOffId: signOff.id };
   });
@@ -167,7 +171,7 @@ async function requiredVersions(em: EntityManager, procedureIds: string[]) {
 export async function recordTraining(em: EntityManager, who: Principal, input: TrainingInput) {
   return em.transactional(async (tx) => {
     const { proc, v, machine } = await approvedVersion(tx, input.procedureId);
-    const { timeZone } = await loadSafetySettings(tx, who.orgId);
+    const { timeZone } = who;
     notInFuture(input.trainedOn, timeZone, 'trainedOn');
     const members = await activeMembers(tx, who.orgId, [input.userId]);
     const person = members.get(input.userId);
@@ -175,21 +179,11 @@ export async function recordTraining(em: EntityManager, who: Principal, input: T
     if (input.kind === 'authorized' && !AUTHORIZED.includes(person.role)) {
       throw fieldError('kind', `${person.name} is not in an authorized-employee role (technician or safety officer); record affected-employee training instead`);
     }
-    const record = tx.create(TrainingRecord, {
-      organization: who.orgId,
-      person: input.userId,
-      procedure: proc,
-      procedureVersion: v.version,
-      kind: input.kind,
-      trainedOn: input.trainedOn,
-      trainer: who.userId,
-      note: input.note || null,
-      signOff: null as never,
-    });
+    const recordId = randomUUID();
     const signOff = await appendSignOff(tx, who, {
       meaning: 'training-recorded',
       subjectType: 'training',
-      subjectId: record.id,
+      subjectId: recordId,
       machineId: machine.id,
       details: {
         summary: `${person.name}: ${machine.code} ${v.content.title} v${v.version}, ${TRAINING_KIND_LABELS[input.kind].split(' (')[0].toLowerCase()}, ${input.trainedOn}`,
@@ -202,7 +196,18 @@ export async function recordTraining(em: EntityManager, who: Principal, input: T
       },
       note: input.note || null,
     });
-    record.signOff = signOff as never;
+    const record = tx.create(TrainingRecord, {
+      id: recordId,
+      organization: who.orgId,
+      person: input.userId,
+      procedure: proc,
+      procedureVersion: v.version,
+      kind: input.kind,
+      trainedOn: input.trainedOn,
+      trainer: who.userId,
+      note: input.note || null,
+      signOff,
+    });
     recordActivity(tx, who, 'safety.training-recorded', { type: 'TrainingRecord', id: record.id }, { signOffId: signOff.id });
     return { id: record.id, signOffId: signOff.id };
   });
@@ -276,11 +281,11 @@ export async function startFireWatch(em: EntityManager, who: Principal, input: S
     if (now.getTime() - ended.getTime() > 24 * 3600_000) throw fieldError('cuttingEndedAt', 'Cutting ended more than a day ago; a fire watch starts when cutting stops');
     const rule = settings.fireWatchRule;
     const until = fireWatchUntil(ended, rule);
-    const fw = tx.create(FireWatch, { organization: who.orgId, machine, watcher: who.userId, cuttingEndedAt: ended, until, rule, area: input.area || null, startSignOff: null as never });
+    const fireWatchId = randomUUID();
     const signOff = await appendSignOff(tx, who, {
       meaning: 'fire-watch-started',
       subjectType: 'fire-watch',
-      subjectId: fw.id,
+      subjectId: fireWatchId,
       machineId: machine.id,
       details: {
         summary: `${machine.code}: cutting ended ${local(ended, timeZone)}, watch until ${local(until, timeZone)} (${FIRE_WATCH_RULES[rule].source})`,
@@ -290,7 +295,7 @@ export async function startFireWatch(em: EntityManager, who: Principal, input: S
         area: input.area || null,
       },
     });
-    fw.startSignOff = signOff as never;
+    const fw = tx.create(FireWatch, { id: fireWatchId, organization: who.orgId, machine, watcher: who.userId, cuttingEndedAt: ended, until, rule, area: input.area || null, startSignOff: signOff });
     recordActivity(tx, who, 'safety.fire-watch-started', { type: 'FireWatch', id: fw.id }, { signOffId: signOff.id });
     await tx.flush();
     await tx.populate(fw, ['watcher']);
@@ -308,10 +313,10 @@ export async function endFireWatch(em: EntityManager, who: Principal, id: string
     const now = clock.now();
     if (now < fw.until) {
       const mins = Math.ceil((fw.until.getTime() - now.getTime()) / 60_000);
-      throw conflict(`Keep watching: the fire watch runs until ${fw.until.toISOString()} (${FIRE_WATCH_RULES[fw.rule as FireWatchRuleId]?.source ?? fw.rule}), ${mins} min to go`);
+      throw conflict(`Keep watching: the fire watch runs until ${local(fw.until, who.timeZone)} (${FIRE_WATCH_RULES[fw.rule as FireWatchRuleId]?.source ?? fw.rule}), ${mins} min to go`);
     }
     const machine = fw.machine.getEntity();
-    const { timeZone } = await loadSafetySettings(tx, who.orgId);
+    const { timeZone } = who;
     const signOff = await appendSignOff(tx, who, {
       meaning: 'fire-watch-ended',
       subjectType: 'fire-watch',
@@ -321,7 +326,7 @@ export async function endFireWatch(em: EntityManager, who: Principal, id: string
       note: input.note || null,
     });
     fw.endedAt = signOff.signedAt;
-    fw.endSignOff = signOff as never;
+    fw.endSignOff = ref(signOff);
     recordActivity(tx, who, 'safety.fire-watch-ended', { type: 'FireWatch', id: fw.id }, { signOffId: signOff.id });
     return fireWatchRow(fw);
   });

@@ -1,10 +1,10 @@
-import type { RequestHandler } from 'express';
+import type { Request, RequestHandler, Response } from 'express';
 import type { EntityManager } from '@mikro-orm/postgresql';
 import { z } from 'zod';
 import { route, type ApiRouter } from '../../http/route';
 import { requestEm } from '../../db';
-import { requirePrincipal } from '../../http/principal';
-import { AppError } from '../../http/errors';
+import type { Principal } from '../../http/principal';
+import { rateLimited } from '../../http/errors';
 import { singleFileUpload } from '../../http/upload';
 import type { Config } from '../../config';
 import { uuidParam } from '../../../shared/schemas/common';
@@ -41,20 +41,21 @@ const em = () => requestEm() as EntityManager;
 
 const upload = singleFileUpload('photo', PROCEDURE_PHOTO_MAX_BYTES, 'photo');
 
+/** What a signing route's handler receives: every signing body carries the signer's password. */
+type SigningInput<B extends { password: string }, P> = { body: B; params: P; query: unknown; principal: Principal };
+
 /** Every signing route: the password is checked first, so a wrong one writes nothing. */
 const signed =
-  (fn: (req: Parameters<RequestHandler>[0], res: Parameters<RequestHandler>[1]) => Promise<unknown>): RequestHandler =>
-  async (req, res) => {
-    await confirmSignature(em(), requirePrincipal(req), (res.locals.body as { password: string }).password);
-    const result = await fn(req, res);
-    res.status(201).json(result);
+  <B extends { password: string }, P>(fn: (input: SigningInput<B, P>) => Promise<unknown>) =>
+  async (_req: Request, res: Response, input: SigningInput<B, P>) => {
+    await confirmSignature(em(), input.principal, input.body.password);
+    res.status(201).json(await fn(input));
   };
 
 const mapQuery = z.object({ machineId: z.uuid().optional() });
 const versionQuery = z.object({ version: z.coerce.number().int().min(1).optional() });
 
 export function registerSafetyRoutes(r: ApiRouter, config: Config) {
-  const who = (req: Parameters<RequestHandler>[0]) => requirePrincipal(req);
   // A signature re-asks the password, so wrong passwords are limited per person as at sign-in.
   // Only wrong passwords count (a counter that also counted requests in flight would refuse
   // honest concurrent signatures).
@@ -64,7 +65,7 @@ export function registerSafetyRoutes(r: ApiRouter, config: Config) {
   const signLimit: RequestHandler = (req, res, next) => {
     const userId = req.principal?.userId ?? 'anonymous';
     if (recent(userId).length >= config.LOGIN_LIMIT_PER_ACCOUNT) {
-      return next(new AppError(429, 'too_many_requests', 'Too many wrong passwords at signing. Wait 15 minutes, or sign out and in again with the right password.'));
+      return next(rateLimited('Too many wrong passwords at signing. Wait 15 minutes, or sign out and in again with the right password.'));
     }
     res.on('finish', () => {
       if (res.statusCode === 401) failures.set(userId, [...recent(userId), Date.now()]);
@@ -74,83 +75,83 @@ export function registerSafetyRoutes(r: ApiRouter, config: Config) {
   const signing = { before: [signLimit] };
 
   // Pickers and settings.
-  route(r, 'get', '/safety/machines', { access: 'safety.read' }, async (req, res) => void res.json(await safetyMachines(em(), who(req))));
-  route(r, 'get', '/safety/people', { access: 'safety.read' }, async (req, res) => void res.json(await safetyPeople(em(), who(req))));
-  route(r, 'get', '/safety/settings', { access: 'safety.read' }, async (req, res) => void res.json(settingsView((await loadSafetySettings(em(), who(req).orgId)).settings)));
-  route(r, 'put', '/safety/settings', { access: 'safety.settings.manage', body: safetySettingsSchema }, async (req, res) => void res.json(settingsView(await saveSafetySettings(em(), who(req), res.locals.body))));
-  route(r, 'get', '/safety/tasks', { access: 'safety.read' }, async (req, res) => void res.json(await listSafetyTasks(em(), who(req).orgId)));
+  route(r, 'get', '/safety/machines', { access: 'safety.read' }, async (_req, res, { principal: who }) => void res.json(await safetyMachines(em(), who)));
+  route(r, 'get', '/safety/people', { access: 'safety.read' }, async (_req, res, { principal: who }) => void res.json(await safetyPeople(em(), who)));
+  route(r, 'get', '/safety/settings', { access: 'safety.read' }, async (_req, res, { principal: who }) => void res.json(settingsView((await loadSafetySettings(em(), who.orgId)).settings)));
+  route(r, 'put', '/safety/settings', { access: 'safety.settings.manage', body: safetySettingsSchema }, async (_req, res, { body, principal: who }) => void res.json(settingsView(await saveSafetySettings(em(), who, body))));
+  route(r, 'get', '/safety/tasks', { access: 'safety.read' }, async (_req, res, { principal: who }) => void res.json(await listSafetyTasks(em(), who.orgId)));
 
   // Energy-control procedures.
-  route(r, 'get', '/safety/procedures', { access: 'safety.read' }, async (req, res) => void res.json(await listProcedures(em(), who(req))));
-  route(r, 'post', '/safety/procedures', { access: 'safety.procedures.manage', body: createProcedureSchema }, async (req, res) => void res.status(201).json(await createProcedure(em(), who(req), res.locals.body)));
-  route(r, 'get', '/safety/procedures/:id', { access: 'safety.read', params: uuidParam, query: versionQuery }, async (_req, res) => void res.json(await getProcedure(em(), res.locals.params.id, res.locals.query.version)));
-  route(r, 'put', '/safety/procedures/:id/draft', { access: 'safety.procedures.manage', params: uuidParam, body: procedureContentSchema }, async (req, res) => void res.json(await saveDraft(em(), who(req), res.locals.params.id, res.locals.body)));
+  route(r, 'get', '/safety/procedures', { access: 'safety.read' }, async (_req, res, { principal: who }) => void res.json(await listProcedures(em(), who)));
+  route(r, 'post', '/safety/procedures', { access: 'safety.procedures.manage', body: createProcedureSchema }, async (_req, res, { body, principal: who }) => void res.status(201).json(await createProcedure(em(), who, body)));
+  route(r, 'get', '/safety/procedures/:id', { access: 'safety.read', params: uuidParam, query: versionQuery }, async (_req, res, { params, query }) => void res.json(await getProcedure(em(), params.id, query.version)));
+  route(r, 'put', '/safety/procedures/:id/draft', { access: 'safety.procedures.manage', params: uuidParam, body: procedureContentSchema }, async (_req, res, { params, body, principal: who }) => void res.json(await saveDraft(em(), who, params.id, body)));
   route(
     r,
     'post',
     '/safety/procedures/:id/versions/:version/approve',
     { access: 'safety.procedures.manage', params: versionParams, body: approveVersionSchema, ...signing },
-    signed((req, res) => approveVersion(em(), who(req), res.locals.params.id, res.locals.params.version, res.locals.body.retrainingRequired)),
+    signed(({ params, body, principal: who }) => approveVersion(em(), who, params.id, params.version, body.retrainingRequired)),
   );
-  route(r, 'post', '/safety/procedures/:id/photos', { access: 'safety.procedures.manage', params: uuidParam, before: [upload], body: photoUploadFields }, async (req, res) => {
-    res.status(201).json(await addPhoto(em(), who(req), res.locals.params.id, req.file, res.locals.body));
+  route(r, 'post', '/safety/procedures/:id/photos', { access: 'safety.procedures.manage', params: uuidParam, before: [upload], body: photoUploadFields }, async (req, res, { params, body, principal: who }) => {
+    res.status(201).json(await addPhoto(em(), who, params.id, req.file, body));
   });
-  route(r, 'get', '/safety/procedures/:id/photos/:photoId', { access: 'safety.read', params: photoParams }, async (_req, res) => {
-    const photo = await getPhoto(em(), res.locals.params.id, res.locals.params.photoId);
+  route(r, 'get', '/safety/procedures/:id/photos/:photoId', { access: 'safety.read', params: photoParams }, async (_req, res, { params }) => {
+    const photo = await getPhoto(em(), params.id, params.photoId);
     res.set('Content-Type', photo.mime).set('Cache-Control', 'private, max-age=3600').set('X-Content-Type-Options', 'nosniff').send(photo.data);
   });
-  route(r, 'delete', '/safety/procedures/:id/photos/:photoId', { access: 'safety.procedures.manage', params: photoParams }, async (req, res) => {
-    await deletePhoto(em(), who(req), res.locals.params.id, res.locals.params.photoId);
+  route(r, 'delete', '/safety/procedures/:id/photos/:photoId', { access: 'safety.procedures.manage', params: photoParams }, async (_req, res, { params, principal: who }) => {
+    await deletePhoto(em(), who, params.id, params.photoId);
     res.status(204).end();
   });
-  route(r, 'get', '/safety/procedures/:id/placard.pdf', { access: 'safety.read', params: uuidParam, query: versionQuery }, async (_req, res) => {
-    const { pdf, fileName } = await renderPlacard(em(), res.locals.params.id, config.APP_URL, res.locals.query.version);
+  route(r, 'get', '/safety/procedures/:id/placard.pdf', { access: 'safety.read', params: uuidParam, query: versionQuery }, async (_req, res, { params, query }) => {
+    const { pdf, fileName } = await renderPlacard(em(), params.id, config.APP_URL, query.version);
     res.set('Content-Type', 'application/pdf').set('Content-Disposition', `inline; filename="${fileName}"`).send(pdf);
   });
 
   // Lockout sessions.
-  route(r, 'get', '/safety/lockouts', { access: 'safety.read', query: listLockoutsQuery }, async (req, res) => void res.json(await listLockouts(em(), who(req), res.locals.query)));
-  route(r, 'post', '/safety/lockouts', { access: 'safety.lockout.sign', body: applyLockoutSchema, ...signing }, signed((req, res) => applyLockout(em(), who(req), res.locals.body)));
-  route(r, 'get', '/safety/lockouts/:id', { access: 'safety.read', params: uuidParam }, async (req, res) => void res.json(await getLockout(em(), who(req), res.locals.params.id)));
-  route(r, 'post', '/safety/lockouts/:id/verify', { access: 'safety.lockout.sign', params: uuidParam, body: verifyLockoutSchema, ...signing }, signed((req, res) => verifyLockout(em(), who(req), res.locals.params.id, res.locals.body)));
-  route(r, 'post', '/safety/lockouts/:id/join', { access: 'safety.lockout.sign', params: uuidParam, body: joinLockoutSchema, ...signing }, signed((req, res) => joinLockout(em(), who(req), res.locals.params.id, res.locals.body)));
-  route(r, 'post', '/safety/lockouts/:id/leave', { access: 'safety.lockout.sign', params: uuidParam, body: leaveLockoutSchema, ...signing }, signed((req, res) => leaveLockout(em(), who(req), res.locals.params.id)));
-  route(r, 'post', '/safety/lockouts/:id/handover', { access: 'safety.lockout.sign', params: uuidParam, body: offerHandoverSchema, ...signing }, signed((req, res) => offerHandover(em(), who(req), res.locals.params.id, res.locals.body)));
-  route(r, 'post', '/safety/lockouts/:id/accept-handover', { access: 'safety.lockout.sign', params: uuidParam, body: acceptHandoverSchema, ...signing }, signed((req, res) => acceptHandover(em(), who(req), res.locals.params.id, res.locals.body)));
-  route(r, 'post', '/safety/lockouts/:id/release', { access: 'safety.lockout.sign', params: uuidParam, body: releaseLockoutSchema, ...signing }, signed((req, res) => releaseLockout(em(), who(req), res.locals.params.id, res.locals.body)));
+  route(r, 'get', '/safety/lockouts', { access: 'safety.read', query: listLockoutsQuery }, async (_req, res, { query, principal: who }) => void res.json(await listLockouts(em(), who, query)));
+  route(r, 'post', '/safety/lockouts', { access: 'safety.lockout.sign', body: applyLockoutSchema, ...signing }, signed(({ body, principal: who }) => applyLockout(em(), who, body)));
+  route(r, 'get', '/safety/lockouts/:id', { access: 'safety.read', params: uuidParam }, async (_req, res, { params, principal: who }) => void res.json(await getLockout(em(), who, params.id)));
+  route(r, 'post', '/safety/lockouts/:id/verify', { access: 'safety.lockout.sign', params: uuidParam, body: verifyLockoutSchema, ...signing }, signed(({ params, body, principal: who }) => verifyLockout(em(), who, params.id, body)));
+  route(r, 'post', '/safety/lockouts/:id/join', { access: 'safety.lockout.sign', params: uuidParam, body: joinLockoutSchema, ...signing }, signed(({ params, body, principal: who }) => joinLockout(em(), who, params.id, body)));
+  route(r, 'post', '/safety/lockouts/:id/leave', { access: 'safety.lockout.sign', params: uuidParam, body: leaveLockoutSchema, ...signing }, signed(({ params, principal: who }) => leaveLockout(em(), who, params.id)));
+  route(r, 'post', '/safety/lockouts/:id/handover', { access: 'safety.lockout.sign', params: uuidParam, body: offerHandoverSchema, ...signing }, signed(({ params, body, principal: who }) => offerHandover(em(), who, params.id, body)));
+  route(r, 'post', '/safety/lockouts/:id/accept-handover', { access: 'safety.lockout.sign', params: uuidParam, body: acceptHandoverSchema, ...signing }, signed(({ params, body, principal: who }) => acceptHandover(em(), who, params.id, body)));
+  route(r, 'post', '/safety/lockouts/:id/release', { access: 'safety.lockout.sign', params: uuidParam, body: releaseLockoutSchema, ...signing }, signed(({ params, body, principal: who }) => releaseLockout(em(), who, params.id, body)));
 
   // PPE.
-  route(r, 'get', '/safety/ppe/requirements', { access: 'safety.read', query: mapQuery }, async (req, res) => void res.json(await listRequirements(em(), who(req), res.locals.query.machineId)));
-  route(r, 'post', '/safety/ppe/requirements', { access: 'safety.ppe.manage', body: ppeRequirementSchema }, async (req, res) => void res.status(201).json(await saveRequirement(em(), who(req), res.locals.body)));
-  route(r, 'put', '/safety/ppe/requirements/:id', { access: 'safety.ppe.manage', params: uuidParam, body: ppeRequirementSchema }, async (req, res) => void res.json(await saveRequirement(em(), who(req), res.locals.body, res.locals.params.id)));
-  route(r, 'delete', '/safety/ppe/requirements/:id', { access: 'safety.ppe.manage', params: uuidParam }, async (req, res) => {
-    await retireRequirement(em(), who(req), res.locals.params.id);
+  route(r, 'get', '/safety/ppe/requirements', { access: 'safety.read', query: mapQuery }, async (_req, res, { query, principal: who }) => void res.json(await listRequirements(em(), who, query.machineId)));
+  route(r, 'post', '/safety/ppe/requirements', { access: 'safety.ppe.manage', body: ppeRequirementSchema }, async (_req, res, { body, principal: who }) => void res.status(201).json(await saveRequirement(em(), who, body)));
+  route(r, 'put', '/safety/ppe/requirements/:id', { access: 'safety.ppe.manage', params: uuidParam, body: ppeRequirementSchema }, async (_req, res, { params, body, principal: who }) => void res.json(await saveRequirement(em(), who, body, params.id)));
+  route(r, 'delete', '/safety/ppe/requirements/:id', { access: 'safety.ppe.manage', params: uuidParam }, async (_req, res, { params, principal: who }) => {
+    await retireRequirement(em(), who, params.id);
     res.status(204).end();
   });
-  route(r, 'post', '/safety/ppe/checks', { access: 'safety.ppe.sign', body: ppeCheckSchema, ...signing }, signed((req, res) => recordPpeCheck(em(), who(req), res.locals.body)));
+  route(r, 'post', '/safety/ppe/checks', { access: 'safety.ppe.sign', body: ppeCheckSchema, ...signing }, signed(({ body, principal: who }) => recordPpeCheck(em(), who, body)));
 
   // Periodic inspections, training, hot work.
   route(r, 'get', '/safety/inspections', { access: 'safety.read' }, async (_req, res) => void res.json(await listInspections(em())));
-  route(r, 'post', '/safety/inspections', { access: 'safety.inspection.perform', body: inspectionSchema, ...signing }, signed((req, res) => recordInspection(em(), who(req), res.locals.body)));
-  route(r, 'post', '/safety/inspections/:id/certify', { access: 'safety.inspection.certify', params: uuidParam, body: certifySchema, ...signing }, signed((req, res) => certifyInspection(em(), who(req), res.locals.params.id)));
+  route(r, 'post', '/safety/inspections', { access: 'safety.inspection.perform', body: inspectionSchema, ...signing }, signed(({ body, principal: who }) => recordInspection(em(), who, body)));
+  route(r, 'post', '/safety/inspections/:id/certify', { access: 'safety.inspection.certify', params: uuidParam, body: certifySchema, ...signing }, signed(({ params, principal: who }) => certifyInspection(em(), who, params.id)));
   route(r, 'get', '/safety/training', { access: 'safety.read' }, async (_req, res) => void res.json(await listTraining(em())));
-  route(r, 'post', '/safety/training', { access: 'safety.training.manage', body: trainingSchema, ...signing }, signed((req, res) => recordTraining(em(), who(req), res.locals.body)));
+  route(r, 'post', '/safety/training', { access: 'safety.training.manage', body: trainingSchema, ...signing }, signed(({ body, principal: who }) => recordTraining(em(), who, body)));
   route(r, 'get', '/safety/fire-watches', { access: 'safety.read' }, async (_req, res) => void res.json(await listFireWatches(em())));
-  route(r, 'post', '/safety/fire-watches', { access: 'safety.hotwork.sign', body: startFireWatchSchema, ...signing }, signed((req, res) => startFireWatch(em(), who(req), res.locals.body)));
-  route(r, 'post', '/safety/fire-watches/:id/end', { access: 'safety.hotwork.sign', params: uuidParam, body: endFireWatchSchema, ...signing }, signed((req, res) => endFireWatch(em(), who(req), res.locals.params.id, res.locals.body)));
+  route(r, 'post', '/safety/fire-watches', { access: 'safety.hotwork.sign', body: startFireWatchSchema, ...signing }, signed(({ body, principal: who }) => startFireWatch(em(), who, body)));
+  route(r, 'post', '/safety/fire-watches/:id/end', { access: 'safety.hotwork.sign', params: uuidParam, body: endFireWatchSchema, ...signing }, signed(({ params, body, principal: who }) => endFireWatch(em(), who, params.id, body)));
 
   // The audit.
-  route(r, 'get', '/safety/sign-offs', { access: 'safety.audit', query: listSignOffsQuery }, async (req, res) => void res.json(await listSignOffs(em(), who(req), res.locals.query)));
-  route(r, 'post', '/safety/sign-offs/:id/corrections', { access: 'safety.correct', params: uuidParam, body: correctionSchema, ...signing }, signed((req, res) => correctSignOff(em(), who(req), res.locals.params.id, res.locals.body.note)));
-  route(r, 'get', '/safety/chain/verify', { access: 'safety.audit' }, async (req, res) => void res.json(await verifyShopChain(em(), who(req).orgId)));
-  route(r, 'get', '/safety/audit/compliance', { access: 'safety.audit', query: complianceQuery }, async (req, res) => void res.json(await compliance(em(), who(req), res.locals.query.days)));
-  route(r, 'get', '/safety/audit/timeline', { access: 'safety.audit', query: timelineQuery }, async (req, res) => void res.json(await timeline(em(), who(req), res.locals.query.weeks)));
-  route(r, 'get', '/safety/audit/export.csv', { access: 'safety.audit', query: exportSignOffsQuery }, async (req, res) => {
-    const { csv, fileName, verification } = await exportCsv(em(), who(req), res.locals.query);
+  route(r, 'get', '/safety/sign-offs', { access: 'safety.audit', query: listSignOffsQuery }, async (_req, res, { query, principal: who }) => void res.json(await listSignOffs(em(), who, query)));
+  route(r, 'post', '/safety/sign-offs/:id/corrections', { access: 'safety.correct', params: uuidParam, body: correctionSchema, ...signing }, signed(({ params, body, principal: who }) => correctSignOff(em(), who, params.id, body.note)));
+  route(r, 'get', '/safety/chain/verify', { access: 'safety.audit' }, async (_req, res, { principal: who }) => void res.json(await verifyShopChain(em(), who.orgId)));
+  route(r, 'get', '/safety/audit/compliance', { access: 'safety.audit', query: complianceQuery }, async (_req, res, { query, principal: who }) => void res.json(await compliance(em(), who, query.days)));
+  route(r, 'get', '/safety/audit/timeline', { access: 'safety.audit', query: timelineQuery }, async (_req, res, { query, principal: who }) => void res.json(await timeline(em(), who, query.weeks)));
+  route(r, 'get', '/safety/audit/export.csv', { access: 'safety.audit', query: exportSignOffsQuery }, async (_req, res, { query, principal: who }) => {
+    const { csv, fileName, verification } = await exportCsv(em(), who, query);
     res.set('Content-Type', 'text/csv; charset=utf-8').set('Content-Disposition', `attachment; filename="${fileName}"`).set('X-Chain-Verified', String(verification.ok)).send(csv);
   });
-  route(r, 'get', '/safety/audit/export.pdf', { access: 'safety.audit', query: exportSignOffsQuery }, async (req, res) => {
-    const { pdf, fileName } = await exportPdf(em(), who(req), res.locals.query);
+  route(r, 'get', '/safety/audit/export.pdf', { access: 'safety.audit', query: exportSignOffsQuery }, async (_req, res, { query, principal: who }) => {
+    const { pdf, fileName } = await exportPdf(em(), who, query);
     res.set('Content-Type', 'application/pdf').set('Content-Disposition', `attachment; filename="${fileName}"`).send(pdf);
   });
 }

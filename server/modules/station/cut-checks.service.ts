@@ -22,7 +22,7 @@ export async function recordCutCheck(em: EntityManager, who: Principal, input: C
     const at = input.checkedAt ? new Date(input.checkedAt) : clock.now();
     if (at.getTime() > clock.ms() + 5 * 60_000) throw fieldError('checkedAt', 'The check time lies in the future');
     const org = await tx.findOneOrFail(Organization, who.orgId);
-    const tolerance = referenceValues(org.settings as never).cutToleranceMm.value;
+    const tolerance = referenceValues(org.settings).cutToleranceMm.value;
     const result = couponResult(input.dimensions, tolerance);
     const inTorch = await tx.find(ConsumableInstall, { torch: torch.id, installedAt: { $lte: at }, $or: [{ removedAt: null }, { removedAt: { $gt: at } }] });
     const check = tx.create(CutCheck, {

@@ -56,7 +56,7 @@ export async function lifeStats(em: EntityManager, who: Principal, partTypeId: s
   );
 
   const org = await em.findOneOrFail(Organization, who.orgId);
-  const target = referenceValues(org.settings as never).changeTargetReliability.value;
+  const target = referenceValues(org.settings).changeTargetReliability.value;
   let fit: LifeStats['fit'] = null;
   let fitProblem: string | null = null;
   if (failures.length < 3) fitProblem = `A fit needs at least 3 worn-out parts; ${failures.length} so far.`;

@@ -2,7 +2,6 @@ import { z } from 'zod';
 import type { RequestHandler } from 'express';
 import { route, type ApiRouter } from '../../http/route';
 import { requestEm } from '../../db';
-import { requirePrincipal } from '../../http/principal';
 import { badRequest } from '../../http/errors';
 import { singleFileUpload } from '../../http/upload';
 import { uuidParam } from '../../../shared/schemas/common';
@@ -38,39 +37,37 @@ const changesQuery = paging.extend({ machineId: z.uuid().optional() });
 
 /** The station page at the machine: its view, consumable changes with photos, cut checks and consumable lives. */
 export function registerStationRoutes(r: ApiRouter) {
-  route(r, 'get', '/stations/:code', { access: 'machines.read', params: machineCodeParam }, async (req, res) => {
-    res.json(await stationView(requestEm(), requirePrincipal(req), res.locals.params.code));
+  route(r, 'get', '/stations/:code', { access: 'machines.read', params: machineCodeParam }, async (_req, res, { params, principal: who }) => {
+    res.json(await stationView(requestEm(), who, params.code));
   });
-  route(r, 'post', '/consumable-changes', { access: 'consumables.log', before: [receiveChange], body: consumableChangeSchema }, async (req, res) => {
-    res.status(201).json(await logChange(requestEm(), requirePrincipal(req), res.locals.body, req.file?.buffer));
+  route(r, 'post', '/consumable-changes', { access: 'consumables.log', before: [receiveChange], body: consumableChangeSchema }, async (req, res, { body, principal: who }) => {
+    res.status(201).json(await logChange(requestEm(), who, body, req.file?.buffer));
   });
-  route(r, 'get', '/consumable-changes', { access: 'machines.read', query: changesQuery }, async (_req, res) => {
+  route(r, 'get', '/consumable-changes', { access: 'machines.read', query: changesQuery }, async (_req, res, { query: q }) => {
     const em = requestEm();
-    const q = res.locals.query as z.output<typeof changesQuery>;
     const torchIds = q.machineId ? (await subtreeMachines(em, q.machineId)).filter((m) => m.kind === 'torch').map((m) => m.id) : undefined;
     res.json(await listChanges(em, { torchIds, page: q.page, pageSize: q.pageSize }));
   });
-  route(r, 'get', '/consumable-changes/:id/photo', { access: 'machines.read', params: uuidParam }, async (_req, res) => {
-    const photo = await getPhoto(requestEm(), res.locals.params.id);
+  route(r, 'get', '/consumable-changes/:id/photo', { access: 'machines.read', params: uuidParam }, async (_req, res, { params }) => {
+    const photo = await getPhoto(requestEm(), params.id);
     res.type(photo.mimeType).setHeader('Cache-Control', 'private, max-age=3600');
     res.send(photo.data);
   });
-  route(r, 'get', '/consumable-life', { access: 'machines.read', query: lifeStatsQuery }, async (req, res) => {
-    res.json(await lifeStats(requestEm(), requirePrincipal(req), res.locals.query.partTypeId, res.locals.query.machineId));
+  route(r, 'get', '/consumable-life', { access: 'machines.read', query: lifeStatsQuery }, async (_req, res, { query, principal: who }) => {
+    res.json(await lifeStats(requestEm(), who, query.partTypeId, query.machineId));
   });
-  route(r, 'post', '/cut-checks', { access: 'cutchecks.record', body: cutCheckSchema }, async (req, res) => {
-    res.status(201).json(await recordCutCheck(requestEm(), requirePrincipal(req), res.locals.body));
+  route(r, 'post', '/cut-checks', { access: 'cutchecks.record', body: cutCheckSchema }, async (_req, res, { body, principal: who }) => {
+    res.status(201).json(await recordCutCheck(requestEm(), who, body));
   });
-  route(r, 'get', '/cut-checks', { access: 'machines.read', query: changesQuery }, async (_req, res) => {
+  route(r, 'get', '/cut-checks', { access: 'machines.read', query: changesQuery }, async (_req, res, { query: q }) => {
     const em = requestEm();
-    const q = res.locals.query as z.output<typeof changesQuery>;
     const torchIds = q.machineId ? (await subtreeMachines(em, q.machineId)).map((m) => m.id) : undefined;
     res.json(await listCutChecks(em, { torchIds, page: q.page, pageSize: q.pageSize }));
   });
-  route(r, 'get', '/consumable-settings', { access: 'machines.read' }, async (req, res) => {
-    res.json(await getConsumableSettings(requestEm(), requirePrincipal(req)));
+  route(r, 'get', '/consumable-settings', { access: 'machines.read' }, async (_req, res, { principal: who }) => {
+    res.json(await getConsumableSettings(requestEm(), who));
   });
-  route(r, 'patch', '/consumable-settings', { access: 'org.settings.manage', body: consumableSettingsSchema }, async (req, res) => {
-    res.json(await updateConsumableSettings(requestEm(), requirePrincipal(req), res.locals.body));
+  route(r, 'patch', '/consumable-settings', { access: 'org.settings.manage', body: consumableSettingsSchema }, async (_req, res, { body, principal: who }) => {
+    res.json(await updateConsumableSettings(requestEm(), who, body));
   });
 }

@@ -1,6 +1,7 @@
 import type { EntityManager } from '@mikro-orm/postgresql';
-import { LockMode } from '@mikro-orm/core';
+import { LockMode, ref } from '@mikro-orm/core';
 import { fileTypeFromBuffer } from 'file-type';
+import { shopTime } from '../common/shop-time';
 import { ConsumableChange, ConsumableInstall, ConsumablePhoto, CutCheck } from './consumable.entity';
 import { Machine, type IMachine } from '../machines/machine.entity';
 import { Meter, type IMeter } from '../meters/meter.entity';
@@ -50,7 +51,7 @@ export async function torchMeters(em: EntityManager, torches: IMachine[]): Promi
 }
 
 function settingsOf(org: { settings: OrgSettings }) {
-  return referenceValues(org.settings as never);
+  return referenceValues(org.settings);
 }
 
 /** Advance of a meter from an installation to now (or to `until`), or null without a counter. */
@@ -136,7 +137,7 @@ export async function stationView(em: EntityManager, who: Principal, code: strin
     });
   }
   const parts = await em.find(PartType, { active: true, category: { $in: [...TORCH_CATEGORIES] } }, { orderBy: { partNumber: 'asc' } });
-  const ref = settingsOf(org);
+  const values = settingsOf(org);
   return {
     machine: { id: machine.id, code: machine.code, name: machine.name, kind: machine.kind, location: machine.location ?? null },
     torches: torchViews,
@@ -145,7 +146,7 @@ export async function stationView(em: EntityManager, who: Principal, code: strin
     partOptions: parts.map((p) => ({ id: p.id, partNumber: p.partNumber, name: p.name, category: p.category, onHand: p.onHand, stockUnit: p.stockUnit })),
     recentChanges: (await listChanges(em, { torchIds: torches.map((t) => t.id), page: 1, pageSize: 5 })).rows,
     ...(await stationStatus(em, who.orgId, subtree.map((m) => m.id), ancestorsOf(all, machine))),
-    reference: { pitLimitMm: ref.electrodePitLimitMm, cutToleranceMm: ref.cutToleranceMm, changeReliability: ref.changeTargetReliability },
+    reference: { pitLimitMm: values.electrodePitLimitMm, cutToleranceMm: values.cutToleranceMm, changeReliability: values.changeTargetReliability },
   };
 }
 
@@ -205,7 +206,7 @@ export async function logChange(em: EntityManager, who: Principal, input: Consum
     for (const category of input.categories as TorchCategory[]) {
       const label = PART_CATEGORY_LABELS[category];
       const old = open.find((i) => i.category === category);
-      if (old && old.installedAt > changedAt) throw fieldError('changedAt', `The ${label.toLowerCase()} in the torch went in after this time (${old.installedAt.toISOString().slice(0, 16).replace('T', ' ')} UTC)`);
+      if (old && old.installedAt > changedAt) throw fieldError('changedAt', `The ${label.toLowerCase()} in the torch went in after this time (${shopTime(old.installedAt, who.timeZone)})`);
       const partTypeId = input.partTypeIds[category] ?? old?.partType.id;
       if (!partTypeId) throw fieldError(`partTypeIds.${category}`, `Choose which ${label.toLowerCase()} goes in`);
       const part = await tx.findOne(PartType, { id: partTypeId });
@@ -213,7 +214,7 @@ export async function logChange(em: EntityManager, who: Principal, input: Consum
       if (part.category !== category) throw fieldError(`partTypeIds.${category}`, `${part.partNumber} is ${article(PART_CATEGORY_LABELS[part.category])}, not ${article(label)}`);
       if (old) {
         old.removedAt = changedAt;
-        old.removalChange = change as never;
+        old.removalChange = ref(change);
         old.removalReason = input.reason;
         old.lifeStarts = await advanceFrom(tx, meters.starts?.id, old.startsAtInstall, old.installedAt, changedAt);
         old.lifeArcHours = await advanceFrom(tx, meters.arcHours?.id, old.arcHoursAtInstall, old.installedAt, changedAt);

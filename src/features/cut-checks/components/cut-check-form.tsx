@@ -1,5 +1,5 @@
 import { useState } from 'react';
-import { useFieldArray, useForm } from 'react-hook-form';
+import { useFieldArray, useForm, type Resolver } from 'react-hook-form';
 import { zodResolver } from '@hookform/resolvers/zod';
 import type { z } from 'zod';
 import { cutCheckSchema, type CutCheckRow, type ReferenceValue } from '../../../../shared/schemas/consumables';
@@ -8,7 +8,9 @@ import { Notice } from '../../../components/ui/notice';
 import { applyServerErrors } from '../../../lib/form-errors';
 import { useRecordCutCheck } from '../api/record-cut-check';
 
-type In = z.input<typeof cutCheckSchema>;
+/** While typing, a size may still be empty; the schema refuses it at submit. */
+type DimensionDraft = { label: string; nominalMm?: number; measuredMm?: number };
+type In = Omit<z.input<typeof cutCheckSchema>, 'dimensions'> & { dimensions: DimensionDraft[] };
 type Out = z.output<typeof cutCheckSchema>;
 const num = (v: unknown) => (v === '' || v === null || v === undefined ? undefined : Number(v));
 const input = 'block min-h-touch w-full rounded border border-steel-400 bg-white px-3';
@@ -19,8 +21,9 @@ export function CutCheckForm({ torches, tolerance }: { torches: { id: string; co
   const [result, setResult] = useState<CutCheckRow | null>(null);
   const [formError, setFormError] = useState<string | null>(null);
   const { register, control, handleSubmit, setError, formState } = useForm<In, unknown, Out>({
-    resolver: zodResolver(cutCheckSchema),
-    defaultValues: { torchId: torches[0]?.id, dimensions: [{ label: 'Length', nominalMm: 100 }, { label: 'Width', nominalMm: 50 }, { label: 'Hole Ø', nominalMm: 20 }] as In['dimensions'] },
+    // The schema takes any draft and names each empty or wrong size, so it can check drafts.
+    resolver: zodResolver(cutCheckSchema) as Resolver<In, unknown, Out>,
+    defaultValues: { torchId: torches[0]?.id, dimensions: [{ label: 'Length', nominalMm: 100 }, { label: 'Width', nominalMm: 50 }, { label: 'Hole Ø', nominalMm: 20 }] },
   });
   const dims = useFieldArray({ control, name: 'dimensions' });
   const onSubmit = handleSubmit(async (values) => {
@@ -73,7 +76,7 @@ export function CutCheckForm({ torches, tolerance }: { torches: { id: string; co
       </table>
       {e.dimensions?.message ? <p role="alert" className="font-semibold text-danger">{e.dimensions.message}</p> : null}
       <div className="flex flex-wrap gap-2">
-        <Button variant="secondary" onClick={() => dims.append({ label: '', nominalMm: undefined as never, measuredMm: undefined as never })} disabled={dims.fields.length >= 12}>Add a dimension</Button>
+        <Button variant="secondary" onClick={() => dims.append({ label: '', nominalMm: undefined, measuredMm: undefined })} disabled={dims.fields.length >= 12}>Add a dimension</Button>
         <Button type="submit" busy={formState.isSubmitting}>Record the coupon</Button>
       </div>
     </form>

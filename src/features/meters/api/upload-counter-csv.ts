@@ -3,6 +3,7 @@ import { ApiError } from '../../../lib/api-client';
 import type { ImportPreview, ImportResult, ImportStreamLine } from '../../../../shared/schemas/counter-import';
 import { queryRoots } from '../../../lib/query-keys';
 import { meterKeys } from './keys';
+import type { ApiErrorBody } from '../../../../shared/schemas/common';
 
 export type UploadProgress = { phase: 'uploading' | 'reading' | 'checking' | 'writing'; done: number; total: number };
 
@@ -42,18 +43,18 @@ async function uploadCsv<T>(path: string, file: File, onProgress: (p: UploadProg
     xhr.onload = () => {
       if (xhr.status !== 200) {
         // Refused before streaming began (size cap, columns, permissions): a JSON error body.
-        let body: { error?: string; message?: string; fields?: { path: string; message: string }[] } = {};
+        let body: Partial<ApiErrorBody> = {};
         try {
           body = JSON.parse(xhr.responseText);
         } catch {
           /* not JSON */
         }
-        return reject(new ApiError(xhr.status, body.error ?? 'error', body.message ?? `Upload failed (${xhr.status})`, body.fields ?? []));
+        return reject(new ApiError(xhr.status, body.error ?? 'unknown', body.message ?? `Upload failed (${xhr.status})`, body.fields ?? []));
       }
       consume();
       const o = outcome as ImportStreamLine | null;
-      if (!o) return reject(new ApiError(500, 'error', 'The server ended the answer early'));
-      if (o.type === 'error') return reject(new ApiError(o.status, 'error', o.message, o.fields ?? []));
+      if (!o) return reject(new ApiError(500, 'unknown', 'The server ended the answer early'));
+      if (o.type === 'error') return reject(new ApiError(o.status, o.error, o.message, o.fields ?? []));
       resolve((o.type === 'preview' ? o.preview : o.type === 'result' ? o.result : null) as T);
     };
     const form = new FormData();

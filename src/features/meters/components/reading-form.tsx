@@ -26,7 +26,7 @@ export function ReadingForm({ meter }: { meter: MeterRow }) {
     try {
       await add.mutateAsync({ meterId: meter.id, ...values });
       setSaved(`Recorded ${formatValue(values.value, meter.unit)}.`);
-      reset({ isReset: false, value: undefined as never, readAt: undefined, note: '' });
+      reset({ isReset: false, value: undefined, readAt: undefined, note: '' });
     } catch (err) {
       setFormError(applyServerErrors(err, setError, ['value', 'readAt', 'isReset', 'note']));
     }

@@ -118,7 +118,7 @@ export function ProcedureForm({
       await onSubmit({ machineId: v.machineId, content: toContent(v) });
     } catch (err) {
       const names = ['machineId', 'title', 'scope', 'sources', 'release', ...PROCEDURE_PHASES.map((p) => `steps.${p}`), ...v.sources.flatMap((_, i) => Object.keys(v.sources[0]).map((k) => `sources.${i}.${k}`))];
-      setFormError(applyServerErrors(err, setError as never, names));
+      setFormError(applyServerErrors(err, setError, names));
     }
   });
 
