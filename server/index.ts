@@ -1,6 +1,7 @@
 import { loadConfig } from './config';
 import { initORM, closeORM } from './db';
 import { createApp } from './app';
+import { migrate } from './migrate';
 import { FakeSmtp } from './mail/fake-smtp';
 import { createTransport } from './mail/transport';
 import { startOutboxSender } from './mail/sender';
@@ -10,9 +11,10 @@ import { logger } from './logger';
 
 async function main() {
   const config = loadConfig();
+  // Migrations run as the owner role; the server itself connects as the app role.
+  const applied = await migrate(config.DATABASE_URL, config.MIGRATION_DATABASE_URL);
+  if (applied.length) logger.info({ migrations: applied }, 'migrations applied');
   const orm = await initORM(config.DATABASE_URL);
-  const applied = await orm.getMigrator().up();
-  if (applied.length) logger.info({ migrations: applied.map((m) => m.name) }, 'migrations applied');
 
   const smtp = config.MAIL_CAPTURE ? new FakeSmtp(config.SMTP_PORT) : null;
   if (smtp) await smtp.start();
