@@ -43,6 +43,7 @@ ensure_postgres_installed() {
 # Where the cluster lives: .data/pg, unless we run as root and the postgres user cannot
 # reach the project folder (e.g. under /root); then a temporary folder keyed by the path.
 data_dir() {
+  if [ -n "${KERFBOOK_PGDATA:-}" ]; then echo "$KERFBOOK_PGDATA"; return 0; fi # a second cluster (fault tests)
   local dir="$ROOT/.data/pg"
   if [ "$(id -u)" = 0 ] && ! runuser -u postgres -- test -x "$ROOT" 2>/dev/null; then
     local key; key="$(printf '%s' "$ROOT" | sha256sum | cut -c1-12)"
