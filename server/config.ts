@@ -54,6 +54,6 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env): Config {
     APP_URL: c.APP_URL ?? `http://${c.HOST}:${c.PORT}`,
     SESSION_SECRET: c.SESSION_SECRET ?? 'kerfbook-development-secret-not-for-production',
     MAIL_CAPTURE: c.MAIL_CAPTURE ?? !production,
-    MIGRATION_DATABASE_URL: c.MIGRATION_DATABASE_URL ?? ownerUrlFor(c.DATABASE_URL),
+    MIGRATION_DATABASE_URL: c.MIGRATION_DATABASE_URL || ownerUrlFor(c.DATABASE_URL),
   };
 }

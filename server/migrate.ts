@@ -10,7 +10,7 @@ const defaultAppUrl = () => process.env.DATABASE_URL ?? `postgres://kerfbook:ker
  * default: the private cluster's owner role on the same database) runs the migrations.
  * Uses its own short-lived ORM, so the server's pool never holds the owner's rights.
  */
-export async function migrate(appUrl = defaultAppUrl(), ownerUrl = process.env.MIGRATION_DATABASE_URL ?? ownerUrlFor(appUrl)): Promise<string[]> {
+export async function migrate(appUrl = defaultAppUrl(), ownerUrl = process.env.MIGRATION_DATABASE_URL || ownerUrlFor(appUrl)): Promise<string[]> {
   const orm = await MikroORM.init({ ...createOrmConfig(ownerUrl), pool: { min: 0, max: 1 } });
   try {
     const applied = await orm.getMigrator().up();
