@@ -1,7 +1,9 @@
 import pg from 'pg';
+import { ownerUrlFor } from '../server/db-roles';
 
-/** Creates the bench database when missing and empties it, so every run starts alike. */
-export async function freshDatabase(url: string) {
+/** Creates the bench database when missing and empties it, so every run starts alike (as the owner role, which migrates it). */
+export async function freshDatabase(appUrl: string) {
+  const url = ownerUrlFor(appUrl);
   const target = new URL(url);
   const dbName = target.pathname.slice(1);
   const adminUrl = new URL(url);

@@ -1,6 +1,10 @@
 #!/usr/bin/env bash
 # Private PostgreSQL cluster on 127.0.0.1 for development and tests.
-#   scripts/db.sh start   init (first time) and start; create the app role and databases
+#   scripts/db.sh start   init (first time) and start; create the owner and app roles and databases
+# Two roles: the owner (kerfbook_owner) owns the schema and runs migrations; the app role
+# (kerfbook) the server connects as has only the table privileges the migration grants it,
+# so it cannot alter, disable or drop triggers and constraints. Re-running upgrades a cluster
+# made when the app role owned everything.
 #   scripts/db.sh stop    stop the cluster
 #   scripts/db.sh status
 # PostgreSQL refuses to run as root, so as root the server runs as the `postgres` OS user.
@@ -10,6 +14,8 @@ ROOT="$(pwd)"
 PGPORT="${PGPORT:-54329}"
 APP_USER=kerfbook
 APP_PASSWORD="${KERFBOOK_DB_PASSWORD:-kerfbook}"
+OWNER_USER=kerfbook_owner
+OWNER_PASSWORD="${KERFBOOK_DB_OWNER_PASSWORD:-kerfbook-owner}"
 SUPER_PASSWORD="${KERFBOOK_DB_SUPER_PASSWORD:-kerfbook-super}"
 
 find_pg_bin() {
@@ -37,6 +43,7 @@ ensure_postgres_installed() {
 # Where the cluster lives: .data/pg, unless we run as root and the postgres user cannot
 # reach the project folder (e.g. under /root); then a temporary folder keyed by the path.
 data_dir() {
+  if [ -n "${KERFBOOK_PGDATA:-}" ]; then echo "$KERFBOOK_PGDATA"; return 0; fi # a second cluster (fault tests)
   local dir="$ROOT/.data/pg"
   if [ "$(id -u)" = 0 ] && ! runuser -u postgres -- test -x "$ROOT" 2>/dev/null; then
     local key; key="$(printf '%s' "$ROOT" | sha256sum | cut -c1-12)"
@@ -51,6 +58,16 @@ as_pg() {
 
 psql_super() {
   PGPASSWORD="$SUPER_PASSWORD" "$PG_BIN/psql" -h 127.0.0.1 -p "$PGPORT" -U postgres -d postgres -v ON_ERROR_STOP=1 -qtA "$@"
+}
+
+psql_super_in() {
+  local db="$1"; shift
+  PGPASSWORD="$SUPER_PASSWORD" "$PG_BIN/psql" -h 127.0.0.1 -p "$PGPORT" -U postgres -d "$db" -v ON_ERROR_STOP=1 -qtA "$@"
+}
+
+ensure_role() { # name password attributes
+  psql_super -c "DO \$\$ BEGIN IF NOT EXISTS (SELECT 1 FROM pg_roles WHERE rolname = '$1') THEN CREATE ROLE $1 LOGIN PASSWORD '$2'; END IF; END \$\$;"
+  psql_super -c "ALTER ROLE $1 $3"
 }
 
 start() {
@@ -86,14 +103,22 @@ CONF
     as_pg "$PG_BIN/pg_ctl" -D "$dir" -l "$dir/server.log" -o "-p $PGPORT" -w -t 60 start >/dev/null
     echo "PostgreSQL started on 127.0.0.1:$PGPORT (data: $dir)"
   fi
-  # App role: not a superuser, so table grants and triggers bind it.
-  psql_super -c "DO \$\$ BEGIN IF NOT EXISTS (SELECT 1 FROM pg_roles WHERE rolname = '$APP_USER') THEN CREATE ROLE $APP_USER LOGIN PASSWORD '$APP_PASSWORD' CREATEDB; END IF; END \$\$;"
+  # Neither role is a superuser, so grants and triggers bind both; only the owner may change the schema.
+  ensure_role "$OWNER_USER" "$OWNER_PASSWORD" "NOSUPERUSER CREATEDB"
+  ensure_role "$APP_USER" "$APP_PASSWORD" "NOSUPERUSER NOCREATEDB"
   local db
   for db in ${KERFBOOK_DATABASES:-kerfbook kerfbook_test kerfbook_e2e}; do
     if [ -z "$(psql_super -c "SELECT 1 FROM pg_database WHERE datname = '$db'")" ]; then
-      psql_super -c "CREATE DATABASE $db OWNER $APP_USER" >/dev/null
+      psql_super -c "CREATE DATABASE $db OWNER $OWNER_USER" >/dev/null
       echo "Created database $db"
     fi
+    # Upgrade: a database (and its tables) made when the app role owned them passes to the owner.
+    # The next migration run grants the app role its privileges again.
+    if [ -n "$(psql_super -c "SELECT 1 FROM pg_database d JOIN pg_roles r ON r.oid = d.datdba WHERE d.datname = '$db' AND r.rolname <> '$OWNER_USER'")" ]; then
+      psql_super -c "ALTER DATABASE $db OWNER TO $OWNER_USER"
+      echo "Database $db now belongs to $OWNER_USER"
+    fi
+    psql_super_in "$db" -c "REASSIGN OWNED BY $APP_USER TO $OWNER_USER"
   done
 }
 

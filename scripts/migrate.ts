@@ -1,18 +1,12 @@
-// Applies pending migrations to DATABASE_URL (used by npm start and the test setup).
-import { initORM, closeORM } from '../server/db';
+// npm run db:migrate: applies pending migrations as the owner role (MIGRATION_DATABASE_URL) and
+// grants the app role (DATABASE_URL) its privileges. Also imported by the test setup and benches.
+import { migrate } from '../server/migrate';
 
-export async function migrate(databaseUrl?: string): Promise<string[]> {
-  const orm = await initORM(databaseUrl);
-  const applied = await orm.getMigrator().up();
-  return applied.map((m) => m.name);
-}
+export { migrate };
 
 if (import.meta.url === `file://${process.argv[1]}`) {
   migrate()
-    .then((names) => {
-      console.log(names.length ? `Applied migrations: ${names.join(', ')}` : 'Database schema is up to date');
-      return closeORM();
-    })
+    .then((names) => console.log(names.length ? `Applied migrations: ${names.join(', ')}` : 'Database schema is up to date'))
     .catch((err) => {
       console.error('Migration failed:', err instanceof Error ? err.message : err);
       process.exit(1);

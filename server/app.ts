@@ -34,6 +34,7 @@ import { runScheduledPass } from './jobs/scheduler';
 import { planEvaluator } from './jobs/due-engine';
 import type { FakeSmtp } from './mail/fake-smtp';
 import { logger } from './logger';
+import { keepPoolAlive } from './db-faults';
 
 export type AppDeps = { orm: MikroORM; config: Config; smtp?: FakeSmtp | null };
 export type AppHandle = { app: Express; api: ApiRouter; routeAccess: Map<string, Access>; close: () => Promise<void> };
@@ -41,7 +42,8 @@ export type AppHandle = { app: Express; api: ApiRouter; routeAccess: Map<string,
 /** Builds the app without listening, so tests can drive it with supertest. */
 export function createApp({ orm, config, smtp = null }: AppDeps): AppHandle {
   const app = express();
-  const pool = new pg.Pool({ connectionString: config.DATABASE_URL, max: 5 });
+  // The session store's own pool; keepPoolAlive: a dropped idle connection must not end the process.
+  const pool = keepPoolAlive(new pg.Pool({ connectionString: config.DATABASE_URL, max: 5, connectionTimeoutMillis: 10_000 }), 'sessions');
 
   if (config.TRUST_PROXY) app.set('trust proxy', /^\d+$/.test(config.TRUST_PROXY) ? Number(config.TRUST_PROXY) : config.TRUST_PROXY);
   app.disable('x-powered-by');

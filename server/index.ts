@@ -1,6 +1,7 @@
 import { loadConfig } from './config';
 import { initORM, closeORM } from './db';
 import { createApp } from './app';
+import { migrate } from './migrate';
 import { FakeSmtp } from './mail/fake-smtp';
 import { createTransport } from './mail/transport';
 import { startOutboxSender } from './mail/sender';
@@ -10,9 +11,10 @@ import { logger } from './logger';
 
 async function main() {
   const config = loadConfig();
+  // Migrations run as the owner role; the server itself connects as the app role.
+  const applied = await migrate(config.DATABASE_URL, config.MIGRATION_DATABASE_URL);
+  if (applied.length) logger.info({ migrations: applied }, 'migrations applied');
   const orm = await initORM(config.DATABASE_URL);
-  const applied = await orm.getMigrator().up();
-  if (applied.length) logger.info({ migrations: applied.map((m) => m.name) }, 'migrations applied');
 
   const smtp = config.MAIL_CAPTURE ? new FakeSmtp(config.SMTP_PORT) : null;
   if (smtp) await smtp.start();
@@ -35,19 +37,39 @@ async function main() {
     if (stopping) return;
     stopping = true;
     logger.info({ signal }, 'shutting down');
-    // Stop accepting; in-flight requests finish, idle keep-alive sockets close.
+    // A request that never ends must not keep the process from stopping.
+    setTimeout(() => {
+      logger.error('shutdown took longer than 30 s; exiting');
+      process.exit(1);
+    }, 30_000).unref();
+    // Stop accepting; in-flight requests finish. Keep-alive sockets close as soon as they are idle.
     const closed = new Promise<void>((resolve) => server.close(() => resolve()));
     server.closeIdleConnections();
-    await task.stop();
-    await stopSender();
+    const idleSweep = setInterval(() => server.closeIdleConnections(), 100);
+    let exitCode = 0;
+    const step = async (name: string, fn: () => Promise<unknown> | unknown) => {
+      try {
+        await fn();
+      } catch (err) {
+        exitCode = 1;
+        logger.error({ err, step: name }, 'shutdown step failed');
+      }
+    };
+    await step('scheduler', () => task.stop());
+    await step('outbox sender', () => stopSender());
     await closed;
-    await close();
-    await smtp?.stop();
-    await closeORM();
-    process.exit(0);
+    clearInterval(idleSweep);
+    await step('session pool', () => close());
+    await step('fake smtp', () => smtp?.stop());
+    await step('database pool', () => closeORM());
+    logger.info({ exitCode }, 'stopped');
+    process.exit(exitCode);
   };
   process.on('SIGINT', () => void shutdown('SIGINT'));
   process.on('SIGTERM', () => void shutdown('SIGTERM'));
+  // A rejected promise that nothing awaited (e.g. a lost connection surfacing late) is logged;
+  // it must not take down the requests of every other user.
+  process.on('unhandledRejection', (reason) => logger.error({ err: reason }, 'unhandled promise rejection'));
 }
 
 main().catch((err) => {

@@ -1,6 +1,7 @@
 import type { ErrorRequestHandler } from 'express';
 import { NotFoundError, UniqueConstraintViolationException, ForeignKeyConstraintViolationException } from '@mikro-orm/core';
 import { AppError } from './errors';
+import { isDatabaseUnavailable } from '../db-faults';
 import type { ApiErrorBody } from '../../shared/schemas/common';
 
 /** The one place errors become HTTP answers. No stack traces leave the server. */
@@ -19,6 +20,12 @@ export const errorHandler: ErrorRequestHandler = (err, req, res, _next) => {
   } else if (err instanceof ForeignKeyConstraintViolationException) {
     status = 409;
     body = { error: 'conflict', message: 'This record is still referenced by other records' };
+  } else if (isDatabaseUnavailable(err)) {
+    // Lost or unreachable database: the client may retry; the process stays up and reconnects.
+    status = 503;
+    res.set('Retry-After', '5');
+    body = { error: 'database_unavailable', message: 'The database is unavailable right now. Try again in a moment.' };
+    req.log?.warn({ err: { message: err?.message, code: err?.code } }, 'database unavailable');
   } else if (err?.type === 'entity.parse.failed') {
     status = 400;
     body = { error: 'invalid_json', message: 'The request body is not valid JSON' };

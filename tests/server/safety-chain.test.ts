@@ -1,6 +1,6 @@
 import { describe, it, expect, beforeAll, afterAll } from 'vitest';
 import { makeTestApp } from '../setup/test-app';
-import { appRole, approvedProcedure, countSignOffs, get, makeSafetyShop, PASSWORD, post, superuser, type SafetyShop } from './safety-helpers';
+import { appRole, approvedProcedure, countSignOffs, get, makeSafetyShop, ownerRole, PASSWORD, post, superuser, type SafetyShop } from './safety-helpers';
 import { GENESIS_HASH, chainHash } from '../../shared/domain/signature-chain';
 import { sha256Hex, signOffContent } from '../../server/modules/safety/chain';
 
@@ -40,20 +40,31 @@ describe('sign-off chain', () => {
     expect(v.body.message).toMatch(/Chain verified/);
   });
 
-  it('refuses a raw UPDATE, DELETE and TRUNCATE by the application role (trigger)', async () => {
+  it('refuses a raw UPDATE, DELETE and TRUNCATE by the application role (no privilege) and by the owner (trigger)', async () => {
     const shop = await shopWithPpe('chain-trigger');
     await ppeCheck(shop).expect(201);
     const c = await appRole();
     try {
       const who = (await c.query('select current_user as u, (select rolsuper from pg_roles where rolname = current_user) as s')).rows[0];
       expect(who).toEqual({ u: 'kerfbook', s: false });
-      await expect(c.query(`update safety_sign_off set signer_name = 'Someone Else' where organization_id = $1`, [shop.orgId])).rejects.toThrow(/append-only: UPDATE/);
-      await expect(c.query('delete from safety_sign_off where organization_id = $1', [shop.orgId])).rejects.toThrow(/append-only: DELETE/);
-      await expect(c.query('truncate safety_sign_off cascade')).rejects.toThrow(/append-only: TRUNCATE/);
-      const still = (await c.query('select signer_name from safety_sign_off where organization_id = $1', [shop.orgId])).rows;
-      expect(still).toEqual([{ signer_name: `operator of ${shop.slug}` }]);
+      await expect(c.query(`update safety_sign_off set signer_name = 'Someone Else' where organization_id = $1`, [shop.orgId])).rejects.toThrow(/permission denied for table safety_sign_off/);
+      await expect(c.query('delete from safety_sign_off where organization_id = $1', [shop.orgId])).rejects.toThrow(/permission denied for table safety_sign_off/);
+      await expect(c.query('truncate safety_sign_off cascade')).rejects.toThrow(/permission denied for table safety_sign_off/);
     } finally {
       await c.end();
+    }
+    // The owner has every privilege, so the append-only trigger is what stops it.
+    const o = await ownerRole();
+    try {
+      const who = (await o.query('select current_user as u, (select rolsuper from pg_roles where rolname = current_user) as s')).rows[0];
+      expect(who).toEqual({ u: 'kerfbook_owner', s: false });
+      await expect(o.query(`update safety_sign_off set signer_name = 'Someone Else' where organization_id = $1`, [shop.orgId])).rejects.toThrow(/append-only: UPDATE/);
+      await expect(o.query('delete from safety_sign_off where organization_id = $1', [shop.orgId])).rejects.toThrow(/append-only: DELETE/);
+      await expect(o.query('truncate safety_sign_off cascade')).rejects.toThrow(/append-only: TRUNCATE/);
+      const still = (await o.query('select signer_name from safety_sign_off where organization_id = $1', [shop.orgId])).rows;
+      expect(still).toEqual([{ signer_name: `operator of ${shop.slug}` }]);
+    } finally {
+      await o.end();
     }
   });
 

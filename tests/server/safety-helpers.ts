@@ -10,6 +10,7 @@ import { DEMO_PASSWORD } from '../../seed/factories';
 import { ROLES, type Role } from '../../shared/permissions';
 import type { ProcedureContent } from '../../shared/schemas/safety-procedures';
 import type { AppHandle } from '../../server/app';
+import { ownerUrlFor } from '../../server/db-roles';
 
 export const PASSWORD = DEMO_PASSWORD;
 
@@ -69,6 +70,13 @@ export async function superuser(): Promise<pg.Client> {
   url.username = 'postgres';
   url.password = process.env.KERFBOOK_DB_SUPER_PASSWORD ?? 'kerfbook-super';
   const client = new pg.Client({ connectionString: url.toString() });
+  await client.connect();
+  return client;
+}
+
+/** A connection as the role that owns the tables and runs migrations. */
+export async function ownerRole(): Promise<pg.Client> {
+  const client = new pg.Client({ connectionString: ownerUrlFor(process.env.DATABASE_URL!) });
   await client.connect();
   return client;
 }
