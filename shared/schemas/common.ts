@@ -33,6 +33,8 @@ export const ERROR_CODES = [
   'conflict',
   'payload_too_large',
   'rate_limited',
+  'database_unavailable',
+  'unsupported_media_type',
   'internal',
 ] as const;
 export type ErrorCode = (typeof ERROR_CODES)[number];
