@@ -68,11 +68,10 @@ export function createApp({ orm, config, smtp = null }: AppDeps): AppHandle {
       await destroy(req); // absolute timeout: sign in again after a shift
       return next();
     }
-    const em = RequestContext.getEntityManager()!;
-    const principal = await loadPrincipal(em as never, s.userId, s.orgId);
+    const principal = await loadPrincipal(pool, s.userId, s.orgId);
     if (principal) {
       req.principal = principal;
-      em.setFilterParams('org', { orgId: principal.orgId });
+      RequestContext.getEntityManager()!.setFilterParams('org', { orgId: principal.orgId });
     }
     next();
   });

@@ -6,6 +6,9 @@ export type Principal = {
   role: Role;
   name: string;
   email: string;
+  /** The shop's name and IANA time zone, read with the membership so a request needs no second query. */
+  orgName: string;
+  timeZone: string;
 };
 
 declare module 'express-session' {

@@ -9,7 +9,6 @@ import { requirePrincipal } from '../../http/principal';
 import type { Config } from '../../config';
 import { recordAudit } from '../audit/audit';
 import type { EntityManager } from '@mikro-orm/postgresql';
-import { Organization } from '../organizations/organization.entity';
 
 function tooMany(message: string) {
   return { error: 'too_many_requests', message };
@@ -77,11 +76,10 @@ export function registerAuthRoutes(r: ApiRouter, config: Config) {
 
   route(r, 'get', '/me', { access: 'signed-in' }, async (req, res) => {
     const p = requirePrincipal(req);
-    const org = await (requestEm() as EntityManager).findOneOrFail(Organization, p.orgId);
     res.json({
       user: { id: p.userId, email: p.email, name: p.name },
       role: p.role,
-      organization: { id: org.id, name: org.name, timeZone: org.timeZone },
+      organization: { id: p.orgId, name: p.orgName, timeZone: p.timeZone },
     });
   });
 }
