@@ -12,7 +12,8 @@ import { listCutChecks, recordCutCheck } from './cut-checks.service';
 import { lifeStats } from './life-stats.service';
 import { Machine } from '../machines/machine.entity';
 import { subtreeIds } from '../machines/machines.service';
-import { getConsumableSettings, getPhoto, listChanges, logChange, stationView, updateConsumableSettings } from './consumables.service';
+import { getConsumableSettings, getPhoto, listChanges, logChange, updateConsumableSettings } from './consumables.service';
+import { stationView } from '../station/station-view';
 
 const upload = singleFileUpload('photo', PHOTO_MAX_BYTES, 'photo');
 
