@@ -33,6 +33,7 @@ import { runScheduledPass } from './jobs/scheduler';
 import { planEvaluator } from './jobs/due-engine';
 import type { FakeSmtp } from './mail/fake-smtp';
 import { logger } from './logger';
+import { serveClient } from './http/client-assets';
 
 export type AppDeps = { orm: MikroORM; config: Config; smtp?: FakeSmtp | null };
 export type AppHandle = { app: Express; api: ApiRouter; routeAccess: Map<string, Access>; close: () => Promise<void> };
@@ -102,10 +103,7 @@ export function createApp({ orm, config, smtp = null }: AppDeps): AppHandle {
   app.use('/api', api);
 
   const dist = path.resolve(config.CLIENT_DIST);
-  if (existsSync(path.join(dist, 'index.html'))) {
-    app.use(express.static(dist, { index: false, maxAge: '1h' }));
-    app.get('/{*splat}', (_req, res) => res.sendFile(path.join(dist, 'index.html')));
-  }
+  if (existsSync(path.join(dist, 'index.html'))) serveClient(app, dist);
   app.use(errorHandler);
 
   return { app, api, routeAccess: api.routeAccess, close: () => pool.end() };
