@@ -12,7 +12,7 @@ if (process.env.VITEST) {
 
 export default defineConfig({
   // Brotli and gzip copies of the built files, written once at build time and served as they are.
-  plugins: [react(), tailwindcss(), compression({ algorithms: ['brotliCompress', 'gzip'], exclude: [/\.map$/], threshold: 1024 })],
+  plugins: [react(), tailwindcss(), compression({ algorithms: ['brotliCompress', 'gzip'], exclude: [/\.map$/] })],
   publicDir: 'src/public',
   server: {
     port: 5173,

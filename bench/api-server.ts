@@ -25,7 +25,8 @@ async function startApp(): Promise<Server> {
     DATABASE_URL: url,
     SESSION_SECRET: 'bench-session-secret-not-for-production',
     MAIL_CAPTURE: 'false',
-    CLIENT_DIST: '/nonexistent',
+    // The bundle measurement serves the built client too; the API bench does not need it.
+    CLIENT_DIST: process.env.BENCH_CLIENT_DIST ?? '/nonexistent',
   });
   const orm = await initORM(url);
   const { app } = createApp({ orm, config });

@@ -74,7 +74,7 @@ describe('built client', () => {
   });
 
   it('answers index.html for the app’s paths without a long cache', async () => {
-    for (const url of ['/', '/stations/C1', '/index.html']) {
+    for (const url of ['/', '/station/C1', '/index.html']) {
       const res = await supertest(t.app).get(url).expect(200);
       expect(res.headers['content-type']).toMatch(/text\/html/);
       expect(res.text).toContain('/assets/main-Ab12Cd34.js');
