@@ -41,7 +41,8 @@ export type AppHandle = { app: Express; api: ApiRouter; routeAccess: Map<string,
 /** Builds the app without listening, so tests can drive it with supertest. */
 export function createApp({ orm, config, smtp = null }: AppDeps): AppHandle {
   const app = express();
-  const pool = new pg.Pool({ connectionString: config.DATABASE_URL, max: 5 });
+  // Sessions and the principal of every signed-in request go through this pool.
+  const pool = new pg.Pool({ connectionString: config.DATABASE_URL, max: 10 });
 
   if (config.TRUST_PROXY) app.set('trust proxy', /^\d+$/.test(config.TRUST_PROXY) ? Number(config.TRUST_PROXY) : config.TRUST_PROXY);
   app.disable('x-powered-by');
