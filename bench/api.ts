@@ -70,7 +70,7 @@ async function main() {
     await freshDatabase(url);
     await migrate(url);
     const orm = await initORM(url);
-    await seedDemo(orm.em.fork());
+    await seedDemo(orm.em.fork(), { appUrl: 'http://127.0.0.1' }); // links in demo mail are never followed here
   }
   await closeORM();
 
