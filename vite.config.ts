@@ -1,6 +1,7 @@
 import { defineConfig } from 'vitest/config';
 import react from '@vitejs/plugin-react';
 import tailwindcss from '@tailwindcss/vite';
+import { compression } from 'vite-plugin-compression2';
 
 // Vitest reads its settings from here too; globalSetup does not see test.env, so the test
 // database URL is fixed before anything starts.
@@ -10,7 +11,8 @@ if (process.env.VITEST) {
 }
 
 export default defineConfig({
-  plugins: [react(), tailwindcss()],
+  // Brotli and gzip copies of the built files, written once at build time and served as they are.
+  plugins: [react(), tailwindcss(), compression({ algorithms: ['brotliCompress', 'gzip'], exclude: [/\.map$/] })],
   publicDir: 'src/public',
   server: {
     port: 5173,

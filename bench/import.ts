@@ -109,7 +109,7 @@ async function main() {
         meters.push({ machine: `B${c}-T`, code: 'arc-starts', kind: 'count' }, { machine: `B${c}-T`, code: 'arc-hours', kind: 'running-time' });
       }
       await em.flush();
-      const who: Principal = { userId: user.id, orgId: shop.id, role: 'admin', name: 'Bench Person', email, timeZone: shop.timeZone };
+      const who: Principal = { userId: user.id, orgId: shop.id, role: 'admin', name: 'Bench Person', email, orgName: shop.name, timeZone: shop.timeZone };
       const scoped = () => {
         const f = orm.em.fork() as EntityManager;
         f.setFilterParams('org', { orgId: shop.id });

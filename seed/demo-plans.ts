@@ -9,6 +9,7 @@ import type { EntityManager } from '@mikro-orm/postgresql';
 import type { SeedStep } from './demo';
 import { initORM } from '../server/db';
 import { Machine } from '../server/modules/machines/machine.entity';
+import { Organization } from '../server/modules/organizations/organization.entity';
 import { Membership } from '../server/modules/users/user.entity';
 import { OilAnalysis, OilTarget } from '../server/modules/oil-analysis/oil-analysis.entity';
 import { applyStarters } from '../server/modules/plans/plan-starters';
@@ -52,10 +53,11 @@ export const seedPlansDemo: SeedStep = async (rootEm, shop, settings) => {
   const machines = await em.find(Machine, { code: { $in: Object.keys(STARTERS) } });
   if (machines.length === 0) return; // no demo machines: nothing to plan
   const people = await em.find(Membership, { organization: shop.id }, { filters: false, populate: ['user'] });
+  const orgName = (await em.findOneOrFail(Organization, shop.id, { filters: false })).name;
   const admin = people.find((m) => m.role === 'admin');
   const tech = people.find((m) => m.role === 'technician') ?? admin;
   if (!admin || !tech) return;
-  const who: Principal = { userId: admin.user.id, orgId: shop.id, role: 'admin', name: admin.user.getEntity().name, email: admin.user.getEntity().email, timeZone: shop.timeZone };
+  const who: Principal = { userId: admin.user.id, orgId: shop.id, role: 'admin', name: admin.user.getEntity().name, email: admin.user.getEntity().email, orgName, timeZone: shop.timeZone };
 
   const now = clock.ms();
   const start = now - 364 * DAY;

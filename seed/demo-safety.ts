@@ -6,6 +6,7 @@
  */
 import { DateTime } from 'luxon';
 import { Machine, type IMachine } from '../server/modules/machines/machine.entity';
+import { Organization } from '../server/modules/organizations/organization.entity';
 import { Membership } from '../server/modules/users/user.entity';
 import { EnergyProcedure, ProcedureVersion, type IProcedureVersion } from '../server/modules/safety/procedure.entity';
 import { LockoutMember, LockoutPoint, LockoutSession, type ILockoutMember, type ILockoutSession } from '../server/modules/safety/lockout.entity';
@@ -143,11 +144,12 @@ export const seedSafetyDemo: SeedStep = async (rootEm, shop) => {
   if (cells.length === 0 && !table) return; // no demo machines: nothing to attach safety records to
 
   const members = await em.find(Membership, { organization: shop.id, active: true }, { filters: false, populate: ['user'] });
+  const orgName = (await em.findOneOrFail(Organization, shop.id, { filters: false })).name;
   const person = (role: string): Principal => {
     const m = members.find((x) => x.role === role);
     if (!m) throw new Error(`demo safety seed: no ${role} in the demo shop`);
     const u = m.user.getEntity();
-    return { userId: u.id, orgId: shop.id, role: m.role, name: u.name, email: u.email, timeZone: shop.timeZone };
+    return { userId: u.id, orgId: shop.id, role: m.role, name: u.name, email: u.email, orgName, timeZone: shop.timeZone };
   };
   const safety = person('safety');
   const tech = person('technician');

@@ -11,7 +11,6 @@ import { createSessionMiddleware, csrfProtection, destroy } from './http/session
 import { errorHandler } from './http/error-handler';
 import { notFound } from './http/errors';
 import { loadPrincipal } from './modules/auth/auth.service';
-import { requestEm } from './db';
 import { registerAuthRoutes } from './modules/auth/auth.routes';
 import { registerUserRoutes } from './modules/users/users.routes';
 import { registerHealthRoutes } from './modules/health/health.routes';
@@ -35,6 +34,7 @@ import { planEvaluator } from './jobs/due-engine';
 import type { FakeSmtp } from './mail/fake-smtp';
 import { logger } from './logger';
 import { keepPoolAlive } from './db-faults';
+import { serveClient } from './http/client-assets';
 
 export type AppDeps = { orm: MikroORM; config: Config; smtp?: FakeSmtp | null };
 export type AppHandle = { app: Express; api: ApiRouter; routeAccess: Map<string, Access>; close: () => Promise<void> };
@@ -42,8 +42,8 @@ export type AppHandle = { app: Express; api: ApiRouter; routeAccess: Map<string,
 /** Builds the app without listening, so tests can drive it with supertest. */
 export function createApp({ orm, config, smtp = null }: AppDeps): AppHandle {
   const app = express();
-  // The session store's own pool; keepPoolAlive: a dropped idle connection must not end the process.
-  const pool = keepPoolAlive(new pg.Pool({ connectionString: config.DATABASE_URL, max: 5, connectionTimeoutMillis: 10_000 }), 'sessions');
+  // Sessions and the principal of every signed-in request go through this pool; keepPoolAlive: a dropped idle connection must not end the process.
+  const pool = keepPoolAlive(new pg.Pool({ connectionString: config.DATABASE_URL, max: 10, connectionTimeoutMillis: 10_000 }), 'sessions');
 
   if (config.TRUST_PROXY) app.set('trust proxy', /^\d+$/.test(config.TRUST_PROXY) ? Number(config.TRUST_PROXY) : config.TRUST_PROXY);
   app.disable('x-powered-by');
@@ -71,11 +71,10 @@ export function createApp({ orm, config, smtp = null }: AppDeps): AppHandle {
       await destroy(req); // absolute timeout: sign in again after a shift
       return next();
     }
-    const em = requestEm();
-    const principal = await loadPrincipal(em, s.userId, s.orgId);
+    const principal = await loadPrincipal(pool, s.userId, s.orgId);
     if (principal) {
       req.principal = principal;
-      em.setFilterParams('org', { orgId: principal.orgId });
+      RequestContext.getEntityManager()!.setFilterParams('org', { orgId: principal.orgId });
     }
     next();
   });
@@ -106,10 +105,7 @@ export function createApp({ orm, config, smtp = null }: AppDeps): AppHandle {
   app.use('/api', api);
 
   const dist = path.resolve(config.CLIENT_DIST);
-  if (existsSync(path.join(dist, 'index.html'))) {
-    app.use(express.static(dist, { index: false, maxAge: '1h' }));
-    app.get('/{*splat}', (_req, res) => res.sendFile(path.join(dist, 'index.html')));
-  }
+  if (existsSync(path.join(dist, 'index.html'))) serveClient(app, dist);
   app.use(errorHandler);
 
   return { app, api, routeAccess: api.routeAccess, close: () => pool.end() };

@@ -6,7 +6,8 @@ export type Principal = {
   role: Role;
   name: string;
   email: string;
-  /** The shop's IANA zone: dates and times shown to people are in it. */
+  /** The shop's name and IANA time zone, read with the membership so a request needs no second query. */
+  orgName: string;
   timeZone: string;
 };
 

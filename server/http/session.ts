@@ -8,16 +8,85 @@ import { csrfInvalid } from './errors';
 
 export const SESSION_COOKIE = 'kerfbook.sid';
 
+/**
+ * How often an active session's row has its expiry pushed forward. Writing it on every request
+ * made each read a write; an idle timeout of minutes or hours loses nothing by moving in steps
+ * of a minute (a session may end up to this much before a full idle period has passed).
+ */
+export const SESSION_TOUCH_INTERVAL_MS = 60_000;
+
+const PgStore = connectPgSimple(session);
+
+/**
+ * connect-pg-simple, writing a session's expiry at most once per interval: skipped outright when
+ * this instance wrote the row within the interval, and otherwise written only when the stored
+ * expiry is an interval or more behind (another instance may just have written it).
+ */
+export class ThrottledPgStore extends PgStore {
+  private readonly written = new Map<string, number>();
+  private readonly table: string;
+  private readonly pg: pg.Pool;
+  private readonly sweep: NodeJS.Timeout;
+
+  constructor(options: { pool: pg.Pool; tableName: string; pruneSessionInterval: number | false }) {
+    super({ ...options, createTableIfMissing: false });
+    this.pg = options.pool;
+    this.table = `"${options.tableName}"`;
+    // Forget what is older than the interval, so the map holds only recently active sessions.
+    this.sweep = setInterval(() => {
+      const cutoff = Date.now() - SESSION_TOUCH_INTERVAL_MS;
+      for (const [sid, at] of this.written) if (at <= cutoff) this.written.delete(sid);
+    }, SESSION_TOUCH_INTERVAL_MS);
+    this.sweep.unref();
+  }
+
+  override set(sid: string, sess: session.SessionData, fn?: (err?: unknown) => void): void {
+    this.written.set(sid, Date.now());
+    super.set(sid, sess, fn);
+  }
+
+  override destroy(sid: string, fn?: (err?: unknown) => void): void {
+    this.written.delete(sid);
+    super.destroy(sid, fn);
+  }
+
+  override touch(sid: string, sess: session.SessionData, fn?: (err?: unknown) => void): void {
+    const now = Date.now();
+    const last = this.written.get(sid);
+    if (last !== undefined && now - last < SESSION_TOUCH_INTERVAL_MS) return fn?.();
+    this.written.set(sid, now);
+    const expires = sess.cookie?.expires ? new Date(sess.cookie.expires).getTime() : now + (sess.cookie?.maxAge ?? 0);
+    this.pg
+      .query(`update ${this.table} set expire = to_timestamp($1) where sid = $2 and expire < to_timestamp($1) - make_interval(secs => $3)`, [
+        Math.ceil(expires / 1000),
+        sid,
+        SESSION_TOUCH_INTERVAL_MS / 1000,
+      ])
+      .then(
+        () => fn?.(),
+        (err: unknown) => {
+          this.written.delete(sid);
+          fn?.(err);
+        },
+      );
+  }
+
+  override close(): void {
+    clearInterval(this.sweep);
+    super.close();
+  }
+}
+
 /** Sessions live in PostgreSQL so several instances behind a load balancer share them. */
 export function createSessionMiddleware(config: Config, pool: pg.Pool): RequestHandler {
-  const PgStore = connectPgSimple(session);
   return session({
     name: SESSION_COOKIE,
-    store: new PgStore({ pool, tableName: 'session', createTableIfMissing: false, pruneSessionInterval: 15 * 60 }),
+    store: new ThrottledPgStore({ pool, tableName: 'session', pruneSessionInterval: 15 * 60 }),
     secret: config.SESSION_SECRET,
     resave: false,
     saveUninitialized: false,
-    rolling: true, // idle timeout: every request pushes expiry forward
+    // Idle timeout: every answer renews the cookie; the stored expiry follows at most once a minute.
+    rolling: true,
     cookie: {
       httpOnly: true,
       sameSite: 'lax',

@@ -9,7 +9,6 @@ import type { Config } from '../../config';
 import { recordActivity } from '../activity-log/activity-log.service';
 import type { ApiErrorBody } from '../../../shared/schemas/common';
 import type { EntityManager } from '@mikro-orm/postgresql';
-import { getShopProfile } from '../organizations/organizations.service';
 
 function tooMany(message: string) {
   const body: ApiErrorBody = { error: 'rate_limited', message };
@@ -77,11 +76,10 @@ export function registerAuthRoutes(r: ApiRouter, config: Config) {
   });
 
   route(r, 'get', '/me', { access: 'signed-in' }, async (_req, res, { principal: p }) => {
-    const org = await getShopProfile(requestEm() as EntityManager, p);
     res.json({
       user: { id: p.userId, email: p.email, name: p.name },
       role: p.role,
-      organization: { id: org.id, name: org.name, timeZone: p.timeZone },
+      organization: { id: p.orgId, name: p.orgName, timeZone: p.timeZone },
     });
   });
 }

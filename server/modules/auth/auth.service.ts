@@ -1,5 +1,7 @@
 import type { EntityManager } from '@mikro-orm/postgresql';
+import type pg from 'pg';
 import { Membership, User, UserToken } from '../users/user.entity';
+import { Organization } from '../organizations/organization.entity';
 import { hashPassword, hashToken, newToken, verifyPassword } from './passwords';
 import { badRequest, unauthorized } from '../../http/errors';
 import { recordActivity } from '../activity-log/activity-log.service';
@@ -13,13 +15,22 @@ const noScope = { filters: false } as const;
 export const INVITE_TTL_MS = 7 * 24 * 3600_000;
 export const RESET_TTL_MS = 60 * 60_000;
 
-/** The active membership that a session's user acts through, or null. */
-export async function loadPrincipal(em: EntityManager, userId: string, orgId: string): Promise<Principal | null> {
-  // The shop comes joined to the membership (one query), for its time zone.
-  const m = await em.findOne(Membership, { user: userId, organization: orgId, active: true }, { ...noScope, populate: ['organization'] });
-  if (!m) return null;
-  const user = await em.findOneOrFail(User, userId, noScope);
-  return { userId: user.id, orgId, role: m.role, name: user.name, email: user.email, timeZone: (await m.organization.loadOrFail(noScope)).timeZone };
+type PrincipalRow = { role: Principal['role']; name: string; email: string; org_name: string; time_zone: string };
+
+/**
+ * The active membership that a session's user acts through, or null. Every signed-in request
+ * asks this, so it is one query on the (user, organization) unique index, joined to the two
+ * primary keys, sent through the session pool without the ORM.
+ */
+export async function loadPrincipal(pool: pg.Pool, userId: string, orgId: string): Promise<Principal | null> {
+  const { rows } = await pool.query<PrincipalRow>(
+    `select m.role, u.name, u.email, o.name as org_name, o.time_zone
+       from membership m join app_user u on u.id = m.user_id join organization o on o.id = m.organization_id
+      where m.user_id = $1 and m.organization_id = $2 and m.active`,
+    [userId, orgId],
+  );
+  const r = rows[0];
+  return r ? { userId, orgId, role: r.role, name: r.name, email: r.email, orgName: r.org_name, timeZone: r.time_zone } : null;
 }
 
 export async function authenticate(em: EntityManager, email: string, password: string): Promise<Principal> {
@@ -28,10 +39,11 @@ export async function authenticate(em: EntityManager, email: string, password: s
   if (!user || !ok) throw unauthorized('E-mail or password is wrong');
   const membership = await em.findOne(Membership, { user, active: true }, { orderBy: { createdAt: 'asc' }, populate: ['organization'], ...noScope });
   if (!membership) throw unauthorized('This account is deactivated. Ask your admin.');
+  const org = await em.findOneOrFail(Organization, membership.organization.id, noScope);
   user.lastSignInAt = clock.now();
   recordActivity(em, { orgId: membership.organization.id, userId: user.id }, 'auth.sign-in', { type: 'User', id: user.id });
   await em.flush();
-  return { userId: user.id, orgId: membership.organization.id, role: membership.role, name: user.name, email: user.email, timeZone: (await membership.organization.loadOrFail(noScope)).timeZone };
+  return { userId: user.id, orgId: org.id, role: membership.role, name: user.name, email: user.email, orgName: org.name, timeZone: org.timeZone };
 }
 
 /** Creates a single-use token and returns the raw value (only its hash is stored). */

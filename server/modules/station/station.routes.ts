@@ -10,7 +10,8 @@ import { consumableChangeSchema, consumableSettingsSchema, cutCheckSchema, lifeS
 import { listCutChecks, recordCutCheck } from './cut-checks.service';
 import { lifeStats } from './life-stats.service';
 import { subtreeMachines } from '../machines/machines.service';
-import { getConsumableSettings, getPhoto, listChanges, logChange, stationView, updateConsumableSettings } from './station.service';
+import { getConsumableSettings, getPhoto, listChanges, logChange, updateConsumableSettings } from './station.service';
+import { stationView } from './station-view';
 import { paging } from '../../../shared/schemas/paging';
 import { PHOTO_MAX_BYTES } from '../../../shared/schemas/photos';
 

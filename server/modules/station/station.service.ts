@@ -2,24 +2,20 @@ import type { EntityManager } from '@mikro-orm/postgresql';
 import { LockMode, ref } from '@mikro-orm/core';
 import { fileTypeFromBuffer } from 'file-type';
 import { shopTime } from '../common/shop-time';
-import { ConsumableChange, ConsumableInstall, ConsumablePhoto, CutCheck } from './consumable.entity';
+import { ConsumableChange, ConsumableInstall, ConsumablePhoto } from './consumable.entity';
 import { Machine, type IMachine } from '../machines/machine.entity';
 import { Meter, type IMeter } from '../meters/meter.entity';
 import { PartType } from '../stock/stock.entity';
 import { Organization, type OrgSettings } from '../organizations/organization.entity';
 import { applyStockChanges } from '../stock/stock.service';
-import { latestReadings, meterRow, neighbours, readingsSince, recordReading } from '../meters/meters.service';
-import { machineByCode, metersOf, subtreeIds } from '../machines/machines.service';
-import { listTools } from '../punch-tools/punch-tools.service';
-import { stationStatus } from './station-status';
+import { neighbours, readingsSince, recordReading } from '../meters/meters.service';
 import type { Principal } from '../../http/principal';
 import { AppError, fieldError, notFound } from '../../http/errors';
 import { recordActivity } from '../activity-log/activity-log.service';
 import { advanceSince } from '../../../shared/domain/meters';
-import { lifeFraction, referenceValues } from '../../../shared/domain/consumables';
+import { referenceValues } from '../../../shared/domain/consumables';
 import { PART_CATEGORY_LABELS, TORCH_CATEGORIES, type TorchCategory } from '../../../shared/schemas/stock';
-import { type ChangeRow, type ConsumableChangeInput, type ConsumableSettingsInput, type InstalledPart, type StationView, type TorchStation } from '../../../shared/schemas/consumables';
-import type { MeterRow } from '../../../shared/schemas/machines';
+import { type ChangeRow, type ConsumableChangeInput, type ConsumableSettingsInput } from '../../../shared/schemas/consumables';
 import { clock } from '../../../shared/clock';
 import type { Page } from '../../../shared/schemas/paging';
 import { CHANGE_PHOTO_TYPES } from '../../../shared/schemas/photos';
@@ -59,95 +55,6 @@ async function advanceFrom(em: EntityManager, meterId: string | undefined, start
   if (!meterId || startValue === null || startValue === undefined) return null;
   const readings = (await readingsSince(em, meterId, from)).filter((r) => r.at > from && (!until || r.at <= until));
   return advanceSince(startValue, readings);
-}
-
-async function installedOn(em: EntityManager, torch: IMachine, meters: TorchMeters): Promise<InstalledPart[]> {
-  const open = await em.find(ConsumableInstall, { torch: torch.id, removedAt: null }, { populate: ['partType'] });
-  if (open.length === 0) return [];
-  // One read per meter from the oldest installation still in the torch, shared by all parts.
-  const oldest = new Date(Math.min(...open.map((i) => i.installedAt.getTime())));
-  const startsReadings = meters.starts ? await readingsSince(em, meters.starts.id, oldest) : [];
-  const hoursReadings = meters.arcHours ? await readingsSince(em, meters.arcHours.id, oldest) : [];
-  const since = (list: typeof startsReadings, has: boolean, start: number | null | undefined, from: Date) =>
-    !has || start === null || start === undefined ? null : advanceSince(start, list.filter((r) => r.at > from));
-  const out: InstalledPart[] = [];
-  for (const i of open) {
-    const p = i.partType.getEntity();
-    const startsSince = since(startsReadings, !!meters.starts, i.startsAtInstall, i.installedAt);
-    const arcHoursSince = since(hoursReadings, !!meters.arcHours, i.arcHoursAtInstall, i.installedAt);
-    const used = p.lifeUnit === 'starts' ? startsSince : p.lifeUnit === 'arc-hours' ? arcHoursSince : null;
-    const expected = p.expectedLife ?? null;
-    out.push({
-      installId: i.id,
-      category: i.category,
-      partType: { id: p.id, partNumber: p.partNumber, name: p.name, lifeUnit: p.lifeUnit ?? null, expectedLife: expected, onHand: p.onHand, stockUnit: p.stockUnit },
-      installedAt: i.installedAt.toISOString(),
-      startsSince,
-      arcHoursSince,
-      used,
-      expected,
-      expectedSource: expected !== null ? 'catalogue' : null,
-      fraction: lifeFraction(used, expected),
-    });
-  }
-  return out.sort((a, b) => TORCH_CATEGORIES.indexOf(a.category) - TORCH_CATEGORIES.indexOf(b.category));
-}
-
-function subtreeOf(all: IMachine[], rootId: string): IMachine[] {
-  const ids = new Set(subtreeIds(all, rootId));
-  return all.filter((m) => ids.has(m.id));
-}
-
-/** The machines a component belongs to: a lockout on the cell locks its torch and punch head too. */
-function ancestorsOf(all: IMachine[], machine: IMachine): string[] {
-  const byId = new Map(all.map((m) => [m.id, m]));
-  const out: string[] = [];
-  for (let id = machine.parent?.id; id && !out.includes(id); id = byId.get(id)?.parent?.id) out.push(id);
-  return out;
-}
-
-/** Everything the station page shows for one machine, found by its code. */
-export async function stationView(em: EntityManager, who: Principal, code: string): Promise<StationView> {
-  const machine = await machineByCode(em, code);
-  const org = await em.findOneOrFail(Organization, who.orgId);
-  const all = await em.find(Machine, { active: true });
-  const subtree = subtreeOf(all.some((m) => m.id === machine.id) ? all : [...all, machine], machine.id);
-  const torches = subtree.filter((m) => m.kind === 'torch');
-  const meters = await torchMeters(em, torches);
-  const latest = await latestReadings(em, [...meters.values()].flatMap((m) => [m.starts?.id, m.arcHours?.id].filter((x): x is string => !!x)));
-  const codeOf = new Map(all.map((m) => [m.id, m.code]));
-  const asRow = (m: IMeter | null): MeterRow | null => (m ? meterRow(m, codeOf.get(m.machine.id) ?? '', latest.get(m.id) ?? null) : null);
-
-  const torchViews: TorchStation[] = [];
-  for (const t of torches) {
-    const tm = meters.get(t.id)!;
-    const [lastChange] = await em.find(ConsumableChange, { torch: t.id }, { orderBy: { changedAt: 'desc' }, limit: 1 });
-    const [check] = await em.find(CutCheck, { torch: t.id }, { orderBy: { checkedAt: 'desc' }, limit: 1 });
-    const afterLastChange = !!check && (!lastChange || check.checkedAt >= lastChange.changedAt);
-    torchViews.push({
-      id: t.id,
-      code: t.code,
-      name: t.name,
-      startsMeter: asRow(tm.starts),
-      arcHoursMeter: asRow(tm.arcHours),
-      installed: await installedOn(em, t, tm),
-      lastChangeAt: lastChange?.changedAt.toISOString() ?? null,
-      latestCutCheck: check ? { id: check.id, checkedAt: check.checkedAt.toISOString(), passed: check.passed, maxDeviationMm: check.maxDeviationMm, toleranceMm: check.toleranceMm, afterLastChange } : null,
-      suggestChange: !!check && afterLastChange && !check.passed,
-    });
-  }
-  const parts = await em.find(PartType, { active: true, category: { $in: [...TORCH_CATEGORIES] } }, { orderBy: { partNumber: 'asc' } });
-  const values = settingsOf(org);
-  return {
-    machine: { id: machine.id, code: machine.code, name: machine.name, kind: machine.kind, location: machine.location ?? null },
-    torches: torchViews,
-    meters: await metersOf(em, subtree.map((m) => m.id)),
-    tools: (await listTools(em, { machineIds: subtree.map((m) => m.id) })).map((t) => ({ id: t.id, code: t.code, name: t.name, stationSize: t.stationSize, hitsSince: t.hitsSince, interval: t.sharpeningIntervalHits, fraction: t.fraction, due: t.due })),
-    partOptions: parts.map((p) => ({ id: p.id, partNumber: p.partNumber, name: p.name, category: p.category, onHand: p.onHand, stockUnit: p.stockUnit })),
-    recentChanges: (await listChanges(em, { torchIds: torches.map((t) => t.id), page: 1, pageSize: 5 })).rows,
-    ...(await stationStatus(em, who.orgId, subtree.map((m) => m.id), ancestorsOf(all, machine))),
-    reference: { pitLimitMm: values.electrodePitLimitMm, cutToleranceMm: values.cutToleranceMm, changeReliability: values.changeTargetReliability },
-  };
 }
 
 /**
