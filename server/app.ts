@@ -95,7 +95,7 @@ export function createApp({ orm, config, smtp = null }: AppDeps): AppHandle {
   registerOilAnalysisRoutes(api, planEvaluator(orm, config.APP_URL));
   registerCalendarFeedRoutes(api, config);
   registerJobRunRoutes(api, () => runScheduledPass(orm));
-  registerDevInboxRoutes(api, config.MAIL_CAPTURE ? smtp : null);
+  registerDevInboxRoutes(api, config.MAIL_CAPTURE ? smtp : null, config.NODE_ENV === 'production');
 
   api.use(() => {
     throw notFound('API route');

@@ -45,6 +45,8 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env): Config {
   const c = parsed.data;
   const production = c.NODE_ENV === 'production';
   if (production && !c.SESSION_SECRET) throw new Error('Invalid configuration:\n  SESSION_SECRET: required in production');
+  // The capture would hold every shop's mail, reset links included.
+  if (production && c.MAIL_CAPTURE) throw new Error('Invalid configuration:\n  MAIL_CAPTURE: the fake SMTP server and dev inbox are for development only; unset it in production');
   return {
     ...c,
     APP_URL: c.APP_URL ?? `http://${c.HOST}:${c.PORT}`,
