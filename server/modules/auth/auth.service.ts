@@ -66,6 +66,16 @@ export async function requestPasswordReset(em: EntityManager, email: string, app
   await em.flush();
 }
 
+/**
+ * Signs the user out everywhere: after a new password, whoever held a session with the old one
+ * (a shared tablet, someone who learnt it) must not stay signed in. Sessions are rows of the
+ * `session` table (connect-pg-simple); inside the caller's transaction, so it holds or fails with
+ * the password change. Call it from every place that sets a password.
+ */
+export async function endAllSessions(em: EntityManager, userId: string): Promise<void> {
+  await em.execute(`delete from session where sess->>'userId' = ?`, [userId]);
+}
+
 /** Sets a password through an invitation or reset link; the link is spent either way it succeeds. */
 export async function redeemToken(em: EntityManager, token: string, password: string): Promise<{ email: string }> {
   return em.transactional(async (tx) => {
@@ -76,6 +86,9 @@ export async function redeemToken(em: EntityManager, token: string, password: st
     const user = await tx.findOneOrFail(User, row.user.id, noScope);
     user.passwordHash = await hashPassword(password);
     row.usedAt = clock.now();
+    // Other links mailed earlier could set the password again: spend them with this one.
+    await tx.nativeUpdate(UserToken, { user: user.id, usedAt: null, id: { $ne: row.id } }, { usedAt: clock.now() }, noScope);
+    await endAllSessions(tx, user.id);
     const membership = await tx.findOne(Membership, { user }, noScope);
     if (membership) recordAudit(tx, { orgId: membership.organization.id, userId: user.id }, row.purpose === 'invite' ? 'auth.invite-accepted' : 'auth.password-reset', { type: 'User', id: user.id });
     return { email: user.email };
