@@ -9,6 +9,7 @@ import type { Config } from './config';
 import { createApiRouter, type Access, type ApiRouter } from './http/route';
 import { createSessionMiddleware, csrfProtection, destroy } from './http/session';
 import { errorHandler } from './http/error-handler';
+import { requestErrors } from './http/request-errors';
 import { notFound } from './http/errors';
 import { loadPrincipal } from './modules/auth/auth.service';
 import { registerAuthRoutes } from './modules/auth/auth.routes';
@@ -107,6 +108,7 @@ export function createApp({ orm, config, smtp = null }: AppDeps): AppHandle {
     app.use(express.static(dist, { index: false, maxAge: '1h' }));
     app.get('/{*splat}', (_req, res) => res.sendFile(path.join(dist, 'index.html')));
   }
+  app.use(requestErrors);
   app.use(errorHandler);
 
   return { app, api, routeAccess: api.routeAccess, close: () => pool.end() };

@@ -2,6 +2,12 @@ import type { RequestHandler } from 'express';
 import multer from 'multer';
 import { AppError, badRequest } from './errors';
 
+/** The multipart parser could not read the form (cut off, no boundary, broken part headers). */
+export function unreadableMultipart(err: unknown, field: string) {
+  const message = `The upload could not be read (${err instanceof Error ? err.message : 'broken form data'}); send it again`;
+  return badRequest(message, [{ path: field, message }]);
+}
+
 /**
  * One file from a multipart form, held in memory up to `maxBytes` (callers check its content).
  * Multer's refusals become answers that name the field: 413 with the cap for a file too large,
@@ -10,6 +16,10 @@ import { AppError, badRequest } from './errors';
 export function singleFileUpload(field: string, maxBytes: number, noun = 'file'): RequestHandler {
   const parse = multer({ storage: multer.memoryStorage(), limits: { fileSize: maxBytes, files: 1, fields: 5 } }).single(field);
   return (req, res, next) => {
+    if (!req.is('multipart/form-data')) {
+      const message = `Send the ${noun} as multipart/form-data (form field “${field}”)`;
+      return next(new AppError(415, 'unsupported_media_type', message, [{ path: field, message }]));
+    }
     parse(req, res, (err: unknown) => {
       if (!err) return next();
       if (err instanceof multer.MulterError && err.code === 'LIMIT_FILE_SIZE') {
@@ -17,7 +27,7 @@ export function singleFileUpload(field: string, maxBytes: number, noun = 'file')
         return next(new AppError(413, 'too_large', message, [{ path: field, message }]));
       }
       if (err instanceof multer.MulterError) return next(badRequest(`Upload refused: ${err.message}`, [{ path: field, message: err.message }]));
-      next(err);
+      next(unreadableMultipart(err, field));
     });
   };
 }

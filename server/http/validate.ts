@@ -1,6 +1,7 @@
 import type { RequestHandler } from 'express';
 import type { z } from 'zod';
 import { badRequest } from './errors';
+import { ANY_TEXT_MESSAGE, findUnstorableText } from '../../shared/schemas/text';
 
 type Schemas = { body?: z.ZodType; query?: z.ZodType; params?: z.ZodType };
 
@@ -22,7 +23,8 @@ function readablePath(path: string): string {
 
 /**
  * Parses body, query and params with the shared zod schemas. Parsed values land on
- * `res.locals.body/query/params` (Express 5's req.query is a read-only getter).
+ * `res.locals.body/query/params` (Express 5's req.query is a read-only getter). No string in
+ * them may hold NUL or an unpaired surrogate (shared/schemas/text.ts), whatever the schema.
  */
 export function validate(schemas: Schemas): RequestHandler {
   return (req, res, next) => {
@@ -34,6 +36,12 @@ export function validate(schemas: Schemas): RequestHandler {
       if (!result.success) {
         const fields = toFields(result.error, where);
         return next(badRequest(`Please check ${fields.map((f) => `${readablePath(f.path)}: ${f.message}`).join('; ')}`, fields));
+      }
+      // Every string, whatever its schema says: NUL and broken characters cannot be stored.
+      const unstorable = findUnstorableText(result.data);
+      if (unstorable) {
+        const path = unstorable.path.length ? unstorable.path.join('.') : where;
+        return next(badRequest(`Please check ${readablePath(path)}: ${ANY_TEXT_MESSAGE}`, [{ path, message: ANY_TEXT_MESSAGE }]));
       }
       res.locals[where] = result.data;
     }

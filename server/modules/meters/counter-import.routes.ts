@@ -4,6 +4,7 @@ import { route, type ApiRouter } from '../../http/route';
 import { requestEm } from '../../db';
 import { requirePrincipal } from '../../http/principal';
 import { AppError, badRequest } from '../../http/errors';
+import { unreadableMultipart } from '../../http/upload';
 import { Meter } from './meter.entity';
 import { templateCsv } from '../../../shared/domain/counter-import';
 import { COUNTER_IMPORT_MAX_BYTES, type ImportStreamLine } from '../../../shared/schemas/counter-import';
@@ -13,12 +14,13 @@ const upload = multer({ storage: multer.memoryStorage(), limits: { fileSize: COU
 
 /** Multer's own errors become clear HTTP answers (413 for a file over the cap). */
 const receiveFile: RequestHandler = (req, res, next) => {
+  if (!req.is('multipart/form-data')) return next(new AppError(415, 'unsupported_media_type', 'Send the CSV file as multipart/form-data (form field “file”)', [{ path: 'file', message: 'Send the file as multipart/form-data' }]));
   upload.single('file')(req, res, (err: unknown) => {
     if (err instanceof multer.MulterError) {
       if (err.code === 'LIMIT_FILE_SIZE') return next(new AppError(413, 'too_large', `The file is larger than ${COUNTER_IMPORT_MAX_BYTES / 1024 / 1024} MB. Split it into smaller files; each is imported on its own.`, [{ path: 'file', message: 'File larger than 50 MB' }]));
       return next(badRequest(`Upload refused: ${err.message}`, [{ path: 'file', message: err.message }]));
     }
-    if (err) return next(err);
+    if (err) return next(unreadableMultipart(err, 'file'));
     if (!req.file) return next(badRequest('Choose a CSV file to upload (form field “file”)', [{ path: 'file', message: 'Choose a CSV file' }]));
     next();
   });
