@@ -6,7 +6,7 @@ import { isoDateTime, isoDate, oneLine } from './text';
 
 export const inspectionSchema = z.object({
   procedureId: z.uuid({ message: 'Choose the procedure' }),
-  inspectedOn: isoDate('Enter the inspection date'),
+  inspectedOn: isoDate('Enter the inspection date', { refusedIfFuture: true }),
   employeeIds: z.array(z.uuid()).min(1, 'Include at least one employee who uses the procedure').max(50),
   findings: z.string().trim().min(3, 'Describe what you saw').max(2000),
   deviations: z.string().trim().max(2000).optional(),
@@ -45,7 +45,7 @@ export const trainingSchema = z.object({
   userId: z.uuid({ message: 'Choose the person' }),
   procedureId: z.uuid({ message: 'Choose the procedure' }),
   kind: z.enum(TRAINING_KINDS, { message: 'Choose the kind of training' }),
-  trainedOn: isoDate('Enter the training date'),
+  trainedOn: isoDate('Enter the training date', { refusedIfFuture: true }),
   note: z.string().trim().max(500).optional(),
   password: signPassword,
 });

@@ -34,11 +34,16 @@ const saneYear = (v: string) => {
   const year = Number(v.slice(0, 4));
   return year >= FIRST_YEAR && year <= LAST_YEAR;
 };
+const notBeforeFirstYear = (v: string) => Number(v.slice(0, 4)) >= FIRST_YEAR;
 
 /** An ISO 8601 date-time with offset (2026-03-14T07:30:00Z) in a sane year. */
 export const isoDateTime = (message: string) => z.iso.datetime({ offset: true, message }).refine(saneYear, YEARS_MESSAGE);
-/** An ISO 8601 calendar date (2026-03-14) in a sane year. */
-export const isoDate = (message: string) => z.iso.date({ message }).refine(saneYear, YEARS_MESSAGE);
+/**
+ * An ISO 8601 calendar date (2026-03-14) in a sane year. With `refusedIfFuture` the server refuses
+ * any date after today with its own message, so only the lower bound is checked here.
+ */
+export const isoDate = (message: string, opts: { refusedIfFuture?: boolean } = {}) =>
+  opts.refusedIfFuture ? z.iso.date({ message }).refine(notBeforeFirstYear, `Use a year from ${FIRST_YEAR} on`) : z.iso.date({ message }).refine(saneYear, YEARS_MESSAGE);
 /** A local wall-clock date-time such as 2026-03-14T07:30 in a sane year. */
 export const localDateTime = (message: string) =>
   z
