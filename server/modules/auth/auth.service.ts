@@ -45,7 +45,24 @@ export function issueToken(em: EntityManager, userId: string, purpose: 'invite' 
   return token;
 }
 
+/**
+ * How long every password-reset request takes to answer. Far above the work either path does
+ * (lookups, or lookups plus a token and a queued mail, even on a busy machine), so the answer's
+ * timing says nothing about whether the account exists.
+ */
+export const RESET_ANSWER_MS = 1000;
+
 export async function requestPasswordReset(em: EntityManager, email: string, appUrl: string): Promise<void> {
+  const started = performance.now();
+  try {
+    await issueReset(em, email, appUrl);
+  } finally {
+    const left = RESET_ANSWER_MS - (performance.now() - started);
+    if (left > 0) await new Promise((resolve) => setTimeout(resolve, left));
+  }
+}
+
+async function issueReset(em: EntityManager, email: string, appUrl: string): Promise<void> {
   const user = await em.findOne(User, { email }, noScope);
   if (!user) return; // same answer either way: no account enumeration
   const membership = await em.findOne(Membership, { user, active: true }, noScope);
