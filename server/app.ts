@@ -9,6 +9,7 @@ import type { Config } from './config';
 import { createApiRouter, type Access, type ApiRouter } from './http/route';
 import { createSessionMiddleware, csrfProtection, destroy } from './http/session';
 import { errorHandler } from './http/error-handler';
+import { requestErrors } from './http/request-errors';
 import { notFound } from './http/errors';
 import { loadPrincipal } from './modules/auth/auth.service';
 import { registerAuthRoutes } from './modules/auth/auth.routes';
@@ -97,7 +98,7 @@ export function createApp({ orm, config, smtp = null }: AppDeps): AppHandle {
   registerOilAnalysisRoutes(api, planEvaluator(orm, config.APP_URL));
   registerCalendarFeedRoutes(api, config);
   registerJobRunRoutes(api, () => runScheduledPass(orm));
-  registerDevInboxRoutes(api, config.MAIL_CAPTURE ? smtp : null);
+  registerDevInboxRoutes(api, config.MAIL_CAPTURE ? smtp : null, config.NODE_ENV === 'production');
 
   api.use(() => {
     throw notFound('API route');
@@ -106,6 +107,7 @@ export function createApp({ orm, config, smtp = null }: AppDeps): AppHandle {
 
   const dist = path.resolve(config.CLIENT_DIST);
   if (existsSync(path.join(dist, 'index.html'))) serveClient(app, dist);
+  app.use(requestErrors);
   app.use(errorHandler);
 
   return { app, api, routeAccess: api.routeAccess, close: () => pool.end() };

@@ -49,6 +49,8 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env): Config {
   const production = c.NODE_ENV === 'production';
   if (production && !c.SESSION_SECRET) throw new Error('Invalid configuration:\n  SESSION_SECRET: required in production');
   if (production && !c.MIGRATION_DATABASE_URL) throw new Error('Invalid configuration:\n  MIGRATION_DATABASE_URL: required in production (the role that owns the tables; DATABASE_URL must not be that role)');
+  // The capture would hold every shop's mail, reset links included.
+  if (production && c.MAIL_CAPTURE) throw new Error('Invalid configuration:\n  MAIL_CAPTURE: the fake SMTP server and dev inbox are for development only; unset it in production');
   return {
     ...c,
     APP_URL: c.APP_URL ?? `http://${c.HOST}:${c.PORT}`,

@@ -20,7 +20,8 @@ export const PERMISSIONS = {
   'activity-log.read': ['admin', 'safety'],
   'org.settings.manage': ['admin'],
   'jobs.run': ['admin'],
-  'mail.inbox.all': ['admin'],
+  /** Captured mail of the shop's members, except password-reset links (those only their owner reads). */
+  'mail.inbox.shop': ['admin'],
   'mail.inbox.own': everyone,
   // Maintenance: everyone sees plans and work; admins write plans; technicians (and the safety officer) do the work.
   'plans.read': everyone,

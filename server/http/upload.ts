@@ -3,7 +3,13 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import type { NextFunction, RequestHandler } from 'express';
 import multer from 'multer';
-import { badRequest, payloadTooLarge } from './errors';
+import { AppError, badRequest, payloadTooLarge } from './errors';
+
+/** The multipart parser could not read the form (cut off, no boundary, broken part headers). */
+export function unreadableMultipart(err: unknown, field: string) {
+  const message = `The upload could not be read (${err instanceof Error ? err.message : 'broken form data'}); send it again`;
+  return badRequest(message, [{ path: field, message }]);
+}
 
 /**
  * One file from a multipart form, held in memory up to `maxBytes` (callers check its content).
@@ -13,6 +19,10 @@ import { badRequest, payloadTooLarge } from './errors';
 export function singleFileUpload(field: string, maxBytes: number, noun = 'file'): RequestHandler {
   const parse = multer({ storage: multer.memoryStorage(), limits: { fileSize: maxBytes, files: 1, fields: 5 } }).single(field);
   return (req, res, next) => {
+    if (!req.is('multipart/form-data')) {
+      const message = `Send the ${noun} as multipart/form-data (form field “${field}”)`;
+      return next(new AppError(415, 'unsupported_media_type', message, [{ path: field, message }]));
+    }
     parse(req, res, (err: unknown) => {
       if (!err) return next();
       if (err instanceof multer.MulterError && err.code === 'LIMIT_FILE_SIZE') {
@@ -20,7 +30,7 @@ export function singleFileUpload(field: string, maxBytes: number, noun = 'file')
         return next(payloadTooLarge(message, [{ path: field, message }]));
       }
       if (err instanceof multer.MulterError) return next(badRequest(`Upload refused: ${err.message}`, [{ path: field, message: err.message }]));
-      next(err);
+      next(unreadableMultipart(err, field));
     });
   };
 }

@@ -2,6 +2,7 @@ import type { Request } from 'express';
 import type { z } from 'zod';
 import { validationFailed } from './errors';
 import type { FieldErrors } from '../../shared/schemas/common';
+import { ANY_TEXT_MESSAGE, findUnstorableText } from '../../shared/schemas/text';
 
 export type Schemas = { body?: z.ZodType; query?: z.ZodType; params?: z.ZodType };
 
@@ -43,6 +44,12 @@ export function parseInput<S extends Schemas>(schemas: S, req: Request): ParsedI
     if (!result.success) {
       const fields = toFields(result.error, where);
       throw validationFailed(`Please check ${fields.map((f) => `${readablePath(f.path)}: ${f.message}`).join('; ')}`, fields);
+    }
+    // Every string, whatever its schema says: NUL and broken characters cannot be stored.
+    const unstorable = findUnstorableText(result.data);
+    if (unstorable) {
+      const path = unstorable.path.length ? unstorable.path.join('.') : where;
+      throw validationFailed(`Please check ${readablePath(path)}: ${ANY_TEXT_MESSAGE}`, [{ path, message: ANY_TEXT_MESSAGE }]);
     }
     out[where] = result.data;
   }

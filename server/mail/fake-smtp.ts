@@ -7,6 +7,8 @@ export type CapturedMail = {
   receivedAt: string;
   from: string;
   to: string[];
+  /** The Message-ID header; the dev inbox matches it to the outbox row (shop, kind). */
+  messageId: string | null;
   subject: string;
   text: string;
   html: string | null;
@@ -41,6 +43,7 @@ export class FakeSmtp {
               receivedAt: clock.now().toISOString(),
               from: session.envelope.mailFrom ? session.envelope.mailFrom.address : '',
               to,
+              messageId: parsed.messageId ?? null,
               subject: parsed.subject ?? '',
               text: parsed.text ?? '',
               html: typeof parsed.html === 'string' ? parsed.html : null,

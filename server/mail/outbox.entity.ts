@@ -23,7 +23,8 @@ export const OutboxMail = defineEntity({
     nextAttemptAt: p.datetime(),
     lastError: p.text().nullable(),
     sentAt: p.datetime().nullable(),
-    messageId: p.string().length(300).nullable(),
+    /** Fixed when queued: every (re)send carries it, so receivers can drop a duplicate. */
+    messageId: p.string().length(300).unique(),
   },
 });
 export type IOutboxMail = InferEntity<typeof OutboxMail>;

@@ -9,11 +9,13 @@ export function backoffMs(attempts: number): number {
   return Math.min(30_000 * 2 ** Math.max(0, attempts - 1), 3_600_000);
 }
 
-type Row = { id: string; to_address: string; subject: string; text_body: string; html_body: string | null; attempts: number };
+type Row = { id: string; message_id: string; to_address: string; subject: string; text_body: string; html_body: string | null; attempts: number };
 
 /**
  * Delivers due outbox mails. Each row is locked (FOR UPDATE SKIP LOCKED) for the length of
- * its delivery, so several instances or overlapping runs never send the same mail twice.
+ * its delivery, so several instances or overlapping runs never send the same mail at the same
+ * time. A crash after the relay took a mail but before the commit sends it again on restart:
+ * delivery is at least once, deduplicated by the row's fixed Message-ID.
  */
 export async function deliverOutbox(orm: MikroORM, transport: Transporter, from: string, batch = 50): Promise<{ sent: number; failed: number }> {
   let sent = 0;
@@ -23,15 +25,16 @@ export async function deliverOutbox(orm: MikroORM, transport: Transporter, from:
       // em.execute runs inside this transaction, so the row lock lasts until commit.
       const conn = em;
       const rows: Row[] = await conn.execute(
-        `select id, to_address, subject, text_body, html_body, attempts from outbox_mail
+        `select id, message_id, to_address, subject, text_body, html_body, attempts from outbox_mail
           where status = 'pending' and next_attempt_at <= now()
           order by next_attempt_at, created_at limit 1 for update skip locked`,
       );
       const row = rows[0];
       if (!row) return 'empty' as const;
       try {
-        const info = await transport.sendMail({ from, to: row.to_address, subject: row.subject, text: row.text_body, html: row.html_body ?? undefined });
-        await conn.execute(`update outbox_mail set status = 'sent', sent_at = now(), updated_at = now(), attempts = attempts + 1, message_id = ?, last_error = null where id = ?`, [info.messageId ?? null, row.id]);
+        // The row's own Message-ID: a resend after a crash between hand-over and commit is the same message.
+        await transport.sendMail({ from, to: row.to_address, subject: row.subject, text: row.text_body, html: row.html_body ?? undefined, messageId: row.message_id });
+        await conn.execute(`update outbox_mail set status = 'sent', sent_at = now(), updated_at = now(), attempts = attempts + 1, last_error = null where id = ?`, [row.id]);
         return 'sent' as const;
       } catch (err) {
         const attempts = row.attempts + 1;

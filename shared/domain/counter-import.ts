@@ -6,6 +6,7 @@
  */
 import { DateTime } from 'luxon';
 import { clock } from '../clock';
+import { toCsv } from './csv';
 
 export const REQUIRED_COLUMNS = ['machine_code', 'meter_code', 'read_at', 'value'] as const;
 export const OPTIONAL_COLUMNS = ['reset', 'unit'] as const;
@@ -113,7 +114,6 @@ export function importKeySource(meterId: string, readAt: Date, value: number, re
 /** The template served for download: header and a few example lines. */
 export function templateCsv(examples: { machineCode: string; meterCode: string; unit: string; value: number }[]): string {
   const at = '2026-03-14T07:30:00Z';
-  const lines = ['machine_code,meter_code,read_at,value,reset,unit'];
-  for (const e of examples) lines.push(`${e.machineCode},${e.meterCode},${at},${e.value},no,${e.unit}`);
-  return `${lines.join('\r\n')}\r\n`;
+  const rows = examples.map((e) => [e.machineCode, e.meterCode, at, e.value, 'no', e.unit]);
+  return `${toCsv(['machine_code', 'meter_code', 'read_at', 'value', 'reset', 'unit'], rows)}\r\n`;
 }

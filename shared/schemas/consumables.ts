@@ -2,6 +2,7 @@ import { z } from 'zod';
 import { TORCH_CATEGORIES, type LifeUnit, type PartCategory, type TorchCategory } from './stock';
 import type { MeterRow } from './machines';
 import { clock } from '../clock';
+import { isoDateTime, oneLine } from './text';
 
 /** Why a consumable came out. Our own labels; the first three mean the part reached the end of its life. */
 export const CHANGE_REASONS = ['normal-wear', 'failed-start', 'poor-cut', 'damaged', 'preventive'] as const;
@@ -40,8 +41,7 @@ export const consumableChangeSchema = z
     /** The counter was reset or replaced, so the typed value may be lower than the last reading. */
     startsReset: z.boolean().default(false),
     arcHoursReset: z.boolean().default(false),
-    changedAt: z.iso
-      .datetime({ offset: true, message: 'Not a valid time' })
+    changedAt: isoDateTime('Not a valid time')
       .optional()
       .refine((v) => !v || new Date(v).getTime() <= clock.ms() + 5 * 60_000, 'The change time lies in the future'),
     pitDepthMm: z.number({ message: 'Enter the pit depth in mm' }).min(0, 'The pit depth cannot be negative').max(10, 'A pit deeper than 10 mm is not plausible').nullish().transform((v) => v ?? null),
@@ -134,11 +134,11 @@ export type ConsumableSettingsInput = z.output<typeof consumableSettingsSchema>;
 // ── Cut-quality checks ───────────────────────────────────────────────────────
 export const cutCheckSchema = z.object({
   torchId: z.uuid({ message: 'Choose the torch' }),
-  checkedAt: z.iso.datetime({ offset: true, message: 'Not a valid time' }).optional(),
+  checkedAt: isoDateTime('Not a valid time').optional(),
   dimensions: z
     .array(
       z.object({
-        label: z.string().trim().min(1, 'Name the dimension').max(40, 'At most 40 characters'),
+        label: oneLine(z.string().trim().min(1, 'Name the dimension').max(40, 'At most 40 characters')),
         nominalMm: z.number({ message: 'Enter the nominal size in mm' }).positive('The nominal size must be above zero').max(10_000),
         measuredMm: z.number({ message: 'Enter the measured size in mm' }).positive('The measured size must be above zero').max(10_000),
       }),

@@ -1,5 +1,6 @@
 import { z } from 'zod';
 import { clock } from '../clock';
+import { isOneLineText, isoDateTime, oneLine, ONE_LINE_MESSAGE } from './text';
 
 export const MACHINE_KINDS = ['punch-plasma-cell', 'plasma-table', 'press-brake', 'hydraulic-unit', 'fume-extractor', 'torch', 'punch-head', 'other'] as const;
 export type MachineKind = (typeof MACHINE_KINDS)[number];
@@ -41,11 +42,12 @@ export const codeSchema = (what: string) =>
     .trim()
     .min(1, `Enter a ${what} code`)
     .max(40, `The ${what} code is too long (at most 40 characters)`)
+    .refine(isOneLineText, ONE_LINE_MESSAGE)
     .regex(/^[A-Za-z0-9][A-Za-z0-9._-]*$/, 'Use letters, digits, dot, dash or underscore, no spaces');
 
 export const machineInputSchema = z.object({
   code: codeSchema('machine'),
-  name: z.string({ message: 'Enter a name' }).trim().min(2, 'Enter a name').max(120, 'The name is too long (at most 120 characters)'),
+  name: oneLine(z.string({ message: 'Enter a name' }).trim().min(2, 'Enter a name').max(120, 'The name is too long (at most 120 characters)')),
   kind: z.enum(MACHINE_KINDS, { message: 'Choose a kind of machine' }),
   /** Set for a component (the torch of a cell, its punch head …). */
   parentId: z.uuid({ message: 'Choose a machine from the list' }).nullish().transform((v) => v ?? null),
@@ -109,7 +111,7 @@ export const meterInputSchema = z
   .object({
     machineId: z.uuid({ message: 'Choose a machine' }),
     code: codeSchema('meter'),
-    name: z.string({ message: 'Enter a name' }).trim().min(2, 'Enter a name').max(120, 'The name is too long (at most 120 characters)'),
+    name: oneLine(z.string({ message: 'Enter a name' }).trim().min(2, 'Enter a name').max(120, 'The name is too long (at most 120 characters)')),
     kind: z.enum(METER_KINDS, { message: 'Choose a kind of meter' }),
     unit: z.string({ message: 'Choose a unit' }).min(1, 'Choose a unit'),
     lowerLimit: finite('the lower limit').nullish().transform((v) => v ?? null),
@@ -131,7 +133,7 @@ export type MeterInput = z.output<typeof meterInputSchema>;
 
 export const meterUpdateSchema = z
   .object({
-    name: z.string().trim().min(2, 'Enter a name').max(120, 'The name is too long (at most 120 characters)').optional(),
+    name: oneLine(z.string().trim().min(2, 'Enter a name').max(120, 'The name is too long (at most 120 characters)')).optional(),
     lowerLimit: finite('the lower limit').nullable().optional(),
     upperLimit: finite('the upper limit').nullable().optional(),
   })
@@ -143,8 +145,7 @@ export const readingInputSchema = z.object({
   value: z.coerce
     .number({ message: 'Enter the reading as a number' })
     .refine(Number.isFinite, 'Enter the reading as a number'),
-  readAt: z.iso
-    .datetime({ offset: true, message: 'Enter the time as an ISO date-time, e.g. 2026-03-14T07:30:00Z' })
+  readAt: isoDateTime('Enter the time as an ISO date-time, e.g. 2026-03-14T07:30:00Z')
     .optional()
     .refine((v) => !v || new Date(v).getTime() <= clock.ms() + 5 * 60_000, 'The reading time lies in the future'),
   isReset: z.boolean().default(false),

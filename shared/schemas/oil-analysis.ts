@@ -1,6 +1,7 @@
 import { z } from 'zod';
 import { ISO_VG_GRADES } from '../domain/viscosity';
 import { paging } from './paging';
+import { isoDateTime, oneLine } from './text';
 
 const count = (size: string) => z.number({ message: `Enter the count at ≥${size} µm(c)` }).finite().min(0, 'Counts cannot be negative').max(1e9);
 
@@ -8,8 +9,8 @@ const count = (size: string) => z.number({ message: `Enter the count at ≥${siz
 export const oilAnalysisInput = z
   .object({
     machineId: z.uuid({ message: 'Choose a hydraulic unit' }),
-    sampledAt: z.iso.datetime({ offset: true, message: 'Enter when the sample was taken' }),
-    labReference: z.string().trim().max(80).optional(),
+    sampledAt: isoDateTime('Enter when the sample was taken'),
+    labReference: oneLine(z.string().trim().max(80)).optional(),
     /** Particles per mL at ≥4, ≥6, ≥14 µm(c) (ISO 4406 sizes, ISO 11171 calibration). */
     ge4um: count('4'),
     ge6um: count('6'),

@@ -1,8 +1,9 @@
 import { z } from 'zod';
 import { IANAZone } from 'luxon';
+import { oneLine } from './text';
 
 export const orgSettingsSchema = z.object({
-  name: z.string().trim().min(2, 'Enter the shop’s name').max(200, 'Name is too long'),
+  name: oneLine(z.string().trim().min(2, 'Enter the shop’s name').max(200, 'Name is too long')),
   timeZone: z
     .string()
     .trim()

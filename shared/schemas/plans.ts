@@ -1,6 +1,7 @@
 import { z } from 'zod';
 import { ROLES, type Role } from '../permissions';
 import { paging } from './paging';
+import { localDateTime, oneLine } from './text';
 
 /** Plan status as the due engine sees it (shared/domain/due.ts DueStatus). */
 export const DUE_STATES = ['not-due', 'due-soon', 'due', 'overdue'] as const;
@@ -24,9 +25,9 @@ const positive = (what: string) => num(what).positive(`${what[0].toUpperCase()}$
 export const checklistTemplateItem = z
   .object({
     key: z.string().trim().min(1).max(40).regex(/^[a-z0-9-]+$/, 'Use lower-case letters, digits and dashes'),
-    label: z.string().trim().min(2, 'Describe the check').max(200, 'Keep the check under 200 characters'),
+    label: oneLine(z.string().trim().min(2, 'Describe the check').max(200, 'Keep the check under 200 characters')),
     kind: z.enum(['check', 'measure']),
-    unit: z.string().trim().max(16).optional(),
+    unit: oneLine(z.string().trim().max(16)).optional(),
     min: num('a lower limit').optional(),
     max: num('an upper limit').optional(),
   })
@@ -49,7 +50,7 @@ export const triggerInput = z.discriminatedUnion('kind', [
   z.object({
     kind: z.literal('calendar-fixed'),
     /** Local wall-clock start in the site's time zone, e.g. 2025-01-06T07:00. */
-    start: z.string().trim().regex(/^\d{4}-\d{2}-\d{2}T\d{2}:\d{2}(:\d{2})?$/, 'Enter a local start date and time'),
+    start: localDateTime('Enter a local start date and time'),
     /** RFC 5545 RRULE value, e.g. FREQ=WEEKLY;BYDAY=MO. */
     rrule: z.string().trim().min(6, 'Enter a rule such as FREQ=WEEKLY;BYDAY=MO').max(400),
   }),
@@ -87,7 +88,7 @@ export const planPartInput = z.object({
 export const planInput = z
   .object({
     machineId: z.uuid({ message: 'Choose a machine' }),
-    title: z.string().trim().min(3, 'Give the plan a title of at least 3 characters').max(160, 'Keep the title under 160 characters'),
+    title: oneLine(z.string().trim().min(3, 'Give the plan a title of at least 3 characters').max(160, 'Keep the title under 160 characters')),
     instructions: z.string().trim().max(8000, 'Instructions are too long').default(''),
     checklist: z.array(checklistTemplateItem).max(60, 'At most 60 checklist lines').default([]),
     estimatedMinutes: z.number().int('Whole minutes').min(1, 'At least 1 minute').max(10_000).nullable().default(null),

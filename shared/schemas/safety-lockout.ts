@@ -1,6 +1,7 @@
 import { z } from 'zod';
 import { signPassword } from './safety-sign-offs';
 import { paging } from './paging';
+import { oneLine } from './text';
 
 /** Devices put on an isolation point (OSHA 29 CFR 1910.147(c)(5) lockout and tagout devices). */
 export const LOCK_DEVICES = ['lock-and-tag', 'lock', 'tag-only', 'valve-cover', 'plug-cover', 'blocking'] as const;
@@ -23,13 +24,13 @@ export const LOCKOUT_STATE_LABELS: Record<LockoutState, string> = {
   released: 'Released',
 };
 
-const lockNumber = z.string().trim().min(1, 'Enter the lock number').max(30, 'Lock number: at most 30 characters');
+const lockNumber = oneLine(z.string().trim().min(1, 'Enter the lock number').max(30, 'Lock number: at most 30 characters'));
 
 export const lockPointInput = z.object({
   sourceKey: z.string().trim().min(1).max(8),
   device: z.enum(LOCK_DEVICES, { message: 'Choose the device' }),
   lockNumber: lockNumber,
-  tagNumber: z.string().trim().max(30, 'Tag number: at most 30 characters').optional(),
+  tagNumber: oneLine(z.string().trim().max(30, 'Tag number: at most 30 characters')).optional(),
 });
 
 const applyLockoutFields = z.object({

@@ -1,5 +1,6 @@
 import { z } from 'zod';
 import { signPassword } from './safety-sign-offs';
+import { oneLine } from './text';
 
 /** Kinds of hazardous energy a procedure names (OSHA 29 CFR 1910.147(b) "energy source"). */
 export const ENERGY_KINDS = ['electrical', 'hydraulic', 'pneumatic', 'plasma-power', 'gravity', 'stored-mechanical', 'thermal', 'chemical', 'other'] as const;
@@ -70,7 +71,7 @@ const stepList = (phase: ProcedurePhase) =>
     .max(30, 'At most 30 steps per phase');
 
 const contentObject = z.object({
-  title: text('Title', 160),
+  title: oneLine(text('Title', 160)),
     scope: text('Scope', 1000),
     sources: z.array(energySourceSchema).min(1, 'Name at least one energy source').max(20, 'At most 20 energy sources'),
     steps: z.object({

@@ -1,11 +1,12 @@
 import { z } from 'zod';
 import { signPassword } from './safety-sign-offs';
+import { isoDateTime, isoDate, oneLine } from './text';
 
 // Periodic inspections, training, fire watch, site settings and the safety work list.
 
 export const inspectionSchema = z.object({
   procedureId: z.uuid({ message: 'Choose the procedure' }),
-  inspectedOn: z.iso.date({ message: 'Enter the inspection date' }),
+  inspectedOn: isoDate('Enter the inspection date', { refusedIfFuture: true }),
   employeeIds: z.array(z.uuid()).min(1, 'Include at least one employee who uses the procedure').max(50),
   findings: z.string().trim().min(3, 'Describe what you saw').max(2000),
   deviations: z.string().trim().max(2000).optional(),
@@ -44,7 +45,7 @@ export const trainingSchema = z.object({
   userId: z.uuid({ message: 'Choose the person' }),
   procedureId: z.uuid({ message: 'Choose the procedure' }),
   kind: z.enum(TRAINING_KINDS, { message: 'Choose the kind of training' }),
-  trainedOn: z.iso.date({ message: 'Enter the training date' }),
+  trainedOn: isoDate('Enter the training date', { refusedIfFuture: true }),
   note: z.string().trim().max(500).optional(),
   password: signPassword,
 });
@@ -69,7 +70,7 @@ export type TrainingRow = {
 export const startFireWatchSchema = z.object({
   machineId: z.uuid({ message: 'Choose the machine' }),
   /** When cutting stopped; the watch runs from here. Defaults to now. */
-  cuttingEndedAt: z.iso.datetime({ offset: true, message: 'Use a date and time' }).optional(),
+  cuttingEndedAt: isoDateTime('Use a date and time').optional(),
   area: z.string().trim().max(200).optional(),
   password: signPassword,
 });
@@ -101,7 +102,7 @@ const hhmm = z.string().regex(/^([01]\d|2[0-3]):[0-5]\d$/, 'Use 24-hour time, e.
 export const WEEKDAYS = ['MO', 'TU', 'WE', 'TH', 'FR', 'SA', 'SU'] as const;
 
 export const shadeBandSchema = z.object({
-  label: z.string().trim().min(1, 'Name the band').max(40),
+  label: oneLine(z.string().trim().min(1, 'Name the band').max(40)),
   fromA: z.number().min(0),
   toA: z.number().positive(),
   minimum: z.number().int().min(1).max(14),

@@ -1,5 +1,6 @@
 import { z } from 'zod';
 import { paging } from './paging';
+import { isoDate } from './text';
 
 /**
  * What a safety signature means. Every record in the safety log is one of these; the
@@ -69,8 +70,8 @@ const listSignOffsObject = paging.extend({
   machineId: z.uuid({ message: 'Not a valid machine id' }).optional(),
   signerId: z.uuid({ message: 'Not a valid person id' }).optional(),
   meaning: z.enum(SIGN_MEANINGS, { message: 'Unknown meaning' }).optional(),
-  from: z.iso.date({ message: 'Use a date like 2026-03-01' }).optional(),
-  to: z.iso.date({ message: 'Use a date like 2026-03-31' }).optional(),
+  from: isoDate('Use a date like 2026-03-01').optional(),
+  to: isoDate('Use a date like 2026-03-31').optional(),
   sort: z.enum(['signedAt', 'signerName', 'meaning', 'machine', 'seq']).default('signedAt'),
   dir: z.enum(['asc', 'desc']).default('desc'),
 });

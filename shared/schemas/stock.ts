@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { oneLine } from './text';
 
 export const PART_CATEGORIES = ['electrode', 'nozzle', 'swirl-ring', 'shield', 'retaining-cap', 'punch', 'die', 'stripper', 'hydraulic-filter', 'extractor-cartridge', 'oil', 'grease', 'other'] as const;
 export type PartCategory = (typeof PART_CATEGORIES)[number];
@@ -42,10 +43,10 @@ export type TorchCategory = (typeof TORCH_CATEGORIES)[number];
 const money = z.number({ message: 'Enter a cost' }).min(0, 'A cost cannot be negative').max(1_000_000, 'That cost is implausibly high');
 
 export const partTypeInputSchema = z.object({
-  partNumber: z.string({ message: 'Enter a part number' }).trim().min(1, 'Enter a part number').max(60, 'The part number is too long (at most 60 characters)'),
-  name: z.string({ message: 'Enter a name' }).trim().min(2, 'Enter a name').max(160, 'The name is too long (at most 160 characters)'),
+  partNumber: oneLine(z.string({ message: 'Enter a part number' }).trim().min(1, 'Enter a part number').max(60, 'The part number is too long (at most 60 characters)')),
+  name: oneLine(z.string({ message: 'Enter a name' }).trim().min(2, 'Enter a name').max(160, 'The name is too long (at most 160 characters)')),
   category: z.enum(PART_CATEGORIES, { message: 'Choose a category' }),
-  stockUnit: z.string().trim().min(1, 'Enter the unit stock is counted in').max(16).default('pcs'),
+  stockUnit: oneLine(z.string().trim().min(1, 'Enter the unit stock is counted in').max(16)).default('pcs'),
   lifeUnit: z.enum(LIFE_UNITS, { message: 'Choose what wears it out' }).nullable().default(null),
   expectedLife: z.number({ message: 'Enter the expected life as a number' }).positive('The expected life must be above zero').nullable().default(null),
   unitCost: money.default(0),

@@ -2,11 +2,12 @@ import { z } from 'zod';
 import { ROLES } from '../permissions';
 import { email } from './common';
 import { paging } from './paging';
+import { oneLine } from './text';
 
 export const roleSchema = z.enum(ROLES, { message: 'Choose a role' });
 
 export const inviteUserSchema = z.object({
-  name: z.string().trim().min(2, 'Enter the person’s name').max(120, 'Name is too long'),
+  name: oneLine(z.string().trim().min(2, 'Enter the person’s name').max(120, 'Name is too long')),
   email,
   role: roleSchema,
 });

@@ -2,6 +2,7 @@ import { z } from 'zod';
 import { ROLES, type Role } from '../permissions';
 import type { ChecklistTemplateItem } from './plans';
 import { paging } from './paging';
+import { isoDateTime, oneLine } from './text';
 
 /** Lifecycle: open → in-progress ⇄ on-hold → done; open / in-progress / on-hold → cancelled (with a reason). */
 export const WORK_STATES = ['open', 'in-progress', 'on-hold', 'done', 'cancelled'] as const;
@@ -77,9 +78,9 @@ export type WorkOrderRow = {
 
 export const raiseWorkOrderInput = z.object({
   machineId: z.uuid({ message: 'Choose a machine' }),
-  title: z.string().trim().min(3, 'Describe the problem in at least 3 characters').max(160, 'Keep the title under 160 characters'),
+  title: oneLine(z.string().trim().min(3, 'Describe the problem in at least 3 characters').max(160, 'Keep the title under 160 characters')),
   instructions: z.string().trim().max(8000).default(''),
-  dueAt: z.iso.datetime({ offset: true, message: 'Enter a valid date and time' }).nullable().default(null),
+  dueAt: isoDateTime('Enter a valid date and time').nullable().default(null),
   assigneeId: z.uuid().nullable().default(null),
   responsibleRole: z.enum(ROLES).nullable().default('technician'),
   requiresLockout: z.boolean().default(false),
@@ -90,7 +91,7 @@ export type RaiseWorkOrderInput = z.infer<typeof raiseWorkOrderInput>;
 export const updateWorkOrderInput = z
   .object({
     assigneeId: z.uuid().nullable().optional(),
-    dueAt: z.iso.datetime({ offset: true, message: 'Enter a valid date and time' }).nullable().optional(),
+    dueAt: isoDateTime('Enter a valid date and time').nullable().optional(),
     labourMinutes: z.number().int('Whole minutes').min(0, 'Cannot be negative').max(100_000).optional(),
     notes: z.string().max(8000, 'Notes are too long').optional(),
     requiresLockout: z.boolean().optional(),
@@ -108,7 +109,7 @@ export const checklistResultsInput = z.object({
   results: z
     .array(
       z.object({
-        key: z.string().min(1).max(40),
+        key: oneLine(z.string().min(1).max(40)),
         result: z.enum(CHECK_RESULTS).nullable(),
         value: z.number().finite('Enter a number').nullable().default(null),
         note: z.string().trim().max(500).nullable().default(null),

@@ -58,7 +58,24 @@ export function issueToken(em: EntityManager, userId: string, purpose: 'invite' 
   return token;
 }
 
+/**
+ * How long every password-reset request takes to answer. Far above the work either path does
+ * (lookups, or lookups plus a token and a queued mail, even on a busy machine), so the answer's
+ * timing says nothing about whether the account exists.
+ */
+export const RESET_ANSWER_MS = 1000;
+
 export async function requestPasswordReset(em: EntityManager, email: string, appUrl: string): Promise<void> {
+  const started = performance.now();
+  try {
+    await issueReset(em, email, appUrl);
+  } finally {
+    const left = RESET_ANSWER_MS - (performance.now() - started);
+    if (left > 0) await new Promise((resolve) => setTimeout(resolve, left));
+  }
+}
+
+async function issueReset(em: EntityManager, email: string, appUrl: string): Promise<void> {
   const user = await em.findOne(User, { email }, noScope);
   if (!user) return; // same answer either way: no account enumeration
   const membership = await em.findOne(Membership, { user, active: true }, noScope);
@@ -79,6 +96,16 @@ export async function requestPasswordReset(em: EntityManager, email: string, app
   await em.flush();
 }
 
+/**
+ * Signs the user out everywhere: after a new password, whoever held a session with the old one
+ * (a shared tablet, someone who learnt it) must not stay signed in. Sessions are rows of the
+ * `session` table (connect-pg-simple); inside the caller's transaction, so it holds or fails with
+ * the password change. Call it from every place that sets a password.
+ */
+export async function endAllSessions(em: EntityManager, userId: string): Promise<void> {
+  await em.execute(`delete from session where sess->>'userId' = ?`, [userId]);
+}
+
 /** Sets a password through an invitation or reset link; the link is spent either way it succeeds. */
 export async function redeemToken(em: EntityManager, token: string, password: string): Promise<{ email: string }> {
   return em.transactional(async (tx) => {
@@ -89,6 +116,9 @@ export async function redeemToken(em: EntityManager, token: string, password: st
     const user = await tx.findOneOrFail(User, row.user.id, noScope);
     user.passwordHash = await hashPassword(password);
     row.usedAt = clock.now();
+    // Other links mailed earlier could set the password again: spend them with this one.
+    await tx.nativeUpdate(UserToken, { user: user.id, usedAt: null, id: { $ne: row.id } }, { usedAt: clock.now() }, noScope);
+    await endAllSessions(tx, user.id);
     const membership = await tx.findOne(Membership, { user }, noScope);
     if (membership) recordActivity(tx, { orgId: membership.organization.id, userId: user.id }, row.purpose === 'invite' ? 'auth.invite-accepted' : 'auth.password-reset', { type: 'User', id: user.id });
     return { email: user.email };

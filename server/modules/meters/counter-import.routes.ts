@@ -3,7 +3,7 @@ import type { Request, RequestHandler, Response } from 'express';
 import { route, type ApiRouter } from '../../http/route';
 import { requestEm } from '../../db';
 import { AppError, badRequest } from '../../http/errors';
-import { singleFileToDisk } from '../../http/upload';
+import { singleFileToDisk, unreadableMultipart } from '../../http/upload';
 import { COUNTER_IMPORT_MAX_BYTES, type ImportStreamLine } from '../../../shared/schemas/counter-import';
 import { counterImportTemplate, importCounterCsv, previewCounterCsv, type Progress } from './counter-import.service';
 
@@ -17,8 +17,9 @@ const receiveToDisk = singleFileToDisk('file', COUNTER_IMPORT_MAX_BYTES, (err, n
 
 /** Streams the upload to a temporary file; multer's own errors become clear HTTP answers (413 for a file over the cap). */
 const receiveFile: RequestHandler = (req, res, next) => {
+  if (!req.is('multipart/form-data')) return next(new AppError(415, 'unsupported_media_type', 'Send the CSV file as multipart/form-data (form field “file”)', [{ path: 'file', message: 'Send the file as multipart/form-data' }]));
   receiveToDisk(req, res, (err?: unknown) => {
-    if (err) return next(err);
+    if (err) return next(err instanceof AppError ? err : unreadableMultipart(err, 'file'));
     if (!req.file) return next(badRequest('Choose a CSV file to upload (form field “file”)', [{ path: 'file', message: 'Choose a CSV file' }]));
     next();
   });

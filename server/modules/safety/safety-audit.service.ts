@@ -1,5 +1,5 @@
 import type { EntityManager } from '@mikro-orm/postgresql';
-import Papa from 'papaparse';
+import { toCsv } from '../../../shared/domain/csv';
 import { DateTime } from 'luxon';
 import { Organization } from '../organizations/organization.entity';
 import { Machine } from '../machines/machine.entity';
@@ -138,9 +138,9 @@ export async function exportCsv(em: EntityManager, who: Principal, q: ExportSign
   const { org, tz } = await shopZone(em, who.orgId);
   const verification = await verifyShopChain(em, who.orgId);
   const rows = await allRows(em, who, q, tz);
-  const csv = Papa.unparse({
-    fields: ['seq', 'signed_at_utc', 'signed_at_local', 'time_zone', 'printed_name', 'role', 'meaning', 'statement', 'machine', 'summary', 'note', 'corrects_seq', 'hash', 'chain_check'],
-    data: rows.map((r) => [
+  const csv = toCsv(
+    ['seq', 'signed_at_utc', 'signed_at_local', 'time_zone', 'printed_name', 'role', 'meaning', 'statement', 'machine', 'summary', 'note', 'corrects_seq', 'hash', 'chain_check'],
+    rows.map((r) => [
       r.seq,
       r.signedAt,
       DateTime.fromISO(r.signedAt, { zone: tz }).toFormat('yyyy-LL-dd HH:mm:ss'),
@@ -156,7 +156,7 @@ export async function exportCsv(em: EntityManager, who: Principal, q: ExportSign
       r.hash,
       chainStatus(verification, r.seq),
     ]),
-  });
+  );
   const stamp = DateTime.fromMillis(clock.ms()).setZone(tz).toFormat('yyyyLLdd-HHmm');
   return { csv: `\uFEFF${csv}\r\n`, fileName: `safety-sign-offs-${org.slug}-${stamp}.csv`, verification };
 }

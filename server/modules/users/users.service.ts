@@ -83,7 +83,8 @@ export async function inviteMember(em: EntityManager, who: Principal, input: Inv
     if (user) {
       const existing = await tx.findOne(Membership, { user, organization: who.orgId }, { filters: false });
       if (existing) throw conflict('This person is already a member of your shop', [{ path: 'email', message: 'Already a member' }]);
-      throw conflict('This e-mail already belongs to an account in another shop', [{ path: 'email', message: 'E-mail already in use' }]);
+      // Whether the address is known elsewhere is no business of this shop: say only that it cannot be used.
+      throw conflict('This address cannot be invited. Ask the person for another e-mail address.', [{ path: 'email', message: 'This address cannot be invited' }]);
     }
     user = tx.create(User, { email: input.email, name: input.name });
     const membership = tx.create(Membership, { user, organization: who.orgId, role: input.role });

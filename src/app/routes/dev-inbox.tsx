@@ -8,7 +8,7 @@ export function Component() {
   if (!me) return null;
   return (
     <>
-      <PageTitle title="Dev inbox" subtitle="E-mail caught by the local test mail server. Admins see every message; others see their own." />
+      <PageTitle title="Dev inbox" subtitle="E-mail caught by the local test mail server. Everyone sees the mail sent to them; admins also see what the shop sent its members, except password-reset links." />
       <Notice tone="info">Development and demo only: in production, mail goes to the configured SMTP relay and this page is empty.</Notice>
       <Inbox timeZone={me.organization.timeZone} />
     </>

@@ -2,9 +2,9 @@ import { queryOptions, useQuery } from '@tanstack/react-query';
 import { api } from '../../../lib/api-client';
 import { devInboxKeys } from './keys';
 
-export type CapturedMail = { id: number; receivedAt: string; from: string; to: string[]; subject: string; text: string; html: string | null };
+export type CapturedMail = { id: number; receivedAt: string; from: string; to: string[]; messageId: string | null; subject: string; text: string; html: string | null };
 
 export const getInboxQueryOptions = () =>
-  queryOptions({ queryKey: devInboxKeys.all, queryFn: () => api<{ mails: CapturedMail[]; scope: 'all' | 'own' }>('/dev/inbox'), refetchInterval: 5_000 });
+  queryOptions({ queryKey: devInboxKeys.all, queryFn: () => api<{ mails: CapturedMail[]; scope: 'shop' | 'own' }>('/dev/inbox'), refetchInterval: 5_000 });
 
 export const useInbox = () => useQuery(getInboxQueryOptions());
