@@ -1,4 +1,4 @@
-// Micro-benchmark of RRULE expansion as the due engine calls it (shared/domain/recurrence.ts):
+// Micro-benchmark of RRULE expansion as the due engine calls it (shared/domain/recurrence/):
 //   npx tsx bench/recurrence.ts        (BENCH_CALLS=10000)
 // Typical weekly/monthly rules in a DST zone with DTSTART 1-3 years back; each "evaluation" is what
 // evalFixed does for a plan done recently: the next two occurrences after a completion, and the

@@ -34,7 +34,7 @@ export type RRule = RRuleTypes.RRule;
 export const RRuleSet = mod.RRuleSet;
 export type RRuleSet = RRuleTypes.RRuleSet;
 
-/** rrule's parser for RFC 5545 RRULE/DTSTART text (lenient; see recurrence.ts for strict parsing). */
+/** rrule's parser for RFC 5545 RRULE/DTSTART text (lenient; see recurrence/parse.ts for strict parsing). */
 export const rrulestr = mod.rrulestr;
 
 /** FREQ values of RFC 5545 §3.3.10, as rrule numbers them (YEARLY = 0 … SECONDLY = 6). */

@@ -3,7 +3,7 @@ import { ROLES, type Role } from '../permissions';
 import { paging } from './paging';
 import { localDateTime, oneLine } from './text';
 
-/** Plan status as the due engine sees it (shared/domain/due.ts DueStatus). */
+/** Plan status as the due engine sees it (shared/domain/due/index.ts DueStatus). */
 export const DUE_STATES = ['not-due', 'due-soon', 'due', 'overdue'] as const;
 export type DueState = (typeof DUE_STATES)[number];
 

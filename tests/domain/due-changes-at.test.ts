@@ -3,7 +3,7 @@ import { evaluatePlan, type PlanInput, type Trigger } from '../../shared/domain/
 import { D, plan, WEEKLY_MONDAY } from './due-fixtures';
 
 // `changesAt` is the earliest instant at which an evaluation's status can change with time alone.
-// Checks: hand-worked boundaries from the house rules in shared/domain/due.ts (window, grace = max(window, 1 day)),
+// Checks: hand-worked boundaries from the house rules in shared/domain/due/index.ts (window, grace = max(window, 1 day)),
 // and an invariant over many generated plans: between `now` and `changesAt` the status stays the same.
 // Calendar facts: 2024-03-04 and 2024-03-11 are Mondays; Europe/Berlin is UTC+1 in March before the 31st.
 

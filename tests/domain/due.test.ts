@@ -3,7 +3,7 @@ import { evaluatePlan, type PlanInput, type Trigger } from '../../shared/domain/
 import { D, plan } from './due-fixtures';
 
 // All expectations below are hand-worked from the scenario data and the house rules documented at
-// the top of shared/domain/due.ts (due-soon window, grace = max(window, 1 day), one key per plan).
+// the top of shared/domain/due/index.ts (due-soon window, grace = max(window, 1 day), one key per plan).
 // Calendar facts used: 2024-03-04 and 2024-04-01 are Mondays; Europe/Berlin is CET (UTC+1) until
 // 01:00 UTC on 31 March 2024 and CEST (UTC+2) after (Directive 2000/84/EC: last Sunday of March).
 
