@@ -89,9 +89,17 @@ async function main() {
     const measured: [Target, Figures][] = [];
     for (const t of targets) measured.push([t, await measure(app.base + t.path, cookie)]);
     const bareAfter = await measure(`${bare.base}/bare`);
-    const base: Figures = { rps: (bareBefore.rps + bareAfter.rps) / 2, p50: Math.max(bareBefore.p50, bareAfter.p50), p99: Math.max(bareBefore.p99, bareAfter.p99), requests: bareBefore.requests + bareAfter.requests, failed: bareBefore.failed + bareAfter.failed };
+    const base: Figures = {
+      rps: (bareBefore.rps + bareAfter.rps) / 2,
+      p50: Math.max(bareBefore.p50, bareAfter.p50),
+      p99: Math.max(bareBefore.p99, bareAfter.p99),
+      requests: bareBefore.requests + bareAfter.requests,
+      failed: bareBefore.failed + bareAfter.failed,
+    };
     const row = (label: string, f: Figures, share: string, verdict: string) =>
-      console.log(`${label.padEnd(24)} ${f.rps.toFixed(0).padStart(7)} req/s  p50 ${String(f.p50).padStart(5)} ms  p99 ${String(f.p99).padStart(5)} ms  ${share.padStart(6)}  ${f.failed ? `${f.failed} failed  ` : ''}${verdict}`);
+      console.log(
+        `${label.padEnd(24)} ${f.rps.toFixed(0).padStart(7)} req/s  p50 ${String(f.p50).padStart(5)} ms  p99 ${String(f.p99).padStart(5)} ms  ${share.padStart(6)}  ${f.failed ? `${f.failed} failed  ` : ''}${verdict}`,
+      );
     row('bare, before', bareBefore, '', '');
     row('bare, after', bareAfter, '', '');
     row('bare baseline (mean)', base, '100 %', '');

@@ -50,7 +50,11 @@ async function seed(orm: MikroORM, now: number) {
   const r = prng(1000);
   const start = now - 365 * DAY;
   const kinds = ['punch-plasma-cell', 'plasma-table', 'press-brake', 'hydraulic-unit', 'fume-extractor'];
-  const machines = Array.from({ length: MACHINES }, (_, i) => ({ id: randomUUID(), code: `M${String(i + 1).padStart(4, '0')}`, kind: kinds[i % kinds.length] }));
+  const machines = Array.from({ length: MACHINES }, (_, i) => ({
+    id: randomUUID(),
+    code: `M${String(i + 1).padStart(4, '0')}`,
+    kind: kinds[i % kinds.length],
+  }));
   await conn.execute(
     `insert into machine (id, created_at, updated_at, organization_id, kind, code, name, active)
      select x.id, now(), now(), ?, x.kind, x.code, 'Bench machine ' || x.code, true from jsonb_to_recordset(?::jsonb) as x(id uuid, kind text, code text)`,
@@ -86,7 +90,11 @@ async function seed(orm: MikroORM, now: number) {
   // Plans: weekly fixed calendars, floating intervals, meter intervals, conditions, and pairs.
   const rules = ['FREQ=WEEKLY;BYDAY=MO', 'FREQ=WEEKLY;BYDAY=TU', 'FREQ=WEEKLY;BYDAY=FR', 'FREQ=MONTHLY;BYDAY=1MO', 'FREQ=WEEKLY;INTERVAL=2;BYDAY=WE'];
   const startLocal = new Date(start).toISOString().slice(0, 10);
-  const icals = rules.map((rule, i) => ({ rule, start: `${startLocal}T0${6 + (i % 3)}:00:00`, ical: buildRecurrenceText({ start: `${startLocal}T0${6 + (i % 3)}:00`, tzid: TZ, rrule: rule }) }));
+  const icals = rules.map((rule, i) => ({
+    rule,
+    start: `${startLocal}T0${6 + (i % 3)}:00:00`,
+    ical: buildRecurrenceText({ start: `${startLocal}T0${6 + (i % 3)}:00`, tzid: TZ, rrule: rule }),
+  }));
   const byMachine = new Map<string, MeterSpec[]>();
   for (const m of meters) byMachine.set(m.machineId, [...(byMachine.get(m.machineId) ?? []), m]);
   let plans: Record<string, unknown>[] = [];
@@ -188,7 +196,12 @@ async function writeFloor(orm: MikroORM): Promise<void> {
   const conn = orm.em.fork().getConnection();
   const trx = await conn.begin();
   try {
-    await conn.execute(`update maintenance_plan set status_reason = status_reason || ' ', evaluation = evaluation || '{}'::jsonb, status_hash = 'x'`, [], 'run', trx);
+    await conn.execute(
+      `update maintenance_plan set status_reason = status_reason || ' ', evaluation = evaluation || '{}'::jsonb, status_hash = 'x'`,
+      [],
+      'run',
+      trx,
+    );
     await conn.execute(
       `insert into work_order (id, created_at, updated_at, organization_id, number, machine_id, plan_id, occurrence_key, kind, title, instructions,
               reason, status, due_at, overdue, assignee_id, responsible_role, requires_lockout, safety_critical, checklist, planned_parts,
@@ -201,7 +214,12 @@ async function writeFloor(orm: MikroORM): Promise<void> {
       'run',
       trx,
     );
-    await conn.execute(`update work_order set overdue = true, escalated_at = now() where number > 10000000 and occurrence_key like '%#floor' and plan_id in (select id from maintenance_plan where status = 'overdue')`, [], 'run', trx);
+    await conn.execute(
+      `update work_order set overdue = true, escalated_at = now() where number > 10000000 and occurrence_key like '%#floor' and plan_id in (select id from maintenance_plan where status = 'overdue')`,
+      [],
+      'run',
+      trx,
+    );
     await conn.execute(
       `insert into audit_event (id, created_at, updated_at, organization_id, actor_id, action, entity_type, entity_id, details)
        select gen_random_uuid(), now(), now(), organization_id, null, action, entity_type, entity_id, details from audit_event
@@ -244,12 +262,16 @@ async function main() {
   const [{ n: readings }] = await orm.em.fork().execute<{ n: string }[]>(`select count(*) as n from meter_reading`);
   sample();
   console.log(`memory after seeding: RSS ${mb(process.memoryUsage().rss)}, heap ${mb(process.memoryUsage().heapUsed)}`);
-  console.log(`seeded ${seeded.plans.toLocaleString('en-US')} plans on ${MACHINES.toLocaleString('en-US')} machines, ${Number(readings).toLocaleString('en-US')} readings in ${seedSeconds.toFixed(1)} s (readings ${seeded.readingsSeconds.toFixed(1)} s)`);
+  console.log(
+    `seeded ${seeded.plans.toLocaleString('en-US')} plans on ${MACHINES.toLocaleString('en-US')} machines, ${Number(readings).toLocaleString('en-US')} readings in ${seedSeconds.toFixed(1)} s (readings ${seeded.readingsSeconds.toFixed(1)} s)`,
+  );
 
   const nowDate = new Date(now);
   await bareRead(orm, nowDate); // warm the cache the same way for every measurement
   const bare = await timed('bare', () => bareRead(orm, nowDate));
-  const sum = (m: Map<string, { plansChecked: number; plansEvaluated: number; workOrdersRaised: number; mailsQueued: number; escalations: number; errors: unknown[] }>) => {
+  const sum = (
+    m: Map<string, { plansChecked: number; plansEvaluated: number; workOrdersRaised: number; mailsQueued: number; escalations: number; errors: unknown[] }>,
+  ) => {
     const s = { checked: 0, evaluated: 0, raised: 0, mails: 0, escalations: 0, errors: 0 };
     for (const v of m.values()) {
       s.checked += v.plansChecked;
@@ -271,7 +293,11 @@ async function main() {
   await orm.em.fork().execute(
     `insert into meter_reading (id, created_at, updated_at, organization_id, meter_id, value, read_at, source, is_reset)
      select gen_random_uuid(), now(), now(), ?, x.id, x.value, ?, 'manual', false from jsonb_to_recordset(?::jsonb) as x(id uuid, value double precision)`,
-    [seeded.orgId, new Date(now + 2 * 60_000), JSON.stringify(fresh.map((m) => ({ id: m.id, value: m.code === 'filter-dp' ? 1900 : Math.round(366 * m.ratePerDay) })))],
+    [
+      seeded.orgId,
+      new Date(now + 2 * 60_000),
+      JSON.stringify(fresh.map((m) => ({ id: m.id, value: m.code === 'filter-dp' ? 1900 : Math.round(366 * m.ratePerDay) }))),
+    ],
   );
   const steadyAt = new Date(now + 5 * 60_000);
   const steady = await timed('steady', () => runDueEngine(orm, steadyAt, { appUrl: APP_URL }));
@@ -289,7 +315,11 @@ async function main() {
   ] as const;
   console.log('\n| measurement | time | × bare read | counts |\n|---|---|---|---|');
   for (const [label, s, note] of rows) console.log(`| ${label} | ${s.toFixed(2)} s | ${(s / bare.seconds).toFixed(2)} | ${note} |`);
-  console.log(`\npeak RSS per step: ${Object.entries(phasePeak).map(([k, v]) => `${k} ${mb(v)}`).join(', ')}`);
+  console.log(
+    `\npeak RSS per step: ${Object.entries(phasePeak)
+      .map(([k, v]) => `${k} ${mb(v)}`)
+      .join(', ')}`,
+  );
   console.log(`peak memory: RSS ${mb(peakRss)}, heap ${mb(peakHeap)}`);
   console.log('target: the scheduled (steady) pass within 3× the bare read, every pass under 500 MB; see docs/performance.md for the other rows');
   await closeORM();

@@ -142,14 +142,20 @@ async function main() {
       const shown = (ms: number) => `${(ms / 1000).toFixed(2).padStart(6)} s   ${Math.round(rate(ms)).toLocaleString('en-US').padStart(9)} rows/s`;
       const share = rate(tImport) / rate(tCopy);
       verdicts.push(share >= TARGET_SHARE);
-      console.log(`counter import bench — ${rows.toLocaleString('en-US')} rows, ${meters.length} meters, file ${mb(size)}, database ${dbName}, heap limit ${mb(getHeapStatistics().heap_size_limit)}`);
+      console.log(
+        `counter import bench — ${rows.toLocaleString('en-US')} rows, ${meters.length} meters, file ${mb(size)}, database ${dbName}, heap limit ${mb(getHeapStatistics().heap_size_limit)}`,
+      );
       console.log(`  generate file              ${(tGen / 1000).toFixed(2)} s`);
       console.log(`  bare COPY into plain table ${shown(tCopy)}`);
       console.log(`  preview (nothing kept)     ${shown(tPreview)}   toAdd=${preview.toAdd}`);
-      console.log(`  import                     ${shown(tImport)}   added=${result.added}, of which this process's CPU ${((cpuImport.user + cpuImport.system) / 1e6).toFixed(2)} s`);
+      console.log(
+        `  import                     ${shown(tImport)}   added=${result.added}, of which this process's CPU ${((cpuImport.user + cpuImport.system) / 1e6).toFixed(2)} s`,
+      );
       console.log(`  import again               ${shown(tAgain)}   added=${again.added} duplicates=${again.duplicates}`);
       console.log(`  peak memory (preview+imports) rss ${mb(peakRss)}, heap ${mb(peakHeap)}`);
-      console.log(`  import / bare COPY rate    ${(share * 100).toFixed(0)} % (target ≥ ${TARGET_SHARE * 100} %): ${share >= TARGET_SHARE ? 'met' : 'NOT met'}`);
+      console.log(
+        `  import / bare COPY rate    ${(share * 100).toFixed(0)} % (target ≥ ${TARGET_SHARE * 100} %): ${share >= TARGET_SHARE ? 'met' : 'NOT met'}`,
+      );
     }
     console.log(`target ${verdicts.every(Boolean) ? 'met' : 'NOT met'} for ${verdicts.filter(Boolean).length} of ${verdicts.length} sizes`);
   } finally {

@@ -9,7 +9,15 @@ import { buildRecurrenceText, expandRecurrence, previousOccurrence } from '../sh
 const CALLS = Number(process.env.BENCH_CALLS ?? 10_000);
 const DAY = 86_400_000;
 const now = new Date('2026-12-01T12:00:00Z');
-const rules = ['FREQ=WEEKLY;BYDAY=MO', 'FREQ=WEEKLY;BYDAY=TU,TH', 'FREQ=WEEKLY;INTERVAL=2;BYDAY=WE', 'FREQ=MONTHLY;BYDAY=1MO', 'FREQ=MONTHLY;BYMONTHDAY=15', 'FREQ=MONTHLY;BYDAY=MO,TU,WE,TH,FR;BYSETPOS=-1', 'FREQ=DAILY;INTERVAL=3'];
+const rules = [
+  'FREQ=WEEKLY;BYDAY=MO',
+  'FREQ=WEEKLY;BYDAY=TU,TH',
+  'FREQ=WEEKLY;INTERVAL=2;BYDAY=WE',
+  'FREQ=MONTHLY;BYDAY=1MO',
+  'FREQ=MONTHLY;BYMONTHDAY=15',
+  'FREQ=MONTHLY;BYDAY=MO,TU,WE,TH,FR;BYSETPOS=-1',
+  'FREQ=DAILY;INTERVAL=3',
+];
 const zones = ['America/Chicago', 'Europe/Berlin', 'Australia/Sydney'];
 const icals: string[] = [];
 for (let y = 1; y <= 3; y++) {

@@ -47,7 +47,11 @@ async function main() {
     return res;
   };
   const { token } = (await (await call('/auth/csrf')).json()) as { token: string };
-  const login = await call('/auth/login', { method: 'POST', headers: { 'x-csrf-token': token }, body: JSON.stringify({ email: 'operator@bench.example', password: DEMO_PASSWORD }) });
+  const login = await call('/auth/login', {
+    method: 'POST',
+    headers: { 'x-csrf-token': token },
+    body: JSON.stringify({ email: 'operator@bench.example', password: DEMO_PASSWORD }),
+  });
   if (!login.ok) throw new Error(`sign-in failed: ${login.status}`);
 
   const times: number[] = [];
@@ -62,10 +66,19 @@ async function main() {
   }
   server.close();
   await close();
-  const counts = await orm.em.fork().getConnection().execute(`select (select count(*) from meter_reading) readings, (select count(*) from consumable_change) changes, (select count(*) from consumable_install) installs`);
+  const counts = await orm.em
+    .fork()
+    .getConnection()
+    .execute(
+      `select (select count(*) from meter_reading) readings, (select count(*) from consumable_change) changes, (select count(*) from consumable_install) installs`,
+    );
   console.log(`station page bench — GET /api/stations/C1, ${runs} runs after 5 warm-up, database ${dbName}`);
-  console.log(`  demo data: ${counts[0].readings} readings, ${counts[0].changes} changes, ${counts[0].installs} installations (seeded in ${tSeed.toFixed(0)} ms)`);
-  console.log(`  response: median ${pct(times, 50).toFixed(1)} ms, p95 ${pct(times, 95).toFixed(1)} ms, max ${Math.max(...times).toFixed(1)} ms, ${(bytes / 1024).toFixed(1)} KB JSON`);
+  console.log(
+    `  demo data: ${counts[0].readings} readings, ${counts[0].changes} changes, ${counts[0].installs} installations (seeded in ${tSeed.toFixed(0)} ms)`,
+  );
+  console.log(
+    `  response: median ${pct(times, 50).toFixed(1)} ms, p95 ${pct(times, 95).toFixed(1)} ms, max ${Math.max(...times).toFixed(1)} ms, ${(bytes / 1024).toFixed(1)} KB JSON`,
+  );
   await closeORM();
 }
 

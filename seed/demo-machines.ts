@@ -70,7 +70,11 @@ export const seedMachines: SeedStep = async (em, shop) => {
     machines.push(r);
     return r.id as string;
   };
-  const c1 = machine('C1', 'Punch/plasma cell 1', 'punch-plasma-cell', { location: 'Bay 1', serial: 'PPC-19-0412', notes: 'Torch 130 A air plasma beside a 20-station turret.' });
+  const c1 = machine('C1', 'Punch/plasma cell 1', 'punch-plasma-cell', {
+    location: 'Bay 1',
+    serial: 'PPC-19-0412',
+    notes: 'Torch 130 A air plasma beside a 20-station turret.',
+  });
   const c1t = machine('C1-T', 'Plasma torch, cell 1', 'torch', { parent: c1, location: 'Bay 1', serial: 'TH-130-5521' });
   const c1p = machine('C1-P', 'Punch head, cell 1', 'punch-head', { parent: c1, location: 'Bay 1' });
   const c2 = machine('C2', 'Punch/plasma cell 2', 'punch-plasma-cell', { location: 'Bay 2', serial: 'PPC-21-0877' });
@@ -79,8 +83,16 @@ export const seedMachines: SeedStep = async (em, shop) => {
   const p1 = machine('P1', 'Plasma table', 'plasma-table', { location: 'Bay 3', serial: 'PT-3015-208', notes: '3 × 1.5 m water table, 80 A torch.' });
   const p1t = machine('P1-T', 'Plasma torch, table', 'torch', { parent: p1, location: 'Bay 3', serial: 'TH-080-1187' });
   machine('B1', 'Press brake', 'press-brake', { location: 'Bay 4', serial: 'PB-110-3104' });
-  const h1 = machine('H1', 'Hydraulic unit', 'hydraulic-unit', { location: 'Bay 1, pit', serial: 'HU-22-0093', notes: 'Feeds the clamps and the punch drive of both cells. ISO VG 46 oil.' });
-  const f1 = machine('F1', 'Fume extractor', 'fume-extractor', { location: 'Outside wall, bay 2', serial: 'FX-6-4410', notes: 'Six cartridges; change all at once.' });
+  const h1 = machine('H1', 'Hydraulic unit', 'hydraulic-unit', {
+    location: 'Bay 1, pit',
+    serial: 'HU-22-0093',
+    notes: 'Feeds the clamps and the punch drive of both cells. ISO VG 46 oil.',
+  });
+  const f1 = machine('F1', 'Fume extractor', 'fume-extractor', {
+    location: 'Outside wall, bay 2',
+    serial: 'FX-6-4410',
+    notes: 'Six cartridges; change all at once.',
+  });
   await insertAll(em, Machine, machines);
 
   // ── Meters ──────────────────────────────────────────────────────────────
@@ -111,8 +123,29 @@ export const seedMachines: SeedStep = async (em, shop) => {
   // ── Part catalogue (invented part numbers) ──────────────────────────────
   const parts: Row[] = [];
   const onHand = new Map<string, number>();
-  const part = (partNumber: string, name: string, category: string, lifeUnit: string | null, expectedLife: number | null, unitCost: number, leadTimeDays: number, stockUnit = 'pcs') => {
-    const r = row(org, created, { partNumber, name, category, stockUnit, lifeUnit, expectedLife, unitCost, onHand: 0, leadTimeDays, serviceLevel: 0.95, active: true });
+  const part = (
+    partNumber: string,
+    name: string,
+    category: string,
+    lifeUnit: string | null,
+    expectedLife: number | null,
+    unitCost: number,
+    leadTimeDays: number,
+    stockUnit = 'pcs',
+  ) => {
+    const r = row(org, created, {
+      partNumber,
+      name,
+      category,
+      stockUnit,
+      lifeUnit,
+      expectedLife,
+      unitCost,
+      onHand: 0,
+      leadTimeDays,
+      serviceLevel: 0.95,
+      active: true,
+    });
     parts.push(r);
     onHand.set(r.id as string, 0);
     return r.id as string;
@@ -147,7 +180,15 @@ export const seedMachines: SeedStep = async (em, shop) => {
     onHand.set(partTypeId, after);
     moves.push(row(org, at, { partType: partTypeId, kind, quantity, onHandAfter: after, reason, by, refType: ref?.type ?? null, refId: ref?.id ?? null }));
   };
-  for (const p of parts) move(p.id as string, new Date(start - DAY), 'adjusted', (p.stockUnit === 'L' ? 200 : p.category === 'electrode' || p.category === 'nozzle' ? 30 : 12), 'Opening stock', tech);
+  for (const p of parts)
+    move(
+      p.id as string,
+      new Date(start - DAY),
+      'adjusted',
+      p.stockUnit === 'L' ? 200 : p.category === 'electrode' || p.category === 'nozzle' ? 30 : 12,
+      'Opening stock',
+      tech,
+    );
 
   // ── Readings and consumable changes, day by day ─────────────────────────
   const readings: Row[] = [];
@@ -158,9 +199,36 @@ export const seedMachines: SeedStep = async (em, shop) => {
   const checks: Row[] = [];
 
   const torches: (TorchSpec & { id: string; startsMeter: string; hoursMeter: string })[] = [
-    { code: 'C1-T', id: c1t, startsMeter: m.c1Starts, hoursMeter: m.c1Hours, startsPerDay: 310, hoursPerStart: 0.0125, parts: big, scale: { electrode: 1080, nozzle: 980, 'swirl-ring': 5200, shield: 2700, 'retaining-cap': 21000 } },
-    { code: 'C2-T', id: c2t, startsMeter: m.c2Starts, hoursMeter: m.c2Hours, startsPerDay: 270, hoursPerStart: 0.0135, parts: big, scale: { electrode: 1040, nozzle: 950, 'swirl-ring': 5000, shield: 2500, 'retaining-cap': 20000 } },
-    { code: 'P1-T', id: p1t, startsMeter: m.p1Starts, hoursMeter: m.p1Hours, startsPerDay: 190, hoursPerStart: 0.026, parts: small, scale: { electrode: 860, nozzle: 760, 'swirl-ring': 4600, shield: 2200, 'retaining-cap': 18000 } },
+    {
+      code: 'C1-T',
+      id: c1t,
+      startsMeter: m.c1Starts,
+      hoursMeter: m.c1Hours,
+      startsPerDay: 310,
+      hoursPerStart: 0.0125,
+      parts: big,
+      scale: { electrode: 1080, nozzle: 980, 'swirl-ring': 5200, shield: 2700, 'retaining-cap': 21000 },
+    },
+    {
+      code: 'C2-T',
+      id: c2t,
+      startsMeter: m.c2Starts,
+      hoursMeter: m.c2Hours,
+      startsPerDay: 270,
+      hoursPerStart: 0.0135,
+      parts: big,
+      scale: { electrode: 1040, nozzle: 950, 'swirl-ring': 5000, shield: 2500, 'retaining-cap': 20000 },
+    },
+    {
+      code: 'P1-T',
+      id: p1t,
+      startsMeter: m.p1Starts,
+      hoursMeter: m.p1Hours,
+      startsPerDay: 190,
+      hoursPerStart: 0.026,
+      parts: small,
+      scale: { electrode: 860, nozzle: 760, 'swirl-ring': 4600, shield: 2200, 'retaining-cap': 18000 },
+    },
   ];
   const SHAPE: Record<TorchCategory, number> = { electrode: 3.4, nozzle: 2.8, 'swirl-ring': 2.2, shield: 1.8, 'retaining-cap': 1.5 };
   type Open = { id: string; category: TorchCategory; partType: string; at: Date; starts: number; hours: number; dueAt: number; preventive: boolean };
@@ -175,10 +243,42 @@ export const seedMachines: SeedStep = async (em, shop) => {
       const life = rnd.weibull(SHAPE[c], t.scale[c]);
       // Now and then an electrode is changed on plan before it wears out: a suspension in the statistics.
       const preventive = c === 'electrode' && rnd.next() < 0.08;
-      const o: Open = { id: randomUUID(), category: c, partType: t.parts[c], at, starts: s, hours: h, dueAt: s + Math.max(60, preventive ? life * rnd.between(0.6, 0.85) : life), preventive };
+      const o: Open = {
+        id: randomUUID(),
+        category: c,
+        partType: t.parts[c],
+        at,
+        starts: s,
+        hours: h,
+        dueAt: s + Math.max(60, preventive ? life * rnd.between(0.6, 0.85) : life),
+        preventive,
+      };
       open.set(c, o);
-      installs.push({ ...row(org, at, {}), id: o.id, torch: t.id, partType: o.partType, category: c, installedAt: at, installChange: changeId, startsAtInstall: s, arcHoursAtInstall: h, removedAt: null, removalChange: null, removalReason: null, lifeStarts: null, lifeArcHours: null });
-      move(o.partType, at, 'used', -1, `Consumable change on ${t.code}`, changeId ? operator : tech, changeId ? { type: 'ConsumableChange', id: changeId } : undefined);
+      installs.push({
+        ...row(org, at, {}),
+        id: o.id,
+        torch: t.id,
+        partType: o.partType,
+        category: c,
+        installedAt: at,
+        installChange: changeId,
+        startsAtInstall: s,
+        arcHoursAtInstall: h,
+        removedAt: null,
+        removalChange: null,
+        removalReason: null,
+        lifeStarts: null,
+        lifeArcHours: null,
+      });
+      move(
+        o.partType,
+        at,
+        'used',
+        -1,
+        `Consumable change on ${t.code}`,
+        changeId ? operator : tech,
+        changeId ? { type: 'ConsumableChange', id: changeId } : undefined,
+      );
     };
     const first = new Date(start - DAY + 22 * HOUR);
     for (const c of Object.keys(t.scale) as TorchCategory[]) install(c, first, null, starts, hours);
@@ -187,13 +287,31 @@ export const seedMachines: SeedStep = async (em, shop) => {
       const id = randomUUID();
       const withElectrode = cats.includes('electrode');
       const used = withElectrode ? (s - open.get('electrode')!.starts) / t.scale.electrode : 0;
-      changes.push({ ...row(org, at, {}), id, torch: t.id, changedAt: at, reason, startsReading: s, arcHoursReading: h, pitDepthMm: withElectrode && rnd.next() < 0.6 ? round(Math.max(0.2, 0.45 + 0.6 * used + rnd.normal(0, 0.12)), 2) : null, note: null, by: rnd.next() < 0.85 ? operator : tech });
+      changes.push({
+        ...row(org, at, {}),
+        id,
+        torch: t.id,
+        changedAt: at,
+        reason,
+        startsReading: s,
+        arcHoursReading: h,
+        pitDepthMm: withElectrode && rnd.next() < 0.6 ? round(Math.max(0.2, 0.45 + 0.6 * used + rnd.normal(0, 0.12)), 2) : null,
+        note: null,
+        by: rnd.next() < 0.85 ? operator : tech,
+      });
       reading(t.startsMeter, at, s, 'consumable-change', operator);
       reading(t.hoursMeter, at, h, 'consumable-change', operator);
       for (const c of cats) {
         const old = open.get(c)!;
         const inst = installs.find((i) => i.id === old.id)!;
-        Object.assign(inst, { removedAt: at, removalChange: id, removalReason: reason, lifeStarts: s - old.starts, lifeArcHours: round(h - old.hours, 3), updatedAt: at });
+        Object.assign(inst, {
+          removedAt: at,
+          removalChange: id,
+          removalReason: reason,
+          lifeStarts: s - old.starts,
+          lifeArcHours: round(h - old.hours, 3),
+          updatedAt: at,
+        });
         install(c, at, id, s, h);
       }
     };
@@ -218,20 +336,39 @@ export const seedMachines: SeedStep = async (em, shop) => {
         let reason: ChangeReason;
         if (next.category === 'electrode') {
           cats = rnd.next() < 0.9 ? ['electrode', 'nozzle'] : ['electrode'];
-          reason = next.preventive ? 'preventive' : rnd.pick<ChangeReason>([['normal-wear', 78], ['failed-start', 11], ['poor-cut', 11]]);
+          reason = next.preventive
+            ? 'preventive'
+            : rnd.pick<ChangeReason>([
+                ['normal-wear', 78],
+                ['failed-start', 11],
+                ['poor-cut', 11],
+              ]);
           if (rnd.next() < 0.12) cats.push('swirl-ring');
         } else if (next.category === 'nozzle') {
           cats = ['nozzle'];
-          reason = rnd.pick<ChangeReason>([['poor-cut', 55], ['normal-wear', 35], ['damaged', 10]]);
+          reason = rnd.pick<ChangeReason>([
+            ['poor-cut', 55],
+            ['normal-wear', 35],
+            ['damaged', 10],
+          ]);
         } else {
           cats = [next.category];
-          reason = rnd.pick<ChangeReason>([['normal-wear', 70], ['damaged', 30]]);
+          reason = rnd.pick<ChangeReason>([
+            ['normal-wear', 70],
+            ['damaged', 30],
+          ]);
         }
         change(at, cats, reason, s, h);
       }
       if (rnd.next() < 0.015) {
         // After the day's wear-out changes, so lives never run backwards.
-        change(new Date(shiftStart + shiftLen - 600_000), [rnd.next() < 0.5 ? 'shield' : 'nozzle'], 'damaged', s0 + dayStarts, round(h0 + dayStarts * perStart, 3));
+        change(
+          new Date(shiftStart + shiftLen - 600_000),
+          [rnd.next() < 0.5 ? 'shield' : 'nozzle'],
+          'damaged',
+          s0 + dayStarts,
+          round(h0 + dayStarts * perStart, 3),
+        );
       }
       starts = s0 + dayStarts;
       hours = round(h0 + dayStarts * perStart, 3);
@@ -249,7 +386,18 @@ export const seedMachines: SeedStep = async (em, shop) => {
         ];
         const res = couponResult(dims, 0.2);
         const at = new Date(shiftStart + shiftLen - HOUR);
-        checks.push({ ...row(org, at, {}), torch: t.id, checkedAt: at, toleranceMm: 0.2, dimensions: dims, maxDeviationMm: res.maxDeviationMm, passed: res.passed, installIds: [...open.values()].map((o) => o.id), by: operator, note: null });
+        checks.push({
+          ...row(org, at, {}),
+          torch: t.id,
+          checkedAt: at,
+          toleranceMm: 0.2,
+          dimensions: dims,
+          maxDeviationMm: res.maxDeviationMm,
+          passed: res.passed,
+          installIds: [...open.values()].map((o) => o.id),
+          by: operator,
+          note: null,
+        });
       }
     }
   }
@@ -265,7 +413,18 @@ export const seedMachines: SeedStep = async (em, shop) => {
     ];
     const res = couponResult(dims, 0.2);
     const openIds = installs.filter((i) => i.torch === c2t && i.removedAt === null).map((i) => i.id as string);
-    checks.push({ ...row(org, late, {}), torch: c2t, checkedAt: late, toleranceMm: 0.2, dimensions: dims, maxDeviationMm: res.maxDeviationMm, passed: res.passed, installIds: openIds, by: operator, note: 'Bevel on the hole side' });
+    checks.push({
+      ...row(org, late, {}),
+      torch: c2t,
+      checkedAt: late,
+      toleranceMm: 0.2,
+      dimensions: dims,
+      maxDeviationMm: res.maxDeviationMm,
+      passed: res.passed,
+      installIds: openIds,
+      by: operator,
+      note: 'Bevel on the hole side',
+    });
   }
 
   // ── Other meters: hits, run hours, pump hours, oil temperature, filter pressure drop ──
@@ -334,18 +493,41 @@ export const seedMachines: SeedStep = async (em, shop) => {
     for (const h of log) {
       const since = h.value - base;
       if (since >= s.every * rnd.between(0.9, 1.05) && !(overdue && h.at.getTime() > today - 120 * DAY)) {
-        sharpenings.push({ ...row(org, h.at, {}), tool: toolId, sharpenedAt: h.at, hitsReading: h.value, hitsSincePrevious: since, removedMm: round(rnd.between(0.1, 0.25), 2), by: tech, note: null });
+        sharpenings.push({
+          ...row(org, h.at, {}),
+          tool: toolId,
+          sharpenedAt: h.at,
+          hitsReading: h.value,
+          hitsSincePrevious: since,
+          removedMm: round(rnd.between(0.1, 0.25), 2),
+          by: tech,
+          note: null,
+        });
         base = h.value;
         lastAt = h.at;
       }
     }
-    tools.push({ ...row(org, created, {}), id: toolId, machine: s.head, hitsMeter: s.meter, code: s.code, name: s.name, stationSize: s.size, sharpeningIntervalHits: s.every, hitsAtLastSharpening: base, lastSharpenedAt: lastAt, active: true });
+    tools.push({
+      ...row(org, created, {}),
+      id: toolId,
+      machine: s.head,
+      hitsMeter: s.meter,
+      code: s.code,
+      name: s.name,
+      stationSize: s.size,
+      sharpeningIntervalHits: s.every,
+      hitsAtLastSharpening: base,
+      lastSharpenedAt: lastAt,
+      active: true,
+    });
   }
 
   // Parts arrive when stock runs low (orders placed at the reorder level).
   const used = moves.filter((mv) => mv.kind === 'used').sort((a, b) => (a.createdAt as Date).getTime() - (b.createdAt as Date).getTime());
   const receipts: Row[] = [];
-  const level = new Map([...onHand.keys()].map((k) => [k, moves.filter((mv) => mv.partType === k && mv.kind === 'adjusted').reduce((s, mv) => s + (mv.quantity as number), 0)]));
+  const level = new Map(
+    [...onHand.keys()].map((k) => [k, moves.filter((mv) => mv.partType === k && mv.kind === 'adjusted').reduce((s, mv) => s + (mv.quantity as number), 0)]),
+  );
   for (const u of used) {
     const id = u.partType as string;
     const at = u.createdAt as Date;
@@ -357,14 +539,26 @@ export const seedMachines: SeedStep = async (em, shop) => {
     } else level.set(id, left);
   }
   // Rebuild the move list in time order with receipts in place, recomputing on-hand after each.
-  const all = [...moves.filter((mv) => mv.kind !== 'adjusted').map((mv) => ({ at: mv.createdAt as Date, mv })), ...receipts.map((r) => ({ at: r.at as Date, mv: null as Row | null, r }))].sort((a, b) => a.at.getTime() - b.at.getTime());
+  const all = [
+    ...moves.filter((mv) => mv.kind !== 'adjusted').map((mv) => ({ at: mv.createdAt as Date, mv })),
+    ...receipts.map((r) => ({ at: r.at as Date, mv: null as Row | null, r })),
+  ].sort((a, b) => a.at.getTime() - b.at.getTime());
   const opening = moves.filter((mv) => mv.kind === 'adjusted');
   moves.length = 0;
   for (const p of parts) onHand.set(p.id as string, 0);
   for (const o of opening) move(o.partType as string, o.createdAt as Date, 'adjusted', o.quantity as number, 'Opening stock', tech);
   let order = 4100;
   for (const e of all) {
-    if (e.mv) move(e.mv.partType as string, e.at, 'used', e.mv.quantity as number, e.mv.reason as string, e.mv.by as string, e.mv.refType ? { type: e.mv.refType as string, id: e.mv.refId as string } : undefined);
+    if (e.mv)
+      move(
+        e.mv.partType as string,
+        e.at,
+        'used',
+        e.mv.quantity as number,
+        e.mv.reason as string,
+        e.mv.by as string,
+        e.mv.refType ? { type: e.mv.refType as string, id: e.mv.refId as string } : undefined,
+      );
     else if ('r' in e && e.r) move(e.r.partType as string, e.at, 'received', e.r.qty as number, `Order ${order++}`, tech);
   }
   // Yesterday's stocktake found only three 130 A shields: the demo has something to reorder.

@@ -57,7 +57,15 @@ export const seedPlansDemo: SeedStep = async (rootEm, shop, settings) => {
   const admin = people.find((m) => m.role === 'admin');
   const tech = people.find((m) => m.role === 'technician') ?? admin;
   if (!admin || !tech) return;
-  const who: Principal = { userId: admin.user.id, orgId: shop.id, role: 'admin', name: admin.user.getEntity().name, email: admin.user.getEntity().email, orgName, timeZone: shop.timeZone };
+  const who: Principal = {
+    userId: admin.user.id,
+    orgId: shop.id,
+    role: 'admin',
+    name: admin.user.getEntity().name,
+    email: admin.user.getEntity().email,
+    orgName,
+    timeZone: shop.timeZone,
+  };
 
   const now = clock.ms();
   const start = now - 364 * DAY;
@@ -67,7 +75,10 @@ export const seedPlansDemo: SeedStep = async (rootEm, shop, settings) => {
   const orm = await initORM();
   const conn = orm.em.fork();
   // The plans count from a year ago, as if the shop had kept them all along.
-  await conn.execute(`update maintenance_plan set started_at = ?, last_done_at = null, last_raised_key = null, meter_baselines = '{}', recheck_at = null where organization_id = ?`, [new Date(start), shop.id]);
+  await conn.execute(
+    `update maintenance_plan set started_at = ?, last_done_at = null, last_raised_key = null, meter_baselines = '{}', recheck_at = null where organization_id = ?`,
+    [new Date(start), shop.id],
+  );
 
   // Oil: targets and a quarterly result; the summer sample is dirty and raises condition work.
   const h1 = machines.find((m) => m.code === 'H1');
@@ -82,7 +93,9 @@ export const seedPlansDemo: SeedStep = async (rootEm, shop, settings) => {
     if (h1) {
       for (const s of oilSamples.filter((o) => o.at <= day && o.at > day - 7 * DAY)) {
         const target = await em.findOne(OilTarget, { machine: h1.id });
-        const t = target ? { targetCode: target.targetCode, vgGrade: target.vgGrade, waterLimitPpm: target.waterLimitPpm, temperatureLimitC: target.temperatureLimitC ?? null } : { targetCode: '17/15/12', vgGrade: 46, waterLimitPpm: 500, temperatureLimitC: 60 };
+        const t = target
+          ? { targetCode: target.targetCode, vgGrade: target.vgGrade, waterLimitPpm: target.waterLimitPpm, temperatureLimitC: target.temperatureLimitC ?? null }
+          : { targetCode: '17/15/12', vgGrade: 46, waterLimitPpm: 500, temperatureLimitC: 60 };
         if (!target) em.create(OilTarget, { organization: shop.id, machine: h1, ...t });
         const input = { ge4um: s.counts[0], ge6um: s.counts[1], ge14um: s.counts[2], viscosity40: s.v, waterPpm: s.w, temperatureC: s.t };
         const v = judge(input, t);
@@ -90,7 +103,7 @@ export const seedPlansDemo: SeedStep = async (rootEm, shop, settings) => {
           organization: shop.id,
           machine: h1,
           sampledAt: new Date(s.at),
-          labReference: `L-${24000 + Math.round(s.at / DAY) % 1000}`,
+          labReference: `L-${24000 + (Math.round(s.at / DAY) % 1000)}`,
           ...input,
           isoCode: v.isoCode,
           targetCode: t.targetCode,
@@ -106,11 +119,29 @@ export const seedPlansDemo: SeedStep = async (rootEm, shop, settings) => {
     const mark = clock.now();
     await runDueEngine(orm, new Date(day), { appUrl, orgId: shop.id, escalate: false, notify: false });
     // Work raised in this replayed week carries that week's date, not the seeding clock's.
-    await conn.execute(`update work_order set created_at = ?, updated_at = ? where organization_id = ? and created_at >= ?`, [new Date(day), new Date(day), shop.id, mark]);
-    await conn.execute(`update audit_event set created_at = ?, updated_at = ? where organization_id = ? and entity_type = 'WorkOrder' and created_at >= ?`, [new Date(day), new Date(day), shop.id, mark]);
+    await conn.execute(`update work_order set created_at = ?, updated_at = ? where organization_id = ? and created_at >= ?`, [
+      new Date(day),
+      new Date(day),
+      shop.id,
+      mark,
+    ]);
+    await conn.execute(`update audit_event set created_at = ?, updated_at = ? where organization_id = ? and entity_type = 'WorkOrder' and created_at >= ?`, [
+      new Date(day),
+      new Date(day),
+      shop.id,
+      mark,
+    ]);
     // Sign off what was raised, a day or two later. The last two weeks are left partly open, and
     // safety-critical work raised in them always: whatever day the demo is seeded, a safety check waits.
-    const open: { id: string; plan_id: string; created_at: Date; estimated_minutes: number | null; checklist: ChecklistLine[]; requires_lockout: boolean; safety_critical: boolean }[] = await conn.execute(
+    const open: {
+      id: string;
+      plan_id: string;
+      created_at: Date;
+      estimated_minutes: number | null;
+      checklist: ChecklistLine[];
+      requires_lockout: boolean;
+      safety_critical: boolean;
+    }[] = await conn.execute(
       `select id, plan_id, created_at, estimated_minutes, checklist, requires_lockout, safety_critical from work_order
         where organization_id = ? and status = 'open' and plan_id is not null`,
       [shop.id],
@@ -123,7 +154,16 @@ export const seedPlansDemo: SeedStep = async (rootEm, shop, settings) => {
       await conn.execute(
         `update work_order set status = 'done', started_at = ?, completed_at = ?, completed_by_id = ?, labour_minutes = ?, checklist = ?::jsonb,
                 lockout_released_at = case when requires_lockout then ?::timestamptz else null end, updated_at = ? where id = ?`,
-        [new Date(doneAt - minutes * 60_000), new Date(doneAt), tech.user.id, minutes, JSON.stringify(answered(w.checklist, r)), new Date(doneAt - 60_000), new Date(doneAt), w.id],
+        [
+          new Date(doneAt - minutes * 60_000),
+          new Date(doneAt),
+          tech.user.id,
+          minutes,
+          JSON.stringify(answered(w.checklist, r)),
+          new Date(doneAt - 60_000),
+          new Date(doneAt),
+          w.id,
+        ],
       );
       await conn.execute(
         `insert into audit_event (id, created_at, updated_at, organization_id, actor_id, action, entity_type, entity_id, details)
@@ -131,7 +171,9 @@ export const seedPlansDemo: SeedStep = async (rootEm, shop, settings) => {
         [new Date(doneAt), new Date(doneAt), shop.id, tech.user.id, w.id, JSON.stringify({ labourMinutes: minutes, failed: [] })],
       );
       // The plan's cycle restarts at the sign-off: meter baselines from the readings at that time.
-      const [plan]: { triggers: { kind: string; meterId?: string }[] }[] = await conn.execute(`select triggers from maintenance_plan where id = ?`, [w.plan_id]);
+      const [plan]: { triggers: { kind: string; meterId?: string }[] }[] = await conn.execute(`select triggers from maintenance_plan where id = ?`, [
+        w.plan_id,
+      ]);
       const meterIds = plan.triggers.filter((t) => t.kind === 'meter' && t.meterId).map((t) => t.meterId as string);
       const baselines: Record<string, { value: number; at: string }> = {};
       if (meterIds.length) {

@@ -5,9 +5,7 @@ import { ownerUrlFor } from './db-roles';
 // .env is optional; real deployments set the environment directly.
 if (existsSync('.env') && process.env.NODE_ENV !== 'test') process.loadEnvFile('.env');
 
-const bool = z
-  .enum(['true', 'false', '1', '0', 'yes', 'no'])
-  .transform((v) => v === 'true' || v === '1' || v === 'yes');
+const bool = z.enum(['true', 'false', '1', '0', 'yes', 'no']).transform((v) => v === 'true' || v === '1' || v === 'yes');
 
 const schema = z.object({
   NODE_ENV: z.enum(['development', 'production', 'test']).default('development'),
@@ -48,9 +46,13 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env): Config {
   const c = parsed.data;
   const production = c.NODE_ENV === 'production';
   if (production && !c.SESSION_SECRET) throw new Error('Invalid configuration:\n  SESSION_SECRET: required in production');
-  if (production && !c.MIGRATION_DATABASE_URL) throw new Error('Invalid configuration:\n  MIGRATION_DATABASE_URL: required in production (the role that owns the tables; DATABASE_URL must not be that role)');
+  if (production && !c.MIGRATION_DATABASE_URL)
+    throw new Error(
+      'Invalid configuration:\n  MIGRATION_DATABASE_URL: required in production (the role that owns the tables; DATABASE_URL must not be that role)',
+    );
   // The capture would hold every shop's mail, reset links included.
-  if (production && c.MAIL_CAPTURE) throw new Error('Invalid configuration:\n  MAIL_CAPTURE: the fake SMTP server and dev inbox are for development only; unset it in production');
+  if (production && c.MAIL_CAPTURE)
+    throw new Error('Invalid configuration:\n  MAIL_CAPTURE: the fake SMTP server and dev inbox are for development only; unset it in production');
   return {
     ...c,
     APP_URL: c.APP_URL ?? `http://${c.HOST}:${c.PORT}`,

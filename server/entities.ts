@@ -16,4 +16,34 @@ import { safetyEntities } from './modules/safety/index';
 import { ConsumableChange, ConsumableInstall, ConsumablePhoto, CutCheck } from './modules/station/consumable.entity';
 import { PunchTool, ToolSharpening } from './modules/punch-tools/punch-tool.entity';
 
-export const entities = [Organization, User, Membership, UserToken, ActivityEvent, OutboxMail, Machine, Meter, MeterReading, PartType, StockMove, MaintenancePlan, WorkOrder, WorkOrderPart, WorkOrderAttachment, WorkOrderCounter, NotifyPreference, OilTarget, OilAnalysis, CalendarFeed, JobRun, ...safetyEntities, ConsumableChange, ConsumableInstall, ConsumablePhoto, CutCheck, PunchTool, ToolSharpening, MachinePhoto];
+export const entities = [
+  Organization,
+  User,
+  Membership,
+  UserToken,
+  ActivityEvent,
+  OutboxMail,
+  Machine,
+  Meter,
+  MeterReading,
+  PartType,
+  StockMove,
+  MaintenancePlan,
+  WorkOrder,
+  WorkOrderPart,
+  WorkOrderAttachment,
+  WorkOrderCounter,
+  NotifyPreference,
+  OilTarget,
+  OilAnalysis,
+  CalendarFeed,
+  JobRun,
+  ...safetyEntities,
+  ConsumableChange,
+  ConsumableInstall,
+  ConsumablePhoto,
+  CutCheck,
+  PunchTool,
+  ToolSharpening,
+  MachinePhoto,
+];

@@ -19,6 +19,8 @@ export function serveClient(app: Express, dist: string) {
   app.use('/assets', (_req, res) => {
     res.status(404).type('text/plain').send('Not found');
   });
-  app.use(expressStaticGzip(dist, { ...precompressed, serveStatic: { cacheControl: false, setHeaders: (res) => res.setHeader('Cache-Control', REVALIDATE_CACHE) } }));
+  app.use(
+    expressStaticGzip(dist, { ...precompressed, serveStatic: { cacheControl: false, setHeaders: (res) => res.setHeader('Cache-Control', REVALIDATE_CACHE) } }),
+  );
   app.get('/{*splat}', (_req, res) => res.sendFile(path.join(dist, 'index.html'), { headers: { 'Cache-Control': REVALIDATE_CACHE } }));
 }

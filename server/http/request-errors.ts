@@ -7,7 +7,11 @@ const BODY_ERRORS: Record<string, { status: number; code: ErrorCode; message: st
   'entity.parse.failed': { status: 400, code: 'invalid_json', message: 'The request body is not valid JSON' },
   'entity.too.large': { status: 413, code: 'payload_too_large', message: 'The request body is too large' },
   'charset.unsupported': { status: 415, code: 'unsupported_media_type', message: 'The request body’s charset is not supported: send UTF-8' },
-  'encoding.unsupported': { status: 415, code: 'unsupported_media_type', message: 'The request body’s Content-Encoding is not supported: send it plain (identity), gzip, deflate or br' },
+  'encoding.unsupported': {
+    status: 415,
+    code: 'unsupported_media_type',
+    message: 'The request body’s Content-Encoding is not supported: send it plain (identity), gzip, deflate or br',
+  },
   'request.aborted': { status: 400, code: 'bad_request', message: 'The request body ended before it was complete' },
   'request.size.invalid': { status: 400, code: 'bad_request', message: 'The request body is shorter or longer than its Content-Length says' },
 };
@@ -28,7 +32,13 @@ export const requestErrors: ErrorRequestHandler = (err, _req, _res, next) => {
   // Any other refusal the HTTP layer raised with a 4xx status and a message meant for the client.
   if (status >= 400 && status < 500 && (err as { expose?: unknown }).expose === true) {
     const zlib = /incorrect header check|unexpected end of file|invalid (block|distance|stored)/i.test(String((err as Error).message));
-    return next(new AppError(status, 'bad_request', zlib ? 'The request body is not valid for its Content-Encoding' : `The request was refused: ${(err as Error).message}`));
+    return next(
+      new AppError(
+        status,
+        'bad_request',
+        zlib ? 'The request body is not valid for its Content-Encoding' : `The request was refused: ${(err as Error).message}`,
+      ),
+    );
   }
   next(err);
 };

@@ -43,7 +43,16 @@ const uploadDir = join(tmpdir(), 'kerfbook-uploads');
  * pass to `onError`, which turns multer's refusals into answers.
  */
 export function singleFileToDisk(field: string, maxBytes: number, onError: (err: unknown, next: NextFunction) => void): RequestHandler {
-  const parse = multer({ storage: multer.diskStorage({ destination: (_req, _file, cb) => mkdir(uploadDir, { recursive: true }).then(() => cb(null, uploadDir), (e: Error) => cb(e, uploadDir)) }), limits: { fileSize: maxBytes, files: 1, fields: 5 } }).single(field);
+  const parse = multer({
+    storage: multer.diskStorage({
+      destination: (_req, _file, cb) =>
+        mkdir(uploadDir, { recursive: true }).then(
+          () => cb(null, uploadDir),
+          (e: Error) => cb(e, uploadDir),
+        ),
+    }),
+    limits: { fileSize: maxBytes, files: 1, fields: 5 },
+  }).single(field);
   return (req, res, next) => {
     res.on('close', () => {
       if (req.file?.path) void rm(req.file.path, { force: true });

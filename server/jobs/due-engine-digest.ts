@@ -41,18 +41,23 @@ export async function sendDigests(orm: MikroORM, now: Date, appUrl: string): Pro
           [date, c.id, date],
         );
         if (claimed.length === 0) return 0;
-        const rows: (WorkRow & { overdue: boolean })[] =
-          await tx.execute(
-            `select w.id, w.number, w.title, w.due_at, w.overdue, w.safety_critical, w.requires_lockout, w.assignee_id, w.responsible_role, m.code, m.name
+        const rows: (WorkRow & { overdue: boolean })[] = await tx.execute(
+          `select w.id, w.number, w.title, w.due_at, w.overdue, w.safety_critical, w.requires_lockout, w.assignee_id, w.responsible_role, m.code, m.name
                from work_order w join machine m on m.id = w.machine_id
               where w.organization_id = ? and w.status in ('open', 'in-progress', 'on-hold')
                 and (w.assignee_id = ? or (w.assignee_id is null and w.responsible_role = ?))
               order by w.overdue desc, w.due_at nulls last, w.number limit 100`,
-            [c.organization_id, c.user_id, c.role],
-          );
+          [c.organization_id, c.user_id, c.role],
+        );
         if (rows.length === 0) return 0;
         const lines = rows.map((r) => workLine(r, r.overdue));
-        queueDigest(tx, { orgId: c.organization_id, orgName: c.org_name, timeZone: c.time_zone, appUrl }, { userId: c.user_id, email: c.email, name: c.name, role: c.role, mode: 'daily' }, lines, date);
+        queueDigest(
+          tx,
+          { orgId: c.organization_id, orgName: c.org_name, timeZone: c.time_zone, appUrl },
+          { userId: c.user_id, email: c.email, name: c.name, role: c.role, mode: 'daily' },
+          lines,
+          date,
+        );
         return 1;
       });
       if (sent) out.set(c.organization_id, (out.get(c.organization_id) ?? 0) + sent);

@@ -49,7 +49,11 @@ async function escalateChunk(orm: MikroORM, run: Run, now: Date, orgId?: string)
         const ids = new Set(done.map((d) => d.id));
         const lines = list.filter((l) => ids.has(l.id)).map((l) => workLine(l, true));
         if (lines.length === 0) return;
-        await insertActivityRows(tx, org, lines.map((l) => ({ action: 'work-order.escalated', entityType: 'WorkOrder', entityId: l.id, details: { number: l.number } })));
+        await insertActivityRows(
+          tx,
+          org,
+          lines.map((l) => ({ action: 'work-order.escalated', entityType: 'WorkOrder', entityId: l.id, details: { number: l.number } })),
+        );
         const mails = queueEscalations(tx, run.ctx(org), lines, await run.peopleOf(tx, org));
         const s = run.of(org);
         s.escalations += lines.length;

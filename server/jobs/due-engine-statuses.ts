@@ -36,7 +36,14 @@ export async function writeStatuses(em: EntityManager, items: Evaluated[], now: 
         baselines: newBaselines ?? {},
       });
     } else if (msOf(recheckAt) !== msOf(row.recheck_at) || inputsAt !== msOf(row.inputs_at) || newBaselines) {
-      touched.push({ id: row.id, read_hash: row.status_hash, recheck_at: recheckAt?.toISOString() ?? null, inputs_at: inputsIso, seen_done: seenDone, baselines: newBaselines ?? {} });
+      touched.push({
+        id: row.id,
+        read_hash: row.status_hash,
+        recheck_at: recheckAt?.toISOString() ?? null,
+        inputs_at: inputsIso,
+        seen_done: seenDone,
+        baselines: newBaselines ?? {},
+      });
     }
   }
   if (changed.length > 0) {

@@ -129,7 +129,9 @@ async function evaluateAll(orm: MikroORM, em: EntityManager, run: Run, now: Date
       for (const [k, v] of await loadOilSeries(em, [...needOil], now)) series.set(k, v);
       const unlabelled = [...new Set(todo.flatMap((r) => inputsOf(r).meters))].filter((m) => !labels.has(m));
       if (unlabelled.length) {
-        const rows: { id: string; name: string; unit: string }[] = await em.execute(`select id, name, unit from meter where id = any(?::uuid[])`, [uuidArray(unlabelled)]);
+        const rows: { id: string; name: string; unit: string }[] = await em.execute(`select id, name, unit from meter where id = any(?::uuid[])`, [
+          uuidArray(unlabelled),
+        ]);
         for (const r of rows) labels.set(r.id, { name: r.name, unit: r.unit });
       }
 

@@ -42,8 +42,12 @@ export async function runScheduledPass(orm: MikroORM, now = clock.now()) {
 
 export function startScheduler(orm: MikroORM, schedule: string): ScheduledTask {
   if (!cron.validate(schedule)) throw new Error(`JOB_SCHEDULE is not a valid cron expression: ${schedule}`);
-  return cron.schedule(schedule, async () => {
-    const result = await runScheduledPass(orm).catch((err) => logger.error({ err }, 'scheduled pass failed'));
-    if (result === null) logger.info('scheduled pass skipped: another instance holds the lock');
-  }, { noOverlap: true, name: 'kerfbook-pass' });
+  return cron.schedule(
+    schedule,
+    async () => {
+      const result = await runScheduledPass(orm).catch((err) => logger.error({ err }, 'scheduled pass failed'));
+      if (result === null) logger.info('scheduled pass skipped: another instance holds the lock');
+    },
+    { noOverlap: true, name: 'kerfbook-pass' },
+  );
 }

@@ -33,14 +33,30 @@ export async function deliverOutbox(orm: MikroORM, transport: Transporter, from:
       if (!row) return 'empty' as const;
       try {
         // The row's own Message-ID: a resend after a crash between hand-over and commit is the same message.
-        await transport.sendMail({ from, to: row.to_address, subject: row.subject, text: row.text_body, html: row.html_body ?? undefined, messageId: row.message_id });
-        await conn.execute(`update outbox_mail set status = 'sent', sent_at = now(), updated_at = now(), attempts = attempts + 1, last_error = null where id = ?`, [row.id]);
+        await transport.sendMail({
+          from,
+          to: row.to_address,
+          subject: row.subject,
+          text: row.text_body,
+          html: row.html_body ?? undefined,
+          messageId: row.message_id,
+        });
+        await conn.execute(
+          `update outbox_mail set status = 'sent', sent_at = now(), updated_at = now(), attempts = attempts + 1, last_error = null where id = ?`,
+          [row.id],
+        );
         return 'sent' as const;
       } catch (err) {
         const attempts = row.attempts + 1;
         const status = attempts >= MAX_ATTEMPTS ? 'failed' : 'pending';
         const next = new Date(clock.ms() + backoffMs(attempts));
-        await conn.execute(`update outbox_mail set status = ?, attempts = ?, next_attempt_at = ?, last_error = ?, updated_at = now() where id = ?`, [status, attempts, next, String(err instanceof Error ? err.message : err).slice(0, 2000), row.id]);
+        await conn.execute(`update outbox_mail set status = ?, attempts = ?, next_attempt_at = ?, last_error = ?, updated_at = now() where id = ?`, [
+          status,
+          attempts,
+          next,
+          String(err instanceof Error ? err.message : err).slice(0, 2000),
+          row.id,
+        ]);
         return 'failed' as const;
       }
     });

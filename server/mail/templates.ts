@@ -1,7 +1,6 @@
 import { WORK_CAUTION } from '../../shared/domain/cautions';
 
-const escape = (s: string) =>
-  s.replace(/[&<>"']/g, (c) => ({ '&': '&amp;', '<': '&lt;', '>': '&gt;', '"': '&quot;', "'": '&#39;' })[c] as string);
+const escape = (s: string) => s.replace(/[&<>"']/g, (c) => ({ '&': '&amp;', '<': '&lt;', '>': '&gt;', '"': '&quot;', "'": '&#39;' })[c] as string);
 
 type Layout = { heading: string; paragraphs: string[]; action?: { label: string; url: string }; caution?: boolean };
 

@@ -16,7 +16,11 @@ export type RowError = { line: number; column: CounterColumn | null; message: st
 export type ParsedRow = { line: number; machineCode: string; meterCode: string; readAt: Date; value: number; reset: boolean; unit: string | null };
 
 /** Header names are compared trimmed and lower-case; a byte-order mark is ignored. */
-const norm = (h: string) => h.replace(/^\uFEFF/, '').trim().toLowerCase();
+const norm = (h: string) =>
+  h
+    .replace(/^\uFEFF/, '')
+    .trim()
+    .toLowerCase();
 
 /**
  * Maps header cells to column positions. Every required column must be there once; an
@@ -82,23 +86,40 @@ export function parseReadAt(text: string, timeZone: string): Date | null {
 const RESET_WORDS: Record<string, boolean> = { '': false, no: false, false: false, '0': false, n: false, yes: true, true: true, '1': true, y: true };
 
 /** Parses one data row; `line` is the 1-based line number in the file (header = 1). */
-export function parseRow(cells: string[], map: Partial<Record<CounterColumn, number>>, line: number, timeZone: string, now = clock.now()): ParsedRow | RowError[] {
+export function parseRow(
+  cells: string[],
+  map: Partial<Record<CounterColumn, number>>,
+  line: number,
+  timeZone: string,
+  now = clock.now(),
+): ParsedRow | RowError[] {
   const cell = (c: CounterColumn) => (map[c] === undefined ? '' : (cells[map[c]!] ?? '').trim());
   const errors: RowError[] = [];
   const expected = Object.keys(map).length;
-  if (cells.length !== expected) errors.push({ line, column: null, message: `Has ${cells.length} field${cells.length === 1 ? '' : 's'}, the header has ${expected}` });
+  if (cells.length !== expected)
+    errors.push({ line, column: null, message: `Has ${cells.length} field${cells.length === 1 ? '' : 's'}, the header has ${expected}` });
   const machineCode = cell('machine_code');
   const meterCode = cell('meter_code');
   if (!machineCode) errors.push({ line, column: 'machine_code', message: 'Machine code is empty' });
   if (!meterCode) errors.push({ line, column: 'meter_code', message: 'Meter code is empty' });
   const readAtText = cell('read_at');
   const readAt = parseReadAt(readAtText, timeZone);
-  if (!readAt) errors.push({ line, column: 'read_at', message: readAtText ? `“${readAtText}” is not a date-time; write e.g. 2026-03-14T07:30:00Z or 2026-03-14 07:30` : 'Reading time is empty' });
+  if (!readAt)
+    errors.push({
+      line,
+      column: 'read_at',
+      message: readAtText ? `“${readAtText}” is not a date-time; write e.g. 2026-03-14T07:30:00Z or 2026-03-14 07:30` : 'Reading time is empty',
+    });
   else if (readAt.getTime() > now.getTime() + 5 * 60_000) errors.push({ line, column: 'read_at', message: `${readAtText} lies in the future` });
   const valueText = cell('value');
   // Plain decimal with a point: thousands separators and decimal commas are ambiguous.
   const value = /^-?\d+(\.\d+)?$/.test(valueText) ? Number(valueText) : NaN;
-  if (!Number.isFinite(value)) errors.push({ line, column: 'value', message: valueText ? `“${valueText}” is not a number; use digits with a point for decimals, no thousands separators` : 'Value is empty' });
+  if (!Number.isFinite(value))
+    errors.push({
+      line,
+      column: 'value',
+      message: valueText ? `“${valueText}” is not a number; use digits with a point for decimals, no thousands separators` : 'Value is empty',
+    });
   const resetText = cell('reset').toLowerCase();
   const reset = RESET_WORDS[resetText];
   if (reset === undefined) errors.push({ line, column: 'reset', message: `“${cell('reset')}” is not yes or no` });

@@ -45,9 +45,7 @@ export const FIRE_WATCH_RULES: Readonly<Record<FireWatchRuleId, FireWatchRule>> 
     label: 'OSHA 1910.252: 30 minutes',
     fireWatchMinutes: 30,
     source: 'OSHA 29 CFR 1910.252(a)(2)(iii)(B)',
-    description:
-      'Fire watch maintained for at least a half hour after welding or cutting is completed, ' +
-      'to detect and put out possible smoldering fires.',
+    description: 'Fire watch maintained for at least a half hour after welding or cutting is completed, ' + 'to detect and put out possible smoldering fires.',
     followUpMonitoring: null,
   }),
   'nfpa-51b-2019': Object.freeze({
@@ -61,8 +59,7 @@ export const FIRE_WATCH_RULES: Readonly<Record<FireWatchRuleId, FireWatchRule>> 
     followUpMonitoring: Object.freeze({
       maxMinutes: 180,
       description:
-        'Fire monitoring for up to 3 hours after the fire watch ends, as decided by the permit ' +
-        'authorizing individual for the job; site-defined.',
+        'Fire monitoring for up to 3 hours after the fire watch ends, as decided by the permit ' + 'authorizing individual for the job; site-defined.',
     }),
   }),
 });
@@ -83,9 +80,7 @@ export function fireWatchUntil(endedAt: Date, rule: FireWatchRuleId): Date {
     throw new Error('endedAt is an invalid Date');
   }
   if (typeof rule !== 'string' || !Object.prototype.hasOwnProperty.call(FIRE_WATCH_RULES, rule)) {
-    throw new Error(
-      `unknown fire-watch rule ${JSON.stringify(rule)}; expected one of ${Object.keys(FIRE_WATCH_RULES).join(', ')}`,
-    );
+    throw new Error(`unknown fire-watch rule ${JSON.stringify(rule)}; expected one of ${Object.keys(FIRE_WATCH_RULES).join(', ')}`);
   }
   return new Date(endedAt.getTime() + FIRE_WATCH_RULES[rule].fireWatchMinutes * 60_000);
 }

@@ -139,8 +139,7 @@ export function hearingProtectionRequired(twaDbA: number): HearingProtectionStat
   const overPel = twaDbA > PEL_TWA_DBA + TWA_TOLERANCE_DB;
   const band: HearingExposureBand = overPel ? 'over-pel' : atAction ? 'action-level' : 'below-action-level';
   const descriptions: Record<HearingExposureBand, string> = {
-    'below-action-level':
-      'Below the 85 dBA action level: no hearing conservation program is required for this exposure.',
+    'below-action-level': 'Below the 85 dBA action level: no hearing conservation program is required for this exposure.',
     'action-level':
       'At or above the 85 dBA action level: hearing conservation program (monitoring, audiometric ' +
       'testing, training) applies and hearing protectors must be made available; they must be worn ' +
@@ -156,10 +155,6 @@ export function hearingProtectionRequired(twaDbA: number): HearingProtectionStat
     protectorsAvailable: atAction,
     protectorsRequired: overPel,
     description: descriptions[band],
-    sources: [
-      'OSHA 29 CFR 1910.95(c)(1)',
-      'OSHA 29 CFR 1910.95(i)(1)-(2)',
-      'OSHA 29 CFR 1910.95(b)(1), Table G-16',
-    ],
+    sources: ['OSHA 29 CFR 1910.95(c)(1)', 'OSHA 29 CFR 1910.95(i)(1)-(2)', 'OSHA 29 CFR 1910.95(b)(1), Table G-16'],
   };
 }

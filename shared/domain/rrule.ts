@@ -18,8 +18,7 @@ type RRuleModule = typeof RRuleTypes;
 // The namespace object is either the module itself (ES build) or a CommonJS
 // wrapper with the module on `default` (Node ESM interop). Reflect.get keeps
 // bundlers from warning that the ES build has no `default` export.
-const mod: RRuleModule =
-  (Reflect.get(rruleNs, 'default') as RRuleModule | undefined) ?? (rruleNs as unknown as RRuleModule);
+const mod: RRuleModule = (Reflect.get(rruleNs, 'default') as RRuleModule | undefined) ?? (rruleNs as unknown as RRuleModule);
 
 if (typeof mod.RRule !== 'function') {
   // Fail loudly at import time rather than with "RRule is not a constructor" later.

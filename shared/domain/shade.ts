@@ -82,8 +82,7 @@ export const PLASMA_ARC_CUTTING_SHADES: ShadeTable = deepFreeze({
     'As a rule of thumb, start with a shade that is too dark to see the weld zone, then go to a ' +
       'lighter shade which gives sufficient view of the weld zone without going below the minimum.',
     // Footnote ** of the OSHA table, attached to the plasma arc cutting rows.
-    'These values apply where the actual arc is clearly seen; lighter filters may be used when ' +
-      'the arc is hidden by the workpiece.',
+    'These values apply where the actual arc is clearly seen; lighter filters may be used when ' + 'the arc is hidden by the workpiece.',
   ],
   bands: [
     { label: 'light', fromA: 0, toA: 300, minimum: 8, suggested: 9 },
@@ -132,9 +131,7 @@ export function validateShadeTable(table: ShadeTable): void {
     // The footnote says never go below the minimum, so a suggestion lighter
     // than the minimum is a contradiction in the table itself.
     if (band.suggested < band.minimum) {
-      throw new Error(
-        `${where} (${band.label}): suggested shade ${band.suggested} is lighter than minimum ${band.minimum}`,
-      );
+      throw new Error(`${where} (${band.label}): suggested shade ${band.suggested} is lighter than minimum ${band.minimum}`);
     }
     if (i > 0) {
       const prev = table.bands[i - 1];
@@ -162,10 +159,7 @@ export function validateShadeTable(table: ShadeTable): void {
  * Throws for a non-finite or non-positive current, a current below the first
  * band, a current above the table's top, or a malformed override table.
  */
-export function plasmaCuttingShade(
-  arcCurrentA: number,
-  table: ShadeTable = PLASMA_ARC_CUTTING_SHADES,
-): PlasmaCuttingShade {
+export function plasmaCuttingShade(arcCurrentA: number, table: ShadeTable = PLASMA_ARC_CUTTING_SHADES): PlasmaCuttingShade {
   if (typeof arcCurrentA !== 'number' || Number.isNaN(arcCurrentA)) {
     throw new Error(`arc current must be a number of amperes (got ${String(arcCurrentA)})`);
   }
@@ -181,20 +175,15 @@ export function plasmaCuttingShade(
   const first = bands[0];
   const last = bands[bands.length - 1];
   if (arcCurrentA < first.fromA) {
-    throw new Error(
-      `arc current ${arcCurrentA} A is below the table (starts at ${first.fromA} A; ${table.source})`,
-    );
+    throw new Error(`arc current ${arcCurrentA} A is below the table (starts at ${first.fromA} A; ${table.source})`);
   }
   if (arcCurrentA > last.toA) {
     throw new Error(
-      `arc current ${arcCurrentA} A is above the table (ends at ${last.toA} A; ${table.source}); ` +
-        'no published shade applies, ask the lens or torch maker',
+      `arc current ${arcCurrentA} A is above the table (ends at ${last.toA} A; ${table.source}); ` + 'no published shade applies, ask the lens or torch maker',
     );
   }
   const isLast = (i: number) => i === bands.length - 1;
-  const index = bands.findIndex(
-    (b, i) => arcCurrentA >= b.fromA && (isLast(i) ? arcCurrentA <= b.toA : arcCurrentA < b.toA),
-  );
+  const index = bands.findIndex((b, i) => arcCurrentA >= b.fromA && (isLast(i) ? arcCurrentA <= b.toA : arcCurrentA < b.toA));
   // Unreachable for a validated (contiguous) table; kept as a guard.
   if (index < 0) throw new Error(`no band covers ${arcCurrentA} A in ${table.source}`);
   const band = bands[index];

@@ -25,9 +25,7 @@ function describe(value: unknown): string {
   if (typeof value === 'object') {
     const tag = Object.prototype.toString.call(value).slice(8, -1);
     const ctor = (value as { constructor?: { name?: unknown } }).constructor?.name;
-    return tag === 'Object' && typeof ctor === 'string' && ctor !== '' && ctor !== 'Object'
-      ? `${ctor} instance`
-      : tag;
+    return tag === 'Object' && typeof ctor === 'string' && ctor !== '' && ctor !== 'Object' ? `${ctor} instance` : tag;
   }
   return typeof value;
 }
@@ -81,9 +79,7 @@ function serialize(value: unknown, path: string, ancestors: Set<object>): string
       return `[${parts.join(',')}]`;
     }
     if (!isPlainObject(obj)) {
-      throw new Error(
-        `canonicalize: ${path} is a ${describe(obj)}, not a plain object; only plain objects, arrays, Dates and JSON primitives are allowed`,
-      );
+      throw new Error(`canonicalize: ${path} is a ${describe(obj)}, not a plain object; only plain objects, arrays, Dates and JSON primitives are allowed`);
     }
     if (Object.getOwnPropertySymbols(obj).length > 0) {
       throw new Error(`canonicalize: ${path} has symbol keys, which JSON cannot represent`);
@@ -124,8 +120,7 @@ function checkedHash(sha256Hex: Sha256Hex, input: string): string {
   const digest = sha256Hex(input);
   if (typeof digest !== 'string' || !HEX64.test(digest)) {
     throw new Error(
-      `sha256Hex returned ${typeof digest === 'string' ? JSON.stringify(digest.slice(0, 80)) : typeof digest}; ` +
-        'expected 64 lowercase hex characters',
+      `sha256Hex returned ${typeof digest === 'string' ? JSON.stringify(digest.slice(0, 80)) : typeof digest}; ` + 'expected 64 lowercase hex characters',
     );
   }
   return digest;
@@ -152,9 +147,7 @@ export interface ChainRecord {
   content: unknown;
 }
 
-export type ChainVerification =
-  | { ok: true; count: number }
-  | { ok: false; count: number; firstBadId: string; problem: 'content-altered' | 'link-broken' };
+export type ChainVerification = { ok: true; count: number } | { ok: false; count: number; firstBadId: string; problem: 'content-altered' | 'link-broken' };
 
 /**
  * Walks records in chain order (oldest first) and reports the first bad one.

@@ -194,7 +194,11 @@ export const STARTER_PLANS: readonly StarterPlan[] = [
     title: 'Empty the extractor dust bin',
     machineKinds: ['fume-extractor'],
     instructions: 'Empty the bin into a sealed bag before it is two-thirds full. Wear the respiratory protection your site requires.',
-    checklist: [check('ppe', 'Respirator and gloves on'), check('bagged', 'Dust bagged and sealed for disposal'), check('seal', 'Bin seal clean and bin clamped back')],
+    checklist: [
+      check('ppe', 'Respirator and gloves on'),
+      check('bagged', 'Dust bagged and sealed for disposal'),
+      check('seal', 'Bin seal clean and bin clamped back'),
+    ],
     estimatedMinutes: 15,
     responsibleRole: 'operator',
     requiresLockout: false,
@@ -348,7 +352,8 @@ export const STARTER_PLANS: readonly StarterPlan[] = [
     key: 'brake-guarding',
     title: 'Function-test press brake guarding',
     machineKinds: ['press-brake'],
-    instructions: 'With the machine powered and in setting mode, test the light curtain or laser guard and the emergency stops as the maker’s test sheet describes. Do not run production if any test fails.',
+    instructions:
+      'With the machine powered and in setting mode, test the light curtain or laser guard and the emergency stops as the maker’s test sheet describes. Do not run production if any test fails.',
     checklist: [
       check('guard', 'Guard stops the beam when the test piece breaks it'),
       check('estops', 'Every emergency stop halts the beam and needs a reset'),

@@ -89,9 +89,7 @@ export function viscosityStatus(measured: number, grade: number, options: { warn
   const limits = isoViscosityGradeLimits(grade);
   const { warnFraction } = options;
   if (warnFraction !== undefined && (!Number.isFinite(warnFraction) || warnFraction <= 0 || warnFraction >= 0.1)) {
-    throw new Error(
-      `viscosityStatus: warnFraction must be greater than 0 and less than 0.10 (the ISO 3448 band is ±10 %), got ${String(warnFraction)}`,
-    );
+    throw new Error(`viscosityStatus: warnFraction must be greater than 0 and less than 0.10 (the ISO 3448 band is ±10 %), got ${String(warnFraction)}`);
   }
   const deviation = (measured - limits.midpoint) / limits.midpoint;
   let band: ViscosityBand;

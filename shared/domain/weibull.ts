@@ -52,8 +52,7 @@ function scaleSample(failures: readonly number[], suspensions: readonly number[]
   const all = [...failures, ...suspensions];
   const logMax = Math.log(Math.max(...all));
   const logAll = all.map((t) => Math.log(t) - logMax);
-  const meanLogFailure =
-    failures.reduce((sum, t) => sum + (Math.log(t) - logMax), 0) / failures.length;
+  const meanLogFailure = failures.reduce((sum, t) => sum + (Math.log(t) - logMax), 0) / failures.length;
   return { logAll, meanLogFailure, failureCount: failures.length, logMax };
 }
 
@@ -93,9 +92,7 @@ function bracketShape(sample: ScaledSample): [number, number] {
   while (profileEquation(sample, hi).g < 0) {
     hi *= 2;
     if (hi > MAX_SHAPE) {
-      throw new Error(
-        'Weibull fit has no finite shape: failure lives are (nearly) identical and no suspension outlasts them',
-      );
+      throw new Error('Weibull fit has no finite shape: failure lives are (nearly) identical and no suspension outlasts them');
     }
   }
   return [lo, hi];
@@ -174,9 +171,7 @@ export function weibullBLife(fit: WeibullFit, fraction: number): number {
  */
 export function recommendedChangePoint(fit: WeibullFit, targetReliability = 0.9): number {
   if (!Number.isFinite(targetReliability) || targetReliability <= 0 || targetReliability >= 1) {
-    throw new Error(
-      `target reliability must be strictly between 0 and 1, got ${String(targetReliability)}`,
-    );
+    throw new Error(`target reliability must be strictly between 0 and 1, got ${String(targetReliability)}`);
   }
   return weibullBLife(fit, 1 - targetReliability);
 }

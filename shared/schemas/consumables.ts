@@ -20,7 +20,6 @@ export const CHANGE_REASON_LABELS: Record<ChangeReason, string> = {
  */
 export const WEAR_OUT_REASONS: readonly ChangeReason[] = ['normal-wear', 'failed-start', 'poor-cut'];
 
-
 const optionalCounter = (label: string) =>
   z
     .number({ message: `Enter the ${label} as a number` })
@@ -31,7 +30,10 @@ const optionalCounter = (label: string) =>
 export const consumableChangeSchema = z
   .object({
     torchId: z.uuid({ message: 'Choose the torch' }),
-    categories: z.array(z.enum(TORCH_CATEGORIES, { message: 'Not a torch consumable' })).min(1, 'Choose at least one part').max(TORCH_CATEGORIES.length),
+    categories: z
+      .array(z.enum(TORCH_CATEGORIES, { message: 'Not a torch consumable' }))
+      .min(1, 'Choose at least one part')
+      .max(TORCH_CATEGORIES.length),
     /** Part type per category; when left out, the same part as the one coming out. */
     partTypeIds: z.partialRecord(z.enum(TORCH_CATEGORIES), z.uuid({ message: 'Choose a part' })).default({}),
     reason: z.enum(CHANGE_REASONS, { message: 'Choose why the parts came out' }),
@@ -44,14 +46,25 @@ export const consumableChangeSchema = z
     changedAt: isoDateTime('Not a valid time')
       .optional()
       .refine((v) => !v || new Date(v).getTime() <= clock.ms() + 5 * 60_000, 'The change time lies in the future'),
-    pitDepthMm: z.number({ message: 'Enter the pit depth in mm' }).min(0, 'The pit depth cannot be negative').max(10, 'A pit deeper than 10 mm is not plausible').nullish().transform((v) => v ?? null),
-    note: z.string().trim().max(500, 'The note is too long (at most 500 characters)').nullish().transform((v) => v || null),
+    pitDepthMm: z
+      .number({ message: 'Enter the pit depth in mm' })
+      .min(0, 'The pit depth cannot be negative')
+      .max(10, 'A pit deeper than 10 mm is not plausible')
+      .nullish()
+      .transform((v) => v ?? null),
+    note: z
+      .string()
+      .trim()
+      .max(500, 'The note is too long (at most 500 characters)')
+      .nullish()
+      .transform((v) => v || null),
     /** Off when the parts came from somewhere other than the shop's stock. */
     takeFromStock: z.boolean().default(true),
   })
   .superRefine((v, ctx) => {
     if (new Set(v.categories).size !== v.categories.length) ctx.addIssue({ code: 'custom', path: ['categories'], message: 'Each part only once' });
-    if (v.pitDepthMm !== null && !v.categories.includes('electrode')) ctx.addIssue({ code: 'custom', path: ['pitDepthMm'], message: 'A pit depth belongs to an electrode change' });
+    if (v.pitDepthMm !== null && !v.categories.includes('electrode'))
+      ctx.addIssue({ code: 'custom', path: ['pitDepthMm'], message: 'A pit depth belongs to an electrode change' });
   });
 export type ConsumableChangeInput = z.output<typeof consumableChangeSchema>;
 
@@ -86,7 +99,16 @@ export type TorchStation = {
 
 export type PartOption = { id: string; partNumber: string; name: string; category: PartCategory; onHand: number; stockUnit: string };
 
-export type ToolSummary = { id: string; code: string; name: string; stationSize: string; hitsSince: number | null; interval: number; fraction: number | null; due: boolean };
+export type ToolSummary = {
+  id: string;
+  code: string;
+  name: string;
+  stationSize: string;
+  hitsSince: number | null;
+  interval: number;
+  fraction: number | null;
+  due: boolean;
+};
 
 export type ChangeRow = {
   id: string;
@@ -105,7 +127,16 @@ export type ChangeRow = {
 export type ReferenceValue = { value: number; unit: string; source: string; overridden: boolean };
 
 export type StationLockout = { id: string; machineCode: string; state: 'locked' | 'verified'; appliedAt: string; reason: string; heldBy: string };
-export type StationDueRow = { id: string; number: number; machineCode: string; title: string; status: 'open' | 'in-progress' | 'on-hold'; dueAt: string | null; overdue: boolean; requiresLockout: boolean };
+export type StationDueRow = {
+  id: string;
+  number: number;
+  machineCode: string;
+  title: string;
+  status: 'open' | 'in-progress' | 'on-hold';
+  dueAt: string | null;
+  overdue: boolean;
+  requiresLockout: boolean;
+};
 
 export type StationView = {
   machine: { id: string; code: string; name: string; kind: string; location: string | null };
@@ -126,7 +157,12 @@ export const consumableSettingsSchema = z
   .object({
     cutToleranceMm: z.number({ message: 'Enter the tolerance in mm' }).gt(0, 'The tolerance must be above zero').max(5, 'At most 5 mm').nullable().optional(),
     electrodePitLimitMm: z.number({ message: 'Enter the pit depth in mm' }).gt(0, 'The limit must be above zero').max(5, 'At most 5 mm').nullable().optional(),
-    changeTargetReliability: z.number({ message: 'Enter a share between 0.5 and 0.99' }).min(0.5, 'Between 0.5 and 0.99').max(0.99, 'Between 0.5 and 0.99').nullable().optional(),
+    changeTargetReliability: z
+      .number({ message: 'Enter a share between 0.5 and 0.99' })
+      .min(0.5, 'Between 0.5 and 0.99')
+      .max(0.99, 'Between 0.5 and 0.99')
+      .nullable()
+      .optional(),
   })
   .refine((v) => Object.values(v).some((x) => x !== undefined), { message: 'Nothing to change' });
 export type ConsumableSettingsInput = z.output<typeof consumableSettingsSchema>;
@@ -145,7 +181,12 @@ export const cutCheckSchema = z.object({
     )
     .min(1, 'Enter at least one measured dimension')
     .max(12, 'At most 12 dimensions'),
-  note: z.string().trim().max(500).nullish().transform((v) => v || null),
+  note: z
+    .string()
+    .trim()
+    .max(500)
+    .nullish()
+    .transform((v) => v || null),
 });
 export type CutCheckInput = z.output<typeof cutCheckSchema>;
 

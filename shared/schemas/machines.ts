@@ -50,7 +50,10 @@ export const machineInputSchema = z.object({
   name: oneLine(z.string({ message: 'Enter a name' }).trim().min(2, 'Enter a name').max(120, 'The name is too long (at most 120 characters)')),
   kind: z.enum(MACHINE_KINDS, { message: 'Choose a kind of machine' }),
   /** Set for a component (the torch of a cell, its punch head …). */
-  parentId: z.uuid({ message: 'Choose a machine from the list' }).nullish().transform((v) => v ?? null),
+  parentId: z
+    .uuid({ message: 'Choose a machine from the list' })
+    .nullish()
+    .transform((v) => v ?? null),
   location: optionalText(120, 'Location'),
   serial: optionalText(80, 'Serial number'),
   notes: optionalText(2000, 'Notes'),
@@ -114,8 +117,12 @@ export const meterInputSchema = z
     name: oneLine(z.string({ message: 'Enter a name' }).trim().min(2, 'Enter a name').max(120, 'The name is too long (at most 120 characters)')),
     kind: z.enum(METER_KINDS, { message: 'Choose a kind of meter' }),
     unit: z.string({ message: 'Choose a unit' }).min(1, 'Choose a unit'),
-    lowerLimit: finite('the lower limit').nullish().transform((v) => v ?? null),
-    upperLimit: finite('the upper limit').nullish().transform((v) => v ?? null),
+    lowerLimit: finite('the lower limit')
+      .nullish()
+      .transform((v) => v ?? null),
+    upperLimit: finite('the upper limit')
+      .nullish()
+      .transform((v) => v ?? null),
   })
   .superRefine((v, ctx) => {
     const units = METER_UNITS[v.kind];
@@ -142,9 +149,7 @@ export type MeterUpdate = z.output<typeof meterUpdateSchema>;
 
 /** A typed-in reading. `readAt` defaults to now; it may not lie in the future. */
 export const readingInputSchema = z.object({
-  value: z.coerce
-    .number({ message: 'Enter the reading as a number' })
-    .refine(Number.isFinite, 'Enter the reading as a number'),
+  value: z.coerce.number({ message: 'Enter the reading as a number' }).refine(Number.isFinite, 'Enter the reading as a number'),
   readAt: isoDateTime('Enter the time as an ISO date-time, e.g. 2026-03-14T07:30:00Z')
     .optional()
     .refine((v) => !v || new Date(v).getTime() <= clock.ms() + 5 * 60_000, 'The reading time lies in the future'),
@@ -187,7 +192,12 @@ export type ReadingBatchInput = z.output<typeof readingBatchSchema>;
 
 /** Fields sent beside a machine photo (multipart). */
 export const machinePhotoFields = z.object({
-  caption: z.string().trim().max(200, 'Caption: at most 200 characters').optional().transform((v) => (v ? v : null)),
+  caption: z
+    .string()
+    .trim()
+    .max(200, 'Caption: at most 200 characters')
+    .optional()
+    .transform((v) => (v ? v : null)),
 });
 export const machinePhotoParams = z.object({ id: z.uuid(), photoId: z.uuid() });
 export type MachinePhotoRow = { id: string; caption: string | null; mimeType: string; byteSize: number; createdAt: string; uploadedBy: string | null };

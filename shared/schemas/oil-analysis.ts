@@ -3,7 +3,12 @@ import { ISO_VG_GRADES } from '../domain/viscosity';
 import { paging } from './paging';
 import { isoDateTime, oneLine } from './text';
 
-const count = (size: string) => z.number({ message: `Enter the count at ≥${size} µm(c)` }).finite().min(0, 'Counts cannot be negative').max(1e9);
+const count = (size: string) =>
+  z
+    .number({ message: `Enter the count at ≥${size} µm(c)` })
+    .finite()
+    .min(0, 'Counts cannot be negative')
+    .max(1e9);
 
 /** One laboratory (or on-site counter) result for a hydraulic unit's oil sample. */
 export const oilAnalysisInput = z
@@ -29,7 +34,10 @@ export const oilTargetInput = z.object({
     .string()
     .trim()
     .regex(/^\d{1,2}\/\d{1,2}\/\d{1,2}$/, 'Write the target as three scale numbers, e.g. 17/15/12'),
-  vgGrade: z.number().int().refine((g) => ISO_VG_GRADES.includes(g), 'Choose a standard ISO VG grade'),
+  vgGrade: z
+    .number()
+    .int()
+    .refine((g) => ISO_VG_GRADES.includes(g), 'Choose a standard ISO VG grade'),
   waterLimitPpm: z.number().finite().positive('Must be greater than 0').max(100_000).default(500),
   temperatureLimitC: z.number().finite().min(0).max(150).nullable().default(60),
 });

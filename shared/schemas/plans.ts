@@ -24,7 +24,12 @@ const positive = (what: string) => num(what).positive(`${what[0].toUpperCase()}$
 /** One checklist line: answered pass / fail / not applicable; a 'measure' line also takes a value with limits. */
 export const checklistTemplateItem = z
   .object({
-    key: z.string().trim().min(1).max(40).regex(/^[a-z0-9-]+$/, 'Use lower-case letters, digits and dashes'),
+    key: z
+      .string()
+      .trim()
+      .min(1)
+      .max(40)
+      .regex(/^[a-z0-9-]+$/, 'Use lower-case letters, digits and dashes'),
     label: oneLine(z.string().trim().min(2, 'Describe the check').max(200, 'Keep the check under 200 characters')),
     kind: z.enum(['check', 'measure']),
     unit: oneLine(z.string().trim().max(16)).optional(),
@@ -72,7 +77,10 @@ export const triggerInput = z.discriminatedUnion('kind', [
       below: num('a limit').optional(),
     })
     .refine((t) => t.above !== undefined || t.below !== undefined, { path: ['above'], message: 'Give an upper or a lower limit' })
-    .refine((t) => t.above === undefined || t.below === undefined || t.below < t.above, { path: ['below'], message: 'The lower limit must be below the upper limit' }),
+    .refine((t) => t.above === undefined || t.below === undefined || t.below < t.above, {
+      path: ['below'],
+      message: 'The lower limit must be below the upper limit',
+    }),
   z.object({ kind: z.literal('oil-analysis') }),
 ]);
 export type TriggerInput = z.infer<typeof triggerInput>;
@@ -103,7 +111,10 @@ export const planInput = z
     dueSoonFraction: z.number().min(0, 'Cannot be negative').max(0.9, 'At most 90 %').nullable().default(0.1),
     active: z.boolean().default(true),
   })
-  .refine((p) => p.responsibleRole !== null || p.responsibleUserId !== null, { path: ['responsibleRole'], message: 'Choose who is responsible: a role or a person' })
+  .refine((p) => p.responsibleRole !== null || p.responsibleUserId !== null, {
+    path: ['responsibleRole'],
+    message: 'Choose who is responsible: a role or a person',
+  })
   .refine((p) => new Set(p.checklist.map((c) => c.key)).size === p.checklist.length, { path: ['checklist'], message: 'Checklist keys must be unique' });
 export type PlanInput = z.infer<typeof planInput>;
 export type PlanFormValues = z.input<typeof planInput>;

@@ -13,7 +13,11 @@ export const punchToolInputSchema = z.object({
   code: codeSchema('tool'),
   name: oneLine(z.string({ message: 'Enter a name' }).trim().min(2, 'Enter a name').max(120, 'The name is too long (at most 120 characters)')),
   stationSize: z.enum(STATION_SIZES, { message: 'Choose a station size' }),
-  sharpeningIntervalHits: z.number({ message: 'Enter the interval in hits' }).int('Whole hits').min(100, 'At least 100 hits').max(10_000_000, 'At most 10,000,000 hits'),
+  sharpeningIntervalHits: z
+    .number({ message: 'Enter the interval in hits' })
+    .int('Whole hits')
+    .min(100, 'At least 100 hits')
+    .max(10_000_000, 'At most 10,000,000 hits'),
 });
 export type PunchToolInput = z.output<typeof punchToolInputSchema>;
 
@@ -29,8 +33,18 @@ export const sharpeningSchema = z.object({
   sharpenedAt: isoDateTime('Not a valid time')
     .optional()
     .refine((v) => !v || new Date(v).getTime() <= clock.ms() + 5 * 60_000, 'The time lies in the future'),
-  removedMm: z.number({ message: 'Enter the amount ground off in mm' }).min(0, 'Cannot be negative').max(5, 'More than 5 mm is not plausible').nullish().transform((v) => v ?? null),
-  note: z.string().trim().max(300).nullish().transform((v) => v || null),
+  removedMm: z
+    .number({ message: 'Enter the amount ground off in mm' })
+    .min(0, 'Cannot be negative')
+    .max(5, 'More than 5 mm is not plausible')
+    .nullish()
+    .transform((v) => v ?? null),
+  note: z
+    .string()
+    .trim()
+    .max(300)
+    .nullish()
+    .transform((v) => v || null),
 });
 export type SharpeningInput = z.output<typeof sharpeningSchema>;
 
@@ -52,4 +66,12 @@ export type PunchToolRow = {
   active: boolean;
 };
 
-export type SharpeningRow = { id: string; sharpenedAt: string; hitsReading: number; hitsSincePrevious: number; removedMm: number | null; by: string | null; note: string | null };
+export type SharpeningRow = {
+  id: string;
+  sharpenedAt: string;
+  hitsReading: number;
+  hitsSincePrevious: number;
+  removedMm: number | null;
+  by: string | null;
+  note: string | null;
+};

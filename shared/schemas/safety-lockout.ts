@@ -46,7 +46,8 @@ function distinctLocks(v: { points: { device: LockDevice; lockNumber: string }[]
   v.points.forEach((p, i) => {
     if (p.device !== 'tag-only' && p.device !== 'blocking') {
       const k = p.lockNumber.toUpperCase();
-      if (locks.has(k)) ctx.addIssue({ code: 'custom', path: ['points', i, 'lockNumber'], message: `Lock ${p.lockNumber} is listed twice; each point needs its own lock` });
+      if (locks.has(k))
+        ctx.addIssue({ code: 'custom', path: ['points', i, 'lockNumber'], message: `Lock ${p.lockNumber} is listed twice; each point needs its own lock` });
       locks.set(k, i);
     }
   });

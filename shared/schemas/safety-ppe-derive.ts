@@ -15,7 +15,16 @@ export function deriveShade(arcCurrentA: number | null, table: ShadeTable | null
   const t = table ?? PLASMA_ARC_CUTTING_SHADES;
   try {
     const s = plasmaCuttingShade(arcCurrentA, t);
-    return { ok: true, arcCurrentA, minimum: s.minimum, suggested: s.suggested, band: s.band, source: s.source, notes: [...t.notes], siteOverride: table !== null };
+    return {
+      ok: true,
+      arcCurrentA,
+      minimum: s.minimum,
+      suggested: s.suggested,
+      band: s.band,
+      source: s.source,
+      notes: [...t.notes],
+      siteOverride: table !== null,
+    };
   } catch (err) {
     return { ok: false, arcCurrentA, message: err instanceof Error ? err.message : String(err), source: t.source };
   }
@@ -63,7 +72,12 @@ export function deriveRequiredItems(
       if (code === 'hearing-protection' && hearing?.required) {
         detail = `8-h TWA ${hearing.twaDbA} dBA (dose ${hearing.dosePercent} %) reaches the site threshold of ${hearing.requiredFromDbA} dBA`;
       }
-      const source = code === 'filter-lens' && shade ? shade.source : code === 'hearing-protection' && hearing ? `${hearing.ruleSource}; ${PPE_ITEM_INFO[code].source}` : PPE_ITEM_INFO[code].source;
+      const source =
+        code === 'filter-lens' && shade
+          ? shade.source
+          : code === 'hearing-protection' && hearing
+            ? `${hearing.ruleSource}; ${PPE_ITEM_INFO[code].source}`
+            : PPE_ITEM_INFO[code].source;
       return { code, label: PPE_ITEM_INFO[code].label, source, detail };
     });
   for (const label of r.otherItems) required.push({ code: `other:${label}`, label, source: 'Site rule', detail: null });

@@ -41,7 +41,10 @@ export const ppeRequirementSchema = z
     machineId: z.uuid({ message: 'Choose a machine' }),
     task: oneLine(z.string().trim().min(2, 'Name the task, e.g. “Plasma cutting”').max(120, 'Task: at most 120 characters')),
     items: z.array(z.enum(PPE_ITEMS)).max(PPE_ITEMS.length),
-    otherItems: z.array(oneLine(z.string().trim().min(2).max(80))).max(10).default([]),
+    otherItems: z
+      .array(oneLine(z.string().trim().min(2).max(80)))
+      .max(10)
+      .default([]),
     /** Plasma arc current for the filter-lens shade (null when the task has no arc). */
     arcCurrentA: z.number({ message: 'Enter the arc current in amperes' }).positive('Arc current must be above 0 A').max(1000, 'At most 1000 A').nullable(),
     /** The day's noise at this task, for the dose (OSHA 29 CFR 1910.95 App. A). */

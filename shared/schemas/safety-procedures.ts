@@ -32,7 +32,12 @@ export const PHASE_LABELS: Record<ProcedurePhase, { title: string; source: strin
   verify: { title: 'Verify isolation', source: '1910.147(d)(6)' },
 };
 
-const text = (what: string, max: number) => z.string({ message: `${what} is required` }).trim().min(1, `${what} is required`).max(max, `${what}: at most ${max} characters`);
+const text = (what: string, max: number) =>
+  z
+    .string({ message: `${what} is required` })
+    .trim()
+    .min(1, `${what} is required`)
+    .max(max, `${what}: at most ${max} characters`);
 
 const POINT_TAG = /^[A-Z][A-Z0-9-]{0,7}$/;
 
@@ -72,18 +77,18 @@ const stepList = (phase: ProcedurePhase) =>
 
 const contentObject = z.object({
   title: oneLine(text('Title', 160)),
-    scope: text('Scope', 1000),
-    sources: z.array(energySourceSchema).min(1, 'Name at least one energy source').max(20, 'At most 20 energy sources'),
-    steps: z.object({
-      prepare: stepList('prepare'),
-      shutdown: stepList('shutdown'),
-      isolate: stepList('isolate'),
-      apply: stepList('apply'),
-      relieve: stepList('relieve'),
-      verify: stepList('verify'),
-    }),
-    /** Release from lockout, OSHA 29 CFR 1910.147(e)(1)-(3). */
-    release: z.array(text('Release step', 400)).min(1, 'Add at least one release step').max(30),
+  scope: text('Scope', 1000),
+  sources: z.array(energySourceSchema).min(1, 'Name at least one energy source').max(20, 'At most 20 energy sources'),
+  steps: z.object({
+    prepare: stepList('prepare'),
+    shutdown: stepList('shutdown'),
+    isolate: stepList('isolate'),
+    apply: stepList('apply'),
+    relieve: stepList('relieve'),
+    verify: stepList('verify'),
+  }),
+  /** Release from lockout, OSHA 29 CFR 1910.147(e)(1)-(3). */
+  release: z.array(text('Release step', 400)).min(1, 'Add at least one release step').max(30),
 });
 
 function uniqueKeys(v: { sources: { key: string }[] }, ctx: z.RefinementCtx) {
@@ -111,7 +116,10 @@ export const versionParams = z.object({ id: z.uuid({ message: 'Not a valid id' }
 
 export const photoParams = z.object({ id: z.uuid({ message: 'Not a valid id' }), photoId: z.uuid({ message: 'Not a valid id' }) });
 export const photoUploadFields = z.object({
-  sourceKey: z.string().trim().regex(/^[A-Z][A-Z0-9-]{0,7}$/, 'Choose the isolation point this photo shows'),
+  sourceKey: z
+    .string()
+    .trim()
+    .regex(/^[A-Z][A-Z0-9-]{0,7}$/, 'Choose the isolation point this photo shows'),
   caption: z.string().trim().max(200, 'Caption: at most 200 characters').optional(),
 });
 

@@ -1,7 +1,21 @@
 import { z } from 'zod';
 import { oneLine } from './text';
 
-export const PART_CATEGORIES = ['electrode', 'nozzle', 'swirl-ring', 'shield', 'retaining-cap', 'punch', 'die', 'stripper', 'hydraulic-filter', 'extractor-cartridge', 'oil', 'grease', 'other'] as const;
+export const PART_CATEGORIES = [
+  'electrode',
+  'nozzle',
+  'swirl-ring',
+  'shield',
+  'retaining-cap',
+  'punch',
+  'die',
+  'stripper',
+  'hydraulic-filter',
+  'extractor-cartridge',
+  'oil',
+  'grease',
+  'other',
+] as const;
 export type PartCategory = (typeof PART_CATEGORIES)[number];
 
 /** What wears a part out, i.e. the unit its life is counted in. */
@@ -15,7 +29,10 @@ export const stockMoveSchema = z.object({
   partTypeId: z.uuid({ message: 'Choose a part' }),
   kind: z.enum(STOCK_MOVE_KINDS),
   /** Signed change in stock units: + received, − used; adjustments either way. */
-  quantity: z.number({ message: 'Enter a quantity' }).finite().refine((q) => q !== 0, 'The quantity cannot be zero'),
+  quantity: z
+    .number({ message: 'Enter a quantity' })
+    .finite()
+    .refine((q) => q !== 0, 'The quantity cannot be zero'),
   reason: z.string().trim().max(300).optional(),
 });
 export type StockMoveInput = z.infer<typeof stockMoveSchema>;
@@ -35,7 +52,13 @@ export const PART_CATEGORY_LABELS: Record<PartCategory, string> = {
   grease: 'Grease',
   other: 'Other',
 };
-export const LIFE_UNIT_LABELS: Record<LifeUnit, string> = { starts: 'arc starts', 'arc-hours': 'arc hours', hits: 'hits', hours: 'running hours', days: 'days' };
+export const LIFE_UNIT_LABELS: Record<LifeUnit, string> = {
+  starts: 'arc starts',
+  'arc-hours': 'arc hours',
+  hits: 'hits',
+  hours: 'running hours',
+  days: 'days',
+};
 /** Torch consumables, in the order they sit on the torch from the inside out. */
 export const TORCH_CATEGORIES = ['electrode', 'swirl-ring', 'nozzle', 'retaining-cap', 'shield'] as const satisfies readonly PartCategory[];
 export type TorchCategory = (typeof TORCH_CATEGORIES)[number];
@@ -43,7 +66,9 @@ export type TorchCategory = (typeof TORCH_CATEGORIES)[number];
 const money = z.number({ message: 'Enter a cost' }).min(0, 'A cost cannot be negative').max(1_000_000, 'That cost is implausibly high');
 
 export const partTypeInputSchema = z.object({
-  partNumber: oneLine(z.string({ message: 'Enter a part number' }).trim().min(1, 'Enter a part number').max(60, 'The part number is too long (at most 60 characters)')),
+  partNumber: oneLine(
+    z.string({ message: 'Enter a part number' }).trim().min(1, 'Enter a part number').max(60, 'The part number is too long (at most 60 characters)'),
+  ),
   name: oneLine(z.string({ message: 'Enter a name' }).trim().min(2, 'Enter a name').max(160, 'The name is too long (at most 160 characters)')),
   category: z.enum(PART_CATEGORIES, { message: 'Choose a category' }),
   stockUnit: oneLine(z.string().trim().min(1, 'Enter the unit stock is counted in').max(16)).default('pcs'),
@@ -73,8 +98,14 @@ export const recordStockMoveSchema = stockMoveSchema.superRefine((v, ctx) => {
 export type RecordStockMoveInput = z.output<typeof recordStockMoveSchema>;
 
 export const listPartTypesQuery = z.object({
-  lowOnly: z.enum(['true', 'false']).optional().transform((v) => v === 'true'),
-  includeInactive: z.enum(['true', 'false']).optional().transform((v) => v === 'true'),
+  lowOnly: z
+    .enum(['true', 'false'])
+    .optional()
+    .transform((v) => v === 'true'),
+  includeInactive: z
+    .enum(['true', 'false'])
+    .optional()
+    .transform((v) => v === 'true'),
 });
 
 export type PartTypeRow = {

@@ -43,7 +43,9 @@ export const isoDateTime = (message: string) => z.iso.datetime({ offset: true, m
  * any date after today with its own message, so only the lower bound is checked here.
  */
 export const isoDate = (message: string, opts: { refusedIfFuture?: boolean } = {}) =>
-  opts.refusedIfFuture ? z.iso.date({ message }).refine(notBeforeFirstYear, `Use a year from ${FIRST_YEAR} on`) : z.iso.date({ message }).refine(saneYear, YEARS_MESSAGE);
+  opts.refusedIfFuture
+    ? z.iso.date({ message }).refine(notBeforeFirstYear, `Use a year from ${FIRST_YEAR} on`)
+    : z.iso.date({ message }).refine(saneYear, YEARS_MESSAGE);
 /** A local wall-clock date-time such as 2026-03-14T07:30 in a sane year. */
 export const localDateTime = (message: string) =>
   z

@@ -157,7 +157,17 @@ export type WorkOrderDetail = {
   lockoutReleasedAt: string | null;
   checklist: ChecklistLine[];
   plannedParts: { partTypeId: string; quantity: number; partNumber: string; name: string; stockUnit: string }[];
-  partsUsed: { id: string; partTypeId: string; partNumber: string; name: string; category: string; quantity: number; stockUnit: string; at: string; by: string | null }[];
+  partsUsed: {
+    id: string;
+    partTypeId: string;
+    partNumber: string;
+    name: string;
+    category: string;
+    quantity: number;
+    stockUnit: string;
+    at: string;
+    by: string | null;
+  }[];
   labourMinutes: number;
   notes: string;
   estimatedMinutes: number | null;

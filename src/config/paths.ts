@@ -11,13 +11,20 @@ export const paths = {
   devInbox: { path: '/dev/inbox', getHref: () => '/dev/inbox' },
   safety: { path: '/safety', getHref: () => '/safety' },
   safetyProcedures: { path: '/safety/procedures', getHref: () => '/safety/procedures' },
-  safetyProcedureNew: { path: '/safety/procedures/new', getHref: (machineId?: string) => `/safety/procedures/new${machineId ? `?machineId=${machineId}` : ''}` },
-  safetyProcedure: { path: '/safety/procedures/:id', getHref: (id: string, version?: number) => `/safety/procedures/${id}${version ? `?version=${version}` : ''}` },
+  safetyProcedureNew: {
+    path: '/safety/procedures/new',
+    getHref: (machineId?: string) => `/safety/procedures/new${machineId ? `?machineId=${machineId}` : ''}`,
+  },
+  safetyProcedure: {
+    path: '/safety/procedures/:id',
+    getHref: (id: string, version?: number) => `/safety/procedures/${id}${version ? `?version=${version}` : ''}`,
+  },
   safetyProcedureEdit: { path: '/safety/procedures/:id/edit', getHref: (id: string) => `/safety/procedures/${id}/edit` },
   safetyLockouts: { path: '/safety/lockouts', getHref: () => '/safety/lockouts' },
   safetyLockoutNew: {
     path: '/safety/lockouts/new',
-    getHref: (o: { machineId?: string; workOrderId?: string } = {}) => `/safety/lockouts/new${o.machineId || o.workOrderId ? `?${new URLSearchParams(Object.entries(o).filter(([, v]) => v) as [string, string][]).toString()}` : ''}`,
+    getHref: (o: { machineId?: string; workOrderId?: string } = {}) =>
+      `/safety/lockouts/new${o.machineId || o.workOrderId ? `?${new URLSearchParams(Object.entries(o).filter(([, v]) => v) as [string, string][]).toString()}` : ''}`,
   },
   safetyLockout: { path: '/safety/lockouts/:id', getHref: (id: string) => `/safety/lockouts/${id}` },
   safetyPpe: { path: '/safety/ppe', getHref: (machineId?: string) => `/safety/ppe${machineId ? `?machineId=${machineId}` : ''}` },

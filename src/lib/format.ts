@@ -6,7 +6,13 @@ import { DateTime } from 'luxon';
  */
 export function formatWhen(iso: string | Date | null | undefined, timeZone: string, withTime = true): string {
   if (!iso) return '—';
-  return new Intl.DateTimeFormat('en-GB', { timeZone, day: 'numeric', month: 'short', year: 'numeric', ...(withTime ? { hour: '2-digit', minute: '2-digit', hourCycle: 'h23' } : {}) }).format(new Date(iso));
+  return new Intl.DateTimeFormat('en-GB', {
+    timeZone,
+    day: 'numeric',
+    month: 'short',
+    year: 'numeric',
+    ...(withTime ? { hour: '2-digit', minute: '2-digit', hourCycle: 'h23' } : {}),
+  }).format(new Date(iso));
 }
 
 /** Short axis labels for charts: "3 Dec". */
@@ -46,7 +52,9 @@ export function setShopTimeZone(timeZone: string) {
 
 /** Today's date (YYYY-MM-DD) on the shop's clock: for a few hours a day the UTC date is another day. */
 export function shopToday(): string {
-  return DateTime.now().setZone(shopTimeZone ?? 'local').toISODate() as string;
+  return DateTime.now()
+    .setZone(shopTimeZone ?? 'local')
+    .toISODate() as string;
 }
 
 /** Like `new Intl.DateTimeFormat`, but always on the shop's clock (read when formatting). */

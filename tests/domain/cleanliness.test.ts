@@ -1,12 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import {
-  ISO4406_OVER_RANGE,
-  ISO4406_TABLE,
-  compareToTarget,
-  iso4406Code,
-  iso4406ScaleNumber,
-  parseIso4406Code,
-} from '../../shared/domain/cleanliness';
+import { ISO4406_OVER_RANGE, ISO4406_TABLE, compareToTarget, iso4406Code, iso4406ScaleNumber, parseIso4406Code } from '../../shared/domain/cleanliness';
 
 // ISO 4406:1999 Table 1 (unchanged in ISO 4406:2021), transcribed here independently of the module:
 // [scale number, more than, up to and including] particles per mL.

@@ -4,7 +4,13 @@ import { couponResult, lifeFraction, lifeHistogram, lifeState, referenceValues, 
 describe('couponResult', () => {
   // Symmetric bilateral tolerance ±t: a size passes when |measured − nominal| ≤ t (ISO 286-1 limits of size).
   it('passes on the limit and fails just past it', () => {
-    const r = couponResult([{ label: 'L', nominalMm: 10, measuredMm: 10.2 }, { label: 'W', nominalMm: 50, measuredMm: 49.8 }], 0.2);
+    const r = couponResult(
+      [
+        { label: 'L', nominalMm: 10, measuredMm: 10.2 },
+        { label: 'W', nominalMm: 50, measuredMm: 49.8 },
+      ],
+      0.2,
+    );
     expect(r.passed).toBe(true);
     expect(r.dimensions.map((d) => d.deviationMm)).toEqual([0.2, -0.2]);
     expect(couponResult([{ label: 'L', nominalMm: 10, measuredMm: 10.201 }], 0.2)).toMatchObject({ passed: false, maxDeviationMm: 0.201 });
@@ -29,7 +35,15 @@ describe('referenceValues', () => {
 describe('life helpers', () => {
   it('splits removals into failures and suspensions; parts still in are suspensions; empty lives are dropped', () => {
     // Right-censoring as in NIST e-Handbook §8.4.1.2.
-    const r = splitLives([{ life: 900, wornOut: true }, { life: 400, wornOut: false }, { life: 0, wornOut: true }, { life: null, wornOut: true }], [250, null]);
+    const r = splitLives(
+      [
+        { life: 900, wornOut: true },
+        { life: 400, wornOut: false },
+        { life: 0, wornOut: true },
+        { life: null, wornOut: true },
+      ],
+      [250, null],
+    );
     expect(r).toEqual({ failures: [900], suspensions: [400, 250] });
   });
   it('fractions and states of a life bar (house thresholds 85 % and 100 %)', () => {

@@ -10,7 +10,11 @@ describe('mapHeader', () => {
     expect(map).toEqual({ value: 0, read_at: 1, meter_code: 2, machine_code: 3, reset: 4 });
   });
   it('names missing, unknown and repeated columns', () => {
-    expect(mapHeader(['machine_code', 'value', 'value', 'when']).problems).toEqual(['Missing columns “meter_code”, “read_at”', 'Column “value” appears twice', 'Unknown column “when”']);
+    expect(mapHeader(['machine_code', 'value', 'value', 'when']).problems).toEqual([
+      'Missing columns “meter_code”, “read_at”',
+      'Column “value” appears twice',
+      'Unknown column “when”',
+    ]);
   });
 });
 
@@ -34,7 +38,13 @@ describe('parseRow', () => {
   const now = new Date('2026-06-01T00:00:00Z');
   it('parses a good row', () => {
     expect(parseRow(['C1-T', 'arc-starts', '2026-03-14T07:30:00Z', '184220', 'yes'], map, 2, 'UTC', now)).toEqual({
-      line: 2, machineCode: 'C1-T', meterCode: 'arc-starts', readAt: new Date('2026-03-14T07:30:00Z'), value: 184220, reset: true, unit: null,
+      line: 2,
+      machineCode: 'C1-T',
+      meterCode: 'arc-starts',
+      readAt: new Date('2026-03-14T07:30:00Z'),
+      value: 184220,
+      reset: true,
+      unit: null,
     });
   });
   it('lists every problem of a bad row with its column', () => {
@@ -58,10 +68,17 @@ describe('import keys and template', () => {
     expect(importKeySource('m1', new Date('2026-03-14T07:30:00Z'), 5, true)).not.toBe(importKeySource('m1', new Date('2026-03-14T07:30:00Z'), 5, false));
   });
   it('writes a template the parser reads back', () => {
-    const csv = templateCsv([{ machineCode: 'C1-T', meterCode: 'arc-starts', unit: 'starts', value: 10 }]).trim().split('\r\n');
+    const csv = templateCsv([{ machineCode: 'C1-T', meterCode: 'arc-starts', unit: 'starts', value: 10 }])
+      .trim()
+      .split('\r\n');
     const { map, problems } = mapHeader(csv[0].split(','));
     expect(problems).toEqual([]);
-    expect(parseRow(csv[1].split(','), map, 2, 'UTC', new Date('2027-01-01T00:00:00Z'))).toMatchObject({ machineCode: 'C1-T', value: 10, reset: false, unit: 'starts' });
+    expect(parseRow(csv[1].split(','), map, 2, 'UTC', new Date('2027-01-01T00:00:00Z'))).toMatchObject({
+      machineCode: 'C1-T',
+      value: 10,
+      reset: false,
+      unit: 'starts',
+    });
   });
 });
 
@@ -74,7 +91,20 @@ describe('parseReadAt on plain ISO times with an offset', () => {
   };
   it('agrees with luxon on valid and invalid dates, times, fractions and offsets', () => {
     const cases: string[] = [];
-    for (const date of ['2026-01-31', '2026-02-28', '2026-02-29', '2024-02-29', '2026-04-31', '2026-00-10', '2026-13-01', '2026-06-00', '2026-12-32', '1970-01-01', '1969-12-31', '0099-05-05'])
+    for (const date of [
+      '2026-01-31',
+      '2026-02-28',
+      '2026-02-29',
+      '2024-02-29',
+      '2026-04-31',
+      '2026-00-10',
+      '2026-13-01',
+      '2026-06-00',
+      '2026-12-32',
+      '1970-01-01',
+      '1969-12-31',
+      '0099-05-05',
+    ])
       for (const time of ['00:00', '07:30', '23:59:59', '24:00:00', '12:60', '12:30:60', '07:30:00.5', '07:30:00.05', '07:30:00.999', '07:30:00.1234'])
         for (const zone of ['Z', '+00:00', '-00:30', '+05:45', '-06:00', '+14:00', '+23:59', '+24:00', '-05:75']) cases.push(`${date}T${time}${zone}`);
     expect(cases.length).toBe(12 * 10 * 9);

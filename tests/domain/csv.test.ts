@@ -15,7 +15,13 @@ describe('CSV cells that a spreadsheet would run as a formula', () => {
     for (const ok of ['C1', 'Locks applied', 'a=b', ' plain', '', "'quoted"]) expect(neutraliseFormula(ok)).toBe(ok);
   });
   it('writes rows whose text cells come back neutralised and whose numbers stay numbers', () => {
-    const csv = toCsv(['name', 'delta', 'note'], [['=cmd|"/c calc"!A1', -5, '@risk'], ['Cell 1', 12.5, null]]);
+    const csv = toCsv(
+      ['name', 'delta', 'note'],
+      [
+        ['=cmd|"/c calc"!A1', -5, '@risk'],
+        ['Cell 1', 12.5, null],
+      ],
+    );
     const rows = Papa.parse<string[]>(csv.trim(), { skipEmptyLines: true }).data;
     expect(rows).toEqual([
       ['name', 'delta', 'note'],

@@ -44,7 +44,13 @@ describe('changesAt, hand-worked', () => {
       { at: D('2024-03-01T00:00:00Z'), value: 0 },
       { at: D('2024-03-06T00:00:00Z'), value: 50 },
     ];
-    const e = evaluatePlan(plan({ now: D('2024-03-07T00:00:00Z'), triggers: [{ kind: 'meter', meterId: 'h', every: 100 }], meters: { h: { baseline: 0, latest: readings[1], recent: readings } } }));
+    const e = evaluatePlan(
+      plan({
+        now: D('2024-03-07T00:00:00Z'),
+        triggers: [{ kind: 'meter', meterId: 'h', every: 100 }],
+        meters: { h: { baseline: 0, latest: readings[1], recent: readings } },
+      }),
+    );
     expect(e.status).toBe('not-due');
     expect(e.changesAt?.toISOString()).toBe('2024-03-09T00:00:00.000Z');
   });
@@ -81,8 +87,15 @@ describe('changesAt invariant over generated plans', () => {
       const readings = Array.from({ length: 6 }, (_, k) => ({ at: new Date(now.getTime() - (6 - k) * DAY), value: 1000 + rate * k }));
       const kindPick = r();
       const trig: Trigger[] = [];
-      if (kindPick < 0.35) trig.push({ kind: 'calendar-fixed', ical: `DTSTART;TZID=Europe/Berlin:20240101T070000\nRRULE:${rules[Math.floor(r() * rules.length)]}` });
-      if (kindPick > 0.25 && kindPick < 0.6) trig.push({ kind: 'calendar-floating', every: 1 + Math.floor(r() * 4), unit: (['day', 'week', 'month'] as const)[Math.floor(r() * 3)], tz: 'America/Chicago' });
+      if (kindPick < 0.35)
+        trig.push({ kind: 'calendar-fixed', ical: `DTSTART;TZID=Europe/Berlin:20240101T070000\nRRULE:${rules[Math.floor(r() * rules.length)]}` });
+      if (kindPick > 0.25 && kindPick < 0.6)
+        trig.push({
+          kind: 'calendar-floating',
+          every: 1 + Math.floor(r() * 4),
+          unit: (['day', 'week', 'month'] as const)[Math.floor(r() * 3)],
+          tz: 'America/Chicago',
+        });
       if (kindPick >= 0.5) trig.push({ kind: 'meter', meterId: 'm', every: 50 + Math.floor(r() * 400) });
       if (kindPick >= 0.8) trig.push({ kind: 'condition', meterId: 'c', above: 1150 + r() * 200 });
       const dueSoon = r() < 0.5 ? { days: Math.floor(r() * 5) } : { days: Math.floor(r() * 3), fraction: r() * 0.3 };

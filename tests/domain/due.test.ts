@@ -253,7 +253,17 @@ describe('two triggers: whichever comes first (hand-worked)', () => {
   });
   // Done 1 Jan 2024 → calendar due 1 Jul 2024 00:00Z.
   const both = (value: number, now: string, lastRaisedKey: string | null = null) =>
-    evaluatePlan(plan({ triggers: [meter, sixMonths], meters: meters(value), lastDoneAt: D('2024-01-01T00:00:00Z'), startedAt: D('2023-01-01T00:00:00Z'), now: D(now), lastRaisedKey, dueSoon: { days: 7 } }));
+    evaluatePlan(
+      plan({
+        triggers: [meter, sixMonths],
+        meters: meters(value),
+        lastDoneAt: D('2024-01-01T00:00:00Z'),
+        startedAt: D('2023-01-01T00:00:00Z'),
+        now: D(now),
+        lastRaisedKey,
+        dueSoon: { days: 7 },
+      }),
+    );
 
   it('the meter comes first: due by meter while the calendar is months away', () => {
     const e = both(1710, '2024-03-20T12:00:00Z');
@@ -325,21 +335,19 @@ describe('bad input is rejected with a clear message', () => {
     expect(() => evaluatePlan(plan({ now: D('not a date') }))).toThrow(/now must be a valid Date/);
     expect(() => evaluatePlan(plan({ dueSoon: { fraction: 1.5 } }))).toThrow(/dueSoon.fraction must be/);
     expect(() => evaluatePlan(plan({ dueSoon: { days: -1 } }))).toThrow(/dueSoon.days must be/);
-    expect(() => evaluatePlan(plan({ triggers: [{ kind: 'meter', meterId: 'nope', every: 500 }] }))).toThrow(
-      /meter "nope", which is not in meters/,
-    );
+    expect(() => evaluatePlan(plan({ triggers: [{ kind: 'meter', meterId: 'nope', every: 500 }] }))).toThrow(/meter "nope", which is not in meters/);
     expect(() =>
       evaluatePlan(plan({ triggers: [{ kind: 'meter', meterId: 'h', every: 0 }], meters: { h: { baseline: 0, latest: null, recent: [] } } })),
     ).toThrow(/every must be a positive number/);
-    expect(() =>
-      evaluatePlan(plan({ triggers: [{ kind: 'condition', meterId: 'h' }], meters: { h: { baseline: 0, latest: null, recent: [] } } })),
-    ).toThrow(/needs above or below/);
-    expect(() =>
-      evaluatePlan(plan({ triggers: [{ kind: 'calendar-floating', every: 1, unit: 'month', tz: 'Nowhere/Town' }] })),
-    ).toThrow(/tz "Nowhere\/Town" is not a known IANA time zone/);
-    expect(() =>
-      evaluatePlan(plan({ triggers: [{ kind: 'calendar-floating', every: 1, unit: 'year' as 'month', tz: 'UTC' }] })),
-    ).toThrow(/unit must be day, week or month/);
+    expect(() => evaluatePlan(plan({ triggers: [{ kind: 'condition', meterId: 'h' }], meters: { h: { baseline: 0, latest: null, recent: [] } } }))).toThrow(
+      /needs above or below/,
+    );
+    expect(() => evaluatePlan(plan({ triggers: [{ kind: 'calendar-floating', every: 1, unit: 'month', tz: 'Nowhere/Town' }] }))).toThrow(
+      /tz "Nowhere\/Town" is not a known IANA time zone/,
+    );
+    expect(() => evaluatePlan(plan({ triggers: [{ kind: 'calendar-floating', every: 1, unit: 'year' as 'month', tz: 'UTC' }] }))).toThrow(
+      /unit must be day, week or month/,
+    );
     expect(() => evaluatePlan(plan({ triggers: [{ kind: 'calendar-fixed', ical: 'RRULE:FREQ=WEEKLY' }] }))).toThrow(/missing DTSTART/);
     expect(() => evaluatePlan(plan({ triggers: [{ kind: 'cron' } as unknown as Trigger] }))).toThrow(/unknown kind "cron"/);
   });

@@ -123,18 +123,20 @@ describe('forecastReach', () => {
 
 describe('bad input', () => {
   it('throws on a NaN or infinite value, naming the reading', () => {
-    expect(() => forecastReach([{ at: at(0), value: 1 }, { at: at(1), value: Number.NaN }], 10)).toThrow(
-      /readings\[1\]\.value/,
-    );
-    expect(() => usageRatePerDay([{ at: at(0), value: Number.POSITIVE_INFINITY }])).toThrow(
-      /readings\[0\]\.value/,
-    );
+    expect(() =>
+      forecastReach(
+        [
+          { at: at(0), value: 1 },
+          { at: at(1), value: Number.NaN },
+        ],
+        10,
+      ),
+    ).toThrow(/readings\[1\]\.value/);
+    expect(() => usageRatePerDay([{ at: at(0), value: Number.POSITIVE_INFINITY }])).toThrow(/readings\[0\]\.value/);
   });
 
   it('throws on an invalid Date or a non-Date', () => {
-    expect(() => forecastReach([{ at: new Date('not a date'), value: 1 }], 10)).toThrow(
-      /readings\[0\]\.at must be a valid Date/,
-    );
+    expect(() => forecastReach([{ at: new Date('not a date'), value: 1 }], 10)).toThrow(/readings\[0\]\.at must be a valid Date/);
     const notADate = [{ at: '2024-01-01' as unknown as Date, value: 1 }];
     expect(() => usageRatePerDay(notADate)).toThrow(/valid Date/);
   });

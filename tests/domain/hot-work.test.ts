@@ -24,9 +24,7 @@ describe('fireWatchUntil', () => {
 
   it('NFPA 51B (2019) is the longer watch', () => {
     // NFPA 51B-2019 raised the 30-minute watch of the 2014 edition to 1 hour
-    expect(fireWatchUntil(ended, 'nfpa-51b-2019').getTime()).toBeGreaterThan(
-      fireWatchUntil(ended, 'osha-1910.252').getTime(),
-    );
+    expect(fireWatchUntil(ended, 'nfpa-51b-2019').getTime()).toBeGreaterThan(fireWatchUntil(ended, 'osha-1910.252').getTime());
   });
 
   it('adds elapsed time across midnight and a year end, in any offset', () => {
@@ -45,9 +43,7 @@ describe('fireWatchUntil', () => {
 
   it('rejects invalid Dates and non-Dates', () => {
     expect(() => fireWatchUntil(new Date('not a date'), 'osha-1910.252')).toThrow(/endedAt is an invalid Date/);
-    expect(() => fireWatchUntil('2026-03-04T15:20:00Z' as unknown as Date, 'osha-1910.252')).toThrow(
-      /endedAt must be a Date \(got string\)/,
-    );
+    expect(() => fireWatchUntil('2026-03-04T15:20:00Z' as unknown as Date, 'osha-1910.252')).toThrow(/endedAt must be a Date \(got string\)/);
     expect(() => fireWatchUntil(undefined as unknown as Date, 'osha-1910.252')).toThrow(/endedAt must be a Date/);
   });
 

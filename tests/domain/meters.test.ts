@@ -9,18 +9,24 @@ describe('readingOrderProblem', () => {
   it('accepts a rising or equal count and refuses a falling one unless it is a reset', () => {
     expect(readingOrderProblem('count', r(1, 100), r(2, 100), 'starts')).toBeNull();
     expect(readingOrderProblem('count', r(1, 100), r(2, 150), 'starts')).toBeNull();
-    expect(readingOrderProblem('count', r(1, 100), r(2, 99), 'starts')).toBe('99 starts is lower than the reading before it (100 starts on 2026-01-01 00:00 UTC); record it as a reset if the counter started again from zero');
+    expect(readingOrderProblem('count', r(1, 100), r(2, 99), 'starts')).toBe(
+      '99 starts is lower than the reading before it (100 starts on 2026-01-01 00:00 UTC); record it as a reset if the counter started again from zero',
+    );
     expect(readingOrderProblem('count', r(1, 100), r(2, 3, true), 'starts')).toBeNull();
     expect(readingOrderProblem('running-time', null, r(2, 5), 'h')).toBeNull();
   });
 
   it("names the earlier reading's time in the shop's zone when it is given, as the screens show it", () => {
     // 2026-01-01 00:00 UTC is the evening before in America/Chicago (UTC-6 in winter).
-    expect(readingOrderProblem('count', r(1, 100), r(2, 99), 'starts', 'America/Chicago')).toBe('99 starts is lower than the reading before it (100 starts on 31 Dec 2025, 18:00); record it as a reset if the counter started again from zero');
+    expect(readingOrderProblem('count', r(1, 100), r(2, 99), 'starts', 'America/Chicago')).toBe(
+      '99 starts is lower than the reading before it (100 starts on 31 Dec 2025, 18:00); record it as a reset if the counter started again from zero',
+    );
   });
 
   it('groups thousands in the message so a long counter can be read at a glance', () => {
-    expect(readingOrderProblem('count', r(1, 1_234_567), r(2, 98_765.5), 'starts')).toMatch(/^98,765\.5 starts is lower than the reading before it \(1,234,567 starts on /);
+    expect(readingOrderProblem('count', r(1, 1_234_567), r(2, 98_765.5), 'starts')).toMatch(
+      /^98,765\.5 starts is lower than the reading before it \(1,234,567 starts on /,
+    );
   });
 
   it('refuses negative counts and hours even as a reset, but lets condition readings fall and go negative', () => {

@@ -1,10 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import {
-  hearingProtectionRequired,
-  noiseDosePercent,
-  permissibleHours,
-  twaFromDose,
-} from '../../shared/domain/noise';
+import { hearingProtectionRequired, noiseDosePercent, permissibleHours, twaFromDose } from '../../shared/domain/noise';
 
 /** Number of decimals a published value was printed with, e.g. "0.125" → 3. */
 function decimals(printed: string): number {
@@ -25,16 +20,56 @@ describe('permissibleHours: OSHA 29 CFR 1910.95 App. A, Table G-16a', () => {
   // 83 dBA is printed 21.1 in the e-CFR text on osha.gov's older document
   // view and 21.2 on its current page; the footnote formula gives 21.11.
   const tableG16a: [number, string][] = [
-    [80, '32'], [81, '27.9'], [82, '24.3'], [83, '21.1'], [84, '18.4'],
-    [85, '16'], [86, '13.9'], [87, '12.1'], [88, '10.6'], [89, '9.2'],
-    [90, '8'], [91, '7.0'], [92, '6.1'], [93, '5.3'], [94, '4.6'],
-    [95, '4'], [96, '3.5'], [97, '3.0'], [98, '2.6'], [99, '2.3'],
-    [100, '2'], [101, '1.7'], [102, '1.5'], [103, '1.3'], [104, '1.1'],
-    [105, '1'], [106, '0.87'], [107, '0.76'], [108, '0.66'], [109, '0.57'],
-    [110, '0.5'], [111, '0.44'], [112, '0.38'], [113, '0.33'], [114, '0.29'],
-    [115, '0.25'], [116, '0.22'], [117, '0.19'], [118, '0.16'], [119, '0.14'],
-    [120, '0.125'], [121, '0.11'], [122, '0.095'], [123, '0.082'], [124, '0.072'],
-    [125, '0.063'], [126, '0.054'], [127, '0.047'], [128, '0.041'], [129, '0.036'],
+    [80, '32'],
+    [81, '27.9'],
+    [82, '24.3'],
+    [83, '21.1'],
+    [84, '18.4'],
+    [85, '16'],
+    [86, '13.9'],
+    [87, '12.1'],
+    [88, '10.6'],
+    [89, '9.2'],
+    [90, '8'],
+    [91, '7.0'],
+    [92, '6.1'],
+    [93, '5.3'],
+    [94, '4.6'],
+    [95, '4'],
+    [96, '3.5'],
+    [97, '3.0'],
+    [98, '2.6'],
+    [99, '2.3'],
+    [100, '2'],
+    [101, '1.7'],
+    [102, '1.5'],
+    [103, '1.3'],
+    [104, '1.1'],
+    [105, '1'],
+    [106, '0.87'],
+    [107, '0.76'],
+    [108, '0.66'],
+    [109, '0.57'],
+    [110, '0.5'],
+    [111, '0.44'],
+    [112, '0.38'],
+    [113, '0.33'],
+    [114, '0.29'],
+    [115, '0.25'],
+    [116, '0.22'],
+    [117, '0.19'],
+    [118, '0.16'],
+    [119, '0.14'],
+    [120, '0.125'],
+    [121, '0.11'],
+    [122, '0.095'],
+    [123, '0.082'],
+    [124, '0.072'],
+    [125, '0.063'],
+    [126, '0.054'],
+    [127, '0.047'],
+    [128, '0.041'],
+    [129, '0.036'],
     [130, '0.031'],
   ];
   it.each(tableG16a)('%s dBA → %s h', (level, printed) => {
@@ -161,15 +196,14 @@ describe('noiseDosePercent: OSHA 29 CFR 1910.95 App. A, I(1)', () => {
 
   it('rejects bad exposures with a message naming the entry', () => {
     expect(() => noiseDosePercent([{ levelDbA: 90, hours: -1 }])).toThrow(/exposures\[0\]\.hours must be >= 0 \(got -1\)/);
-    expect(() => noiseDosePercent([{ levelDbA: 90, hours: 2 }, { levelDbA: Number.NaN, hours: 1 }])).toThrow(
-      /exposures\[1\]\.levelDbA must be a finite number/,
-    );
-    expect(() => noiseDosePercent([{ levelDbA: 90, hours: Number.POSITIVE_INFINITY }])).toThrow(
-      /exposures\[0\]\.hours must be a finite number/,
-    );
-    expect(() => noiseDosePercent([null as unknown as { levelDbA: number; hours: number }])).toThrow(
-      /exposures\[0\] must be an object/,
-    );
+    expect(() =>
+      noiseDosePercent([
+        { levelDbA: 90, hours: 2 },
+        { levelDbA: Number.NaN, hours: 1 },
+      ]),
+    ).toThrow(/exposures\[1\]\.levelDbA must be a finite number/);
+    expect(() => noiseDosePercent([{ levelDbA: 90, hours: Number.POSITIVE_INFINITY }])).toThrow(/exposures\[0\]\.hours must be a finite number/);
+    expect(() => noiseDosePercent([null as unknown as { levelDbA: number; hours: number }])).toThrow(/exposures\[0\] must be an object/);
     expect(() => noiseDosePercent('90 dBA' as unknown as [])).toThrow(/must be an array/);
     expect(() =>
       noiseDosePercent([

@@ -23,8 +23,8 @@ const DAYS = ['MO', 'TU', 'WE', 'TH', 'FR', 'SA', 'SU'];
 const pad = (n: number, w = 2) => String(n).padStart(w, '0');
 
 function randomRule(r: () => number): string {
-  const pick = <T,>(xs: readonly T[]): T => xs[Math.floor(r() * xs.length)];
-  const some = <T,>(xs: readonly T[], max: number): T[] => {
+  const pick = <T>(xs: readonly T[]): T => xs[Math.floor(r() * xs.length)];
+  const some = <T>(xs: readonly T[], max: number): T[] => {
     const n = 1 + Math.floor(r() * max);
     return [...new Set(Array.from({ length: n }, () => pick(xs)))];
   };
@@ -62,84 +62,120 @@ function randomIcal(r: () => number): string {
 const iso = (ds: Date[]) => ds.map((d) => d.toISOString());
 
 describe('recurrence skip-ahead', () => {
-  it('gives the same instants as the walk from DTSTART on 1,500 generated rules', () => {
-    const r = prng(20261201);
-    let checked = 0;
-    let tried = 0;
-    while (checked < 1500 && tried < 6000) {
-      tried++;
-      const ical = randomIcal(r);
-      const nonexistent = r() < 0.3 ? ('skip' as const) : ('shift-forward' as const);
-      if (!validateRecurrence(ical).ok) continue;
-      // Around DST changes too: `after` anywhere from before DTSTART to years later.
-      const after = new Date(Date.UTC(2019, 6, 1) + Math.floor(r() * 9 * 365 * DAY) + Math.floor(r() * 48) * 1_800_000);
-      const before = r() < 0.3 ? new Date(after.getTime() + Math.floor(r() * 120) * DAY) : undefined;
-      const inclusive = r() < 0.3;
-      const limit = 1 + Math.floor(r() * 8);
-      const opts = { after, before, inclusive, limit, nonexistent };
-      const plain = (() => { try { return iso(expandRecurrence(ical, { ...opts, skipAhead: false })); } catch (e) { return String(e); } })();
-      const fast = (() => { try { return iso(expandRecurrence(ical, opts)); } catch (e) { return String(e); } })();
-      expect(fast, `${ical} ${JSON.stringify(opts)}`).toEqual(plain);
-      const prevPlain = previousOccurrence(ical, after, { inclusive, nonexistent, skipAhead: false });
-      const prevFast = previousOccurrence(ical, after, { inclusive, nonexistent });
-      expect(prevFast?.toISOString() ?? null, `${ical} previous ${after.toISOString()}`).toEqual(prevPlain?.toISOString() ?? null);
-      checked++;
-    }
-    expect(checked).toBe(1500);
-  }, PROPERTY_CHECK_TIMEOUT_MS);
-
-  it('answers repeated questions about the same rule (its cached window of instants) like the plain walk', () => {
-    const r = prng(4242);
-    let rules = 0;
-    let questions = 0;
-    while (rules < 250) {
-      const ical = randomIcal(r);
-      const nonexistent = r() < 0.3 ? ('skip' as const) : ('shift-forward' as const);
-      if (!validateRecurrence(ical).ok) continue;
-      rules++;
-      // Questions clustered around one time (as for plans sharing a rule), with a few far away;
-      // some land exactly on an instant, to test the inclusive and exclusive edges.
-      const centre = Date.UTC(2020, 0, 1) + Math.floor(r() * 7 * 365 * DAY);
-      let onInstant: Date | null = null;
-      for (let q = 0; q < 14; q++) {
-        const far = r() < 0.15;
-        const at: Date =
-          onInstant && r() < 0.3 ? onInstant : new Date(centre + Math.floor((r() - 0.5) * (far ? 6 * 365 : 400) * DAY) + Math.floor(r() * 48) * 1_800_000);
-        const inclusive = r() < 0.4;
-        const limit = 1 + Math.floor(r() * 4);
-        const before = r() < 0.2 ? new Date(at.getTime() + Math.floor(r() * 60) * DAY) : undefined;
-        const opts = { after: at, before, inclusive, limit, nonexistent };
-        const plain: string[] | string = (() => { try { return iso(expandRecurrence(ical, { ...opts, skipAhead: false })); } catch (e) { return String(e); } })();
-        const fast = (() => { try { return iso(expandRecurrence(ical, opts)); } catch (e) { return String(e); } })();
+  it(
+    'gives the same instants as the walk from DTSTART on 1,500 generated rules',
+    () => {
+      const r = prng(20261201);
+      let checked = 0;
+      let tried = 0;
+      while (checked < 1500 && tried < 6000) {
+        tried++;
+        const ical = randomIcal(r);
+        const nonexistent = r() < 0.3 ? ('skip' as const) : ('shift-forward' as const);
+        if (!validateRecurrence(ical).ok) continue;
+        // Around DST changes too: `after` anywhere from before DTSTART to years later.
+        const after = new Date(Date.UTC(2019, 6, 1) + Math.floor(r() * 9 * 365 * DAY) + Math.floor(r() * 48) * 1_800_000);
+        const before = r() < 0.3 ? new Date(after.getTime() + Math.floor(r() * 120) * DAY) : undefined;
+        const inclusive = r() < 0.3;
+        const limit = 1 + Math.floor(r() * 8);
+        const opts = { after, before, inclusive, limit, nonexistent };
+        const plain = (() => {
+          try {
+            return iso(expandRecurrence(ical, { ...opts, skipAhead: false }));
+          } catch (e) {
+            return String(e);
+          }
+        })();
+        const fast = (() => {
+          try {
+            return iso(expandRecurrence(ical, opts));
+          } catch (e) {
+            return String(e);
+          }
+        })();
         expect(fast, `${ical} ${JSON.stringify(opts)}`).toEqual(plain);
-        const prevPlain = previousOccurrence(ical, at, { inclusive, nonexistent, skipAhead: false });
-        const prevFast = previousOccurrence(ical, at, { inclusive, nonexistent });
-        expect(prevFast?.toISOString() ?? null, `${ical} previous ${at.toISOString()} inclusive=${inclusive}`).toEqual(prevPlain?.toISOString() ?? null);
-        if (Array.isArray(plain) && plain.length > 0) onInstant = new Date(plain[0]);
-        questions++;
+        const prevPlain = previousOccurrence(ical, after, { inclusive, nonexistent, skipAhead: false });
+        const prevFast = previousOccurrence(ical, after, { inclusive, nonexistent });
+        expect(prevFast?.toISOString() ?? null, `${ical} previous ${after.toISOString()}`).toEqual(prevPlain?.toISOString() ?? null);
+        checked++;
       }
-    }
-    expect(questions).toBe(250 * 14);
-  }, PROPERTY_CHECK_TIMEOUT_MS);
+      expect(checked).toBe(1500);
+    },
+    PROPERTY_CHECK_TIMEOUT_MS,
+  );
 
-  it('agrees across DST changes for rules at the changeover hours', () => {
-    const cases = [
-      'DTSTART;TZID=America/Chicago:20200102T020000\nRRULE:FREQ=WEEKLY;BYDAY=SU',
-      'DTSTART;TZID=America/Chicago:20200101T013000\nRRULE:FREQ=DAILY',
-      'DTSTART;TZID=Europe/Berlin:20200101T023000\nRRULE:FREQ=MONTHLY;BYDAY=-1SU',
-      'DTSTART;TZID=Australia/Sydney:20200101T023000\nRRULE:FREQ=MONTHLY;BYDAY=1SU;INTERVAL=3',
-    ];
-    for (const ical of cases) {
-      for (const nonexistent of ['skip', 'shift-forward'] as const) {
-        for (let m = 0; m < 60; m++) {
-          const after = new Date(Date.UTC(2021, m, 1));
-          const opts = { after, limit: 6, nonexistent };
-          expect(iso(expandRecurrence(ical, opts)), ical).toEqual(iso(expandRecurrence(ical, { ...opts, skipAhead: false })));
-          expect(previousOccurrence(ical, after, { nonexistent })?.toISOString()).toEqual(
-            previousOccurrence(ical, after, { nonexistent, skipAhead: false })?.toISOString(),
-          );
+  it(
+    'answers repeated questions about the same rule (its cached window of instants) like the plain walk',
+    () => {
+      const r = prng(4242);
+      let rules = 0;
+      let questions = 0;
+      while (rules < 250) {
+        const ical = randomIcal(r);
+        const nonexistent = r() < 0.3 ? ('skip' as const) : ('shift-forward' as const);
+        if (!validateRecurrence(ical).ok) continue;
+        rules++;
+        // Questions clustered around one time (as for plans sharing a rule), with a few far away;
+        // some land exactly on an instant, to test the inclusive and exclusive edges.
+        const centre = Date.UTC(2020, 0, 1) + Math.floor(r() * 7 * 365 * DAY);
+        let onInstant: Date | null = null;
+        for (let q = 0; q < 14; q++) {
+          const far = r() < 0.15;
+          const at: Date =
+            onInstant && r() < 0.3 ? onInstant : new Date(centre + Math.floor((r() - 0.5) * (far ? 6 * 365 : 400) * DAY) + Math.floor(r() * 48) * 1_800_000);
+          const inclusive = r() < 0.4;
+          const limit = 1 + Math.floor(r() * 4);
+          const before = r() < 0.2 ? new Date(at.getTime() + Math.floor(r() * 60) * DAY) : undefined;
+          const opts = { after: at, before, inclusive, limit, nonexistent };
+          const plain: string[] | string = (() => {
+            try {
+              return iso(expandRecurrence(ical, { ...opts, skipAhead: false }));
+            } catch (e) {
+              return String(e);
+            }
+          })();
+          const fast = (() => {
+            try {
+              return iso(expandRecurrence(ical, opts));
+            } catch (e) {
+              return String(e);
+            }
+          })();
+          expect(fast, `${ical} ${JSON.stringify(opts)}`).toEqual(plain);
+          const prevPlain = previousOccurrence(ical, at, { inclusive, nonexistent, skipAhead: false });
+          const prevFast = previousOccurrence(ical, at, { inclusive, nonexistent });
+          expect(prevFast?.toISOString() ?? null, `${ical} previous ${at.toISOString()} inclusive=${inclusive}`).toEqual(prevPlain?.toISOString() ?? null);
+          if (Array.isArray(plain) && plain.length > 0) onInstant = new Date(plain[0]);
+          questions++;
         }
       }
-    }
-  }, PROPERTY_CHECK_TIMEOUT_MS);
+      expect(questions).toBe(250 * 14);
+    },
+    PROPERTY_CHECK_TIMEOUT_MS,
+  );
+
+  it(
+    'agrees across DST changes for rules at the changeover hours',
+    () => {
+      const cases = [
+        'DTSTART;TZID=America/Chicago:20200102T020000\nRRULE:FREQ=WEEKLY;BYDAY=SU',
+        'DTSTART;TZID=America/Chicago:20200101T013000\nRRULE:FREQ=DAILY',
+        'DTSTART;TZID=Europe/Berlin:20200101T023000\nRRULE:FREQ=MONTHLY;BYDAY=-1SU',
+        'DTSTART;TZID=Australia/Sydney:20200101T023000\nRRULE:FREQ=MONTHLY;BYDAY=1SU;INTERVAL=3',
+      ];
+      for (const ical of cases) {
+        for (const nonexistent of ['skip', 'shift-forward'] as const) {
+          for (let m = 0; m < 60; m++) {
+            const after = new Date(Date.UTC(2021, m, 1));
+            const opts = { after, limit: 6, nonexistent };
+            expect(iso(expandRecurrence(ical, opts)), ical).toEqual(iso(expandRecurrence(ical, { ...opts, skipAhead: false })));
+            expect(previousOccurrence(ical, after, { nonexistent })?.toISOString()).toEqual(
+              previousOccurrence(ical, after, { nonexistent, skipAhead: false })?.toISOString(),
+            );
+          }
+        }
+      }
+    },
+    PROPERTY_CHECK_TIMEOUT_MS,
+  );
 });

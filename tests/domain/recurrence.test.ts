@@ -1,12 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import {
-  buildRecurrenceText,
-  expandRecurrence,
-  localToInstant,
-  parseRecurrence,
-  previousOccurrence,
-  validateRecurrence,
-} from '../../shared/domain/recurrence';
+import { buildRecurrenceText, expandRecurrence, localToInstant, parseRecurrence, previousOccurrence, validateRecurrence } from '../../shared/domain/recurrence';
 import { RRule, Frequency, rrulestr } from '../../shared/domain/rrule';
 
 // The RFC 5545 §3.8.5.3 examples give local 9:00 AM and say whether it is EDT or EST.
@@ -39,9 +32,7 @@ describe('rrule wrapper', () => {
     // RFC 5545 §3.8.5.3, "Every 10 days, 5 occurrences" (dates only; wall clock as UTC, no zone).
     const rule = new RRule({ freq: Frequency.DAILY, interval: 10, count: 5, dtstart: new Date(Date.UTC(1997, 8, 2, 9)) });
     expect(isoList(rule.all())).toEqual(
-      [2, 12, 22].map((d) => new Date(Date.UTC(1997, 8, d, 9)).toISOString()).concat(
-        [2, 12].map((d) => new Date(Date.UTC(1997, 9, d, 9)).toISOString()),
-      ),
+      [2, 12, 22].map((d) => new Date(Date.UTC(1997, 8, d, 9)).toISOString()).concat([2, 12].map((d) => new Date(Date.UTC(1997, 9, d, 9)).toISOString())),
     );
   });
 });
@@ -104,9 +95,7 @@ describe('expandRecurrence — RFC 5545 §3.8.5.3 examples (America/New_York)', 
     // starting on Monday, September 1, 1997":
     // (1997 9:00 AM EDT) September 1,3,5,15,17,19,29; October 1,3,13,15,17
     // (1997 9:00 AM EST) October 27,29,31; November 10,12,14,24,26,28; December 8,10,12,22
-    const got = expandRecurrence(
-      nyRule('19970901T090000', 'FREQ=WEEKLY;INTERVAL=2;UNTIL=19971224T000000Z;WKST=SU;BYDAY=MO,WE,FR'),
-    );
+    const got = expandRecurrence(nyRule('19970901T090000', 'FREQ=WEEKLY;INTERVAL=2;UNTIL=19971224T000000Z;WKST=SU;BYDAY=MO,WE,FR'));
     expect(isoList(got)).toEqual([
       ...nyDays(1997, 9, [1, 3, 5, 15, 17, 19, 29], 'EDT'),
       ...nyDays(1997, 10, [1, 3, 13, 15, 17], 'EDT'),
@@ -222,13 +211,7 @@ describe('expandRecurrence — RFC 5545 §3.8.5.3 examples (America/New_York)', 
   it('An invalid date (February 30) is ignored, and EST becomes EDT in March 2007', () => {
     // RFC 5545 §3.8.5.3: (2007 EST) January 15,30 (2007 EST) February 15 (2007 EDT) March 15,30
     const got = expandRecurrence(nyRule('20070115T090000', 'FREQ=MONTHLY;BYMONTHDAY=15,30;COUNT=5'));
-    expect(isoList(got)).toEqual([
-      ny(2007, 1, 15, 'EST'),
-      ny(2007, 1, 30, 'EST'),
-      ny(2007, 2, 15, 'EST'),
-      ny(2007, 3, 15, 'EDT'),
-      ny(2007, 3, 30, 'EDT'),
-    ]);
+    expect(isoList(got)).toEqual([ny(2007, 1, 15, 'EST'), ny(2007, 1, 30, 'EST'), ny(2007, 2, 15, 'EST'), ny(2007, 3, 15, 'EDT'), ny(2007, 3, 30, 'EDT')]);
   });
 });
 
@@ -294,12 +277,7 @@ describe('daylight-saving changes (RFC 5545 §3.3.5; summer time per Directive 2
 
   it('09:00 Europe/Berlin stays 09:00 local across the spring change (08:00Z → 07:00Z)', () => {
     const got = expandRecurrence('DTSTART;TZID=Europe/Berlin:20240329T090000\nRRULE:FREQ=DAILY;COUNT=4');
-    expect(isoList(got)).toEqual([
-      '2024-03-29T08:00:00.000Z',
-      '2024-03-30T08:00:00.000Z',
-      '2024-03-31T07:00:00.000Z',
-      '2024-04-01T07:00:00.000Z',
-    ]);
+    expect(isoList(got)).toEqual(['2024-03-29T08:00:00.000Z', '2024-03-30T08:00:00.000Z', '2024-03-31T07:00:00.000Z', '2024-04-01T07:00:00.000Z']);
   });
 
   it('09:00 Europe/Berlin stays 09:00 local across the autumn change (07:00Z → 08:00Z)', () => {
@@ -429,12 +407,8 @@ describe('buildRecurrenceText', () => {
   });
 
   it('rejects a start inside a DST gap, a malformed start and a bad rule', () => {
-    expect(() => buildRecurrenceText({ start: '2024-03-31T02:30', tzid: 'Europe/Berlin', rrule: 'FREQ=DAILY' })).toThrow(
-      /does not exist/,
-    );
-    expect(() => buildRecurrenceText({ start: '2024-03-31 02:30+01:00', tzid: 'Europe/Berlin', rrule: 'FREQ=DAILY' })).toThrow(
-      /not a local ISO date-time/,
-    );
+    expect(() => buildRecurrenceText({ start: '2024-03-31T02:30', tzid: 'Europe/Berlin', rrule: 'FREQ=DAILY' })).toThrow(/does not exist/);
+    expect(() => buildRecurrenceText({ start: '2024-03-31 02:30+01:00', tzid: 'Europe/Berlin', rrule: 'FREQ=DAILY' })).toThrow(/not a local ISO date-time/);
     expect(() => buildRecurrenceText({ start: '2024-03-04T07:00', tzid: 'Europe/Berlin', rrule: 'FREQ=DAYLY' })).toThrow(/FREQ "DAYLY"/);
   });
 });

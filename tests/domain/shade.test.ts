@@ -1,10 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import {
-  PLASMA_ARC_CUTTING_SHADES,
-  plasmaCuttingShade,
-  validateShadeTable,
-  type ShadeTable,
-} from '../../shared/domain/shade';
+import { PLASMA_ARC_CUTTING_SHADES, plasmaCuttingShade, validateShadeTable, type ShadeTable } from '../../shared/domain/shade';
 
 describe('plasmaCuttingShade: default table', () => {
   // Each row: current (A), published minimum, published suggested.
@@ -124,21 +119,11 @@ describe('plasmaCuttingShade: site override table', () => {
     const base = ansi2012.bands;
     const withBands = (bands: ShadeTable['bands']): ShadeTable => ({ ...ansi2012, bands });
     expect(() => plasmaCuttingShade(100, withBands([]))).toThrow(/at least one band/);
-    expect(() =>
-      plasmaCuttingShade(100, withBands([base[0], { ...base[1], fromA: 25 }])),
-    ).toThrow(/gap between band 0 .* and band 1/);
-    expect(() =>
-      plasmaCuttingShade(100, withBands([base[0], { ...base[1], fromA: 15 }])),
-    ).toThrow(/overlap between band 0/);
-    expect(() =>
-      plasmaCuttingShade(100, withBands([{ ...base[0], suggested: 3 }])),
-    ).toThrow(/suggested shade 3 is lighter than minimum 4/);
-    expect(() =>
-      plasmaCuttingShade(100, withBands([{ ...base[0], toA: Number.NaN }])),
-    ).toThrow(/toA must be a finite number/);
-    expect(() => plasmaCuttingShade(100, withBands([{ ...base[0], toA: 0 }]))).toThrow(
-      /toA \(0 A\) must be greater than fromA/,
-    );
+    expect(() => plasmaCuttingShade(100, withBands([base[0], { ...base[1], fromA: 25 }]))).toThrow(/gap between band 0 .* and band 1/);
+    expect(() => plasmaCuttingShade(100, withBands([base[0], { ...base[1], fromA: 15 }]))).toThrow(/overlap between band 0/);
+    expect(() => plasmaCuttingShade(100, withBands([{ ...base[0], suggested: 3 }]))).toThrow(/suggested shade 3 is lighter than minimum 4/);
+    expect(() => plasmaCuttingShade(100, withBands([{ ...base[0], toA: Number.NaN }]))).toThrow(/toA must be a finite number/);
+    expect(() => plasmaCuttingShade(100, withBands([{ ...base[0], toA: 0 }]))).toThrow(/toA \(0 A\) must be greater than fromA/);
     expect(() => plasmaCuttingShade(100, { ...ansi2012, source: ' ' })).toThrow(/must name its source/);
   });
 });

@@ -1,12 +1,6 @@
 import { createHash } from 'node:crypto';
 import { describe, expect, it } from 'vitest';
-import {
-  GENESIS_HASH,
-  canonicalize,
-  chainHash,
-  verifyChain,
-  type ChainRecord,
-} from '../../shared/domain/signature-chain';
+import { GENESIS_HASH, canonicalize, chainHash, verifyChain, type ChainRecord } from '../../shared/domain/signature-chain';
 
 // The server's injected hash: SHA-256 over the UTF-8 bytes, lowercase hex.
 const sha256Hex = (s: string) => createHash('sha256').update(s, 'utf8').digest('hex');
@@ -16,9 +10,7 @@ describe('injected SHA-256', () => {
     // FIPS 180-2 (and NIST CSRC example), SHA-256 of "abc"
     expect(sha256Hex('abc')).toBe('ba7816bf8f01cfea414140de5dae2223b00361a396177a9cb410ff61f20015ad');
     // FIPS 180-2 two-block example (from memory)
-    expect(sha256Hex('abcdbcdecdefdefgefghfghighijhijkijkljklmklmnlmnomnopnopq')).toBe(
-      '248d6a61d20638b8e5c026930c3e6039a33ce45964ff2167f6ecedd419db06c1',
-    );
+    expect(sha256Hex('abcdbcdecdefdefgefghfghighijhijkijkljklmklmnlmnomnopnopq')).toBe('248d6a61d20638b8e5c026930c3e6039a33ce45964ff2167f6ecedd419db06c1');
   });
 });
 
@@ -31,8 +23,7 @@ describe('canonicalize: RFC 8785 examples', () => {
         ' "literals": [null, true, false]}',
     );
     expect(canonicalize(input)).toBe(
-      '{"literals":[null,true,false],"numbers":[333333333.3333333,1e+30,4.5,0.002,1e-27],' +
-        '"string":"€$\\u000f\\nA\'B\\"\\\\\\\\\\"/"}',
+      '{"literals":[null,true,false],"numbers":[333333333.3333333,1e+30,4.5,0.002,1e-27],' + '"string":"€$\\u000f\\nA\'B\\"\\\\\\\\\\"/"}',
     );
   });
 
@@ -64,9 +55,7 @@ describe('canonicalize: RFC 8785 examples', () => {
 
   it('sorts nested objects, keeps array order, writes no whitespace', () => {
     // RFC 8785 §3.2.3: sorting applies recursively; arrays keep their order
-    expect(canonicalize({ b: [{ z: 1, a: 2 }, 3], a: { d: true, c: null } })).toBe(
-      '{"a":{"c":null,"d":true},"b":[{"a":2,"z":1},3]}',
-    );
+    expect(canonicalize({ b: [{ z: 1, a: 2 }, 3], a: { d: true, c: null } })).toBe('{"a":{"c":null,"d":true},"b":[{"a":2,"z":1},3]}');
   });
 
   it('writes -0 as 0 and keeps non-ASCII text unescaped', () => {
@@ -114,9 +103,7 @@ describe('chainHash', () => {
   it('is SHA-256 of prevHash, a newline and the canonical content', () => {
     expect(GENESIS_HASH).toBe('0'.repeat(64));
     const content = { step: 'lockout', by: 'op-17' };
-    expect(chainHash(GENESIS_HASH, content, sha256Hex)).toBe(
-      sha256Hex(`${'0'.repeat(64)}\n{"by":"op-17","step":"lockout"}`),
-    );
+    expect(chainHash(GENESIS_HASH, content, sha256Hex)).toBe(sha256Hex(`${'0'.repeat(64)}\n{"by":"op-17","step":"lockout"}`));
   });
 
   it('does not depend on key order but does depend on the previous hash', () => {
@@ -129,15 +116,9 @@ describe('chainHash', () => {
   it('rejects a malformed prevHash or a hash function with the wrong output', () => {
     expect(() => chainHash('abc', {}, sha256Hex)).toThrow(/prevHash must be 64 lowercase hex characters \(got "abc"\)/);
     expect(() => chainHash(GENESIS_HASH.toUpperCase().replace(/0/g, 'A'), {}, sha256Hex)).toThrow(/prevHash/);
-    expect(() => chainHash(GENESIS_HASH, {}, (s) => sha256Hex(s).toUpperCase())).toThrow(
-      /sha256Hex returned .*expected 64 lowercase hex characters/,
-    );
-    expect(() =>
-      chainHash(GENESIS_HASH, {}, (s) => createHash('sha256').update(s).digest('base64')),
-    ).toThrow(/expected 64 lowercase hex/);
-    expect(() => chainHash(GENESIS_HASH, {}, 'sha256' as unknown as (s: string) => string)).toThrow(
-      /sha256Hex must be a function/,
-    );
+    expect(() => chainHash(GENESIS_HASH, {}, (s) => sha256Hex(s).toUpperCase())).toThrow(/sha256Hex returned .*expected 64 lowercase hex characters/);
+    expect(() => chainHash(GENESIS_HASH, {}, (s) => createHash('sha256').update(s).digest('base64'))).toThrow(/expected 64 lowercase hex/);
+    expect(() => chainHash(GENESIS_HASH, {}, 'sha256' as unknown as (s: string) => string)).toThrow(/sha256Hex must be a function/);
   });
 });
 
@@ -236,15 +217,9 @@ describe('verifyChain', () => {
   it('throws for input that is not a record list, naming the problem', () => {
     const chain = buildChain(contents);
     expect(() => verifyChain('x' as unknown as ChainRecord[], sha256Hex)).toThrow(/records must be an array/);
-    expect(() => verifyChain([{ ...chain[0], hash: null as unknown as string }], sha256Hex)).toThrow(
-      /records\[0\]\.hash must be a string \(got null\)/,
-    );
+    expect(() => verifyChain([{ ...chain[0], hash: null as unknown as string }], sha256Hex)).toThrow(/records\[0\]\.hash must be a string \(got null\)/);
     expect(() => verifyChain([{ ...chain[0], id: '' }], sha256Hex)).toThrow(/records\[0\]\.id must not be empty/);
-    expect(() => verifyChain(chain, undefined as unknown as (s: string) => string)).toThrow(
-      /sha256Hex must be a function/,
-    );
-    expect(() => verifyChain([{ ...chain[0], content: { n: Number.NaN } }], sha256Hex)).toThrow(
-      /records\[0\] \(id r1\): canonicalize: \$\.n is NaN/,
-    );
+    expect(() => verifyChain(chain, undefined as unknown as (s: string) => string)).toThrow(/sha256Hex must be a function/);
+    expect(() => verifyChain([{ ...chain[0], content: { n: Number.NaN } }], sha256Hex)).toThrow(/records\[0\] \(id r1\): canonicalize: \$\.n is NaN/);
   });
 });

@@ -1,11 +1,6 @@
 import { describe, it, expect } from 'vitest';
 import jStat from 'jstat';
-import {
-  demandStats,
-  reorderPoint,
-  reorderPointUnits,
-  serviceLevelZ,
-} from '../../shared/domain/stock';
+import { demandStats, reorderPoint, reorderPointUnits, serviceLevelZ } from '../../shared/domain/stock';
 
 describe('serviceLevelZ (standard normal quantile)', () => {
   // NIST e-Handbook of Statistical Methods §1.3.6.7.2, table of upper critical values

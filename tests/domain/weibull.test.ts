@@ -1,12 +1,6 @@
 import { describe, it, expect } from 'vitest';
 import jStat from 'jstat';
-import {
-  fitWeibull,
-  recommendedChangePoint,
-  weibullBLife,
-  weibullReliability,
-  type WeibullFit,
-} from '../../shared/domain/weibull';
+import { fitWeibull, recommendedChangePoint, weibullBLife, weibullReliability, type WeibullFit } from '../../shared/domain/weibull';
 
 /** Seeded 32-bit PRNG (mulberry32) so the property tests are deterministic. */
 function mulberry32(seed: number): () => number {
@@ -36,10 +30,7 @@ function logLikelihood(fit: WeibullFit, failures: number[], suspensions: number[
     const ln = Math.log(shape / scale) + (shape - 1) * Math.log(t / scale) - (t / scale) ** shape;
     return s + ln;
   }, 0);
-  const survivalTerms = suspensions.reduce(
-    (s, t) => s + Math.log(1 - jStat.weibull.cdf(t, scale, shape)),
-    0,
-  );
+  const survivalTerms = suspensions.reduce((s, t) => s + Math.log(1 - jStat.weibull.cdf(t, scale, shape)), 0);
   return pdfTerms + survivalTerms;
 }
 

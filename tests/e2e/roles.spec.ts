@@ -105,6 +105,7 @@ test('admin opens site settings; an unknown time zone is refused on its field', 
 test('the operator menu stays short', async ({ page }) => {
   await signIn(page, 'operator@alder-row.example');
   const nav = page.getByRole('navigation', { name: 'Main' });
-  for (const hidden of ['Plans', 'Stock', 'Oil analysis', 'People', 'Site settings']) await expect(nav.getByRole('link', { name: hidden, exact: true })).toHaveCount(0);
+  for (const hidden of ['Plans', 'Stock', 'Oil analysis', 'People', 'Site settings'])
+    await expect(nav.getByRole('link', { name: hidden, exact: true })).toHaveCount(0);
   await expect(nav.getByRole('link', { name: 'PPE check' })).toBeVisible();
 });

@@ -30,7 +30,11 @@ let workOrderId: string | null = null;
 
 test('a technician applies and verifies a lockout', async ({ page }) => {
   await signIn(page, 'tech@alder-row.example');
-  const machines = (await (await page.request.get('/api/safety/machines')).json()) as { id: string; code: string; procedures: { approvedVersion: number | null }[] }[];
+  const machines = (await (await page.request.get('/api/safety/machines')).json()) as {
+    id: string;
+    code: string;
+    procedures: { approvedVersion: number | null }[];
+  }[];
   const c2 = machines.find((m) => m.code === 'C2');
   expect(c2?.procedures[0]?.approvedVersion, 'the demo seed gives C2 an approved procedure').toBeTruthy();
 
@@ -198,7 +202,10 @@ test('the safety officer filters the audit, verifies the chain and exports CSV a
   await expect(table.getByText(/^C2: area checked, people clear, affected employees told; removed C2-E1 lock E2E-1/)).toBeVisible();
 
   // The correction form opens as a dialog over the table, not below it.
-  await table.getByRole('button', { name: /^Add correction/ }).first().click();
+  await table
+    .getByRole('button', { name: /^Add correction/ })
+    .first()
+    .click();
   const correction = page.getByRole('dialog', { name: /^Add a correction to #\d+/ });
   await expect(correction).toBeVisible();
   await expect(correction.getByRole('button', { name: 'Sign: correction' })).toBeDisabled();
@@ -270,7 +277,10 @@ test('the safety screens read well and pass the accessibility scan', async ({ pa
   // Each row of "Safety work due" opens the place where that work is done, prefilled.
   await page.goto('/safety');
   const due = page.getByRole('table', { name: 'Safety work due' });
-  await due.getByRole('link', { name: /^Retrain .* on C1/ }).first().click();
+  await due
+    .getByRole('link', { name: /^Retrain .* on C1/ })
+    .first()
+    .click();
   await expect(page).toHaveURL(/\/safety\/records\?train=[^&]+&procedure=/);
   const training = page.getByRole('form', { name: 'Record training' });
   await expect(training).toBeVisible();
@@ -309,15 +319,26 @@ test('the safety screens read well and pass the accessibility scan', async ({ pa
   await expect(page.getByRole('link', { name: /v1 superseded/i })).toBeVisible();
 
   // The lockout page on a phone: the technician at the machine.
-  const phone = await page.context().browser()!.newContext({ viewport: { width: 390, height: 844 }, hasTouch: true });
+  const phone = await page
+    .context()
+    .browser()!
+    .newContext({ viewport: { width: 390, height: 844 }, hasTouch: true });
   const mobile = await phone.newPage();
   await signIn(mobile, 'tech@alder-row.example');
   await mobile.goto('/safety/lockouts');
-  await mobile.getByRole('link', { name: /^H1 · Hydraulic unit/ }).first().tap();
+  await mobile
+    .getByRole('link', { name: /^H1 · Hydraulic unit/ })
+    .first()
+    .tap();
   await expect(mobile.getByText('Locked out: do not operate')).toBeVisible();
   await expectAccessible(mobile, 'lockout on a phone');
   await snap(mobile, 'safety-lockout-phone');
   await phone.close();
-  const placard = await page.request.get(await page.getByRole('link', { name: 'Print placard (PDF)' }).getAttribute('href').then((h) => h!));
+  const placard = await page.request.get(
+    await page
+      .getByRole('link', { name: 'Print placard (PDF)' })
+      .getAttribute('href')
+      .then((h) => h!),
+  );
   expect(placard.headers()['content-type']).toBe('application/pdf');
 });

@@ -64,7 +64,9 @@ test.describe('station page on a tablet', () => {
     await page.getByLabel('Dimension 2 measured in mm').fill('50.26');
     await page.getByLabel('Dimension 3 measured in mm').fill('19.98');
     await page.getByRole('button', { name: 'Record the coupon' }).tap();
-    await expect(page.getByRole('status').filter({ hasText: 'Out of tolerance — consider a consumable change' })).toContainText('Largest deviation 0.26 mm against ±0.2 mm');
+    await expect(page.getByRole('status').filter({ hasText: 'Out of tolerance — consider a consumable change' })).toContainText(
+      'Largest deviation 0.26 mm against ±0.2 mm',
+    );
     await expect(torch.getByRole('alert').filter({ hasText: 'Cut quality out of tolerance' })).toBeVisible();
     await expectAccessible(page, 'station after a failed coupon');
   });
@@ -81,7 +83,11 @@ test.describe('station page on a tablet', () => {
     await page.getByLabel('P1-T · Arc hours (h)').fill('99999');
     await page.getByRole('button', { name: 'Record 2 readings' }).tap();
     await expect(page.getByRole('status').filter({ hasText: 'Nothing recorded.' })).toBeVisible();
-    await expect(page.getByRole('alert').filter({ hasText: `${(last - 10).toLocaleString('en-US')} starts is lower than the reading before it (${last.toLocaleString('en-US')} starts` })).toBeVisible();
+    await expect(
+      page
+        .getByRole('alert')
+        .filter({ hasText: `${(last - 10).toLocaleString('en-US')} starts is lower than the reading before it (${last.toLocaleString('en-US')} starts` }),
+    ).toBeVisible();
     await starts.fill(String(last + 25));
     await page.getByRole('button', { name: 'Record 2 readings' }).tap();
     await expect(page.getByRole('status').filter({ hasText: 'Recorded 2 readings.' })).toBeVisible();
@@ -102,7 +108,16 @@ test.describe('station page on a tablet', () => {
     await page.route('**/api/stations/P1', async (route) => {
       const res = await route.fetch();
       const body = await res.json();
-      const tool = (id: string, hits: number) => ({ id, code: `T-${id}`, name: `Round ${id}`, stationSize: 'B', hitsSince: hits, interval: 10_000, fraction: hits / 10_000, due: hits >= 10_000 });
+      const tool = (id: string, hits: number) => ({
+        id,
+        code: `T-${id}`,
+        name: `Round ${id}`,
+        stationSize: 'B',
+        hitsSince: hits,
+        interval: 10_000,
+        fraction: hits / 10_000,
+        due: hits >= 10_000,
+      });
       body.tools = [tool('ok', 5_000), tool('due', 11_900), tool('over', 12_000)];
       await route.fulfill({ response: res, json: body });
     });
@@ -124,7 +139,15 @@ test.describe('station page on a tablet', () => {
     await page.route('**/api/stations/C1', async (route) => {
       const res = await route.fetch();
       const body = await res.json();
-      body.lockouts = [{ id: '00000000-0000-4000-8000-000000000001', machineCode: 'C1', state: 'locked', appliedAt: new Date().toISOString(), reason: 'Replace the clamp cylinder' }];
+      body.lockouts = [
+        {
+          id: '00000000-0000-4000-8000-000000000001',
+          machineCode: 'C1',
+          state: 'locked',
+          appliedAt: new Date().toISOString(),
+          reason: 'Replace the clamp cylinder',
+        },
+      ];
       await route.fulfill({ response: res, json: body });
     });
     await page.goto('/station/C1');
@@ -191,7 +214,10 @@ test('a counter CSV with one bad row is reported with its line and nothing is wr
 
   // The server refuses the same file too, and writes none of its good rows.
   const { token } = await (await page.request.get('/api/auth/csrf')).json();
-  const res = await page.request.post('/api/counter-import', { headers: { 'X-CSRF-Token': token }, multipart: { file: { name: 'counters.csv', mimeType: 'text/csv', buffer: Buffer.from(csv) } } });
+  const res = await page.request.post('/api/counter-import', {
+    headers: { 'X-CSRF-Token': token },
+    multipart: { file: { name: 'counters.csv', mimeType: 'text/csv', buffer: Buffer.from(csv) } },
+  });
   expect(res.status()).toBe(400);
   expect((await res.json()).message).toMatch(/^1 problem in the file; nothing was imported/);
   expect(await latest(page)).toBe(before);

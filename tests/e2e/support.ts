@@ -32,7 +32,15 @@ export async function expectAccessible(page: Page, label: string) {
     return axe.run(document, { runOnly: { type: 'tag', values: ['wcag2a', 'wcag2aa', 'wcag21a', 'wcag21aa', 'wcag22aa'] } });
   });
   const bad = result.violations.filter((v) => v.impact === 'serious' || v.impact === 'critical');
-  expect(bad.map((v) => `${label}: ${v.id} (${v.impact}) ${v.help} at ${v.nodes.map((n) => n.target.join(' ')).slice(0, 3).join(', ')}`)).toEqual([]);
+  expect(
+    bad.map(
+      (v) =>
+        `${label}: ${v.id} (${v.impact}) ${v.help} at ${v.nodes
+          .map((n) => n.target.join(' '))
+          .slice(0, 3)
+          .join(', ')}`,
+    ),
+  ).toEqual([]);
 }
 
 export async function snap(page: Page, name: string) {

@@ -205,7 +205,10 @@ test('calling off needs a reason, and a failed check leads to follow-up work on 
   await expect(dialog).toBeHidden();
   await expect(page.getByText('Waiting', { exact: true }).first()).toBeVisible();
 
-  await page.getByRole('radiogroup', { name: /^Answer for Guard stops the beam/ }).getByText('Not OK', { exact: true }).click();
+  await page
+    .getByRole('radiogroup', { name: /^Answer for Guard stops the beam/ })
+    .getByText('Not OK', { exact: true })
+    .click();
   await expect(page.getByText('Saved. 2 lines still to answer.')).toBeVisible();
   await page.getByRole('link', { name: 'Raise follow-up work' }).click();
   const form = page.getByRole('form', { name: 'Report work' });

@@ -10,9 +10,21 @@ beforeAll(async () => {
   shop = await makeShop(t.em(), 'activity');
   const em = t.em();
   const at = (minutes: number) => new Date(Date.UTC(2026, 10, 2, 8, minutes));
-  recordActivity(em, { orgId: shop.orgId, userId: shop.users.technician.userId }, 'work-order.closed', { type: 'WorkOrder', id: 'w1' }, { number: 1042 }).createdAt = at(1);
+  recordActivity(
+    em,
+    { orgId: shop.orgId, userId: shop.users.technician.userId },
+    'work-order.closed',
+    { type: 'WorkOrder', id: 'w1' },
+    { number: 1042 },
+  ).createdAt = at(1);
   recordActivity(em, { orgId: shop.orgId, userId: null }, 'work-order.raised', { type: 'WorkOrder', id: 'w2' }, { number: 1043 }).createdAt = at(2);
-  recordActivity(em, { orgId: shop.orgId, userId: shop.users.admin.userId }, 'plan.updated', { type: 'MaintenancePlan', id: 'p1' }, { title: 'Renew filter' }).createdAt = at(3);
+  recordActivity(
+    em,
+    { orgId: shop.orgId, userId: shop.users.admin.userId },
+    'plan.updated',
+    { type: 'MaintenancePlan', id: 'p1' },
+    { title: 'Renew filter' },
+  ).createdAt = at(3);
   await em.flush();
 });
 afterAll(() => t.close());

@@ -13,7 +13,10 @@ beforeAll(async () => {
 afterAll(() => t.close());
 
 const sid = (res: supertest.Response) =>
-  ([] as string[]).concat(res.headers['set-cookie'] ?? []).find((c) => c.startsWith(`${SESSION_COOKIE}=`))?.split(';')[0];
+  ([] as string[])
+    .concat(res.headers['set-cookie'] ?? [])
+    .find((c) => c.startsWith(`${SESSION_COOKIE}=`))
+    ?.split(';')[0];
 
 describe('sign-in', () => {
   it('signs in, answers /api/me with user, role and shop, and signs out', async () => {
@@ -31,7 +34,11 @@ describe('sign-in', () => {
     const before = await agent.get('/api/auth/csrf').expect(200);
     const preLoginSid = sid(before);
     expect(preLoginSid).toBeTruthy();
-    const login = await agent.post('/api/auth/login').set('X-CSRF-Token', before.body.token).send({ email: shop.users.operator.email, password: 'kerfbook-demo' }).expect(200);
+    const login = await agent
+      .post('/api/auth/login')
+      .set('X-CSRF-Token', before.body.token)
+      .send({ email: shop.users.operator.email, password: 'kerfbook-demo' })
+      .expect(200);
     const postLoginSid = sid(login);
     expect(postLoginSid).toBeTruthy();
     expect(postLoginSid).not.toBe(preLoginSid);
@@ -78,7 +85,12 @@ describe('sign-in', () => {
   it('rate-limits sign-ins per address', async () => {
     const limited = await makeTestApp({ LOGIN_LIMIT_PER_ADDRESS: '2' });
     const { agent, csrf } = await anonymous(limited.app);
-    for (let i = 0; i < 2; i++) await agent.post('/api/auth/login').set('X-CSRF-Token', csrf).send({ email: `nobody${i}@x.example`, password: 'x' }).expect(401);
+    for (let i = 0; i < 2; i++)
+      await agent
+        .post('/api/auth/login')
+        .set('X-CSRF-Token', csrf)
+        .send({ email: `nobody${i}@x.example`, password: 'x' })
+        .expect(401);
     const res = await agent.post('/api/auth/login').set('X-CSRF-Token', csrf).send({ email: 'other@x.example', password: 'x' });
     expect(res.status).toBe(429);
     await limited.close();

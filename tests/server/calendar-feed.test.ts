@@ -20,7 +20,11 @@ beforeAll(async () => {
   admin = await signIn(t.app, a.users.admin.email);
   tech = await signIn(t.app, a.users.technician.email);
   const unit = await makeMachine(scoped(t.em(), a.orgId), a.orgId, 'FX1', 'fume-extractor');
-  const plan = await post(admin, '/plans', planBody(unit, { title: 'Empty dust bin', estimatedMinutes: 20, triggers: [{ kind: 'calendar-floating', every: 1, unit: 'week' }] })).expect(201);
+  const plan = await post(
+    admin,
+    '/plans',
+    planBody(unit, { title: 'Empty dust bin', estimatedMinutes: 20, triggers: [{ kind: 'calendar-floating', every: 1, unit: 'week' }] }),
+  ).expect(201);
   await orm.em.fork().execute(`update maintenance_plan set started_at = ?, recheck_at = null where id = ?`, [new Date('2026-04-01T12:00:00Z'), plan.body.id]);
   await runDueEngine(orm, new Date('2026-04-08T13:00:00Z'), { appUrl: t.config.APP_URL, orgId: a.orgId });
 });

@@ -21,7 +21,18 @@ beforeAll(async () => {
   torch = (await post(tech, '/machines', { code: 'C1-T', name: 'Torch', kind: 'torch', parentId: cell }).expect(201)).body.id;
   await post(tech, '/meters', { machineId: torch, code: 'arc-starts', name: 'Arc starts', kind: 'count', unit: 'starts' }).expect(201);
   await post(tech, '/meters', { machineId: torch, code: 'arc-hours', name: 'Arc hours', kind: 'running-time', unit: 'h' }).expect(201);
-  electrode = (await post(tech, '/part-types', { partNumber: 'EL-9', name: 'Electrode', category: 'electrode', lifeUnit: 'starts', expectedLife: 1000, unitCost: 15, leadTimeDays: 5, openingStock: 50 }).expect(201)).body.id;
+  electrode = (
+    await post(tech, '/part-types', {
+      partNumber: 'EL-9',
+      name: 'Electrode',
+      category: 'electrode',
+      lifeUnit: 'starts',
+      expectedLife: 1000,
+      unitCost: 15,
+      leadTimeDays: 5,
+      openingStock: 50,
+    }).expect(201)
+  ).body.id;
   // Lives in starts and arc hours, and why each part came out.
   const plan: [number, number, string][] = [
     [900, 11, 'normal-wear'],
@@ -34,14 +45,32 @@ beforeAll(async () => {
   let starts = 5000;
   let hours = 60;
   let h = 100;
-  await post(tech, '/consumable-changes', { torchId: torch, categories: ['electrode'], partTypeIds: { electrode }, reason: 'preventive', startsReading: starts, arcHoursReading: hours, changedAt: hoursAgo(h--) }).expect(201);
+  await post(tech, '/consumable-changes', {
+    torchId: torch,
+    categories: ['electrode'],
+    partTypeIds: { electrode },
+    reason: 'preventive',
+    startsReading: starts,
+    arcHoursReading: hours,
+    changedAt: hoursAgo(h--),
+  }).expect(201);
   for (const [life, lifeHours, reason] of plan) {
     starts += life;
     hours += lifeHours;
-    await post(tech, '/consumable-changes', { torchId: torch, categories: ['electrode'], reason, startsReading: starts, arcHoursReading: hours, changedAt: hoursAgo(h--) }).expect(201);
+    await post(tech, '/consumable-changes', {
+      torchId: torch,
+      categories: ['electrode'],
+      reason,
+      startsReading: starts,
+      arcHoursReading: hours,
+      changedAt: hoursAgo(h--),
+    }).expect(201);
   }
   // The part in the torch now has 300 starts on it: a suspension too.
-  await post(tech, `/meters/${(await tech.agent.get(`/api/stations/C1`)).body.torches[0].startsMeter.id}/readings`, { value: starts + 300, readAt: hoursAgo(1) }).expect(201);
+  await post(tech, `/meters/${(await tech.agent.get(`/api/stations/C1`)).body.torches[0].startsMeter.id}/readings`, {
+    value: starts + 300,
+    readAt: hoursAgo(1),
+  }).expect(201);
 });
 afterAll(() => t.close());
 

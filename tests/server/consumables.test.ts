@@ -45,8 +45,30 @@ beforeAll(async () => {
   torch = (await post(tech, '/machines', { code: 'C1-T', name: 'Torch', kind: 'torch', parentId: cell }).expect(201)).body.id;
   startsMeter = (await post(tech, '/meters', { machineId: torch, code: 'arc-starts', name: 'Arc starts', kind: 'count', unit: 'starts' }).expect(201)).body.id;
   hoursMeter = (await post(tech, '/meters', { machineId: torch, code: 'arc-hours', name: 'Arc hours', kind: 'running-time', unit: 'h' }).expect(201)).body.id;
-  electrode = (await post(tech, '/part-types', { partNumber: 'EL-1', name: 'Electrode', category: 'electrode', lifeUnit: 'starts', expectedLife: 1000, unitCost: 12, leadTimeDays: 5, openingStock: 10 }).expect(201)).body.id;
-  nozzle = (await post(tech, '/part-types', { partNumber: 'NZ-1', name: 'Nozzle', category: 'nozzle', lifeUnit: 'starts', expectedLife: 800, unitCost: 9, leadTimeDays: 5, openingStock: 10 }).expect(201)).body.id;
+  electrode = (
+    await post(tech, '/part-types', {
+      partNumber: 'EL-1',
+      name: 'Electrode',
+      category: 'electrode',
+      lifeUnit: 'starts',
+      expectedLife: 1000,
+      unitCost: 12,
+      leadTimeDays: 5,
+      openingStock: 10,
+    }).expect(201)
+  ).body.id;
+  nozzle = (
+    await post(tech, '/part-types', {
+      partNumber: 'NZ-1',
+      name: 'Nozzle',
+      category: 'nozzle',
+      lifeUnit: 'starts',
+      expectedLife: 800,
+      unitCost: 9,
+      leadTimeDays: 5,
+      openingStock: 10,
+    }).expect(201)
+  ).body.id;
   await post(op, `/meters/${startsMeter}/readings`, { value: 1000, readAt: hoursAgo(48) }).expect(201);
   await post(op, `/meters/${hoursMeter}/readings`, { value: 10, readAt: hoursAgo(48) }).expect(201);
 });
@@ -54,7 +76,13 @@ afterAll(() => t.close());
 
 describe('consumable changes at the station', () => {
   it('installs the first set, taking the parts out of stock', async () => {
-    const res = await post(op, '/consumable-changes', { torchId: torch, categories: ['electrode', 'nozzle'], partTypeIds: { electrode, nozzle }, reason: 'preventive', changedAt: hoursAgo(47) }).expect(201);
+    const res = await post(op, '/consumable-changes', {
+      torchId: torch,
+      categories: ['electrode', 'nozzle'],
+      partTypeIds: { electrode, nozzle },
+      reason: 'preventive',
+      changedAt: hoursAgo(47),
+    }).expect(201);
     expect(res.body).toMatchObject({ closed: 0, opened: 2 });
     const s = await station();
     expect(s.torches).toHaveLength(1);
@@ -74,12 +102,23 @@ describe('consumable changes at the station', () => {
 
   it('logs a change in one go: closes the old parts with their life, opens new ones, takes stock', async () => {
     const before = await counts(a.orgId);
-    const res = await post(op, '/consumable-changes', { torchId: torch, categories: ['electrode', 'nozzle'], reason: 'normal-wear', pitDepthMm: 1.1 }).expect(201);
+    const res = await post(op, '/consumable-changes', { torchId: torch, categories: ['electrode', 'nozzle'], reason: 'normal-wear', pitDepthMm: 1.1 }).expect(
+      201,
+    );
     expect(res.body).toMatchObject({ closed: 2, opened: 2 });
     const after = await counts(a.orgId);
-    expect(after).toMatchObject({ changes: before.changes + 1, installs: before.installs + 2, open: before.open, moves: before.moves + 2, readings: before.readings });
+    expect(after).toMatchObject({
+      changes: before.changes + 1,
+      installs: before.installs + 2,
+      open: before.open,
+      moves: before.moves + 2,
+      readings: before.readings,
+    });
     const s = await station();
-    expect(s.torches[0].installed.map((i: { startsSince: number; partType: { onHand: number } }) => [i.startsSince, i.partType.onHand])).toEqual([[0, 8], [0, 8]]);
+    expect(s.torches[0].installed.map((i: { startsSince: number; partType: { onHand: number } }) => [i.startsSince, i.partType.onHand])).toEqual([
+      [0, 8],
+      [0, 8],
+    ]);
     const change = s.recentChanges[0];
     expect(change).toMatchObject({ reason: 'normal-wear', startsReading: 1600, arcHoursReading: 14.5, pitDepthMm: 1.1, by: `operator of ${a.slug}` });
     // Life = counter at removal − counter at installation: 1600 − 1000 starts, 14.5 − 10 h.
@@ -97,7 +136,13 @@ describe('consumable changes at the station', () => {
     const neg = await post(op, '/consumable-changes', { torchId: torch, categories: ['electrode'], reason: 'failed-start', startsReading: -3 }).expect(400);
     expect(neg.body.fields[0]).toEqual({ path: 'startsReading', message: 'The arc start count cannot be negative' });
     expect(await counts(a.orgId)).toEqual(before);
-    await post(op, '/consumable-changes', { torchId: torch, categories: ['electrode'], reason: 'failed-start', startsReading: 1750, arcHoursReading: 15 }).expect(201);
+    await post(op, '/consumable-changes', {
+      torchId: torch,
+      categories: ['electrode'],
+      reason: 'failed-start',
+      startsReading: 1750,
+      arcHoursReading: 15,
+    }).expect(201);
     const after = await counts(a.orgId);
     expect(after.readings).toBe(before.readings + 2);
     const s = await station();
@@ -107,7 +152,12 @@ describe('consumable changes at the station', () => {
   it('refuses when stock runs out, leaving the typed counter and everything else unwritten', async () => {
     await post(tech, '/stock-moves', { partTypeId: nozzle, kind: 'adjusted', quantity: -8, reason: 'Stocktake: none left' }).expect(201);
     const before = await counts(a.orgId);
-    const res = await post(op, '/consumable-changes', { torchId: torch, categories: ['electrode', 'nozzle'], reason: 'normal-wear', startsReading: 1900 }).expect(400);
+    const res = await post(op, '/consumable-changes', {
+      torchId: torch,
+      categories: ['electrode', 'nozzle'],
+      reason: 'normal-wear',
+      startsReading: 1900,
+    }).expect(400);
     expect(res.body.message).toBe('Not enough Nozzle (NZ-1) in stock: 0 pcs on hand, 1 needed');
     expect(await counts(a.orgId)).toEqual(before);
     // Parts from outside the shop's stock can still be logged.
@@ -116,7 +166,12 @@ describe('consumable changes at the station', () => {
   });
 
   it('refuses parts of the wrong kind and a pit depth without an electrode', async () => {
-    const wrong = await post(op, '/consumable-changes', { torchId: torch, categories: ['electrode'], partTypeIds: { electrode: nozzle }, reason: 'normal-wear' }).expect(400);
+    const wrong = await post(op, '/consumable-changes', {
+      torchId: torch,
+      categories: ['electrode'],
+      partTypeIds: { electrode: nozzle },
+      reason: 'normal-wear',
+    }).expect(400);
     expect(wrong.body.fields[0]).toEqual({ path: 'partTypeIds.electrode', message: 'NZ-1 is a nozzle, not an electrode' });
     const pit = await post(op, '/consumable-changes', { torchId: torch, categories: ['nozzle'], reason: 'normal-wear', pitDepthMm: 0.8 }).expect(400);
     expect(pit.body.fields[0]).toEqual({ path: 'pitDepthMm', message: 'A pit depth belongs to an electrode change' });
@@ -188,16 +243,42 @@ describe('a counter reset or replaced at a change', () => {
     const t9 = (await post(tech, '/machines', { code: 'C9-T', name: 'Torch', kind: 'torch', parentId: cell }).expect(201)).body.id;
     const m9 = (await post(tech, '/meters', { machineId: t9, code: 'arc-starts', name: 'Arc starts', kind: 'count', unit: 'starts' }).expect(201)).body.id;
     await post(op, `/meters/${m9}/readings`, { value: 250_000, readAt: hoursAgo(30) }).expect(201);
-    await post(op, '/consumable-changes', { torchId: t9, categories: ['electrode'], partTypeIds: { electrode }, reason: 'preventive', changedAt: hoursAgo(29), takeFromStock: false }).expect(201);
+    await post(op, '/consumable-changes', {
+      torchId: t9,
+      categories: ['electrode'],
+      partTypeIds: { electrode },
+      reason: 'preventive',
+      changedAt: hoursAgo(29),
+      takeFromStock: false,
+    }).expect(201);
     await post(op, `/meters/${m9}/readings`, { value: 250_400, readAt: hoursAgo(20) }).expect(201);
 
-    const refused = await post(op, '/consumable-changes', { torchId: t9, categories: ['electrode'], reason: 'normal-wear', startsReading: 30, takeFromStock: false }).expect(400);
+    const refused = await post(op, '/consumable-changes', {
+      torchId: t9,
+      categories: ['electrode'],
+      reason: 'normal-wear',
+      startsReading: 30,
+      takeFromStock: false,
+    }).expect(400);
     expect(refused.body.fields[0].path).toBe('startsReading');
     expect(refused.body.message).toMatch(/30 starts is lower than the reading before it \(250,400 starts/);
-    const empty = await post(op, '/consumable-changes', { torchId: t9, categories: ['electrode'], reason: 'normal-wear', startsReset: true, takeFromStock: false }).expect(400);
+    const empty = await post(op, '/consumable-changes', {
+      torchId: t9,
+      categories: ['electrode'],
+      reason: 'normal-wear',
+      startsReset: true,
+      takeFromStock: false,
+    }).expect(400);
     expect(empty.body.fields[0].path).toBe('startsReading');
 
-    await post(op, '/consumable-changes', { torchId: t9, categories: ['electrode'], reason: 'normal-wear', startsReading: 30, startsReset: true, takeFromStock: false }).expect(201);
+    await post(op, '/consumable-changes', {
+      torchId: t9,
+      categories: ['electrode'],
+      reason: 'normal-wear',
+      startsReading: 30,
+      startsReset: true,
+      takeFromStock: false,
+    }).expect(201);
     const readings = (await op.agent.get(`/api/meters/${m9}/readings?dir=desc`).expect(200)).body.rows;
     expect(readings[0]).toMatchObject({ value: 30, isReset: true, source: 'consumable-change' });
     // Life: 400 starts before the reset plus 30 after it.

@@ -13,7 +13,11 @@ let shop: TestShop;
 let tech: SignedIn;
 
 const upload = (url: string, csv: Buffer) =>
-  tech.agent.post(`/api${url}`).set('X-CSRF-Token', tech.csrf).set('Accept', 'application/json').attach('file', csv, { filename: 'counters.csv', contentType: 'text/csv' });
+  tech.agent
+    .post(`/api${url}`)
+    .set('X-CSRF-Token', tech.csrf)
+    .set('Accept', 'application/json')
+    .attach('file', csv, { filename: 'counters.csv', contentType: 'text/csv' });
 
 async function readingCount() {
   const em = t.em();
@@ -54,13 +58,29 @@ describe('counter import of a large file', () => {
     const res = await upload('/counter-import/preview', Buffer.from(lines.join('\r\n'))).expect(200);
     expect(res.body).toMatchObject({ rows: rows + 1, toAdd: rows, duplicates: 0, errorCount: 1 });
     expect(res.body.errors).toEqual([{ line: rows + 2, column: null, message: 'Not valid CSV: Quoted field unterminated' }]);
-    expect(res.body.meters).toEqual([{ machineCode: 'L1-T', meterCode: 'arc-starts', unit: 'starts', rows, from: '2024-01-01T00:00:00.000Z', to: new Date(Date.UTC(2024, 0, 1) + (rows - 1) * 60_000).toISOString() }]);
+    expect(res.body.meters).toEqual([
+      {
+        machineCode: 'L1-T',
+        meterCode: 'arc-starts',
+        unit: 'starts',
+        rows,
+        from: '2024-01-01T00:00:00.000Z',
+        to: new Date(Date.UTC(2024, 0, 1) + (rows - 1) * 60_000).toISOString(),
+      },
+    ]);
   });
 
   it('refuses the whole file for one backwards count in the middle, naming its line', { timeout: LARGE_TIMEOUT }, async () => {
     const res = await upload('/counter-import', largeCsv(BAD_LINE)).expect(400);
-    expect(res.body.message).toMatch(/^1 problem in the file; nothing was imported\. First: line 100001: L1-T\/arc-starts: 3 starts is lower than the reading before it/);
-    expect(res.body.fields).toEqual([{ path: `line ${BAD_LINE} value`, message: expect.stringMatching(/^L1-T\/arc-starts: 3 starts is lower than the reading before it \(400,992 starts on /) }]);
+    expect(res.body.message).toMatch(
+      /^1 problem in the file; nothing was imported\. First: line 100001: L1-T\/arc-starts: 3 starts is lower than the reading before it/,
+    );
+    expect(res.body.fields).toEqual([
+      {
+        path: `line ${BAD_LINE} value`,
+        message: expect.stringMatching(/^L1-T\/arc-starts: 3 starts is lower than the reading before it \(400,992 starts on /),
+      },
+    ]);
     expect(await readingCount()).toBe(0);
   });
 

@@ -11,7 +11,11 @@ let otherTech: SignedIn;
 let startsId: string;
 
 const upload = (s: SignedIn, url: string, csv: string | Buffer, accept = 'application/json') =>
-  s.agent.post(`/api${url}`).set('X-CSRF-Token', s.csrf).set('Accept', accept).attach('file', Buffer.isBuffer(csv) ? csv : Buffer.from(csv), { filename: 'counters.csv', contentType: 'text/csv' });
+  s.agent
+    .post(`/api${url}`)
+    .set('X-CSRF-Token', s.csrf)
+    .set('Accept', accept)
+    .attach('file', Buffer.isBuffer(csv) ? csv : Buffer.from(csv), { filename: 'counters.csv', contentType: 'text/csv' });
 
 async function readingCount(orgId: string) {
   const em = t.em();
@@ -57,7 +61,11 @@ describe('counter import', () => {
     const res = await upload(tech, '/counter-import/preview', GOOD).expect(200);
     expect(res.body).toMatchObject({ rows: 7, toAdd: 7, duplicates: 0, errorCount: 0 });
     expect(res.body.columns.map((c: { column: string }) => c.column)).toEqual(['machine_code', 'meter_code', 'read_at', 'value', 'reset']);
-    expect(res.body.meters.map((m: { meterCode: string; rows: number }) => `${m.meterCode}:${m.rows}`).sort()).toEqual(['arc-hours:1', 'arc-starts:4', 'filter-dp:2']);
+    expect(res.body.meters.map((m: { meterCode: string; rows: number }) => `${m.meterCode}:${m.rows}`).sort()).toEqual([
+      'arc-hours:1',
+      'arc-starts:4',
+      'filter-dp:2',
+    ]);
     // 06:00 wall clock in Chicago in February (CST, UTC−6) is 12:00 UTC.
     expect(res.body.sample.find((r: { meterCode: string }) => r.meterCode === 'arc-hours').readAt).toBe('2026-02-02T12:00:00.000Z');
     expect(await readingCount(a.orgId)).toBe(0);
@@ -78,7 +86,9 @@ describe('counter import', () => {
     const missing = await upload(tech, '/counter-import/preview', 'machine_code,meter_code,value\nC1-T,arc-starts,5\n').expect(400);
     expect(missing.body.message).toMatch(/Missing column “read_at”/);
     expect(missing.body.fields[0].path).toBe('file');
-    const extra = await upload(tech, '/counter-import', 'machine_code,meter_code,read_at,value,operator\nC1-T,arc-starts,2026-02-06T06:00:00Z,99,x\n').expect(400);
+    const extra = await upload(tech, '/counter-import', 'machine_code,meter_code,read_at,value,operator\nC1-T,arc-starts,2026-02-06T06:00:00Z,99,x\n').expect(
+      400,
+    );
     expect(extra.body.message).toMatch(/Unknown column “operator”/);
     const empty = await upload(tech, '/counter-import/preview', '').expect(400);
     expect(empty.body.message).toMatch(/empty|Choose a CSV/);
@@ -98,7 +108,15 @@ describe('counter import', () => {
     ].join('\n');
     const before = await readingCount(a.orgId);
     const preview = await upload(tech, '/counter-import/preview', csv).expect(200);
-    expect(preview.body.errors.map((e: { line: number; column: string }) => `${e.line}:${e.column}`)).toEqual(['3:read_at', '4:unit', '5:machine_code', '6:value', '7:value', '8:reset', '9:meter_code']);
+    expect(preview.body.errors.map((e: { line: number; column: string }) => `${e.line}:${e.column}`)).toEqual([
+      '3:read_at',
+      '4:unit',
+      '5:machine_code',
+      '6:value',
+      '7:value',
+      '8:reset',
+      '9:meter_code',
+    ]);
     expect(preview.body.errors[0].message).toBe('“14/03/2026” is not a date-time; write e.g. 2026-03-14T07:30:00Z or 2026-03-14 07:30');
     expect(preview.body.errors[1].message).toBe('Unit “starts” does not match meter C1-T/arc-hours, which counts in h');
     expect(preview.body.errors[3].message).toMatch(/4,000 starts is lower than the reading before it \(5,000 starts/);
@@ -123,12 +141,18 @@ describe('counter import', () => {
   });
 
   it('streams progress lines and the outcome as NDJSON when asked', async () => {
-    const res = await upload(tech, '/counter-import/preview', GOOD, 'application/x-ndjson').buffer(true).parse((r, cb) => {
-      let text = '';
-      r.on('data', (c: Buffer) => (text += c.toString()));
-      r.on('end', () => cb(null, text));
-    }).expect(200);
-    const lines = (res.body as string).trim().split('\n').map((l) => JSON.parse(l));
+    const res = await upload(tech, '/counter-import/preview', GOOD, 'application/x-ndjson')
+      .buffer(true)
+      .parse((r, cb) => {
+        let text = '';
+        r.on('data', (c: Buffer) => (text += c.toString()));
+        r.on('end', () => cb(null, text));
+      })
+      .expect(200);
+    const lines = (res.body as string)
+      .trim()
+      .split('\n')
+      .map((l) => JSON.parse(l));
     expect(lines.some((l) => l.type === 'progress')).toBe(true);
     expect(lines.at(-1)).toMatchObject({ type: 'preview', preview: { rows: 7, duplicates: 7, toAdd: 0 } });
   });

@@ -22,9 +22,18 @@ beforeAll(async () => {
   tech = await signIn(t.app, a.users.technician.email);
   op = await signIn(t.app, a.users.operator.email);
   torch = (await post(tech, '/machines', { code: 'P1-T', name: 'Table torch', kind: 'torch' }).expect(201)).body.id;
-  const el = (await post(tech, '/part-types', { partNumber: 'EL-80', name: 'Electrode 80 A', category: 'electrode', leadTimeDays: 5, openingStock: 5 }).expect(201)).body.id;
-  const nz = (await post(tech, '/part-types', { partNumber: 'NZ-80', name: 'Nozzle 80 A', category: 'nozzle', leadTimeDays: 5, openingStock: 5 }).expect(201)).body.id;
-  await post(op, '/consumable-changes', { torchId: torch, categories: ['electrode', 'nozzle'], partTypeIds: { electrode: el, nozzle: nz }, reason: 'preventive', changedAt: minutesAgo(120) }).expect(201);
+  const el = (
+    await post(tech, '/part-types', { partNumber: 'EL-80', name: 'Electrode 80 A', category: 'electrode', leadTimeDays: 5, openingStock: 5 }).expect(201)
+  ).body.id;
+  const nz = (await post(tech, '/part-types', { partNumber: 'NZ-80', name: 'Nozzle 80 A', category: 'nozzle', leadTimeDays: 5, openingStock: 5 }).expect(201))
+    .body.id;
+  await post(op, '/consumable-changes', {
+    torchId: torch,
+    categories: ['electrode', 'nozzle'],
+    partTypeIds: { electrode: el, nozzle: nz },
+    reason: 'preventive',
+    changedAt: minutesAgo(120),
+  }).expect(201);
 });
 afterAll(() => t.close());
 
@@ -33,7 +42,10 @@ describe('cut-quality checks', () => {
     // Symmetric bilateral tolerance: |measured − nominal| ≤ t passes (ISO 286-1 limits of size).
     const res = await post(op, '/cut-checks', { torchId: torch, checkedAt: minutesAgo(90), dimensions: coupon(100.2, 49.85) }).expect(201);
     expect(res.body).toMatchObject({ passed: true, toleranceMm: 0.2, maxDeviationMm: 0.2, torchCode: 'P1-T' });
-    expect(res.body.dimensions.map((d: { deviationMm: number; within: boolean }) => [d.deviationMm, d.within])).toEqual([[0.2, true], [-0.15, true]]);
+    expect(res.body.dimensions.map((d: { deviationMm: number; within: boolean }) => [d.deviationMm, d.within])).toEqual([
+      [0.2, true],
+      [-0.15, true],
+    ]);
     expect(res.body.installedParts.map((p: { partNumber: string }) => p.partNumber).sort()).toEqual(['EL-80', 'NZ-80']);
     const station = (await op.agent.get('/api/stations/P1-T').expect(200)).body;
     expect(station.torches[0].suggestChange).toBe(false);

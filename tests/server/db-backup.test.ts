@@ -29,8 +29,17 @@ beforeAll(async () => {
   t = await makeTestApp();
   shop = await makeSafetyShop(t.app, t.em(), 'backup');
   await approvedProcedure(shop);
-  const req = await post(shop.s.safety, '/safety/ppe/requirements', { machineId: shop.machineId, task: 'Punching', items: ['safety-glasses'], otherItems: [], arcCurrentA: null, noise: [], cadence: 'shift' }).expect(201);
-  for (const who of [shop.s.operator, shop.s.technician]) await post(who, '/safety/ppe/checks', { requirementId: req.body.id, confirmed: ['safety-glasses'], password: PASSWORD }).expect(201);
+  const req = await post(shop.s.safety, '/safety/ppe/requirements', {
+    machineId: shop.machineId,
+    task: 'Punching',
+    items: ['safety-glasses'],
+    otherItems: [],
+    arcCurrentA: null,
+    noise: [],
+    cadence: 'shift',
+  }).expect(201);
+  for (const who of [shop.s.operator, shop.s.technician])
+    await post(who, '/safety/ppe/checks', { requirementId: req.body.id, confirmed: ['safety-glasses'], password: PASSWORD }).expect(201);
 });
 
 afterAll(async () => {
@@ -89,7 +98,9 @@ describe('backup and restore', () => {
     const app = new pg.Client({ connectionString: targetUrl });
     await app.connect();
     try {
-      await expect(app.query(`update safety_sign_off set note = 'x' where organization_id = $1`, [shop.orgId])).rejects.toThrow(/permission denied for table safety_sign_off/);
+      await expect(app.query(`update safety_sign_off set note = 'x' where organization_id = $1`, [shop.orgId])).rejects.toThrow(
+        /permission denied for table safety_sign_off/,
+      );
       await expect(app.query('alter table safety_sign_off disable trigger all')).rejects.toThrow(/must be owner of table safety_sign_off/);
     } finally {
       await app.end();

@@ -103,7 +103,9 @@ describe('the real server process (tsx server/index.ts)', () => {
       await su.query('lock table machine in access exclusive mode');
       const slow = get(s, '/machines').then((r) => r);
       for (let i = 0; ; i++) {
-        const waiting = await su.query(`select count(*)::int as n from pg_stat_activity where usename = 'kerfbook' and datname = current_database() and wait_event_type = 'Lock'`);
+        const waiting = await su.query(
+          `select count(*)::int as n from pg_stat_activity where usename = 'kerfbook' and datname = current_database() and wait_event_type = 'Lock'`,
+        );
         if (waiting.rows[0].n > 0) break;
         if (i > 400) throw new Error('the request never reached the locked table');
         await sleep(50);
@@ -111,7 +113,10 @@ describe('the real server process (tsx server/index.ts)', () => {
       server.proc.kill('SIGTERM');
       // New connections are refused while the old request is still running.
       for (let i = 0; ; i++) {
-        const refused = await fetch(`${server.url}/api/health`).then(() => false, () => true);
+        const refused = await fetch(`${server.url}/api/health`).then(
+          () => false,
+          () => true,
+        );
         if (refused) break;
         if (i > 200) throw new Error('the server kept accepting connections after SIGTERM');
         await sleep(50);

@@ -12,7 +12,15 @@ let app: pg.Client;
 beforeAll(async () => {
   t = await makeTestApp();
   shop = await makeSafetyShop(t.app, t.em(), 'roles');
-  const req = await post(shop.s.safety, '/safety/ppe/requirements', { machineId: shop.machineId, task: 'Punching', items: ['safety-glasses'], otherItems: [], arcCurrentA: null, noise: [], cadence: 'shift' }).expect(201);
+  const req = await post(shop.s.safety, '/safety/ppe/requirements', {
+    machineId: shop.machineId,
+    task: 'Punching',
+    items: ['safety-glasses'],
+    otherItems: [],
+    arcCurrentA: null,
+    noise: [],
+    cadence: 'shift',
+  }).expect(201);
   await post(shop.s.operator, '/safety/ppe/checks', { requirementId: req.body.id, confirmed: ['safety-glasses'], password: PASSWORD }).expect(201);
   app = await appRole();
 });
@@ -21,7 +29,8 @@ afterAll(async () => {
   await t.close();
 });
 
-const signOffRows = async () => (await app.query('select id, signer_name, hash from safety_sign_off where organization_id = $1 order by seq', [shop.orgId])).rows;
+const signOffRows = async () =>
+  (await app.query('select id, signer_name, hash from safety_sign_off where organization_id = $1 order by seq', [shop.orgId])).rows;
 
 describe('database roles', () => {
   it('the server connects as a role that is neither superuser nor owner of the safety tables', async () => {
@@ -38,9 +47,13 @@ describe('database roles', () => {
     await expect(app.query('alter table safety_sign_off disable trigger all')).rejects.toThrow(/must be owner of table safety_sign_off/);
     await expect(app.query('drop trigger safety_sign_off_no_change on safety_sign_off')).rejects.toThrow(/must be owner of (table|relation) safety_sign_off/);
     // Nor replace the trigger's function: it may create nothing in the schema at all.
-    await expect(app.query('create or replace function safety_sign_off_append_only() returns trigger language plpgsql as $$ begin return new; end $$')).rejects.toThrow(/permission denied for schema public/);
+    await expect(
+      app.query('create or replace function safety_sign_off_append_only() returns trigger language plpgsql as $$ begin return new; end $$'),
+    ).rejects.toThrow(/permission denied for schema public/);
     await expect(app.query('set session_replication_role = replica')).rejects.toThrow(/permission denied to set parameter "session_replication_role"/);
-    const triggers = await app.query(`select tgname, tgenabled from pg_trigger where tgrelid = 'safety_sign_off'::regclass and not tgisinternal order by tgname`);
+    const triggers = await app.query(
+      `select tgname, tgenabled from pg_trigger where tgrelid = 'safety_sign_off'::regclass and not tgisinternal order by tgname`,
+    );
     expect(triggers.rows).toEqual([
       { tgname: 'safety_sign_off_no_change', tgenabled: 'O' },
       { tgname: 'safety_sign_off_no_truncate', tgenabled: 'O' },
@@ -49,7 +62,9 @@ describe('database roles', () => {
 
   it('the app role cannot drop constraints or the table', async () => {
     await expect(app.query('alter table safety_sign_off drop constraint safety_sign_off_pkey')).rejects.toThrow(/must be owner of table safety_sign_off/);
-    await expect(app.query('alter table safety_chain_head drop constraint safety_chain_head_organization_id_unique')).rejects.toThrow(/must be owner of table safety_chain_head/);
+    await expect(app.query('alter table safety_chain_head drop constraint safety_chain_head_organization_id_unique')).rejects.toThrow(
+      /must be owner of table safety_chain_head/,
+    );
     await expect(app.query('drop table safety_sign_off cascade')).rejects.toThrow(/must be owner of table safety_sign_off/);
   });
 
@@ -59,8 +74,12 @@ describe('database roles', () => {
     const privileges = await app.query(`select privilege_type from information_schema.role_table_grants
       where table_name = 'safety_sign_off' and grantee = current_user order by privilege_type`);
     expect(privileges.rows.map((r) => r.privilege_type)).toEqual(['INSERT', 'SELECT']);
-    await expect(app.query(`update safety_sign_off set signer_name = 'Someone Else' where organization_id = $1`, [shop.orgId])).rejects.toThrow(/permission denied for table safety_sign_off/);
-    await expect(app.query('delete from safety_sign_off where organization_id = $1', [shop.orgId])).rejects.toThrow(/permission denied for table safety_sign_off/);
+    await expect(app.query(`update safety_sign_off set signer_name = 'Someone Else' where organization_id = $1`, [shop.orgId])).rejects.toThrow(
+      /permission denied for table safety_sign_off/,
+    );
+    await expect(app.query('delete from safety_sign_off where organization_id = $1', [shop.orgId])).rejects.toThrow(
+      /permission denied for table safety_sign_off/,
+    );
     await expect(app.query('truncate safety_sign_off')).rejects.toThrow(/permission denied for table safety_sign_off/);
     expect(await signOffRows()).toEqual(before);
   });
@@ -69,7 +88,9 @@ describe('database roles', () => {
     const privileges = await app.query(`select privilege_type from information_schema.role_table_grants
       where table_name = 'safety_chain_head' and grantee = current_user order by privilege_type`);
     expect(privileges.rows.map((r) => r.privilege_type)).toEqual(['INSERT', 'SELECT', 'UPDATE']);
-    await expect(app.query('delete from safety_chain_head where organization_id = $1', [shop.orgId])).rejects.toThrow(/permission denied for table safety_chain_head/);
+    await expect(app.query('delete from safety_chain_head where organization_id = $1', [shop.orgId])).rejects.toThrow(
+      /permission denied for table safety_chain_head/,
+    );
     const v = await get(shop.s.safety, '/safety/chain/verify').expect(200);
     expect(v.body).toMatchObject({ ok: true, total: 1, headSeq: 1 });
   });
@@ -77,7 +98,9 @@ describe('database roles', () => {
   it('the owner role, which runs migrations, is still bound by the append-only trigger', async () => {
     const owner = await ownerRole();
     try {
-      await expect(owner.query(`update safety_sign_off set signer_name = 'Someone Else' where organization_id = $1`, [shop.orgId])).rejects.toThrow(/append-only: UPDATE/);
+      await expect(owner.query(`update safety_sign_off set signer_name = 'Someone Else' where organization_id = $1`, [shop.orgId])).rejects.toThrow(
+        /append-only: UPDATE/,
+      );
     } finally {
       await owner.end();
     }

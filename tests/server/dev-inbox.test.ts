@@ -71,7 +71,12 @@ describe('dev inbox', () => {
   });
 
   it('is off in production', async () => {
-    const production = { ...process.env, NODE_ENV: 'production', SESSION_SECRET: 'a-long-production-secret-for-tests', MIGRATION_DATABASE_URL: 'postgres://owner@127.0.0.1/kerfbook' };
+    const production = {
+      ...process.env,
+      NODE_ENV: 'production',
+      SESSION_SECRET: 'a-long-production-secret-for-tests',
+      MIGRATION_DATABASE_URL: 'postgres://owner@127.0.0.1/kerfbook',
+    };
     expect(() => loadConfig({ ...production, MAIL_CAPTURE: 'true' })).toThrow(/MAIL_CAPTURE/);
     expect(loadConfig(production).MAIL_CAPTURE).toBe(false);
     // Even if a configuration object says otherwise, a production app serves no inbox.

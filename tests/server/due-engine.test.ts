@@ -71,7 +71,12 @@ describe('a plan falls due', () => {
     expect(wos[0].occurrence_key).toBe(`meter:${pumpHours}:1500`);
     // The work copies its plan: instructions, the checklist in order with empty results, the estimate.
     const copied = wos[0] as WoRow & { instructions: string; checklist: unknown[]; estimated_minutes: number; responsible_role: string; kind: string };
-    expect(copied).toMatchObject({ instructions: 'Isolate, replace, check the indicator.', estimated_minutes: 45, responsible_role: 'technician', kind: 'scheduled' });
+    expect(copied).toMatchObject({
+      instructions: 'Isolate, replace, check the indicator.',
+      estimated_minutes: 45,
+      responsible_role: 'technician',
+      kind: 'scheduled',
+    });
     expect(copied.checklist).toEqual([
       { key: 'isolated', label: 'Unit isolated', kind: 'check', result: null, value: null, note: null },
       { key: 'dp', label: 'Filter pressure drop after start', kind: 'measure', unit: 'bar', min: 0, max: 1.5, result: null, value: null, note: null },
@@ -98,7 +103,17 @@ describe('a plan falls due', () => {
       { at: '2026-01-11T08:00:00Z', value: 1650 },
     ]);
     // The condition is past due already; the calendar trigger alone would not be due for a month.
-    const res = await post(admin, '/plans', planBody(unit, { title: 'Change cartridges', triggers: [{ kind: 'condition', meterId: dp, above: 1500 }, { kind: 'calendar-floating', every: 1, unit: 'month' }] })).expect(201);
+    const res = await post(
+      admin,
+      '/plans',
+      planBody(unit, {
+        title: 'Change cartridges',
+        triggers: [
+          { kind: 'condition', meterId: dp, above: 1500 },
+          { kind: 'calendar-floating', every: 1, unit: 'month' },
+        ],
+      }),
+    ).expect(201);
     expect((await get(admin, `/plans/${res.body.id}`).expect(200)).body.status).toBe('overdue');
     await runDueEngine(orm, new Date(), { appUrl: t.config.APP_URL, orgId: shop.orgId });
     const wos = await workOf(res.body.id);
@@ -107,7 +122,8 @@ describe('a plan falls due', () => {
 
   it('three concurrent passes raise each work order once (lock), and so do three unlocked engines (unique key)', async () => {
     const ids: string[] = [];
-    for (let i = 0; i < 6; i++) ids.push(await makePlan({ title: `Weekly check ${i}`, triggers: [{ kind: 'calendar-floating', every: 1, unit: 'week' }] }, '2026-02-01T06:00:00Z'));
+    for (let i = 0; i < 6; i++)
+      ids.push(await makePlan({ title: `Weekly check ${i}`, triggers: [{ kind: 'calendar-floating', every: 1, unit: 'week' }] }, '2026-02-01T06:00:00Z'));
     const now = new Date('2026-02-08T07:00:00Z');
     const results = await Promise.all([runScheduledPass(orm, now), runScheduledPass(orm, now), runScheduledPass(orm, now)]);
     expect(results.filter((r) => r !== null).length).toBeGreaterThanOrEqual(1);
@@ -115,15 +131,23 @@ describe('a plan falls due', () => {
 
     // Without the advisory lock the row lock and the (plan, occurrence_key) constraint still hold.
     const more: string[] = [];
-    for (let i = 0; i < 6; i++) more.push(await makePlan({ title: `Fortnightly check ${i}`, triggers: [{ kind: 'calendar-floating', every: 2, unit: 'week' }] }, '2026-02-01T06:00:00Z'));
+    for (let i = 0; i < 6; i++)
+      more.push(await makePlan({ title: `Fortnightly check ${i}`, triggers: [{ kind: 'calendar-floating', every: 2, unit: 'week' }] }, '2026-02-01T06:00:00Z'));
     const later = new Date('2026-02-15T07:00:00Z');
-    await Promise.all([runDueEngine(orm, later, { appUrl: t.config.APP_URL, orgId: shop.orgId }), runDueEngine(orm, later, { appUrl: t.config.APP_URL, orgId: shop.orgId }), runDueEngine(orm, later, { appUrl: t.config.APP_URL, orgId: shop.orgId })]);
+    await Promise.all([
+      runDueEngine(orm, later, { appUrl: t.config.APP_URL, orgId: shop.orgId }),
+      runDueEngine(orm, later, { appUrl: t.config.APP_URL, orgId: shop.orgId }),
+      runDueEngine(orm, later, { appUrl: t.config.APP_URL, orgId: shop.orgId }),
+    ]);
     for (const id of [...ids, ...more]) expect(await workOf(id), id).toHaveLength(1);
   });
 
   it('keeps 07:00 local time across the daylight-saving change (America/Chicago, 8 March 2026)', async () => {
     // US DST starts the second Sunday of March (15 U.S.C. 260a): 8 March 2026. 07:00 CST = 13:00Z, 07:00 CDT = 12:00Z.
-    const planId = await makePlan({ title: 'Inspect clamps', triggers: [{ kind: 'calendar-fixed', start: '2026-02-23T07:00', rrule: 'FREQ=WEEKLY;BYDAY=MO' }] }, '2026-02-20T00:00:00Z');
+    const planId = await makePlan(
+      { title: 'Inspect clamps', triggers: [{ kind: 'calendar-fixed', start: '2026-02-23T07:00', rrule: 'FREQ=WEEKLY;BYDAY=MO' }] },
+      '2026-02-20T00:00:00Z',
+    );
     const plan = await get(admin, `/plans/${planId}`).expect(200);
     expect(plan.body.triggers[0].ical).toBe('DTSTART;TZID=America/Chicago:20260223T070000\nRRULE:FREQ=WEEKLY;BYDAY=MO');
 
@@ -146,7 +170,12 @@ describe('a plan falls due', () => {
     await drainOutbox(orm);
     const ids: string[] = [];
     for (const day of ['MO', 'WE', 'FR']) {
-      ids.push(await makePlan({ title: `Lubricate guides (${day})`, triggers: [{ kind: 'calendar-fixed', start: '2026-04-06T06:00', rrule: `FREQ=WEEKLY;BYDAY=${day}` }] }, '2026-04-01T00:00:00Z'));
+      ids.push(
+        await makePlan(
+          { title: `Lubricate guides (${day})`, triggers: [{ kind: 'calendar-fixed', start: '2026-04-06T06:00', rrule: `FREQ=WEEKLY;BYDAY=${day}` }] },
+          '2026-04-01T00:00:00Z',
+        ),
+      );
     }
     // Nobody ran a pass from 1 April to 20 May: seven weeks of missed occurrences.
     await runDueEngine(orm, new Date('2026-05-20T15:00:00Z'), { appUrl: t.config.APP_URL, orgId: shop.orgId });
@@ -170,12 +199,20 @@ describe('a plan falls due', () => {
   it('escalates past-due safety work to the safety officer and tells the technician whatever their setting', async () => {
     await put(tech, '/notify-preference', { mode: 'none', digestHour: 6 }).expect(200);
     await drainOutbox(orm);
-    const planId = await makePlan({ title: 'Inspect torch lead', safetyCritical: true, triggers: [{ kind: 'calendar-floating', every: 1, unit: 'week' }] }, '2026-06-01T06:00:00Z');
+    const planId = await makePlan(
+      { title: 'Inspect torch lead', safetyCritical: true, triggers: [{ kind: 'calendar-floating', every: 1, unit: 'week' }] },
+      '2026-06-01T06:00:00Z',
+    );
     await runDueEngine(orm, new Date('2026-06-08T07:00:00Z'), { appUrl: t.config.APP_URL, orgId: shop.orgId });
     expect((await pendingMails(orm, shop.orgId)).filter((m) => m.kind === 'work-raised')).toHaveLength(0); // "none": no routine notice
     await runDueEngine(orm, new Date('2026-06-11T07:00:00Z'), { appUrl: t.config.APP_URL, orgId: shop.orgId }); // 3 days past, grace 2 days
     const mails = await pendingMails(orm, shop.orgId);
-    expect(mails.filter((m) => m.kind === 'work-escalated').map((m) => m.toAddress).sort()).toEqual([shop.users.admin.email, shop.users.safety.email].sort());
+    expect(
+      mails
+        .filter((m) => m.kind === 'work-escalated')
+        .map((m) => m.toAddress)
+        .sort(),
+    ).toEqual([shop.users.admin.email, shop.users.safety.email].sort());
     const mandatory = mails.filter((m) => m.kind === 'work-overdue-safety');
     expect(mandatory.map((m) => m.toAddress)).toEqual([shop.users.technician.email]);
     expect(mandatory[0].textBody).toContain(WORK_CAUTION);
@@ -248,9 +285,20 @@ describe('notices of raised work', () => {
 });
 
 describe('a pass that finds the same answer', () => {
-  type PlanRow = { status: string; status_reason: string; status_hash: string | null; evaluated_at: string | null; updated_at: string; recheck_at: string | null };
+  type PlanRow = {
+    status: string;
+    status_reason: string;
+    status_hash: string | null;
+    evaluated_at: string | null;
+    updated_at: string;
+    recheck_at: string | null;
+  };
   const planRow = async (id: string): Promise<PlanRow> =>
-    (await orm.em.fork().execute<PlanRow[]>(`select status, status_reason, status_hash, evaluated_at, updated_at, recheck_at from maintenance_plan where id = ?`, [id]))[0];
+    (
+      await orm.em
+        .fork()
+        .execute<PlanRow[]>(`select status, status_reason, status_hash, evaluated_at, updated_at, recheck_at from maintenance_plan where id = ?`, [id])
+    )[0];
   const forceRecheck = (id: string) => orm.em.fork().execute(`update maintenance_plan set recheck_at = null where id = ?`, [id]);
 
   it('leaves the stored status alone, but rewrites it when the answer or a meter name changes', async () => {
@@ -299,7 +347,12 @@ describe('mail while the mail server is down', () => {
     const ids: string[] = [];
     // Three roles responsible: three notices to three people.
     for (const role of ['technician', 'safety', 'admin']) {
-      ids.push(await makePlan({ title: `Drain water trap (${role})`, responsibleRole: role, triggers: [{ kind: 'calendar-floating', every: 3, unit: 'day' }] }, '2026-07-01T06:00:00Z'));
+      ids.push(
+        await makePlan(
+          { title: `Drain water trap (${role})`, responsibleRole: role, triggers: [{ kind: 'calendar-floating', every: 3, unit: 'day' }] },
+          '2026-07-01T06:00:00Z',
+        ),
+      );
     }
     await runDueEngine(orm, new Date('2026-07-04T07:00:00Z'), { appUrl: t.config.APP_URL, orgId: shop.orgId });
     const queued = await pendingMails(orm, shop.orgId);

@@ -75,7 +75,11 @@ describe('dates', () => {
     }
     refused(await get(safety, '/safety/sign-offs?from=0000-01-01'), 400, 'from');
     refused(await get(safety, '/safety/sign-offs?to=9999-12-31'), 400, 'to');
-    refused(await post(safety, '/safety/training', { userId: shop.users.technician.userId, topic: 'lockout', trainedOn: '0000-01-01', password: 'kerfbook-demo' }), 400, 'trainedOn');
+    refused(
+      await post(safety, '/safety/training', { userId: shop.users.technician.userId, topic: 'lockout', trainedOn: '0000-01-01', password: 'kerfbook-demo' }),
+      400,
+      'trainedOn',
+    );
   });
 });
 
@@ -98,7 +102,10 @@ describe('bodies the parser cannot read', () => {
   it('answers broken multipart uploads with 400 and the wrong kind of body with 415', async () => {
     const broken = '--XYZ\r\nContent-Disposition: form-data; name="file"; filename="a.csv"\r\nContent-Type: text/csv\r\n\r\nmachine_code';
     refused(await raw(tech, '/counter-import/preview').set('Content-Type', 'multipart/form-data; boundary=XYZ').send(broken), 400);
-    refused(await raw(admin, `/machines/${machineId}/photos`).set('Content-Type', 'multipart/form-data; boundary=XYZ').send(broken.replace('"file"', '"photo"')), 400);
+    refused(
+      await raw(admin, `/machines/${machineId}/photos`).set('Content-Type', 'multipart/form-data; boundary=XYZ').send(broken.replace('"file"', '"photo"')),
+      400,
+    );
     refused(await raw(tech, `/work-orders/${workOrderId}/attachments`).set('Content-Type', 'multipart/form-data').send('--'), 400);
     refused(await raw(tech, '/counter-import/preview').set('Content-Type', 'application/json').send('{"file": "machine_code"}'), 415);
   });

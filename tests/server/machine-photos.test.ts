@@ -27,7 +27,11 @@ beforeAll(async () => {
   tech = await signIn(t.app, a.users.technician.email);
   op = await signIn(t.app, a.users.operator.email);
   otherTech = await signIn(t.app, b.users.technician.email);
-  const res = await tech.agent.post('/api/machines').set('X-CSRF-Token', tech.csrf).send({ code: 'P1', name: 'Plasma table 1', kind: 'plasma-table' }).expect(201);
+  const res = await tech.agent
+    .post('/api/machines')
+    .set('X-CSRF-Token', tech.csrf)
+    .send({ code: 'P1', name: 'Plasma table 1', kind: 'plasma-table' })
+    .expect(201);
   machine = res.body.id;
 });
 afterAll(() => t.close());

@@ -9,7 +9,6 @@ let tech: SignedIn;
 let op: SignedIn;
 let otherTech: SignedIn;
 
-
 beforeAll(async () => {
   t = await makeTestApp();
   a = await makeShop(t.em(), 'mach-a');
@@ -25,7 +24,14 @@ describe('machines and components', () => {
   let torch: string;
 
   it('creates a machine and a component below it, listed as a tree', async () => {
-    const res = await post(tech, '/machines', { code: 'C1', name: 'Punch/plasma cell 1', kind: 'punch-plasma-cell', location: 'Bay 2', serial: 'SN-0001', notes: '' }).expect(201);
+    const res = await post(tech, '/machines', {
+      code: 'C1',
+      name: 'Punch/plasma cell 1',
+      kind: 'punch-plasma-cell',
+      location: 'Bay 2',
+      serial: 'SN-0001',
+      notes: '',
+    }).expect(201);
     cell = res.body.id;
     const comp = await post(tech, '/machines', { code: 'C1-T', name: 'Torch of cell 1', kind: 'torch', parentId: cell }).expect(201);
     torch = comp.body.id;
@@ -73,10 +79,21 @@ describe('machines and components', () => {
 
     it('creates meters with units that fit their kind, and refuses those that do not', async () => {
       starts = (await post(tech, '/meters', { machineId: torch, code: 'arc-starts', name: 'Arc starts', kind: 'count', unit: 'starts' }).expect(201)).body.id;
-      dp = (await post(tech, '/meters', { machineId: torch, code: 'filter-dp', name: 'Filter pressure drop', kind: 'condition', unit: 'Pa', upperLimit: 1500 }).expect(201)).body.id;
+      dp = (
+        await post(tech, '/meters', {
+          machineId: torch,
+          code: 'filter-dp',
+          name: 'Filter pressure drop',
+          kind: 'condition',
+          unit: 'Pa',
+          upperLimit: 1500,
+        }).expect(201)
+      ).body.id;
       const wrong = await post(tech, '/meters', { machineId: torch, code: 'hrs', name: 'Hours', kind: 'running-time', unit: 'starts' }).expect(400);
       expect(wrong.body.fields).toEqual([{ path: 'unit', message: 'A running-time meter counts in h; “starts” is not one of them' }]);
-      const limits = await post(tech, '/meters', { machineId: torch, code: 'x', name: 'Count with limit', kind: 'count', unit: 'hits', upperLimit: 5 }).expect(400);
+      const limits = await post(tech, '/meters', { machineId: torch, code: 'x', name: 'Count with limit', kind: 'count', unit: 'hits', upperLimit: 5 }).expect(
+        400,
+      );
       expect(limits.body.fields[0].path).toBe('upperLimit');
       await post(tech, '/meters', { machineId: torch, code: 'arc-starts', name: 'Twice', kind: 'count', unit: 'starts' }).expect(409);
     });
@@ -88,7 +105,9 @@ describe('machines and components', () => {
       const back = await post(op, `/meters/${starts}/readings`, { value: 1200, readAt: day(4) }).expect(400);
       expect(back.body.fields[0].path).toBe('value');
       // The time is the shop's (America/Chicago), as the screens show readings: 08:00 UTC is 02:00 there.
-      expect(back.body.message).toMatch(/Arc starts: 1,200 starts is lower than the reading before it \(1,500 starts on 3 Jan 2026, 02:00\); record it as a reset/);
+      expect(back.body.message).toMatch(
+        /Arc starts: 1,200 starts is lower than the reading before it \(1,500 starts on 3 Jan 2026, 02:00\); record it as a reset/,
+      );
       // A backfilled reading higher than a later one is refused too.
       const ahead = await post(op, `/meters/${starts}/readings`, { value: 1700, readAt: day(2) }).expect(400);
       expect(ahead.body.message).toMatch(/higher than a later reading \(1,500 starts/);
@@ -125,12 +144,22 @@ describe('machines and components', () => {
 
     it('records several counters at once, all or none, naming the refused one', async () => {
       const before = (await op.agent.get(`/api/meters/${starts}/readings`).expect(200)).body.total;
-      const bad = await post(op, '/meter-readings', { readings: [{ meterId: dp, value: 700 }, { meterId: starts, value: 5 }] }).expect(400);
+      const bad = await post(op, '/meter-readings', {
+        readings: [
+          { meterId: dp, value: 700 },
+          { meterId: starts, value: 5 },
+        ],
+      }).expect(400);
       expect(bad.body.fields[0].path).toBe('readings.1.value');
       expect(bad.body.message).toMatch(/Arc starts: 5 starts is lower than the reading before it \(20 starts/);
       expect((await op.agent.get(`/api/meters/${starts}/readings`).expect(200)).body.total).toBe(before);
       expect((await op.agent.get(`/api/meters/${dp}`).expect(200)).body.latest.value).toBe(600);
-      await post(op, '/meter-readings', { readings: [{ meterId: dp, value: 700 }, { meterId: starts, value: 45 }] }).expect(201);
+      await post(op, '/meter-readings', {
+        readings: [
+          { meterId: dp, value: 700 },
+          { meterId: starts, value: 45 },
+        ],
+      }).expect(201);
       expect((await op.agent.get(`/api/meters/${starts}`).expect(200)).body.latest.value).toBe(45);
       await post(otherTech, '/meter-readings', { readings: [{ meterId: starts, value: 99 }] }).expect(400);
     });

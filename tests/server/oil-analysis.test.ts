@@ -14,7 +14,18 @@ let op: SignedIn;
 let unit: string;
 let press: string;
 
-const sample = (over: Record<string, unknown> = {}) => ({ machineId: unit, sampledAt: '2026-05-04T09:00:00-05:00', labReference: 'L-2231', ge4um: 1000, ge6um: 300, ge14um: 30, viscosity40: 46.5, waterPpm: 120, temperatureC: 45, ...over });
+const sample = (over: Record<string, unknown> = {}) => ({
+  machineId: unit,
+  sampledAt: '2026-05-04T09:00:00-05:00',
+  labReference: 'L-2231',
+  ge4um: 1000,
+  ge6um: 300,
+  ge14um: 30,
+  viscosity40: 46.5,
+  waterPpm: 120,
+  temperatureC: 45,
+  ...over,
+});
 const workFor = async (planId: string) => orm.em.fork().execute<{ id: string }[]>(`select id from work_order where plan_id = ?`, [planId]);
 
 beforeAll(async () => {
@@ -47,7 +58,11 @@ describe('oil analysis', () => {
 
   it('a result outside targets raises condition work once through the unit’s plan', async () => {
     const plan = await post(admin, '/plans', planBody(unit, { title: 'Act on oil result', triggers: [{ kind: 'oil-analysis' }] })).expect(201);
-    const res = await post(tech, '/oil-analyses', sample({ sampledAt: '2026-08-03T09:00:00-05:00', ge4um: 3000, ge6um: 900, ge14um: 100, viscosity40: 52 })).expect(201);
+    const res = await post(
+      tech,
+      '/oil-analyses',
+      sample({ sampledAt: '2026-08-03T09:00:00-05:00', ge4um: 3000, ge6um: 900, ge14um: 100, viscosity40: 52 }),
+    ).expect(201);
     // 3 000/mL → 19, 900 → 17, 100 → 14 (ISO 4406:2021 Table 1): two steps over 17/15/12 at each size.
     // ISO 3448 VG 46: 41.4–50.6 mm²/s, so 52 is above the band (+13 %).
     expect(res.body.isoCode).toBe('19/17/14');
@@ -74,7 +89,13 @@ describe('oil analysis', () => {
     const list = await get(op, `/oil-analyses?machineId=${unit}`).expect(200);
     expect(list.body.rows.map((r: { isoCode: string }) => r.isoCode)).toEqual(['19/17/14', '19/17/14', '17/15/12']);
     const units = await get(op, '/oil-units').expect(200);
-    expect(units.body.units).toEqual([expect.objectContaining({ code: 'HU1', target: expect.objectContaining({ targetCode: '17/15/12', vgGrade: 46 }), latest: expect.objectContaining({ sampledAt: '2026-08-10T14:00:00.000Z' }) })]);
+    expect(units.body.units).toEqual([
+      expect.objectContaining({
+        code: 'HU1',
+        target: expect.objectContaining({ targetCode: '17/15/12', vgGrade: 46 }),
+        latest: expect.objectContaining({ sampledAt: '2026-08-10T14:00:00.000Z' }),
+      }),
+    ]);
     // Sortable by the sample date and by measured values (a value missing sorts last either way).
     const oldest = await get(op, `/oil-analyses?machineId=${unit}&sort=sampledAt&dir=asc`).expect(200);
     expect(oldest.body.rows.map((r: { isoCode: string }) => r.isoCode)).toEqual(['17/15/12', '19/17/14', '19/17/14']);

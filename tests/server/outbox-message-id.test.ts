@@ -44,7 +44,12 @@ describe('outbox Message-ID', () => {
     await em.flush();
     const real = createTransport(config);
     // The relay takes the mail, then the process dies before it can mark the row sent.
-    const crashing = { sendMail: async (m: Parameters<Transporter['sendMail']>[0]) => { await real.sendMail(m); throw new Error('process died after the hand-over'); } } as unknown as Transporter;
+    const crashing = {
+      sendMail: async (m: Parameters<Transporter['sendMail']>[0]) => {
+        await real.sendMail(m);
+        throw new Error('process died after the hand-over');
+      },
+    } as unknown as Transporter;
     expect(await deliverOutbox(orm, crashing, config.MAIL_FROM)).toEqual({ sent: 0, failed: 1 });
     await orm.em.fork().nativeUpdate(OutboxMail, { id: row.id }, { nextAttemptAt: new Date() });
     expect(await deliverOutbox(orm, real, config.MAIL_FROM)).toEqual({ sent: 1, failed: 0 });

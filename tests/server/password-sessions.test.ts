@@ -12,7 +12,9 @@ beforeAll(async () => {
 afterAll(() => t.close());
 
 const resetLinks = async (email: string) =>
-  (await t.em().find(OutboxMail, { toAddress: email, kind: 'password-reset' }, { orderBy: { createdAt: 'asc' } })).map((m) => /token=([A-Za-z0-9_-]+)/.exec(m.textBody)![1]);
+  (await t.em().find(OutboxMail, { toAddress: email, kind: 'password-reset' }, { orderBy: { createdAt: 'asc' } })).map(
+    (m) => /token=([A-Za-z0-9_-]+)/.exec(m.textBody)![1],
+  );
 
 describe('a new password ends every session of its account', () => {
   it('signs out every browser of the person on a password reset, and spends their other reset links', async () => {

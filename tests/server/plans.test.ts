@@ -36,7 +36,10 @@ describe('starter plans', () => {
   });
 
   it('applies starters to a machine, finds meters on its components, plans parts, and explains what it skips', async () => {
-    const res = await post(admin, '/plan-starters/apply', { machineId: unit, starterKeys: ['hyd-filters', 'oil-too-hot', 'oil-off-target', 'clamps', 'nope'] }).expect(201);
+    const res = await post(admin, '/plan-starters/apply', {
+      machineId: unit,
+      starterKeys: ['hyd-filters', 'oil-too-hot', 'oil-off-target', 'clamps', 'nope'],
+    }).expect(201);
     expect(res.body.created.map((c: { key: string }) => c.key)).toEqual(['hyd-filters', 'oil-too-hot', 'oil-off-target']);
     expect(res.body.skipped).toEqual([
       { key: 'clamps', title: 'Inspect sheet clamps and clamp pads', reason: 'Meant for a punch/plasma cell; HU1 is a hydraulic unit' },
@@ -75,7 +78,9 @@ describe('starter plans', () => {
 
     const res = await post(admin, '/plan-starters/apply', { machineId: brake, starterKeys: ['brake-guarding', 'hyd-oil-change'] }).expect(201);
     expect(res.body.created.map((c: { key: string }) => c.key)).toEqual(['brake-guarding', 'hyd-oil-change']);
-    expect(res.body.skipped).toEqual([{ key: 'hyd-oil-change', title: 'Renew hydraulic oil', reason: 'Created without its pump-hours (h) trigger: PB1 has no such meter' }]);
+    expect(res.body.skipped).toEqual([
+      { key: 'hyd-oil-change', title: 'Renew hydraulic oil', reason: 'Created without its pump-hours (h) trigger: PB1 has no such meter' },
+    ]);
     expect(await fitOf('brake-guarding')).toEqual({ status: 'no', reason: 'Already applied to PB1' });
 
     await get(op, '/plan-starters?machineId=00000000-0000-4000-8000-000000000000').expect(404);
@@ -85,13 +90,23 @@ describe('starter plans', () => {
 
 describe('plan list and edit', () => {
   it('lists with filters and paging; an edit keeps existing meter baselines', async () => {
-    const made = await post(admin, '/plans', planBody(unit, { title: 'Hours based check', triggers: [{ kind: 'meter', meterId: pumpHours, every: 250 }] })).expect(201);
+    const made = await post(
+      admin,
+      '/plans',
+      planBody(unit, { title: 'Hours based check', triggers: [{ kind: 'meter', meterId: pumpHours, every: 250 }] }),
+    ).expect(201);
     const list = await get(op, `/plans?machineId=${unit}&q=hours+based`).expect(200);
-    expect(list.body.rows).toEqual([expect.objectContaining({ id: made.body.id, triggerSummary: 'every 250 h of pump hours', responsible: 'Maintenance technician' })]);
+    expect(list.body.rows).toEqual([
+      expect.objectContaining({ id: made.body.id, triggerSummary: 'every 250 h of pump hours', responsible: 'Maintenance technician' }),
+    ]);
     const byStatus = await get(op, '/plans?status=overdue&pageSize=1').expect(200);
     expect(byStatus.body.rows.length).toBeLessThanOrEqual(1);
     await get(op, '/plans?status=later').expect(400);
-    await put(admin, `/plans/${made.body.id}`, planBody(unit, { title: 'Hours based check (renamed)', triggers: [{ kind: 'meter', meterId: pumpHours, every: 300 }] })).expect(200);
+    await put(
+      admin,
+      `/plans/${made.body.id}`,
+      planBody(unit, { title: 'Hours based check (renamed)', triggers: [{ kind: 'meter', meterId: pumpHours, every: 300 }] }),
+    ).expect(200);
     const after = await get(op, `/plans/${made.body.id}`).expect(200);
     expect(after.body.title).toBe('Hours based check (renamed)');
     expect(after.body.meterDue).toEqual([expect.objectContaining({ dueValue: 300 })]); // no reading yet: baseline 0 waits for the first reading

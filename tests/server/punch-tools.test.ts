@@ -27,12 +27,37 @@ afterAll(() => t.close());
 describe('punch tools', () => {
   it('creates a tool counting hits from the head’s meter as of now, and refuses a meter that does not count hits', async () => {
     const starts = (await post(tech, '/meters', { machineId: head, code: 'odd', name: 'Odd count', kind: 'count', unit: 'cycles' }).expect(201)).body.id;
-    const bad = await post(tech, '/punch-tools', { machineId: head, hitsMeterId: starts, code: 'T01', name: 'Round 12', stationSize: 'B', sharpeningIntervalHits: 1000 }).expect(400);
+    const bad = await post(tech, '/punch-tools', {
+      machineId: head,
+      hitsMeterId: starts,
+      code: 'T01',
+      name: 'Round 12',
+      stationSize: 'B',
+      sharpeningIntervalHits: 1000,
+    }).expect(400);
     expect(bad.body.fields[0]).toEqual({ path: 'hitsMeterId', message: 'Odd count counts cycles, not hits' });
-    const badSize = await post(tech, '/punch-tools', { machineId: head, hitsMeterId: hits, code: 'T01', name: 'Round 12', stationSize: 'Z', sharpeningIntervalHits: 10 }).expect(400);
+    const badSize = await post(tech, '/punch-tools', {
+      machineId: head,
+      hitsMeterId: hits,
+      code: 'T01',
+      name: 'Round 12',
+      stationSize: 'Z',
+      sharpeningIntervalHits: 10,
+    }).expect(400);
     expect(badSize.body.fields.map((f: { path: string }) => f.path).sort()).toEqual(['sharpeningIntervalHits', 'stationSize']);
-    tool = (await post(tech, '/punch-tools', { machineId: head, hitsMeterId: hits, code: 'T01', name: 'Round 12', stationSize: 'B', sharpeningIntervalHits: 1000 }).expect(201)).body.id;
-    await post(op, '/punch-tools', { machineId: head, hitsMeterId: hits, code: 'T02', name: 'Square', stationSize: 'C', sharpeningIntervalHits: 1000 }).expect(403);
+    tool = (
+      await post(tech, '/punch-tools', {
+        machineId: head,
+        hitsMeterId: hits,
+        code: 'T01',
+        name: 'Round 12',
+        stationSize: 'B',
+        sharpeningIntervalHits: 1000,
+      }).expect(201)
+    ).body.id;
+    await post(op, '/punch-tools', { machineId: head, hitsMeterId: hits, code: 'T02', name: 'Square', stationSize: 'C', sharpeningIntervalHits: 1000 }).expect(
+      403,
+    );
   });
 
   it('counts hits since the last sharpening and raises attention at the interval', async () => {

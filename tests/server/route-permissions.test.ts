@@ -147,7 +147,13 @@ const sessions = {} as Record<Role, SignedIn>;
 
 function servedRoutes(): string[] {
   const stack = (t.api as unknown as { stack: Layer[] }).stack;
-  return stack.filter((l) => l.route).flatMap((l) => Object.keys(l.route!.methods).filter((m) => m !== '_all').map((m) => `${m.toUpperCase()} ${l.route!.path}`));
+  return stack
+    .filter((l) => l.route)
+    .flatMap((l) =>
+      Object.keys(l.route!.methods)
+        .filter((m) => m !== '_all')
+        .map((m) => `${m.toUpperCase()} ${l.route!.path}`),
+    );
 }
 
 const samplePath = (path: string) => path.replace(/:[a-zA-Z]+/g, '00000000-0000-4000-8000-000000000000');
@@ -183,7 +189,9 @@ describe('route permission table', () => {
   it.each(protectedRoutes)('%s refuses anonymous callers with 401', async (key) => {
     const [method, path] = key.split(' ');
     const { agent, csrf } = await anonymous(t.app);
-    const res = await agent[method.toLowerCase() as 'get'](`/api${samplePath(path)}`).set('X-CSRF-Token', csrf).send({});
+    const res = await agent[method.toLowerCase() as 'get'](`/api${samplePath(path)}`)
+      .set('X-CSRF-Token', csrf)
+      .send({});
     expect(res.status).toBe(401);
   });
 
@@ -191,7 +199,9 @@ describe('route permission table', () => {
     const [method, path] = key.split(' ');
     for (const role of ROLES.filter((r) => !allowed.includes(r))) {
       const { agent, csrf } = sessions[role];
-      const res = await agent[method.toLowerCase() as 'get'](`/api${samplePath(path)}`).set('X-CSRF-Token', csrf).send({});
+      const res = await agent[method.toLowerCase() as 'get'](`/api${samplePath(path)}`)
+        .set('X-CSRF-Token', csrf)
+        .send({});
       expect(res.status, `${role} on ${key}`).toBe(403);
     }
   });
@@ -200,7 +210,9 @@ describe('route permission table', () => {
     const [method, path] = key.split(' ');
     for (const role of allowed) {
       const { agent, csrf } = sessions[role];
-      const res = await agent[method.toLowerCase() as 'get'](`/api${samplePath(path)}`).set('X-CSRF-Token', csrf).send({});
+      const res = await agent[method.toLowerCase() as 'get'](`/api${samplePath(path)}`)
+        .set('X-CSRF-Token', csrf)
+        .send({});
       expect([401, 403], `${role} on ${key} got ${res.status}`).not.toContain(res.status);
     }
   });

@@ -30,13 +30,35 @@ beforeAll(async () => {
   shop = await makeSafetyShop(t.app, t.em(), 'audit');
   other = await makeSafetyShop(t.app, t.em(), 'audit-other');
   procId = await approvedProcedure(shop);
-  const req = await post(shop.s.safety, '/safety/ppe/requirements', { machineId: shop.machineId, task: 'Plasma cutting', items: ['safety-glasses'], otherItems: [], arcCurrentA: 200, noise: [], cadence: 'shift' }).expect(201);
+  const req = await post(shop.s.safety, '/safety/ppe/requirements', {
+    machineId: shop.machineId,
+    task: 'Plasma cutting',
+    items: ['safety-glasses'],
+    otherItems: [],
+    arcCurrentA: 200,
+    noise: [],
+    cadence: 'shift',
+  }).expect(201);
   reqId = req.body.id;
-  const lo = await post(shop.s.technician, '/safety/lockouts', { procedureId: procId, reason: 'Swap torch lead', points: lockPoints('A'), password: PASSWORD }).expect(201);
+  const lo = await post(shop.s.technician, '/safety/lockouts', {
+    procedureId: procId,
+    reason: 'Swap torch lead',
+    points: lockPoints('A'),
+    password: PASSWORD,
+  }).expect(201);
   const d = await get(shop.s.technician, `/safety/lockouts/${lo.body.id}`).expect(200);
-  await post(shop.s.technician, `/safety/lockouts/${lo.body.id}/verify`, { testedPointIds: d.body.points.map((p: { id: string }) => p.id), startAttempted: true, password: PASSWORD }).expect(201);
+  await post(shop.s.technician, `/safety/lockouts/${lo.body.id}/verify`, {
+    testedPointIds: d.body.points.map((p: { id: string }) => p.id),
+    startAttempted: true,
+    password: PASSWORD,
+  }).expect(201);
   await post(shop.s.operator, '/safety/ppe/checks', { requirementId: reqId, confirmed: ['safety-glasses', 'filter-lens'], password: PASSWORD }).expect(201);
-  await post(shop.s.technician, `/safety/lockouts/${lo.body.id}/release`, { areaChecked: true, peopleClear: true, affectedNotified: true, password: PASSWORD }).expect(201);
+  await post(shop.s.technician, `/safety/lockouts/${lo.body.id}/release`, {
+    areaChecked: true,
+    peopleClear: true,
+    affectedNotified: true,
+    password: PASSWORD,
+  }).expect(201);
   // One signature in the other shop, which must never show here.
   await approvedProcedure(other);
 });
@@ -46,7 +68,13 @@ describe('the safety officer’s audit', () => {
   it('lists signatures with filters, sorting and server paging', async () => {
     const all = await get(shop.s.safety, '/safety/sign-offs?sort=seq&dir=asc').expect(200);
     expect(all.body.total).toBe(5);
-    expect(all.body.rows.map((r: { meaning: string }) => r.meaning)).toEqual(['procedure-approved', 'lockout-applied', 'isolation-verified', 'ppe-check-done', 'lockout-released']);
+    expect(all.body.rows.map((r: { meaning: string }) => r.meaning)).toEqual([
+      'procedure-approved',
+      'lockout-applied',
+      'isolation-verified',
+      'ppe-check-done',
+      'lockout-released',
+    ]);
     expect(all.body.rows.map((r: { signerName: string }) => r.signerName)).not.toContain(`safety of ${other.slug}`);
     const page2 = await get(shop.s.admin, '/safety/sign-offs?sort=seq&dir=asc&pageSize=2&page=2').expect(200);
     expect(page2.body).toMatchObject({ total: 5, page: 2, pageSize: 2 });
@@ -79,7 +107,15 @@ describe('the safety officer’s audit', () => {
     expect(res.headers['content-disposition']).toMatch(/^attachment; filename="safety-sign-offs-audit-/);
     const parsed = Papa.parse<Record<string, string>>(res.text.replace(/^\uFEFF/, ''), { header: true, skipEmptyLines: true });
     expect(parsed.data).toHaveLength(5);
-    expect(parsed.data[1]).toMatchObject({ seq: '2', printed_name: `technician of ${shop.slug}`, role: 'Maintenance technician', meaning: 'Locks applied', machine: 'C1', chain_check: 'verified', time_zone: 'America/Chicago' });
+    expect(parsed.data[1]).toMatchObject({
+      seq: '2',
+      printed_name: `technician of ${shop.slug}`,
+      role: 'Maintenance technician',
+      meaning: 'Locks applied',
+      machine: 'C1',
+      chain_check: 'verified',
+      time_zone: 'America/Chicago',
+    });
     expect(parsed.data[1].signed_at_utc).toMatch(/^\d{4}-\d\d-\d\dT\d\d:\d\d:\d\d\.\d{3}Z$/);
     expect(parsed.data[3].statement).toBe('I am wearing every item of PPE this task requires, in good condition.');
   });
@@ -133,7 +169,15 @@ describe('the safety officer’s audit', () => {
   it('raises overdue safety work once, mails the safety officer through the outbox, and closes it when done', async () => {
     const late = await makeSafetyShop(t.app, t.em(), 'audit-late');
     const lateProc = await approvedProcedure(late);
-    const req = await post(late.s.safety, '/safety/ppe/requirements', { machineId: late.machineId, task: 'Punching', items: ['safety-glasses'], otherItems: [], arcCurrentA: null, noise: [], cadence: 'shift' }).expect(201);
+    const req = await post(late.s.safety, '/safety/ppe/requirements', {
+      machineId: late.machineId,
+      task: 'Punching',
+      items: ['safety-glasses'],
+      otherItems: [],
+      arcCurrentA: null,
+      noise: [],
+      cadence: 'shift',
+    }).expect(201);
     // Back-date the approval 13 months and the PPE requirement 5 days (these tables are not append-only).
     const c = await appRole();
     await c.query(`update safety_procedure_version set approved_at = now() - interval '13 months' where procedure_id = $1`, [lateProc]);
@@ -145,12 +189,20 @@ describe('the safety officer’s audit', () => {
     expect(result?.['safety-due']).toBeDefined();
     expect((result?.['safety-due'] as { error?: string }).error).toBeUndefined();
     const tasks = (await get(late.s.safety, '/safety/tasks').expect(200)).body as { kind: string; status: string; title: string }[];
-    expect(tasks.map((x) => [x.kind, x.status])).toEqual(expect.arrayContaining([['periodic-inspection', 'overdue'], ['ppe-check', 'overdue']]));
+    expect(tasks.map((x) => [x.kind, x.status])).toEqual(
+      expect.arrayContaining([
+        ['periodic-inspection', 'overdue'],
+        ['ppe-check', 'overdue'],
+      ]),
+    );
     expect(tasks.find((x) => x.kind === 'periodic-inspection')!.title).toMatch(/Periodic inspection of C1 .*\(OSHA 29 CFR 1910\.147\(c\)\(6\)\)/);
 
     const mails = async () => {
       const db = await appRole();
-      const r = await db.query(`select to_address, subject, text_body from outbox_mail where organization_id = $1 and kind = 'safety-overdue' order by created_at`, [late.orgId]);
+      const r = await db.query(
+        `select to_address, subject, text_body from outbox_mail where organization_id = $1 and kind = 'safety-overdue' order by created_at`,
+        [late.orgId],
+      );
       await db.end();
       return r.rows as { to_address: string; subject: string; text_body: string }[];
     };
@@ -168,7 +220,14 @@ describe('the safety officer’s audit', () => {
 
     // The inspection done and certified, and a PPE check: the tasks close on the next pass.
     const today = shopToday();
-    const ins = await post(late.s.safety, '/safety/inspections', { procedureId: lateProc, inspectedOn: today, employeeIds: [late.users.technician.userId], findings: 'All steps followed.', responsibilitiesReviewed: true, password: PASSWORD }).expect(201);
+    const ins = await post(late.s.safety, '/safety/inspections', {
+      procedureId: lateProc,
+      inspectedOn: today,
+      employeeIds: [late.users.technician.userId],
+      findings: 'All steps followed.',
+      responsibilitiesReviewed: true,
+      password: PASSWORD,
+    }).expect(201);
     await post(late.s.safety, `/safety/inspections/${ins.body.id}/certify`, { password: PASSWORD }).expect(201);
     await post(late.s.operator, '/safety/ppe/checks', { requirementId: req.body.id, confirmed: ['safety-glasses'], password: PASSWORD }).expect(201);
     await runScheduledPass(orm);

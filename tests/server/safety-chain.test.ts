@@ -13,10 +13,19 @@ afterAll(() => t.close());
 /** A shop with a PPE requirement, so that operators can add signatures quickly. */
 async function shopWithPpe(label: string): Promise<SafetyShop & { reqId: string }> {
   const shop = await makeSafetyShop(t.app, t.em(), label);
-  const req = await post(shop.s.safety, '/safety/ppe/requirements', { machineId: shop.machineId, task: 'Punching', items: ['safety-glasses', 'safety-footwear'], otherItems: [], arcCurrentA: null, noise: [], cadence: 'shift' }).expect(201);
+  const req = await post(shop.s.safety, '/safety/ppe/requirements', {
+    machineId: shop.machineId,
+    task: 'Punching',
+    items: ['safety-glasses', 'safety-footwear'],
+    otherItems: [],
+    arcCurrentA: null,
+    noise: [],
+    cadence: 'shift',
+  }).expect(201);
   return { ...shop, reqId: req.body.id };
 }
-const ppeCheck = (shop: SafetyShop & { reqId: string }, who = shop.s.operator) => post(who, '/safety/ppe/checks', { requirementId: shop.reqId, confirmed: ['safety-glasses', 'safety-footwear'], password: PASSWORD });
+const ppeCheck = (shop: SafetyShop & { reqId: string }, who = shop.s.operator) =>
+  post(who, '/safety/ppe/checks', { requirementId: shop.reqId, confirmed: ['safety-glasses', 'safety-footwear'], password: PASSWORD });
 
 describe('sign-off chain', () => {
   it('links each signature to the one before it and verifies', async () => {
@@ -31,7 +40,23 @@ describe('sign-off chain', () => {
     for (let i = 1; i < rows.length; i++) expect(rows[i].prev_hash).toBe(rows[i - 1].hash);
     // The stored hash is SHA-256 over (prevHash, canonical content) (signature-chain.ts chainHash).
     const r = rows[1];
-    const content = signOffContent({ id: r.id, organizationId: r.organization_id, seq: r.seq, signedAt: r.signed_at, signerId: r.signer_id, signerName: r.signer_name, signerRole: r.signer_role, meaning: r.meaning, statement: r.statement, subjectType: r.subject_type, subjectId: r.subject_id, machineId: r.machine_id, details: r.details, correctsId: r.corrects_id, note: r.note });
+    const content = signOffContent({
+      id: r.id,
+      organizationId: r.organization_id,
+      seq: r.seq,
+      signedAt: r.signed_at,
+      signerId: r.signer_id,
+      signerName: r.signer_name,
+      signerRole: r.signer_role,
+      meaning: r.meaning,
+      statement: r.statement,
+      subjectType: r.subject_type,
+      subjectId: r.subject_id,
+      machineId: r.machine_id,
+      details: r.details,
+      correctsId: r.corrects_id,
+      note: r.note,
+    });
     expect(chainHash(r.prev_hash, content, sha256Hex)).toBe(r.hash);
     expect(rows[1].signer_name).toBe(`operator of ${shop.slug}`);
     expect(rows[1].meaning).toBe('ppe-check-done');
@@ -47,8 +72,12 @@ describe('sign-off chain', () => {
     try {
       const who = (await c.query('select current_user as u, (select rolsuper from pg_roles where rolname = current_user) as s')).rows[0];
       expect(who).toEqual({ u: 'kerfbook', s: false });
-      await expect(c.query(`update safety_sign_off set signer_name = 'Someone Else' where organization_id = $1`, [shop.orgId])).rejects.toThrow(/permission denied for table safety_sign_off/);
-      await expect(c.query('delete from safety_sign_off where organization_id = $1', [shop.orgId])).rejects.toThrow(/permission denied for table safety_sign_off/);
+      await expect(c.query(`update safety_sign_off set signer_name = 'Someone Else' where organization_id = $1`, [shop.orgId])).rejects.toThrow(
+        /permission denied for table safety_sign_off/,
+      );
+      await expect(c.query('delete from safety_sign_off where organization_id = $1', [shop.orgId])).rejects.toThrow(
+        /permission denied for table safety_sign_off/,
+      );
       await expect(c.query('truncate safety_sign_off cascade')).rejects.toThrow(/permission denied for table safety_sign_off/);
     } finally {
       await c.end();
@@ -58,7 +87,9 @@ describe('sign-off chain', () => {
     try {
       const who = (await o.query('select current_user as u, (select rolsuper from pg_roles where rolname = current_user) as s')).rows[0];
       expect(who).toEqual({ u: 'kerfbook_owner', s: false });
-      await expect(o.query(`update safety_sign_off set signer_name = 'Someone Else' where organization_id = $1`, [shop.orgId])).rejects.toThrow(/append-only: UPDATE/);
+      await expect(o.query(`update safety_sign_off set signer_name = 'Someone Else' where organization_id = $1`, [shop.orgId])).rejects.toThrow(
+        /append-only: UPDATE/,
+      );
       await expect(o.query('delete from safety_sign_off where organization_id = $1', [shop.orgId])).rejects.toThrow(/append-only: DELETE/);
       await expect(o.query('truncate safety_sign_off cascade')).rejects.toThrow(/append-only: TRUNCATE/);
       const still = (await o.query('select signer_name from safety_sign_off where organization_id = $1', [shop.orgId])).rows;
@@ -95,7 +126,9 @@ describe('sign-off chain', () => {
       await su.query('begin');
       await su.query('set local session_replication_role = replica');
       // ppe_check rows point at their sign-offs; the attacker removes those links too.
-      await su.query('delete from safety_ppe_check where sign_off_id in (select id from safety_sign_off where organization_id = $1 and seq in (2, 5))', [shop.orgId]);
+      await su.query('delete from safety_ppe_check where sign_off_id in (select id from safety_sign_off where organization_id = $1 and seq in (2, 5))', [
+        shop.orgId,
+      ]);
       await su.query('delete from safety_sign_off where organization_id = $1 and seq = 2', [shop.orgId]);
       await su.query('commit');
     } finally {
@@ -112,7 +145,9 @@ describe('sign-off chain', () => {
     try {
       await su2.query('begin');
       await su2.query('set local session_replication_role = replica');
-      await su2.query('delete from safety_ppe_check where sign_off_id in (select id from safety_sign_off where organization_id = $1 and seq = 3)', [other.orgId]);
+      await su2.query('delete from safety_ppe_check where sign_off_id in (select id from safety_sign_off where organization_id = $1 and seq = 3)', [
+        other.orgId,
+      ]);
       await su2.query('delete from safety_sign_off where organization_id = $1 and seq = 3', [other.orgId]);
       await su2.query('commit');
     } finally {
@@ -153,7 +188,11 @@ describe('sign-off chain', () => {
   it('refuses a wrong password with 401 and writes nothing', async () => {
     const shop = await shopWithPpe('chain-pw');
     const before = await countSignOffs(shop.orgId);
-    const res = await post(shop.s.operator, '/safety/ppe/checks', { requirementId: shop.reqId, confirmed: ['safety-glasses', 'safety-footwear'], password: 'not my password' }).expect(401);
+    const res = await post(shop.s.operator, '/safety/ppe/checks', {
+      requirementId: shop.reqId,
+      confirmed: ['safety-glasses', 'safety-footwear'],
+      password: 'not my password',
+    }).expect(401);
     expect(res.body.fields).toEqual([{ path: 'password', message: 'Wrong password: nothing was signed' }]);
     expect(res.body.message).toMatch(/nothing was signed/);
     expect(await countSignOffs(shop.orgId)).toBe(before);
@@ -181,7 +220,10 @@ describe('sign-off chain', () => {
     const original = list.body.rows[0];
     await post(shop.s.technician, `/safety/sign-offs/${original.id}/corrections`, { note: 'Signed at the wrong machine', password: PASSWORD }).expect(403);
     await post(shop.s.operator, `/safety/sign-offs/${original.id}/corrections`, { note: 'x', password: PASSWORD }).expect(400);
-    const fix = await post(shop.s.operator, `/safety/sign-offs/${original.id}/corrections`, { note: 'Signed at C1 but worked at PT1', password: PASSWORD }).expect(201);
+    const fix = await post(shop.s.operator, `/safety/sign-offs/${original.id}/corrections`, {
+      note: 'Signed at C1 but worked at PT1',
+      password: PASSWORD,
+    }).expect(201);
     expect(fix.body.seq).toBe(2);
     const after = await get(shop.s.safety, '/safety/sign-offs?sort=seq&dir=asc').expect(200);
     expect(after.body.rows[0]).toMatchObject({ seq: 1, correctedBy: [2], signerName: `operator of ${shop.slug}` });

@@ -22,9 +22,36 @@ export function cellProcedure(title = 'Full lockout of the punch/plasma cell'): 
     title,
     scope: 'Service inside the guarded area of the cell: punch head, torch, clamps and table.',
     sources: [
-      { key: 'E1', kind: 'electrical', description: 'Main supply to the cell cabinet', magnitude: '400 V 3-phase, 63 A', isolationDevice: 'Main disconnect Q0', location: 'Cabinet door, left side', relieveMethod: 'Wait 5 min for the drive capacitors to discharge', verifyMethod: 'Try start; test L1-L2-L3 to earth with a tested voltage tester' },
-      { key: 'H1', kind: 'hydraulic', description: 'Punch ram hydraulics with accumulator', magnitude: '210 bar, 4 L accumulator', isolationDevice: 'Pump motor via E1; accumulator dump valve V7', location: 'Hydraulic unit, rear', relieveMethod: 'Open dump valve V7 until the gauge reads 0 bar', verifyMethod: 'Gauge PG2 reads 0 bar; ram does not move on jog' },
-      { key: 'PL1', kind: 'plasma-power', description: 'Plasma power source for the torch', magnitude: '400 V in, 300 V open-circuit out', isolationDevice: 'Plasma source disconnect Q5', location: 'Plasma cabinet, front', relieveMethod: 'Wait 2 min after switch-off', verifyMethod: 'Source display dark; try arc start from the control' },
+      {
+        key: 'E1',
+        kind: 'electrical',
+        description: 'Main supply to the cell cabinet',
+        magnitude: '400 V 3-phase, 63 A',
+        isolationDevice: 'Main disconnect Q0',
+        location: 'Cabinet door, left side',
+        relieveMethod: 'Wait 5 min for the drive capacitors to discharge',
+        verifyMethod: 'Try start; test L1-L2-L3 to earth with a tested voltage tester',
+      },
+      {
+        key: 'H1',
+        kind: 'hydraulic',
+        description: 'Punch ram hydraulics with accumulator',
+        magnitude: '210 bar, 4 L accumulator',
+        isolationDevice: 'Pump motor via E1; accumulator dump valve V7',
+        location: 'Hydraulic unit, rear',
+        relieveMethod: 'Open dump valve V7 until the gauge reads 0 bar',
+        verifyMethod: 'Gauge PG2 reads 0 bar; ram does not move on jog',
+      },
+      {
+        key: 'PL1',
+        kind: 'plasma-power',
+        description: 'Plasma power source for the torch',
+        magnitude: '400 V in, 300 V open-circuit out',
+        isolationDevice: 'Plasma source disconnect Q5',
+        location: 'Plasma cabinet, front',
+        relieveMethod: 'Wait 2 min after switch-off',
+        verifyMethod: 'Source display dark; try arc start from the control',
+      },
     ],
     steps: {
       prepare: ['Tell the operator and affected employees that the cell will be locked out.'],
@@ -49,7 +76,6 @@ export async function makeSafetyShop(app: AppHandle['app'], em: EntityManager, l
   for (const role of ROLES) s[role] = await signIn(app, shop.users[role].email);
   return { ...shop, machineId: m1.id, machineCode: 'C1', otherMachineId: m2.id, s };
 }
-
 
 /** Creates and approves a procedure for the shop's cell; returns its id. */
 export async function approvedProcedure(shop: SafetyShop, content = cellProcedure(), machineId = shop.machineId): Promise<string> {

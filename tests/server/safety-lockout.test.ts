@@ -18,7 +18,13 @@ beforeAll(async () => {
 afterAll(() => t.close());
 
 const apply = (who = shop.s.technician, overrides: Record<string, unknown> = {}) =>
-  post(who, '/safety/lockouts', { procedureId: procId, reason: 'Replace the punch head clamp', points: lockPoints(`L${Math.random().toString(36).slice(2, 6)}`), password: PASSWORD, ...overrides });
+  post(who, '/safety/lockouts', {
+    procedureId: procId,
+    reason: 'Replace the punch head clamp',
+    points: lockPoints(`L${Math.random().toString(36).slice(2, 6)}`),
+    password: PASSWORD,
+    ...overrides,
+  });
 
 describe('lockout sessions', () => {
   it('refuses bad input with clear errors and writes nothing', async () => {
@@ -57,25 +63,55 @@ describe('lockout sessions', () => {
     // Verification: every point ticked, by the holder.
     const pointIds = d.body.points.map((p: { id: string }) => p.id);
     await post(shop.s.safety, `/safety/lockouts/${id}/verify`, { testedPointIds: pointIds, startAttempted: true, password: PASSWORD }).expect(403);
-    const partial = await post(shop.s.technician, `/safety/lockouts/${id}/verify`, { testedPointIds: pointIds.slice(0, 2), startAttempted: true, password: PASSWORD }).expect(400);
+    const partial = await post(shop.s.technician, `/safety/lockouts/${id}/verify`, {
+      testedPointIds: pointIds.slice(0, 2),
+      startAttempted: true,
+      password: PASSWORD,
+    }).expect(400);
     expect(partial.body.message).toBe('Test every isolation point before signing; not ticked: PL1');
-    const noStart = await post(shop.s.technician, `/safety/lockouts/${id}/verify`, { testedPointIds: pointIds, startAttempted: false, password: PASSWORD }).expect(400);
+    const noStart = await post(shop.s.technician, `/safety/lockouts/${id}/verify`, {
+      testedPointIds: pointIds,
+      startAttempted: false,
+      password: PASSWORD,
+    }).expect(400);
     expect(noStart.body.fields[0].path).toBe('startAttempted');
     await post(shop.s.technician, `/safety/lockouts/${id}/verify`, { testedPointIds: pointIds, startAttempted: true, password: PASSWORD }).expect(201);
 
     // Someone else tries to release: refused, naming whose locks they are (1910.147(e)(3)).
-    const notMine = await post(shop.s.safety, `/safety/lockouts/${id}/release`, { areaChecked: true, peopleClear: true, affectedNotified: true, password: PASSWORD }).expect(403);
-    expect(notMine.body.message).toMatch(/^Only the person who applied a lock removes it \(OSHA 29 CFR 1910\.147\(e\)\(3\)\): E1 lock .* belongs to technician of/);
+    const notMine = await post(shop.s.safety, `/safety/lockouts/${id}/release`, {
+      areaChecked: true,
+      peopleClear: true,
+      affectedNotified: true,
+      password: PASSWORD,
+    }).expect(403);
+    expect(notMine.body.message).toMatch(
+      /^Only the person who applied a lock removes it \(OSHA 29 CFR 1910\.147\(e\)\(3\)\): E1 lock .* belongs to technician of/,
+    );
     // The release checklist is not optional.
-    const unchecked = await post(shop.s.technician, `/safety/lockouts/${id}/release`, { areaChecked: true, peopleClear: false, affectedNotified: true, password: PASSWORD }).expect(400);
+    const unchecked = await post(shop.s.technician, `/safety/lockouts/${id}/release`, {
+      areaChecked: true,
+      peopleClear: false,
+      affectedNotified: true,
+      password: PASSWORD,
+    }).expect(400);
     expect(unchecked.body.fields).toEqual([{ path: 'peopleClear', message: 'Make sure everyone is clear of the machine' }]);
-    await post(shop.s.technician, `/safety/lockouts/${id}/release`, { areaChecked: true, peopleClear: true, affectedNotified: true, password: PASSWORD }).expect(201);
+    await post(shop.s.technician, `/safety/lockouts/${id}/release`, {
+      areaChecked: true,
+      peopleClear: true,
+      affectedNotified: true,
+      password: PASSWORD,
+    }).expect(201);
 
     d = await get(shop.s.operator, `/safety/lockouts/${id}`).expect(200);
     expect(d.body.state).toBe('released');
     expect(d.body.points.every((p: { removedByName: string }) => p.removedByName === `technician of ${shop.slug}`)).toBe(true);
     expect(d.body.signOffs.map((s: { meaning: string }) => s.meaning)).toEqual(['lockout-applied', 'isolation-verified', 'lockout-released']);
-    await post(shop.s.technician, `/safety/lockouts/${id}/release`, { areaChecked: true, peopleClear: true, affectedNotified: true, password: PASSWORD }).expect(409);
+    await post(shop.s.technician, `/safety/lockouts/${id}/release`, {
+      areaChecked: true,
+      peopleClear: true,
+      affectedNotified: true,
+      password: PASSWORD,
+    }).expect(409);
     await get(other.s.operator, `/safety/lockouts/${id}`).expect(404);
   });
 
@@ -90,19 +126,38 @@ describe('lockout sessions', () => {
     await post(shop.s.safety, `/safety/lockouts/${id}/join`, { lockNumber: 'P-200', password: PASSWORD }).expect(409); // that lock is on already
     await post(shop.s.safety, `/safety/lockouts/${id}/join`, { lockNumber: 'P-300', password: PASSWORD }).expect(201);
 
-    const blocked = await post(shop.s.technician, `/safety/lockouts/${id}/release`, { areaChecked: true, peopleClear: true, affectedNotified: true, password: PASSWORD }).expect(409);
-    expect(blocked.body.message).toBe(`Personal locks are still on this group lockout: Second Technician (P-200), safety of ${shop.slug} (P-300). Each person removes their own lock first.`);
+    const blocked = await post(shop.s.technician, `/safety/lockouts/${id}/release`, {
+      areaChecked: true,
+      peopleClear: true,
+      affectedNotified: true,
+      password: PASSWORD,
+    }).expect(409);
+    expect(blocked.body.message).toBe(
+      `Personal locks are still on this group lockout: Second Technician (P-200), safety of ${shop.slug} (P-300). Each person removes their own lock first.`,
+    );
     // Nobody takes another person's personal lock off.
     await post(shop.s.technician, `/safety/lockouts/${id}/leave`, { password: PASSWORD }).expect(409);
     await post(tech2, `/safety/lockouts/${id}/leave`, { password: PASSWORD }).expect(201);
     await post(shop.s.safety, `/safety/lockouts/${id}/leave`, { password: PASSWORD }).expect(201);
-    await post(shop.s.technician, `/safety/lockouts/${id}/release`, { areaChecked: true, peopleClear: true, affectedNotified: true, password: PASSWORD }).expect(201);
+    await post(shop.s.technician, `/safety/lockouts/${id}/release`, {
+      areaChecked: true,
+      peopleClear: true,
+      affectedNotified: true,
+      password: PASSWORD,
+    }).expect(201);
     const d = await get(shop.s.safety, `/safety/lockouts/${id}`).expect(200);
     expect(d.body.members.map((m: { name: string; leftAt: string | null }) => [m.name, m.leftAt !== null])).toEqual([
       ['Second Technician', true],
       [`safety of ${shop.slug}`, true],
     ]);
-    expect(d.body.signOffs.map((s: { meaning: string }) => s.meaning)).toEqual(['lockout-applied', 'member-joined', 'member-joined', 'member-left', 'member-left', 'lockout-released']);
+    expect(d.body.signOffs.map((s: { meaning: string }) => s.meaning)).toEqual([
+      'lockout-applied',
+      'member-joined',
+      'member-joined',
+      'member-left',
+      'member-left',
+      'lockout-released',
+    ]);
     expect(second.user.id).toBeTruthy();
   });
 
@@ -110,18 +165,33 @@ describe('lockout sessions', () => {
     const applied = await apply().expect(201);
     const id = applied.body.id;
     // Only an authorized employee can take over.
-    const toOperator = await post(shop.s.technician, `/safety/lockouts/${id}/handover`, { toUserId: shop.users.operator.userId, password: PASSWORD }).expect(400);
+    const toOperator = await post(shop.s.technician, `/safety/lockouts/${id}/handover`, { toUserId: shop.users.operator.userId, password: PASSWORD }).expect(
+      400,
+    );
     expect(toOperator.body.fields[0].path).toBe('toUserId');
     await post(shop.s.safety, `/safety/lockouts/${id}/handover`, { toUserId: shop.users.safety.userId, password: PASSWORD }).expect(403);
-    await post(shop.s.technician, `/safety/lockouts/${id}/handover`, { toUserId: shop.users.safety.userId, note: 'Night shift carries on', password: PASSWORD }).expect(201);
+    await post(shop.s.technician, `/safety/lockouts/${id}/handover`, {
+      toUserId: shop.users.safety.userId,
+      note: 'Night shift carries on',
+      password: PASSWORD,
+    }).expect(201);
     let d = await get(shop.s.safety, `/safety/lockouts/${id}`).expect(200);
     expect(d.body.pendingHandoverToName).toBe(`safety of ${shop.slug}`);
     const pts = d.body.points as { id: string; sourceKey: string }[];
     // Not everyone can accept, and every point needs the oncoming person's lock.
-    await post(shop.s.technician, `/safety/lockouts/${id}/accept-handover`, { locks: pts.map((p, i) => ({ pointId: p.id, lockNumber: `N-${i}` })), password: PASSWORD }).expect(403);
-    const short = await post(shop.s.safety, `/safety/lockouts/${id}/accept-handover`, { locks: pts.slice(1).map((p, i) => ({ pointId: p.id, lockNumber: `N-${i}` })), password: PASSWORD }).expect(400);
+    await post(shop.s.technician, `/safety/lockouts/${id}/accept-handover`, {
+      locks: pts.map((p, i) => ({ pointId: p.id, lockNumber: `N-${i}` })),
+      password: PASSWORD,
+    }).expect(403);
+    const short = await post(shop.s.safety, `/safety/lockouts/${id}/accept-handover`, {
+      locks: pts.slice(1).map((p, i) => ({ pointId: p.id, lockNumber: `N-${i}` })),
+      password: PASSWORD,
+    }).expect(400);
     expect(short.body.message).toBe('Put your own lock on every point before taking over; missing: E1');
-    await post(shop.s.safety, `/safety/lockouts/${id}/accept-handover`, { locks: pts.map((p, i) => ({ pointId: p.id, lockNumber: `N-${i}` })), password: PASSWORD }).expect(201);
+    await post(shop.s.safety, `/safety/lockouts/${id}/accept-handover`, {
+      locks: pts.map((p, i) => ({ pointId: p.id, lockNumber: `N-${i}` })),
+      password: PASSWORD,
+    }).expect(201);
     d = await get(shop.s.safety, `/safety/lockouts/${id}`).expect(200);
     expect(d.body.primaryName).toBe(`safety of ${shop.slug}`);
     const active = d.body.points.filter((p: { removedAt: string | null }) => p.removedAt === null);
@@ -131,17 +201,63 @@ describe('lockout sessions', () => {
       ['N-2', `safety of ${shop.slug}`],
     ]);
     // The off-going technician can no longer release; the new holder can.
-    await post(shop.s.technician, `/safety/lockouts/${id}/release`, { areaChecked: true, peopleClear: true, affectedNotified: true, password: PASSWORD }).expect(403);
-    await post(shop.s.safety, `/safety/lockouts/${id}/release`, { areaChecked: true, peopleClear: true, affectedNotified: true, password: PASSWORD }).expect(201);
+    await post(shop.s.technician, `/safety/lockouts/${id}/release`, {
+      areaChecked: true,
+      peopleClear: true,
+      affectedNotified: true,
+      password: PASSWORD,
+    }).expect(403);
+    await post(shop.s.safety, `/safety/lockouts/${id}/release`, { areaChecked: true, peopleClear: true, affectedNotified: true, password: PASSWORD }).expect(
+      201,
+    );
     const sigs = await get(shop.s.safety, `/safety/sign-offs?sort=seq&dir=asc&meaning=handover-accepted`).expect(200);
     expect(sigs.body.rows.at(-1).summary).toMatch(/taken over from technician of .*; E1 .* → N-0, H1 .* → N-1, PL1 .* → N-2/);
   });
 
   it('marks the linked work order applied and released, inside the same transaction', async () => {
     const em = t.em();
-    const wo = em.create(WorkOrder, { organization: shop.orgId, number: 5001, machine: shop.machineId, kind: 'corrective', title: 'Replace clamp', instructions: '', status: 'open', requiresLockout: true, checklist: [], plannedParts: [], labourMinutes: 0, notes: '' });
-    const foreign = em.create(WorkOrder, { organization: other.orgId, number: 5002, machine: other.machineId, kind: 'corrective', title: 'Theirs', instructions: '', status: 'open', requiresLockout: true, checklist: [], plannedParts: [], labourMinutes: 0, notes: '' });
-    const elsewhere = em.create(WorkOrder, { organization: shop.orgId, number: 5003, machine: shop.otherMachineId, kind: 'corrective', title: 'Table', instructions: '', status: 'open', requiresLockout: true, checklist: [], plannedParts: [], labourMinutes: 0, notes: '' });
+    const wo = em.create(WorkOrder, {
+      organization: shop.orgId,
+      number: 5001,
+      machine: shop.machineId,
+      kind: 'corrective',
+      title: 'Replace clamp',
+      instructions: '',
+      status: 'open',
+      requiresLockout: true,
+      checklist: [],
+      plannedParts: [],
+      labourMinutes: 0,
+      notes: '',
+    });
+    const foreign = em.create(WorkOrder, {
+      organization: other.orgId,
+      number: 5002,
+      machine: other.machineId,
+      kind: 'corrective',
+      title: 'Theirs',
+      instructions: '',
+      status: 'open',
+      requiresLockout: true,
+      checklist: [],
+      plannedParts: [],
+      labourMinutes: 0,
+      notes: '',
+    });
+    const elsewhere = em.create(WorkOrder, {
+      organization: shop.orgId,
+      number: 5003,
+      machine: shop.otherMachineId,
+      kind: 'corrective',
+      title: 'Table',
+      instructions: '',
+      status: 'open',
+      requiresLockout: true,
+      checklist: [],
+      plannedParts: [],
+      labourMinutes: 0,
+      notes: '',
+    });
     await em.flush();
     const before = await countSignOffs(shop.orgId);
     await apply(shop.s.technician, { workOrderId: foreign.id }).expect(404);
@@ -153,7 +269,12 @@ describe('lockout sessions', () => {
     let row = await t.em().findOneOrFail(WorkOrder, wo.id, { filters: false });
     expect(row.lockoutSessionId).toBe(applied.body.id);
     expect(row.lockoutReleasedAt).toBeNull();
-    await post(shop.s.technician, `/safety/lockouts/${applied.body.id}/release`, { areaChecked: true, peopleClear: true, affectedNotified: true, password: PASSWORD }).expect(201);
+    await post(shop.s.technician, `/safety/lockouts/${applied.body.id}/release`, {
+      areaChecked: true,
+      peopleClear: true,
+      affectedNotified: true,
+      password: PASSWORD,
+    }).expect(201);
     row = await t.em().findOneOrFail(WorkOrder, wo.id, { filters: false });
     expect(row.lockoutReleasedAt).toBeInstanceOf(Date);
   });

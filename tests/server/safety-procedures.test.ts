@@ -38,13 +38,23 @@ function png(): Buffer {
     return Buffer.concat([len, td, c]);
   };
   const ihdr = Buffer.from([0, 0, 0, 1, 0, 0, 0, 1, 8, 0, 0, 0, 0]);
-  return Buffer.concat([Buffer.from([0x89, 0x50, 0x4e, 0x47, 0x0d, 0x0a, 0x1a, 0x0a]), chunk('IHDR', ihdr), chunk('IDAT', deflateSync(Buffer.from([0, 128]))), chunk('IEND', Buffer.alloc(0))]);
+  return Buffer.concat([
+    Buffer.from([0x89, 0x50, 0x4e, 0x47, 0x0d, 0x0a, 0x1a, 0x0a]),
+    chunk('IHDR', ihdr),
+    chunk('IDAT', deflateSync(Buffer.from([0, 128]))),
+    chunk('IEND', Buffer.alloc(0)),
+  ]);
 }
 
 describe('energy-control procedures', () => {
   it('rejects a procedure without the steps of 1910.147(d), naming each missing field', async () => {
     const bad = cellProcedure();
-    const res = await post(shop.s.safety, '/safety/procedures', { ...bad, machineId: shop.machineId, steps: { ...bad.steps, relieve: [], verify: [] }, sources: [bad.sources[0], { ...bad.sources[1], key: 'E1' }] }).expect(400);
+    const res = await post(shop.s.safety, '/safety/procedures', {
+      ...bad,
+      machineId: shop.machineId,
+      steps: { ...bad.steps, relieve: [], verify: [] },
+      sources: [bad.sources[0], { ...bad.sources[1], key: 'E1' }],
+    }).expect(400);
     const paths = res.body.fields.map((f: { path: string }) => f.path);
     expect(paths).toEqual(expect.arrayContaining(['steps.relieve', 'steps.verify', 'sources.1.key']));
     expect(res.body.fields.find((f: { path: string }) => f.path === 'steps.verify').message).toBe('Verify isolation: add at least one step');
@@ -54,7 +64,11 @@ describe('energy-control procedures', () => {
   it('refuses an isolation-point tag that is also a machine code, and suggests one in the machine-code scheme', async () => {
     const p = cellProcedure();
     // PT1 is the shop's plasma table: a lock tagged "PT1" on cell C1 would read as that machine.
-    const res = await post(shop.s.safety, '/safety/procedures', { ...p, machineId: shop.machineId, sources: [p.sources[0], { ...p.sources[1], key: 'PT1' }] }).expect(400);
+    const res = await post(shop.s.safety, '/safety/procedures', {
+      ...p,
+      machineId: shop.machineId,
+      sources: [p.sources[0], { ...p.sources[1], key: 'PT1' }],
+    }).expect(400);
     expect(res.body.fields).toEqual([{ path: 'sources.1.key', message: 'PT1 is also a machine code; use a tag such as C1-E2' }]);
     expect((await get(shop.s.safety, '/safety/procedures').expect(200)).body).toEqual([]);
     expect([pointTag('C2', 1), pointTag('LONGCODE', 3), nextPointTag('C2', ['C2-E1', 'C2-E3'])]).toEqual(['C2-E1', 'E3', 'C2-E2']);
@@ -115,7 +129,12 @@ describe('energy-control procedures', () => {
 
   it('takes isolation-point photos checked by their bytes, with a size cap, on drafts only', async () => {
     const id = await approvedProcedure(shop, cellProcedure('Photo procedure'));
-    const upload = (buf: Buffer, name: string, key = 'E1') => shop.s.safety.agent.post(`/api/safety/procedures/${id}/photos`).set('X-CSRF-Token', shop.s.safety.csrf).field('sourceKey', key).attach('photo', buf, name);
+    const upload = (buf: Buffer, name: string, key = 'E1') =>
+      shop.s.safety.agent
+        .post(`/api/safety/procedures/${id}/photos`)
+        .set('X-CSRF-Token', shop.s.safety.csrf)
+        .field('sourceKey', key)
+        .attach('photo', buf, name);
     let res = await upload(png(), 'q0.png');
     expect(res.status).toBe(409); // approved versions do not change
     await put(shop.s.safety, `/safety/procedures/${id}/draft`, cellProcedure('Photo procedure')).expect(200);
@@ -137,11 +156,14 @@ describe('energy-control procedures', () => {
 
   it('prints a placard PDF of the approved version with its steps and the caution', async () => {
     const id = await approvedProcedure(shop, cellProcedure('Placard procedure'));
-    const res = await shop.s.operator.agent.get(`/api/safety/procedures/${id}/placard.pdf`).buffer(true).parse((r, cb) => {
-      const chunks: Buffer[] = [];
-      r.on('data', (c: Buffer) => chunks.push(c));
-      r.on('end', () => cb(null, Buffer.concat(chunks)));
-    });
+    const res = await shop.s.operator.agent
+      .get(`/api/safety/procedures/${id}/placard.pdf`)
+      .buffer(true)
+      .parse((r, cb) => {
+        const chunks: Buffer[] = [];
+        r.on('data', (c: Buffer) => chunks.push(c));
+        r.on('end', () => cb(null, Buffer.concat(chunks)));
+      });
     expect(res.status).toBe(200);
     expect(res.headers['content-type']).toBe('application/pdf');
     const pdf = await readPdf(res.body as Buffer);
@@ -150,7 +172,14 @@ describe('energy-control procedures', () => {
     expect(text).toContain('C1');
     expect(text).toContain('Main disconnect Q0');
     // The six phases of OSHA 29 CFR 1910.147(d), in order.
-    const order = ['Prepare for shutdown', 'Shut the machine down', 'Isolate every energy source', 'Apply locks and tags', 'Relieve stored energy', 'Verify isolation'].map((h) => text.indexOf(h));
+    const order = [
+      'Prepare for shutdown',
+      'Shut the machine down',
+      'Isolate every energy source',
+      'Apply locks and tags',
+      'Relieve stored energy',
+      'Verify isolation',
+    ].map((h) => text.indexOf(h));
     expect(order.every((i) => i >= 0)).toBe(true);
     expect([...order].sort((a, b) => a - b)).toEqual(order);
     expect(text.replace(/\s+/g, ' ')).toContain(WORK_CAUTION.slice(0, 60).replace(/’/g, '’'));

@@ -64,7 +64,10 @@ export async function startServer(env: Record<string, string>, readyTimeoutMs = 
   const deadline = Date.now() + readyTimeoutMs;
   for (;;) {
     if (ended) throw new Error(`server exited during start-up:\n${out}`);
-    const ok = await fetch(`${url}/api/health`).then((r) => r.ok, () => false);
+    const ok = await fetch(`${url}/api/health`).then(
+      (r) => r.ok,
+      () => false,
+    );
     if (ok) break;
     if (Date.now() > deadline) {
       proc.kill('SIGKILL');

@@ -28,7 +28,9 @@ async function sessionId(agent: supertest.Agent): Promise<string> {
   const res = await agent.get('/api/auth/csrf');
   const cookie = ([] as string[]).concat(res.headers['set-cookie'] ?? []).find((c) => c.startsWith(`${SESSION_COOKIE}=`));
   if (!cookie) throw new Error('no session cookie in the answer');
-  return decodeURIComponent(cookie.split(';')[0].slice(SESSION_COOKIE.length + 1)).replace(/^s:/, '').replace(/\.[^.]*$/, '');
+  return decodeURIComponent(cookie.split(';')[0].slice(SESSION_COOKIE.length + 1))
+    .replace(/^s:/, '')
+    .replace(/\.[^.]*$/, '');
 }
 
 async function storedExpiry(sid: string): Promise<number> {

@@ -40,10 +40,25 @@ describe('station view: lockouts and work due', () => {
   it('reports a lockout on the machine while it is applied, to this shop only', async () => {
     expect((await station()).lockouts).toEqual([]);
     const procId = await approvedProcedure(shop);
-    const id = (await post(shop.s.technician, '/safety/lockouts', { procedureId: procId, reason: 'Replace the punch head clamp', points: lockPoints('ST'), password: PASSWORD }).expect(201)).body.id;
+    const id = (
+      await post(shop.s.technician, '/safety/lockouts', {
+        procedureId: procId,
+        reason: 'Replace the punch head clamp',
+        points: lockPoints('ST'),
+        password: PASSWORD,
+      }).expect(201)
+    ).body.id;
     const s = await station();
     // The holder is named so the operator knows whom to ask before the machine is run again.
-    expect(s.lockouts).toEqual([expect.objectContaining({ id, machineCode: 'C1', state: 'locked', reason: 'Replace the punch head clamp', heldBy: expect.stringMatching(/^technician of /) })]);
+    expect(s.lockouts).toEqual([
+      expect.objectContaining({
+        id,
+        machineCode: 'C1',
+        state: 'locked',
+        reason: 'Replace the punch head clamp',
+        heldBy: expect.stringMatching(/^technician of /),
+      }),
+    ]);
     // Locking out the cell locks out its components too.
     expect((await station(shop.s.operator, 'C1-PH')).lockouts.map((l: { id: string }) => l.id)).toEqual([id]);
     const table = (await get(shop.s.operator, '/stations/PT1').expect(200)).body;

@@ -10,7 +10,6 @@ let op: SignedIn;
 let otherTech: SignedIn;
 let electrode: string;
 
-
 async function moveCount(orgId: string) {
   const em = t.em();
   em.setFilterParams('org', { orgId });
@@ -29,12 +28,23 @@ afterAll(() => t.close());
 
 describe('part catalogue and stock', () => {
   it('creates a part with its opening stock recorded as a move', async () => {
-    const res = await post(tech, '/part-types', { partNumber: 'EL-130-A', name: 'Electrode 130 A air', category: 'electrode', lifeUnit: 'starts', expectedLife: 1200, unitCost: 14.5, leadTimeDays: 7, openingStock: 20 }).expect(201);
+    const res = await post(tech, '/part-types', {
+      partNumber: 'EL-130-A',
+      name: 'Electrode 130 A air',
+      category: 'electrode',
+      lifeUnit: 'starts',
+      expectedLife: 1200,
+      unitCost: 14.5,
+      leadTimeDays: 7,
+      openingStock: 20,
+    }).expect(201);
     electrode = res.body.id;
     const part = await op.agent.get(`/api/part-types/${electrode}`).expect(200);
     expect(part.body).toMatchObject({ partNumber: 'EL-130-A', onHand: 20, unitCost: 14.5, serviceLevel: 0.95, reorderPoint: 0, low: false });
     const moves = await op.agent.get(`/api/part-types/${electrode}/moves`).expect(200);
-    expect(moves.body.rows).toEqual([expect.objectContaining({ kind: 'adjusted', quantity: 20, onHandAfter: 20, reason: 'Opening stock', by: `technician of ${a.slug}` })]);
+    expect(moves.body.rows).toEqual([
+      expect.objectContaining({ kind: 'adjusted', quantity: 20, onHandAfter: 20, reason: 'Opening stock', by: `technician of ${a.slug}` }),
+    ]);
   });
 
   it('refuses a duplicate part number and bad input, naming the fields', async () => {
@@ -96,7 +106,14 @@ describe('part catalogue and stock', () => {
 
 describe('costs in the shop currency', () => {
   it("gives each part the currency from the shop's settings, and none when unset or not a currency code", async () => {
-    const setCurrency = (v: unknown) => t.em().getConnection().execute(`update organization set settings = jsonb_set(coalesce(settings, '{}'::jsonb), '{currency}', ?::jsonb) where id = ?`, [JSON.stringify(v), a.orgId]);
+    const setCurrency = (v: unknown) =>
+      t
+        .em()
+        .getConnection()
+        .execute(`update organization set settings = jsonb_set(coalesce(settings, '{}'::jsonb), '{currency}', ?::jsonb) where id = ?`, [
+          JSON.stringify(v),
+          a.orgId,
+        ]);
     const row = async () => (await op.agent.get(`/api/part-types/${electrode}`).expect(200)).body;
     expect((await row()).currency).toBeNull();
     await setCurrency('EUR');

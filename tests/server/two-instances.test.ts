@@ -34,8 +34,11 @@ async function jobRuns(orgId: string, since = new Date(0)) {
   const c = new pg.Client({ connectionString: process.env.DATABASE_URL });
   await c.connect();
   try {
-    const r = await c.query(`select pass_id, min(started_at) as started, max(finished_at) as finished from job_run
-      where organization_id = $1 and started_at > $2 group by pass_id order by 2`, [orgId, since]);
+    const r = await c.query(
+      `select pass_id, min(started_at) as started, max(finished_at) as finished from job_run
+      where organization_id = $1 and started_at > $2 group by pass_id order by 2`,
+      [orgId, since],
+    );
     return r.rows as { pass_id: string; started: Date; finished: Date }[];
   } finally {
     await c.end();
@@ -65,11 +68,20 @@ describe('two instances against one database', () => {
     const me = await onB.get('/api/me').set('Cookie', cookie).expect(200);
     expect(JSON.stringify(me.body)).toContain(shop.users.admin.email);
     // A change on B with the CSRF token A handed out; A sees it.
-    const plan = await onB.post('/api/plans').set('Cookie', cookie).set('X-CSRF-Token', token).send(planBody(machineId, { title: 'Filter change (two instances)' })).expect(201);
+    const plan = await onB
+      .post('/api/plans')
+      .set('Cookie', cookie)
+      .set('X-CSRF-Token', token)
+      .send(planBody(machineId, { title: 'Filter change (two instances)' }))
+      .expect(201);
     const listed = await onA.get('/api/plans').expect(200);
     expect(JSON.stringify(listed.body)).toContain(plan.body.id);
 
-    await onB.post('/api/auth/logout').set('Cookie', cookie).set('X-CSRF-Token', token).expect((r) => expect(r.status).toBeLessThan(300));
+    await onB
+      .post('/api/auth/logout')
+      .set('Cookie', cookie)
+      .set('X-CSRF-Token', token)
+      .expect((r) => expect(r.status).toBeLessThan(300));
     await onA.get('/api/me').expect(401);
   });
 

@@ -29,8 +29,16 @@ describe('user management', () => {
     expect(list.body.rows[0]).toMatchObject({ email, role: 'operator', status: 'invited' });
 
     const anon = await anonymous(t.app);
-    await anon.agent.post('/api/auth/redeem').set('X-CSRF-Token', anon.csrf).send({ token, password: 'a long new passphrase', confirm: 'a long new passphrase' }).expect(200);
-    const reuse = await anon.agent.post('/api/auth/redeem').set('X-CSRF-Token', anon.csrf).send({ token, password: 'another passphrase!', confirm: 'another passphrase!' }).expect(400);
+    await anon.agent
+      .post('/api/auth/redeem')
+      .set('X-CSRF-Token', anon.csrf)
+      .send({ token, password: 'a long new passphrase', confirm: 'a long new passphrase' })
+      .expect(200);
+    const reuse = await anon.agent
+      .post('/api/auth/redeem')
+      .set('X-CSRF-Token', anon.csrf)
+      .send({ token, password: 'another passphrase!', confirm: 'another passphrase!' })
+      .expect(400);
     expect(reuse.body.message).toMatch(/already used/);
 
     await signIn(t.app, email, 'a long new passphrase');
@@ -50,9 +58,17 @@ describe('user management', () => {
     expect(second).not.toBe(first);
 
     const anon = await anonymous(t.app);
-    const old = await anon.agent.post('/api/auth/redeem').set('X-CSRF-Token', anon.csrf).send({ token: first, password: 'a long new passphrase', confirm: 'a long new passphrase' }).expect(400);
+    const old = await anon.agent
+      .post('/api/auth/redeem')
+      .set('X-CSRF-Token', anon.csrf)
+      .send({ token: first, password: 'a long new passphrase', confirm: 'a long new passphrase' })
+      .expect(400);
     expect(old.body.message).toMatch(/already used/);
-    await anon.agent.post('/api/auth/redeem').set('X-CSRF-Token', anon.csrf).send({ token: second, password: 'a long new passphrase', confirm: 'a long new passphrase' }).expect(200);
+    await anon.agent
+      .post('/api/auth/redeem')
+      .set('X-CSRF-Token', anon.csrf)
+      .send({ token: second, password: 'a long new passphrase', confirm: 'a long new passphrase' })
+      .expect(200);
 
     const again = await admin.agent.post(`/api/users/${created.body.membershipId}/resend-invitation`).set('X-CSRF-Token', admin.csrf).expect(409);
     expect(again.body.message).toMatch(/already accepted/);
@@ -66,7 +82,11 @@ describe('user management', () => {
     const token = linkToken((await t.em().findOneOrFail(OutboxMail, { toAddress: email, kind: 'invitation' })).textBody);
     await admin.agent.patch(`/api/users/${created.body.membershipId}`).set('X-CSRF-Token', admin.csrf).send({ active: false }).expect(200);
     const anon = await anonymous(t.app);
-    const res = await anon.agent.post('/api/auth/redeem').set('X-CSRF-Token', anon.csrf).send({ token, password: 'a long new passphrase', confirm: 'a long new passphrase' }).expect(400);
+    const res = await anon.agent
+      .post('/api/auth/redeem')
+      .set('X-CSRF-Token', anon.csrf)
+      .send({ token, password: 'a long new passphrase', confirm: 'a long new passphrase' })
+      .expect(400);
     expect(res.body.message).toMatch(/already used/);
     const resend = await admin.agent.post(`/api/users/${created.body.membershipId}/resend-invitation`).set('X-CSRF-Token', admin.csrf).expect(409);
     expect(resend.body.message).toMatch(/deactivated/);
@@ -74,7 +94,11 @@ describe('user management', () => {
 
   it('refuses a duplicate invitation with the error on the e-mail field', async () => {
     const admin = await signIn(t.app, shop.users.admin.email);
-    const res = await admin.agent.post('/api/users').set('X-CSRF-Token', admin.csrf).send({ name: 'Again', email: shop.users.operator.email, role: 'operator' }).expect(409);
+    const res = await admin.agent
+      .post('/api/users')
+      .set('X-CSRF-Token', admin.csrf)
+      .send({ name: 'Again', email: shop.users.operator.email, role: 'operator' })
+      .expect(409);
     expect(res.body.fields).toEqual([{ path: 'email', message: 'Already a member' }]);
   });
 
@@ -86,7 +110,11 @@ describe('user management', () => {
     await admin.agent.patch(`/api/users/${shop.users.technician.membershipId}`).set('X-CSRF-Token', admin.csrf).send({ active: false }).expect(200);
     await tech.agent.get('/api/me').expect(401);
     const anon = await anonymous(t.app);
-    const res = await anon.agent.post('/api/auth/login').set('X-CSRF-Token', anon.csrf).send({ email: shop.users.technician.email, password: 'kerfbook-demo' }).expect(401);
+    const res = await anon.agent
+      .post('/api/auth/login')
+      .set('X-CSRF-Token', anon.csrf)
+      .send({ email: shop.users.technician.email, password: 'kerfbook-demo' })
+      .expect(401);
     expect(res.body.message).toMatch(/deactivated/);
   });
 
@@ -103,7 +131,11 @@ describe('user management', () => {
     expect(unknown.body).toEqual(known.body);
     const mail = await t.em().findOneOrFail(OutboxMail, { toAddress: shop.users.safety.email, kind: 'password-reset' });
     const token = linkToken(mail.textBody);
-    await anon.agent.post('/api/auth/redeem').set('X-CSRF-Token', anon.csrf).send({ token, password: 'safety first passphrase', confirm: 'safety first passphrase' }).expect(200);
+    await anon.agent
+      .post('/api/auth/redeem')
+      .set('X-CSRF-Token', anon.csrf)
+      .send({ token, password: 'safety first passphrase', confirm: 'safety first passphrase' })
+      .expect(200);
     await signIn(t.app, shop.users.safety.email, 'safety first passphrase');
   });
 
@@ -113,14 +145,22 @@ describe('user management', () => {
     const mail = await t.em().findOneOrFail(OutboxMail, { toAddress: shop.users.operator.email, kind: 'password-reset' });
     const token = linkToken(mail.textBody)!;
     await t.em().nativeUpdate(UserToken, { tokenHash: hashToken(token) }, { expiresAt: new Date(Date.now() - 1000) }, { filters: false });
-    const res = await anon.agent.post('/api/auth/redeem').set('X-CSRF-Token', anon.csrf).send({ token, password: 'too late passphrase', confirm: 'too late passphrase' }).expect(400);
+    const res = await anon.agent
+      .post('/api/auth/redeem')
+      .set('X-CSRF-Token', anon.csrf)
+      .send({ token, password: 'too late passphrase', confirm: 'too late passphrase' })
+      .expect(400);
     expect(res.body.message).toMatch(/expired/);
     await signIn(t.app, shop.users.operator.email); // the old password still works
   });
 
   it('names mismatched and short passwords on their fields', async () => {
     const anon = await anonymous(t.app);
-    const res = await anon.agent.post('/api/auth/redeem').set('X-CSRF-Token', anon.csrf).send({ token: 'x'.repeat(43), password: 'short', confirm: 'other' }).expect(400);
+    const res = await anon.agent
+      .post('/api/auth/redeem')
+      .set('X-CSRF-Token', anon.csrf)
+      .send({ token: 'x'.repeat(43), password: 'short', confirm: 'other' })
+      .expect(400);
     expect(res.body.fields).toEqual(expect.arrayContaining([{ path: 'password', message: 'Use at least 12 characters' }]));
   });
 });

@@ -9,7 +9,6 @@ import type { MachineKind, MeterKind } from '../../shared/schemas/machines';
 import type { PartCategory } from '../../shared/schemas/stock';
 export { del, get, patch, post, put } from '../setup/test-app';
 
-
 export function scoped(em: EntityManager, orgId: string): EntityManager {
   em.setFilterParams('org', { orgId });
   return em;

@@ -69,13 +69,17 @@ describe('plans: bad input gets a clear error and nothing is written', () => {
 
   it('an invalid RRULE and a start inside the spring-forward gap are field errors', async () => {
     const before = await count();
-    const res = await post(admin, '/plans', planBody(unit, {
-      triggers: [
-        { kind: 'calendar-fixed', start: '2026-03-09T07:00', rrule: 'FREQ=WEEKLY;BYDAY=XX' },
-        // 8 March 2026, 02:30 does not exist in America/Chicago (clocks go 02:00 → 03:00).
-        { kind: 'calendar-fixed', start: '2026-03-08T02:30', rrule: 'FREQ=WEEKLY;BYDAY=SU' },
-      ],
-    })).expect(400);
+    const res = await post(
+      admin,
+      '/plans',
+      planBody(unit, {
+        triggers: [
+          { kind: 'calendar-fixed', start: '2026-03-09T07:00', rrule: 'FREQ=WEEKLY;BYDAY=XX' },
+          // 8 March 2026, 02:30 does not exist in America/Chicago (clocks go 02:00 → 03:00).
+          { kind: 'calendar-fixed', start: '2026-03-08T02:30', rrule: 'FREQ=WEEKLY;BYDAY=SU' },
+        ],
+      }),
+    ).expect(400);
     expect(res.body.fields).toEqual([
       { path: 'triggers.0.rrule', message: 'BYDAY value "XX" is not [+/-n]MO..SU' },
       { path: 'triggers.1.start', message: expect.stringMatching(/does not exist in America\/Chicago/) },
@@ -84,18 +88,26 @@ describe('plans: bad input gets a clear error and nothing is written', () => {
   });
 
   it('a meter interval must be greater than zero; a condition needs a limit', async () => {
-    const res = await post(admin, '/plans', planBody(unit, {
-      triggers: [
-        { kind: 'meter', meterId: pumpHours, every: 0 },
-        { kind: 'condition', meterId: pumpHours },
-      ],
-    })).expect(400);
+    const res = await post(
+      admin,
+      '/plans',
+      planBody(unit, {
+        triggers: [
+          { kind: 'meter', meterId: pumpHours, every: 0 },
+          { kind: 'condition', meterId: pumpHours },
+        ],
+      }),
+    ).expect(400);
     expect(res.body.fields.map((f: { path: string }) => f.path)).toEqual(['triggers.0.every', 'triggers.1.above']);
     expect(res.body.fields[0].message).toBe('The meter interval must be greater than 0');
   });
 
   it('a condition trigger on a counter and a checklist measure without unit are refused', async () => {
-    const res = await post(admin, '/plans', planBody(unit, { checklist: [{ key: 'x', label: 'Pressure', kind: 'measure' }], triggers: [{ kind: 'condition', meterId: pumpHours, above: 10 }] })).expect(400);
+    const res = await post(
+      admin,
+      '/plans',
+      planBody(unit, { checklist: [{ key: 'x', label: 'Pressure', kind: 'measure' }], triggers: [{ kind: 'condition', meterId: pumpHours, above: 10 }] }),
+    ).expect(400);
     expect(res.body.fields).toEqual([{ path: 'checklist.0.unit', message: 'A measured value needs a unit' }]);
     const res2 = await post(admin, '/plans', planBody(unit, { triggers: [{ kind: 'condition', meterId: pumpHours, above: 10 }] })).expect(400);
     expect(res2.body.fields).toEqual([{ path: 'triggers.0.meterId', message: 'pump hours is a counter; a condition trigger needs a condition reading' }]);
@@ -193,12 +205,18 @@ describe('work order lifecycle', () => {
     expect(plan.body.openWorkOrder).toBeNull();
     const wo = await get(tech, `/work-orders/${woId}`).expect(200);
     expect(wo.body).toMatchObject({ status: 'done', labourMinutes: 55, notes: 'Element was loaded.', lockoutSessionId: sessionId });
-    expect(wo.body.history.map((h: { action: string }) => h.action)).toEqual(expect.arrayContaining(['work-order.raised', 'work-order.checklist', 'work-order.closed']));
+    expect(wo.body.history.map((h: { action: string }) => h.action)).toEqual(
+      expect.arrayContaining(['work-order.raised', 'work-order.checklist', 'work-order.closed']),
+    );
     await post(tech, `/work-orders/${woId}/move`, { move: 'start' }).expect(409);
   });
 
   it('completion moves a meter baseline to the current reading', async () => {
-    const res = await post(admin, '/plans', planBody(unit, { title: 'Pump hours filter', triggers: [{ kind: 'meter', meterId: pumpHours, every: 500 }] })).expect(201);
+    const res = await post(
+      admin,
+      '/plans',
+      planBody(unit, { title: 'Pump hours filter', triggers: [{ kind: 'meter', meterId: pumpHours, every: 500 }] }),
+    ).expect(201);
     const planId = res.body.id as string;
     // Baseline 1000 h (latest reading when the plan was made); 1 600 h later on → due at 1 500 h.
     await addReadings(scoped(t.em(), a.orgId), a.orgId, pumpHours, [{ at: '2026-02-01T08:00:00Z', value: 1600 }]);
@@ -244,7 +262,12 @@ describe('work order lifecycle', () => {
 describe('repair work raised by hand, lists and attachments', () => {
   it('an operator reports a fault; the technicians get a cautioned notice', async () => {
     await drainOutbox(orm);
-    const res = await post(op, '/work-orders', { machineId: unit, title: 'Hose weeping at the pump outlet', instructions: 'Seen at start of shift.', requiresLockout: true }).expect(201);
+    const res = await post(op, '/work-orders', {
+      machineId: unit,
+      title: 'Hose weeping at the pump outlet',
+      instructions: 'Seen at start of shift.',
+      requiresLockout: true,
+    }).expect(201);
     const mails = await pendingMails(orm, a.orgId);
     expect(mails.map((m) => m.toAddress)).toEqual([a.users.technician.email]);
     expect(mails[0].subject).toBe(`New work: WO ${res.body.number} Hose weeping at the pump outlet on HU1`);
@@ -280,7 +303,11 @@ describe('repair work raised by hand, lists and attachments', () => {
     const file = await get(op, `/work-orders/${woId}/attachments/${up.body.id}`).expect(200);
     expect(file.headers['content-type']).toBe('image/png');
     expect(Buffer.compare(file.body as Buffer, png)).toBe(0);
-    const fake = await tech.agent.post(`/api/work-orders/${woId}/attachments`).set('X-CSRF-Token', tech.csrf).attach('file', Buffer.from('#!/bin/sh\necho hi\n'), 'photo.png').expect(400);
+    const fake = await tech.agent
+      .post(`/api/work-orders/${woId}/attachments`)
+      .set('X-CSRF-Token', tech.csrf)
+      .attach('file', Buffer.from('#!/bin/sh\necho hi\n'), 'photo.png')
+      .expect(400);
     expect(fake.body.fields).toEqual([{ path: 'file', message: 'Not a photo or PDF' }]);
     const big = Buffer.concat([png, Buffer.alloc(9 * 1024 * 1024)]);
     const tooBig = await tech.agent.post(`/api/work-orders/${woId}/attachments`).set('X-CSRF-Token', tech.csrf).attach('file', big, 'big.png').expect(413);

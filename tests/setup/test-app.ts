@@ -12,7 +12,10 @@ import { registerJobSteps } from '../../server/jobs/register';
 
 export type TestShop = { orgId: string; slug: string; users: Record<Role, { email: string; userId: string; membershipId: string }> };
 
-export async function makeTestApp(env: Record<string, string> = {}, smtp: FakeSmtp | null = null): Promise<AppHandle & { config: Config; em: () => EntityManager }> {
+export async function makeTestApp(
+  env: Record<string, string> = {},
+  smtp: FakeSmtp | null = null,
+): Promise<AppHandle & { config: Config; em: () => EntityManager }> {
   const config = loadConfig({ ...process.env, NODE_ENV: 'test', LOGIN_LIMIT_PER_ADDRESS: '10000', ...env });
   const orm = await initORM(config.DATABASE_URL);
   registerJobSteps(config); // as server/index.ts does at start
@@ -37,9 +40,21 @@ export type SignedIn = { agent: TestAgent; csrf: string };
 
 // API calls as a signed-in person; every change carries the CSRF header.
 export const get = (s: SignedIn, url: string) => s.agent.get(`/api${url}`);
-export const post = (s: SignedIn, url: string, body: unknown = {}) => s.agent.post(`/api${url}`).set('X-CSRF-Token', s.csrf).send(body as object);
-export const put = (s: SignedIn, url: string, body: unknown = {}) => s.agent.put(`/api${url}`).set('X-CSRF-Token', s.csrf).send(body as object);
-export const patch = (s: SignedIn, url: string, body: unknown = {}) => s.agent.patch(`/api${url}`).set('X-CSRF-Token', s.csrf).send(body as object);
+export const post = (s: SignedIn, url: string, body: unknown = {}) =>
+  s.agent
+    .post(`/api${url}`)
+    .set('X-CSRF-Token', s.csrf)
+    .send(body as object);
+export const put = (s: SignedIn, url: string, body: unknown = {}) =>
+  s.agent
+    .put(`/api${url}`)
+    .set('X-CSRF-Token', s.csrf)
+    .send(body as object);
+export const patch = (s: SignedIn, url: string, body: unknown = {}) =>
+  s.agent
+    .patch(`/api${url}`)
+    .set('X-CSRF-Token', s.csrf)
+    .send(body as object);
 export const del = (s: SignedIn, url: string) => s.agent.delete(`/api${url}`).set('X-CSRF-Token', s.csrf).send({});
 
 /** Signs in through the real endpoints (CSRF token first, then login). */

@@ -31,7 +31,10 @@ export function registerAuthRoutes(r: ApiRouter, config: Config) {
     skipSuccessfulRequests: true,
     standardHeaders: 'draft-8',
     legacyHeaders: false,
-    keyGenerator: (req) => `acct:${String(req.body?.email ?? '').trim().toLowerCase()}`,
+    keyGenerator: (req) =>
+      `acct:${String(req.body?.email ?? '')
+        .trim()
+        .toLowerCase()}`,
     message: tooMany('Too many failed sign-ins for this account. Wait 15 minutes or reset the password.'),
   });
 

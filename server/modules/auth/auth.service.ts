@@ -89,7 +89,10 @@ async function issueReset(em: EntityManager, email: string, appUrl: string): Pro
     subject: 'Reset your Kerfbook password',
     ...renderMail({
       heading: 'Reset your password',
-      paragraphs: [`Hello ${user.name},`, 'Someone asked to reset the password of your Kerfbook account. The link works once, for one hour. If it was not you, ignore this mail.'],
+      paragraphs: [
+        `Hello ${user.name},`,
+        'Someone asked to reset the password of your Kerfbook account. The link works once, for one hour. If it was not you, ignore this mail.',
+      ],
       action: { label: 'Choose a new password', url },
     }),
   });
@@ -111,7 +114,8 @@ export async function redeemToken(em: EntityManager, token: string, password: st
   return em.transactional(async (tx) => {
     const row = await tx.findOne(UserToken, { tokenHash: hashToken(token) }, noScope);
     if (!row) throw badRequest('This link is not valid. Ask for a new one.', [{ path: 'token', message: 'Link not valid' }]);
-    if (row.usedAt) throw badRequest('This link was already used, or a newer one replaced it. Ask for a new one.', [{ path: 'token', message: 'Link already used' }]);
+    if (row.usedAt)
+      throw badRequest('This link was already used, or a newer one replaced it. Ask for a new one.', [{ path: 'token', message: 'Link already used' }]);
     if (row.expiresAt.getTime() < clock.ms()) throw badRequest('This link has expired. Ask for a new one.', [{ path: 'token', message: 'Link expired' }]);
     const user = await tx.findOneOrFail(User, row.user.id, noScope);
     user.passwordHash = await hashPassword(password);
@@ -120,7 +124,11 @@ export async function redeemToken(em: EntityManager, token: string, password: st
     await tx.nativeUpdate(UserToken, { user: user.id, usedAt: null, id: { $ne: row.id } }, { usedAt: clock.now() }, noScope);
     await endAllSessions(tx, user.id);
     const membership = await tx.findOne(Membership, { user }, noScope);
-    if (membership) recordActivity(tx, { orgId: membership.organization.id, userId: user.id }, row.purpose === 'invite' ? 'auth.invite-accepted' : 'auth.password-reset', { type: 'User', id: user.id });
+    if (membership)
+      recordActivity(tx, { orgId: membership.organization.id, userId: user.id }, row.purpose === 'invite' ? 'auth.invite-accepted' : 'auth.password-reset', {
+        type: 'User',
+        id: user.id,
+      });
     return { email: user.email };
   });
 }

@@ -7,7 +7,12 @@ import type { Config } from '../../config';
 import { createFeed, feedStatus, renderFeed, revokeFeed } from './calendar-feed.service';
 
 /** The token as it appears in the URL, with or without the .ics ending calendar apps like. */
-const tokenParam = z.object({ token: z.string().regex(/^[A-Za-z0-9_-]{20,100}(\.ics)?$/, 'Unknown calendar').transform((t) => t.replace(/\.ics$/, '')) });
+const tokenParam = z.object({
+  token: z
+    .string()
+    .regex(/^[A-Za-z0-9_-]{20,100}(\.ics)?$/, 'Unknown calendar')
+    .transform((t) => t.replace(/\.ics$/, '')),
+});
 
 export function registerCalendarFeedRoutes(r: ApiRouter, config: Config) {
   const em = () => requestEm() as EntityManager;

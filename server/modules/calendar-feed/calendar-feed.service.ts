@@ -41,7 +41,17 @@ export async function revokeFeed(em: EntityManager, who: Principal): Promise<Cal
   return { active: false, createdAt: null, lastUsedAt: null, url: null };
 }
 
-type WorkRow = { id: string; number: number; title: string; due_at: Date; estimated_minutes: number | null; code: string; name: string; overdue: boolean; requires_lockout: boolean };
+type WorkRow = {
+  id: string;
+  number: number;
+  title: string;
+  due_at: Date;
+  estimated_minutes: number | null;
+  code: string;
+  name: string;
+  overdue: boolean;
+  requires_lockout: boolean;
+};
 type PlanRow = { id: string; title: string; next_due_at: Date; status: DueState; estimated_minutes: number | null; code: string; name: string };
 
 /**
@@ -75,7 +85,12 @@ export async function renderFeed(em: EntityManager, token: string, appUrl: strin
     [orgId, f.user.id, role],
   );
   await em.nativeUpdate(CalendarFeed, { id: f.id }, { lastUsedAt: clock.now() }, { filters: false });
-  const cal = ical({ name: `Kerfbook — ${f.user.getEntity().name} at ${org.name}`, prodId: { company: 'Kerfbook', product: 'due-work', language: 'EN' }, timezone: org.timeZone, ttl: 3600 });
+  const cal = ical({
+    name: `Kerfbook — ${f.user.getEntity().name} at ${org.name}`,
+    prodId: { company: 'Kerfbook', product: 'due-work', language: 'EN' },
+    timezone: org.timeZone,
+    ttl: 3600,
+  });
   const minutes = (n: number | null) => Math.max(15, n ?? 30) * 60_000;
   for (const w of work) {
     const start = new Date(w.due_at);

@@ -4,7 +4,10 @@ import { clock } from '../../../shared/clock';
 
 /** Columns every table has. */
 export const baseProperties = {
-  id: p.uuid().primary().onCreate(() => randomUUID()),
+  id: p
+    .uuid()
+    .primary()
+    .onCreate(() => randomUUID()),
   createdAt: p.datetime().onCreate(() => clock.now()),
   updatedAt: p
     .datetime()

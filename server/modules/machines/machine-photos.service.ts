@@ -29,7 +29,13 @@ export async function listMachinePhotos(em: EntityManager, machineId: string): P
   }));
 }
 
-export async function addMachinePhoto(em: EntityManager, who: Principal, machineId: string, file: { buffer: Buffer; size: number } | undefined, caption: string | null) {
+export async function addMachinePhoto(
+  em: EntityManager,
+  who: Principal,
+  machineId: string,
+  file: { buffer: Buffer; size: number } | undefined,
+  caption: string | null,
+) {
   if (!file) throw fieldError('photo', 'Choose a photo to upload');
   if (file.size > MACHINE_PHOTO_MAX_BYTES) throw fieldError('photo', `The photo is larger than ${megabytes(MACHINE_PHOTO_MAX_BYTES)} MB`);
   // Trust the bytes, not the file name or the browser's content type.
@@ -39,7 +45,15 @@ export async function addMachinePhoto(em: EntityManager, who: Principal, machine
   }
   return em.transactional(async (tx) => {
     const machine = await machineOr404(tx, machineId);
-    const photo = tx.create(MachinePhoto, { organization: who.orgId, machine, caption, mimeType: type.mime, byteSize: file.size, data: file.buffer, uploadedBy: who.userId });
+    const photo = tx.create(MachinePhoto, {
+      organization: who.orgId,
+      machine,
+      caption,
+      mimeType: type.mime,
+      byteSize: file.size,
+      data: file.buffer,
+      uploadedBy: who.userId,
+    });
     recordActivity(tx, who, 'machine.photo-added', { type: 'MachinePhoto', id: photo.id }, { machineId, size: file.size });
     return { id: photo.id };
   });

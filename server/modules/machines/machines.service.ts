@@ -32,24 +32,38 @@ export function treeOrder<T extends { id: string; code: string; parentId: string
 }
 
 function toRow(m: Flat, meterCount: number): Omit<MachineRow, 'depth'> {
-  return { id: m.id, code: m.code, name: m.name, kind: m.kind, parentId: m.parent?.id ?? null, location: m.location ?? null, serial: m.serial ?? null, notes: m.notes ?? null, active: m.active, meterCount };
+  return {
+    id: m.id,
+    code: m.code,
+    name: m.name,
+    kind: m.kind,
+    parentId: m.parent?.id ?? null,
+    location: m.location ?? null,
+    serial: m.serial ?? null,
+    notes: m.notes ?? null,
+    active: m.active,
+    meterCount,
+  };
 }
 
 async function meterCounts(em: EntityManager, orgId: string): Promise<Map<string, number>> {
-  const rows: { machine_id: string; n: string }[] = await em.execute('select machine_id, count(*) as n from meter where organization_id = ? group by machine_id', [orgId]);
+  const rows: { machine_id: string; n: string }[] = await em.execute(
+    'select machine_id, count(*) as n from meter where organization_id = ? group by machine_id',
+    [orgId],
+  );
   return new Map(rows.map((r) => [r.machine_id, Number(r.n)]));
 }
 
 export async function listMachines(em: EntityManager, who: Principal, opts: { includeInactive?: boolean } = {}): Promise<MachineRow[]> {
-  const machines = (await em.find(Machine, opts.includeInactive ? {} : { active: true })) ;
+  const machines = await em.find(Machine, opts.includeInactive ? {} : { active: true });
   const counts = await meterCounts(em, who.orgId);
   return treeOrder(machines.map((m) => toRow(m, counts.get(m.id) ?? 0)));
 }
 
 export async function getMachine(em: EntityManager, who: Principal, id: string): Promise<MachineDetail> {
-  const machine = (await em.findOne(Machine, { id })) ;
+  const machine = await em.findOne(Machine, { id });
   if (!machine) throw notFound('Machine');
-  const all = (await em.find(Machine, {})) ;
+  const all = await em.find(Machine, {});
   const counts = await meterCounts(em, who.orgId);
   const rows = all.map((m) => toRow(m, counts.get(m.id) ?? 0));
   // Components: the subtree under this machine, in tree order, depth relative to it.
@@ -57,7 +71,7 @@ export async function getMachine(em: EntityManager, who: Principal, id: string):
   const subtree = rows.filter((r) => sub.has(r.id)).map((r) => (r.id === machine.id ? { ...r, parentId: null } : r));
   const ordered = treeOrder(subtree);
   const self = ordered[0];
-  const parent = machine.parent ? all.find((m) => m.id === machine.parent!.id) ?? null : null;
+  const parent = machine.parent ? (all.find((m) => m.id === machine.parent!.id) ?? null) : null;
   const meters = await metersOf(em, [...sub]);
   return {
     ...self,
@@ -72,7 +86,10 @@ export async function getMachine(em: EntityManager, who: Principal, id: string):
 export async function metersOf(em: EntityManager, machineIds: string[]): Promise<MeterRow[]> {
   if (machineIds.length === 0) return [];
   const meters = await em.find(Meter, { machine: { $in: machineIds } }, { populate: ['machine'], orderBy: { code: 'asc' } });
-  const latest = await latestReadings(em, meters.map((m) => m.id));
+  const latest = await latestReadings(
+    em,
+    meters.map((m) => m.id),
+  );
   return meters
     .map((m) => ({
       id: m.id,
@@ -92,11 +109,11 @@ export async function metersOf(em: EntityManager, machineIds: string[]): Promise
 async function assertParent(em: EntityManager, selfId: string | null, parentId: string | null) {
   if (!parentId) return null;
   if (parentId === selfId) throw fieldError('parentId', 'A machine cannot be its own component');
-  const parent = (await em.findOne(Machine, { id: parentId })) ;
+  const parent = await em.findOne(Machine, { id: parentId });
   if (!parent) throw fieldError('parentId', 'The parent machine was not found');
   if (selfId) {
     // Walk up from the new parent: meeting ourselves would make a loop.
-    const all = (await em.find(Machine, {})) ;
+    const all = await em.find(Machine, {});
     const byId = new Map(all.map((m) => [m.id, m]));
     let cur: Flat | undefined = parent;
     for (let guard = 0; cur && guard < 1000; guard++) {
@@ -116,7 +133,16 @@ export async function createMachine(em: EntityManager, who: Principal, input: Ma
   return em.transactional(async (tx) => {
     await assertCodeFree(tx, input.code, null);
     await assertParent(tx, null, input.parentId);
-    const m = tx.create(Machine, { organization: who.orgId, code: input.code, name: input.name, kind: input.kind, parent: input.parentId, location: input.location, serial: input.serial, notes: input.notes });
+    const m = tx.create(Machine, {
+      organization: who.orgId,
+      code: input.code,
+      name: input.name,
+      kind: input.kind,
+      parent: input.parentId,
+      location: input.location,
+      serial: input.serial,
+      notes: input.notes,
+    });
     recordActivity(tx, who, 'machine.created', { type: 'Machine', id: m.id }, { code: input.code, name: input.name });
     return { id: m.id };
   });
@@ -137,7 +163,13 @@ export async function updateMachine(em: EntityManager, who: Principal, id: strin
     if (input.serial !== undefined) m.serial = input.serial;
     if (input.notes !== undefined) m.notes = input.notes;
     if (input.active !== undefined) m.active = input.active;
-    recordActivity(tx, who, 'machine.updated', { type: 'Machine', id }, { before, after: { code: m.code, name: m.name, parentId: m.parent?.id ?? null, active: m.active } });
+    recordActivity(
+      tx,
+      who,
+      'machine.updated',
+      { type: 'Machine', id },
+      { before, after: { code: m.code, name: m.name, parentId: m.parent?.id ?? null, active: m.active } },
+    );
   });
 }
 
@@ -148,11 +180,10 @@ export async function machineByCode(em: EntityManager, code: string) {
   return m;
 }
 
-
 /** Ids of a machine and everything below it in the component tree. */
 export function subtreeIds(all: Pick<IMachine, 'id' | 'parent'>[], rootId: string): string[] {
   const ids = new Set([rootId]);
-  for (let grew = true; grew; ) {
+  for (let grew = true; grew;) {
     grew = false;
     for (const m of all) {
       if (m.parent && ids.has(m.parent.id) && !ids.has(m.id)) {

@@ -17,7 +17,7 @@ const STAGING = 'counter_import_staging';
 export async function transactionClient(tx: EntityManager): Promise<PoolClient> {
   const trx = tx.getTransactionContext<Knex.Transaction>();
   if (!trx) throw new Error('The counter import needs a transaction');
-  return (await (trx as unknown as { client: { acquireConnection(): Promise<PoolClient> } }).client.acquireConnection());
+  return await (trx as unknown as { client: { acquireConnection(): Promise<PoolClient> } }).client.acquireConnection();
 }
 
 export async function createStaging(client: PoolClient) {
@@ -108,7 +108,17 @@ export type StagingSummary = {
   counts: { toAdd: number; duplicates: number; orderProblems: number };
   meters: { meterId: string; rows: number; from: Date; to: Date }[];
   sample: { line: number; meterId: string; readAt: Date; value: number; reset: boolean; status: 'add' | 'duplicate' | 'error' }[];
-  problems: { line: number; meterId: string; readAt: Date; value: number; reset: boolean; problem: 'before' | 'after'; otherAt: Date | null; otherValue: number | null; otherIsReset: boolean | null }[];
+  problems: {
+    line: number;
+    meterId: string;
+    readAt: Date;
+    value: number;
+    reset: boolean;
+    problem: 'before' | 'after';
+    otherAt: Date | null;
+    otherValue: number | null;
+    otherIsReset: boolean | null;
+  }[];
 };
 
 /** What the preview shows: counts, per-meter spans, the first rows and the first order problems. */
@@ -124,7 +134,17 @@ export async function summariseStaging(client: PoolClient, maxProblems: number, 
     `select line, meter_id, read_at, value, is_reset, status from ${STAGING} order by line limit $1`,
     [sampleRows],
   );
-  const problems = await client.query<{ line: number; meter_id: string; read_at: Date; value: number; is_reset: boolean; problem: 'before' | 'after'; other_at: Date | null; other_value: number | null; other_is_reset: boolean | null }>(
+  const problems = await client.query<{
+    line: number;
+    meter_id: string;
+    read_at: Date;
+    value: number;
+    is_reset: boolean;
+    problem: 'before' | 'after';
+    other_at: Date | null;
+    other_value: number | null;
+    other_is_reset: boolean | null;
+  }>(
     `select line, meter_id, read_at, value, is_reset, problem, other_at, other_value, other_is_reset from ${STAGING} where status = 'error' order by line limit $1`,
     [maxProblems],
   );
@@ -132,8 +152,25 @@ export async function summariseStaging(client: PoolClient, maxProblems: number, 
   return {
     counts: { toAdd: Number(c.to_add), duplicates: Number(c.duplicates), orderProblems: Number(c.problems) },
     meters: meters.rows.map((m) => ({ meterId: m.meter_id, rows: Number(m.rows), from: new Date(m.first_at), to: new Date(m.last_at) })),
-    sample: sample.rows.map((r) => ({ line: r.line, meterId: r.meter_id, readAt: new Date(r.read_at), value: Number(r.value), reset: r.is_reset, status: (r.status ?? 'add') as 'add' | 'duplicate' | 'error' })),
-    problems: problems.rows.map((r) => ({ line: r.line, meterId: r.meter_id, readAt: new Date(r.read_at), value: Number(r.value), reset: r.is_reset, problem: r.problem, otherAt: r.other_at === null ? null : new Date(r.other_at), otherValue: r.other_value === null ? null : Number(r.other_value), otherIsReset: r.other_is_reset })),
+    sample: sample.rows.map((r) => ({
+      line: r.line,
+      meterId: r.meter_id,
+      readAt: new Date(r.read_at),
+      value: Number(r.value),
+      reset: r.is_reset,
+      status: (r.status ?? 'add') as 'add' | 'duplicate' | 'error',
+    })),
+    problems: problems.rows.map((r) => ({
+      line: r.line,
+      meterId: r.meter_id,
+      readAt: new Date(r.read_at),
+      value: Number(r.value),
+      reset: r.is_reset,
+      problem: r.problem,
+      otherAt: r.other_at === null ? null : new Date(r.other_at),
+      otherValue: r.other_value === null ? null : Number(r.other_value),
+      otherIsReset: r.other_is_reset,
+    })),
   };
 }
 

@@ -9,7 +9,15 @@ import { counterImportTemplate, importCounterCsv, previewCounterCsv, type Progre
 
 const receiveToDisk = singleFileToDisk('file', COUNTER_IMPORT_MAX_BYTES, (err, next) => {
   if (err instanceof multer.MulterError) {
-    if (err.code === 'LIMIT_FILE_SIZE') return next(new AppError(413, 'payload_too_large', `The file is larger than ${COUNTER_IMPORT_MAX_BYTES / 1024 / 1024} MB. Split it into smaller files; each is imported on its own.`, [{ path: 'file', message: 'File larger than 50 MB' }]));
+    if (err.code === 'LIMIT_FILE_SIZE')
+      return next(
+        new AppError(
+          413,
+          'payload_too_large',
+          `The file is larger than ${COUNTER_IMPORT_MAX_BYTES / 1024 / 1024} MB. Split it into smaller files; each is imported on its own.`,
+          [{ path: 'file', message: 'File larger than 50 MB' }],
+        ),
+      );
     return next(badRequest(`Upload refused: ${err.message}`, [{ path: 'file', message: err.message }]));
   }
   next(err);
@@ -17,7 +25,12 @@ const receiveToDisk = singleFileToDisk('file', COUNTER_IMPORT_MAX_BYTES, (err, n
 
 /** Streams the upload to a temporary file; multer's own errors become clear HTTP answers (413 for a file over the cap). */
 const receiveFile: RequestHandler = (req, res, next) => {
-  if (!req.is('multipart/form-data')) return next(new AppError(415, 'unsupported_media_type', 'Send the CSV file as multipart/form-data (form field “file”)', [{ path: 'file', message: 'Send the file as multipart/form-data' }]));
+  if (!req.is('multipart/form-data'))
+    return next(
+      new AppError(415, 'unsupported_media_type', 'Send the CSV file as multipart/form-data (form field “file”)', [
+        { path: 'file', message: 'Send the file as multipart/form-data' },
+      ]),
+    );
   receiveToDisk(req, res, (err?: unknown) => {
     if (err) return next(err instanceof AppError ? err : unreadableMultipart(err, 'file'));
     if (!req.file) return next(badRequest('Choose a CSV file to upload (form field “file”)', [{ path: 'file', message: 'Choose a CSV file' }]));
@@ -51,7 +64,10 @@ async function answer(req: Request, res: Response, work: (progress?: Progress) =
 
 export function registerCounterImportRoutes(r: ApiRouter) {
   route(r, 'get', '/counter-import/template', { access: 'machines.read' }, async (_req, res) => {
-    res.type('text/csv').attachment('kerfbook-counter-import.csv').send(await counterImportTemplate(requestEm()));
+    res
+      .type('text/csv')
+      .attachment('kerfbook-counter-import.csv')
+      .send(await counterImportTemplate(requestEm()));
   });
   route(r, 'post', '/counter-import/preview', { access: 'readings.import', before: [receiveFile] }, async (req, res, { principal: who }) => {
     await answer(req, res, async (progress) => ({ type: 'preview', preview: await previewCounterCsv(requestEm(), who, req.file!.path, progress) }));

@@ -12,7 +12,17 @@ import type { ImportPreview, ImportResult } from '../../../shared/schemas/counte
 import type { MeterKind } from '../../../shared/schemas/machines';
 import { clock } from '../../../shared/clock';
 import { readCsvRecords, type CsvBatch, type CsvRecord } from './csv-records';
-import { copyIntoStaging, createStaging, insertFromStaging, markDuplicates, markOrderProblems, stagingLine, summariseStaging, transactionClient, type StagingSummary } from './counter-import-staging';
+import {
+  copyIntoStaging,
+  createStaging,
+  insertFromStaging,
+  markDuplicates,
+  markOrderProblems,
+  stagingLine,
+  summariseStaging,
+  transactionClient,
+  type StagingSummary,
+} from './counter-import-staging';
 
 export type Progress = (p: { phase: 'reading' | 'checking' | 'writing'; done: number; total: number }) => void | Promise<void>;
 
@@ -75,7 +85,12 @@ class ProblemList {
  * against the readings around them (in the file and in the database). Runs inside `tx`;
  * writes nothing but the staging table, which the transaction's end drops.
  */
-export async function analyseCounterCsv(tx: EntityManager, who: Principal, filePath: string, progress?: Progress): Promise<{ preview: ImportPreview; client: PoolClient }> {
+export async function analyseCounterCsv(
+  tx: EntityManager,
+  who: Principal,
+  filePath: string,
+  progress?: Progress,
+): Promise<{ preview: ImportPreview; client: PoolClient }> {
   const cursor = new RecordCursor(readCsvRecords(filePath)[Symbol.asyncIterator]());
   const headerRecord = await cursor.first();
   if (!headerRecord) throw badRequest('The file has no header line', [{ path: 'file', message: 'No header line' }]);
@@ -158,8 +173,23 @@ export async function analyseCounterCsv(tx: EntityManager, who: Principal, fileP
       duplicates: staged.counts.duplicates,
       errorCount: rowProblems.count + staged.counts.orderProblems,
       errors,
-      meters: staged.meters.map((m) => ({ machineCode: meterOf(m.meterId).machineCode, meterCode: meterOf(m.meterId).code, unit: meterOf(m.meterId).unit, rows: m.rows, from: m.from.toISOString(), to: m.to.toISOString() })),
-      sample: staged.sample.map((r) => ({ line: r.line, machineCode: meterOf(r.meterId).machineCode, meterCode: meterOf(r.meterId).code, readAt: r.readAt.toISOString(), value: r.value, reset: r.reset, status: r.status })),
+      meters: staged.meters.map((m) => ({
+        machineCode: meterOf(m.meterId).machineCode,
+        meterCode: meterOf(m.meterId).code,
+        unit: meterOf(m.meterId).unit,
+        rows: m.rows,
+        from: m.from.toISOString(),
+        to: m.to.toISOString(),
+      })),
+      sample: staged.sample.map((r) => ({
+        line: r.line,
+        machineCode: meterOf(r.meterId).machineCode,
+        meterCode: meterOf(r.meterId).code,
+        readAt: r.readAt.toISOString(),
+        value: r.value,
+        reset: r.reset,
+        status: r.status,
+      })),
     },
   };
 }
@@ -172,7 +202,11 @@ function orderMessage(p: StagingSummary['problems'][number], meter: MeterInfo, t
     const problem = readingOrderProblem(meter.kind, prev, { at: p.readAt, value: p.value, isReset: p.reset }, meter.unit, timeZone);
     return { line: p.line, column: 'value', message: `${name}: ${problem}` };
   }
-  return { line: p.line, column: 'value', message: `${name}: ${p.value} ${meter.unit} is higher than the stored reading after it (${p.otherValue} ${meter.unit} on ${readingTime(p.otherAt!, timeZone)})` };
+  return {
+    line: p.line,
+    column: 'value',
+    message: `${name}: ${p.value} ${meter.unit} is higher than the stored reading after it (${p.otherValue} ${meter.unit} on ${readingTime(p.otherAt!, timeZone)})`,
+  };
 }
 
 export async function previewCounterCsv(em: EntityManager, who: Principal, filePath: string, progress?: Progress): Promise<ImportPreview> {
@@ -192,13 +226,22 @@ export async function importCounterCsv(em: EntityManager, who: Principal, filePa
     const { preview, client } = await analyseCounterCsv(tx, who, filePath, progress);
     if (preview.errorCount > 0) {
       const first = preview.errors.slice(0, 20).map((e) => ({ path: `line ${e.line}${e.column ? ` ${e.column}` : ''}`, message: e.message }));
-      throw badRequest(`${preview.errorCount} problem${preview.errorCount === 1 ? '' : 's'} in the file; nothing was imported. First: line ${preview.errors[0].line}: ${preview.errors[0].message}`, first);
+      throw badRequest(
+        `${preview.errorCount} problem${preview.errorCount === 1 ? '' : 's'} in the file; nothing was imported. First: line ${preview.errors[0].line}: ${preview.errors[0].message}`,
+        first,
+      );
     }
     await progress?.({ phase: 'writing', done: 0, total: preview.toAdd });
     const added = await insertFromStaging(client, who.orgId, who.userId);
     await progress?.({ phase: 'writing', done: preview.toAdd, total: preview.toAdd });
     const duplicates = preview.duplicates + (preview.toAdd - added);
-    recordActivity(tx, who, 'meter.readings-imported', { type: 'CounterImport' }, { rows: preview.rows, added, duplicates, meters: preview.meters.map((m) => `${m.machineCode}/${m.meterCode}`) });
+    recordActivity(
+      tx,
+      who,
+      'meter.readings-imported',
+      { type: 'CounterImport' },
+      { rows: preview.rows, added, duplicates, meters: preview.meters.map((m) => `${m.machineCode}/${m.meterCode}`) },
+    );
     return { rows: preview.rows, added, duplicates };
   });
 }
@@ -207,7 +250,12 @@ export async function importCounterCsv(em: EntityManager, who: Principal, filePa
 export async function counterImportTemplate(em: EntityManager): Promise<string> {
   const meters = await em.find(Meter, {}, { populate: ['machine'], orderBy: { code: 'asc' }, limit: 3 });
   const examples = meters.length
-    ? meters.map((m, i) => ({ machineCode: m.machine.getEntity().code, meterCode: m.code, unit: m.unit, value: m.kind === 'condition' ? 850 : (i + 1) * 12500 }))
+    ? meters.map((m, i) => ({
+        machineCode: m.machine.getEntity().code,
+        meterCode: m.code,
+        unit: m.unit,
+        value: m.kind === 'condition' ? 850 : (i + 1) * 12500,
+      }))
     : [{ machineCode: 'C1-T', meterCode: 'arc-starts', unit: 'starts', value: 184220 }];
   return templateCsv(examples);
 }

@@ -8,7 +8,17 @@ import { recordActivity } from '../activity-log/activity-log.service';
 import { grouped, readingOrderProblem, readingTime, thinSeries } from '../../../shared/domain/meters';
 import { Organization } from '../organizations/organization.entity';
 import { usageRatePerDay } from '../../../shared/domain/forecast';
-import type { LatestReading, ListReadingsQuery, MeterInput, MeterRow, MeterTrend, MeterUpdate, ReadingBatchInput, ReadingInput, ReadingRow } from '../../../shared/schemas/machines';
+import type {
+  LatestReading,
+  ListReadingsQuery,
+  MeterInput,
+  MeterRow,
+  MeterTrend,
+  MeterUpdate,
+  ReadingBatchInput,
+  ReadingInput,
+  ReadingRow,
+} from '../../../shared/schemas/machines';
 import { clock } from '../../../shared/clock';
 import type { Page } from '../../../shared/schemas/paging';
 
@@ -52,7 +62,18 @@ export async function neighbours(em: EntityManager, meterId: string, at: Date) {
 // ── Meters ──────────────────────────────────────────────────────────────────
 
 export function meterRow(m: IMeter, machineCode: string, latest: LatestReading | null): MeterRow {
-  return { id: m.id, machineId: m.machine.id, machineCode, code: m.code, name: m.name, kind: m.kind, unit: m.unit, lowerLimit: m.lowerLimit ?? null, upperLimit: m.upperLimit ?? null, latest };
+  return {
+    id: m.id,
+    machineId: m.machine.id,
+    machineCode,
+    code: m.code,
+    name: m.name,
+    kind: m.kind,
+    unit: m.unit,
+    lowerLimit: m.lowerLimit ?? null,
+    upperLimit: m.upperLimit ?? null,
+    latest,
+  };
 }
 
 export async function getMeter(em: EntityManager, id: string): Promise<MeterRow> {
@@ -67,8 +88,20 @@ export async function createMeter(em: EntityManager, who: Principal, input: Mete
     const machine = await tx.findOne(Machine, { id: input.machineId });
     if (!machine) throw fieldError('machineId', 'The machine was not found');
     const clash = await tx.findOne(Meter, { machine: machine.id, code: input.code });
-    if (clash) throw conflict(`${machine.code} already has a meter with the code ${input.code}`, [{ path: 'code', message: `Code ${input.code} is taken on ${machine.code}` }]);
-    const m = tx.create(Meter, { organization: who.orgId, machine, code: input.code, name: input.name, kind: input.kind, unit: input.unit, lowerLimit: input.lowerLimit, upperLimit: input.upperLimit });
+    if (clash)
+      throw conflict(`${machine.code} already has a meter with the code ${input.code}`, [
+        { path: 'code', message: `Code ${input.code} is taken on ${machine.code}` },
+      ]);
+    const m = tx.create(Meter, {
+      organization: who.orgId,
+      machine,
+      code: input.code,
+      name: input.name,
+      kind: input.kind,
+      unit: input.unit,
+      lowerLimit: input.lowerLimit,
+      upperLimit: input.upperLimit,
+    });
     recordActivity(tx, who, 'meter.created', { type: 'Meter', id: m.id }, { machine: machine.code, code: input.code, unit: input.unit });
     return { id: m.id };
   });
@@ -78,7 +111,8 @@ export async function updateMeter(em: EntityManager, who: Principal, id: string,
   await em.transactional(async (tx) => {
     const m = await tx.findOne(Meter, { id });
     if (!m) throw notFound('Meter');
-    if (m.kind !== 'condition' && (input.lowerLimit != null || input.upperLimit != null)) throw fieldError('upperLimit', 'Only condition meters have alarm limits');
+    if (m.kind !== 'condition' && (input.lowerLimit != null || input.upperLimit != null))
+      throw fieldError('upperLimit', 'Only condition meters have alarm limits');
     const lower = input.lowerLimit !== undefined ? input.lowerLimit : (m.lowerLimit ?? null);
     const upper = input.upperLimit !== undefined ? input.upperLimit : (m.upperLimit ?? null);
     if (lower !== null && upper !== null && lower >= upper) throw fieldError('upperLimit', 'The upper limit must be above the lower limit');
@@ -112,16 +146,34 @@ export async function recordReading(
   const before = readingOrderProblem(meter.kind, prev, candidate, meter.unit, timeZone);
   if (before) throw fieldError('value', `${meter.name}: ${before}`);
   if (next && readingOrderProblem(meter.kind, candidate, next, meter.unit)) {
-    throw fieldError('value', `${meter.name}: ${grouped.format(input.value)} ${meter.unit} is higher than a later reading (${grouped.format(next.value)} ${meter.unit} on ${readingTime(next.at, timeZone)})`);
+    throw fieldError(
+      'value',
+      `${meter.name}: ${grouped.format(input.value)} ${meter.unit} is higher than a later reading (${grouped.format(next.value)} ${meter.unit} on ${readingTime(next.at, timeZone)})`,
+    );
   }
-  const reading = em.create(MeterReading, { organization: who.orgId, meter, value: input.value, readAt: at, source, isReset: input.isReset, note: input.note ?? null, recordedBy: who.userId });
+  const reading = em.create(MeterReading, {
+    organization: who.orgId,
+    meter,
+    value: input.value,
+    readAt: at,
+    source,
+    isReset: input.isReset,
+    note: input.note ?? null,
+    recordedBy: who.userId,
+  });
   return reading;
 }
 
 export async function addReading(em: EntityManager, who: Principal, meterId: string, input: ReadingInput): Promise<{ id: string }> {
   return em.transactional(async (tx) => {
     const r = await recordReading(tx, who, meterId, input);
-    recordActivity(tx, who, 'meter.reading-recorded', { type: 'Meter', id: meterId }, { value: input.value, isReset: input.isReset, readAt: r.readAt.toISOString() });
+    recordActivity(
+      tx,
+      who,
+      'meter.reading-recorded',
+      { type: 'Meter', id: meterId },
+      { value: input.value, isReset: input.isReset, readAt: r.readAt.toISOString() },
+    );
     return { id: r.id };
   });
 }
@@ -154,7 +206,15 @@ export async function listReadings(em: EntityManager, meterId: string, q: ListRe
     { orderBy: { readAt: q.dir, createdAt: q.dir }, limit: q.pageSize, offset: (q.page - 1) * q.pageSize, populate: ['recordedBy'] },
   );
   return {
-    rows: rows.map((r) => ({ id: r.id, value: r.value, readAt: r.readAt.toISOString(), isReset: r.isReset, source: r.source, note: r.note ?? null, recordedBy: r.recordedBy?.getEntity().name ?? null })),
+    rows: rows.map((r) => ({
+      id: r.id,
+      value: r.value,
+      readAt: r.readAt.toISOString(),
+      isReset: r.isReset,
+      source: r.source,
+      note: r.note ?? null,
+      recordedBy: r.recordedBy?.getEntity().name ?? null,
+    })),
     total,
     page: q.page,
     pageSize: q.pageSize,

@@ -11,9 +11,15 @@ export function registerOilAnalysisRoutes(r: ApiRouter, evaluatePlansNow: Evalua
   route(r, 'get', '/oil-units', { access: 'oil.read' }, async (_req, res) => {
     res.json({ units: await listUnits(em()) });
   });
-  route(r, 'put', '/oil-units/:id/target', { access: 'oil.record', params: uuidParam, body: oilTargetInput }, async (_req, res, { params, body, principal: who }) => {
-    res.json(await setTarget(em(), who, params.id, body));
-  });
+  route(
+    r,
+    'put',
+    '/oil-units/:id/target',
+    { access: 'oil.record', params: uuidParam, body: oilTargetInput },
+    async (_req, res, { params, body, principal: who }) => {
+      res.json(await setTarget(em(), who, params.id, body));
+    },
+  );
   route(r, 'get', '/oil-analyses', { access: 'oil.read', query: listOilAnalysesQuery }, async (_req, res, { query }) => {
     res.json(await listAnalyses(em(), query));
   });

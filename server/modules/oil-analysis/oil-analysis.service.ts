@@ -11,7 +11,15 @@ import { viscosityStatus } from '../../../shared/domain/viscosity';
 import { raiseWorkOrders } from '../work-orders/raise-work-orders';
 import type { EvaluatePlansNow } from '../plans/plan-evaluation';
 import { uuidArray } from '../../db';
-import type { HydraulicUnitView, OilAnalysisInput, OilAnalysisRow, OilFinding, OilTarget as OilTargetView, OilTargetInput, ListOilAnalysesQuery } from '../../../shared/schemas/oil-analysis';
+import type {
+  HydraulicUnitView,
+  OilAnalysisInput,
+  OilAnalysisRow,
+  OilFinding,
+  OilTarget as OilTargetView,
+  OilTargetInput,
+  ListOilAnalysesQuery,
+} from '../../../shared/schemas/oil-analysis';
 import { clock } from '../../../shared/clock';
 import type { Page } from '../../../shared/schemas/paging';
 
@@ -30,7 +38,10 @@ async function hydraulicUnit(em: EntityManager, id: string) {
  * ISO 4406:2021 Table 1), kinematic viscosity at 40 °C against the ISO VG band (shared/domain/viscosity.ts,
  * ISO 3448 Table 1), water against the site's limit, temperature against the site's limit.
  */
-export function judge(input: Pick<OilAnalysisInput, 'ge4um' | 'ge6um' | 'ge14um' | 'viscosity40' | 'waterPpm' | 'temperatureC'>, target: OilTargetInput | null) {
+export function judge(
+  input: Pick<OilAnalysisInput, 'ge4um' | 'ge6um' | 'ge14um' | 'viscosity40' | 'waterPpm' | 'temperatureC'>,
+  target: OilTargetInput | null,
+) {
   const isoCode = iso4406Code({ ge4um: input.ge4um, ge6um: input.ge6um, ge14um: input.ge14um });
   const findings: OilFinding[] = [];
   let viscosityBand: string | null = null;
@@ -40,23 +51,39 @@ export function judge(input: Pick<OilAnalysisInput, 'ge4um' | 'ge6um' | 'ge14um'
       const sizes = (['ge4um', 'ge6um', 'ge14um'] as const)
         .filter((k) => cmp[k].exceeds)
         .map((k) => `≥${k.slice(2, -2)} µm by ${cmp[k].stepsOver} step${cmp[k].stepsOver === 1 ? '' : 's'}`);
-      findings.push({ field: 'cleanliness', severity: 'danger', message: `Cleanliness ${isoCode} is worse than the target ${target.targetCode} (${sizes.join(', ')}; each step is about twice the particles)` });
+      findings.push({
+        field: 'cleanliness',
+        severity: 'danger',
+        message: `Cleanliness ${isoCode} is worse than the target ${target.targetCode} (${sizes.join(', ')}; each step is about twice the particles)`,
+      });
     }
     if (input.viscosity40 !== null) {
       const v = viscosityStatus(input.viscosity40, target.vgGrade, { warnFraction: VISCOSITY_WARN });
       viscosityBand = v.band;
       const pct = `${v.deviation > 0 ? '+' : ''}${Math.round(v.deviation * 1000) / 10} %`;
       if (v.band === 'below' || v.band === 'above') {
-        findings.push({ field: 'viscosity', severity: 'danger', message: `Viscosity ${input.viscosity40} mm²/s is ${v.band} the ISO VG ${target.vgGrade} band ${v.limits.min}–${v.limits.max} mm²/s (${pct})` });
+        findings.push({
+          field: 'viscosity',
+          severity: 'danger',
+          message: `Viscosity ${input.viscosity40} mm²/s is ${v.band} the ISO VG ${target.vgGrade} band ${v.limits.min}–${v.limits.max} mm²/s (${pct})`,
+        });
       } else if (v.band === 'near-limit') {
-        findings.push({ field: 'viscosity', severity: 'caution', message: `Viscosity ${input.viscosity40} mm²/s is inside ISO VG ${target.vgGrade} but ${pct} from its mid-point` });
+        findings.push({
+          field: 'viscosity',
+          severity: 'caution',
+          message: `Viscosity ${input.viscosity40} mm²/s is inside ISO VG ${target.vgGrade} but ${pct} from its mid-point`,
+        });
       }
     }
     if (input.waterPpm !== null && input.waterPpm > target.waterLimitPpm) {
       findings.push({ field: 'water', severity: 'danger', message: `Water ${input.waterPpm} ppm is above the limit of ${target.waterLimitPpm} ppm` });
     }
     if (input.temperatureC !== null && target.temperatureLimitC !== null && input.temperatureC > target.temperatureLimitC) {
-      findings.push({ field: 'temperature', severity: 'danger', message: `Oil temperature ${input.temperatureC} °C is above the limit of ${target.temperatureLimitC} °C` });
+      findings.push({
+        field: 'temperature',
+        severity: 'danger',
+        message: `Oil temperature ${input.temperatureC} °C is above the limit of ${target.temperatureLimitC} °C`,
+      });
     }
   }
   return { isoCode, findings, viscosityBand, outOfLimits: findings.some((f) => f.severity === 'danger') };
@@ -100,7 +127,11 @@ export async function listUnits(em: EntityManager): Promise<HydraulicUnitView[]>
     const [latest] = await em.find(OilAnalysis, { machine: u.id }, { orderBy: { sampledAt: 'desc' }, limit: 1, populate: ['workOrder'] });
     const t = targets.find((x) => x.machine.id === u.id);
     const m = { id: u.id, code: u.code, name: u.name };
-    out.push({ ...m, target: t ? targetView(t) : null, latest: latest ? toRow(latest, m, latest.workOrder ? { id: latest.workOrder.id, number: latest.workOrder.getEntity().number } : null) : null });
+    out.push({
+      ...m,
+      target: t ? targetView(t) : null,
+      latest: latest ? toRow(latest, m, latest.workOrder ? { id: latest.workOrder.id, number: latest.workOrder.getEntity().number } : null) : null,
+    });
   }
   return out;
 }
@@ -183,7 +214,10 @@ export async function recordAnalysis(em: EntityManager, who: Principal, input: O
               kind: 'condition',
               title: `Oil result outside targets on ${unit.code}`,
               instructions: verdict.findings.map((f) => f.message).join('\n'),
-              reason: `oil sample of ${input.sampledAt.slice(0, 10)}: ${verdict.findings.filter((f) => f.severity === 'danger').map((f) => f.message).join('; ')}`,
+              reason: `oil sample of ${input.sampledAt.slice(0, 10)}: ${verdict.findings
+                .filter((f) => f.severity === 'danger')
+                .map((f) => f.message)
+                .join('; ')}`,
               dueAt: clock.now(),
               assigneeId: null,
               responsibleRole: 'technician',
@@ -199,7 +233,13 @@ export async function recordAnalysis(em: EntityManager, who: Principal, input: O
       );
       a.workOrder = tx.getReference(WorkOrder, wo.id, { wrapped: true });
     }
-    recordActivity(tx, who, 'oil.recorded', { type: 'OilAnalysis', id: a.id }, { machine: unit.code, isoCode: verdict.isoCode, outOfLimits: verdict.outOfLimits });
+    recordActivity(
+      tx,
+      who,
+      'oil.recorded',
+      { type: 'OilAnalysis', id: a.id },
+      { machine: unit.code, isoCode: verdict.isoCode, outOfLimits: verdict.outOfLimits },
+    );
     return { id: a.id, unit: { id: unit.id, code: unit.code, name: unit.name }, oilPlanIds: oilPlans.map((p) => p.id) };
   });
   if (saved.oilPlanIds.length) {

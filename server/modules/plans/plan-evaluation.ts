@@ -46,7 +46,9 @@ export async function refreshPlanStatus(em: EntityManager, plan: IMaintenancePla
   const ev = evaluatePlan(toPlanInput(row, now, timeZone, series));
   const labels = new Map<string, MeterLabel>();
   if (ins.meters.length) {
-    const rows: { id: string; name: string; unit: string }[] = await em.execute(`select id, name, unit from meter where id = any(?::uuid[])`, [uuidArray(ins.meters)]);
+    const rows: { id: string; name: string; unit: string }[] = await em.execute(`select id, name, unit from meter where id = any(?::uuid[])`, [
+      uuidArray(ins.meters),
+    ]);
     for (const r of rows) labels.set(r.id, { name: r.name, unit: r.unit });
   }
   const c = statusColumns(ev, (s) => humanReason(s, (id) => labels.get(id), timeZone));
@@ -59,7 +61,11 @@ export async function refreshPlanStatus(em: EntityManager, plan: IMaintenancePla
   plan.nextDueAt = c.nextDueAt;
   plan.statusReason = c.statusReason;
   plan.evaluation = c.evaluation;
-  plan.statusHash = evaluationHash(ev, timeZone, ins.meters.map((id) => labels.get(id)?.name ?? ''));
+  plan.statusHash = evaluationHash(
+    ev,
+    timeZone,
+    ins.meters.map((id) => labels.get(id)?.name ?? ''),
+  );
   // A due occurrence is raised by the next pass: keep the plan in that pass's list.
   plan.recheckAt = pendingRaise(ev) ? null : c.recheckAt;
   plan.inputsAt = inputsAt === null ? null : new Date(inputsAt);

@@ -67,7 +67,10 @@ export async function loadLatestInputTimes(em: EntityManager, now: Date): Promis
     [now],
   );
   for (const m of meters) out.set(m.id, new Date(m.at).getTime());
-  const oil: { machine_id: string; at: Date }[] = await em.execute(`select machine_id, max(sampled_at) as at from oil_analysis where sampled_at <= ? group by machine_id`, [now]);
+  const oil: { machine_id: string; at: Date }[] = await em.execute(
+    `select machine_id, max(sampled_at) as at from oil_analysis where sampled_at <= ? group by machine_id`,
+    [now],
+  );
   for (const o of oil) out.set(oilMeterId(o.machine_id), new Date(o.at).getTime());
   return out;
 }
@@ -163,7 +166,10 @@ export function effectiveBaseline(stored: { value: number; at: string } | undefi
  * Meter intervals on a meter that had no reading when the plan started count from its first
  * reading: returns those new baselines (or null), to be stored with the plan.
  */
-export function missingBaselines(row: Pick<EnginePlanRow, 'triggers' | 'meter_baselines' | 'started_at'>, series: Map<string, MeterSeries>): MeterBaselines | null {
+export function missingBaselines(
+  row: Pick<EnginePlanRow, 'triggers' | 'meter_baselines' | 'started_at'>,
+  series: Map<string, MeterSeries>,
+): MeterBaselines | null {
   let out: MeterBaselines | null = null;
   for (const t of row.triggers) {
     if (t.kind !== 'meter' || row.meter_baselines?.[t.meterId]) continue;

@@ -65,7 +65,10 @@ type StarterPick =
 function pickStarter(s: StarterPlan, machine: IMachine, meters: MeterInfo[], applied: Set<string | null | undefined>, today: string | null): StarterPick {
   if (!s.machineKinds.includes(machine.kind)) {
     const meant = s.machineKinds.map(kindLabel);
-    return { ok: false, reason: `Meant for ${article(meant[0])} ${meant.join(' or ')}; ${machine.code} is ${article(kindLabel(machine.kind))} ${kindLabel(machine.kind)}` };
+    return {
+      ok: false,
+      reason: `Meant for ${article(meant[0])} ${meant.join(' or ')}; ${machine.code} is ${article(kindLabel(machine.kind))} ${kindLabel(machine.kind)}`,
+    };
   }
   if (applied.has(s.key)) return { ok: false, reason: `Already applied to ${machine.code}` };
   const triggers: TriggerInput[] = [];
@@ -77,7 +80,9 @@ function pickStarter(s: StarterPlan, machine: IMachine, meters: MeterInfo[], app
         missing.push(`${t.meter.codes[0]} (${t.meter.unit})`);
         continue;
       }
-      triggers.push(t.kind === 'meter' ? { kind: 'meter', meterId: m.id, every: t.every } : { kind: 'condition', meterId: m.id, above: t.above, below: t.below });
+      triggers.push(
+        t.kind === 'meter' ? { kind: 'meter', meterId: m.id, every: t.every } : { kind: 'condition', meterId: m.id, above: t.above, below: t.below },
+      );
     } else if (t.kind === 'calendar-fixed') {
       triggers.push({ kind: 'calendar-fixed', start: `${today}T${t.time}`, rrule: t.rrule });
     } else {
@@ -112,7 +117,12 @@ export async function starterFits(em: EntityManager, machineId: string): Promise
  * Turns starters into plans on one machine, in one transaction; explains every starter it skips.
  * Fixed calendars start today (site time) unless `startDate` (YYYY-MM-DD) says otherwise.
  */
-export async function applyStarters(em: EntityManager, who: Principal, input: ApplyStartersInput, opts: { startDate?: string } = {}): Promise<ApplyStartersResult> {
+export async function applyStarters(
+  em: EntityManager,
+  who: Principal,
+  input: ApplyStartersInput,
+  opts: { startDate?: string } = {},
+): Promise<ApplyStartersResult> {
   return em.transactional(async (tx) => {
     const machine = await findMachine(tx, input.machineId);
     const tz = await shopTimeZone(tx, who);
@@ -161,7 +171,8 @@ export async function applyStarters(em: EntityManager, who: Principal, input: Ap
       );
       have.add(key);
       result.created.push({ key, planId: id, title: s.title });
-      if (missing.length) result.skipped.push({ key, title: s.title, reason: `Created without its ${missing.join(', ')} trigger: ${machine.code} has no such meter` });
+      if (missing.length)
+        result.skipped.push({ key, title: s.title, reason: `Created without its ${missing.join(', ')} trigger: ${machine.code} has no such meter` });
     }
     return result;
   });

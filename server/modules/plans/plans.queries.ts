@@ -99,7 +99,10 @@ export async function listPlans(em: EntityManager, who: Principal, q: ListPlansQ
 export async function getPlan(em: EntityManager, who: Principal, id: string): Promise<PlanDetail> {
   const plan = await em.findOne(MaintenancePlan, { id }, { populate: ['machine', 'responsibleUser'] });
   if (!plan) throw notFound('Plan');
-  const labels = await meterLabels(em, plan.triggers.flatMap((t) => ('meterId' in t ? [t.meterId] : [])));
+  const labels = await meterLabels(
+    em,
+    plan.triggers.flatMap((t) => ('meterId' in t ? [t.meterId] : [])),
+  );
   const parts = plan.parts.length ? await em.find(PartType, { id: { $in: plan.parts.map((p) => p.partTypeId) } }) : [];
   const partOf = new Map(parts.map((p) => [p.id, p]));
   const [open]: { id: string; number: number; status: string }[] = await em.execute(
@@ -114,7 +117,12 @@ export async function getPlan(em: EntityManager, who: Principal, id: string): Pr
     instructions: plan.instructions,
     checklist: plan.checklist,
     estimatedMinutes: plan.estimatedMinutes ?? null,
-    parts: plan.parts.map((p) => ({ ...p, partNumber: partOf.get(p.partTypeId)?.partNumber ?? '?', name: partOf.get(p.partTypeId)?.name ?? 'Removed part', stockUnit: partOf.get(p.partTypeId)?.stockUnit ?? '' })),
+    parts: plan.parts.map((p) => ({
+      ...p,
+      partNumber: partOf.get(p.partTypeId)?.partNumber ?? '?',
+      name: partOf.get(p.partTypeId)?.name ?? 'Removed part',
+      stockUnit: partOf.get(p.partTypeId)?.stockUnit ?? '',
+    })),
     responsibleRole: plan.responsibleRole ?? null,
     responsibleUser: plan.responsibleUser ? { id: plan.responsibleUser.id, name: plan.responsibleUser.getEntity().name } : null,
     requiresLockout: plan.requiresLockout,

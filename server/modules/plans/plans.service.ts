@@ -51,7 +51,12 @@ async function resolveTriggers(em: EntityManager, machine: IMachine, triggers: T
       case 'calendar-fixed': {
         try {
           const ical = buildRecurrenceText({ start: t.start, tzid: timeZone, rrule: t.rrule });
-          out.push({ kind: 'calendar-fixed', start: t.start.length === 16 ? `${t.start}:00` : t.start, rrule: ical.split('\n')[1].replace(/^RRULE:/, ''), ical });
+          out.push({
+            kind: 'calendar-fixed',
+            start: t.start.length === 16 ? `${t.start}:00` : t.start,
+            rrule: ical.split('\n')[1].replace(/^RRULE:/, ''),
+            ical,
+          });
         } catch (err) {
           const message = (err instanceof Error ? err.message : String(err)).replace(/^recurrence: /, '');
           errors.push({ path: /DTSTART/.test(message) ? at('start') : at('rrule'), message: message.replace(/DTSTART/g, 'The start') });
@@ -88,7 +93,10 @@ async function resolveTriggers(em: EntityManager, machine: IMachine, triggers: T
 async function checkPeopleAndParts(em: EntityManager, who: Principal, input: PlanInput) {
   if (input.responsibleUserId) {
     const m = await em.findOne(Membership, { user: input.responsibleUserId, organization: who.orgId, active: true }, { filters: false });
-    if (!m) throw badRequest('The responsible person is not an active member of this shop', [{ path: 'responsibleUserId', message: 'Not an active member of this shop' }]);
+    if (!m)
+      throw badRequest('The responsible person is not an active member of this shop', [
+        { path: 'responsibleUserId', message: 'Not an active member of this shop' },
+      ]);
   }
   for (const [i, p] of input.parts.entries()) {
     const part = await em.findOne(PartType, { id: p.partTypeId });
@@ -132,7 +140,13 @@ export async function createPlan(em: EntityManager, who: Principal, input: PlanI
       starterKey: extra.starterKey ?? null,
     });
     await refreshPlanStatus(tx, plan, tz);
-    recordActivity(tx, who, 'plan.created', { type: 'MaintenancePlan', id: plan.id }, { title: plan.title, machine: machine.code, starter: extra.starterKey ?? null });
+    recordActivity(
+      tx,
+      who,
+      'plan.created',
+      { type: 'MaintenancePlan', id: plan.id },
+      { title: plan.title, machine: machine.code, starter: extra.starterKey ?? null },
+    );
     return { id: plan.id };
   });
 }
@@ -146,7 +160,10 @@ export async function updatePlan(em: EntityManager, who: Principal, id: string, 
     await checkPeopleAndParts(tx, who, input);
     const triggers = await resolveTriggers(tx, machine, input.triggers, tz);
     // Meters already counted keep their baseline; newly added meters count from their current value.
-    const fresh = await currentBaselines(tx, meterIdsOf(triggers).filter((m) => !plan.meterBaselines[m]));
+    const fresh = await currentBaselines(
+      tx,
+      meterIdsOf(triggers).filter((m) => !plan.meterBaselines[m]),
+    );
     const before = { title: plan.title, triggers: plan.triggers, active: plan.active };
     Object.assign(plan, {
       machine,
@@ -154,7 +171,13 @@ export async function updatePlan(em: EntityManager, who: Principal, id: string, 
       meterBaselines: { ...plan.meterBaselines, ...fresh },
     });
     await refreshPlanStatus(tx, plan, tz);
-    recordActivity(tx, who, 'plan.updated', { type: 'MaintenancePlan', id: plan.id }, { before, after: { title: plan.title, triggers: plan.triggers, active: plan.active } });
+    recordActivity(
+      tx,
+      who,
+      'plan.updated',
+      { type: 'MaintenancePlan', id: plan.id },
+      { before, after: { title: plan.title, triggers: plan.triggers, active: plan.active } },
+    );
   });
 }
 

@@ -6,7 +6,13 @@ import { punchToolInputSchema, punchToolUpdateSchema, sharpeningSchema } from '.
 import { createTool, listSharpenings, listTools, recordSharpening, updateTool } from './punch-tools.service';
 import { subtreeMachines } from '../machines/machines.service';
 
-const listQuery = z.object({ machineId: z.uuid().optional(), includeInactive: z.enum(['true', 'false']).optional().transform((v) => v === 'true') });
+const listQuery = z.object({
+  machineId: z.uuid().optional(),
+  includeInactive: z
+    .enum(['true', 'false'])
+    .optional()
+    .transform((v) => v === 'true'),
+});
 
 export function registerPunchToolRoutes(r: ApiRouter) {
   route(r, 'get', '/punch-tools', { access: 'machines.read', query: listQuery }, async (_req, res, { query }) => {
@@ -19,14 +25,26 @@ export function registerPunchToolRoutes(r: ApiRouter) {
   route(r, 'post', '/punch-tools', { access: 'tools.manage', body: punchToolInputSchema }, async (_req, res, { body, principal: who }) => {
     res.status(201).json(await createTool(requestEm(), who, body));
   });
-  route(r, 'patch', '/punch-tools/:id', { access: 'tools.manage', params: uuidParam, body: punchToolUpdateSchema }, async (_req, res, { params, body, principal: who }) => {
-    await updateTool(requestEm(), who, params.id, body);
-    res.json({ ok: true });
-  });
+  route(
+    r,
+    'patch',
+    '/punch-tools/:id',
+    { access: 'tools.manage', params: uuidParam, body: punchToolUpdateSchema },
+    async (_req, res, { params, body, principal: who }) => {
+      await updateTool(requestEm(), who, params.id, body);
+      res.json({ ok: true });
+    },
+  );
   route(r, 'get', '/punch-tools/:id/sharpenings', { access: 'machines.read', params: uuidParam }, async (_req, res, { params }) => {
     res.json(await listSharpenings(requestEm(), params.id));
   });
-  route(r, 'post', '/punch-tools/:id/sharpenings', { access: 'tools.manage', params: uuidParam, body: sharpeningSchema }, async (_req, res, { params, body, principal: who }) => {
-    res.status(201).json(await recordSharpening(requestEm(), who, params.id, body));
-  });
+  route(
+    r,
+    'post',
+    '/punch-tools/:id/sharpenings',
+    { access: 'tools.manage', params: uuidParam, body: sharpeningSchema },
+    async (_req, res, { params, body, principal: who }) => {
+      res.status(201).json(await recordSharpening(requestEm(), who, params.id, body));
+    },
+  );
 }

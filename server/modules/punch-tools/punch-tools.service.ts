@@ -46,7 +46,9 @@ export async function listTools(em: EntityManager, q: { machineIds?: string[]; i
   const where = { ...(q.machineIds ? { machine: { $in: q.machineIds } } : {}), ...(q.includeInactive ? {} : { active: true }) };
   const tools = await em.find(PunchTool, where, { populate: ['machine'], orderBy: { code: 'asc' } });
   const counts: { tool_id: string; n: string }[] = tools.length
-    ? await em.execute('select tool_id, count(*) as n from tool_sharpening where tool_id = any(?::uuid[]) group by tool_id', [`{${tools.map((t) => t.id).join(',')}}`])
+    ? await em.execute('select tool_id, count(*) as n from tool_sharpening where tool_id = any(?::uuid[]) group by tool_id', [
+        `{${tools.map((t) => t.id).join(',')}}`,
+      ])
     : [];
   const byTool = new Map(counts.map((c) => [c.tool_id, Number(c.n)]));
   // One read per hits meter, from the oldest sharpening among its tools.
@@ -67,9 +69,20 @@ export async function createTool(em: EntityManager, who: Principal, input: Punch
     const meter = await tx.findOne(Meter, { id: input.hitsMeterId });
     if (!meter) throw fieldError('hitsMeterId', 'The hits meter was not found');
     if (meter.kind !== 'count' || meter.unit !== 'hits') throw fieldError('hitsMeterId', `${meter.name} counts ${meter.unit}, not hits`);
-    if (await tx.findOne(PunchTool, { code: input.code })) throw conflict(`A tool with the code ${input.code} exists`, [{ path: 'code', message: `Code ${input.code} is taken` }]);
+    if (await tx.findOne(PunchTool, { code: input.code }))
+      throw conflict(`A tool with the code ${input.code} exists`, [{ path: 'code', message: `Code ${input.code} is taken` }]);
     const latest = (await latestReadings(tx, [meter.id])).get(meter.id);
-    const tool = tx.create(PunchTool, { organization: who.orgId, machine, hitsMeter: meter, code: input.code, name: input.name, stationSize: input.stationSize, sharpeningIntervalHits: input.sharpeningIntervalHits, hitsAtLastSharpening: latest?.value ?? 0, lastSharpenedAt: null });
+    const tool = tx.create(PunchTool, {
+      organization: who.orgId,
+      machine,
+      hitsMeter: meter,
+      code: input.code,
+      name: input.name,
+      stationSize: input.stationSize,
+      sharpeningIntervalHits: input.sharpeningIntervalHits,
+      hitsAtLastSharpening: latest?.value ?? 0,
+      lastSharpenedAt: null,
+    });
     recordActivity(tx, who, 'tool.created', { type: 'PunchTool', id: tool.id }, { code: input.code });
     return { id: tool.id };
   });
@@ -85,18 +98,33 @@ export async function updateTool(em: EntityManager, who: Principal, id: string, 
 }
 
 /** A sharpening ends a run: hits since the previous sharpening are kept, the count starts again. */
-export async function recordSharpening(em: EntityManager, who: Principal, toolId: string, input: SharpeningInput): Promise<{ id: string; hitsSincePrevious: number }> {
+export async function recordSharpening(
+  em: EntityManager,
+  who: Principal,
+  toolId: string,
+  input: SharpeningInput,
+): Promise<{ id: string; hitsSincePrevious: number }> {
   return em.transactional(async (tx) => {
     const tool = await tx.findOne(PunchTool, { id: toolId }, { lockMode: LockMode.PESSIMISTIC_WRITE });
     if (!tool) throw notFound('Tool');
     const at = input.sharpenedAt ? new Date(input.sharpenedAt) : clock.now();
-    if (tool.lastSharpenedAt && at < tool.lastSharpenedAt) throw fieldError('sharpenedAt', `The last sharpening was later (${shopTime(tool.lastSharpenedAt, who.timeZone)})`);
+    if (tool.lastSharpenedAt && at < tool.lastSharpenedAt)
+      throw fieldError('sharpenedAt', `The last sharpening was later (${shopTime(tool.lastSharpenedAt, who.timeZone)})`);
     const { prev } = await neighbours(tx, tool.hitsMeter.id, at);
     const reading = prev?.value ?? tool.hitsAtLastSharpening;
     const since = tool.lastSharpenedAt ?? tool.createdAt;
     const run = (await readingsSince(tx, tool.hitsMeter.id, since)).filter((r) => r.at > since && r.at <= at);
     const hitsSincePrevious = run.length ? advanceSince(tool.hitsAtLastSharpening, run) : Math.max(0, reading - tool.hitsAtLastSharpening);
-    const s = tx.create(ToolSharpening, { organization: who.orgId, tool, sharpenedAt: at, hitsReading: reading, hitsSincePrevious, removedMm: input.removedMm, by: who.userId, note: input.note });
+    const s = tx.create(ToolSharpening, {
+      organization: who.orgId,
+      tool,
+      sharpenedAt: at,
+      hitsReading: reading,
+      hitsSincePrevious,
+      removedMm: input.removedMm,
+      by: who.userId,
+      note: input.note,
+    });
     tool.hitsAtLastSharpening = reading;
     tool.lastSharpenedAt = at;
     recordActivity(tx, who, 'tool.sharpened', { type: 'PunchTool', id: tool.id }, { hitsSincePrevious, removedMm: input.removedMm });
@@ -107,5 +135,13 @@ export async function recordSharpening(em: EntityManager, who: Principal, toolId
 export async function listSharpenings(em: EntityManager, toolId: string): Promise<SharpeningRow[]> {
   if (!(await em.findOne(PunchTool, { id: toolId }))) throw notFound('Tool');
   const rows = await em.find(ToolSharpening, { tool: toolId }, { orderBy: { sharpenedAt: 'desc' }, populate: ['by'] });
-  return rows.map((s) => ({ id: s.id, sharpenedAt: s.sharpenedAt.toISOString(), hitsReading: s.hitsReading, hitsSincePrevious: s.hitsSincePrevious, removedMm: s.removedMm ?? null, by: s.by?.getEntity().name ?? null, note: s.note ?? null }));
+  return rows.map((s) => ({
+    id: s.id,
+    sharpenedAt: s.sharpenedAt.toISOString(),
+    hitsReading: s.hitsReading,
+    hitsSincePrevious: s.hitsSincePrevious,
+    removedMm: s.removedMm ?? null,
+    by: s.by?.getEntity().name ?? null,
+    note: s.note ?? null,
+  }));
 }

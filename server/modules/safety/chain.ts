@@ -88,7 +88,10 @@ export async function appendSignOff(tx: EntityManager, signer: Principal, input:
     `insert into safety_chain_head (id, organization_id, last_seq, last_hash, updated_at) values (?, ?, 0, ?, now()) on conflict (organization_id) do nothing`,
     [randomUUID(), orgId, GENESIS_HASH],
   );
-  const [head] = await tx.execute<{ last_seq: number; last_hash: string }[]>(`select last_seq, last_hash from safety_chain_head where organization_id = ? for update`, [orgId]);
+  const [head] = await tx.execute<{ last_seq: number; last_hash: string }[]>(
+    `select last_seq, last_hash from safety_chain_head where organization_id = ? for update`,
+    [orgId],
+  );
   // JSON round trip: what is hashed is exactly what jsonb will give back (no undefined, no class instances).
   const details = JSON.parse(JSON.stringify(input.details)) as Record<string, unknown>;
   const fields: StoredFields = {
@@ -158,7 +161,9 @@ type Row = {
  */
 export async function verifyShopChain(em: EntityManager, orgId: string): Promise<ChainVerification> {
   const rows = await em.getConnection().execute<Row[]>(`select * from safety_sign_off where organization_id = ? order by seq`, [orgId]);
-  const [head] = await em.getConnection().execute<{ last_seq: number; last_hash: string }[]>(`select last_seq, last_hash from safety_chain_head where organization_id = ?`, [orgId]);
+  const [head] = await em
+    .getConnection()
+    .execute<{ last_seq: number; last_hash: string }[]>(`select last_seq, last_hash from safety_chain_head where organization_id = ?`, [orgId]);
   const records = rows.map((r) => ({
     id: r.id,
     prevHash: r.prev_hash,
@@ -185,7 +190,9 @@ export async function verifyShopChain(em: EntityManager, orgId: string): Promise
   const headSeq = head ? Number(head.last_seq) : 0;
   const base = { total: rows.length, headSeq, verifiedAt: clock.now().toISOString() };
   const describe = (r: Row | undefined, seq: number) =>
-    r ? { id: r.id, seq: Number(r.seq), signedAt: new Date(r.signed_at).toISOString(), signerName: r.signer_name, meaning: r.meaning } : { id: null, seq, signedAt: null, signerName: null, meaning: null };
+    r
+      ? { id: r.id, seq: Number(r.seq), signedAt: new Date(r.signed_at).toISOString(), signerName: r.signer_name, meaning: r.meaning }
+      : { id: null, seq, signedAt: null, signerName: null, meaning: null };
   if (!result.ok) {
     const bad = rows[result.count];
     const what =
@@ -207,5 +214,12 @@ export async function verifyShopChain(em: EntityManager, orgId: string): Promise
       firstBad: describe(undefined, missingFrom),
     };
   }
-  return { ...base, ok: true, checked: rows.length, problem: null, message: `Chain verified: all ${rows.length} signatures are intact and in order.`, firstBad: null };
+  return {
+    ...base,
+    ok: true,
+    checked: rows.length,
+    problem: null,
+    message: `Chain verified: all ${rows.length} signatures are intact and in order.`,
+    firstBad: null,
+  };
 }

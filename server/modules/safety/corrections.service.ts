@@ -13,7 +13,8 @@ export async function correctSignOff(em: EntityManager, who: Principal, id: stri
   return em.transactional(async (tx) => {
     const original = await tx.findOne(SafetySignOff, id);
     if (!original) throw notFound('Signature');
-    if (original.signer.id !== who.userId && who.role !== 'safety') throw forbidden(`Only ${original.signerName}, who signed it, or the safety officer can correct this record`);
+    if (original.signer.id !== who.userId && who.role !== 'safety')
+      throw forbidden(`Only ${original.signerName}, who signed it, or the safety officer can correct this record`);
     const signOff = await appendSignOff(tx, who, {
       meaning: 'correction',
       subjectType: original.subjectType,

@@ -30,7 +30,7 @@ export function inspectionEvaluation(a: { firstApprovedAt: Date; lastInspectedOn
 /** RFC 5545 text for one shift start on the site's work days (weekly cadence: first shift of the first work day). */
 export function ppeRules(cadence: CheckCadence, settings: Pick<SafetySettings, 'shiftStarts' | 'workDays'>, timeZone: string, since: Date): string[] {
   if (cadence === 'none') return [];
-  const day = DateTime.fromJSDate(since, { zone: timeZone }).startOf('day').toFormat("yyyyLLdd");
+  const day = DateTime.fromJSDate(since, { zone: timeZone }).startOf('day').toFormat('yyyyLLdd');
   const rule = (hhmm: string, byday: string) => `DTSTART;TZID=${timeZone}:${day}T${hhmm.replace(':', '')}00\nRRULE:FREQ=WEEKLY;BYDAY=${byday}`;
   if (cadence === 'week') return [rule([...settings.shiftStarts].sort()[0], settings.workDays[0])];
   return settings.shiftStarts.map((s) => rule(s, settings.workDays.join(',')));
@@ -39,11 +39,26 @@ export function ppeRules(cadence: CheckCadence, settings: Pick<SafetySettings, '
 /** A check up to an hour before a shift start counts for that shift (house rule, as the due-soon window). */
 export const PPE_LEAD_MS = HOUR_MS;
 
-export function ppeEvaluation(a: { cadence: CheckCadence; settings: SafetySettings; timeZone: string; startedAt: Date; lastCheckAt: Date | null; now: Date }): Evaluation | null {
+export function ppeEvaluation(a: {
+  cadence: CheckCadence;
+  settings: SafetySettings;
+  timeZone: string;
+  startedAt: Date;
+  lastCheckAt: Date | null;
+  now: Date;
+}): Evaluation | null {
   const rules = ppeRules(a.cadence, a.settings, a.timeZone, a.startedAt);
   if (rules.length === 0) return null;
   const triggers: Trigger[] = rules.map((ical) => ({ kind: 'calendar-fixed', ical }));
-  return evaluatePlan({ now: a.now, startedAt: a.startedAt, lastDoneAt: a.lastCheckAt, lastRaisedKey: null, triggers, meters: {}, dueSoon: { days: PPE_LEAD_MS / 86_400_000 } });
+  return evaluatePlan({
+    now: a.now,
+    startedAt: a.startedAt,
+    lastDoneAt: a.lastCheckAt,
+    lastRaisedKey: null,
+    triggers,
+    meters: {},
+    dueSoon: { days: PPE_LEAD_MS / 86_400_000 },
+  });
 }
 
 /**
@@ -51,7 +66,15 @@ export function ppeEvaluation(a: { cadence: CheckCadence; settings: SafetySettin
  * before it and an hour before the next occurrence; missed once that window has closed by `to`;
  * pending while it is still open.
  */
-export function ppeOccurrences(a: { cadence: CheckCadence; settings: SafetySettings; timeZone: string; startedAt: Date; from: Date; to: Date; checks: Date[] }) {
+export function ppeOccurrences(a: {
+  cadence: CheckCadence;
+  settings: SafetySettings;
+  timeZone: string;
+  startedAt: Date;
+  from: Date;
+  to: Date;
+  checks: Date[];
+}) {
   const start = new Date(Math.max(a.from.getTime(), a.startedAt.getTime()));
   if (start >= a.to) return [];
   const horizon = new Date(a.to.getTime() + 8 * 24 * HOUR_MS);

@@ -65,7 +65,13 @@ export async function listLockouts(em: EntityManager, who: Principal, q: ListLoc
     where += ' and s.machine_id = ?';
     params.push(q.machineId);
   }
-  const rows = await em.getConnection().execute<RowSql[]>(`${rowSql} where ${where} order by (s.state = 'released'), s.applied_at desc limit ? offset ?`, [...params, q.pageSize, (q.page - 1) * q.pageSize]);
+  const rows = await em
+    .getConnection()
+    .execute<RowSql[]>(`${rowSql} where ${where} order by (s.state = 'released'), s.applied_at desc limit ? offset ?`, [
+      ...params,
+      q.pageSize,
+      (q.page - 1) * q.pageSize,
+    ]);
   return { rows: rows.map(toRow), total: rows[0] ? Number(rows[0].total) : 0, page: q.page, pageSize: q.pageSize };
 }
 
@@ -73,7 +79,11 @@ export async function getLockout(em: EntityManager, who: Principal, id: string):
   const [r] = await em.getConnection().execute<RowSql[]>(`${rowSql} where s.organization_id = ? and s.id = ?`, [who.orgId, id]);
   if (!r) throw notFound('Lockout');
   const session = await em.findOneOrFail(LockoutSession, id, { populate: ['pendingHandoverTo', 'procedureVersion'] });
-  const points = await em.find(LockoutPoint, { session: id }, { populate: ['holder', 'appliedBy', 'removedBy'], orderBy: { appliedAt: 'asc', sourceKey: 'asc' } });
+  const points = await em.find(
+    LockoutPoint,
+    { session: id },
+    { populate: ['holder', 'appliedBy', 'removedBy'], orderBy: { appliedAt: 'asc', sourceKey: 'asc' } },
+  );
   const members = await em.find(LockoutMember, { session: id }, { populate: ['user'], orderBy: { joinedAt: 'asc' } });
   const signOffs = await em.find(SafetySignOff, { subjectId: id }, { orderBy: { seq: 'asc' } });
   const sources = session.procedureVersion.getEntity().content.sources;
@@ -104,7 +114,21 @@ export async function getLockout(em: EntityManager, who: Principal, id: string):
         removedByName: p.removedBy?.getEntity().name ?? null,
       };
     }),
-    members: members.map((m) => ({ id: m.id, userId: m.user.id, name: m.user.getEntity().name, lockNumber: m.lockNumber, joinedAt: m.joinedAt.toISOString(), leftAt: iso(m.leftAt) })),
-    signOffs: signOffs.map((x) => ({ id: x.id, seq: x.seq, signedAt: x.signedAt.toISOString(), signerName: x.signerName, meaning: x.meaning, statement: x.statement })),
+    members: members.map((m) => ({
+      id: m.id,
+      userId: m.user.id,
+      name: m.user.getEntity().name,
+      lockNumber: m.lockNumber,
+      joinedAt: m.joinedAt.toISOString(),
+      leftAt: iso(m.leftAt),
+    })),
+    signOffs: signOffs.map((x) => ({
+      id: x.id,
+      seq: x.seq,
+      signedAt: x.signedAt.toISOString(),
+      signerName: x.signerName,
+      meaning: x.meaning,
+      statement: x.statement,
+    })),
   };
 }

@@ -60,21 +60,31 @@ export async function applyLockout(em: EntityManager, who: Principal, input: App
     const proc = await tx.findOne(EnergyProcedure, input.procedureId, { populate: ['machine'] });
     if (!proc) throw notFound('Procedure');
     const version = await tx.findOne(ProcedureVersion, { procedure: proc.id, status: 'approved' }, { orderBy: { version: 'desc' } });
-    if (!version) throw conflict('This procedure has no approved version; the safety officer must approve it before anyone locks out with it', [{ path: 'procedureId', message: 'No approved version' }]);
+    if (!version)
+      throw conflict('This procedure has no approved version; the safety officer must approve it before anyone locks out with it', [
+        { path: 'procedureId', message: 'No approved version' },
+      ]);
     const sources = version.content.sources;
     input.points.forEach((p, i) => {
-      if (!sources.some((s) => s.key === p.sourceKey)) throw fieldError(`points.${i}.sourceKey`, `Version ${version.version} of the procedure has no isolation point ${p.sourceKey}`);
+      if (!sources.some((s) => s.key === p.sourceKey))
+        throw fieldError(`points.${i}.sourceKey`, `Version ${version.version} of the procedure has no isolation point ${p.sourceKey}`);
     });
     const missing = sources.filter((s) => !input.points.some((p) => p.sourceKey === s.key));
     if (missing.length) {
-      throw badRequest(`Lock out every energy source the procedure names; missing: ${missing.map((s) => `${s.key} (${ENERGY_KIND_LABELS[s.kind]})`).join(', ')}`, [
-        { path: 'points', message: `Missing: ${missing.map((s) => s.key).join(', ')}` },
-      ]);
+      throw badRequest(
+        `Lock out every energy source the procedure names; missing: ${missing.map((s) => `${s.key} (${ENERGY_KIND_LABELS[s.kind]})`).join(', ')}`,
+        [{ path: 'points', message: `Missing: ${missing.map((s) => s.key).join(', ')}` }],
+      );
     }
-    const used = await locksInUse(tx, who.orgId, input.points.filter((p) => p.device !== 'tag-only' && p.device !== 'blocking').map((p) => p.lockNumber));
+    const used = await locksInUse(
+      tx,
+      who.orgId,
+      input.points.filter((p) => p.device !== 'tag-only' && p.device !== 'blocking').map((p) => p.lockNumber),
+    );
     input.points.forEach((p, i) => {
       const where = used.get(p.lockNumber.toUpperCase());
-      if (where && p.device !== 'tag-only' && p.device !== 'blocking') throw conflict(`Lock ${p.lockNumber} is already on ${where}`, [{ path: `points.${i}.lockNumber`, message: `Already on ${where}` }]);
+      if (where && p.device !== 'tag-only' && p.device !== 'blocking')
+        throw conflict(`Lock ${p.lockNumber} is already on ${where}`, [{ path: `points.${i}.lockNumber`, message: `Already on ${where}` }]);
     });
     const machine = proc.machine.getEntity();
     const now = clock.now();
@@ -91,7 +101,17 @@ export async function applyLockout(em: EntityManager, who: Principal, input: App
       appliedAt: now,
     });
     for (const p of input.points) {
-      tx.create(LockoutPoint, { organization: who.orgId, session, sourceKey: p.sourceKey, device: p.device, lockNumber: p.lockNumber, tagNumber: p.tagNumber || null, appliedBy: who.userId, holder: who.userId, appliedAt: now });
+      tx.create(LockoutPoint, {
+        organization: who.orgId,
+        session,
+        sourceKey: p.sourceKey,
+        device: p.device,
+        lockNumber: p.lockNumber,
+        tagNumber: p.tagNumber || null,
+        appliedBy: who.userId,
+        holder: who.userId,
+        appliedAt: now,
+      });
     }
     if (input.workOrderId) {
       const wo = await tx.findOne(WorkOrder, input.workOrderId);
@@ -131,7 +151,8 @@ export async function verifyLockout(em: EntityManager, who: Principal, id: strin
     if (s.primary.id !== who.userId) throw forbidden(`Only ${s.primary.getEntity().name}, who holds this lockout, verifies its isolation`);
     const points = await activePoints(tx, s.id);
     const untested = points.filter((p) => !input.testedPointIds.includes(p.id));
-    if (untested.length) throw fieldError('testedPointIds', `Test every isolation point before signing; not ticked: ${untested.map((p) => p.sourceKey).join(', ')}`);
+    if (untested.length)
+      throw fieldError('testedPointIds', `Test every isolation point before signing; not ticked: ${untested.map((p) => p.sourceKey).join(', ')}`);
     const stray = input.testedPointIds.filter((pid) => !points.some((p) => p.id === pid));
     if (stray.length) throw fieldError('testedPointIds', 'Some ticked points do not belong to this lockout');
     s.state = 'verified';
@@ -140,7 +161,11 @@ export async function verifyLockout(em: EntityManager, who: Principal, id: strin
       subjectType: SUBJECT,
       subjectId: s.id,
       machineId: s.machine.id,
-      details: { summary: `${s.machine.getEntity().code}: start attempted; zero energy at ${points.map((p) => p.sourceKey).join(', ')}`, points: points.map((p) => p.sourceKey), startAttempted: true },
+      details: {
+        summary: `${s.machine.getEntity().code}: start attempted; zero energy at ${points.map((p) => p.sourceKey).join(', ')}`,
+        points: points.map((p) => p.sourceKey),
+        startAttempted: true,
+      },
       note: input.note ?? null,
     });
     s.verifiedAt = signOff.signedAt;
@@ -165,7 +190,11 @@ export async function joinLockout(em: EntityManager, who: Principal, id: string,
       subjectType: SUBJECT,
       subjectId: s.id,
       machineId: s.machine.id,
-      details: { summary: `${s.machine.getEntity().code}: personal lock ${input.lockNumber} on the group lockout held by ${s.primary.getEntity().name}`, lock: input.lockNumber, memberId: member.id },
+      details: {
+        summary: `${s.machine.getEntity().code}: personal lock ${input.lockNumber} on the group lockout held by ${s.primary.getEntity().name}`,
+        lock: input.lockNumber,
+        memberId: member.id,
+      },
     });
     member.joinedAt = signOff.signedAt;
     recordActivity(tx, who, 'safety.lockout-joined', { type: 'LockoutSession', id: s.id }, { signOffId: signOff.id });
@@ -199,14 +228,19 @@ export async function offerHandover(em: EntityManager, who: Principal, id: strin
     if (input.toUserId === who.userId) throw fieldError('toUserId', 'Choose someone else to take over');
     const m = await tx.findOne(Membership, { user: input.toUserId, organization: who.orgId, active: true }, { filters: false, populate: ['user'] });
     if (!m) throw fieldError('toUserId', 'This person is not an active member of your shop');
-    if (!(AUTHORIZED_ROLES as readonly string[]).includes(m.role)) throw fieldError('toUserId', `${m.user.getEntity().name} is not an authorized employee (technician or safety officer) and cannot hold a lockout`);
+    if (!(AUTHORIZED_ROLES as readonly string[]).includes(m.role))
+      throw fieldError('toUserId', `${m.user.getEntity().name} is not an authorized employee (technician or safety officer) and cannot hold a lockout`);
     s.pendingHandoverTo = tx.getReference(User, input.toUserId, { wrapped: true });
     const signOff = await appendSignOff(tx, who, {
       meaning: 'handover-offered',
       subjectType: SUBJECT,
       subjectId: s.id,
       machineId: s.machine.id,
-      details: { summary: `${s.machine.getEntity().code}: handing over to ${m.user.getEntity().name}`, toUserId: input.toUserId, toName: m.user.getEntity().name },
+      details: {
+        summary: `${s.machine.getEntity().code}: handing over to ${m.user.getEntity().name}`,
+        toUserId: input.toUserId,
+        toName: m.user.getEntity().name,
+      },
       note: input.note ?? null,
     });
     recordActivity(tx, who, 'safety.lockout-handover-offered', { type: 'LockoutSession', id: s.id }, { to: input.toUserId, signOffId: signOff.id });
@@ -223,10 +257,16 @@ export async function acceptHandover(em: EntityManager, who: Principal, id: stri
     const points = await activePoints(tx, s.id);
     const mine = points.filter((p) => p.holder.id === from.id);
     const missing = mine.filter((p) => !input.locks.some((l) => l.pointId === p.id));
-    if (missing.length) throw fieldError('locks', `Put your own lock on every point before taking over; missing: ${missing.map((p) => p.sourceKey).join(', ')}`);
+    if (missing.length)
+      throw fieldError('locks', `Put your own lock on every point before taking over; missing: ${missing.map((p) => p.sourceKey).join(', ')}`);
     const numbers = input.locks.map((l) => l.lockNumber.toUpperCase());
     if (new Set(numbers).size !== numbers.length) throw fieldError('locks', 'Each point needs its own lock');
-    const used = await locksInUse(tx, who.orgId, input.locks.map((l) => l.lockNumber), s.id);
+    const used = await locksInUse(
+      tx,
+      who.orgId,
+      input.locks.map((l) => l.lockNumber),
+      s.id,
+    );
     for (const l of input.locks) {
       const where = used.get(l.lockNumber.toUpperCase());
       if (where) throw conflict(`Lock ${l.lockNumber} is already on ${where}`, [{ path: 'locks', message: `Lock ${l.lockNumber} already on ${where}` }]);
@@ -237,7 +277,17 @@ export async function acceptHandover(em: EntityManager, who: Principal, id: stri
       const lock = input.locks.find((l) => l.pointId === p.id)!;
       p.removedAt = now;
       p.removedBy = tx.getReference(User, from.id, { wrapped: true });
-      tx.create(LockoutPoint, { organization: who.orgId, session: s, sourceKey: p.sourceKey, device: p.device, lockNumber: lock.lockNumber, tagNumber: p.tagNumber, appliedBy: who.userId, holder: who.userId, appliedAt: now });
+      tx.create(LockoutPoint, {
+        organization: who.orgId,
+        session: s,
+        sourceKey: p.sourceKey,
+        device: p.device,
+        lockNumber: lock.lockNumber,
+        tagNumber: p.tagNumber,
+        appliedBy: who.userId,
+        holder: who.userId,
+        appliedAt: now,
+      });
       swaps.push({ key: p.sourceKey, from: p.lockNumber, to: lock.lockNumber });
     }
     s.primary = tx.getReference(User, who.userId, { wrapped: true });
@@ -247,7 +297,12 @@ export async function acceptHandover(em: EntityManager, who: Principal, id: stri
       subjectType: SUBJECT,
       subjectId: s.id,
       machineId: s.machine.id,
-      details: { summary: `${s.machine.getEntity().code}: taken over from ${from.name}; ${swaps.map((x) => `${x.key} ${x.from} → ${x.to}`).join(', ')}`, fromUserId: from.id, fromName: from.name, locks: swaps },
+      details: {
+        summary: `${s.machine.getEntity().code}: taken over from ${from.name}; ${swaps.map((x) => `${x.key} ${x.from} → ${x.to}`).join(', ')}`,
+        fromUserId: from.id,
+        fromName: from.name,
+        locks: swaps,
+      },
     });
     recordActivity(tx, who, 'safety.lockout-handover-accepted', { type: 'LockoutSession', id: s.id }, { from: from.id, signOffId: signOff.id });
     return { signOffId: signOff.id };
@@ -267,7 +322,9 @@ export async function releaseLockout(em: EntityManager, who: Principal, id: stri
     }
     const members = await tx.find(LockoutMember, { session: s.id, leftAt: null }, { populate: ['user'], orderBy: { joinedAt: 'asc' } });
     if (members.length) {
-      throw conflict(`Personal locks are still on this group lockout: ${members.map((m) => `${m.user.getEntity().name} (${m.lockNumber})`).join(', ')}. Each person removes their own lock first.`);
+      throw conflict(
+        `Personal locks are still on this group lockout: ${members.map((m) => `${m.user.getEntity().name} (${m.lockNumber})`).join(', ')}. Each person removes their own lock first.`,
+      );
     }
     if (s.pendingHandoverTo) throw conflict('A hand-over is waiting to be accepted; it must be accepted before the lockout can be released');
     const now = clock.now();

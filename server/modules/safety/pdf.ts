@@ -19,8 +19,13 @@ export const COLORS = {
 };
 
 /** The latin subset of the font has no math signs; keep PDF text inside it. */
-// eslint-disable-next-line no-control-regex -- the range starts at U+0000 on purpose: everything outside the font is replaced
-export const pdfText = (s: string) => s.replace(/≥/g, '>=').replace(/≤/g, '<=').replace(/→/g, '->').replace(/[^\u0000-\u024F\u2010-\u2027\u2030-\u203A\u20AC]/g, '?');
+export const pdfText = (s: string) =>
+  s
+    .replace(/≥/g, '>=')
+    .replace(/≤/g, '<=')
+    .replace(/→/g, '->')
+    // eslint-disable-next-line no-control-regex -- the range starts at U+0000 on purpose: everything outside the font is replaced
+    .replace(/[^\u0000-\u024F\u2010-\u2027\u2030-\u203A\u20AC]/g, '?');
 
 export function newDoc(info: { Title: string; Subject?: string }, layout: 'portrait' | 'landscape' = 'portrait') {
   const doc = new PDFDocument({ size: 'A4', layout, margin: 36, bufferPages: true, info: { ...info, Creator: 'Kerfbook', Producer: 'Kerfbook' } });
@@ -46,7 +51,13 @@ export function cautionBox(doc: PDFKit.PDFDocument, text: string, x: number, y: 
   const h = doc.heightOfString(pdfText(text), { width: width - 22 }) + 16;
   doc.rect(x, y, width, h).fill('#fff6d6');
   doc.rect(x, y, 6, h).fill(COLORS.caution);
-  doc.fillColor(COLORS.steel900).font('bold').fontSize(8.5).text('Safety: ', x + 14, y + 8, { continued: true, width: width - 22 }).font('regular').text(pdfText(text));
+  doc
+    .fillColor(COLORS.steel900)
+    .font('bold')
+    .fontSize(8.5)
+    .text('Safety: ', x + 14, y + 8, { continued: true, width: width - 22 })
+    .font('regular')
+    .text(pdfText(text));
   return y + h;
 }
 

@@ -21,7 +21,8 @@ export async function renderPlacard(em: EntityManager, procedureId: string, appU
   const v = version
     ? await em.findOne(ProcedureVersion, { procedure: proc.id, version }, { populate: ['approvedBy'] })
     : await em.findOne(ProcedureVersion, { procedure: proc.id, status: 'approved' }, { populate: ['approvedBy'], orderBy: { version: 'desc' } });
-  if (!v) throw version ? notFound(`Version ${version}`) : conflict('This procedure has no approved version yet; approve a version before printing its placard');
+  if (!v)
+    throw version ? notFound(`Version ${version}`) : conflict('This procedure has no approved version yet; approve a version before printing its placard');
   const signOff = v.approvalSignOff ? await em.findOne(SafetySignOff, v.approvalSignOff.id) : null;
   const photos = await em.find(ProcedurePhoto, { version: v.id }, { populate: ['data'], orderBy: { createdAt: 'asc' }, limit: 8 });
   const machine = proc.machine.getEntity();
@@ -42,17 +43,38 @@ export async function renderPlacard(em: EntityManager, procedureId: string, appU
 
   // Red band: the instruction first, the machine code large on the right.
   doc.rect(0, 0, W, 70).fill(COLORS.danger);
-  doc.fillColor('#ffffff').font('bold').fontSize(17).text('ISOLATE ALL ENERGY BEFORE YOU WORK HERE', M, 14, { width: inner - 120 });
-  doc.font('regular').fontSize(9).text('Energy-control (lockout/tagout) procedure  ·  OSHA 29 CFR 1910.147  ·  only authorized employees apply locks', M, doc.y + 3, { width: inner - 120 });
+  doc
+    .fillColor('#ffffff')
+    .font('bold')
+    .fontSize(17)
+    .text('ISOLATE ALL ENERGY BEFORE YOU WORK HERE', M, 14, { width: inner - 120 });
+  doc
+    .font('regular')
+    .fontSize(9)
+    .text('Energy-control (lockout/tagout) procedure  ·  OSHA 29 CFR 1910.147  ·  only authorized employees apply locks', M, doc.y + 3, { width: inner - 120 });
   doc.rect(W - M - 104, 10, 104, 50).fill('#ffffff');
-  doc.fillColor(COLORS.danger).font('bold').fontSize(machine.code.length > 5 ? 18 : 30).text(pdfText(machine.code), W - M - 104, machine.code.length > 5 ? 26 : 19, { width: 104, align: 'center' });
+  doc
+    .fillColor(COLORS.danger)
+    .font('bold')
+    .fontSize(machine.code.length > 5 ? 18 : 30)
+    .text(pdfText(machine.code), W - M - 104, machine.code.length > 5 ? 26 : 19, { width: 104, align: 'center' });
 
   // Identity strip.
   let y = 78;
-  doc.fillColor(COLORS.steel900).font('bold').fontSize(13).text(pdfText(heading), M, y, { width: inner - 80 });
+  doc
+    .fillColor(COLORS.steel900)
+    .font('bold')
+    .fontSize(13)
+    .text(pdfText(heading), M, y, { width: inner - 80 });
   y = doc.y + 1;
   const approved = v.approvedAt ? `approved ${inZone(v.approvedAt, 'yyyy-MM-dd')} by ${v.approvedBy?.getEntity().name ?? '?'}` : 'NOT APPROVED';
-  doc.font('regular').fontSize(8).fillColor(COLORS.steel700).text(pdfText(`Version ${v.version} (${v.status}), ${approved}${signOff ? `  ·  signature #${signOff.seq} ${signOff.hash.slice(0, 12)}` : ''}`), M, y, { width: inner - 80 });
+  doc
+    .font('regular')
+    .fontSize(8)
+    .fillColor(COLORS.steel700)
+    .text(pdfText(`Version ${v.version} (${v.status}), ${approved}${signOff ? `  ·  signature #${signOff.seq} ${signOff.hash.slice(0, 12)}` : ''}`), M, y, {
+      width: inner - 80,
+    });
   y = doc.y + 1;
   doc.text(pdfText(`Scope: ${c.scope}`), M, y, { width: inner - 80 });
   doc.image(qr, W - M - 64, 76, { width: 64 });
@@ -68,7 +90,11 @@ export async function renderPlacard(em: EntityManager, procedureId: string, appU
 
   // Energy sources.
   doc.rect(M, y, inner, 15).fill(COLORS.steel900);
-  doc.fillColor('#ffffff').font('bold').fontSize(9).text(`ENERGY SOURCES (${c.sources.length})`, M + 8, y + 3);
+  doc
+    .fillColor('#ffffff')
+    .font('bold')
+    .fontSize(9)
+    .text(`ENERGY SOURCES (${c.sources.length})`, M + 8, y + 3);
   y += 19;
   for (const s of c.sources) {
     doc.font('regular').fontSize(8);
@@ -79,9 +105,20 @@ export async function renderPlacard(em: EntityManager, procedureId: string, appU
     doc.rect(M, y, inner, h).lineWidth(0.8).stroke(COLORS.steel200);
     // The painted tag in a yellow pill, wide enough for "C2-E1".
     doc.roundedRect(M + 4, y + 6, 46, 20, 10).fill(COLORS.caution);
-    doc.fillColor(COLORS.steel900).font('bold').fontSize(s.key.length > 5 ? 8 : 10).text(pdfText(s.key), M + 4, y + (s.key.length > 5 ? 12 : 11), { width: 46, align: 'center' });
-    doc.font('bold').fontSize(9).text(pdfText(ENERGY_KIND_LABELS[s.kind]), M + 56, y + 4, { width: 150 });
-    doc.font('regular').fontSize(8).fillColor(COLORS.steel700).text(left, M + 56, y + 16, { width: 150 });
+    doc
+      .fillColor(COLORS.steel900)
+      .font('bold')
+      .fontSize(s.key.length > 5 ? 8 : 10)
+      .text(pdfText(s.key), M + 4, y + (s.key.length > 5 ? 12 : 11), { width: 46, align: 'center' });
+    doc
+      .font('bold')
+      .fontSize(9)
+      .text(pdfText(ENERGY_KIND_LABELS[s.kind]), M + 56, y + 4, { width: 150 });
+    doc
+      .font('regular')
+      .fontSize(8)
+      .fillColor(COLORS.steel700)
+      .text(left, M + 56, y + 16, { width: 150 });
     doc.fillColor(COLORS.steel900).text(body, M + 214, y + 4, { width: inner - 222 });
     y += h + 4;
   }
@@ -108,16 +145,32 @@ export async function renderPlacard(em: EntityManager, procedureId: string, appU
   const top = y;
   const topPage = doc.bufferedPageRange().count;
   doc.rect(M, y, stepsW, 15).fill(COLORS.steel900);
-  doc.fillColor('#ffffff').font('bold').fontSize(9).text('APPLY ENERGY CONTROL — IN THIS ORDER', M + 8, y + 3);
+  doc
+    .fillColor('#ffffff')
+    .font('bold')
+    .fontSize(9)
+    .text('APPLY ENERGY CONTROL — IN THIS ORDER', M + 8, y + 3);
   y += 19;
   PROCEDURE_PHASES.forEach((phase, i) => {
     const h = rowH(i);
     ensure(h + 6);
-    doc.fillColor(COLORS.steel900).font('bold').fontSize(9).text(`${i + 1}. ${PHASE_LABELS[phase].title}`, M, y, { width: labelW });
+    doc
+      .fillColor(COLORS.steel900)
+      .font('bold')
+      .fontSize(9)
+      .text(`${i + 1}. ${PHASE_LABELS[phase].title}`, M, y, { width: labelW });
     doc.font('regular').fontSize(6.5).fillColor(COLORS.steel500).text(PHASE_LABELS[phase].source, M, doc.y, { width: labelW });
-    doc.fillColor(COLORS.steel900).font('regular').fontSize(8).text(stepTexts[i], M + labelW + 6, y, { width: stepsW - labelW - 6 });
+    doc
+      .fillColor(COLORS.steel900)
+      .font('regular')
+      .fontSize(8)
+      .text(stepTexts[i], M + labelW + 6, y, { width: stepsW - labelW - 6 });
     y = Math.max(doc.y, y + h) + 6;
-    doc.moveTo(M, y - 3).lineTo(M + stepsW, y - 3).lineWidth(0.5).stroke(COLORS.steel200);
+    doc
+      .moveTo(M, y - 3)
+      .lineTo(M + stepsW, y - 3)
+      .lineWidth(0.5)
+      .stroke(COLORS.steel200);
   });
 
   // Release (1910.147(e)), green: the way back to safe operation.
@@ -126,8 +179,15 @@ export async function renderPlacard(em: EntityManager, procedureId: string, appU
   const relY = doc.bufferedPageRange().count === topPage ? top : M;
   doc.rect(relX, relY, relW, relH).fill('#e3f5e9');
   doc.rect(relX, relY, 5, relH).fill(COLORS.safe);
-  doc.fillColor(COLORS.steel900).font('bold').fontSize(9).text('RELEASE — only the person whose lock it is removes it (1910.147(e))', relX + 12, relY + 6, { width: relW - 18 });
-  doc.font('regular').fontSize(8).text(rel, relX + 12, doc.y + 4, { width: relW - 18 });
+  doc
+    .fillColor(COLORS.steel900)
+    .font('bold')
+    .fontSize(9)
+    .text('RELEASE — only the person whose lock it is removes it (1910.147(e))', relX + 12, relY + 6, { width: relW - 18 });
+  doc
+    .font('regular')
+    .fontSize(8)
+    .text(rel, relX + 12, doc.y + 4, { width: relW - 18 });
   y = Math.max(y, relY + relH) + 6;
 
   // Photos of isolation points.
@@ -147,9 +207,17 @@ export async function renderPlacard(em: EntityManager, procedureId: string, appU
       } catch {
         // WebP cannot be embedded by pdfkit; name the photo instead of failing the placard.
         doc.rect(x, y, size, size).stroke(COLORS.steel200);
-        doc.font('regular').fontSize(8).fillColor(COLORS.steel500).text('Photo in Kerfbook', x, y + size / 2 - 4, { width: size, align: 'center' });
+        doc
+          .font('regular')
+          .fontSize(8)
+          .fillColor(COLORS.steel500)
+          .text('Photo in Kerfbook', x, y + size / 2 - 4, { width: size, align: 'center' });
       }
-      doc.fillColor(COLORS.steel900).font('bold').fontSize(8).text(pdfText(`${p.sourceKey}${p.caption ? ` — ${p.caption}` : ''}`), x, y + size + 2, { width: size });
+      doc
+        .fillColor(COLORS.steel900)
+        .font('bold')
+        .fontSize(8)
+        .text(pdfText(`${p.sourceKey}${p.caption ? ` — ${p.caption}` : ''}`), x, y + size + 2, { width: size });
     });
     y += size + 20;
   }
@@ -158,7 +226,10 @@ export async function renderPlacard(em: EntityManager, procedureId: string, appU
   ensure(doc.heightOfString(pdfText(WORK_CAUTION), { width: inner - 22 }) + 18);
   cautionBox(doc, WORK_CAUTION, M, y, inner);
   // Printed time in the site's own zone, named, so the placard matches the clocks in the shop.
-  stampPages(doc, `Kerfbook placard · ${machine.code} · version ${v.version} · printed ${inZone(clock.now(), 'yyyy-MM-dd HH:mm')} ${tz} · check the current version before use`);
+  stampPages(
+    doc,
+    `Kerfbook placard · ${machine.code} · version ${v.version} · printed ${inZone(clock.now(), 'yyyy-MM-dd HH:mm')} ${tz} · check the current version before use`,
+  );
   const pdf = await toBuffer(doc);
   return { pdf, fileName: `placard-${machine.code}-v${v.version}.pdf`.replace(/[^A-Za-z0-9._-]/g, '_') };
 }

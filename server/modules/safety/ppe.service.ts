@@ -12,11 +12,18 @@ import type { ShadeTable } from '../../../shared/domain/shade';
 import type { SafetySettings } from '../../../shared/schemas/safety-records';
 import type { PpeCheckInput, PpeRequirementInput, PpeRequirementRow } from '../../../shared/schemas/safety-ppe';
 
-export const deriveSettings = (s: SafetySettings) => ({ shadeTable: (s.shadeTable as ShadeTable | null) ?? null, hearingRequiredFromDbA: s.hearingRequiredFromDbA, hearingRuleSource: s.hearingRuleSource });
+export const deriveSettings = (s: SafetySettings) => ({
+  shadeTable: (s.shadeTable as ShadeTable | null) ?? null,
+  hearingRequiredFromDbA: s.hearingRequiredFromDbA,
+  hearingRuleSource: s.hearingRuleSource,
+});
 
 function toRow(r: IPpeRequirement, settings: SafetySettings, last: { at: Date; name: string } | undefined): PpeRequirementRow {
   const machine = r.machine.getEntity();
-  const derived = deriveRequiredItems({ items: r.items, otherItems: r.otherItems, arcCurrentA: r.arcCurrentA ?? null, noise: r.noise }, deriveSettings(settings));
+  const derived = deriveRequiredItems(
+    { items: r.items, otherItems: r.otherItems, arcCurrentA: r.arcCurrentA ?? null, noise: r.noise },
+    deriveSettings(settings),
+  );
   return {
     id: r.id,
     machineId: machine.id,
@@ -35,7 +42,11 @@ function toRow(r: IPpeRequirement, settings: SafetySettings, last: { at: Date; n
 }
 
 export async function listRequirements(em: EntityManager, who: Principal, machineId?: string): Promise<PpeRequirementRow[]> {
-  const reqs = await em.find(PpeRequirement, { active: true, ...(machineId ? { machine: machineId } : {}) }, { populate: ['machine'], orderBy: { machine: { code: 'asc' }, task: 'asc' } });
+  const reqs = await em.find(
+    PpeRequirement,
+    { active: true, ...(machineId ? { machine: machineId } : {}) },
+    { populate: ['machine'], orderBy: { machine: { code: 'asc' }, task: 'asc' } },
+  );
   const { settings } = await loadSafetySettings(em, who.orgId);
   const last = await em.getConnection().execute<{ requirement_id: string; checked_at: Date; name: string }[]>(
     `select distinct on (c.requirement_id) c.requirement_id, c.checked_at, u.name from safety_ppe_check c join app_user u on u.id = c.person_id
@@ -52,18 +63,45 @@ export async function saveRequirement(em: EntityManager, who: Principal, input: 
     if (!machine) throw notFound('Machine');
     const { settings } = await loadSafetySettings(tx, who.orgId);
     // Refuse an arc current the shade table cannot answer, instead of posting no shade at all.
-    const derived = deriveRequiredItems({ items: input.items, otherItems: input.otherItems, arcCurrentA: input.arcCurrentA, noise: input.noise }, deriveSettings(settings));
+    const derived = deriveRequiredItems(
+      { items: input.items, otherItems: input.otherItems, arcCurrentA: input.arcCurrentA, noise: input.noise },
+      deriveSettings(settings),
+    );
     if (derived.shade && !derived.shade.ok) throw fieldError('arcCurrentA', derived.shade.message);
     let r: IPpeRequirement;
     if (id) {
       const found = await tx.findOne(PpeRequirement, id);
       if (!found) throw notFound('PPE requirement');
       r = found;
-      Object.assign(r, { machine, task: input.task, items: input.items, otherItems: input.otherItems, arcCurrentA: input.arcCurrentA, noise: input.noise, cadence: input.cadence });
+      Object.assign(r, {
+        machine,
+        task: input.task,
+        items: input.items,
+        otherItems: input.otherItems,
+        arcCurrentA: input.arcCurrentA,
+        noise: input.noise,
+        cadence: input.cadence,
+      });
     } else {
-      r = tx.create(PpeRequirement, { organization: who.orgId, machine, task: input.task, items: input.items, otherItems: input.otherItems, arcCurrentA: input.arcCurrentA, noise: input.noise, cadence: input.cadence, active: true });
+      r = tx.create(PpeRequirement, {
+        organization: who.orgId,
+        machine,
+        task: input.task,
+        items: input.items,
+        otherItems: input.otherItems,
+        arcCurrentA: input.arcCurrentA,
+        noise: input.noise,
+        cadence: input.cadence,
+        active: true,
+      });
     }
-    recordActivity(tx, who, id ? 'safety.ppe-requirement-changed' : 'safety.ppe-requirement-created', { type: 'PpeRequirement', id: r.id }, { machine: machine.code, task: input.task, required: derived.required.map((x) => x.code) });
+    recordActivity(
+      tx,
+      who,
+      id ? 'safety.ppe-requirement-changed' : 'safety.ppe-requirement-created',
+      { type: 'PpeRequirement', id: r.id },
+      { machine: machine.code, task: input.task, required: derived.required.map((x) => x.code) },
+    );
     return { id: r.id };
   });
 }
@@ -83,7 +121,10 @@ export async function recordPpeCheck(em: EntityManager, who: Principal, input: P
     const r = await tx.findOne(PpeRequirement, { id: input.requirementId, active: true }, { populate: ['machine'] });
     if (!r) throw notFound('PPE requirement');
     const { settings } = await loadSafetySettings(tx, who.orgId);
-    const derived = deriveRequiredItems({ items: r.items, otherItems: r.otherItems, arcCurrentA: r.arcCurrentA ?? null, noise: r.noise }, deriveSettings(settings));
+    const derived = deriveRequiredItems(
+      { items: r.items, otherItems: r.otherItems, arcCurrentA: r.arcCurrentA ?? null, noise: r.noise },
+      deriveSettings(settings),
+    );
     const missing = derived.required.filter((i) => !input.confirmed.includes(i.code));
     if (missing.length) {
       throw fieldError('confirmed', `Do not start: put on ${missing.map((m) => m.label.toLowerCase()).join(', ')} first, then sign`);

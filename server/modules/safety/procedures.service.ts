@@ -29,7 +29,11 @@ export async function listProcedures(em: EntityManager, who: Principal): Promise
   const procedures = await em.find(EnergyProcedure, {}, { populate: ['machine'], orderBy: { machine: { code: 'asc' }, title: 'asc' } });
   if (procedures.length === 0) return [];
   const versions = await em.find(ProcedureVersion, { procedure: { $in: procedures.map((p) => p.id) } }, { orderBy: { version: 'asc' } });
-  const inspections = await em.find(PeriodicInspection, { procedure: { $in: procedures.map((p) => p.id) }, certifiedAt: { $ne: null } }, { orderBy: { inspectedOn: 'asc' } });
+  const inspections = await em.find(
+    PeriodicInspection,
+    { procedure: { $in: procedures.map((p) => p.id) }, certifiedAt: { $ne: null } },
+    { orderBy: { inspectedOn: 'asc' } },
+  );
   const { settings, timeZone } = await loadSafetySettings(em, who.orgId);
   const now = clock.now();
   return procedures.map((proc) => {
@@ -38,7 +42,15 @@ export async function listProcedures(em: EntityManager, who: Principal): Promise
     const draft = mine.find((v) => v.status === 'draft') ?? null;
     const firstApproved = mine.find((v) => v.approvedAt)?.approvedAt ?? null;
     const lastInspection = inspections.filter((i) => i.procedure.id === proc.id).at(-1) ?? null;
-    const due = firstApproved ? inspectionEvaluation({ firstApprovedAt: firstApproved, lastInspectedOn: lastInspection?.inspectedOn ?? null, months: settings.inspectionIntervalMonths, timeZone, now }) : null;
+    const due = firstApproved
+      ? inspectionEvaluation({
+          firstApprovedAt: firstApproved,
+          lastInspectedOn: lastInspection?.inspectedOn ?? null,
+          months: settings.inspectionIntervalMonths,
+          timeZone,
+          now,
+        })
+      : null;
     const machine = proc.machine.getEntity();
     return {
       id: proc.id,
@@ -84,7 +96,13 @@ export async function getProcedure(em: EntityManager, id: string, version?: numb
   return {
     id: proc.id,
     machine: { id: machine.id, code: machine.code, name: machine.name, kind: machine.kind },
-    versions: versions.map((v) => ({ id: v.id, version: v.version, status: v.status, approvedAt: iso(v.approvedAt), approvedByName: v.approvedBy?.getEntity().name ?? null })),
+    versions: versions.map((v) => ({
+      id: v.id,
+      version: v.version,
+      status: v.status,
+      approvedAt: iso(v.approvedAt),
+      approvedByName: v.approvedBy?.getEntity().name ?? null,
+    })),
     current: current ? await versionDetail(em, current) : null,
     draft: draft && draft !== current ? await versionDetail(em, draft) : null,
   };
@@ -97,7 +115,15 @@ export async function createProcedure(em: EntityManager, who: Principal, input: 
     if (!machine) throw notFound('Machine');
     await refuseMachineCodeTags(tx, machine, content);
     const proc = tx.create(EnergyProcedure, { organization: who.orgId, machine, title: content.title });
-    const v = tx.create(ProcedureVersion, { organization: who.orgId, procedure: proc, version: 1, status: 'draft', content, author: who.userId, retrainingRequired: true });
+    const v = tx.create(ProcedureVersion, {
+      organization: who.orgId,
+      procedure: proc,
+      version: 1,
+      status: 'draft',
+      content,
+      author: who.userId,
+      retrainingRequired: true,
+    });
     recordActivity(tx, who, 'safety.procedure-created', { type: 'EnergyProcedure', id: proc.id }, { machine: machine.code, title: content.title });
     return { id: proc.id, versionId: v.id };
   });
@@ -107,12 +133,18 @@ export async function createProcedure(em: EntityManager, who: Principal, input: 
 async function refuseMachineCodeTags(em: EntityManager, machine: { code: string }, content: ProcedureContent) {
   const codes = new Set((await em.find(Machine, {}, { fields: ['code'] })).map((m) => m.code.toUpperCase()));
   content.sources.forEach((s, i) => {
-    if (codes.has(s.key.toUpperCase())) throw fieldError(`sources.${i}.key`, `${s.key} is also a machine code; use a tag such as ${pointTag(machine.code, i + 1)}`);
+    if (codes.has(s.key.toUpperCase()))
+      throw fieldError(`sources.${i}.key`, `${s.key} is also a machine code; use a tag such as ${pointTag(machine.code, i + 1)}`);
   });
 }
 
 /** Edits the open draft, or starts a new draft version from the text sent. Approved versions never change. */
-export async function saveDraft(em: EntityManager, who: Principal, procedureId: string, content: ProcedureContent): Promise<{ versionId: string; version: number }> {
+export async function saveDraft(
+  em: EntityManager,
+  who: Principal,
+  procedureId: string,
+  content: ProcedureContent,
+): Promise<{ versionId: string; version: number }> {
   return em.transactional(async (tx) => {
     const proc = await tx.findOne(EnergyProcedure, procedureId, { populate: ['machine'] });
     if (!proc) throw notFound('Procedure');
@@ -126,10 +158,27 @@ export async function saveDraft(em: EntityManager, who: Principal, procedureId: 
       draft.author = tx.getReference(User, who.userId, { wrapped: true });
     } else {
       const latest = versions.at(-1)!;
-      draft = tx.create(ProcedureVersion, { organization: who.orgId, procedure: proc, version: latest.version + 1, status: 'draft', content, author: who.userId, retrainingRequired: true });
+      draft = tx.create(ProcedureVersion, {
+        organization: who.orgId,
+        procedure: proc,
+        version: latest.version + 1,
+        status: 'draft',
+        content,
+        author: who.userId,
+        retrainingRequired: true,
+      });
       // Photos carry over to the new draft; the approved version keeps its own.
       const photos = await tx.find(ProcedurePhoto, { version: latest.id }, { populate: ['data'] });
-      for (const p of photos) tx.create(ProcedurePhoto, { organization: who.orgId, version: draft, sourceKey: p.sourceKey, caption: p.caption, mime: p.mime, size: p.size, data: p.data });
+      for (const p of photos)
+        tx.create(ProcedurePhoto, {
+          organization: who.orgId,
+          version: draft,
+          sourceKey: p.sourceKey,
+          caption: p.caption,
+          mime: p.mime,
+          size: p.size,
+          data: p.data,
+        });
     }
     recordActivity(tx, who, 'safety.procedure-draft-saved', { type: 'ProcedureVersion', id: draft.id }, { version: draft.version });
     return { versionId: draft.id, version: draft.version };
@@ -178,7 +227,13 @@ export async function approveVersion(em: EntityManager, who: Principal, procedur
   });
 }
 
-export async function addPhoto(em: EntityManager, who: Principal, procedureId: string, file: { buffer: Buffer; size: number } | undefined, fields: { sourceKey: string; caption?: string }) {
+export async function addPhoto(
+  em: EntityManager,
+  who: Principal,
+  procedureId: string,
+  file: { buffer: Buffer; size: number } | undefined,
+  fields: { sourceKey: string; caption?: string },
+) {
   if (!file) throw fieldError('photo', 'Choose a photo to upload');
   if (file.size > PROCEDURE_PHOTO_MAX_BYTES) throw fieldError('photo', `The photo is larger than ${megabytes(PROCEDURE_PHOTO_MAX_BYTES)} MB`);
   // Trust the bytes, not the file name or the browser's content type.
@@ -194,8 +249,22 @@ export async function addPhoto(em: EntityManager, who: Principal, procedureId: s
     if (!draft.content.sources.some((s) => s.key === fields.sourceKey)) throw fieldError('sourceKey', `The draft has no isolation point ${fields.sourceKey}`);
     const count = await tx.count(ProcedurePhoto, { version: draft.id });
     if (count >= 20) throw badRequest('A version holds at most 20 photos');
-    const photo = tx.create(ProcedurePhoto, { organization: who.orgId, version: draft, sourceKey: fields.sourceKey, caption: fields.caption ?? null, mime: type.mime, size: file.size, data: file.buffer });
-    recordActivity(tx, who, 'safety.procedure-photo-added', { type: 'ProcedurePhoto', id: photo.id }, { version: draft.version, sourceKey: fields.sourceKey, size: file.size });
+    const photo = tx.create(ProcedurePhoto, {
+      organization: who.orgId,
+      version: draft,
+      sourceKey: fields.sourceKey,
+      caption: fields.caption ?? null,
+      mime: type.mime,
+      size: file.size,
+      data: file.buffer,
+    });
+    recordActivity(
+      tx,
+      who,
+      'safety.procedure-photo-added',
+      { type: 'ProcedurePhoto', id: photo.id },
+      { version: draft.version, sourceKey: fields.sourceKey, size: file.size },
+    );
     return { id: photo.id, versionId: draft.id };
   });
 }

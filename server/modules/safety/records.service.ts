@@ -42,7 +42,8 @@ async function activeMembers(tx: EntityManager, orgId: string, userIds: string[]
 }
 
 function notInFuture(date: string, tz: string, path: string) {
-  if (DateTime.fromISO(date, { zone: tz }).startOf('day') > DateTime.fromMillis(clock.ms()).setZone(tz).startOf('day')) throw fieldError(path, 'The date cannot be in the future');
+  if (DateTime.fromISO(date, { zone: tz }).startOf('day') > DateTime.fromMillis(clock.ms()).setZone(tz).startOf('day'))
+    throw fieldError(path, 'The date cannot be in the future');
 }
 
 /**
@@ -56,7 +57,10 @@ export async function recordInspection(em: EntityManager, who: Principal, input:
     notInFuture(input.inspectedOn, timeZone, 'inspectedOn');
     const ids = [...new Set(input.employeeIds)];
     if (ids.includes(who.userId)) {
-      throw fieldError('employeeIds', 'You use this procedure in this inspection, so you cannot inspect it: the inspector must be an authorized employee other than the ones using the procedure (1910.147(c)(6)(i)(A))');
+      throw fieldError(
+        'employeeIds',
+        'You use this procedure in this inspection, so you cannot inspect it: the inspector must be an authorized employee other than the ones using the procedure (1910.147(c)(6)(i)(A))',
+      );
     }
     const members = await activeMembers(tx, who.orgId, ids);
     const unknown = ids.filter((id) => !members.has(id));
@@ -151,7 +155,11 @@ function inspectionRow(i: IPeriodicInspection): InspectionRow {
 }
 
 export async function listInspections(em: EntityManager): Promise<InspectionRow[]> {
-  const rows = await em.find(PeriodicInspection, {}, { populate: ['procedure.machine', 'inspector', 'certifiedBy'], orderBy: { inspectedOn: 'desc', createdAt: 'desc' }, limit: 500 });
+  const rows = await em.find(
+    PeriodicInspection,
+    {},
+    { populate: ['procedure.machine', 'inspector', 'certifiedBy'], orderBy: { inspectedOn: 'desc', createdAt: 'desc' }, limit: 500 },
+  );
   return rows.map(inspectionRow);
 }
 
@@ -177,7 +185,10 @@ export async function recordTraining(em: EntityManager, who: Principal, input: T
     const person = members.get(input.userId);
     if (!person) throw fieldError('userId', 'This person is not an active member of your shop');
     if (input.kind === 'authorized' && !AUTHORIZED.includes(person.role)) {
-      throw fieldError('kind', `${person.name} is not in an authorized-employee role (technician or safety officer); record affected-employee training instead`);
+      throw fieldError(
+        'kind',
+        `${person.name} is not in an authorized-employee role (technician or safety officer); record affected-employee training instead`,
+      );
     }
     const recordId = randomUUID();
     const signOff = await appendSignOff(tx, who, {
@@ -278,7 +289,8 @@ export async function startFireWatch(em: EntityManager, who: Principal, input: S
     const now = clock.now();
     const ended = input.cuttingEndedAt ? new Date(input.cuttingEndedAt) : now;
     if (ended.getTime() > now.getTime() + 60_000) throw fieldError('cuttingEndedAt', 'Cutting cannot have ended in the future');
-    if (now.getTime() - ended.getTime() > 24 * 3600_000) throw fieldError('cuttingEndedAt', 'Cutting ended more than a day ago; a fire watch starts when cutting stops');
+    if (now.getTime() - ended.getTime() > 24 * 3600_000)
+      throw fieldError('cuttingEndedAt', 'Cutting ended more than a day ago; a fire watch starts when cutting stops');
     const rule = settings.fireWatchRule;
     const until = fireWatchUntil(ended, rule);
     const fireWatchId = randomUUID();
@@ -295,7 +307,17 @@ export async function startFireWatch(em: EntityManager, who: Principal, input: S
         area: input.area || null,
       },
     });
-    const fw = tx.create(FireWatch, { id: fireWatchId, organization: who.orgId, machine, watcher: who.userId, cuttingEndedAt: ended, until, rule, area: input.area || null, startSignOff: signOff });
+    const fw = tx.create(FireWatch, {
+      id: fireWatchId,
+      organization: who.orgId,
+      machine,
+      watcher: who.userId,
+      cuttingEndedAt: ended,
+      until,
+      rule,
+      area: input.area || null,
+      startSignOff: signOff,
+    });
     recordActivity(tx, who, 'safety.fire-watch-started', { type: 'FireWatch', id: fw.id }, { signOffId: signOff.id });
     await tx.flush();
     await tx.populate(fw, ['watcher']);
@@ -313,7 +335,9 @@ export async function endFireWatch(em: EntityManager, who: Principal, id: string
     const now = clock.now();
     if (now < fw.until) {
       const mins = Math.ceil((fw.until.getTime() - now.getTime()) / 60_000);
-      throw conflict(`Keep watching: the fire watch runs until ${local(fw.until, who.timeZone)} (${FIRE_WATCH_RULES[fw.rule as FireWatchRuleId]?.source ?? fw.rule}), ${mins} min to go`);
+      throw conflict(
+        `Keep watching: the fire watch runs until ${local(fw.until, who.timeZone)} (${FIRE_WATCH_RULES[fw.rule as FireWatchRuleId]?.source ?? fw.rule}), ${mins} min to go`,
+      );
     }
     const machine = fw.machine.getEntity();
     const { timeZone } = who;
@@ -322,7 +346,11 @@ export async function endFireWatch(em: EntityManager, who: Principal, id: string
       subjectType: 'fire-watch',
       subjectId: fw.id,
       machineId: machine.id,
-      details: { summary: `${machine.code}: watched from ${local(fw.cuttingEndedAt, timeZone)} to ${local(now, timeZone)}, no fire found`, noFireFound: true, rule: fw.rule },
+      details: {
+        summary: `${machine.code}: watched from ${local(fw.cuttingEndedAt, timeZone)} to ${local(now, timeZone)}, no fire found`,
+        noFireFound: true,
+        rule: fw.rule,
+      },
       note: input.note || null,
     });
     fw.endedAt = signOff.signedAt;

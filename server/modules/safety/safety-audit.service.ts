@@ -14,12 +14,24 @@ import { COLORS, newDoc, pdfText, stampPages, toBuffer } from './pdf';
 import { notFound } from '../../http/errors';
 import { ROLE_LABELS, type Role } from '../../../shared/permissions';
 import type { Principal } from '../../http/principal';
-import { MEANING_LABELS, type ChainVerification, type ExportSignOffsQuery, type ListSignOffsQuery, type SignOffRow } from '../../../shared/schemas/safety-sign-offs';
+import {
+  MEANING_LABELS,
+  type ChainVerification,
+  type ExportSignOffsQuery,
+  type ListSignOffsQuery,
+  type SignOffRow,
+} from '../../../shared/schemas/safety-sign-offs';
 import type { ComplianceSummary, MachineCompliance, TimelineWeek } from '../../../shared/schemas/safety-audit';
 import { clock } from '../../../shared/clock';
 import type { Page } from '../../../shared/schemas/paging';
 
-const SORT: Record<ListSignOffsQuery['sort'], string> = { signedAt: 's.signed_at', signerName: 's.signer_name', meaning: 's.meaning', machine: 'm.code', seq: 's.seq' };
+const SORT: Record<ListSignOffsQuery['sort'], string> = {
+  signedAt: 's.signed_at',
+  signerName: 's.signer_name',
+  meaning: 's.meaning',
+  machine: 'm.code',
+  seq: 's.seq',
+};
 
 type Sql = {
   id: string;
@@ -94,17 +106,20 @@ const toRow = (r: Sql): SignOffRow => ({
 export async function listSignOffs(em: EntityManager, who: Principal, q: ListSignOffsQuery): Promise<Page<SignOffRow>> {
   const { tz } = await shopZone(em, who.orgId);
   const { where, params } = whereFor(q, who.orgId, tz);
-  const rows = await em.getConnection().execute<Sql[]>(`${selectSql} where ${where} order by ${SORT[q.sort]} ${q.dir === 'asc' ? 'asc' : 'desc'}, s.seq ${q.dir === 'asc' ? 'asc' : 'desc'} limit ? offset ?`, [
-    ...params,
-    q.pageSize,
-    (q.page - 1) * q.pageSize,
-  ]);
+  const rows = await em
+    .getConnection()
+    .execute<Sql[]>(
+      `${selectSql} where ${where} order by ${SORT[q.sort]} ${q.dir === 'asc' ? 'asc' : 'desc'}, s.seq ${q.dir === 'asc' ? 'asc' : 'desc'} limit ? offset ?`,
+      [...params, q.pageSize, (q.page - 1) * q.pageSize],
+    );
   return { rows: rows.map(toRow), total: rows[0] ? Number(rows[0].total) : 0, page: q.page, pageSize: q.pageSize };
 }
 
 async function allRows(em: EntityManager, who: Principal, q: ExportSignOffsQuery, tz: string) {
   const { where, params } = whereFor(q, who.orgId, tz);
-  const rows = await em.getConnection().execute<Sql[]>(`${selectSql} where ${where} order by ${SORT[q.sort]} ${q.dir === 'asc' ? 'asc' : 'desc'}, s.seq limit 20000`, params);
+  const rows = await em
+    .getConnection()
+    .execute<Sql[]>(`${selectSql} where ${where} order by ${SORT[q.sort]} ${q.dir === 'asc' ? 'asc' : 'desc'}, s.seq limit 20000`, params);
   return rows.map(toRow);
 }
 
@@ -134,12 +149,31 @@ async function filterText(em: EntityManager, q: ExportSignOffsQuery) {
   return parts.length ? parts.join(', ') : 'all signatures';
 }
 
-export async function exportCsv(em: EntityManager, who: Principal, q: ExportSignOffsQuery): Promise<{ csv: string; fileName: string; verification: ChainVerification }> {
+export async function exportCsv(
+  em: EntityManager,
+  who: Principal,
+  q: ExportSignOffsQuery,
+): Promise<{ csv: string; fileName: string; verification: ChainVerification }> {
   const { org, tz } = await shopZone(em, who.orgId);
   const verification = await verifyShopChain(em, who.orgId);
   const rows = await allRows(em, who, q, tz);
   const csv = toCsv(
-    ['seq', 'signed_at_utc', 'signed_at_local', 'time_zone', 'printed_name', 'role', 'meaning', 'statement', 'machine', 'summary', 'note', 'corrects_seq', 'hash', 'chain_check'],
+    [
+      'seq',
+      'signed_at_utc',
+      'signed_at_local',
+      'time_zone',
+      'printed_name',
+      'role',
+      'meaning',
+      'statement',
+      'machine',
+      'summary',
+      'note',
+      'corrects_seq',
+      'hash',
+      'chain_check',
+    ],
     rows.map((r) => [
       r.seq,
       r.signedAt,
@@ -173,8 +207,22 @@ export async function exportPdf(em: EntityManager, who: Principal, q: ExportSign
   const generated = DateTime.fromMillis(clock.ms()).setZone(tz);
 
   doc.rect(0, 0, W, 6).fill(COLORS.steel900);
-  doc.fillColor(COLORS.steel900).font('bold').fontSize(18).text(pdfText(`Safety sign-offs — ${org.name}`), M, 20);
-  doc.font('regular').fontSize(9.5).fillColor(COLORS.steel700).text(pdfText(`Filters: ${filters}  ·  ${rows.length} signature${rows.length === 1 ? '' : 's'}  ·  generated ${generated.toFormat('yyyy-LL-dd HH:mm')} (${tz}) by ${who.name}`), M, doc.y + 2);
+  doc
+    .fillColor(COLORS.steel900)
+    .font('bold')
+    .fontSize(18)
+    .text(pdfText(`Safety sign-offs — ${org.name}`), M, 20);
+  doc
+    .font('regular')
+    .fontSize(9.5)
+    .fillColor(COLORS.steel700)
+    .text(
+      pdfText(
+        `Filters: ${filters}  ·  ${rows.length} signature${rows.length === 1 ? '' : 's'}  ·  generated ${generated.toFormat('yyyy-LL-dd HH:mm')} (${tz}) by ${who.name}`,
+      ),
+      M,
+      doc.y + 2,
+    );
 
   // The verification result, in words and in colour (green = intact, red = broken).
   let y = doc.y + 8;
@@ -234,12 +282,21 @@ export async function exportPdf(em: EntityManager, who: Principal, q: ExportSign
     let x = M;
     cells.forEach((c, j) => {
       const bad = j === 8 && c !== 'verified';
-      doc.font(j === 2 || bad ? 'bold' : 'regular').fontSize(7.5).fillColor(bad ? COLORS.danger : COLORS.steel900).text(c, x + 3, y + 3, { width: cols[j].w - 6 });
+      doc
+        .font(j === 2 || bad ? 'bold' : 'regular')
+        .fontSize(7.5)
+        .fillColor(bad ? COLORS.danger : COLORS.steel900)
+        .text(c, x + 3, y + 3, { width: cols[j].w - 6 });
       x += cols[j].w;
     });
     y += h;
   });
-  if (rows.length === 0) doc.font('regular').fontSize(10).fillColor(COLORS.steel700).text('No signatures match these filters.', M, y + 8);
+  if (rows.length === 0)
+    doc
+      .font('regular')
+      .fontSize(10)
+      .fillColor(COLORS.steel700)
+      .text('No signatures match these filters.', M, y + 8);
   stampPages(doc, `Kerfbook safety log · ${org.name} · ${filters} · each signature was confirmed by the signer's password at the time shown`);
   const pdf = await toBuffer(doc);
   return { pdf, fileName: `safety-sign-offs-${org.slug}-${generated.toFormat('yyyyLLdd-HHmm')}.pdf` };
@@ -264,8 +321,19 @@ function inspectionState(inp: Inputs, procId: string, at: Date) {
   const first = mine[0]?.approvedAt;
   if (!first) return null;
   const last = inp.inspections.filter((i) => i.procedure.id === procId && DateTime.fromISO(i.inspectedOn, { zone: inp.tz }).toJSDate() <= at).at(-1);
-  const ev = inspectionEvaluation({ firstApprovedAt: first, lastInspectedOn: last?.inspectedOn ?? null, months: inp.settings.inspectionIntervalMonths, timeZone: inp.tz, now: at });
-  return { status: ev.status, dueAt: ev.dueAt, last: last?.inspectedOn ?? null, version: mine.filter((v) => v.status === 'approved').at(-1)?.version ?? mine.at(-1)?.version ?? null };
+  const ev = inspectionEvaluation({
+    firstApprovedAt: first,
+    lastInspectedOn: last?.inspectedOn ?? null,
+    months: inp.settings.inspectionIntervalMonths,
+    timeZone: inp.tz,
+    now: at,
+  });
+  return {
+    status: ev.status,
+    dueAt: ev.dueAt,
+    last: last?.inspectedOn ?? null,
+    version: mine.filter((v) => v.status === 'approved').at(-1)?.version ?? mine.at(-1)?.version ?? null,
+  };
 }
 
 /** Per-machine state: overdue inspections, missed PPE checks in the window, open lockouts, retraining. */
@@ -293,7 +361,15 @@ export async function compliance(em: EntityManager, who: Principal, days: number
     let done = 0;
     let missed = 0;
     for (const r of inp.reqs.filter((x) => x.machine.id === m.id)) {
-      const occ = ppeOccurrences({ cadence: r.cadence, settings: inp.settings, timeZone: inp.tz, startedAt: r.createdAt, from, to: now, checks: checks.filter((c) => c.requirement.id === r.id).map((c) => c.checkedAt) });
+      const occ = ppeOccurrences({
+        cadence: r.cadence,
+        settings: inp.settings,
+        timeZone: inp.tz,
+        startedAt: r.createdAt,
+        from,
+        to: now,
+        checks: checks.filter((c) => c.requirement.id === r.id).map((c) => c.checkedAt),
+      });
       for (const o of occ) {
         if (o.status === 'pending') continue;
         expected++;
@@ -332,14 +408,19 @@ export async function compliance(em: EntityManager, who: Principal, days: number
 export async function timeline(em: EntityManager, who: Principal, weeks: number): Promise<TimelineWeek[]> {
   const inp = await loadInputs(em, who.orgId);
   const now = clock.now();
-  const firstWeek = DateTime.fromMillis(clock.ms()).setZone(inp.tz).startOf('week').minus({ weeks: weeks - 1 });
+  const firstWeek = DateTime.fromMillis(clock.ms())
+    .setZone(inp.tz)
+    .startOf('week')
+    .minus({ weeks: weeks - 1 });
   const since = firstWeek.toJSDate();
   const checks = await em.find(PpeCheck, { checkedAt: { $gte: new Date(since.getTime() - 7 * 86_400_000) } });
   // The week label is computed in SQL as text, so no driver time-zone conversion can shift it.
-  const counts = await em.getConnection().execute<{ week: string; meaning: string; n: string }[]>(
-    `select to_char(date_trunc('week', signed_at at time zone ?), 'YYYY-MM-DD') as week, meaning, count(*) as n from safety_sign_off where organization_id = ? and signed_at >= ? group by 1, 2`,
-    [inp.tz, who.orgId, since],
-  );
+  const counts = await em
+    .getConnection()
+    .execute<{ week: string; meaning: string; n: string }[]>(
+      `select to_char(date_trunc('week', signed_at at time zone ?), 'YYYY-MM-DD') as week, meaning, count(*) as n from safety_sign_off where organization_id = ? and signed_at >= ? group by 1, 2`,
+      [inp.tz, who.orgId, since],
+    );
   const out: TimelineWeek[] = [];
   for (let i = 0; i < weeks; i++) {
     const start = firstWeek.plus({ weeks: i });
@@ -348,7 +429,15 @@ export async function timeline(em: EntityManager, who: Principal, weeks: number)
     let expected = 0;
     let done = 0;
     for (const r of inp.reqs) {
-      const occ = ppeOccurrences({ cadence: r.cadence, settings: inp.settings, timeZone: inp.tz, startedAt: r.createdAt, from: start.toJSDate(), to, checks: checks.filter((c) => c.requirement.id === r.id).map((c) => c.checkedAt) });
+      const occ = ppeOccurrences({
+        cadence: r.cadence,
+        settings: inp.settings,
+        timeZone: inp.tz,
+        startedAt: r.createdAt,
+        from: start.toJSDate(),
+        to,
+        checks: checks.filter((c) => c.requirement.id === r.id).map((c) => c.checkedAt),
+      });
       for (const o of occ) {
         if (o.status === 'pending') continue;
         expected++;

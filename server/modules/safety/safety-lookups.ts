@@ -12,22 +12,31 @@ export async function safetyMachines(em: EntityManager, who: Principal) {
        from safety_procedure p where p.organization_id = ? order by p.title`,
     [who.orgId],
   );
-  const open = await em.getConnection().execute<{ machine_id: string; n: string }[]>(`select machine_id, count(*) as n from safety_lockout where organization_id = ? and state <> 'released' group by machine_id`, [who.orgId]);
+  const open = await em
+    .getConnection()
+    .execute<{ machine_id: string; n: string }[]>(
+      `select machine_id, count(*) as n from safety_lockout where organization_id = ? and state <> 'released' group by machine_id`,
+      [who.orgId],
+    );
   return machines.map((m) => ({
     id: m.id,
     code: m.code,
     name: m.name,
     kind: m.kind,
-    procedures: procs.filter((p) => p.machine_id === m.id).map((p) => ({ id: p.id, title: p.title, approvedVersion: p.version === null ? null : Number(p.version) })),
+    procedures: procs
+      .filter((p) => p.machine_id === m.id)
+      .map((p) => ({ id: p.id, title: p.title, approvedVersion: p.version === null ? null : Number(p.version) })),
     openLockouts: Number(open.find((o) => o.machine_id === m.id)?.n ?? 0),
   }));
 }
 
 /** Active people of the shop, for pickers (hand-over, inspection, training). */
 export async function safetyPeople(em: EntityManager, who: Principal) {
-  const rows = await em.getConnection().execute<{ id: string; name: string; role: string }[]>(
-    `select u.id, u.name, m.role from membership m join app_user u on u.id = m.user_id where m.organization_id = ? and m.active order by u.name`,
-    [who.orgId],
-  );
+  const rows = await em
+    .getConnection()
+    .execute<{ id: string; name: string; role: string }[]>(
+      `select u.id, u.name, m.role from membership m join app_user u on u.id = m.user_id where m.organization_id = ? and m.active order by u.name`,
+      [who.orgId],
+    );
   return rows;
 }

@@ -16,11 +16,27 @@ import { acceptHandover, applyLockout, joinLockout, leaveLockout, offerHandover,
 import { getLockout, listLockouts } from './lockout.queries';
 import { safetyMachines, safetyPeople } from './safety-lookups';
 import { listRequirements, recordPpeCheck, retireRequirement, saveRequirement } from './ppe.service';
-import { certifyInspection, endFireWatch, listFireWatches, listInspections, listTraining, recordInspection, recordTraining, startFireWatch } from './records.service';
+import {
+  certifyInspection,
+  endFireWatch,
+  listFireWatches,
+  listInspections,
+  listTraining,
+  recordInspection,
+  recordTraining,
+  startFireWatch,
+} from './records.service';
 import { correctSignOff } from './corrections.service';
 import { compliance, exportCsv, exportPdf, listSignOffs, timeline } from './safety-audit.service';
 import { listSafetyTasks } from './work';
-import { approveVersionSchema, createProcedureSchema, photoParams, photoUploadFields, procedureContentSchema, versionParams } from '../../../shared/schemas/safety-procedures';
+import {
+  approveVersionSchema,
+  createProcedureSchema,
+  photoParams,
+  photoUploadFields,
+  procedureContentSchema,
+  versionParams,
+} from '../../../shared/schemas/safety-procedures';
 import {
   acceptHandoverSchema,
   applyLockoutSchema,
@@ -32,7 +48,14 @@ import {
   verifyLockoutSchema,
 } from '../../../shared/schemas/safety-lockout';
 import { ppeCheckSchema, ppeRequirementSchema } from '../../../shared/schemas/safety-ppe';
-import { certifySchema, endFireWatchSchema, inspectionSchema, safetySettingsSchema, startFireWatchSchema, trainingSchema } from '../../../shared/schemas/safety-records';
+import {
+  certifySchema,
+  endFireWatchSchema,
+  inspectionSchema,
+  safetySettingsSchema,
+  startFireWatchSchema,
+  trainingSchema,
+} from '../../../shared/schemas/safety-records';
 import { correctionSchema, exportSignOffsQuery, listSignOffsQuery } from '../../../shared/schemas/safety-sign-offs';
 import { complianceQuery, timelineQuery } from '../../../shared/schemas/safety-audit';
 import { PROCEDURE_PHOTO_MAX_BYTES } from '../../../shared/schemas/photos';
@@ -77,15 +100,45 @@ export function registerSafetyRoutes(r: ApiRouter, config: Config) {
   // Pickers and settings.
   route(r, 'get', '/safety/machines', { access: 'safety.read' }, async (_req, res, { principal: who }) => void res.json(await safetyMachines(em(), who)));
   route(r, 'get', '/safety/people', { access: 'safety.read' }, async (_req, res, { principal: who }) => void res.json(await safetyPeople(em(), who)));
-  route(r, 'get', '/safety/settings', { access: 'safety.read' }, async (_req, res, { principal: who }) => void res.json(settingsView((await loadSafetySettings(em(), who.orgId)).settings)));
-  route(r, 'put', '/safety/settings', { access: 'safety.settings.manage', body: safetySettingsSchema }, async (_req, res, { body, principal: who }) => void res.json(settingsView(await saveSafetySettings(em(), who, body))));
+  route(
+    r,
+    'get',
+    '/safety/settings',
+    { access: 'safety.read' },
+    async (_req, res, { principal: who }) => void res.json(settingsView((await loadSafetySettings(em(), who.orgId)).settings)),
+  );
+  route(
+    r,
+    'put',
+    '/safety/settings',
+    { access: 'safety.settings.manage', body: safetySettingsSchema },
+    async (_req, res, { body, principal: who }) => void res.json(settingsView(await saveSafetySettings(em(), who, body))),
+  );
   route(r, 'get', '/safety/tasks', { access: 'safety.read' }, async (_req, res, { principal: who }) => void res.json(await listSafetyTasks(em(), who.orgId)));
 
   // Energy-control procedures.
   route(r, 'get', '/safety/procedures', { access: 'safety.read' }, async (_req, res, { principal: who }) => void res.json(await listProcedures(em(), who)));
-  route(r, 'post', '/safety/procedures', { access: 'safety.procedures.manage', body: createProcedureSchema }, async (_req, res, { body, principal: who }) => void res.status(201).json(await createProcedure(em(), who, body)));
-  route(r, 'get', '/safety/procedures/:id', { access: 'safety.read', params: uuidParam, query: versionQuery }, async (_req, res, { params, query }) => void res.json(await getProcedure(em(), params.id, query.version)));
-  route(r, 'put', '/safety/procedures/:id/draft', { access: 'safety.procedures.manage', params: uuidParam, body: procedureContentSchema }, async (_req, res, { params, body, principal: who }) => void res.json(await saveDraft(em(), who, params.id, body)));
+  route(
+    r,
+    'post',
+    '/safety/procedures',
+    { access: 'safety.procedures.manage', body: createProcedureSchema },
+    async (_req, res, { body, principal: who }) => void res.status(201).json(await createProcedure(em(), who, body)),
+  );
+  route(
+    r,
+    'get',
+    '/safety/procedures/:id',
+    { access: 'safety.read', params: uuidParam, query: versionQuery },
+    async (_req, res, { params, query }) => void res.json(await getProcedure(em(), params.id, query.version)),
+  );
+  route(
+    r,
+    'put',
+    '/safety/procedures/:id/draft',
+    { access: 'safety.procedures.manage', params: uuidParam, body: procedureContentSchema },
+    async (_req, res, { params, body, principal: who }) => void res.json(await saveDraft(em(), who, params.id, body)),
+  );
   route(
     r,
     'post',
@@ -93,62 +146,222 @@ export function registerSafetyRoutes(r: ApiRouter, config: Config) {
     { access: 'safety.procedures.manage', params: versionParams, body: approveVersionSchema, ...signing },
     signed(({ params, body, principal: who }) => approveVersion(em(), who, params.id, params.version, body.retrainingRequired)),
   );
-  route(r, 'post', '/safety/procedures/:id/photos', { access: 'safety.procedures.manage', params: uuidParam, before: [upload], body: photoUploadFields }, async (req, res, { params, body, principal: who }) => {
-    res.status(201).json(await addPhoto(em(), who, params.id, req.file, body));
-  });
+  route(
+    r,
+    'post',
+    '/safety/procedures/:id/photos',
+    { access: 'safety.procedures.manage', params: uuidParam, before: [upload], body: photoUploadFields },
+    async (req, res, { params, body, principal: who }) => {
+      res.status(201).json(await addPhoto(em(), who, params.id, req.file, body));
+    },
+  );
   route(r, 'get', '/safety/procedures/:id/photos/:photoId', { access: 'safety.read', params: photoParams }, async (_req, res, { params }) => {
     const photo = await getPhoto(em(), params.id, params.photoId);
     res.set('Content-Type', photo.mime).set('Cache-Control', 'private, max-age=3600').set('X-Content-Type-Options', 'nosniff').send(photo.data);
   });
-  route(r, 'delete', '/safety/procedures/:id/photos/:photoId', { access: 'safety.procedures.manage', params: photoParams }, async (_req, res, { params, principal: who }) => {
-    await deletePhoto(em(), who, params.id, params.photoId);
-    res.status(204).end();
-  });
-  route(r, 'get', '/safety/procedures/:id/placard.pdf', { access: 'safety.read', params: uuidParam, query: versionQuery }, async (_req, res, { params, query }) => {
-    const { pdf, fileName } = await renderPlacard(em(), params.id, config.APP_URL, query.version);
-    res.set('Content-Type', 'application/pdf').set('Content-Disposition', `inline; filename="${fileName}"`).send(pdf);
-  });
+  route(
+    r,
+    'delete',
+    '/safety/procedures/:id/photos/:photoId',
+    { access: 'safety.procedures.manage', params: photoParams },
+    async (_req, res, { params, principal: who }) => {
+      await deletePhoto(em(), who, params.id, params.photoId);
+      res.status(204).end();
+    },
+  );
+  route(
+    r,
+    'get',
+    '/safety/procedures/:id/placard.pdf',
+    { access: 'safety.read', params: uuidParam, query: versionQuery },
+    async (_req, res, { params, query }) => {
+      const { pdf, fileName } = await renderPlacard(em(), params.id, config.APP_URL, query.version);
+      res.set('Content-Type', 'application/pdf').set('Content-Disposition', `inline; filename="${fileName}"`).send(pdf);
+    },
+  );
 
   // Lockout sessions.
-  route(r, 'get', '/safety/lockouts', { access: 'safety.read', query: listLockoutsQuery }, async (_req, res, { query, principal: who }) => void res.json(await listLockouts(em(), who, query)));
-  route(r, 'post', '/safety/lockouts', { access: 'safety.lockout.sign', body: applyLockoutSchema, ...signing }, signed(({ body, principal: who }) => applyLockout(em(), who, body)));
-  route(r, 'get', '/safety/lockouts/:id', { access: 'safety.read', params: uuidParam }, async (_req, res, { params, principal: who }) => void res.json(await getLockout(em(), who, params.id)));
-  route(r, 'post', '/safety/lockouts/:id/verify', { access: 'safety.lockout.sign', params: uuidParam, body: verifyLockoutSchema, ...signing }, signed(({ params, body, principal: who }) => verifyLockout(em(), who, params.id, body)));
-  route(r, 'post', '/safety/lockouts/:id/join', { access: 'safety.lockout.sign', params: uuidParam, body: joinLockoutSchema, ...signing }, signed(({ params, body, principal: who }) => joinLockout(em(), who, params.id, body)));
-  route(r, 'post', '/safety/lockouts/:id/leave', { access: 'safety.lockout.sign', params: uuidParam, body: leaveLockoutSchema, ...signing }, signed(({ params, principal: who }) => leaveLockout(em(), who, params.id)));
-  route(r, 'post', '/safety/lockouts/:id/handover', { access: 'safety.lockout.sign', params: uuidParam, body: offerHandoverSchema, ...signing }, signed(({ params, body, principal: who }) => offerHandover(em(), who, params.id, body)));
-  route(r, 'post', '/safety/lockouts/:id/accept-handover', { access: 'safety.lockout.sign', params: uuidParam, body: acceptHandoverSchema, ...signing }, signed(({ params, body, principal: who }) => acceptHandover(em(), who, params.id, body)));
-  route(r, 'post', '/safety/lockouts/:id/release', { access: 'safety.lockout.sign', params: uuidParam, body: releaseLockoutSchema, ...signing }, signed(({ params, body, principal: who }) => releaseLockout(em(), who, params.id, body)));
+  route(
+    r,
+    'get',
+    '/safety/lockouts',
+    { access: 'safety.read', query: listLockoutsQuery },
+    async (_req, res, { query, principal: who }) => void res.json(await listLockouts(em(), who, query)),
+  );
+  route(
+    r,
+    'post',
+    '/safety/lockouts',
+    { access: 'safety.lockout.sign', body: applyLockoutSchema, ...signing },
+    signed(({ body, principal: who }) => applyLockout(em(), who, body)),
+  );
+  route(
+    r,
+    'get',
+    '/safety/lockouts/:id',
+    { access: 'safety.read', params: uuidParam },
+    async (_req, res, { params, principal: who }) => void res.json(await getLockout(em(), who, params.id)),
+  );
+  route(
+    r,
+    'post',
+    '/safety/lockouts/:id/verify',
+    { access: 'safety.lockout.sign', params: uuidParam, body: verifyLockoutSchema, ...signing },
+    signed(({ params, body, principal: who }) => verifyLockout(em(), who, params.id, body)),
+  );
+  route(
+    r,
+    'post',
+    '/safety/lockouts/:id/join',
+    { access: 'safety.lockout.sign', params: uuidParam, body: joinLockoutSchema, ...signing },
+    signed(({ params, body, principal: who }) => joinLockout(em(), who, params.id, body)),
+  );
+  route(
+    r,
+    'post',
+    '/safety/lockouts/:id/leave',
+    { access: 'safety.lockout.sign', params: uuidParam, body: leaveLockoutSchema, ...signing },
+    signed(({ params, principal: who }) => leaveLockout(em(), who, params.id)),
+  );
+  route(
+    r,
+    'post',
+    '/safety/lockouts/:id/handover',
+    { access: 'safety.lockout.sign', params: uuidParam, body: offerHandoverSchema, ...signing },
+    signed(({ params, body, principal: who }) => offerHandover(em(), who, params.id, body)),
+  );
+  route(
+    r,
+    'post',
+    '/safety/lockouts/:id/accept-handover',
+    { access: 'safety.lockout.sign', params: uuidParam, body: acceptHandoverSchema, ...signing },
+    signed(({ params, body, principal: who }) => acceptHandover(em(), who, params.id, body)),
+  );
+  route(
+    r,
+    'post',
+    '/safety/lockouts/:id/release',
+    { access: 'safety.lockout.sign', params: uuidParam, body: releaseLockoutSchema, ...signing },
+    signed(({ params, body, principal: who }) => releaseLockout(em(), who, params.id, body)),
+  );
 
   // PPE.
-  route(r, 'get', '/safety/ppe/requirements', { access: 'safety.read', query: mapQuery }, async (_req, res, { query, principal: who }) => void res.json(await listRequirements(em(), who, query.machineId)));
-  route(r, 'post', '/safety/ppe/requirements', { access: 'safety.ppe.manage', body: ppeRequirementSchema }, async (_req, res, { body, principal: who }) => void res.status(201).json(await saveRequirement(em(), who, body)));
-  route(r, 'put', '/safety/ppe/requirements/:id', { access: 'safety.ppe.manage', params: uuidParam, body: ppeRequirementSchema }, async (_req, res, { params, body, principal: who }) => void res.json(await saveRequirement(em(), who, body, params.id)));
+  route(
+    r,
+    'get',
+    '/safety/ppe/requirements',
+    { access: 'safety.read', query: mapQuery },
+    async (_req, res, { query, principal: who }) => void res.json(await listRequirements(em(), who, query.machineId)),
+  );
+  route(
+    r,
+    'post',
+    '/safety/ppe/requirements',
+    { access: 'safety.ppe.manage', body: ppeRequirementSchema },
+    async (_req, res, { body, principal: who }) => void res.status(201).json(await saveRequirement(em(), who, body)),
+  );
+  route(
+    r,
+    'put',
+    '/safety/ppe/requirements/:id',
+    { access: 'safety.ppe.manage', params: uuidParam, body: ppeRequirementSchema },
+    async (_req, res, { params, body, principal: who }) => void res.json(await saveRequirement(em(), who, body, params.id)),
+  );
   route(r, 'delete', '/safety/ppe/requirements/:id', { access: 'safety.ppe.manage', params: uuidParam }, async (_req, res, { params, principal: who }) => {
     await retireRequirement(em(), who, params.id);
     res.status(204).end();
   });
-  route(r, 'post', '/safety/ppe/checks', { access: 'safety.ppe.sign', body: ppeCheckSchema, ...signing }, signed(({ body, principal: who }) => recordPpeCheck(em(), who, body)));
+  route(
+    r,
+    'post',
+    '/safety/ppe/checks',
+    { access: 'safety.ppe.sign', body: ppeCheckSchema, ...signing },
+    signed(({ body, principal: who }) => recordPpeCheck(em(), who, body)),
+  );
 
   // Periodic inspections, training, hot work.
   route(r, 'get', '/safety/inspections', { access: 'safety.read' }, async (_req, res) => void res.json(await listInspections(em())));
-  route(r, 'post', '/safety/inspections', { access: 'safety.inspection.perform', body: inspectionSchema, ...signing }, signed(({ body, principal: who }) => recordInspection(em(), who, body)));
-  route(r, 'post', '/safety/inspections/:id/certify', { access: 'safety.inspection.certify', params: uuidParam, body: certifySchema, ...signing }, signed(({ params, principal: who }) => certifyInspection(em(), who, params.id)));
+  route(
+    r,
+    'post',
+    '/safety/inspections',
+    { access: 'safety.inspection.perform', body: inspectionSchema, ...signing },
+    signed(({ body, principal: who }) => recordInspection(em(), who, body)),
+  );
+  route(
+    r,
+    'post',
+    '/safety/inspections/:id/certify',
+    { access: 'safety.inspection.certify', params: uuidParam, body: certifySchema, ...signing },
+    signed(({ params, principal: who }) => certifyInspection(em(), who, params.id)),
+  );
   route(r, 'get', '/safety/training', { access: 'safety.read' }, async (_req, res) => void res.json(await listTraining(em())));
-  route(r, 'post', '/safety/training', { access: 'safety.training.manage', body: trainingSchema, ...signing }, signed(({ body, principal: who }) => recordTraining(em(), who, body)));
+  route(
+    r,
+    'post',
+    '/safety/training',
+    { access: 'safety.training.manage', body: trainingSchema, ...signing },
+    signed(({ body, principal: who }) => recordTraining(em(), who, body)),
+  );
   route(r, 'get', '/safety/fire-watches', { access: 'safety.read' }, async (_req, res) => void res.json(await listFireWatches(em())));
-  route(r, 'post', '/safety/fire-watches', { access: 'safety.hotwork.sign', body: startFireWatchSchema, ...signing }, signed(({ body, principal: who }) => startFireWatch(em(), who, body)));
-  route(r, 'post', '/safety/fire-watches/:id/end', { access: 'safety.hotwork.sign', params: uuidParam, body: endFireWatchSchema, ...signing }, signed(({ params, body, principal: who }) => endFireWatch(em(), who, params.id, body)));
+  route(
+    r,
+    'post',
+    '/safety/fire-watches',
+    { access: 'safety.hotwork.sign', body: startFireWatchSchema, ...signing },
+    signed(({ body, principal: who }) => startFireWatch(em(), who, body)),
+  );
+  route(
+    r,
+    'post',
+    '/safety/fire-watches/:id/end',
+    { access: 'safety.hotwork.sign', params: uuidParam, body: endFireWatchSchema, ...signing },
+    signed(({ params, body, principal: who }) => endFireWatch(em(), who, params.id, body)),
+  );
 
   // The audit.
-  route(r, 'get', '/safety/sign-offs', { access: 'safety.audit', query: listSignOffsQuery }, async (_req, res, { query, principal: who }) => void res.json(await listSignOffs(em(), who, query)));
-  route(r, 'post', '/safety/sign-offs/:id/corrections', { access: 'safety.correct', params: uuidParam, body: correctionSchema, ...signing }, signed(({ params, body, principal: who }) => correctSignOff(em(), who, params.id, body.note)));
-  route(r, 'get', '/safety/chain/verify', { access: 'safety.audit' }, async (_req, res, { principal: who }) => void res.json(await verifyShopChain(em(), who.orgId)));
-  route(r, 'get', '/safety/audit/compliance', { access: 'safety.audit', query: complianceQuery }, async (_req, res, { query, principal: who }) => void res.json(await compliance(em(), who, query.days)));
-  route(r, 'get', '/safety/audit/timeline', { access: 'safety.audit', query: timelineQuery }, async (_req, res, { query, principal: who }) => void res.json(await timeline(em(), who, query.weeks)));
+  route(
+    r,
+    'get',
+    '/safety/sign-offs',
+    { access: 'safety.audit', query: listSignOffsQuery },
+    async (_req, res, { query, principal: who }) => void res.json(await listSignOffs(em(), who, query)),
+  );
+  route(
+    r,
+    'post',
+    '/safety/sign-offs/:id/corrections',
+    { access: 'safety.correct', params: uuidParam, body: correctionSchema, ...signing },
+    signed(({ params, body, principal: who }) => correctSignOff(em(), who, params.id, body.note)),
+  );
+  route(
+    r,
+    'get',
+    '/safety/chain/verify',
+    { access: 'safety.audit' },
+    async (_req, res, { principal: who }) => void res.json(await verifyShopChain(em(), who.orgId)),
+  );
+  route(
+    r,
+    'get',
+    '/safety/audit/compliance',
+    { access: 'safety.audit', query: complianceQuery },
+    async (_req, res, { query, principal: who }) => void res.json(await compliance(em(), who, query.days)),
+  );
+  route(
+    r,
+    'get',
+    '/safety/audit/timeline',
+    { access: 'safety.audit', query: timelineQuery },
+    async (_req, res, { query, principal: who }) => void res.json(await timeline(em(), who, query.weeks)),
+  );
   route(r, 'get', '/safety/audit/export.csv', { access: 'safety.audit', query: exportSignOffsQuery }, async (_req, res, { query, principal: who }) => {
     const { csv, fileName, verification } = await exportCsv(em(), who, query);
-    res.set('Content-Type', 'text/csv; charset=utf-8').set('Content-Disposition', `attachment; filename="${fileName}"`).set('X-Chain-Verified', String(verification.ok)).send(csv);
+    res
+      .set('Content-Type', 'text/csv; charset=utf-8')
+      .set('Content-Disposition', `attachment; filename="${fileName}"`)
+      .set('X-Chain-Verified', String(verification.ok))
+      .send(csv);
   });
   route(r, 'get', '/safety/audit/export.pdf', { access: 'safety.audit', query: exportSignOffsQuery }, async (_req, res, { query, principal: who }) => {
     const { pdf, fileName } = await exportPdf(em(), who, query);

@@ -26,7 +26,11 @@ type Stored = { fireWatchRule?: SafetySettings['fireWatchRule']; safety?: Partia
 /** The shop's safety settings: stored overrides over the defaults (Organization.settings JSON). */
 export function safetySettingsOf(org: { settings: unknown }): SafetySettings {
   const s = (org.settings ?? {}) as Stored;
-  return { ...DEFAULT_SAFETY_SETTINGS, ...(s.safety ?? {}), fireWatchRule: s.fireWatchRule ?? s.safety?.fireWatchRule ?? DEFAULT_SAFETY_SETTINGS.fireWatchRule };
+  return {
+    ...DEFAULT_SAFETY_SETTINGS,
+    ...(s.safety ?? {}),
+    fireWatchRule: s.fireWatchRule ?? s.safety?.fireWatchRule ?? DEFAULT_SAFETY_SETTINGS.fireWatchRule,
+  };
 }
 
 export async function loadSafetySettings(em: EntityManager, orgId: string): Promise<{ settings: SafetySettings; timeZone: string }> {

@@ -18,7 +18,10 @@ export const SafetySignOff = defineEntity({
   uniques: [{ properties: ['organization', 'seq'] }, { properties: ['organization', 'prevHash'] }],
   indexes: [{ properties: ['organization', 'signedAt'] }, { properties: ['subjectId'] }],
   properties: {
-    id: p.uuid().primary().onCreate(() => randomUUID()),
+    id: p
+      .uuid()
+      .primary()
+      .onCreate(() => randomUUID()),
     organization: () => p.manyToOne(Organization).ref().deleteRule('no action').updateRule('no action'),
     /** Position in the shop's chain, 1, 2, 3 … */
     seq: p.integer(),
@@ -53,7 +56,10 @@ export const SafetyChainHead = defineEntity({
   tableName: 'safety_chain_head',
   filters: orgFilter,
   properties: {
-    id: p.uuid().primary().onCreate(() => randomUUID()),
+    id: p
+      .uuid()
+      .primary()
+      .onCreate(() => randomUUID()),
     organization: () => p.manyToOne(Organization).ref().unique(),
     lastSeq: p.integer().default(0),
     lastHash: p.string().length(64),

@@ -17,7 +17,17 @@ import { clock } from '../../../shared/clock';
 export const RETRAIN_DAYS = 14;
 const DAY_MS = 86_400_000;
 
-type Occurrence = { kind: SafetyTaskKind; key: string; title: string; machineId: string | null; procedureId?: string; personId?: string; trainingKind?: TrainingKind; dueAt: Date | null; status: 'due' | 'overdue' };
+type Occurrence = {
+  kind: SafetyTaskKind;
+  key: string;
+  title: string;
+  machineId: string | null;
+  procedureId?: string;
+  personId?: string;
+  trainingKind?: TrainingKind;
+  dueAt: Date | null;
+  status: 'due' | 'overdue';
+};
 
 /** Everything safety-related that is due or overdue in one shop right now. */
 export async function currentSafetyWork(em: EntityManager, orgId: string, now: Date): Promise<Occurrence[]> {
@@ -35,10 +45,24 @@ export async function currentSafetyWork(em: EntityManager, orgId: string, now: D
     const first = mine.find((v) => v.approvedAt)?.approvedAt;
     if (!first || !mine.some((v) => v.status === 'approved')) continue;
     const last = inspections.filter((i) => i.procedure.id === p.id).at(-1);
-    const ev = inspectionEvaluation({ firstApprovedAt: first, lastInspectedOn: last?.inspectedOn ?? null, months: settings.inspectionIntervalMonths, timeZone: tz, now });
+    const ev = inspectionEvaluation({
+      firstApprovedAt: first,
+      lastInspectedOn: last?.inspectedOn ?? null,
+      months: settings.inspectionIntervalMonths,
+      timeZone: tz,
+      now,
+    });
     if ((ev.status === 'due' || ev.status === 'overdue') && ev.occurrenceKey) {
       const m = p.machine.getEntity();
-      out.push({ kind: 'periodic-inspection', key: `${p.id}:${ev.occurrenceKey}`, title: `Periodic inspection of ${m.code} “${p.title}” (OSHA 29 CFR 1910.147(c)(6))`, machineId: m.id, procedureId: p.id, dueAt: ev.dueAt, status: ev.status });
+      out.push({
+        kind: 'periodic-inspection',
+        key: `${p.id}:${ev.occurrenceKey}`,
+        title: `Periodic inspection of ${m.code} “${p.title}” (OSHA 29 CFR 1910.147(c)(6))`,
+        machineId: m.id,
+        procedureId: p.id,
+        dueAt: ev.dueAt,
+        status: ev.status,
+      });
     }
   }
 
@@ -49,7 +73,14 @@ export async function currentSafetyWork(em: EntityManager, orgId: string, now: D
     const ev = ppeEvaluation({ cadence: r.cadence, settings, timeZone: tz, startedAt: r.createdAt, lastCheckAt: last?.checkedAt ?? null, now });
     if (ev && (ev.status === 'due' || ev.status === 'overdue') && ev.occurrenceKey) {
       const m = r.machine.getEntity();
-      out.push({ kind: 'ppe-check', key: `${r.id}:${ev.occurrenceKey}`, title: `PPE check at ${m.code}: ${r.task}`, machineId: m.id, dueAt: ev.dueAt, status: ev.status });
+      out.push({
+        kind: 'ppe-check',
+        key: `${r.id}:${ev.occurrenceKey}`,
+        title: `PPE check at ${m.code}: ${r.task}`,
+        machineId: m.id,
+        dueAt: ev.dueAt,
+        status: ev.status,
+      });
     }
   }
 
@@ -106,7 +137,16 @@ export async function runSafetyDue(orm: MikroORM, now: Date): Promise<Record<str
       for (const o of current) {
         let t = byKey.get(`${o.kind}|${o.key}`) ?? (await tx.findOne(SafetyTask, { kind: o.kind, occurrenceKey: o.key }));
         if (!t) {
-          t = tx.create(SafetyTask, { organization: org.id, kind: o.kind, occurrenceKey: o.key, title: o.title, machine: o.machineId, dueAt: o.dueAt, status: o.status, raisedAt: now });
+          t = tx.create(SafetyTask, {
+            organization: org.id,
+            kind: o.kind,
+            occurrenceKey: o.key,
+            title: o.title,
+            machine: o.machineId,
+            dueAt: o.dueAt,
+            status: o.status,
+            raisedAt: now,
+          });
           totals.raised++;
         } else if (t.status === 'done') {
           continue; // done and closed once; the same occurrence is not raised again
@@ -133,7 +173,10 @@ export async function runSafetyDue(orm: MikroORM, now: Date): Promise<Record<str
               paragraphs: [
                 `Hello ${o.name},`,
                 `These safety tasks at ${org.name} are overdue:`,
-                ...newlyOverdue.map((t) => `• ${TASK_KIND_LABELS[t.kind]}: ${t.title}${t.dueAt ? ` — due ${DateTime.fromJSDate(t.dueAt, { zone: org.timeZone }).toISODate()}` : ''}`),
+                ...newlyOverdue.map(
+                  (t) =>
+                    `• ${TASK_KIND_LABELS[t.kind]}: ${t.title}${t.dueAt ? ` — due ${DateTime.fromJSDate(t.dueAt, { zone: org.timeZone }).toISODate()}` : ''}`,
+                ),
                 'Each is listed once here; Kerfbook closes it when the work is signed off.',
               ],
               action: { label: 'Open the safety work list', url: `${appUrl}/safety` },

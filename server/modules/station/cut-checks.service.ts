@@ -37,7 +37,13 @@ export async function recordCutCheck(em: EntityManager, who: Principal, input: C
       by: who.userId,
       note: input.note,
     });
-    recordActivity(tx, who, 'cut-check.recorded', { type: 'CutCheck', id: check.id }, { torch: torch.code, passed: result.passed, maxDeviationMm: result.maxDeviationMm });
+    recordActivity(
+      tx,
+      who,
+      'cut-check.recorded',
+      { type: 'CutCheck', id: check.id },
+      { torch: torch.code, passed: result.passed, maxDeviationMm: result.maxDeviationMm },
+    );
     return check.id;
   });
   return (await listCutChecks(em, { ids: [id], page: 1, pageSize: 1 })).rows[0];
@@ -45,7 +51,12 @@ export async function recordCutCheck(em: EntityManager, who: Principal, input: C
 
 export async function listCutChecks(em: EntityManager, q: { torchIds?: string[]; ids?: string[]; page: number; pageSize: number }): Promise<Page<CutCheckRow>> {
   const where = { ...(q.torchIds ? { torch: { $in: q.torchIds } } : {}), ...(q.ids ? { id: { $in: q.ids } } : {}) };
-  const [checks, total] = await em.findAndCount(CutCheck, where, { orderBy: { checkedAt: 'desc', id: 'asc' }, limit: q.pageSize, offset: (q.page - 1) * q.pageSize, populate: ['torch', 'by'] });
+  const [checks, total] = await em.findAndCount(CutCheck, where, {
+    orderBy: { checkedAt: 'desc', id: 'asc' },
+    limit: q.pageSize,
+    offset: (q.page - 1) * q.pageSize,
+    populate: ['torch', 'by'],
+  });
   const installIds = [...new Set(checks.flatMap((c) => c.installIds))];
   const installs = installIds.length ? await em.find(ConsumableInstall, { id: { $in: installIds } }, { populate: ['partType'] }) : [];
   const byId = new Map(installs.map((i) => [i.id, i]));
@@ -58,7 +69,10 @@ export async function listCutChecks(em: EntityManager, q: { torchIds?: string[];
       dimensions: couponResult(c.dimensions, c.toleranceMm).dimensions,
       maxDeviationMm: c.maxDeviationMm,
       passed: c.passed,
-      installedParts: c.installIds.map((id) => byId.get(id)).filter((i): i is NonNullable<typeof i> => !!i).map((i) => ({ category: i.category, partNumber: i.partType.getEntity().partNumber })),
+      installedParts: c.installIds
+        .map((id) => byId.get(id))
+        .filter((i): i is NonNullable<typeof i> => !!i)
+        .map((i) => ({ category: i.category, partNumber: i.partType.getEntity().partNumber })),
       by: c.by?.getEntity().name ?? null,
       note: c.note ?? null,
     })),

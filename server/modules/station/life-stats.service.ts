@@ -30,7 +30,11 @@ export async function lifeStats(em: EntityManager, who: Principal, partTypeId: s
     if (!all.some((m) => m.id === machineId)) throw notFound('Machine');
     torchIds = subtreeIds(all, machineId);
   }
-  const installs = await em.find(ConsumableInstall, { partType: part.id, ...(torchIds ? { torch: { $in: torchIds } } : {}) }, { orderBy: { installedAt: 'asc' } });
+  const installs = await em.find(
+    ConsumableInstall,
+    { partType: part.id, ...(torchIds ? { torch: { $in: torchIds } } : {}) },
+    { orderBy: { installedAt: 'asc' } },
+  );
   const removed = installs.filter((i) => i.removedAt);
   const open = installs.filter((i) => !i.removedAt);
 
@@ -85,7 +89,15 @@ export async function lifeStats(em: EntityManager, who: Principal, partTypeId: s
   const byTorch = new Map<string, typeof removed>();
   for (const i of removed) byTorch.set(i.torch.id, [...(byTorch.get(i.torch.id) ?? []), i]);
   return {
-    partType: { id: part.id, partNumber: part.partNumber, name: part.name, category: part.category, lifeUnit: part.lifeUnit ?? null, unitCost: Number(part.unitCost), expectedLife: part.expectedLife ?? null },
+    partType: {
+      id: part.id,
+      partNumber: part.partNumber,
+      name: part.name,
+      category: part.category,
+      lifeUnit: part.lifeUnit ?? null,
+      unitCost: Number(part.unitCost),
+      expectedLife: part.expectedLife ?? null,
+    },
     unit,
     failures,
     suspensions,
@@ -96,7 +108,13 @@ export async function lifeStats(em: EntityManager, who: Principal, partTypeId: s
     meanLife: mean(removed.map(lifeOf).filter((x): x is number => x !== null && x > 0)),
     costPerArcHour: costOf(removed),
     perMachine: [...byTorch.entries()]
-      .map(([torchId, rows]) => ({ machineId: torchId, machineCode: codeOf.get(torchId) ?? '?', removed: rows.length, meanLife: mean(rows.map(lifeOf).filter((x): x is number => x !== null && x > 0)), costPerArcHour: costOf(rows) }))
+      .map(([torchId, rows]) => ({
+        machineId: torchId,
+        machineCode: codeOf.get(torchId) ?? '?',
+        removed: rows.length,
+        meanLife: mean(rows.map(lifeOf).filter((x): x is number => x !== null && x > 0)),
+        costPerArcHour: costOf(rows),
+      }))
       .sort((a, b) => a.machineCode.localeCompare(b.machineCode)),
   };
 }

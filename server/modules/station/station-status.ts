@@ -8,7 +8,12 @@ import { clock } from '../../../shared/clock';
  * this module depends on their tables, not on their services. Raw SQL bypasses the ORM's
  * shop filter, so every query names the organization itself.
  */
-export async function stationStatus(em: EntityManager, orgId: string, machineIds: string[], ancestorIds: string[] = []): Promise<{ lockouts: StationLockout[]; due: StationDueRow[] }> {
+export async function stationStatus(
+  em: EntityManager,
+  orgId: string,
+  machineIds: string[],
+  ancestorIds: string[] = [],
+): Promise<{ lockouts: StationLockout[]; due: StationDueRow[] }> {
   if (machineIds.length === 0) return { lockouts: [], due: [] };
   const ids = `{${machineIds.join(',')}}`;
   const lockable = `{${[...machineIds, ...ancestorIds].join(',')}}`;
@@ -20,20 +25,37 @@ export async function stationStatus(em: EntityManager, orgId: string, machineIds
       order by l.applied_at desc`,
     [orgId, lockable],
   );
-  const due: { id: string; number: number; code: string; title: string; status: string; due_at: Date | null; overdue: boolean; requires_lockout: boolean }[] = await em.execute(
-    `select w.id, w.number, m.code, w.title, w.status, w.due_at, w.overdue, w.requires_lockout
+  const due: { id: string; number: number; code: string; title: string; status: string; due_at: Date | null; overdue: boolean; requires_lockout: boolean }[] =
+    await em.execute(
+      `select w.id, w.number, m.code, w.title, w.status, w.due_at, w.overdue, w.requires_lockout
        from work_order w join machine m on m.id = w.machine_id
       where w.organization_id = ? and w.machine_id = any(?::uuid[]) and w.status in ('open', 'in-progress', 'on-hold')
       order by w.due_at asc nulls last, w.number asc
       limit 20`,
-    [orgId, ids],
-  );
+      [orgId, ids],
+    );
   const now = clock.ms();
   return {
-    lockouts: lockouts.map((l) => ({ id: l.id, machineCode: l.code, state: l.state as StationLockout['state'], appliedAt: new Date(l.applied_at).toISOString(), reason: l.reason, heldBy: l.held_by })),
+    lockouts: lockouts.map((l) => ({
+      id: l.id,
+      machineCode: l.code,
+      state: l.state as StationLockout['state'],
+      appliedAt: new Date(l.applied_at).toISOString(),
+      reason: l.reason,
+      heldBy: l.held_by,
+    })),
     due: due.map((w) => {
       const dueAt = w.due_at ? new Date(w.due_at) : null;
-      return { id: w.id, number: w.number, machineCode: w.code, title: w.title, status: w.status as StationDueRow['status'], dueAt: dueAt?.toISOString() ?? null, overdue: w.overdue || (!!dueAt && dueAt.getTime() < now), requiresLockout: w.requires_lockout };
+      return {
+        id: w.id,
+        number: w.number,
+        machineCode: w.code,
+        title: w.title,
+        status: w.status as StationDueRow['status'],
+        dueAt: dueAt?.toISOString() ?? null,
+        overdue: w.overdue || (!!dueAt && dueAt.getTime() < now),
+        requiresLockout: w.requires_lockout,
+      };
     }),
   };
 }

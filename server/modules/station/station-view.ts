@@ -22,10 +22,33 @@ import type { MeterRow } from '../../../shared/schemas/machines';
  * Rows come back as JSON built by PostgreSQL; timestamps are turned into ISO strings here.
  */
 
-type MachineJson = { id: string; code: string; name: string; kind: string; location: string | null; parentId: string | null; active: boolean; matches: boolean };
+type MachineJson = {
+  id: string;
+  code: string;
+  name: string;
+  kind: string;
+  location: string | null;
+  parentId: string | null;
+  active: boolean;
+  matches: boolean;
+};
 type LatestJson = { value: number; readAt: string; isReset: boolean } | null;
-type MeterJson = { id: string; machineId: string; code: string; name: string; kind: MeterRow['kind']; unit: string; lowerLimit: number | null; upperLimit: number | null; latest: LatestJson };
-type TorchJson = { torchId: string; lastChangeAt: string | null; check: { id: string; checkedAt: string; passed: boolean; maxDeviationMm: number; toleranceMm: number } | null };
+type MeterJson = {
+  id: string;
+  machineId: string;
+  code: string;
+  name: string;
+  kind: MeterRow['kind'];
+  unit: string;
+  lowerLimit: number | null;
+  upperLimit: number | null;
+  latest: LatestJson;
+};
+type TorchJson = {
+  torchId: string;
+  lastChangeAt: string | null;
+  check: { id: string; checkedAt: string; passed: boolean; maxDeviationMm: number; toleranceMm: number } | null;
+};
 type InstallJson = {
   id: string;
   torchId: string;
@@ -35,7 +58,17 @@ type InstallJson = {
   arcHoursAtInstall: number | null;
   partType: InstalledPart['partType'];
 };
-type ToolJson = { id: string; code: string; name: string; stationSize: string; interval: number; hitsMeterId: string; hitsAtLastSharpening: number; since: string; latestHits: number | null };
+type ToolJson = {
+  id: string;
+  code: string;
+  name: string;
+  stationSize: string;
+  interval: number;
+  hitsMeterId: string;
+  hitsAtLastSharpening: number;
+  since: string;
+  latestHits: number | null;
+};
 type ChangeJson = Omit<ChangeRow, 'parts'> & {
   installed: { category: TorchCategory; partNumber: string }[] | null;
   removed: { category: TorchCategory; lifeStarts: number | null; lifeArcHours: number | null }[] | null;
@@ -61,7 +94,13 @@ async function shopAndMachines(em: EntityManager, orgId: string, code: string) {
   return { settings: row?.settings ?? {}, machines: row?.machines ?? [], parts: row?.parts ?? [] };
 }
 
-type SubtreeData = { meters: MeterJson[] | null; torches: TorchJson[] | null; installs: InstallJson[] | null; tools: ToolJson[] | null; changes: ChangeJson[] | null };
+type SubtreeData = {
+  meters: MeterJson[] | null;
+  torches: TorchJson[] | null;
+  installs: InstallJson[] | null;
+  tools: ToolJson[] | null;
+  changes: ChangeJson[] | null;
+};
 
 async function subtreeData(em: EntityManager, orgId: string, subtree: string[], torches: string[], meterMachines: string[]): Promise<SubtreeData> {
   const [row] = await executeBound<SubtreeData>(
@@ -138,7 +177,7 @@ async function readingsSinceEach(em: EntityManager, wanted: { meterId: string; s
 /** Ids of a machine and everything below it in the component tree. */
 function subtreeOf(all: MachineJson[], rootId: string): Set<string> {
   const ids = new Set([rootId]);
-  for (let grew = true; grew; ) {
+  for (let grew = true; grew;) {
     grew = false;
     for (const m of all) {
       if (m.parentId && ids.has(m.parentId) && !ids.has(m.id)) {
@@ -174,13 +213,33 @@ export async function stationView(em: EntityManager, who: Principal, code: strin
   const torches = subtree.filter((m) => m.kind === 'torch');
   // A torch's counters are on the torch itself, else on the machine it belongs to.
   const meterMachines = [...new Set([...subtree.map((m) => m.id), ...torches.flatMap((t) => (t.parentId ? [t.parentId] : []))])];
-  const data = await subtreeData(em, who.orgId, subtree.map((m) => m.id), torches.map((t) => t.id), meterMachines);
+  const data = await subtreeData(
+    em,
+    who.orgId,
+    subtree.map((m) => m.id),
+    torches.map((t) => t.id),
+    meterMachines,
+  );
 
   const codeOf = new Map(all.map((m) => [m.id, m.code]));
   const meters = data.meters ?? [];
   const asRow = (m: MeterJson | null): MeterRow | null =>
-    m ? { id: m.id, machineId: m.machineId, machineCode: codeOf.get(m.machineId) ?? '', code: m.code, name: m.name, kind: m.kind, unit: m.unit, lowerLimit: m.lowerLimit, upperLimit: m.upperLimit, latest: m.latest ? { ...m.latest, readAt: iso(m.latest.readAt)! } : null } : null;
-  const pick = (machineId: string | null, test: (m: MeterJson) => boolean) => (machineId ? meters.find((m) => m.machineId === machineId && test(m)) ?? null : null);
+    m
+      ? {
+          id: m.id,
+          machineId: m.machineId,
+          machineCode: codeOf.get(m.machineId) ?? '',
+          code: m.code,
+          name: m.name,
+          kind: m.kind,
+          unit: m.unit,
+          lowerLimit: m.lowerLimit,
+          upperLimit: m.upperLimit,
+          latest: m.latest ? { ...m.latest, readAt: iso(m.latest.readAt)! } : null,
+        }
+      : null;
+  const pick = (machineId: string | null, test: (m: MeterJson) => boolean) =>
+    machineId ? (meters.find((m) => m.machineId === machineId && test(m)) ?? null) : null;
   const installs = data.installs ?? [];
   const tools = data.tools ?? [];
 
@@ -188,13 +247,24 @@ export async function stationView(em: EntityManager, who: Principal, code: strin
   const torchCounters = torches.map((t) => {
     const open = installs.filter((i) => i.torchId === t.id);
     const oldest = open.length ? new Date(Math.min(...open.map((i) => new Date(i.installedAt).getTime()))) : null;
-    return { torch: t, open, oldest, starts: pick(t.id, isStarts) ?? pick(t.parentId, isStarts), arcHours: pick(t.id, isArcHours) ?? pick(t.parentId, isArcHours) };
+    return {
+      torch: t,
+      open,
+      oldest,
+      starts: pick(t.id, isStarts) ?? pick(t.parentId, isStarts),
+      arcHours: pick(t.id, isArcHours) ?? pick(t.parentId, isArcHours),
+    };
   });
   const wanted: { meterId: string; since: Date }[] = [];
   const slot = (meter: MeterJson | null, since: Date | null) => (meter && since ? wanted.push({ meterId: meter.id, since }) - 1 : -1);
   const torchSlots = torchCounters.map((c) => ({ starts: slot(c.starts, c.oldest), arcHours: slot(c.arcHours, c.oldest) }));
   const hitsMeters = [...new Set(tools.map((t) => t.hitsMeterId))];
-  const hitsSlots = new Map(hitsMeters.map((id) => [id, slot({ id } as MeterJson, new Date(Math.min(...tools.filter((t) => t.hitsMeterId === id).map((t) => new Date(t.since).getTime()))))]));
+  const hitsSlots = new Map(
+    hitsMeters.map((id) => [
+      id,
+      slot({ id } as MeterJson, new Date(Math.min(...tools.filter((t) => t.hitsMeterId === id).map((t) => new Date(t.since).getTime())))),
+    ]),
+  );
   const readings = await readingsSinceEach(em, wanted);
   const listAt = (i: number) => (i >= 0 ? readings[i] : []);
 
@@ -205,7 +275,13 @@ export async function stationView(em: EntityManager, who: Principal, code: strin
     const check = state?.check ?? null;
     const checkedAt = check ? new Date(check.checkedAt) : null;
     const afterLastChange = !!checkedAt && (!lastChangeAt || checkedAt >= lastChangeAt);
-    const since = (list: Reading[], has: boolean, start: number | null, from: Date) => (!has || start === null ? null : advanceSince(start, list.filter((r) => r.at > from)));
+    const since = (list: Reading[], has: boolean, start: number | null, from: Date) =>
+      !has || start === null
+        ? null
+        : advanceSince(
+            start,
+            list.filter((r) => r.at > from),
+          );
     const installed: InstalledPart[] = c.open
       .map((i) => {
         const from = new Date(i.installedAt);
@@ -214,7 +290,18 @@ export async function stationView(em: EntityManager, who: Principal, code: strin
         const p = i.partType;
         const used = p.lifeUnit === 'starts' ? startsSince : p.lifeUnit === 'arc-hours' ? arcHoursSince : null;
         const expected = p.expectedLife ?? null;
-        return { installId: i.id, category: i.category, partType: p, installedAt: from.toISOString(), startsSince, arcHoursSince, used, expected, expectedSource: expected !== null ? ('catalogue' as const) : null, fraction: lifeFraction(used, expected) };
+        return {
+          installId: i.id,
+          category: i.category,
+          partType: p,
+          installedAt: from.toISOString(),
+          startsSince,
+          arcHoursSince,
+          used,
+          expected,
+          expectedSource: expected !== null ? ('catalogue' as const) : null,
+          fraction: lifeFraction(used, expected),
+        };
       })
       .sort((a, b) => TORCH_CATEGORIES.indexOf(a.category) - TORCH_CATEGORIES.indexOf(b.category));
     return {
@@ -225,7 +312,17 @@ export async function stationView(em: EntityManager, who: Principal, code: strin
       arcHoursMeter: asRow(c.arcHours),
       installed,
       lastChangeAt: lastChangeAt?.toISOString() ?? null,
-      latestCutCheck: check && checkedAt ? { id: check.id, checkedAt: checkedAt.toISOString(), passed: check.passed, maxDeviationMm: check.maxDeviationMm, toleranceMm: check.toleranceMm, afterLastChange } : null,
+      latestCutCheck:
+        check && checkedAt
+          ? {
+              id: check.id,
+              checkedAt: checkedAt.toISOString(),
+              passed: check.passed,
+              maxDeviationMm: check.maxDeviationMm,
+              toleranceMm: check.toleranceMm,
+              afterLastChange,
+            }
+          : null,
       suggestChange: !!check && afterLastChange && !check.passed,
     };
   });
@@ -233,9 +330,19 @@ export async function stationView(em: EntityManager, who: Principal, code: strin
   const toolRows: ToolSummary[] = tools.map((t) => {
     const since = new Date(t.since).getTime();
     const after = listAt(hitsSlots.get(t.hitsMeterId)!).filter((r) => r.at.getTime() > since);
-    const hitsSince = after.length === 0 ? (t.latestHits === null ? null : Math.max(0, t.latestHits - t.hitsAtLastSharpening)) : advanceSince(t.hitsAtLastSharpening, after);
+    const hitsSince =
+      after.length === 0 ? (t.latestHits === null ? null : Math.max(0, t.latestHits - t.hitsAtLastSharpening)) : advanceSince(t.hitsAtLastSharpening, after);
     const fraction = hitsSince === null ? null : hitsSince / t.interval;
-    return { id: t.id, code: t.code, name: t.name, stationSize: t.stationSize, hitsSince, interval: t.interval, fraction, due: fraction !== null && fraction >= 1 };
+    return {
+      id: t.id,
+      code: t.code,
+      name: t.name,
+      stationSize: t.stationSize,
+      hitsSince,
+      interval: t.interval,
+      fraction,
+      due: fraction !== null && fraction >= 1,
+    };
   });
 
   const inSubtree = new Set(subtree.map((m) => m.id));
@@ -272,7 +379,12 @@ export async function stationView(em: EntityManager, who: Principal, code: strin
     tools: toolRows,
     partOptions: shop.parts,
     recentChanges,
-    ...(await stationStatus(em, who.orgId, subtree.map((m) => m.id), ancestorsOf(all, machine))),
+    ...(await stationStatus(
+      em,
+      who.orgId,
+      subtree.map((m) => m.id),
+      ancestorsOf(all, machine),
+    )),
     reference: { pitLimitMm: ref.electrodePitLimitMm, cutToleranceMm: ref.cutToleranceMm, changeReliability: ref.changeTargetReliability },
   };
 }

@@ -41,9 +41,15 @@ export function registerStationRoutes(r: ApiRouter) {
   route(r, 'get', '/stations/:code', { access: 'machines.read', params: machineCodeParam }, async (_req, res, { params, principal: who }) => {
     res.json(await stationView(requestEm(), who, params.code));
   });
-  route(r, 'post', '/consumable-changes', { access: 'consumables.log', before: [receiveChange], body: consumableChangeSchema }, async (req, res, { body, principal: who }) => {
-    res.status(201).json(await logChange(requestEm(), who, body, req.file?.buffer));
-  });
+  route(
+    r,
+    'post',
+    '/consumable-changes',
+    { access: 'consumables.log', before: [receiveChange], body: consumableChangeSchema },
+    async (req, res, { body, principal: who }) => {
+      res.status(201).json(await logChange(requestEm(), who, body, req.file?.buffer));
+    },
+  );
   route(r, 'get', '/consumable-changes', { access: 'machines.read', query: changesQuery }, async (_req, res, { query: q }) => {
     const em = requestEm();
     const torchIds = q.machineId ? (await subtreeMachines(em, q.machineId)).filter((m) => m.kind === 'torch').map((m) => m.id) : undefined;

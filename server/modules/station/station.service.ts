@@ -32,7 +32,8 @@ export type TorchMeters = { starts: IMeter | null; arcHours: IMeter | null };
 export async function torchMeters(em: EntityManager, torches: IMachine[]): Promise<Map<string, TorchMeters>> {
   const ids = [...new Set(torches.flatMap((t) => [t.id, t.parent?.id].filter((x): x is string => !!x)))];
   const meters = ids.length ? await em.find(Meter, { machine: { $in: ids } }, { orderBy: { code: 'asc' } }) : [];
-  const pick = (machineId: string | undefined, test: (m: IMeter) => boolean) => (machineId ? meters.find((m) => m.machine.id === machineId && test(m)) ?? null : null);
+  const pick = (machineId: string | undefined, test: (m: IMeter) => boolean) =>
+    machineId ? (meters.find((m) => m.machine.id === machineId && test(m)) ?? null) : null;
   const isStarts = (m: IMeter) => m.kind === 'count' && m.unit === 'starts';
   // Arc time only: a cell's run-hours meter also counts in h but says nothing about the torch.
   const isArcHours = (m: IMeter) => m.kind === 'running-time' && m.code.includes('arc');
@@ -51,7 +52,13 @@ function settingsOf(org: { settings: OrgSettings }) {
 }
 
 /** Advance of a meter from an installation to now (or to `until`), or null without a counter. */
-async function advanceFrom(em: EntityManager, meterId: string | undefined, startValue: number | null | undefined, from: Date, until?: Date): Promise<number | null> {
+async function advanceFrom(
+  em: EntityManager,
+  meterId: string | undefined,
+  startValue: number | null | undefined,
+  from: Date,
+  until?: Date,
+): Promise<number | null> {
   if (!meterId || startValue === null || startValue === undefined) return null;
   const readings = (await readingsSince(em, meterId, from)).filter((r) => r.at > from && (!until || r.at <= until));
   return advanceSince(startValue, readings);
@@ -62,7 +69,15 @@ async function advanceFrom(em: EntityManager, meterId: string | undefined, start
  * else the reading at or before the change. A typed value that breaks the meter's order is
  * refused on the form field it came from.
  */
-async function counterAt(em: EntityManager, who: Principal, meter: IMeter | null, typed: number | null, at: Date, field: string, isReset = false): Promise<number | null> {
+async function counterAt(
+  em: EntityManager,
+  who: Principal,
+  meter: IMeter | null,
+  typed: number | null,
+  at: Date,
+  field: string,
+  isReset = false,
+): Promise<number | null> {
   if (!meter) {
     if (typed !== null) throw fieldError(field, 'This torch has no such meter; leave the field empty');
     return null;
@@ -71,7 +86,13 @@ async function counterAt(em: EntityManager, who: Principal, meter: IMeter | null
   if (typed === null) return prev?.value ?? null;
   if (prev && prev.value === typed && !isReset) return typed;
   try {
-    await recordReading(em, who, meter.id, { value: typed, readAt: at.toISOString(), isReset, note: isReset ? 'At a consumable change; counter reset or replaced' : 'At a consumable change' }, 'consumable-change');
+    await recordReading(
+      em,
+      who,
+      meter.id,
+      { value: typed, readAt: at.toISOString(), isReset, note: isReset ? 'At a consumable change; counter reset or replaced' : 'At a consumable change' },
+      'consumable-change',
+    );
   } catch (err) {
     if (err instanceof AppError && err.fields?.[0]?.path === 'value') throw fieldError(field, err.message);
     throw err;
@@ -93,7 +114,12 @@ export async function checkPhoto(buffer: Buffer): Promise<string> {
  * installation with its life (the counter advance since it went in), opens the new ones
  * and takes the parts out of stock. Anything refused leaves nothing written.
  */
-export async function logChange(em: EntityManager, who: Principal, input: ConsumableChangeInput, photo?: Buffer): Promise<{ id: string; closed: number; opened: number }> {
+export async function logChange(
+  em: EntityManager,
+  who: Principal,
+  input: ConsumableChangeInput,
+  photo?: Buffer,
+): Promise<{ id: string; closed: number; opened: number }> {
   const mime = photo ? await checkPhoto(photo) : null;
   return em.transactional(async (tx) => {
     const torch = await tx.findOne(Machine, { id: input.torchId }, { lockMode: LockMode.PESSIMISTIC_WRITE });
@@ -108,17 +134,29 @@ export async function logChange(em: EntityManager, who: Principal, input: Consum
     await tx.flush(); // new readings count in the lives computed below
 
     const open = await tx.find(ConsumableInstall, { torch: torch.id, removedAt: null, category: { $in: input.categories } });
-    const change = tx.create(ConsumableChange, { organization: who.orgId, torch, changedAt, reason: input.reason, startsReading: starts, arcHoursReading: arcHours, pitDepthMm: input.pitDepthMm, note: input.note, by: who.userId });
+    const change = tx.create(ConsumableChange, {
+      organization: who.orgId,
+      torch,
+      changedAt,
+      reason: input.reason,
+      startsReading: starts,
+      arcHoursReading: arcHours,
+      pitDepthMm: input.pitDepthMm,
+      note: input.note,
+      by: who.userId,
+    });
     const taken: string[] = [];
     for (const category of input.categories as TorchCategory[]) {
       const label = PART_CATEGORY_LABELS[category];
       const old = open.find((i) => i.category === category);
-      if (old && old.installedAt > changedAt) throw fieldError('changedAt', `The ${label.toLowerCase()} in the torch went in after this time (${shopTime(old.installedAt, who.timeZone)})`);
+      if (old && old.installedAt > changedAt)
+        throw fieldError('changedAt', `The ${label.toLowerCase()} in the torch went in after this time (${shopTime(old.installedAt, who.timeZone)})`);
       const partTypeId = input.partTypeIds[category] ?? old?.partType.id;
       if (!partTypeId) throw fieldError(`partTypeIds.${category}`, `Choose which ${label.toLowerCase()} goes in`);
       const part = await tx.findOne(PartType, { id: partTypeId });
       if (!part) throw fieldError(`partTypeIds.${category}`, `The ${label.toLowerCase()} part was not found`);
-      if (part.category !== category) throw fieldError(`partTypeIds.${category}`, `${part.partNumber} is ${article(PART_CATEGORY_LABELS[part.category])}, not ${article(label)}`);
+      if (part.category !== category)
+        throw fieldError(`partTypeIds.${category}`, `${part.partNumber} is ${article(PART_CATEGORY_LABELS[part.category])}, not ${article(label)}`);
       if (old) {
         old.removedAt = changedAt;
         old.removalChange = ref(change);
@@ -126,25 +164,57 @@ export async function logChange(em: EntityManager, who: Principal, input: Consum
         old.lifeStarts = await advanceFrom(tx, meters.starts?.id, old.startsAtInstall, old.installedAt, changedAt);
         old.lifeArcHours = await advanceFrom(tx, meters.arcHours?.id, old.arcHoursAtInstall, old.installedAt, changedAt);
       }
-      tx.create(ConsumableInstall, { organization: who.orgId, torch, partType: part, category, installedAt: changedAt, installChange: change, startsAtInstall: starts, arcHoursAtInstall: arcHours });
+      tx.create(ConsumableInstall, {
+        organization: who.orgId,
+        torch,
+        partType: part,
+        category,
+        installedAt: changedAt,
+        installChange: change,
+        startsAtInstall: starts,
+        arcHoursAtInstall: arcHours,
+      });
       taken.push(part.id);
     }
     if (input.takeFromStock) {
-      await applyStockChanges(tx, who, taken.map((id) => ({ partTypeId: id, quantity: -1, kind: 'used' as const, reason: `Consumable change on ${torch.code}`, ref: { type: 'ConsumableChange', id: change.id } })));
+      await applyStockChanges(
+        tx,
+        who,
+        taken.map((id) => ({
+          partTypeId: id,
+          quantity: -1,
+          kind: 'used' as const,
+          reason: `Consumable change on ${torch.code}`,
+          ref: { type: 'ConsumableChange', id: change.id },
+        })),
+      );
     }
     if (photo && mime) tx.create(ConsumablePhoto, { organization: who.orgId, change, mimeType: mime, byteSize: photo.length, data: photo });
-    recordActivity(tx, who, 'consumable.changed', { type: 'ConsumableChange', id: change.id }, { torch: torch.code, categories: input.categories, reason: input.reason, starts, arcHours, fromStock: input.takeFromStock });
+    recordActivity(
+      tx,
+      who,
+      'consumable.changed',
+      { type: 'ConsumableChange', id: change.id },
+      { torch: torch.code, categories: input.categories, reason: input.reason, starts, arcHours, fromStock: input.takeFromStock },
+    );
     return { id: change.id, closed: open.length, opened: taken.length };
   });
 }
 
 export async function listChanges(em: EntityManager, q: { torchIds?: string[]; page: number; pageSize: number }): Promise<Page<ChangeRow>> {
   const where = q.torchIds ? { torch: { $in: q.torchIds } } : {};
-  const [changes, total] = await em.findAndCount(ConsumableChange, where, { orderBy: { changedAt: 'desc', id: 'asc' }, limit: q.pageSize, offset: (q.page - 1) * q.pageSize, populate: ['torch', 'by'] });
+  const [changes, total] = await em.findAndCount(ConsumableChange, where, {
+    orderBy: { changedAt: 'desc', id: 'asc' },
+    limit: q.pageSize,
+    offset: (q.page - 1) * q.pageSize,
+    populate: ['torch', 'by'],
+  });
   const ids = changes.map((c) => c.id);
   const installs = ids.length ? await em.find(ConsumableInstall, { installChange: { $in: ids } }, { populate: ['partType'] }) : [];
   const removed = ids.length ? await em.find(ConsumableInstall, { removalChange: { $in: ids } }) : [];
-  const photos: { change_id: string }[] = ids.length ? await em.execute('select change_id from consumable_photo where change_id = any(?::uuid[])', [`{${ids.join(',')}}`]) : [];
+  const photos: { change_id: string }[] = ids.length
+    ? await em.execute('select change_id from consumable_photo where change_id = any(?::uuid[])', [`{${ids.join(',')}}`])
+    : [];
   const withPhoto = new Set(photos.map((p) => p.change_id));
   return {
     rows: changes.map((c) => ({
@@ -157,7 +227,12 @@ export async function listChanges(em: EntityManager, q: { torchIds?: string[]; p
         .sort((a, b) => TORCH_CATEGORIES.indexOf(a.category) - TORCH_CATEGORIES.indexOf(b.category))
         .map((i) => {
           const out = removed.find((r) => r.removalChange?.id === c.id && r.category === i.category);
-          return { category: i.category, partNumber: i.partType.getEntity().partNumber, lifeStarts: out?.lifeStarts ?? null, lifeArcHours: out?.lifeArcHours ?? null };
+          return {
+            category: i.category,
+            partNumber: i.partType.getEntity().partNumber,
+            lifeStarts: out?.lifeStarts ?? null,
+            lifeArcHours: out?.lifeArcHours ?? null,
+          };
         }),
       startsReading: c.startsReading ?? null,
       arcHoursReading: c.arcHoursReading ?? null,

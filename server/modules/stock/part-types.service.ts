@@ -71,7 +71,12 @@ function toRow(p: IPartType, usage: number[], currency: string | null = null): P
 export async function listPartTypes(em: EntityManager, who: Principal, q: { lowOnly?: boolean; includeInactive?: boolean } = {}): Promise<PartTypeRow[]> {
   const parts = await em.find(PartType, q.includeInactive ? {} : { active: true }, { orderBy: { category: 'asc', partNumber: 'asc' } });
   const org = await em.findOneOrFail(Organization, who.orgId);
-  const usage = await dailyUsage(em, who.orgId, org.timeZone, parts.map((p) => p.id));
+  const usage = await dailyUsage(
+    em,
+    who.orgId,
+    org.timeZone,
+    parts.map((p) => p.id),
+  );
   const rows = parts.map((p) => toRow(p, usage.get(p.id)!, currencyOf(org.settings)));
   return q.lowOnly ? rows.filter((r) => r.low) : rows;
 }
@@ -86,7 +91,10 @@ export async function getPartType(em: EntityManager, who: Principal, id: string)
 
 async function assertPartNumberFree(em: EntityManager, partNumber: string, selfId: string | null) {
   const other = await em.findOne(PartType, { partNumber, ...(selfId ? { id: { $ne: selfId } } : {}) });
-  if (other) throw conflict(`Part number ${partNumber} is already in the catalogue (${other.name})`, [{ path: 'partNumber', message: `${partNumber} is already in the catalogue` }]);
+  if (other)
+    throw conflict(`Part number ${partNumber} is already in the catalogue (${other.name})`, [
+      { path: 'partNumber', message: `${partNumber} is already in the catalogue` },
+    ]);
 }
 
 export async function createPartType(em: EntityManager, who: Principal, input: PartTypeInput): Promise<{ id: string }> {
@@ -113,7 +121,9 @@ export async function updatePartType(em: EntityManager, who: Principal, id: stri
 
 export async function recordStockMove(em: EntityManager, who: Principal, input: RecordStockMoveInput): Promise<{ id: string; onHand: number }> {
   return em.transactional(async (tx) => {
-    const [move] = await applyStockChanges(tx, who, [{ partTypeId: input.partTypeId, quantity: input.quantity, kind: input.kind, reason: input.reason ?? null }]);
+    const [move] = await applyStockChanges(tx, who, [
+      { partTypeId: input.partTypeId, quantity: input.quantity, kind: input.kind, reason: input.reason ?? null },
+    ]);
     recordActivity(tx, who, `stock.${input.kind}`, { type: 'PartType', id: input.partTypeId }, { quantity: input.quantity, reason: input.reason ?? null });
     return { id: move.id, onHand: move.onHandAfter };
   });
@@ -121,9 +131,22 @@ export async function recordStockMove(em: EntityManager, who: Principal, input: 
 
 export async function listMoves(em: EntityManager, partTypeId: string, q: { page: number; pageSize: number }): Promise<Page<StockMoveRow>> {
   if (!(await em.findOne(PartType, { id: partTypeId }))) throw notFound('Part');
-  const [rows, total] = await em.findAndCount(StockMove, { partType: partTypeId }, { orderBy: { createdAt: 'desc', id: 'asc' }, limit: q.pageSize, offset: (q.page - 1) * q.pageSize, populate: ['by'] });
+  const [rows, total] = await em.findAndCount(
+    StockMove,
+    { partType: partTypeId },
+    { orderBy: { createdAt: 'desc', id: 'asc' }, limit: q.pageSize, offset: (q.page - 1) * q.pageSize, populate: ['by'] },
+  );
   return {
-    rows: rows.map((m) => ({ id: m.id, at: m.createdAt.toISOString(), kind: m.kind, quantity: m.quantity, onHandAfter: m.onHandAfter, reason: m.reason ?? null, by: m.by?.getEntity().name ?? null, refType: m.refType ?? null })),
+    rows: rows.map((m) => ({
+      id: m.id,
+      at: m.createdAt.toISOString(),
+      kind: m.kind,
+      quantity: m.quantity,
+      onHandAfter: m.onHandAfter,
+      reason: m.reason ?? null,
+      by: m.by?.getEntity().name ?? null,
+      refType: m.refType ?? null,
+    })),
     total,
     page: q.page,
     pageSize: q.pageSize,

@@ -15,10 +15,16 @@ export function registerStockRoutes(r: ApiRouter) {
   route(r, 'get', '/part-types/:id', { access: 'stock.read', params: uuidParam }, async (_req, res, { params, principal: who }) => {
     res.json(await getPartType(requestEm(), who, params.id));
   });
-  route(r, 'patch', '/part-types/:id', { access: 'stock.manage', params: uuidParam, body: partTypeUpdateSchema }, async (_req, res, { params, body, principal: who }) => {
-    await updatePartType(requestEm(), who, params.id, body);
-    res.json({ ok: true });
-  });
+  route(
+    r,
+    'patch',
+    '/part-types/:id',
+    { access: 'stock.manage', params: uuidParam, body: partTypeUpdateSchema },
+    async (_req, res, { params, body, principal: who }) => {
+      await updatePartType(requestEm(), who, params.id, body);
+      res.json({ ok: true });
+    },
+  );
   route(r, 'get', '/part-types/:id/moves', { access: 'stock.read', params: uuidParam, query: paging }, async (_req, res, { params, query }) => {
     res.json(await listMoves(requestEm(), params.id, query));
   });

@@ -13,10 +13,16 @@ export function registerUserRoutes(r: ApiRouter, config: Config) {
   route(r, 'post', '/users', { access: 'users.manage', body: inviteUserSchema }, async (_req, res, { body, principal: who }) => {
     res.status(201).json(await inviteMember(requestEm() as EntityManager, who, body, config.APP_URL));
   });
-  route(r, 'patch', '/users/:id', { access: 'users.manage', params: uuidParam, body: updateMemberSchema }, async (_req, res, { params, body, principal: who }) => {
-    await updateMember(requestEm() as EntityManager, who, params.id, body);
-    res.json({ ok: true });
-  });
+  route(
+    r,
+    'patch',
+    '/users/:id',
+    { access: 'users.manage', params: uuidParam, body: updateMemberSchema },
+    async (_req, res, { params, body, principal: who }) => {
+      await updateMember(requestEm() as EntityManager, who, params.id, body);
+      res.json({ ok: true });
+    },
+  );
   route(r, 'post', '/users/:id/resend-invitation', { access: 'users.manage', params: uuidParam }, async (_req, res, { params, principal: who }) => {
     await resendInvitation(requestEm() as EntityManager, who, params.id, config.APP_URL);
     res.json({ ok: true });

@@ -13,7 +13,16 @@ import { clock } from '../../../shared/clock';
 import type { Page } from '../../../shared/schemas/paging';
 
 // Memberships are the shop-scoped rows here; users are global (one person, one e-mail).
-type MemberSql = { membership_id: string; user_id: string; name: string; email: string; role: MemberRow['role']; status: MemberRow['status']; last_sign_in_at: Date | null; total: string };
+type MemberSql = {
+  membership_id: string;
+  user_id: string;
+  name: string;
+  email: string;
+  role: MemberRow['role'];
+  status: MemberRow['status'];
+  last_sign_in_at: Date | null;
+  total: string;
+};
 
 const statusSql = `case when not m.active then 'deactivated' when u.password_hash is null then 'invited' else 'active' end`;
 const sortSql: Record<ListUsersQuery['sort'], string> = {
@@ -63,7 +72,14 @@ export async function listMembers(em: EntityManager, who: Principal, q: ListUser
   };
 }
 
-function queueInvitation(em: EntityManager, who: Principal, to: { email: string; name: string; role: MemberRow['role'] }, shopName: string, token: string, appUrl: string) {
+function queueInvitation(
+  em: EntityManager,
+  who: Principal,
+  to: { email: string; name: string; role: MemberRow['role'] },
+  shopName: string,
+  token: string,
+  appUrl: string,
+) {
   queueMail(em, {
     to: to.email,
     kind: 'invitation',
@@ -84,7 +100,9 @@ export async function inviteMember(em: EntityManager, who: Principal, input: Inv
       const existing = await tx.findOne(Membership, { user, organization: who.orgId }, { filters: false });
       if (existing) throw conflict('This person is already a member of your shop', [{ path: 'email', message: 'Already a member' }]);
       // Whether the address is known elsewhere is no business of this shop: say only that it cannot be used.
-      throw conflict('This address cannot be invited. Ask the person for another e-mail address.', [{ path: 'email', message: 'This address cannot be invited' }]);
+      throw conflict('This address cannot be invited. Ask the person for another e-mail address.', [
+        { path: 'email', message: 'This address cannot be invited' },
+      ]);
     }
     user = tx.create(User, { email: input.email, name: input.name });
     const membership = tx.create(Membership, { user, organization: who.orgId, role: input.role });

@@ -144,13 +144,22 @@ export async function raiseWorkOrders(
     const details = 'plan' in w ? { number: r.number, planId, occurrenceKey } : { number: r.number, kind: w.standalone.kind, ...w.standalone.auditDetails };
     audit.push({ action: 'work-order.raised', entityType: 'WorkOrder', entityId: r.id, details });
   });
-  if (actor) for (const a of audit) recordActivity(tx, { orgId, userId: actor.userId }, a.action, { type: a.entityType, id: a.entityId }, a.details ?? undefined);
+  if (actor)
+    for (const a of audit) recordActivity(tx, { orgId, userId: actor.userId }, a.action, { type: a.entityType, id: a.entityId }, a.details ?? undefined);
   else await insertActivityRows(tx, orgId, audit);
   if (notice.mode === 'now') {
-    const rows = await loadWorkRows(tx, raised.map((r) => r.id));
+    const rows = await loadWorkRows(
+      tx,
+      raised.map((r) => r.id),
+    );
     const shop = await loadShop(tx, orgId, notice.appUrl);
     const people = (await loadPeople(tx, orgId)).filter((p) => p.userId !== notice.skipUserId);
-    queueRaisedNotices(tx, shop, rows.map((r) => ({ ...workLine(r, false), reason: notice.reason })), people);
+    queueRaisedNotices(
+      tx,
+      shop,
+      rows.map((r) => ({ ...workLine(r, false), reason: notice.reason })),
+      people,
+    );
   }
   return raised;
 }

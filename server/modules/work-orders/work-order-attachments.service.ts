@@ -6,7 +6,12 @@ import { notFound } from '../../http/errors';
 import { recordActivity } from '../activity-log/activity-log.service';
 import { findWorkOrder } from './work-orders.queries';
 
-export async function addAttachment(em: EntityManager, who: Principal, id: string, file: { name: string; mime: string; data: Buffer }): Promise<{ id: string }> {
+export async function addAttachment(
+  em: EntityManager,
+  who: Principal,
+  id: string,
+  file: { name: string; mime: string; data: Buffer },
+): Promise<{ id: string }> {
   return em.transactional(async (tx) => {
     const wo = await findWorkOrder(tx, id);
     const a = tx.create(WorkOrderAttachment, {

@@ -129,7 +129,9 @@ export function queueRaisedNotices(em: EntityManager, ctx: Ctx, lines: WorkLine[
           ...listText(mine, ctx.timeZone),
           'You can change how often Kerfbook mails you under My notices.',
         ],
-        action: one ? { label: `Open WO ${one.number}`, url: workLink(ctx.appUrl, one.id) } : { label: 'Open my work', url: `${ctx.appUrl}/work-orders?assignee=me` },
+        action: one
+          ? { label: `Open WO ${one.number}`, url: workLink(ctx.appUrl, one.id) }
+          : { label: 'Open my work', url: `${ctx.appUrl}/work-orders?assignee=me` },
         caution: true,
       }),
     });
@@ -153,7 +155,12 @@ export function queueEscalations(em: EntityManager, ctx: Ctx, lines: WorkLine[],
       subject: `${safety ? 'Safety work past due' : 'Work past due'}: ${mine.length === 1 ? `WO ${mine[0].number} ${mine[0].title}` : `${mine.length} work orders`}`,
       ...renderMail({
         heading: safety ? 'Safety work is past due' : 'Work is past due',
-        paragraphs: [`Hello ${person.name},`, 'This work is past its due point and not signed off yet:', ...listText(mine, ctx.timeZone), 'Please see that it is done or re-planned.'],
+        paragraphs: [
+          `Hello ${person.name},`,
+          'This work is past its due point and not signed off yet:',
+          ...listText(mine, ctx.timeZone),
+          'Please see that it is done or re-planned.',
+        ],
         action: { label: 'Open past-due work', url: `${ctx.appUrl}/work-orders?due=overdue` },
         caution: true,
       }),
@@ -175,7 +182,10 @@ export function queueEscalations(em: EntityManager, ctx: Ctx, lines: WorkLine[],
           ...listText(mine, ctx.timeZone),
           safety ? 'Notices about past-due safety work are always sent, whatever your notice setting.' : 'Your admin has been told as well.',
         ],
-        action: mine.length === 1 ? { label: `Open WO ${mine[0].number}`, url: workLink(ctx.appUrl, mine[0].id) } : { label: 'Open my work', url: `${ctx.appUrl}/work-orders?assignee=me` },
+        action:
+          mine.length === 1
+            ? { label: `Open WO ${mine[0].number}`, url: workLink(ctx.appUrl, mine[0].id) }
+            : { label: 'Open my work', url: `${ctx.appUrl}/work-orders?assignee=me` },
         caution: true,
       }),
     });

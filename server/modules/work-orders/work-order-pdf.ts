@@ -10,7 +10,12 @@ const REGULAR = require.resolve('@fontsource/roboto-condensed/files/roboto-conde
 const BOLD = require.resolve('@fontsource/roboto-condensed/files/roboto-condensed-latin-700-normal.woff');
 
 /** The latin subset has no math signs; keep text inside it. */
-const t = (s: string) => s.replace(/≥/g, '>=').replace(/≤/g, '<=').replace(/…/g, '...').replace(/[^\n\t\u0020-\u024F\u2010-\u2027\u2030-\u203A\u20AC°µ]/g, '?');
+const t = (s: string) =>
+  s
+    .replace(/≥/g, '>=')
+    .replace(/≤/g, '<=')
+    .replace(/…/g, '...')
+    .replace(/[^\n\t\u0020-\u024F\u2010-\u2027\u2030-\u203A\u20AC°µ]/g, '?');
 
 /** A printable work order sheet for the clipboard at the machine, caution first. */
 export function workOrderPdf(wo: WorkOrderDetail, shop: { name: string; timeZone: string }): Promise<Buffer> {
@@ -20,8 +25,15 @@ export function workOrderPdf(wo: WorkOrderDetail, shop: { name: string; timeZone
   const when = (iso: string | null) => (iso ? DateTime.fromISO(iso, { zone: shop.timeZone }).toFormat('d LLL yyyy HH:mm') : '—');
   const width = doc.page.width - 80;
 
-  doc.font('bold').fontSize(18).text(t(`WO ${wo.number} · ${wo.title}`));
-  doc.font('regular').fontSize(10).fillColor('#485561').text(t(`${shop.name} · ${wo.machine.code} ${wo.machine.name} · ${WORK_STATE_LABELS[wo.status]} · due ${when(wo.dueAt)}`));
+  doc
+    .font('bold')
+    .fontSize(18)
+    .text(t(`WO ${wo.number} · ${wo.title}`));
+  doc
+    .font('regular')
+    .fontSize(10)
+    .fillColor('#485561')
+    .text(t(`${shop.name} · ${wo.machine.code} ${wo.machine.name} · ${WORK_STATE_LABELS[wo.status]} · due ${when(wo.dueAt)}`));
   doc.moveDown(0.6);
 
   // Caution box (ISO 3864-1 caution yellow edge).
@@ -34,7 +46,11 @@ export function workOrderPdf(wo: WorkOrderDetail, shop: { name: string; timeZone
   doc.y = y + h + 8;
   doc.x = 40;
   if (wo.requiresLockout) {
-    doc.font('bold').fontSize(11).fillColor('#1d4ed8').text('Lockout/tagout required: apply it under the site procedure before work starts, release it before sign-off.');
+    doc
+      .font('bold')
+      .fontSize(11)
+      .fillColor('#1d4ed8')
+      .text('Lockout/tagout required: apply it under the site procedure before work starts, release it before sign-off.');
     doc.moveDown(0.4);
   }
   doc.fillColor('#1e2730');
@@ -48,7 +64,11 @@ export function workOrderPdf(wo: WorkOrderDetail, shop: { name: string; timeZone
     doc.font('regular').fontSize(10);
     for (const c of wo.checklist) {
       const limits = c.kind === 'measure' ? ` [${c.min ?? ''}…${c.max ?? ''} ${c.unit ?? ''}]` : '';
-      const answer = c.result ? `${CHECK_RESULT_LABELS[c.result]}${c.value !== null ? ` (${c.value} ${c.unit ?? ''})` : ''}` : c.kind === 'measure' ? 'value: ________' : '';
+      const answer = c.result
+        ? `${CHECK_RESULT_LABELS[c.result]}${c.value !== null ? ` (${c.value} ${c.unit ?? ''})` : ''}`
+        : c.kind === 'measure'
+          ? 'value: ________'
+          : '';
       doc.text(t(`[${c.result ? 'x' : ' '}] ${c.label}${limits}   ${answer}`), { width });
     }
     doc.moveDown(0.6);
@@ -61,7 +81,14 @@ export function workOrderPdf(wo: WorkOrderDetail, shop: { name: string; timeZone
     doc.moveDown(0.6);
   }
   doc.font('bold').fontSize(12).text('Sign-off');
-  doc.font('regular').fontSize(10).text(t(`Time spent: ${wo.labourMinutes ? `${wo.labourMinutes} min` : '________ min'}    Signed off: ${wo.completedBy ? `${wo.completedBy.name}, ${when(wo.completedAt)}` : '____________________'}`));
+  doc
+    .font('regular')
+    .fontSize(10)
+    .text(
+      t(
+        `Time spent: ${wo.labourMinutes ? `${wo.labourMinutes} min` : '________ min'}    Signed off: ${wo.completedBy ? `${wo.completedBy.name}, ${when(wo.completedAt)}` : '____________________'}`,
+      ),
+    );
   if (wo.notes) doc.moveDown(0.3).text(t(`Notes: ${wo.notes}`), { width });
   return new Promise((resolve, reject) => {
     const chunks: Buffer[] = [];

@@ -24,7 +24,8 @@ export const WorkOrder = defineEntity({
     // The due engine's notice step reads only raised work nobody has been told about yet.
     {
       name: 'work_order_unnotified_index',
-      expression: 'create index "work_order_unnotified_index" on "work_order" ("organization_id", "number") where "notified_at" is null and "plan_id" is not null',
+      expression:
+        'create index "work_order_unnotified_index" on "work_order" ("organization_id", "number") where "notified_at" is null and "plan_id" is not null',
     },
   ],
   properties: {

@@ -151,11 +151,16 @@ async function lockoutRequired(em: EntityManager, wo: IWorkOrder): Promise<boole
 export async function closeBlockers(em: EntityManager, wo: IWorkOrder): Promise<string[]> {
   const out: string[] = [];
   const unanswered = wo.checklist.filter((c) => c.result === null);
-  if (unanswered.length) out.push(`${unanswered.length} of ${wo.checklist.length} checklist lines have no answer: ${unanswered.map((c) => c.label).join('; ')}`);
+  if (unanswered.length)
+    out.push(`${unanswered.length} of ${wo.checklist.length} checklist lines have no answer: ${unanswered.map((c) => c.label).join('; ')}`);
   const noValue = wo.checklist.filter((c) => c.kind === 'measure' && c.result !== null && c.result !== 'na' && c.value === null);
   if (noValue.length) out.push(`Measured values missing: ${noValue.map((c) => c.label).join('; ')}`);
   if ((await lockoutRequired(em, wo)) && !wo.lockoutReleasedAt) {
-    out.push(wo.lockoutSessionId ? 'The lockout for this work has not been released in the safety log yet' : 'This work needs a lockout: apply it and release it in the safety log before signing off');
+    out.push(
+      wo.lockoutSessionId
+        ? 'The lockout for this work has not been released in the safety log yet'
+        : 'This work needs a lockout: apply it and release it in the safety log before signing off',
+    );
   }
   return out;
 }
@@ -197,10 +202,25 @@ export async function getWorkOrder(em: EntityManager, who: Principal, id: string
     lockoutSessionId: wo.lockoutSessionId ?? null,
     lockoutReleasedAt: iso(wo.lockoutReleasedAt),
     checklist: wo.checklist,
-    plannedParts: wo.plannedParts.map((p) => ({ ...p, partNumber: plannedOf.get(p.partTypeId)?.partNumber ?? '?', name: plannedOf.get(p.partTypeId)?.name ?? 'Removed part', stockUnit: plannedOf.get(p.partTypeId)?.stockUnit ?? '' })),
+    plannedParts: wo.plannedParts.map((p) => ({
+      ...p,
+      partNumber: plannedOf.get(p.partTypeId)?.partNumber ?? '?',
+      name: plannedOf.get(p.partTypeId)?.name ?? 'Removed part',
+      stockUnit: plannedOf.get(p.partTypeId)?.stockUnit ?? '',
+    })),
     partsUsed: parts.map((p) => {
       const part = p.partType.getEntity();
-      return { id: p.id, partTypeId: part.id, partNumber: part.partNumber, name: part.name, category: part.category, quantity: p.quantity, stockUnit: part.stockUnit, at: p.createdAt.toISOString(), by: p.by?.getEntity().name ?? null };
+      return {
+        id: p.id,
+        partTypeId: part.id,
+        partNumber: part.partNumber,
+        name: part.name,
+        category: part.category,
+        quantity: p.quantity,
+        stockUnit: part.stockUnit,
+        at: p.createdAt.toISOString(),
+        by: p.by?.getEntity().name ?? null,
+      };
     }),
     labourMinutes: wo.labourMinutes,
     notes: wo.notes,
@@ -211,7 +231,14 @@ export async function getWorkOrder(em: EntityManager, who: Principal, id: string
     completedBy: wo.completedBy ? { id: wo.completedBy.id, name: wo.completedBy.getEntity().name } : null,
     cancelledAt: iso(wo.cancelledAt),
     cancelReason: wo.cancelReason ?? null,
-    attachments: attachments.map((a) => ({ id: a.id, fileName: a.fileName, mimeType: a.mimeType, size: a.size, at: a.createdAt.toISOString(), by: a.uploadedBy?.getEntity().name ?? null })),
+    attachments: attachments.map((a) => ({
+      id: a.id,
+      fileName: a.fileName,
+      mimeType: a.mimeType,
+      size: a.size,
+      at: a.createdAt.toISOString(),
+      by: a.uploadedBy?.getEntity().name ?? null,
+    })),
     history: history.map((h) => ({ at: new Date(h.created_at).toISOString(), action: h.action, who: h.name, details: h.details })),
     closeBlockers: OPEN.includes(wo.status) ? await closeBlockers(em, wo) : [],
   };

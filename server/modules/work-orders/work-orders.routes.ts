@@ -42,37 +42,73 @@ export function registerWorkOrderRoutes(r: ApiRouter, config: Config) {
   route(r, 'get', '/work-orders/:id', { access: 'work-orders.read', params: uuidParam }, async (_req, res, { params, principal: who }) => {
     res.json(await getWorkOrder(em(), who, params.id));
   });
-  route(r, 'patch', '/work-orders/:id', { access: 'work-orders.work', params: uuidParam, body: updateWorkOrderInput }, async (_req, res, { params, body, principal: who }) => {
-    await updateWorkOrder(em(), who, params.id, body);
-    res.json({ ok: true });
-  });
-  route(r, 'post', '/work-orders/:id/move', { access: 'work-orders.work', params: uuidParam, body: moveWorkOrderInput }, async (_req, res, { params, body, principal: who }) => {
-    await moveWorkOrder(em(), who, params.id, body);
-    res.json({ ok: true });
-  });
-  route(r, 'put', '/work-orders/:id/checklist', { access: 'work-orders.work', params: uuidParam, body: checklistResultsInput }, async (_req, res, { params, body, principal: who }) => {
-    res.json({ checklist: await saveChecklist(em(), who, params.id, body) });
-  });
-  route(r, 'post', '/work-orders/:id/parts', { access: 'work-orders.work', params: uuidParam, body: usePartInput }, async (_req, res, { params, body, principal: who }) => {
-    res.status(201).json(await usePart(em(), who, params.id, body));
-  });
+  route(
+    r,
+    'patch',
+    '/work-orders/:id',
+    { access: 'work-orders.work', params: uuidParam, body: updateWorkOrderInput },
+    async (_req, res, { params, body, principal: who }) => {
+      await updateWorkOrder(em(), who, params.id, body);
+      res.json({ ok: true });
+    },
+  );
+  route(
+    r,
+    'post',
+    '/work-orders/:id/move',
+    { access: 'work-orders.work', params: uuidParam, body: moveWorkOrderInput },
+    async (_req, res, { params, body, principal: who }) => {
+      await moveWorkOrder(em(), who, params.id, body);
+      res.json({ ok: true });
+    },
+  );
+  route(
+    r,
+    'put',
+    '/work-orders/:id/checklist',
+    { access: 'work-orders.work', params: uuidParam, body: checklistResultsInput },
+    async (_req, res, { params, body, principal: who }) => {
+      res.json({ checklist: await saveChecklist(em(), who, params.id, body) });
+    },
+  );
+  route(
+    r,
+    'post',
+    '/work-orders/:id/parts',
+    { access: 'work-orders.work', params: uuidParam, body: usePartInput },
+    async (_req, res, { params, body, principal: who }) => {
+      res.status(201).json(await usePart(em(), who, params.id, body));
+    },
+  );
   route(r, 'delete', '/work-orders/:id/parts/:lineId', { access: 'work-orders.work', params: partLineParam }, async (_req, res, { params, principal: who }) => {
     await returnPart(em(), who, params.id, params.lineId);
     res.json({ ok: true });
   });
-  route(r, 'post', '/work-orders/:id/close', { access: 'work-orders.work', params: uuidParam, body: closeWorkOrderInput }, async (_req, res, { params, body, principal: who }) => {
-    res.json(await closeWorkOrder(em(), who, params.id, body));
-  });
-  route(r, 'post', '/work-orders/:id/attachments', { access: 'work-orders.work', params: uuidParam, before: [upload] }, async (req, res, { params, principal: who }) => {
-    const file = req.file;
-    if (!file) throw badRequest('Choose a photo or PDF to attach', [{ path: 'file', message: 'No file' }]);
-    // The content decides, not the name or the browser's claim.
-    const kind = await fileTypeFromBuffer(file.buffer);
-    if (!kind || !(ATTACHMENT_TYPES as readonly string[]).includes(kind.mime)) {
-      throw badRequest('Only photos (JPEG, PNG, WebP) and PDF files can be attached', [{ path: 'file', message: 'Not a photo or PDF' }]);
-    }
-    res.status(201).json(await addAttachment(em(), who, params.id, { name: file.originalname, mime: kind.mime, data: file.buffer }));
-  });
+  route(
+    r,
+    'post',
+    '/work-orders/:id/close',
+    { access: 'work-orders.work', params: uuidParam, body: closeWorkOrderInput },
+    async (_req, res, { params, body, principal: who }) => {
+      res.json(await closeWorkOrder(em(), who, params.id, body));
+    },
+  );
+  route(
+    r,
+    'post',
+    '/work-orders/:id/attachments',
+    { access: 'work-orders.work', params: uuidParam, before: [upload] },
+    async (req, res, { params, principal: who }) => {
+      const file = req.file;
+      if (!file) throw badRequest('Choose a photo or PDF to attach', [{ path: 'file', message: 'No file' }]);
+      // The content decides, not the name or the browser's claim.
+      const kind = await fileTypeFromBuffer(file.buffer);
+      if (!kind || !(ATTACHMENT_TYPES as readonly string[]).includes(kind.mime)) {
+        throw badRequest('Only photos (JPEG, PNG, WebP) and PDF files can be attached', [{ path: 'file', message: 'Not a photo or PDF' }]);
+      }
+      res.status(201).json(await addAttachment(em(), who, params.id, { name: file.originalname, mime: kind.mime, data: file.buffer }));
+    },
+  );
   route(r, 'get', '/work-orders/:id/attachments/:attachmentId', { access: 'work-orders.read', params: attachmentParam }, async (_req, res, { params }) => {
     const a = await getAttachment(em(), params.id, params.attachmentId);
     res.setHeader('Content-Type', a.mimeType);

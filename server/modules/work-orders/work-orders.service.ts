@@ -117,7 +117,9 @@ export async function moveWorkOrder(em: EntityManager, who: Principal, id: strin
     const wo = await findWorkOrder(tx, id, true);
     const m = MOVES[input.move];
     if (!m.from.includes(wo.status)) {
-      throw conflict(`WO ${wo.number} is ${WORK_STATE_LABELS[wo.status as WorkState]}; “${input.move}” only applies to work that is ${m.from.map((s) => WORK_STATE_LABELS[s]).join(' or ')}`);
+      throw conflict(
+        `WO ${wo.number} is ${WORK_STATE_LABELS[wo.status as WorkState]}; “${input.move}” only applies to work that is ${m.from.map((s) => WORK_STATE_LABELS[s]).join(' or ')}`,
+      );
     }
     const now = clock.now();
     const from = wo.status;
@@ -133,7 +135,13 @@ export async function moveWorkOrder(em: EntityManager, who: Principal, id: strin
       // Calling off planned work skips this occurrence; the plan schedules the next one.
       await restartPlanCycle(tx, who, wo, now);
     }
-    recordActivity(tx, who, `work-order.${input.move}`, { type: 'WorkOrder', id: wo.id }, { from, to: wo.status, ...(input.reason ? { reason: input.reason } : {}) });
+    recordActivity(
+      tx,
+      who,
+      `work-order.${input.move}`,
+      { type: 'WorkOrder', id: wo.id },
+      { from, to: wo.status, ...(input.reason ? { reason: input.reason } : {}) },
+    );
   });
 }
 
@@ -154,7 +162,13 @@ export async function saveChecklist(em: EntityManager, who: Principal, id: strin
         const low = line.min !== undefined && r.value < line.min;
         const high = line.max !== undefined && r.value > line.max;
         if ((low || high) && r.result === 'pass') {
-          errors.push({ path: `results.${i}.result`, message: `${r.value} ${line.unit ?? ''} is outside ${line.min ?? '−∞'}…${line.max ?? '∞'} ${line.unit ?? ''}: mark “${line.label}” Not OK`.replace(/\s+/g, ' ') });
+          errors.push({
+            path: `results.${i}.result`,
+            message: `${r.value} ${line.unit ?? ''} is outside ${line.min ?? '−∞'}…${line.max ?? '∞'} ${line.unit ?? ''}: mark “${line.label}” Not OK`.replace(
+              /\s+/g,
+              ' ',
+            ),
+          });
           return;
         }
       }
@@ -168,7 +182,13 @@ export async function saveChecklist(em: EntityManager, who: Principal, id: strin
       wo.status = 'in-progress';
       wo.startedAt ??= clock.now();
     }
-    recordActivity(tx, who, 'work-order.checklist', { type: 'WorkOrder', id: wo.id }, { answered: lines.filter((l) => l.result !== null).length, of: lines.length });
+    recordActivity(
+      tx,
+      who,
+      'work-order.checklist',
+      { type: 'WorkOrder', id: wo.id },
+      { answered: lines.filter((l) => l.result !== null).length, of: lines.length },
+    );
     return lines;
   });
 }
@@ -179,9 +199,22 @@ export async function usePart(em: EntityManager, who: Principal, id: string, inp
     const wo = await findWorkOrder(tx, id, true);
     mustBeOpen(wo, 'take parts');
     const [move] = await applyStockChanges(tx, who, [
-      { partTypeId: input.partTypeId, quantity: -input.quantity, kind: 'used', reason: `WO ${wo.number}: ${wo.title}`.slice(0, 300), ref: { type: 'WorkOrder', id: wo.id } },
+      {
+        partTypeId: input.partTypeId,
+        quantity: -input.quantity,
+        kind: 'used',
+        reason: `WO ${wo.number}: ${wo.title}`.slice(0, 300),
+        ref: { type: 'WorkOrder', id: wo.id },
+      },
     ]);
-    const line = tx.create(WorkOrderPart, { organization: who.orgId, workOrder: wo, partType: input.partTypeId, quantity: input.quantity, stockMove: move, by: who.userId });
+    const line = tx.create(WorkOrderPart, {
+      organization: who.orgId,
+      workOrder: wo,
+      partType: input.partTypeId,
+      quantity: input.quantity,
+      stockMove: move,
+      by: who.userId,
+    });
     recordActivity(tx, who, 'work-order.part-used', { type: 'WorkOrder', id: wo.id }, { partTypeId: input.partTypeId, quantity: input.quantity });
     return { id: line.id };
   });
@@ -194,7 +227,15 @@ export async function returnPart(em: EntityManager, who: Principal, id: string, 
     mustBeOpen(wo, 'return parts');
     const line = await tx.findOne(WorkOrderPart, { id: lineId, workOrder: wo.id });
     if (!line) throw notFound('Part line');
-    await applyStockChanges(tx, who, [{ partTypeId: line.partType.id, quantity: line.quantity, kind: 'adjusted', reason: `Returned from WO ${wo.number}`, ref: { type: 'WorkOrder', id: wo.id } }]);
+    await applyStockChanges(tx, who, [
+      {
+        partTypeId: line.partType.id,
+        quantity: line.quantity,
+        kind: 'adjusted',
+        reason: `Returned from WO ${wo.number}`,
+        ref: { type: 'WorkOrder', id: wo.id },
+      },
+    ]);
     recordActivity(tx, who, 'work-order.part-returned', { type: 'WorkOrder', id: wo.id }, { partTypeId: line.partType.id, quantity: line.quantity });
     tx.remove(line);
   });
@@ -220,7 +261,13 @@ export async function closeWorkOrder(em: EntityManager, who: Principal, id: stri
     wo.completedAt = now;
     wo.completedBy = tx.getReference(User, who.userId, { wrapped: true });
     await restartPlanCycle(tx, who, wo, now);
-    recordActivity(tx, who, 'work-order.closed', { type: 'WorkOrder', id: wo.id }, { labourMinutes: wo.labourMinutes, failed: wo.checklist.filter((c) => c.result === 'fail').map((c) => c.key) });
+    recordActivity(
+      tx,
+      who,
+      'work-order.closed',
+      { type: 'WorkOrder', id: wo.id },
+      { labourMinutes: wo.labourMinutes, failed: wo.checklist.filter((c) => c.result === 'fail').map((c) => c.key) },
+    );
     await tx.flush();
     const plan = wo.plan ? await tx.findOne(MaintenancePlan, { id: wo.plan.id }) : null;
     return { planNextDueAt: iso(plan?.nextDueAt) };

@@ -44,7 +44,14 @@ export function evalFixed(t: Extract<Trigger, { kind: 'calendar-fixed' }>, input
     scan();
   }
   if (first < 0) {
-    return { ...base, status: 'not-due', dueAt: null, key: null, reason: `calendar: the next ${next.length} occurrences are already covered by the completion at ${iso(done as Date)}`, changesAt: null };
+    return {
+      ...base,
+      status: 'not-due',
+      dueAt: null,
+      key: null,
+      reason: `calendar: the next ${next.length} occurrences are already covered by the completion at ${iso(done as Date)}`,
+      changesAt: null,
+    };
   }
   const dueAt = next[first];
   const sinceMs = now.getTime() - dueAt.getTime();
@@ -79,7 +86,9 @@ export function evalFloating(t: Extract<Trigger, { kind: 'calendar-floating' }>,
   const zone = canonicalZone(t.tz);
   // Calendar arithmetic in the plan's zone: "1 month after 31 Jan" is the end of February and
   // "7 days after 09:00" is 09:00 local even across a DST change (luxon plus()).
-  const dueAt = DateTime.fromJSDate(anchor, { zone: cachedZone(zone) }).plus({ [`${t.unit}s`]: t.every }).toJSDate();
+  const dueAt = DateTime.fromJSDate(anchor, { zone: cachedZone(zone) })
+    .plus({ [`${t.unit}s`]: t.every })
+    .toJSDate();
   const windowMs = calendarWindowMs(dueSoon, dueAt.getTime() - anchor.getTime());
   const sinceMs = now.getTime() - dueAt.getTime();
   const what = `every ${t.every} ${t.unit}${t.every === 1 ? '' : 's'} since ${lastDoneAt ? 'last done' : 'plan start'} ${iso(anchor)}`;
@@ -104,4 +113,3 @@ export function evalFloating(t: Extract<Trigger, { kind: 'calendar-floating' }>,
     changesAt: soon ? dueAt : new Date(dueAt.getTime() - windowMs),
   };
 }
-

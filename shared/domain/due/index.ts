@@ -37,7 +37,18 @@ import { validate } from './inputs';
 import { evalFixed, evalFloating } from './calendar';
 import { evalCondition, evalMeter } from './meter';
 
-export { MIN_GRACE_MS, type DueSoonWindow, type DueStatus, type Evaluation, type MeterDue, type MeterInput, type PlanInput, type Reading, type Trigger, type TriggerEvaluation } from './types';
+export {
+  MIN_GRACE_MS,
+  type DueSoonWindow,
+  type DueStatus,
+  type Evaluation,
+  type MeterDue,
+  type MeterInput,
+  type PlanInput,
+  type Reading,
+  type Trigger,
+  type TriggerEvaluation,
+} from './types';
 
 const RANK: Record<DueStatus, number> = { 'not-due': 0, 'due-soon': 1, due: 2, overdue: 3 };
 
@@ -95,10 +106,7 @@ export function evaluatePlan(input: PlanInput): Evaluation {
     }
   });
   const order = [...triggers].sort(
-    (a, b) =>
-      RANK[b.status] - RANK[a.status] ||
-      (a.dueAt?.getTime() ?? Infinity) - (b.dueAt?.getTime() ?? Infinity) ||
-      a.index - b.index,
+    (a, b) => RANK[b.status] - RANK[a.status] || (a.dueAt?.getTime() ?? Infinity) - (b.dueAt?.getTime() ?? Infinity) || a.index - b.index,
   );
   const decider = order[0];
   const dueTimes = triggers.map((t) => t.dueAt?.getTime()).filter((x): x is number => x !== undefined);

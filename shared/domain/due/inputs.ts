@@ -55,7 +55,8 @@ export function validate(input: PlanInput): void {
         break;
       case 'calendar-floating':
         if (!Number.isInteger(t.every) || t.every < 1) fail(`${where} (calendar-floating) every must be a positive integer, got ${String(t.every)}`);
-        if (t.unit !== 'day' && t.unit !== 'week' && t.unit !== 'month') fail(`${where} (calendar-floating) unit must be day, week or month, got ${String(t.unit)}`);
+        if (t.unit !== 'day' && t.unit !== 'week' && t.unit !== 'month')
+          fail(`${where} (calendar-floating) unit must be day, week or month, got ${String(t.unit)}`);
         try {
           canonicalZone(t.tz);
         } catch {

@@ -28,11 +28,7 @@ function forecastFromLatest(readings: Reading[], target: number): Date | null {
   return Number.isFinite(ms) && !Number.isNaN(new Date(ms).getTime()) ? new Date(ms) : null;
 }
 
-export function evalMeter(
-  t: Extract<Trigger, { kind: 'meter' }>,
-  input: PlanInput,
-  index: number,
-): { evaluation: TriggerEvaluation; meter: MeterDue } {
+export function evalMeter(t: Extract<Trigger, { kind: 'meter' }>, input: PlanInput, index: number): { evaluation: TriggerEvaluation; meter: MeterDue } {
   const { now, dueSoon } = input;
   const m = input.meters[t.meterId];
   const readings = readingsOf(m);
@@ -97,7 +93,14 @@ export function evalCondition(t: Extract<Trigger, { kind: 'condition' }>, input:
     .filter(Boolean)
     .join(' or ');
   if (readings.length === 0) {
-    return { ...base, status: 'not-due', dueAt: null, key: null, reason: `${label}: no reading${lastDoneAt ? ' since last done' : ''} (limit: ${limitText})`, changesAt: null };
+    return {
+      ...base,
+      status: 'not-due',
+      dueAt: null,
+      key: null,
+      reason: `${label}: no reading${lastDoneAt ? ' since last done' : ''} (limit: ${limitText})`,
+      changesAt: null,
+    };
   }
   const last = readings[readings.length - 1];
   if (crosses(last.value)) {
@@ -119,8 +122,7 @@ export function evalCondition(t: Extract<Trigger, { kind: 'condition' }>, input:
   const f = dueSoon.fraction ?? 0;
   const near =
     f > 0 &&
-    ((t.above !== undefined && last.value >= t.above - f * Math.abs(t.above)) ||
-      (t.below !== undefined && last.value <= t.below + f * Math.abs(t.below)));
+    ((t.above !== undefined && last.value >= t.above - f * Math.abs(t.above)) || (t.below !== undefined && last.value <= t.below + f * Math.abs(t.below)));
   const forecasts = [t.above, t.below]
     .filter((x): x is number => x !== undefined)
     .map((limit) => forecastFromLatest(readings, limit))
@@ -137,4 +139,3 @@ export function evalCondition(t: Extract<Trigger, { kind: 'condition' }>, input:
     changesAt: !(near || byTrend) && dueSoon.days !== undefined && forecastAt !== null ? new Date(forecastAt.getTime() - dueSoon.days * DAY_MS) : null,
   };
 }
-

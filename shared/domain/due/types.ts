@@ -79,4 +79,3 @@ export interface Evaluation {
   /** Earliest `changesAt` over the triggers: re-evaluate no later than this (null: only new input changes it). */
   changesAt: Date | null;
 }
-

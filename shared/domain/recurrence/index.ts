@@ -63,16 +63,21 @@ export function expandRecurrence(ical: string, options: ExpandOptions = {}): Dat
 
   const found: number[] = [];
   let cutoffWall = Infinity;
-  walk(prep, afterWall - SLACK_MS, ({ wallMs, ms }) => {
-    if (wallMs > beforeWall + SLACK_MS || wallMs > cutoffWall) return false;
-    if (ms === null) return true;
-    if (afterMs !== null && (inclusive ? ms < afterMs : ms <= afterMs)) return true;
-    if (beforeMs !== null && (inclusive ? ms > beforeMs : ms >= beforeMs)) return true;
-    found.push(ms);
-    // Gap shifts can reorder instants slightly; keep going a little past the limit, then sort.
-    if (found.length >= limit && cutoffWall === Infinity) cutoffWall = wallMs + SLACK_MS;
-    return true;
-  }, options.skipAhead ?? true);
+  walk(
+    prep,
+    afterWall - SLACK_MS,
+    ({ wallMs, ms }) => {
+      if (wallMs > beforeWall + SLACK_MS || wallMs > cutoffWall) return false;
+      if (ms === null) return true;
+      if (afterMs !== null && (inclusive ? ms < afterMs : ms <= afterMs)) return true;
+      if (beforeMs !== null && (inclusive ? ms > beforeMs : ms >= beforeMs)) return true;
+      found.push(ms);
+      // Gap shifts can reorder instants slightly; keep going a little past the limit, then sort.
+      if (found.length >= limit && cutoffWall === Infinity) cutoffWall = wallMs + SLACK_MS;
+      return true;
+    },
+    options.skipAhead ?? true,
+  );
   found.sort((a, b) => a - b);
   const out: Date[] = [];
   for (const ms of found) {
@@ -133,10 +138,7 @@ export function previousOccurrence(
  * Checks recurrence text for a form: parses it (RFC 5545 §3.3.10 grammar and MUST rules) and
  * rejects a DTSTART that does not exist in its zone (RFC 5545 §3.3.5 gap).
  */
-export function validateRecurrence(
-  ical: string,
-  options: Pick<ExpandOptions, 'floatingZone'> = {},
-): { ok: true } | { ok: false; error: string } {
+export function validateRecurrence(ical: string, options: Pick<ExpandOptions, 'floatingZone'> = {}): { ok: true } | { ok: false; error: string } {
   try {
     const prep = prepare(ical, options.floatingZone, undefined);
     let any = false;

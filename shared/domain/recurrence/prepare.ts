@@ -83,9 +83,7 @@ function prepareUncached(ical: string, floatingZone: string | undefined, policy:
   const pol = policy ?? 'shift-forward';
   if (pol !== 'shift-forward' && pol !== 'skip') fail(`nonexistent must be 'shift-forward' or 'skip', got "${String(pol)}"`);
   if (!p.dateOnly && wallToInstant(internal.startWallMs, zone).gap) {
-    fail(
-      `DTSTART ${p.startLocal} does not exist in ${zoneId} (it falls in a daylight-saving gap); choose a time outside the gap`,
-    );
+    fail(`DTSTART ${p.startLocal} does not exist in ${zoneId} (it falls in a daylight-saving gap); choose a time outside the gap`);
   }
   assertHasInstances(internal);
   // Bound rrule by UNTIL plus slack; the exact UNTIL test (instant or wall clock) is in walk().
@@ -157,9 +155,7 @@ export function skipAheadRule(prep: Prepared, lowWall: number): RRule | null {
   } else {
     // rrule numbers weekdays Monday = 0; a WEEKLY period starts on WKST (default Monday).
     const periodStart =
-      base.freq === Frequency.WEEKLY
-        ? startDay - ((((new Date(startMs).getUTCDay() + 6) % 7) - ((base.wkst as number | undefined) ?? 0) + 7) % 7)
-        : startDay;
+      base.freq === Frequency.WEEKLY ? startDay - ((((new Date(startMs).getUTCDay() + 6) % 7) - ((base.wkst as number | undefined) ?? 0) + 7) % 7) : startDay;
     const stride = base.freq === Frequency.WEEKLY ? 7 * interval : interval;
     const k = Math.floor((targetDay - periodStart) / stride);
     if (k < 1) return null;

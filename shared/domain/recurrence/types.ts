@@ -78,11 +78,7 @@ export interface ParsedRecurrence {
 }
 
 /** UNTIL as written: DATE, local DATE-TIME, or UTC DATE-TIME (RFC 5545 §3.3.10). */
-export type UntilValue =
-  | { kind: 'date'; wallMs: number }
-  | { kind: 'local'; wallMs: number }
-  | { kind: 'utc'; instantMs: number };
-
+export type UntilValue = { kind: 'date'; wallMs: number } | { kind: 'local'; wallMs: number } | { kind: 'utc'; instantMs: number };
 
 export const FREQ_NAMES = {
   YEARLY: Frequency.YEARLY,

@@ -44,8 +44,7 @@ export function walk(prep: Prepared, lowWall: number, visit: (v: Visit) => boole
       ms = r.ms;
     }
     if (until) {
-      const within =
-        until.kind === 'utc' ? (ms as number) <= until.instantMs : wallMs <= until.wallMs;
+      const within = until.kind === 'utc' ? (ms as number) <= until.instantMs : wallMs <= until.wallMs;
       if (!within) {
         // Past UNTIL in wall order; the instant test can only flip back within the slack.
         if (wallMs > (until.kind === 'utc' ? instantToWall(until.instantMs, zone) : until.wallMs) + SLACK_MS) {
@@ -146,7 +145,14 @@ function firstAbove(xs: number[], x: number, orEqual: boolean): number {
  * Offsets differ by less than SLACK_MS, so an instant after `after` has a wall time above
  * afterWall − SLACK_MS, and one missing beyond toWall has an instant above toWall − SLACK_MS.
  */
-export function expandFromWindow(prep: Prepared, afterMs: number, afterWall: number, beforeMs: number | null, inclusive: boolean, limit: number): number[] | null {
+export function expandFromWindow(
+  prep: Prepared,
+  afterMs: number,
+  afterWall: number,
+  beforeMs: number | null,
+  inclusive: boolean,
+  limit: number,
+): number[] | null {
   const w = windowFor(prep, afterWall, (x) => x.fromWall <= afterWall - SLACK_MS);
   if (w === null) return null;
   const out: number[] = [];
@@ -171,4 +177,3 @@ export function previousFromWindow(prep: Prepared, atMs: number, atWall: number,
   if (w.fromStart || (best !== null && best > w.fromWall + SLACK_MS)) return { ms: best };
   return null;
 }
-

@@ -34,7 +34,9 @@ export function Component() {
             Part
             <select className={select} value={partTypeId} onChange={(e) => set('part', e.target.value)}>
               {torchParts.map((p) => (
-                <option key={p.id} value={p.id}>{p.partNumber} · {p.name} ({PART_CATEGORY_LABELS[p.category]})</option>
+                <option key={p.id} value={p.id}>
+                  {p.partNumber} · {p.name} ({PART_CATEGORY_LABELS[p.category]})
+                </option>
               ))}
             </select>
           </label>
@@ -42,9 +44,13 @@ export function Component() {
             Machine
             <select className={select} value={machineId} onChange={(e) => set('machine', e.target.value)}>
               <option value="">All machines</option>
-              {(machines.data ?? []).filter((m) => m.depth === 0).map((m) => (
-                <option key={m.id} value={m.id}>{m.code} · {m.name}</option>
-              ))}
+              {(machines.data ?? [])
+                .filter((m) => m.depth === 0)
+                .map((m) => (
+                  <option key={m.id} value={m.id}>
+                    {m.code} · {m.name}
+                  </option>
+                ))}
             </select>
           </label>
         </div>

@@ -28,7 +28,14 @@ export function Component() {
       {can(me.role, 'stock.manage') ? <LowStockPanel /> : null}
       {can(me.role, 'consumables.log') && me.role !== 'operator' ? <StationPicker /> : null}
       {can(me.role, 'users.manage') ? (
-        <Panel title="People" actions={<Link className="font-semibold text-mandatory underline" to={paths.users.getHref()}>Manage people</Link>}>
+        <Panel
+          title="People"
+          actions={
+            <Link className="font-semibold text-mandatory underline" to={paths.users.getHref()}>
+              Manage people
+            </Link>
+          }
+        >
           <p className="text-steel-700">Invite operators, technicians and the safety officer; change roles; remove access for people who left.</p>
         </Panel>
       ) : null}

@@ -32,7 +32,12 @@ export function Component() {
   const update = useUpdateMachine();
   const [editing, setEditing] = useState(false);
   if (!me) return null;
-  if (q.isError) return <Notice tone="danger" role="alert">{q.error.message}</Notice>;
+  if (q.isError)
+    return (
+      <Notice tone="danger" role="alert">
+        {q.error.message}
+      </Notice>
+    );
   if (!q.data) return <p role="status">Loading…</p>;
   const m = q.data;
   const manage = can(me.role, 'machines.manage');
@@ -43,16 +48,38 @@ export function Component() {
   return (
     <>
       <nav aria-label="Breadcrumb" className="text-sm">
-        <Link className="underline" to={paths.machines.getHref()}>Machines</Link>
-        {m.parent ? <> › <Link className="underline" to={paths.machine.getHref(m.parent.id)}>{m.parent.code}</Link></> : null} › {m.code}
+        <Link className="underline" to={paths.machines.getHref()}>
+          Machines
+        </Link>
+        {m.parent ? (
+          <>
+            {' '}
+            ›{' '}
+            <Link className="underline" to={paths.machine.getHref(m.parent.id)}>
+              {m.parent.code}
+            </Link>
+          </>
+        ) : null}{' '}
+        › {m.code}
       </nav>
       <PageTitle
         title={`${m.code} · ${m.name}`}
         subtitle={[MACHINE_KIND_LABELS[m.kind], m.location, m.serial ? `serial ${m.serial}` : null].filter(Boolean).join(' · ')}
         actions={
           <div className="flex flex-wrap gap-2">
-            {station ? <Link to={paths.station.getHref(m.parent && m.kind !== 'punch-plasma-cell' && m.kind !== 'plasma-table' ? m.parent.code : m.code)} className="inline-flex min-h-touch items-center rounded bg-steel-800 px-4 font-semibold text-white">Open station page</Link> : null}
-            {manage ? <Button variant="secondary" onClick={() => setEditing((e) => !e)} aria-expanded={editing}>{editing ? 'Close editing' : 'Edit'}</Button> : null}
+            {station ? (
+              <Link
+                to={paths.station.getHref(m.parent && m.kind !== 'punch-plasma-cell' && m.kind !== 'plasma-table' ? m.parent.code : m.code)}
+                className="inline-flex min-h-touch items-center rounded bg-steel-800 px-4 font-semibold text-white"
+              >
+                Open station page
+              </Link>
+            ) : null}
+            {manage ? (
+              <Button variant="secondary" onClick={() => setEditing((e) => !e)} aria-expanded={editing}>
+                {editing ? 'Close editing' : 'Edit'}
+              </Button>
+            ) : null}
             {manage ? (
               <Button variant="secondary" busy={update.isPending} onClick={() => update.mutate({ id: m.id, active: !m.active })}>
                 {m.active ? 'Retire' : 'Return to service'}
@@ -62,7 +89,11 @@ export function Component() {
         }
       />
       {!m.active ? <Notice tone="info">This machine is retired: it is hidden from lists and station pages, and its history stays.</Notice> : null}
-      {m.notes ? <Panel title="Notes"><p className="whitespace-pre-line">{m.notes}</p></Panel> : null}
+      {m.notes ? (
+        <Panel title="Notes">
+          <p className="whitespace-pre-line">{m.notes}</p>
+        </Panel>
+      ) : null}
       {editing ? (
         <Panel title={`Edit ${m.code}`}>
           <MachineForm machines={all.data ?? []} machine={m} onDone={() => setEditing(false)} />
@@ -76,7 +107,9 @@ export function Component() {
         {manage ? (
           <details className="mt-4">
             <summary className="inline-flex min-h-touch cursor-pointer items-center font-semibold underline">Add a component to {m.code}</summary>
-            <div className="mt-3"><MachineForm machines={all.data ?? []} defaultParentId={m.id} /></div>
+            <div className="mt-3">
+              <MachineForm machines={all.data ?? []} defaultParentId={m.id} />
+            </div>
           </details>
         ) : null}
       </Panel>
@@ -86,7 +119,9 @@ export function Component() {
           {can(me.role, 'tools.manage') && heads[0] ? (
             <details className="mt-4">
               <summary className="inline-flex min-h-touch cursor-pointer items-center font-semibold underline">Add a punch tool</summary>
-              <div className="mt-3"><ToolForm machineId={heads[0].id} hitMeters={hitMeters} /></div>
+              <div className="mt-3">
+                <ToolForm machineId={heads[0].id} hitMeters={hitMeters} />
+              </div>
             </details>
           ) : null}
         </Panel>
@@ -101,7 +136,9 @@ export function Component() {
         {can(me.role, 'meters.manage') ? (
           <details className="mt-4">
             <summary className="inline-flex min-h-touch cursor-pointer items-center font-semibold underline">Add a meter</summary>
-            <div className="mt-3"><MeterForm machines={[m, ...m.components]} /></div>
+            <div className="mt-3">
+              <MeterForm machines={[m, ...m.components]} />
+            </div>
           </details>
         ) : null}
       </Panel>

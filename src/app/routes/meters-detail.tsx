@@ -21,21 +21,41 @@ export function Component() {
   const { data: me } = useMe();
   const q = useMeter(id!);
   if (!me) return null;
-  if (q.isError) return <Notice tone="danger" role="alert">{q.error.message}</Notice>;
+  if (q.isError)
+    return (
+      <Notice tone="danger" role="alert">
+        {q.error.message}
+      </Notice>
+    );
   if (!q.data) return <p role="status">Loading…</p>;
   const m = q.data;
   return (
     <>
       <nav aria-label="Breadcrumb" className="text-sm">
-        <Link className="underline" to={paths.machines.getHref()}>Machines</Link> › <Link className="underline" to={paths.machine.getHref(m.machineId)}>{m.machineCode}</Link> › {m.name}
+        <Link className="underline" to={paths.machines.getHref()}>
+          Machines
+        </Link>{' '}
+        ›{' '}
+        <Link className="underline" to={paths.machine.getHref(m.machineId)}>
+          {m.machineCode}
+        </Link>{' '}
+        › {m.name}
       </nav>
       <PageTitle
         title={`${m.machineCode} · ${m.name}`}
         subtitle={`A ${KIND[m.kind]} in ${m.unit} · code ${m.code}${m.latest ? ` · latest ${formatValue(m.latest.value, m.unit)}` : ''}${m.upperLimit !== null ? ` · upper limit ${formatValue(m.upperLimit, m.unit)}` : ''}${m.lowerLimit !== null ? ` · lower limit ${formatValue(m.lowerLimit, m.unit)}` : ''}`}
       />
-      <Panel title="Trend, last 12 months"><TrendChart meterId={m.id} /></Panel>
-      {can(me.role, 'readings.record') ? <Panel title="Record a reading"><ReadingForm meter={m} /></Panel> : null}
-      <Panel title="Readings"><ReadingsTable meter={m} /></Panel>
+      <Panel title="Trend, last 12 months">
+        <TrendChart meterId={m.id} />
+      </Panel>
+      {can(me.role, 'readings.record') ? (
+        <Panel title="Record a reading">
+          <ReadingForm meter={m} />
+        </Panel>
+      ) : null}
+      <Panel title="Readings">
+        <ReadingsTable meter={m} />
+      </Panel>
       {can(me.role, 'meters.manage') ? (
         <Panel title="Meter settings">
           <MeterEditForm key={m.id} meter={m} />

@@ -23,18 +23,36 @@ export function Component() {
   const unit = list.find((u) => u.id === unitId) ?? list[0];
   const trend = useOilAnalyses({ machineId: unit?.id, page: 1, pageSize: 50 });
   if (!me) return null;
-  if (units.isError) return <Notice tone="danger" role="alert">{units.error.message}</Notice>;
+  if (units.isError)
+    return (
+      <Notice tone="danger" role="alert">
+        {units.error.message}
+      </Notice>
+    );
   const tz = me.organization.timeZone;
   const record = can(me.role, 'oil.record');
   return (
     <>
-      <PageTitle title="Oil analysis" subtitle="Hydraulic oil cleanliness (ISO 4406), viscosity (ISO VG band), water and temperature against each unit’s targets." />
-      {list.length === 0 && units.data ? <EmptyState title="No hydraulic units">Add a machine of kind “Hydraulic unit” to record oil results.</EmptyState> : null}
+      <PageTitle
+        title="Oil analysis"
+        subtitle="Hydraulic oil cleanliness (ISO 4406), viscosity (ISO VG band), water and temperature against each unit’s targets."
+      />
+      {list.length === 0 && units.data ? (
+        <EmptyState title="No hydraulic units">Add a machine of kind “Hydraulic unit” to record oil results.</EmptyState>
+      ) : null}
       {list.length ? (
         <div role="group" aria-label="Hydraulic units" className="flex flex-wrap gap-2">
           {list.map((u) => (
-            <button key={u.id} aria-pressed={u.id === unit?.id} type="button" onClick={() => setUnitId(u.id)} className={`min-h-touch rounded border px-4 text-left ${u.id === unit?.id ? 'border-steel-900 bg-steel-900 text-white' : 'border-steel-400 bg-white'}`}>
-              <span className="block font-semibold">{u.code} · {u.name}</span>
+            <button
+              key={u.id}
+              aria-pressed={u.id === unit?.id}
+              type="button"
+              onClick={() => setUnitId(u.id)}
+              className={`min-h-touch rounded border px-4 text-left ${u.id === unit?.id ? 'border-steel-900 bg-steel-900 text-white' : 'border-steel-400 bg-white'}`}
+            >
+              <span className="block font-semibold">
+                {u.code} · {u.name}
+              </span>
               <span className="block text-sm">{u.latest ? `Latest ${u.latest.isoCode}` : 'No results yet'}</span>
             </button>
           ))}

@@ -15,16 +15,32 @@ export function Component() {
   const { data: me } = useMe();
   const q = usePlan(id!);
   if (!me) return null;
-  if (q.isError) return <Notice tone="danger" role="alert">{q.error.message}</Notice>;
+  if (q.isError)
+    return (
+      <Notice tone="danger" role="alert">
+        {q.error.message}
+      </Notice>
+    );
   if (!q.data) return <p role="status">Loading…</p>;
   const p = q.data;
   return (
     <>
-      <nav aria-label="Breadcrumb" className="text-sm"><Link className="underline" to="/plans">Plans</Link> › {p.title}</nav>
+      <nav aria-label="Breadcrumb" className="text-sm">
+        <Link className="underline" to="/plans">
+          Plans
+        </Link>{' '}
+        › {p.title}
+      </nav>
       <PageTitle
         title={p.title}
         subtitle={`${p.machine.code} · ${p.machine.name}`}
-        actions={can(me.role, 'plans.manage') ? <Link className="inline-flex min-h-touch items-center rounded border border-steel-400 bg-white px-4 font-semibold" to={`/plans/${p.id}/edit`}>Edit plan</Link> : null}
+        actions={
+          can(me.role, 'plans.manage') ? (
+            <Link className="inline-flex min-h-touch items-center rounded border border-steel-400 bg-white px-4 font-semibold" to={`/plans/${p.id}/edit`}>
+              Edit plan
+            </Link>
+          ) : null
+        }
       />
       <PlanView plan={p} />
       <Panel title="Work orders from this plan">

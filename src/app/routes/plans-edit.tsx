@@ -16,11 +16,25 @@ export function Component() {
   const plan = usePlan(id!);
   const update = useUpdatePlan();
   const navigate = useNavigate();
-  if (plan.isError) return <Notice tone="danger" role="alert">{plan.error.message}</Notice>;
+  if (plan.isError)
+    return (
+      <Notice tone="danger" role="alert">
+        {plan.error.message}
+      </Notice>
+    );
   if (!lookups.data || !plan.data) return <p role="status">Loading…</p>;
   return (
     <>
-      <nav aria-label="Breadcrumb" className="text-sm"><Link className="underline" to="/plans">Plans</Link> › <Link className="underline" to={`/plans/${id}`}>{plan.data.title}</Link> › Edit</nav>
+      <nav aria-label="Breadcrumb" className="text-sm">
+        <Link className="underline" to="/plans">
+          Plans
+        </Link>{' '}
+        ›{' '}
+        <Link className="underline" to={`/plans/${id}`}>
+          {plan.data.title}
+        </Link>{' '}
+        › Edit
+      </nav>
       <PageTitle title={`Edit: ${plan.data.title}`} />
       <Panel>
         <PlanForm

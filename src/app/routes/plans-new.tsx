@@ -15,7 +15,12 @@ export function Component() {
   if (!lookups.data) return <p role="status">Loading…</p>;
   return (
     <>
-      <nav aria-label="Breadcrumb" className="text-sm"><Link className="underline" to="/plans">Plans</Link> › New plan</nav>
+      <nav aria-label="Breadcrumb" className="text-sm">
+        <Link className="underline" to="/plans">
+          Plans
+        </Link>{' '}
+        › New plan
+      </nav>
       <PageTitle title="Write a maintenance plan" />
       <Panel>
         <PlanForm

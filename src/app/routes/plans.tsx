@@ -24,8 +24,15 @@ export function Component() {
           manage ? (
             <div className="flex flex-wrap gap-2">
               {/* The starter panel sits below a list that grows with the shop: a way straight to it. */}
-              <a className="inline-flex min-h-touch items-center rounded border border-steel-500 bg-white px-4 font-semibold text-steel-900" href="#starter-plans">Apply starter plans</a>
-              <Link className="inline-flex min-h-touch items-center rounded bg-steel-800 px-4 font-semibold text-white" to="/plans/new">Write a plan</Link>
+              <a
+                className="inline-flex min-h-touch items-center rounded border border-steel-500 bg-white px-4 font-semibold text-steel-900"
+                href="#starter-plans"
+              >
+                Apply starter plans
+              </a>
+              <Link className="inline-flex min-h-touch items-center rounded bg-steel-800 px-4 font-semibold text-white" to="/plans/new">
+                Write a plan
+              </Link>
             </div>
           ) : null
         }

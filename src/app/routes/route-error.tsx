@@ -7,7 +7,9 @@ export function RouteError() {
     <main className="mx-auto max-w-xl space-y-3 p-6">
       <h1 className="text-2xl font-bold">Something went wrong</h1>
       <p className="text-steel-700">{message}</p>
-      <Link className="font-semibold text-mandatory underline" to="/">Back to the start page</Link>
+      <Link className="font-semibold text-mandatory underline" to="/">
+        Back to the start page
+      </Link>
     </main>
   );
 }

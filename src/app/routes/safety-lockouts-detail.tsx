@@ -14,12 +14,24 @@ export function Component() {
   const { data: me } = useMe();
   const q = useLockout(id!);
   if (!me) return null;
-  if (q.isError) return <Notice tone="danger" role="alert">{q.error.message}</Notice>;
+  if (q.isError)
+    return (
+      <Notice tone="danger" role="alert">
+        {q.error.message}
+      </Notice>
+    );
   if (!q.data) return <p role="status">Loading…</p>;
   return (
     <>
       <nav aria-label="Breadcrumb" className="text-sm">
-        <Link className="underline" to={paths.safety.getHref()}>Safety</Link> › <Link className="underline" to={paths.safetyLockouts.getHref()}>Lockouts</Link> › {q.data.machineCode}
+        <Link className="underline" to={paths.safety.getHref()}>
+          Safety
+        </Link>{' '}
+        ›{' '}
+        <Link className="underline" to={paths.safetyLockouts.getHref()}>
+          Lockouts
+        </Link>{' '}
+        › {q.data.machineCode}
       </nav>
       <PageTitle title={`Lockout of ${q.data.machineCode} · ${q.data.machineName}`} subtitle={q.data.reason} />
       <LockoutDetailView lockout={q.data} me={{ id: me.user.id, name: me.user.name, role: me.role }} timeZone={me.organization.timeZone} />

@@ -13,11 +13,16 @@ export function Component() {
   const { data: me } = useMe();
   const [params] = useSearchParams();
   if (!me) return null;
-  if (!can(me.role, 'safety.lockout.sign')) return <Notice tone="danger">Only authorized employees (technicians and the safety officer) apply lockouts.</Notice>;
+  if (!can(me.role, 'safety.lockout.sign'))
+    return <Notice tone="danger">Only authorized employees (technicians and the safety officer) apply lockouts.</Notice>;
   return (
     <>
       <PageTitle title="Lock out a machine" subtitle="Follow the approved procedure, put your own lock on every isolation point, then sign." />
-      <LockoutApplyForm signer={{ name: me.user.name, role: me.role }} initialMachineId={params.get('machineId') ?? undefined} workOrderId={params.get('workOrderId') ?? undefined} />
+      <LockoutApplyForm
+        signer={{ name: me.user.name, role: me.role }}
+        initialMachineId={params.get('machineId') ?? undefined}
+        workOrderId={params.get('workOrderId') ?? undefined}
+      />
     </>
   );
 }

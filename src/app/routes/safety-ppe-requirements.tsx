@@ -14,7 +14,10 @@ export function Component() {
   if (!can(me.role, 'safety.ppe.manage')) return <Notice tone="danger">Only the safety officer sets PPE requirements.</Notice>;
   return (
     <>
-      <PageTitle title="PPE requirements" subtitle="What each task at each machine needs. Lens shade follows the arc current and hearing protection the noise dose; sources are shown and the site can override them in settings." />
+      <PageTitle
+        title="PPE requirements"
+        subtitle="What each task at each machine needs. Lens shade follows the arc current and hearing protection the noise dose; sources are shown and the site can override them in settings."
+      />
       <PpeRequirements timeZone={me.organization.timeZone} />
     </>
   );

@@ -19,7 +19,13 @@ export function Component() {
       <PageTitle
         title="PPE check"
         subtitle="Before your shift at the machine: tap each item when it is on, then sign."
-        actions={can(me.role, 'safety.ppe.manage') ? <Link className="font-semibold underline" to={paths.safetyPpeRequirements.getHref()}>Set PPE requirements</Link> : null}
+        actions={
+          can(me.role, 'safety.ppe.manage') ? (
+            <Link className="font-semibold underline" to={paths.safetyPpeRequirements.getHref()}>
+              Set PPE requirements
+            </Link>
+          ) : null
+        }
       />
       {can(me.role, 'safety.ppe.sign') ? (
         <PpeStation me={{ name: me.user.name, role: me.role }} timeZone={me.organization.timeZone} initialMachineId={params.get('machineId') ?? undefined} />

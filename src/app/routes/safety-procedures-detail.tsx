@@ -19,13 +19,25 @@ export function Component() {
   const { data: me } = useMe();
   const q = useProcedure(id!, version);
   if (!me) return null;
-  if (q.isError) return <Notice tone="danger" role="alert">{q.error.message}</Notice>;
+  if (q.isError)
+    return (
+      <Notice tone="danger" role="alert">
+        {q.error.message}
+      </Notice>
+    );
   if (!q.data) return <p role="status">Loading…</p>;
   const p = q.data;
   return (
     <>
       <nav aria-label="Breadcrumb" className="text-sm">
-        <Link className="underline" to={paths.safety.getHref()}>Safety</Link> › <Link className="underline" to={paths.safetyProcedures.getHref()}>Procedures</Link> › {p.machine.code}
+        <Link className="underline" to={paths.safety.getHref()}>
+          Safety
+        </Link>{' '}
+        ›{' '}
+        <Link className="underline" to={paths.safetyProcedures.getHref()}>
+          Procedures
+        </Link>{' '}
+        › {p.machine.code}
       </nav>
       <PageTitle title={`${p.machine.code} · ${p.machine.name}`} subtitle={(p.current ?? p.draft)?.content.title} />
       <ProcedureView p={p} me={{ name: me.user.name, role: me.role }} timeZone={me.organization.timeZone} viewingVersion={version} />

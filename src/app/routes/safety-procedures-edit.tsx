@@ -22,7 +22,14 @@ export function Component() {
   const save = useSaveDraft();
   if (!me) return null;
   if (!can(me.role, 'safety.procedures.manage')) return <Notice tone="danger">Only the safety officer writes energy-control procedures.</Notice>;
-  if (id && !existing.data) return existing.isError ? <Notice tone="danger" role="alert">{existing.error.message}</Notice> : <p role="status">Loading…</p>;
+  if (id && !existing.data)
+    return existing.isError ? (
+      <Notice tone="danger" role="alert">
+        {existing.error.message}
+      </Notice>
+    ) : (
+      <p role="status">Loading…</p>
+    );
   if (!id && !machines.data) return <p role="status">Loading…</p>;
   const p = existing.data;
   const base = p?.draft?.content ?? p?.current?.content;
@@ -32,7 +39,13 @@ export function Component() {
     <>
       <PageTitle
         title={p ? `Change the procedure for ${p.machine.code}` : 'Write an energy-control procedure'}
-        subtitle={p ? (p.draft ? `Editing draft version ${p.draft.version}.` : 'Saving starts a new draft version; the approved one stays in force until the new one is approved.') : 'Saved as draft version 1; it is in force only after you approve it.'}
+        subtitle={
+          p
+            ? p.draft
+              ? `Editing draft version ${p.draft.version}.`
+              : 'Saving starts a new draft version; the approved one stays in force until the new one is approved.'
+            : 'Saved as draft version 1; it is in force only after you approve it.'
+        }
       />
       <ProcedureForm
         key={p?.id ?? 'new'}

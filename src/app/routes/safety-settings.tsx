@@ -17,7 +17,10 @@ export function Component() {
   if (!q.data) return <p role="status">Loading…</p>;
   return (
     <>
-      <PageTitle title="Site safety settings" subtitle="Reference values from standards, with their sources; change them where your local code says otherwise." />
+      <PageTitle
+        title="Site safety settings"
+        subtitle="Reference values from standards, with their sources; change them where your local code says otherwise."
+      />
       <SafetySettingsForm settings={q.data} />
     </>
   );

@@ -6,7 +6,10 @@ import { getSafetyTasksQueryOptions } from '../../features/safety/api/get-safety
 import { getLockoutsQueryOptions } from '../../features/safety/api/get-lockouts';
 
 export const loader = () =>
-  Promise.all([queryClient.ensureQueryData(getSafetyTasksQueryOptions()), queryClient.ensureQueryData(getLockoutsQueryOptions({ state: 'open', page: 1, pageSize: 50 }))]).catch(() => null);
+  Promise.all([
+    queryClient.ensureQueryData(getSafetyTasksQueryOptions()),
+    queryClient.ensureQueryData(getLockoutsQueryOptions({ state: 'open', page: 1, pageSize: 50 })),
+  ]).catch(() => null);
 
 export function Component() {
   const { data: me } = useMe();

@@ -29,12 +29,18 @@ export function Component() {
   if (q.isError)
     return (
       <div className="space-y-4">
-        <Notice tone="danger" role="alert" title="Station not found">{q.error.message}. Check the code on the label, or pick the machine from the list.</Notice>
+        <Notice tone="danger" role="alert" title="Station not found">
+          {q.error.message}. Check the code on the label, or pick the machine from the list.
+        </Notice>
         {/* Those who log changes have the station buttons on Today; everyone else finds the machine in the machine list. */}
         {can(me.role, 'consumables.log') ? (
-          <Link to={paths.home.getHref()} className="inline-flex min-h-touch items-center rounded border border-steel-400 bg-white px-4 font-semibold">Back to the stations</Link>
+          <Link to={paths.home.getHref()} className="inline-flex min-h-touch items-center rounded border border-steel-400 bg-white px-4 font-semibold">
+            Back to the stations
+          </Link>
         ) : (
-          <Link to={paths.machines.getHref()} className="inline-flex min-h-touch items-center rounded border border-steel-400 bg-white px-4 font-semibold">Open the machine list</Link>
+          <Link to={paths.machines.getHref()} className="inline-flex min-h-touch items-center rounded border border-steel-400 bg-white px-4 font-semibold">
+            Open the machine list
+          </Link>
         )}
       </div>
     );
@@ -46,16 +52,32 @@ export function Component() {
       <div className="flex flex-wrap items-end justify-between gap-3">
         <div>
           <p className="text-sm font-semibold uppercase tracking-wider text-steel-600">Station</p>
-          <h1 className="text-3xl font-bold">{s.machine.code} · {s.machine.name}</h1>
+          <h1 className="text-3xl font-bold">
+            {s.machine.code} · {s.machine.name}
+          </h1>
           <p className="text-steel-700">{[MACHINE_KIND_LABELS[s.machine.kind as MachineKind], s.machine.location].filter(Boolean).join(' · ')}</p>
         </div>
         <div className="no-print flex flex-wrap gap-2">
-          <Link to={paths.machine.getHref(s.machine.id)} className="inline-flex min-h-touch items-center rounded border border-steel-400 bg-white px-4 font-semibold">Machine record</Link>
-          <Link to={paths.stationLabel.getHref(s.machine.code)} className="inline-flex min-h-touch items-center rounded border border-steel-400 bg-white px-4 font-semibold">Print QR label</Link>
+          <Link
+            to={paths.machine.getHref(s.machine.id)}
+            className="inline-flex min-h-touch items-center rounded border border-steel-400 bg-white px-4 font-semibold"
+          >
+            Machine record
+          </Link>
+          <Link
+            to={paths.stationLabel.getHref(s.machine.code)}
+            className="inline-flex min-h-touch items-center rounded border border-steel-400 bg-white px-4 font-semibold"
+          >
+            Print QR label
+          </Link>
         </div>
       </div>
       <DueList code={s.machine.code} rows={s.due} />
-      {s.torches.length === 0 && CUTS_WITH_PLASMA.includes(s.machine.kind as MachineKind) ? <Notice title="No torch on this machine">Consumables are logged on a torch. Add a component of kind “Plasma torch” to {s.machine.code} with arc-start and arc-time meters.</Notice> : null}
+      {s.torches.length === 0 && CUTS_WITH_PLASMA.includes(s.machine.kind as MachineKind) ? (
+        <Notice title="No torch on this machine">
+          Consumables are logged on a torch. Add a component of kind “Plasma torch” to {s.machine.code} with arc-start and arc-time meters.
+        </Notice>
+      ) : null}
       {s.torches.map((t) => (
         <TorchPanel key={t.id} torch={t} parts={s.partOptions} pitLimit={s.reference.pitLimitMm} canLog={can(me.role, 'consumables.log')} />
       ))}

@@ -39,7 +39,8 @@ export function Component() {
           }
         />
         <p className="mt-3 text-sm text-steel-700">
-          Reorder point = expected use over the lead time + safety stock (z × daily spread × √lead time), rounded up; the continuous-review model of operations-management texts. A part is marked <strong>Reorder</strong> at or below it.
+          Reorder point = expected use over the lead time + safety stock (z × daily spread × √lead time), rounded up; the continuous-review model of
+          operations-management texts. A part is marked <strong>Reorder</strong> at or below it.
         </p>
       </Panel>
       {part ? (
@@ -50,7 +51,9 @@ export function Component() {
             {manage ? (
               <details className="rounded border border-steel-300 p-3">
                 <summary className="flex min-h-touch cursor-pointer items-center font-semibold">Edit catalogue data of {part.partNumber}</summary>
-                <div className="mt-3"><PartEditForm key={part.id} part={part} /></div>
+                <div className="mt-3">
+                  <PartEditForm key={part.id} part={part} />
+                </div>
               </details>
             ) : null}
           </div>

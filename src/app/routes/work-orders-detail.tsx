@@ -23,7 +23,12 @@ export function Component() {
   const { data: me } = useMe();
   const q = useWorkOrder(id!);
   if (!me) return null;
-  if (q.isError) return <Notice tone="danger" role="alert">{q.error.message}</Notice>;
+  if (q.isError)
+    return (
+      <Notice tone="danger" role="alert">
+        {q.error.message}
+      </Notice>
+    );
   if (!q.data) return <p role="status">Loading…</p>;
   const wo = q.data;
   const tz = me.organization.timeZone;
@@ -34,7 +39,10 @@ export function Component() {
   return (
     <>
       <nav aria-label="Breadcrumb" className="text-sm">
-        <Link className="underline" to="/work-orders">Work orders</Link> › WO {wo.number}
+        <Link className="underline" to="/work-orders">
+          Work orders
+        </Link>{' '}
+        › WO {wo.number}
       </nav>
       <PageTitle
         title={`WO ${wo.number} · ${wo.title}`}
@@ -42,7 +50,14 @@ export function Component() {
         actions={
           <div className="flex flex-wrap gap-2">
             {worker && open ? <WorkMoves wo={wo} /> : null}
-            <a className="inline-flex min-h-touch items-center rounded border border-steel-400 bg-white px-4 font-semibold" href={`/api/work-orders/${wo.id}/pdf`} target="_blank" rel="noreferrer">Print sheet (PDF)</a>
+            <a
+              className="inline-flex min-h-touch items-center rounded border border-steel-400 bg-white px-4 font-semibold"
+              href={`/api/work-orders/${wo.id}/pdf`}
+              target="_blank"
+              rel="noreferrer"
+            >
+              Print sheet (PDF)
+            </a>
           </div>
         }
       />

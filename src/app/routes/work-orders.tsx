@@ -25,7 +25,13 @@ export function Component() {
       <PageTitle
         title="Work orders"
         subtitle="Planned work raised by the schedule and repairs reported by hand."
-        actions={can(me.role, 'work-orders.raise') ? <Button onClick={() => setRaising((r) => !r)} aria-expanded={raising}>{raising ? 'Close the form' : 'Report a fault or job'}</Button> : null}
+        actions={
+          can(me.role, 'work-orders.raise') ? (
+            <Button onClick={() => setRaising((r) => !r)} aria-expanded={raising}>
+              {raising ? 'Close the form' : 'Report a fault or job'}
+            </Button>
+          ) : null
+        }
       />
       {raising ? (
         <Panel title="Report a fault or job">

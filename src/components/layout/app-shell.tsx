@@ -7,7 +7,15 @@ export type NavItem = { to: string; label: string; end?: boolean; personal?: boo
 const onPage = (pathname: string, item: NavItem) => pathname === item.to || (!item.end && pathname.startsWith(`${item.to}/`));
 
 /** The frame around every signed-in page: top bar, navigation, content. */
-export function AppShell({ shopName, userName, roleLabel, nav, onSignOut, signingOut, children }: {
+export function AppShell({
+  shopName,
+  userName,
+  roleLabel,
+  nav,
+  onSignOut,
+  signingOut,
+  children,
+}: {
   shopName: string;
   userName: string;
   roleLabel: string;
@@ -24,7 +32,9 @@ export function AppShell({ shopName, userName, roleLabel, nav, onSignOut, signin
   const firstPersonal = nav.findIndex((i) => i.personal);
   return (
     <div className="min-h-screen">
-      <a href="#main" className="sr-only focus:not-sr-only focus:absolute focus:left-2 focus:top-2 focus:z-50 focus:bg-white focus:p-2">Skip to content</a>
+      <a href="#main" className="sr-only focus:not-sr-only focus:absolute focus:left-2 focus:top-2 focus:z-50 focus:bg-white focus:p-2">
+        Skip to content
+      </a>
       <header className="no-print border-b-4 border-caution bg-steel-900 text-white">
         <div className="mx-auto flex max-w-7xl items-center gap-3 px-3 py-2">
           <img src="/favicon.svg" alt="" className="h-8 w-8" />
@@ -36,10 +46,21 @@ export function AppShell({ shopName, userName, roleLabel, nav, onSignOut, signin
             <p className="font-semibold">{userName}</p>
             <p className="text-steel-300">{roleLabel}</p>
           </div>
-          <button type="button" onClick={onSignOut} disabled={signingOut} className="min-h-touch rounded border border-steel-500 px-3 text-sm font-semibold hover:bg-steel-700">
+          <button
+            type="button"
+            onClick={onSignOut}
+            disabled={signingOut}
+            className="min-h-touch rounded border border-steel-500 px-3 text-sm font-semibold hover:bg-steel-700"
+          >
             Sign out
           </button>
-          <button type="button" className="min-h-touch min-w-touch rounded border border-steel-500 md:hidden" aria-expanded={menuOpen} aria-controls="main-nav" onClick={() => setMenuOpen((o) => !o)}>
+          <button
+            type="button"
+            className="min-h-touch min-w-touch rounded border border-steel-500 md:hidden"
+            aria-expanded={menuOpen}
+            aria-controls="main-nav"
+            onClick={() => setMenuOpen((o) => !o)}
+          >
             <span className="sr-only">Menu</span>
             <span aria-hidden>☰</span>
           </button>

@@ -8,7 +8,14 @@ const styles: Record<Variant, string> = {
   ghost: 'bg-transparent text-steel-800 hover:bg-steel-200',
 };
 
-export function Button({ variant = 'primary', className = '', type = 'button', busy, children, ...rest }: ButtonHTMLAttributes<HTMLButtonElement> & { variant?: Variant; busy?: boolean }) {
+export function Button({
+  variant = 'primary',
+  className = '',
+  type = 'button',
+  busy,
+  children,
+  ...rest
+}: ButtonHTMLAttributes<HTMLButtonElement> & { variant?: Variant; busy?: boolean }) {
   return (
     <button
       type={type}

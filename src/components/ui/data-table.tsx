@@ -58,7 +58,12 @@ export function DataTable<T>({ columns, data, caption, server, loading, empty, t
     getCoreRowModel: getCoreRowModel(),
     ...(server
       ? { manualSorting: true, manualPagination: true, rowCount: server.total }
-      : { getSortedRowModel: getSortedRowModel(), getFilteredRowModel: getFilteredRowModel(), getPaginationRowModel: getPaginationRowModel(), initialState: { pagination: { pageSize: 25 } } }),
+      : {
+          getSortedRowModel: getSortedRowModel(),
+          getFilteredRowModel: getFilteredRowModel(),
+          getPaginationRowModel: getPaginationRowModel(),
+          initialState: { pagination: { pageSize: 25 } },
+        }),
   });
   const pageCount = server ? Math.max(1, Math.ceil(server.total / server.pageSize)) : table.getPageCount() || 1;
   const pageIndex = server ? server.page - 1 : table.getState().pagination.pageIndex;
@@ -72,18 +77,28 @@ export function DataTable<T>({ columns, data, caption, server, loading, empty, t
         {!server ? (
           <label className="flex flex-col text-sm font-semibold text-steel-800">
             Filter
-            <input value={globalFilter} onChange={(e) => setGlobalFilter(e.target.value)} className="min-h-touch rounded border border-steel-400 bg-white px-3 font-normal" placeholder="Type to filter…" />
+            <input
+              value={globalFilter}
+              onChange={(e) => setGlobalFilter(e.target.value)}
+              className="min-h-touch rounded border border-steel-400 bg-white px-3 font-normal"
+              placeholder="Type to filter…"
+            />
           </label>
         ) : null}
         <details className="relative ml-auto">
-          <summary className="flex min-h-touch cursor-pointer items-center rounded border border-steel-400 bg-white px-3 text-sm font-semibold">Columns</summary>
+          <summary className="flex min-h-touch cursor-pointer items-center rounded border border-steel-400 bg-white px-3 text-sm font-semibold">
+            Columns
+          </summary>
           <div className="absolute right-0 z-10 mt-1 w-56 space-y-1 rounded border border-steel-300 bg-white p-3 shadow-lg">
-            {table.getAllLeafColumns().filter((c) => c.getCanHide()).map((c) => (
-              <label key={c.id} className="flex min-h-9 items-center gap-2 text-sm">
-                <input type="checkbox" className="h-5 w-5" checked={c.getIsVisible()} onChange={c.getToggleVisibilityHandler()} />
-                {typeof c.columnDef.header === 'string' ? c.columnDef.header : c.id}
-              </label>
-            ))}
+            {table
+              .getAllLeafColumns()
+              .filter((c) => c.getCanHide())
+              .map((c) => (
+                <label key={c.id} className="flex min-h-9 items-center gap-2 text-sm">
+                  <input type="checkbox" className="h-5 w-5" checked={c.getIsVisible()} onChange={c.getToggleVisibilityHandler()} />
+                  {typeof c.columnDef.header === 'string' ? c.columnDef.header : c.id}
+                </label>
+              ))}
           </div>
         </details>
       </div>
@@ -97,11 +112,18 @@ export function DataTable<T>({ columns, data, caption, server, loading, empty, t
                 {hg.headers.map((h) => {
                   const sorted = h.column.getIsSorted();
                   return (
-                    <th key={h.id} scope="col" className="px-3 py-2 font-semibold whitespace-nowrap" aria-sort={sorted === 'asc' ? 'ascending' : sorted === 'desc' ? 'descending' : undefined}>
+                    <th
+                      key={h.id}
+                      scope="col"
+                      className="px-3 py-2 font-semibold whitespace-nowrap"
+                      aria-sort={sorted === 'asc' ? 'ascending' : sorted === 'desc' ? 'descending' : undefined}
+                    >
                       {h.isPlaceholder ? null : h.column.getCanSort() ? (
                         <button type="button" onClick={h.column.getToggleSortingHandler()} className="inline-flex min-h-9 items-center gap-1 hover:underline">
                           {flexRender(h.column.columnDef.header, h.getContext())}
-                          <span aria-hidden className="text-steel-300">{sorted === 'asc' ? '▲' : sorted === 'desc' ? '▼' : '↕'}</span>
+                          <span aria-hidden className="text-steel-300">
+                            {sorted === 'asc' ? '▲' : sorted === 'desc' ? '▼' : '↕'}
+                          </span>
                         </button>
                       ) : (
                         flexRender(h.column.columnDef.header, h.getContext())
@@ -125,15 +147,23 @@ export function DataTable<T>({ columns, data, caption, server, loading, empty, t
           </tbody>
         </table>
         {!loading && table.getRowModel().rows.length === 0 ? <div className="p-4">{empty ?? <EmptyState title="Nothing to show" />}</div> : null}
-        {loading ? <p className="p-4 text-steel-600" role="status">Loading…</p> : null}
+        {loading ? (
+          <p className="p-4 text-steel-600" role="status">
+            Loading…
+          </p>
+        ) : null}
       </div>
       <nav className="no-print flex flex-wrap items-center justify-between gap-2 text-sm" aria-label={`${caption} pages`}>
         <span className="text-steel-700">
           {total} {total === 1 ? 'row' : 'rows'} · page {pageIndex + 1} of {pageCount}
         </span>
         <span className="flex gap-2">
-          <Button variant="secondary" onClick={() => goTo(pageIndex - 1)} disabled={pageIndex <= 0}>Previous</Button>
-          <Button variant="secondary" onClick={() => goTo(pageIndex + 1)} disabled={pageIndex + 1 >= pageCount}>Next</Button>
+          <Button variant="secondary" onClick={() => goTo(pageIndex - 1)} disabled={pageIndex <= 0}>
+            Previous
+          </Button>
+          <Button variant="secondary" onClick={() => goTo(pageIndex + 1)} disabled={pageIndex + 1 >= pageCount}>
+            Next
+          </Button>
         </span>
       </nav>
     </div>

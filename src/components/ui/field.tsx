@@ -12,7 +12,11 @@ function Frame({ id, label, error, hint, children }: Common & { id: string; chil
         {label}
       </label>
       {children}
-      {hint && !error ? <p className="text-sm text-steel-600" id={`${id}-hint`}>{hint}</p> : null}
+      {hint && !error ? (
+        <p className="text-sm text-steel-600" id={`${id}-hint`}>
+          {hint}
+        </p>
+      ) : null}
       {error ? (
         <p className="text-sm font-semibold text-danger" id={`${id}-error`} role="alert">
           {error}
@@ -22,31 +26,40 @@ function Frame({ id, label, error, hint, children }: Common & { id: string; chil
   );
 }
 
-export const TextField = forwardRef<HTMLInputElement, Common & InputHTMLAttributes<HTMLInputElement>>(function TextField({ label, error, hint, id, ...rest }, ref) {
-  const auto = useId();
-  const fid = id ?? auto;
-  return (
-    <Frame id={fid} label={label} error={error} hint={hint}>
-      <input ref={ref} id={fid} aria-invalid={error ? true : undefined} aria-describedby={error ? `${fid}-error` : hint ? `${fid}-hint` : undefined} className={inputClass(error)} {...rest} />
-    </Frame>
-  );
-});
-
-export const SelectField = forwardRef<HTMLSelectElement, Common & SelectHTMLAttributes<HTMLSelectElement> & { options: { value: string; label: string }[] }>(function SelectField(
-  { label, error, hint, id, options, ...rest },
+export const TextField = forwardRef<HTMLInputElement, Common & InputHTMLAttributes<HTMLInputElement>>(function TextField(
+  { label, error, hint, id, ...rest },
   ref,
 ) {
   const auto = useId();
   const fid = id ?? auto;
   return (
     <Frame id={fid} label={label} error={error} hint={hint}>
-      <select ref={ref} id={fid} aria-invalid={error ? true : undefined} className={inputClass(error)} {...rest}>
-        {options.map((o) => (
-          <option key={o.value} value={o.value}>
-            {o.label}
-          </option>
-        ))}
-      </select>
+      <input
+        ref={ref}
+        id={fid}
+        aria-invalid={error ? true : undefined}
+        aria-describedby={error ? `${fid}-error` : hint ? `${fid}-hint` : undefined}
+        className={inputClass(error)}
+        {...rest}
+      />
     </Frame>
   );
 });
+
+export const SelectField = forwardRef<HTMLSelectElement, Common & SelectHTMLAttributes<HTMLSelectElement> & { options: { value: string; label: string }[] }>(
+  function SelectField({ label, error, hint, id, options, ...rest }, ref) {
+    const auto = useId();
+    const fid = id ?? auto;
+    return (
+      <Frame id={fid} label={label} error={error} hint={hint}>
+        <select ref={ref} id={fid} aria-invalid={error ? true : undefined} className={inputClass(error)} {...rest}>
+          {options.map((o) => (
+            <option key={o.value} value={o.value}>
+              {o.label}
+            </option>
+          ))}
+        </select>
+      </Frame>
+    );
+  },
+);

@@ -3,7 +3,15 @@ import { api } from '../../../lib/api-client';
 import { activityLogKeys } from './keys';
 import type { Page } from '../../../../shared/schemas/paging';
 
-export type ActivityRow = { id: string; at: string; action: string; entityType: string; entityId: string | null; actor: string | null; details: Record<string, unknown> | null };
+export type ActivityRow = {
+  id: string;
+  at: string;
+  action: string;
+  entityType: string;
+  entityId: string | null;
+  actor: string | null;
+  details: Record<string, unknown> | null;
+};
 export type ActivityFilters = { page: number; pageSize: number; action?: string; area?: string; actor?: string; dir?: 'asc' | 'desc' };
 export type ActivityPage = Page<ActivityRow> & { areas: string[]; people: { id: string; name: string }[] };
 

@@ -18,7 +18,16 @@ const describeAction = (action: string) => {
 const describeRecord = (r: ActivityRow) => {
   const kind = capital(r.entityType.replace(/([a-z])([A-Z])/g, '$1 $2').toLowerCase());
   const d = r.details ?? {};
-  const label = typeof d.number === 'number' ? String(d.number) : typeof d.title === 'string' ? d.title : typeof d.code === 'string' ? d.code : typeof d.email === 'string' ? d.email : null;
+  const label =
+    typeof d.number === 'number'
+      ? String(d.number)
+      : typeof d.title === 'string'
+        ? d.title
+        : typeof d.code === 'string'
+          ? d.code
+          : typeof d.email === 'string'
+            ? d.email
+            : null;
   return label ? `${kind} ${label}` : kind;
 };
 const columnsFor = (timeZone: string) => [
@@ -45,23 +54,55 @@ export function ActivityLogTable({ pageSize = 25, timeZone, filters = true }: { 
       loading={q.isLoading}
       getRowId={(r) => r.id}
       empty={<EmptyState title={area || actor ? 'Nothing matches these filters' : 'No activity yet'} />}
-      server={{ total: q.data?.total ?? 0, page, pageSize, sorting, onSortingChange: (s) => { setSorting(s); setPage(1); }, onPageChange: setPage }}
+      server={{
+        total: q.data?.total ?? 0,
+        page,
+        pageSize,
+        sorting,
+        onSortingChange: (s) => {
+          setSorting(s);
+          setPage(1);
+        },
+        onPageChange: setPage,
+      }}
       toolbar={
         filters ? (
           <>
             <label className="flex flex-col text-sm font-semibold">
               Area
-              <select className={filterClass} value={area} onChange={(e) => { setArea(e.target.value); setPage(1); }}>
+              <select
+                className={filterClass}
+                value={area}
+                onChange={(e) => {
+                  setArea(e.target.value);
+                  setPage(1);
+                }}
+              >
                 <option value="">Everything</option>
-                {(q.data?.areas ?? []).map((a) => <option key={a} value={a}>{capital(words(a))}</option>)}
+                {(q.data?.areas ?? []).map((a) => (
+                  <option key={a} value={a}>
+                    {capital(words(a))}
+                  </option>
+                ))}
               </select>
             </label>
             <label className="flex flex-col text-sm font-semibold">
               Who
-              <select className={filterClass} value={actor} onChange={(e) => { setActor(e.target.value); setPage(1); }}>
+              <select
+                className={filterClass}
+                value={actor}
+                onChange={(e) => {
+                  setActor(e.target.value);
+                  setPage(1);
+                }}
+              >
                 <option value="">Anyone</option>
                 <option value="system">System (scheduled pass)</option>
-                {(q.data?.people ?? []).map((p) => <option key={p.id} value={p.id}>{p.name}</option>)}
+                {(q.data?.people ?? []).map((p) => (
+                  <option key={p.id} value={p.id}>
+                    {p.name}
+                  </option>
+                ))}
               </select>
             </label>
           </>

@@ -19,7 +19,10 @@ export function PasswordLinkForm({ token, submitLabel }: { token: string; submit
   if (redeem.isSuccess) {
     return (
       <Notice tone="safe" title="Password set">
-        You can now sign in as {redeem.data.email}. <Link className="font-semibold underline" to={paths.signIn.getHref()}>Go to sign-in</Link>
+        You can now sign in as {redeem.data.email}.{' '}
+        <Link className="font-semibold underline" to={paths.signIn.getHref()}>
+          Go to sign-in
+        </Link>
       </Notice>
     );
   }
@@ -33,12 +36,25 @@ export function PasswordLinkForm({ token, submitLabel }: { token: string; submit
   });
   return (
     <form onSubmit={onSubmit} noValidate className="space-y-4">
-      {formError ? <Notice tone="danger" role="alert">{formError}</Notice> : null}
+      {formError ? (
+        <Notice tone="danger" role="alert">
+          {formError}
+        </Notice>
+      ) : null}
       {!token ? <Notice tone="danger">This link is incomplete. Open the link from your e-mail again.</Notice> : null}
       <input type="hidden" {...register('token')} />
-      <TextField label="New password" type="password" autoComplete="new-password" hint="At least 12 characters; a short sentence works well." error={formState.errors.password?.message} {...register('password')} />
+      <TextField
+        label="New password"
+        type="password"
+        autoComplete="new-password"
+        hint="At least 12 characters; a short sentence works well."
+        error={formState.errors.password?.message}
+        {...register('password')}
+      />
       <TextField label="Repeat the password" type="password" autoComplete="new-password" error={formState.errors.confirm?.message} {...register('confirm')} />
-      <Button type="submit" className="w-full" busy={formState.isSubmitting} disabled={!token}>{submitLabel}</Button>
+      <Button type="submit" className="w-full" busy={formState.isSubmitting} disabled={!token}>
+        {submitLabel}
+      </Button>
     </form>
   );
 }

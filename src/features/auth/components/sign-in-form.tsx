@@ -27,12 +27,20 @@ export function SignInForm({ onSignedIn }: { onSignedIn: () => void }) {
 
   return (
     <form onSubmit={onSubmit} noValidate className="space-y-4">
-      {formError ? <Notice tone="danger" role="alert">{formError}</Notice> : null}
+      {formError ? (
+        <Notice tone="danger" role="alert">
+          {formError}
+        </Notice>
+      ) : null}
       <TextField label="E-mail" type="email" autoComplete="username" inputMode="email" error={formState.errors.email?.message} {...register('email')} />
       <TextField label="Password" type="password" autoComplete="current-password" error={formState.errors.password?.message} {...register('password')} />
-      <Button type="submit" className="w-full" busy={formState.isSubmitting}>Sign in</Button>
+      <Button type="submit" className="w-full" busy={formState.isSubmitting}>
+        Sign in
+      </Button>
       <p className="text-center text-sm">
-        <Link className="font-semibold text-mandatory underline" to={paths.forgotPassword.getHref()}>Forgot your password?</Link>
+        <Link className="font-semibold text-mandatory underline" to={paths.forgotPassword.getHref()}>
+          Forgot your password?
+        </Link>
       </p>
     </form>
   );

@@ -18,7 +18,12 @@ export function CalendarFeedPanel() {
   const [error, setError] = useState<string | null>(null);
   const [copyHint, setCopyHint] = useState<string | null>(null);
   const addressRef = useRef<HTMLInputElement>(null);
-  if (q.isError) return <Notice tone="danger" role="alert">Could not load your calendar feed: {q.error.message}</Notice>;
+  if (q.isError)
+    return (
+      <Notice tone="danger" role="alert">
+        Could not load your calendar feed: {q.error.message}
+      </Notice>
+    );
   if (!q.data) return <p role="status">Loading…</p>;
   // Site time, like every other time in Kerfbook, not the browser's zone.
   const fmt = shopFormatter({ dateStyle: 'medium', timeStyle: 'short' });
@@ -51,14 +56,30 @@ export function CalendarFeedPanel() {
   };
   return (
     <div className="space-y-3">
-      <p className="text-steel-700">Subscribe to this address in your calendar app to see your open work orders and plans coming up in the next 60 days. Anyone with the address can read it: keep it to yourself.</p>
+      <p className="text-steel-700">
+        Subscribe to this address in your calendar app to see your open work orders and plans coming up in the next 60 days. Anyone with the address can read
+        it: keep it to yourself.
+      </p>
       {url ? (
         <Notice tone="mandatory" title="Your calendar address (shown only now)">
           <div className="flex flex-wrap items-center gap-2">
-            <input ref={addressRef} aria-label="Calendar address" readOnly value={url} className="min-h-touch w-full flex-1 rounded border border-steel-400 bg-white px-2 font-mono text-sm" onFocus={(e) => e.currentTarget.select()} />
-            <Button variant="secondary" onClick={copy}>{copied ? 'Copied' : 'Copy'}</Button>
+            <input
+              ref={addressRef}
+              aria-label="Calendar address"
+              readOnly
+              value={url}
+              className="min-h-touch w-full flex-1 rounded border border-steel-400 bg-white px-2 font-mono text-sm"
+              onFocus={(e) => e.currentTarget.select()}
+            />
+            <Button variant="secondary" onClick={copy}>
+              {copied ? 'Copied' : 'Copy'}
+            </Button>
           </div>
-          {copyHint ? <p className="mt-2 text-sm font-semibold" role="status">{copyHint}</p> : null}
+          {copyHint ? (
+            <p className="mt-2 text-sm font-semibold" role="status">
+              {copyHint}
+            </p>
+          ) : null}
         </Notice>
       ) : null}
       {q.data.active ? (
@@ -69,10 +90,20 @@ export function CalendarFeedPanel() {
       ) : (
         <p>No calendar feed is on.</p>
       )}
-      {error ? <Notice tone="danger" role="alert">{error}</Notice> : null}
+      {error ? (
+        <Notice tone="danger" role="alert">
+          {error}
+        </Notice>
+      ) : null}
       <div className="flex flex-wrap gap-2">
-        <Button onClick={() => (q.data.active ? setConfirm('new') : make())} busy={create.isPending}>{q.data.active ? 'Make a new address' : 'Turn on my calendar feed'}</Button>
-        {q.data.active ? <Button variant="secondary" onClick={() => setConfirm('revoke')}>Turn off</Button> : null}
+        <Button onClick={() => (q.data.active ? setConfirm('new') : make())} busy={create.isPending}>
+          {q.data.active ? 'Make a new address' : 'Turn on my calendar feed'}
+        </Button>
+        {q.data.active ? (
+          <Button variant="secondary" onClick={() => setConfirm('revoke')}>
+            Turn off
+          </Button>
+        ) : null}
       </div>
       <ConfirmDialog
         open={confirm !== null}

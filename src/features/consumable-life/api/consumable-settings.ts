@@ -13,10 +13,14 @@ export const getConsumableSettingsQueryOptions = () => queryOptions({ queryKey: 
 
 export const useConsumableSettings = () => useQuery(getConsumableSettingsQueryOptions());
 
-export const updateConsumableSettings = (input: z.input<typeof consumableSettingsSchema>) => api<ConsumableReference>('/consumable-settings', { method: 'PATCH', body: input });
+export const updateConsumableSettings = (input: z.input<typeof consumableSettingsSchema>) =>
+  api<ConsumableReference>('/consumable-settings', { method: 'PATCH', body: input });
 
 /** Reference values feed the station page, the coupons and the life statistics. */
 export function useUpdateConsumableSettings() {
   const qc = useQueryClient();
-  return useMutation({ mutationFn: updateConsumableSettings, onSuccess: () => Promise.all([qc.invalidateQueries({ queryKey: consumableLifeKeys.all }), qc.invalidateQueries({ queryKey: queryRoots.station })]) });
+  return useMutation({
+    mutationFn: updateConsumableSettings,
+    onSuccess: () => Promise.all([qc.invalidateQueries({ queryKey: consumableLifeKeys.all }), qc.invalidateQueries({ queryKey: queryRoots.station })]),
+  });
 }

@@ -7,6 +7,7 @@ export type LifeFilters = { partTypeId: string; machineId?: string };
 
 export const getLifeStats = (f: LifeFilters) => api<LifeStats>('/consumable-life', { query: f });
 
-export const getLifeStatsQueryOptions = (f: LifeFilters) => queryOptions({ queryKey: consumableLifeKeys.life(f), queryFn: () => getLifeStats(f), enabled: !!f.partTypeId });
+export const getLifeStatsQueryOptions = (f: LifeFilters) =>
+  queryOptions({ queryKey: consumableLifeKeys.life(f), queryFn: () => getLifeStats(f), enabled: !!f.partTypeId });
 
 export const useLifeStats = (f: LifeFilters) => useQuery(getLifeStatsQueryOptions(f));

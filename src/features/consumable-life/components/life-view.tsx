@@ -42,23 +42,43 @@ export function LifeView({ filters }: { filters: LifeFilters }) {
         <Figure label="Suspensions" value={String(s.suspensions.length)} note={`damaged, preventive, ${s.stillInstalled} still in`} />
         <Figure label={`Mean achieved life`} value={s.meanLife === null ? '—' : `${fmt(s.meanLife)} ${unit}`} note="of parts removed" />
         <Figure label="B10 life" value={s.fit ? `${fmt(s.fit.b10)} ${unit}` : '—'} note="10 % have worn out by then" />
-        <Figure label="Recommended change" value={s.fit ? `${fmt(s.fit.recommended)} ${unit}` : '—'} note={s.fit ? `where ${Math.round(s.fit.targetReliability * 100)} % still run` : undefined} />
-        <Figure label="Cost per arc-hour" value={s.costPerArcHour === null ? '—' : money.format(s.costPerArcHour)} note={`unit cost ${money.format(s.partType.unitCost)}`} />
+        <Figure
+          label="Recommended change"
+          value={s.fit ? `${fmt(s.fit.recommended)} ${unit}` : '—'}
+          note={s.fit ? `where ${Math.round(s.fit.targetReliability * 100)} % still run` : undefined}
+        />
+        <Figure
+          label="Cost per arc-hour"
+          value={s.costPerArcHour === null ? '—' : money.format(s.costPerArcHour)}
+          note={`unit cost ${money.format(s.partType.unitCost)}`}
+        />
       </dl>
       {s.fit ? (
         <p className="text-sm text-steel-700">
-          Weibull fit by maximum likelihood with suspensions (NIST e-Handbook of Statistical Methods §8.4.1.2): shape β = {dec.format(s.fit.shape)} ({s.fit.shape > 1.2 ? 'wear-out: a planned change pays' : s.fit.shape < 0.9 ? 'early failures: look at fitting and gas quality before planning changes' : 'close to random failures'}), characteristic life η = {fmt(s.fit.scale)} {unit}.
+          Weibull fit by maximum likelihood with suspensions (NIST e-Handbook of Statistical Methods §8.4.1.2): shape β = {dec.format(s.fit.shape)} (
+          {s.fit.shape > 1.2
+            ? 'wear-out: a planned change pays'
+            : s.fit.shape < 0.9
+              ? 'early failures: look at fitting and gas quality before planning changes'
+              : 'close to random failures'}
+          ), characteristic life η = {fmt(s.fit.scale)} {unit}.
           {s.partType.expectedLife !== null ? ` The catalogue expects ${fmt(s.partType.expectedLife)} ${unit}.` : ''}
         </p>
       ) : (
-        <Notice tone="info" title="No fit yet">{s.fitProblem}</Notice>
+        <Notice tone="info" title="No fit yet">
+          {s.fitProblem}
+        </Notice>
       )}
       {total === 0 ? (
         <EmptyState title="No lives recorded for this part yet" />
       ) : (
         <div className="grid gap-4 lg:grid-cols-2">
           <Panel title="Achieved lives">
-            <div className="h-72" role="img" aria-label={`Histogram of ${total} achieved lives in ${unit}: ${s.failures.length} worn out, ${s.suspensions.length} suspensions`}>
+            <div
+              className="h-72"
+              role="img"
+              aria-label={`Histogram of ${total} achieved lives in ${unit}: ${s.failures.length} worn out, ${s.suspensions.length} suspensions`}
+            >
               <ResponsiveContainer width="100%" height="100%">
                 <BarChart data={s.histogram.map((b) => ({ ...b, label: `${fmt(b.from)}–${fmt(b.to)}` }))} margin={{ top: 8, right: 8, bottom: 24, left: 0 }}>
                   <CartesianGrid stroke="#cdd4db" strokeDasharray="3 3" />
@@ -74,14 +94,23 @@ export function LifeView({ filters }: { filters: LifeFilters }) {
           </Panel>
           <Panel title="Share still running">
             {s.fit ? (
-              <div className="h-72" role="img" aria-label={`Reliability curve: B10 at ${fmt(s.fit.b10)} ${unit}, recommended change at ${fmt(s.fit.recommended)} ${unit}`}>
+              <div
+                className="h-72"
+                role="img"
+                aria-label={`Reliability curve: B10 at ${fmt(s.fit.b10)} ${unit}, recommended change at ${fmt(s.fit.recommended)} ${unit}`}
+              >
                 <ResponsiveContainer width="100%" height="100%">
                   <LineChart data={s.fit.curve} margin={{ top: 8, right: 16, bottom: 8, left: 0 }}>
                     <CartesianGrid stroke="#cdd4db" strokeDasharray="3 3" />
                     <XAxis dataKey="life" type="number" domain={[0, 'dataMax']} tickFormatter={fmt} stroke="#38434e" />
                     <YAxis domain={[0, 1]} tickFormatter={(v) => `${Math.round(v * 100)} %`} stroke="#38434e" />
                     <Tooltip labelFormatter={(v) => `${fmt(Number(v))} ${unit}`} formatter={(v) => [`${(Number(v) * 100).toFixed(1)} %`, 'Still running']} />
-                    <ReferenceLine x={s.fit.recommended} stroke="#1d4ed8" strokeDasharray="6 3" label={{ value: 'Change here', fill: '#15347f', position: 'insideTopRight' }} />
+                    <ReferenceLine
+                      x={s.fit.recommended}
+                      stroke="#1d4ed8"
+                      strokeDasharray="6 3"
+                      label={{ value: 'Change here', fill: '#15347f', position: 'insideTopRight' }}
+                    />
                     <Line type="monotone" dataKey="reliability" stroke="#28313a" strokeWidth={2} dot={false} isAnimationActive={false} />
                   </LineChart>
                 </ResponsiveContainer>
@@ -93,7 +122,13 @@ export function LifeView({ filters }: { filters: LifeFilters }) {
         </div>
       )}
       <Panel title="By torch">
-        <DataTable caption="Life and cost by torch" columns={columns} data={s.perMachine} getRowId={(r) => r.machineId} empty={<EmptyState title="No removals yet" />} />
+        <DataTable
+          caption="Life and cost by torch"
+          columns={columns}
+          data={s.perMachine}
+          getRowId={(r) => r.machineId}
+          empty={<EmptyState title="No removals yet" />}
+        />
       </Panel>
     </div>
   );

@@ -29,24 +29,46 @@ export function ReferenceValues({ canEdit }: { canEdit: boolean }) {
   };
   return (
     <div className="space-y-3">
-      {message ? <Notice tone={message.tone} role="status">{message.text}</Notice> : null}
+      {message ? (
+        <Notice tone={message.tone} role="status">
+          {message.text}
+        </Notice>
+      ) : null}
       <ul className="divide-y divide-steel-200">
         {(Object.keys(LABELS) as (keyof ConsumableReference)[]).map((key) => {
           const v = q.data[key];
           return (
             <li key={key} className="flex flex-wrap items-end justify-between gap-3 py-3">
               <div className="min-w-64 flex-1">
-                <p className="font-semibold">{LABELS[key]}: <span className="tabular-nums">{v.value}{v.unit ? ` ${v.unit}` : ''}</span></p>
+                <p className="font-semibold">
+                  {LABELS[key]}:{' '}
+                  <span className="tabular-nums">
+                    {v.value}
+                    {v.unit ? ` ${v.unit}` : ''}
+                  </span>
+                </p>
                 <p className="text-sm text-steel-700">Source: {v.source}</p>
               </div>
               {canEdit ? (
                 <div className="flex flex-wrap items-end gap-2">
                   <label className="flex flex-col text-sm font-semibold">
                     Site value
-                    <input inputMode="decimal" className="min-h-touch w-28 rounded border border-steel-400 px-2 font-normal" value={draft[key] ?? ''} placeholder={String(v.value)} onChange={(e) => setDraft((d) => ({ ...d, [key]: e.target.value }))} />
+                    <input
+                      inputMode="decimal"
+                      className="min-h-touch w-28 rounded border border-steel-400 px-2 font-normal"
+                      value={draft[key] ?? ''}
+                      placeholder={String(v.value)}
+                      onChange={(e) => setDraft((d) => ({ ...d, [key]: e.target.value }))}
+                    />
                   </label>
-                  <Button variant="secondary" disabled={!draft[key] || update.isPending} onClick={() => save(key, Number(draft[key]))}>Save</Button>
-                  {v.overridden ? <Button variant="ghost" disabled={update.isPending} onClick={() => save(key, null)}>Use default</Button> : null}
+                  <Button variant="secondary" disabled={!draft[key] || update.isPending} onClick={() => save(key, Number(draft[key]))}>
+                    Save
+                  </Button>
+                  {v.overridden ? (
+                    <Button variant="ghost" disabled={update.isPending} onClick={() => save(key, null)}>
+                      Use default
+                    </Button>
+                  ) : null}
                 </div>
               ) : null}
             </li>

@@ -8,6 +8,7 @@ export type CutCheckFilters = { machineId?: string; page: number; pageSize: numb
 
 export const getCutChecks = (f: CutCheckFilters) => api<Page<CutCheckRow>>('/cut-checks', { query: f });
 
-export const getCutChecksQueryOptions = (f: CutCheckFilters) => queryOptions({ queryKey: cutCheckKeys.list(f), queryFn: () => getCutChecks(f), placeholderData: keepPreviousData });
+export const getCutChecksQueryOptions = (f: CutCheckFilters) =>
+  queryOptions({ queryKey: cutCheckKeys.list(f), queryFn: () => getCutChecks(f), placeholderData: keepPreviousData });
 
 export const useCutChecks = (f: CutCheckFilters) => useQuery(getCutChecksQueryOptions(f));

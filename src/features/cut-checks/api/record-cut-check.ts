@@ -10,5 +10,8 @@ export const recordCutCheck = (input: z.input<typeof cutCheckSchema>) => api<Cut
 /** The station page suggests a change after a failed coupon. */
 export function useRecordCutCheck() {
   const qc = useQueryClient();
-  return useMutation({ mutationFn: recordCutCheck, onSuccess: () => Promise.all([qc.invalidateQueries({ queryKey: cutCheckKeys.all }), qc.invalidateQueries({ queryKey: queryRoots.station })]) });
+  return useMutation({
+    mutationFn: recordCutCheck,
+    onSuccess: () => Promise.all([qc.invalidateQueries({ queryKey: cutCheckKeys.all }), qc.invalidateQueries({ queryKey: queryRoots.station })]),
+  });
 }

@@ -12,10 +12,30 @@ const signed = new Intl.NumberFormat(undefined, { signDisplay: 'always', minimum
 const columns = [
   col.accessor('checkedAt', { header: 'When', enableSorting: false, cell: (c) => when.format(new Date(c.getValue())) }),
   col.accessor('torchCode', { header: 'Torch', enableSorting: false }),
-  col.accessor('passed', { header: 'Result', enableSorting: false, cell: (c) => (c.getValue() ? <Badge tone="safe">Within tolerance</Badge> : <Badge tone="danger">Out of tolerance</Badge>) }),
-  col.accessor('dimensions', { header: 'Deviations', enableSorting: false, cell: (c) => c.getValue().map((d) => `${d.label} ${signed.format(d.deviationMm)} mm`).join(' · ') }),
+  col.accessor('passed', {
+    header: 'Result',
+    enableSorting: false,
+    cell: (c) => (c.getValue() ? <Badge tone="safe">Within tolerance</Badge> : <Badge tone="danger">Out of tolerance</Badge>),
+  }),
+  col.accessor('dimensions', {
+    header: 'Deviations',
+    enableSorting: false,
+    cell: (c) =>
+      c
+        .getValue()
+        .map((d) => `${d.label} ${signed.format(d.deviationMm)} mm`)
+        .join(' · '),
+  }),
   col.accessor('toleranceMm', { header: 'Tolerance', enableSorting: false, cell: (c) => `±${c.getValue()} mm` }),
-  col.accessor('installedParts', { header: 'Parts in the torch', enableSorting: false, cell: (c) => c.getValue().map((p) => p.partNumber).join(', ') || '—' }),
+  col.accessor('installedParts', {
+    header: 'Parts in the torch',
+    enableSorting: false,
+    cell: (c) =>
+      c
+        .getValue()
+        .map((p) => p.partNumber)
+        .join(', ') || '—',
+  }),
   col.accessor('by', { header: 'By', enableSorting: false, cell: (c) => c.getValue() ?? '—' }),
 ];
 

@@ -12,6 +12,10 @@ export function useRunPassNow() {
   return useMutation({
     mutationFn: runPassNow,
     onSettled: () =>
-      Promise.all([qc.invalidateQueries({ queryKey: jobRunKeys.all }), qc.invalidateQueries({ queryKey: queryRoots.workOrders }), qc.invalidateQueries({ queryKey: queryRoots.plans })]),
+      Promise.all([
+        qc.invalidateQueries({ queryKey: jobRunKeys.all }),
+        qc.invalidateQueries({ queryKey: queryRoots.workOrders }),
+        qc.invalidateQueries({ queryKey: queryRoots.plans }),
+      ]),
   });
 }

@@ -29,7 +29,11 @@ export function JobRuns({ timeZone }: { timeZone: string }) {
   const fmt = useMemo(() => new Intl.DateTimeFormat('en-GB', { timeZone, dateStyle: 'medium', timeStyle: 'medium' }), [timeZone]);
   const columns = useMemo(
     () => [
-      col.accessor('startedAt', { header: 'Started', enableSorting: false, cell: (c) => <span className="whitespace-nowrap">{fmt.format(new Date(c.getValue()))}</span> }),
+      col.accessor('startedAt', {
+        header: 'Started',
+        enableSorting: false,
+        cell: (c) => <span className="whitespace-nowrap">{fmt.format(new Date(c.getValue()))}</span>,
+      }),
       col.accessor((r) => (r.finishedAt ? new Date(r.finishedAt).getTime() - new Date(r.startedAt).getTime() : null), {
         id: 'took',
         header: 'Took',
@@ -40,9 +44,29 @@ export function JobRuns({ timeZone }: { timeZone: string }) {
       col.accessor('errors', {
         header: 'Problems',
         enableSorting: false,
-        cell: (c) => (c.getValue().length ? <details><summary className="cursor-pointer"><Badge tone="danger">{c.getValue().length} problem{c.getValue().length === 1 ? '' : 's'}</Badge></summary><ul className="mt-1 list-disc pl-5 text-xs">{c.getValue().map((e, i) => <li key={i}>{e.message}</li>)}</ul></details> : <Badge tone="safe">None</Badge>),
+        cell: (c) =>
+          c.getValue().length ? (
+            <details>
+              <summary className="cursor-pointer">
+                <Badge tone="danger">
+                  {c.getValue().length} problem{c.getValue().length === 1 ? '' : 's'}
+                </Badge>
+              </summary>
+              <ul className="mt-1 list-disc pl-5 text-xs">
+                {c.getValue().map((e, i) => (
+                  <li key={i}>{e.message}</li>
+                ))}
+              </ul>
+            </details>
+          ) : (
+            <Badge tone="safe">None</Badge>
+          ),
       }),
-      col.accessor('trigger', { header: 'Started by', enableSorting: false, cell: (c) => (c.getValue() === 'manual' ? `Run now (${c.row.original.triggeredBy ?? 'admin'})` : 'Schedule') }),
+      col.accessor('trigger', {
+        header: 'Started by',
+        enableSorting: false,
+        cell: (c) => (c.getValue() === 'manual' ? `Run now (${c.row.original.triggeredBy ?? 'admin'})` : 'Schedule'),
+      }),
       col.accessor('plansChecked', { header: 'Plans checked', enableSorting: false }),
       col.accessor('plansEvaluated', { header: 'Re-evaluated', enableSorting: false }),
       col.accessor('workOrdersRaised', { header: 'Work raised', enableSorting: false }),
@@ -55,7 +79,12 @@ export function JobRuns({ timeZone }: { timeZone: string }) {
     setMessage(null);
     try {
       const r = await run.mutateAsync();
-      setMessage({ tone: 'safe', text: r.run ? `Pass finished: ${r.run.plansChecked} plans checked, ${r.run.workOrdersRaised} work orders raised, ${r.run.mailsQueued} mails queued.` : r.message });
+      setMessage({
+        tone: 'safe',
+        text: r.run
+          ? `Pass finished: ${r.run.plansChecked} plans checked, ${r.run.workOrdersRaised} work orders raised, ${r.run.mailsQueued} mails queued.`
+          : r.message,
+      });
     } catch (err) {
       setMessage({ tone: err instanceof ApiError && err.status === 409 ? 'caution' : 'danger', text: err instanceof Error ? err.message : 'The pass failed' });
     }
@@ -63,17 +92,27 @@ export function JobRuns({ timeZone }: { timeZone: string }) {
   return (
     <div className="space-y-3">
       <div className="flex flex-wrap items-center gap-3">
-        <Button onClick={runNow} busy={run.isPending}>Run the pass now</Button>
+        <Button onClick={runNow} busy={run.isPending}>
+          Run the pass now
+        </Button>
         <p className="text-sm text-steel-600">The pass also runs on its own every few minutes.</p>
       </div>
-      {message ? <Notice tone={message.tone} role="status">{message.text}</Notice> : null}
+      {message ? (
+        <Notice tone={message.tone} role="status">
+          {message.text}
+        </Notice>
+      ) : null}
       <DataTable
         caption="Scheduled passes"
         columns={columns}
         data={q.data?.rows ?? []}
         loading={q.isLoading}
         getRowId={(r) => r.id}
-        empty={<EmptyState title="No passes recorded yet">Each pass checks every plan, raises the work that has fallen due and queues its mails. Use “Run the pass now” to start one at once.</EmptyState>}
+        empty={
+          <EmptyState title="No passes recorded yet">
+            Each pass checks every plan, raises the work that has fallen due and queues its mails. Use “Run the pass now” to start one at once.
+          </EmptyState>
+        }
         server={{ total: q.data?.total ?? 0, page, pageSize, sorting, onSortingChange: setSorting, onPageChange: setPage }}
       />
     </div>

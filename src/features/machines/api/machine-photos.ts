@@ -6,7 +6,8 @@ import { machineKeys } from './keys';
 export const machinePhotoUrl = (machineId: string, photoId: string) => `/api/machines/${machineId}/photos/${photoId}`;
 
 export const getMachinePhotos = (machineId: string) => api<MachinePhotoRow[]>(`/machines/${machineId}/photos`);
-export const getMachinePhotosQueryOptions = (machineId: string) => queryOptions({ queryKey: machineKeys.photos(machineId), queryFn: () => getMachinePhotos(machineId) });
+export const getMachinePhotosQueryOptions = (machineId: string) =>
+  queryOptions({ queryKey: machineKeys.photos(machineId), queryFn: () => getMachinePhotos(machineId) });
 export const useMachinePhotos = (machineId: string) => useQuery(getMachinePhotosQueryOptions(machineId));
 
 export function useUploadMachinePhoto(machineId: string) {

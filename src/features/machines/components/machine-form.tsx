@@ -15,7 +15,17 @@ type Out = z.output<typeof machineInputSchema>;
 const FIELDS = ['code', 'name', 'kind', 'parentId', 'location', 'serial', 'notes'];
 
 /** Create a machine or component, or edit one (pass `machine`). */
-export function MachineForm({ machines, machine, defaultParentId, onDone }: { machines: MachineRow[]; machine?: MachineRow; defaultParentId?: string; onDone?: (id: string) => void }) {
+export function MachineForm({
+  machines,
+  machine,
+  defaultParentId,
+  onDone,
+}: {
+  machines: MachineRow[];
+  machine?: MachineRow;
+  defaultParentId?: string;
+  onDone?: (id: string) => void;
+}) {
   const create = useCreateMachine();
   const update = useUpdateMachine();
   const [formError, setFormError] = useState<string | null>(null);
@@ -23,7 +33,15 @@ export function MachineForm({ machines, machine, defaultParentId, onDone }: { ma
   const { register, handleSubmit, setError, reset, formState } = useForm<In, unknown, Out>({
     resolver: zodResolver(machineInputSchema),
     defaultValues: machine
-      ? { code: machine.code, name: machine.name, kind: machine.kind, parentId: machine.parentId ?? '', location: machine.location ?? '', serial: machine.serial ?? '', notes: machine.notes ?? '' }
+      ? {
+          code: machine.code,
+          name: machine.name,
+          kind: machine.kind,
+          parentId: machine.parentId ?? '',
+          location: machine.location ?? '',
+          serial: machine.serial ?? '',
+          notes: machine.notes ?? '',
+        }
       : { kind: defaultParentId ? 'torch' : 'punch-plasma-cell', parentId: defaultParentId ?? '' },
   });
   const onSubmit = handleSubmit(async (values) => {
@@ -49,12 +67,25 @@ export function MachineForm({ machines, machine, defaultParentId, onDone }: { ma
   return (
     <form onSubmit={onSubmit} noValidate aria-label={machine ? `Edit ${machine.code}` : 'Add a machine'} className="grid gap-4 md:grid-cols-3">
       <div className="space-y-2 md:col-span-3">
-        {formError ? <Notice tone="danger" role="alert">{formError}</Notice> : null}
-        {saved ? <Notice tone="safe" role="status">{saved}</Notice> : null}
+        {formError ? (
+          <Notice tone="danger" role="alert">
+            {formError}
+          </Notice>
+        ) : null}
+        {saved ? (
+          <Notice tone="safe" role="status">
+            {saved}
+          </Notice>
+        ) : null}
       </div>
       <TextField label="Code" hint="Short, printed on the QR label, e.g. C1" autoComplete="off" error={formState.errors.code?.message} {...register('code')} />
       <TextField label="Name" autoComplete="off" error={formState.errors.name?.message} {...register('name')} />
-      <SelectField label="Kind" error={formState.errors.kind?.message} options={MACHINE_KINDS.map((k) => ({ value: k, label: MACHINE_KIND_LABELS[k] }))} {...register('kind')} />
+      <SelectField
+        label="Kind"
+        error={formState.errors.kind?.message}
+        options={MACHINE_KINDS.map((k) => ({ value: k, label: MACHINE_KIND_LABELS[k] }))}
+        {...register('kind')}
+      />
       <SelectField
         label="Part of"
         hint="Leave empty for a machine; choose its machine for a component"
@@ -65,12 +96,20 @@ export function MachineForm({ machines, machine, defaultParentId, onDone }: { ma
       <TextField label="Location" autoComplete="off" error={formState.errors.location?.message} {...register('location')} />
       <TextField label="Serial number" autoComplete="off" error={formState.errors.serial?.message} {...register('serial')} />
       <div className="space-y-1 md:col-span-3">
-        <label htmlFor="machine-notes" className="block text-sm font-semibold text-steel-800">Notes</label>
+        <label htmlFor="machine-notes" className="block text-sm font-semibold text-steel-800">
+          Notes
+        </label>
         <textarea id="machine-notes" rows={3} className="block w-full rounded border border-steel-400 bg-white px-3 py-2" {...register('notes')} />
-        {formState.errors.notes ? <p className="text-sm font-semibold text-danger" role="alert">{formState.errors.notes.message}</p> : null}
+        {formState.errors.notes ? (
+          <p className="text-sm font-semibold text-danger" role="alert">
+            {formState.errors.notes.message}
+          </p>
+        ) : null}
       </div>
       <div className="md:col-span-3">
-        <Button type="submit" busy={formState.isSubmitting}>{machine ? 'Save changes' : 'Add machine'}</Button>
+        <Button type="submit" busy={formState.isSubmitting}>
+          {machine ? 'Save changes' : 'Add machine'}
+        </Button>
       </div>
     </form>
   );

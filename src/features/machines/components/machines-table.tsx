@@ -14,8 +14,16 @@ export function MachinesTable({ rows, loading, toolbar }: { rows: MachineRow[]; 
       header: 'Code',
       enableHiding: false,
       cell: (c) => (
-        <Link to={paths.machine.getHref(c.row.original.id)} className="inline-flex min-h-touch items-center font-bold text-mandatory-ink underline" style={{ paddingLeft: `${c.row.original.depth * 1.25}rem` }}>
-          {c.row.original.depth > 0 ? <span aria-hidden className="mr-1 text-steel-500">└</span> : null}
+        <Link
+          to={paths.machine.getHref(c.row.original.id)}
+          className="inline-flex min-h-touch items-center font-bold text-mandatory-ink underline"
+          style={{ paddingLeft: `${c.row.original.depth * 1.25}rem` }}
+        >
+          {c.row.original.depth > 0 ? (
+            <span aria-hidden className="mr-1 text-steel-500">
+              └
+            </span>
+          ) : null}
           {c.getValue()}
         </Link>
       ),
@@ -27,5 +35,15 @@ export function MachinesTable({ rows, loading, toolbar }: { rows: MachineRow[]; 
     col.accessor('meterCount', { header: 'Meters' }),
     col.accessor('active', { header: 'Status', cell: (c) => (c.getValue() ? 'In service' : <Badge>Retired</Badge>) }),
   ];
-  return <DataTable caption="Machines and components" columns={columns} data={rows} loading={loading} getRowId={(r) => r.id} toolbar={toolbar} empty={<EmptyState title="No machines yet">Add the first machine with the form above.</EmptyState>} />;
+  return (
+    <DataTable
+      caption="Machines and components"
+      columns={columns}
+      data={rows}
+      loading={loading}
+      getRowId={(r) => r.id}
+      toolbar={toolbar}
+      empty={<EmptyState title="No machines yet">Add the first machine with the form above.</EmptyState>}
+    />
+  );
 }

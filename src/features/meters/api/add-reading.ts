@@ -13,6 +13,11 @@ export function useAddReading() {
   const qc = useQueryClient();
   return useMutation({
     mutationFn: addReading,
-    onSuccess: () => Promise.all([qc.invalidateQueries({ queryKey: meterKeys.all }), qc.invalidateQueries({ queryKey: queryRoots.machines }), qc.invalidateQueries({ queryKey: queryRoots.station })]),
+    onSuccess: () =>
+      Promise.all([
+        qc.invalidateQueries({ queryKey: meterKeys.all }),
+        qc.invalidateQueries({ queryKey: queryRoots.machines }),
+        qc.invalidateQueries({ queryKey: queryRoots.station }),
+      ]),
   });
 }

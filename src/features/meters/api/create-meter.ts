@@ -9,5 +9,8 @@ export const createMeter = (input: z.input<typeof meterInputSchema>) => api<{ id
 
 export function useCreateMeter() {
   const qc = useQueryClient();
-  return useMutation({ mutationFn: createMeter, onSuccess: () => Promise.all([qc.invalidateQueries({ queryKey: meterKeys.all }), qc.invalidateQueries({ queryKey: queryRoots.machines })]) });
+  return useMutation({
+    mutationFn: createMeter,
+    onSuccess: () => Promise.all([qc.invalidateQueries({ queryKey: meterKeys.all }), qc.invalidateQueries({ queryKey: queryRoots.machines })]),
+  });
 }

@@ -74,6 +74,11 @@ export function useImportCounterCsv() {
   const qc = useQueryClient();
   return useMutation({
     mutationFn: ({ file, onProgress }: { file: File; onProgress: (p: UploadProgress) => void }) => importCounterCsv(file, onProgress),
-    onSuccess: () => Promise.all([qc.invalidateQueries({ queryKey: meterKeys.all }), qc.invalidateQueries({ queryKey: queryRoots.machines }), qc.invalidateQueries({ queryKey: queryRoots.station })]),
+    onSuccess: () =>
+      Promise.all([
+        qc.invalidateQueries({ queryKey: meterKeys.all }),
+        qc.invalidateQueries({ queryKey: queryRoots.machines }),
+        qc.invalidateQueries({ queryKey: queryRoots.station }),
+      ]),
   });
 }

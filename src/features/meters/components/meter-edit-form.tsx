@@ -35,18 +35,40 @@ export function MeterEditForm({ meter }: { meter: MeterRow }) {
   return (
     <form onSubmit={onSubmit} noValidate aria-label={`Edit ${meter.name}`} className="grid gap-4 md:grid-cols-3">
       <div className="space-y-2 md:col-span-3">
-        {formError ? <Notice tone="danger" role="alert">{formError}</Notice> : null}
-        {saved ? <Notice tone="safe" role="status">Saved.</Notice> : null}
+        {formError ? (
+          <Notice tone="danger" role="alert">
+            {formError}
+          </Notice>
+        ) : null}
+        {saved ? (
+          <Notice tone="safe" role="status">
+            Saved.
+          </Notice>
+        ) : null}
       </div>
       <TextField label="Name" error={formState.errors.name?.message} {...register('name')} />
       {meter.kind === 'condition' ? (
         <>
-          <TextField label={`Lower limit (${meter.unit})`} inputMode="decimal" hint="Empty for none" error={formState.errors.lowerLimit?.message} {...register('lowerLimit', { setValueAs: num })} />
-          <TextField label={`Upper limit (${meter.unit})`} inputMode="decimal" hint="Empty for none" error={formState.errors.upperLimit?.message} {...register('upperLimit', { setValueAs: num })} />
+          <TextField
+            label={`Lower limit (${meter.unit})`}
+            inputMode="decimal"
+            hint="Empty for none"
+            error={formState.errors.lowerLimit?.message}
+            {...register('lowerLimit', { setValueAs: num })}
+          />
+          <TextField
+            label={`Upper limit (${meter.unit})`}
+            inputMode="decimal"
+            hint="Empty for none"
+            error={formState.errors.upperLimit?.message}
+            {...register('upperLimit', { setValueAs: num })}
+          />
         </>
       ) : null}
       <div className="md:col-span-3">
-        <Button type="submit" busy={formState.isSubmitting}>Save meter</Button>
+        <Button type="submit" busy={formState.isSubmitting}>
+          Save meter
+        </Button>
       </div>
     </form>
   );

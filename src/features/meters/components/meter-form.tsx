@@ -38,22 +38,49 @@ export function MeterForm({ machines }: { machines: Pick<MachineRow, 'id' | 'cod
   return (
     <form onSubmit={onSubmit} noValidate aria-label="Add a meter" className="grid gap-4 md:grid-cols-3">
       <div className="space-y-2 md:col-span-3">
-        {formError ? <Notice tone="danger" role="alert">{formError}</Notice> : null}
-        {saved ? <Notice tone="safe" role="status">{saved}</Notice> : null}
+        {formError ? (
+          <Notice tone="danger" role="alert">
+            {formError}
+          </Notice>
+        ) : null}
+        {saved ? (
+          <Notice tone="safe" role="status">
+            {saved}
+          </Notice>
+        ) : null}
       </div>
-      <SelectField label="On machine" error={formState.errors.machineId?.message} options={machines.map((m) => ({ value: m.id, label: `${m.code} ${m.name}` }))} {...register('machineId')} />
+      <SelectField
+        label="On machine"
+        error={formState.errors.machineId?.message}
+        options={machines.map((m) => ({ value: m.id, label: `${m.code} ${m.name}` }))}
+        {...register('machineId')}
+      />
       <TextField label="Meter code" hint="e.g. arc-starts, pump-hours" autoComplete="off" error={formState.errors.code?.message} {...register('code')} />
       <TextField label="Meter name" autoComplete="off" error={formState.errors.name?.message} {...register('name')} />
-      <SelectField label="Kind" error={formState.errors.kind?.message} options={METER_KINDS.map((k) => ({ value: k, label: KIND_LABEL[k] }))} {...register('kind')} />
-      <SelectField label="Unit" error={formState.errors.unit?.message} options={(METER_UNITS[kind] ?? []).map((u) => ({ value: u, label: u }))} {...register('unit')} />
+      <SelectField
+        label="Kind"
+        error={formState.errors.kind?.message}
+        options={METER_KINDS.map((k) => ({ value: k, label: KIND_LABEL[k] }))}
+        {...register('kind')}
+      />
+      <SelectField
+        label="Unit"
+        error={formState.errors.unit?.message}
+        options={(METER_UNITS[kind] ?? []).map((u) => ({ value: u, label: u }))}
+        {...register('unit')}
+      />
       {kind === 'condition' ? (
         <div className="grid grid-cols-2 gap-3">
           <TextField label="Lower limit" inputMode="decimal" error={formState.errors.lowerLimit?.message} {...register('lowerLimit', { setValueAs: num })} />
           <TextField label="Upper limit" inputMode="decimal" error={formState.errors.upperLimit?.message} {...register('upperLimit', { setValueAs: num })} />
         </div>
-      ) : <div />}
+      ) : (
+        <div />
+      )}
       <div className="md:col-span-3">
-        <Button type="submit" busy={formState.isSubmitting}>Add meter</Button>
+        <Button type="submit" busy={formState.isSubmitting}>
+          Add meter
+        </Button>
       </div>
     </form>
   );

@@ -19,15 +19,15 @@ export function MetersTable({ meters, compact = false }: { meters: MeterRow[]; c
       enableHiding: false,
       cell: (c) => (
         <span className="inline-flex flex-wrap items-center gap-x-2">
-          <Link className="inline-flex min-h-touch items-center font-semibold text-mandatory-ink underline" to={paths.meter.getHref(c.row.original.id)}>{c.getValue()}</Link>
+          <Link className="inline-flex min-h-touch items-center font-semibold text-mandatory-ink underline" to={paths.meter.getHref(c.row.original.id)}>
+            {c.getValue()}
+          </Link>
           {compact ? <span className="text-sm text-steel-700">in {c.row.original.unit}</span> : null}
         </span>
       ),
     }),
     col.accessor('machineCode', { header: 'On' }),
-    ...(compact
-      ? []
-      : [col.accessor('code', { header: 'Code' }), col.accessor('kind', { header: 'Kind', cell: (c) => KIND[c.getValue()] })]),
+    ...(compact ? [] : [col.accessor('code', { header: 'Code' }), col.accessor('kind', { header: 'Kind', cell: (c) => KIND[c.getValue()] })]),
     col.accessor((m) => m.latest?.value ?? null, {
       id: 'latest',
       header: 'Latest',

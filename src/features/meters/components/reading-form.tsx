@@ -18,7 +18,10 @@ export function ReadingForm({ meter }: { meter: MeterRow }) {
   const add = useAddReading();
   const [formError, setFormError] = useState<string | null>(null);
   const [saved, setSaved] = useState<string | null>(null);
-  const { register, handleSubmit, setError, reset, formState } = useForm<In, unknown, Out>({ resolver: zodResolver(readingInputSchema), defaultValues: { isReset: false } });
+  const { register, handleSubmit, setError, reset, formState } = useForm<In, unknown, Out>({
+    resolver: zodResolver(readingInputSchema),
+    defaultValues: { isReset: false },
+  });
   const cumulative = meter.kind !== 'condition';
   const onSubmit = handleSubmit(async (values) => {
     setFormError(null);
@@ -34,8 +37,16 @@ export function ReadingForm({ meter }: { meter: MeterRow }) {
   return (
     <form onSubmit={onSubmit} noValidate aria-label={`New reading for ${meter.name}`} className="grid gap-4 md:grid-cols-2">
       <div className="space-y-2 md:col-span-2">
-        {formError ? <Notice tone="danger" role="alert">{formError}</Notice> : null}
-        {saved ? <Notice tone="safe" role="status">{saved}</Notice> : null}
+        {formError ? (
+          <Notice tone="danger" role="alert">
+            {formError}
+          </Notice>
+        ) : null}
+        {saved ? (
+          <Notice tone="safe" role="status">
+            {saved}
+          </Notice>
+        ) : null}
       </div>
       <TextField
         label={`Reading (${meter.unit})`}
@@ -60,7 +71,9 @@ export function ReadingForm({ meter }: { meter: MeterRow }) {
       ) : null}
       <TextField label="Note (optional)" autoComplete="off" error={formState.errors.note?.message} {...register('note')} />
       <div className="md:col-span-2">
-        <Button type="submit" busy={formState.isSubmitting}>Record reading</Button>
+        <Button type="submit" busy={formState.isSubmitting}>
+          Record reading
+        </Button>
       </div>
     </form>
   );

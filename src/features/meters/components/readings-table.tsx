@@ -41,7 +41,17 @@ export function ReadingsTable({ meter }: { meter: MeterRow }) {
       loading={q.isLoading}
       getRowId={(r) => r.id}
       empty={<EmptyState title="No readings yet" />}
-      server={{ total: q.data?.total ?? 0, page, pageSize, sorting, onSortingChange: (s) => { setSorting(s.length ? s : [{ id: 'readAt', desc: true }]); setPage(1); }, onPageChange: setPage }}
+      server={{
+        total: q.data?.total ?? 0,
+        page,
+        pageSize,
+        sorting,
+        onSortingChange: (s) => {
+          setSorting(s.length ? s : [{ id: 'readAt', desc: true }]);
+          setPage(1);
+        },
+        onPageChange: setPage,
+      }}
     />
   );
 }

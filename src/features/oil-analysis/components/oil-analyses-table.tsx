@@ -29,7 +29,14 @@ export function OilAnalysesTable({ machineId, timeZone }: { machineId?: string; 
       col.display({
         id: 'work',
         header: 'Work',
-        cell: (c) => (c.row.original.workOrder ? <Link className="underline" to={`/work-orders/${c.row.original.workOrder.id}`}>WO {c.row.original.workOrder.number}</Link> : '—'),
+        cell: (c) =>
+          c.row.original.workOrder ? (
+            <Link className="underline" to={`/work-orders/${c.row.original.workOrder.id}`}>
+              WO {c.row.original.workOrder.number}
+            </Link>
+          ) : (
+            '—'
+          ),
       }),
     ],
     [fmt],
@@ -42,7 +49,17 @@ export function OilAnalysesTable({ machineId, timeZone }: { machineId?: string; 
       loading={q.isLoading}
       getRowId={(r) => r.id}
       empty={<EmptyState title="No oil results yet" />}
-      server={{ total: q.data?.total ?? 0, page, pageSize, sorting, onSortingChange: (next) => { setSorting(next); setPage(1); }, onPageChange: setPage }}
+      server={{
+        total: q.data?.total ?? 0,
+        page,
+        pageSize,
+        sorting,
+        onSortingChange: (next) => {
+          setSorting(next);
+          setPage(1);
+        },
+        onPageChange: setPage,
+      }}
     />
   );
 }

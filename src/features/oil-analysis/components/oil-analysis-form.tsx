@@ -25,12 +25,19 @@ export function OilAnalysisForm({ units, defaultMachineId, timeZone }: { units: 
   const [sampled, setSampled] = useState(() => DateTime.now().setZone(timeZone).toFormat("yyyy-MM-dd'T'HH:mm"));
   const { register, handleSubmit, setError, formState, watch, reset } = useForm<In, unknown, Out>({
     resolver: zodResolver(oilAnalysisInput),
-    defaultValues: { machineId: defaultMachineId ?? units[0]?.id ?? '', sampledAt: new Date().toISOString(), viscosity40: null, waterPpm: null, temperatureC: null },
+    defaultValues: {
+      machineId: defaultMachineId ?? units[0]?.id ?? '',
+      sampledAt: new Date().toISOString(),
+      viscosity40: null,
+      waterPpm: null,
+      temperatureC: null,
+    },
   });
   const [g4, g6, g14] = watch(['ge4um', 'ge6um', 'ge14um']);
   let preview: string | null = null;
   try {
-    if ([g4, g6, g14].every((v) => typeof v === 'number' && !Number.isNaN(v))) preview = iso4406Code({ ge4um: g4 as number, ge6um: g6 as number, ge14um: g14 as number });
+    if ([g4, g6, g14].every((v) => typeof v === 'number' && !Number.isNaN(v)))
+      preview = iso4406Code({ ge4um: g4 as number, ge6um: g6 as number, ge14um: g14 as number });
   } catch {
     preview = null;
   }
@@ -48,11 +55,30 @@ export function OilAnalysisForm({ units, defaultMachineId, timeZone }: { units: 
   });
   return (
     <form onSubmit={onSubmit} noValidate aria-label="Record an oil result" className="grid gap-4 md:grid-cols-3">
-      {formError ? <div className="md:col-span-3"><Notice tone="danger" role="alert">{formError}</Notice></div> : null}
-      <SelectField label="Hydraulic unit" error={formState.errors.machineId?.message} options={units.map((u) => ({ value: u.id, label: `${u.code} · ${u.name}` }))} {...register('machineId')} />
+      {formError ? (
+        <div className="md:col-span-3">
+          <Notice tone="danger" role="alert">
+            {formError}
+          </Notice>
+        </div>
+      ) : null}
+      <SelectField
+        label="Hydraulic unit"
+        error={formState.errors.machineId?.message}
+        options={units.map((u) => ({ value: u.id, label: `${u.code} · ${u.name}` }))}
+        {...register('machineId')}
+      />
       <div className="space-y-1">
-        <label htmlFor="oil-sampled" className="block text-sm font-semibold">Sampled at (site time)</label>
-        <input id="oil-sampled" type="datetime-local" className="block w-full min-h-touch rounded border border-steel-400 bg-white px-3 py-2" value={sampled} onChange={(e) => setSampled(e.target.value)} />
+        <label htmlFor="oil-sampled" className="block text-sm font-semibold">
+          Sampled at (site time)
+        </label>
+        <input
+          id="oil-sampled"
+          type="datetime-local"
+          className="block w-full min-h-touch rounded border border-steel-400 bg-white px-3 py-2"
+          value={sampled}
+          onChange={(e) => setSampled(e.target.value)}
+        />
       </div>
       <TextField label="Lab reference" error={formState.errors.labReference?.message} {...register('labReference')} />
       <fieldset className="grid gap-3 md:col-span-3 md:grid-cols-4">
@@ -65,15 +91,48 @@ export function OilAnalysisForm({ units, defaultMachineId, timeZone }: { units: 
           <span className="text-xl font-bold">{preview ?? '—'}</span>
         </div>
       </fieldset>
-      <TextField label="Viscosity at 40 °C (mm²/s)" inputMode="decimal" error={formState.errors.viscosity40?.message} {...register('viscosity40', { setValueAs: numOrNull })} />
+      <TextField
+        label="Viscosity at 40 °C (mm²/s)"
+        inputMode="decimal"
+        error={formState.errors.viscosity40?.message}
+        {...register('viscosity40', { setValueAs: numOrNull })}
+      />
       <TextField label="Water (ppm)" inputMode="decimal" error={formState.errors.waterPpm?.message} {...register('waterPpm', { setValueAs: numOrNull })} />
-      <TextField label="Oil temperature (°C)" inputMode="decimal" error={formState.errors.temperatureC?.message} {...register('temperatureC', { setValueAs: numOrNull })} />
-      <div className="md:col-span-3"><Button type="submit" busy={formState.isSubmitting}>Record result</Button></div>
+      <TextField
+        label="Oil temperature (°C)"
+        inputMode="decimal"
+        error={formState.errors.temperatureC?.message}
+        {...register('temperatureC', { setValueAs: numOrNull })}
+      />
+      <div className="md:col-span-3">
+        <Button type="submit" busy={formState.isSubmitting}>
+          Record result
+        </Button>
+      </div>
       {saved ? (
         <div className="md:col-span-3">
-          <Notice tone={saved.outOfLimits ? 'danger' : 'safe'} title={saved.outOfLimits ? `Outside targets: ${saved.isoCode}` : `Recorded: ${saved.isoCode}`} role="status">
-            {saved.findings.length ? <ul className="list-disc pl-5">{saved.findings.map((f) => <li key={f.message}>{f.message}</li>)}</ul> : 'Within the unit’s targets.'}
-            {saved.workOrder ? <p className="mt-1">Condition work raised: <Link className="font-semibold underline" to={`/work-orders/${saved.workOrder.id}`}>WO {saved.workOrder.number}</Link></p> : null}
+          <Notice
+            tone={saved.outOfLimits ? 'danger' : 'safe'}
+            title={saved.outOfLimits ? `Outside targets: ${saved.isoCode}` : `Recorded: ${saved.isoCode}`}
+            role="status"
+          >
+            {saved.findings.length ? (
+              <ul className="list-disc pl-5">
+                {saved.findings.map((f) => (
+                  <li key={f.message}>{f.message}</li>
+                ))}
+              </ul>
+            ) : (
+              'Within the unit’s targets.'
+            )}
+            {saved.workOrder ? (
+              <p className="mt-1">
+                Condition work raised:{' '}
+                <Link className="font-semibold underline" to={`/work-orders/${saved.workOrder.id}`}>
+                  WO {saved.workOrder.number}
+                </Link>
+              </p>
+            ) : null}
           </Notice>
         </div>
       ) : null}

@@ -15,7 +15,12 @@ export function OilLatest({ row, target, timeZone }: { row: OilAnalysisRow; targ
       value: row.viscosity40 === null ? 'not measured' : `${row.viscosity40} mm²/s`,
       limit: band && target ? `ISO VG ${target.vgGrade}: ${band.min}–${band.max}` : 'no grade set',
     },
-    { key: 'water', label: 'Water', value: row.waterPpm === null ? 'not measured' : `${row.waterPpm} ppm`, limit: target ? `limit ${target.waterLimitPpm} ppm` : 'no limit set' },
+    {
+      key: 'water',
+      label: 'Water',
+      value: row.waterPpm === null ? 'not measured' : `${row.waterPpm} ppm`,
+      limit: target ? `limit ${target.waterLimitPpm} ppm` : 'no limit set',
+    },
     {
       key: 'temperature',
       label: 'Oil temperature',
@@ -41,7 +46,11 @@ export function OilLatest({ row, target, timeZone }: { row: OilAnalysisRow; targ
           </div>
         ))}
       </dl>
-      {row.findings.map((f) => <Notice key={f.message} tone={f.severity}>{f.message}</Notice>)}
+      {row.findings.map((f) => (
+        <Notice key={f.message} tone={f.severity}>
+          {f.message}
+        </Notice>
+      ))}
     </div>
   );
 }

@@ -35,17 +35,46 @@ export function OilTargetForm({ unit }: { unit: HydraulicUnitView }) {
       await save.mutateAsync({ machineId: unit.id, input: v });
       setMessage({ tone: 'safe', text: `Targets for ${unit.code} saved.` });
     } catch (err) {
-      setMessage({ tone: 'danger', text: applyServerErrors(err, setError, ['targetCode', 'vgGrade', 'waterLimitPpm', 'temperatureLimitC']) ?? 'Check the marked fields.' });
+      setMessage({
+        tone: 'danger',
+        text: applyServerErrors(err, setError, ['targetCode', 'vgGrade', 'waterLimitPpm', 'temperatureLimitC']) ?? 'Check the marked fields.',
+      });
     }
   });
   return (
     <form onSubmit={onSubmit} noValidate aria-label={`Targets for ${unit.code}`} className="grid gap-3 md:grid-cols-4">
       <TextField label="Target ISO 4406 code" error={formState.errors.targetCode?.message} placeholder="17/15/12" {...register('targetCode')} />
-      <SelectField label="ISO VG grade" hint={band} error={formState.errors.vgGrade?.message} options={ISO_VG_GRADES.map((g) => ({ value: String(g), label: `VG ${g}` }))} {...register('vgGrade', { setValueAs: (v) => Number(v) })} />
-      <TextField label="Water limit (ppm)" inputMode="decimal" error={formState.errors.waterLimitPpm?.message} {...register('waterLimitPpm', { setValueAs: (v) => Number(v) })} />
-      <TextField label="Temperature limit (°C)" inputMode="decimal" error={formState.errors.temperatureLimitC?.message} {...register('temperatureLimitC', { setValueAs: (v) => (v === '' ? null : Number(v)) })} />
-      <div className="md:col-span-4"><Button type="submit" variant="secondary" busy={formState.isSubmitting}>Save targets</Button></div>
-      {message ? <div className="md:col-span-4"><Notice tone={message.tone} role={message.tone === 'danger' ? 'alert' : 'status'}>{message.text}</Notice></div> : null}
+      <SelectField
+        label="ISO VG grade"
+        hint={band}
+        error={formState.errors.vgGrade?.message}
+        options={ISO_VG_GRADES.map((g) => ({ value: String(g), label: `VG ${g}` }))}
+        {...register('vgGrade', { setValueAs: (v) => Number(v) })}
+      />
+      <TextField
+        label="Water limit (ppm)"
+        inputMode="decimal"
+        error={formState.errors.waterLimitPpm?.message}
+        {...register('waterLimitPpm', { setValueAs: (v) => Number(v) })}
+      />
+      <TextField
+        label="Temperature limit (°C)"
+        inputMode="decimal"
+        error={formState.errors.temperatureLimitC?.message}
+        {...register('temperatureLimitC', { setValueAs: (v) => (v === '' ? null : Number(v)) })}
+      />
+      <div className="md:col-span-4">
+        <Button type="submit" variant="secondary" busy={formState.isSubmitting}>
+          Save targets
+        </Button>
+      </div>
+      {message ? (
+        <div className="md:col-span-4">
+          <Notice tone={message.tone} role={message.tone === 'danger' ? 'alert' : 'status'}>
+            {message.text}
+          </Notice>
+        </div>
+      ) : null}
     </form>
   );
 }

@@ -42,7 +42,14 @@ export function OilTrendCharts({ rows, target, timeZone }: { rows: OilAnalysisRo
               <Line type="linear" dataKey="r4" name="≥4 µm" stroke="#1e2730" strokeWidth={2} dot />
               <Line type="linear" dataKey="r6" name="≥6 µm" stroke="#5d6b78" strokeWidth={2} strokeDasharray="6 3" dot />
               <Line type="linear" dataKey="r14" name="≥14 µm" stroke="#1d4ed8" strokeWidth={2} strokeDasharray="2 2" dot />
-              {t?.ge4um.scale ? <ReferenceLine y={t.ge4um.scale} stroke="#b91c1c" strokeDasharray="4 4" label={{ value: `target ${target?.targetCode}`, fontSize: 11, fill: '#7f1212', position: 'insideTopRight' }} /> : null}
+              {t?.ge4um.scale ? (
+                <ReferenceLine
+                  y={t.ge4um.scale}
+                  stroke="#b91c1c"
+                  strokeDasharray="4 4"
+                  label={{ value: `target ${target?.targetCode}`, fontSize: 11, fill: '#7f1212', position: 'insideTopRight' }}
+                />
+              ) : null}
             </LineChart>
           </ResponsiveContainer>
         </div>

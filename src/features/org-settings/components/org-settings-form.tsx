@@ -14,7 +14,10 @@ const zones = typeof Intl.supportedValuesOf === 'function' ? Intl.supportedValue
 export function OrgSettingsForm({ org }: { org: OrganizationSettings }) {
   const update = useUpdateOrganization();
   const [message, setMessage] = useState<{ tone: 'safe' | 'danger'; text: string } | null>(null);
-  const { register, handleSubmit, setError, watch, formState } = useForm<OrgSettingsInput>({ resolver: zodResolver(orgSettingsSchema), defaultValues: { name: org.name, timeZone: org.timeZone } });
+  const { register, handleSubmit, setError, watch, formState } = useForm<OrgSettingsInput>({
+    resolver: zodResolver(orgSettingsSchema),
+    defaultValues: { name: org.name, timeZone: org.timeZone },
+  });
   const zone = watch('timeZone');
   let preview = '';
   try {
@@ -34,7 +37,11 @@ export function OrgSettingsForm({ org }: { org: OrganizationSettings }) {
   });
   return (
     <form onSubmit={onSubmit} noValidate aria-label="Site settings" className="max-w-xl space-y-4">
-      {message ? <Notice tone={message.tone} role="status">{message.text}</Notice> : null}
+      {message ? (
+        <Notice tone={message.tone} role="status">
+          {message.text}
+        </Notice>
+      ) : null}
       <TextField label="Shop name" error={formState.errors.name?.message} {...register('name')} />
       <TextField
         label="Time zone"
@@ -45,9 +52,13 @@ export function OrgSettingsForm({ org }: { org: OrganizationSettings }) {
         {...register('timeZone')}
       />
       <datalist id="iana-zones">
-        {zones.map((z) => <option key={z} value={z} />)}
+        {zones.map((z) => (
+          <option key={z} value={z} />
+        ))}
       </datalist>
-      <Button type="submit" busy={formState.isSubmitting}>Save settings</Button>
+      <Button type="submit" busy={formState.isSubmitting}>
+        Save settings
+      </Button>
     </form>
   );
 }

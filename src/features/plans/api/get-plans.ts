@@ -8,6 +8,7 @@ export type PlanFilters = Partial<ListPlansQuery> & { page: number; pageSize: nu
 
 export const getPlans = (f: PlanFilters) => api<Page<PlanRow>>('/plans', { query: f });
 
-export const getPlansQueryOptions = (f: PlanFilters) => queryOptions({ queryKey: planKeys.list(f), queryFn: () => getPlans(f), placeholderData: keepPreviousData });
+export const getPlansQueryOptions = (f: PlanFilters) =>
+  queryOptions({ queryKey: planKeys.list(f), queryFn: () => getPlans(f), placeholderData: keepPreviousData });
 
 export const usePlans = (f: PlanFilters) => useQuery(getPlansQueryOptions(f));

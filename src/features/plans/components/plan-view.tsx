@@ -33,7 +33,9 @@ export function PlanView({ plan }: { plan: PlanDetail }) {
           </div>
           <dl className="grid grid-cols-[auto_1fr] gap-x-4 gap-y-1">
             <dt className="font-semibold">Next due</dt>
-            <dd>{formatWhen(plan.nextDueAt, tz)} {plan.nextDueAt ? <span className="text-steel-600">({relative(plan.nextDueAt)})</span> : null}</dd>
+            <dd>
+              {formatWhen(plan.nextDueAt, tz)} {plan.nextDueAt ? <span className="text-steel-600">({relative(plan.nextDueAt)})</span> : null}
+            </dd>
             <dt className="font-semibold">Last done</dt>
             <dd>{plan.lastDoneAt ? formatWhen(plan.lastDoneAt, tz) : 'Not yet'}</dd>
             <dt className="font-semibold">For (role or person)</dt>
@@ -41,13 +43,22 @@ export function PlanView({ plan }: { plan: PlanDetail }) {
           </dl>
           {plan.openWorkOrder ? (
             <Notice tone={plan.status === 'overdue' ? 'danger' : 'caution'} title="Work is open">
-              <Link className="font-semibold underline" to={`/work-orders/${plan.openWorkOrder.id}`}>WO {plan.openWorkOrder.number}</Link> was raised for the current occurrence.
+              <Link className="font-semibold underline" to={`/work-orders/${plan.openWorkOrder.id}`}>
+                WO {plan.openWorkOrder.number}
+              </Link>{' '}
+              was raised for the current occurrence.
             </Notice>
           ) : null}
           <table className="w-full text-left text-sm">
             <caption className="mb-1 text-left font-semibold">Triggers (whichever comes first)</caption>
             <thead>
-              <tr className="border-b border-steel-300"><th scope="col" className="py-1">Trigger</th><th scope="col">Status</th><th scope="col">Due / forecast</th></tr>
+              <tr className="border-b border-steel-300">
+                <th scope="col" className="py-1">
+                  Trigger
+                </th>
+                <th scope="col">Status</th>
+                <th scope="col">Due / forecast</th>
+              </tr>
             </thead>
             <tbody>
               {plan.triggers.map((t, i) => {
@@ -85,20 +96,39 @@ export function PlanView({ plan }: { plan: PlanDetail }) {
         <Panel title="What to do">
           {plan.instructions ? <p className="whitespace-pre-line">{plan.instructions}</p> : <p className="text-steel-600">No instructions written.</p>}
           {plan.estimatedMinutes ? <p className="mt-2 text-sm">Planned time: {plan.estimatedMinutes} min</p> : null}
-          <div className="mt-3"><WorkCaution /></div>
+          <div className="mt-3">
+            <WorkCaution />
+          </div>
         </Panel>
         <Panel title="Checklist">
-          {plan.checklist.length === 0 ? <p className="text-steel-600">No checklist.</p> : (
+          {plan.checklist.length === 0 ? (
+            <p className="text-steel-600">No checklist.</p>
+          ) : (
             <ol className="list-decimal space-y-1 pl-5">
               {plan.checklist.map((c) => (
-                <li key={c.key}>{c.label}{c.kind === 'measure' ? <span className="text-steel-600"> — measured in {c.unit}{c.min !== undefined || c.max !== undefined ? `, OK ${c.min ?? '…'} to ${c.max ?? '…'}` : ''}</span> : null}</li>
+                <li key={c.key}>
+                  {c.label}
+                  {c.kind === 'measure' ? (
+                    <span className="text-steel-600">
+                      {' '}
+                      — measured in {c.unit}
+                      {c.min !== undefined || c.max !== undefined ? `, OK ${c.min ?? '…'} to ${c.max ?? '…'}` : ''}
+                    </span>
+                  ) : null}
+                </li>
               ))}
             </ol>
           )}
         </Panel>
         {plan.parts.length ? (
           <Panel title="Parts to have ready">
-            <ul className="space-y-1">{plan.parts.map((p) => <li key={p.partTypeId}>{p.quantity} {p.stockUnit} · {p.partNumber} {p.name}</li>)}</ul>
+            <ul className="space-y-1">
+              {plan.parts.map((p) => (
+                <li key={p.partTypeId}>
+                  {p.quantity} {p.stockUnit} · {p.partNumber} {p.name}
+                </li>
+              ))}
+            </ul>
           </Panel>
         ) : null}
       </div>

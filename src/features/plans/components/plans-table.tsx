@@ -39,7 +39,9 @@ export function PlansTable({ timeZone, machineId: fixedMachine }: { timeZone: st
         enableHiding: false,
         cell: (c) => (
           <div className="min-w-56">
-            <Link className="inline-flex min-h-touch items-center font-semibold text-mandatory underline" to={`/plans/${c.row.original.id}`}>{c.getValue()}</Link>
+            <Link className="inline-flex min-h-touch items-center font-semibold text-mandatory underline" to={`/plans/${c.row.original.id}`}>
+              {c.getValue()}
+            </Link>
             <p className="text-xs text-steel-600">{c.row.original.triggerSummary}</p>
             <div className="mt-1 flex flex-wrap gap-1">
               {c.row.original.requiresLockout ? <Badge tone="mandatory">Lockout</Badge> : null}
@@ -68,7 +70,11 @@ export function PlansTable({ timeZone, machineId: fixedMachine }: { timeZone: st
   );
   return (
     <div className="space-y-3">
-      {plans.isError ? <Notice tone="danger" role="alert">{plans.error.message}</Notice> : null}
+      {plans.isError ? (
+        <Notice tone="danger" role="alert">
+          {plans.error.message}
+        </Notice>
+      ) : null}
       <DataTable
         caption="Maintenance plans"
         columns={columns}
@@ -76,32 +82,81 @@ export function PlansTable({ timeZone, machineId: fixedMachine }: { timeZone: st
         loading={plans.isLoading}
         getRowId={(r) => r.id}
         empty={<EmptyState title="No plans match">Apply starter plans to a machine, or write a plan of your own.</EmptyState>}
-        server={{ total: plans.data?.total ?? 0, page, pageSize, sorting, onSortingChange: (s) => { setSorting(s); setPage(1); }, onPageChange: setPage }}
+        server={{
+          total: plans.data?.total ?? 0,
+          page,
+          pageSize,
+          sorting,
+          onSortingChange: (s) => {
+            setSorting(s);
+            setPage(1);
+          },
+          onPageChange: setPage,
+        }}
         toolbar={
           <>
             <label className="flex flex-col text-sm font-semibold">
               Search
-              <input className={filterClass} value={q} placeholder="Plan or machine" onChange={(e) => { setQ(e.target.value); setPage(1); }} />
+              <input
+                className={filterClass}
+                value={q}
+                placeholder="Plan or machine"
+                onChange={(e) => {
+                  setQ(e.target.value);
+                  setPage(1);
+                }}
+              />
             </label>
             {fixedMachine ? null : (
               <label className="flex flex-col text-sm font-semibold">
                 Machine
-                <select className={filterClass} value={machineId} onChange={(e) => { setMachineId(e.target.value); setPage(1); }}>
+                <select
+                  className={filterClass}
+                  value={machineId}
+                  onChange={(e) => {
+                    setMachineId(e.target.value);
+                    setPage(1);
+                  }}
+                >
                   <option value="">All machines</option>
-                  {(lookups.data?.machines ?? []).filter((m) => !m.parentId).map((m) => <option key={m.id} value={m.id}>{m.code} · {m.name}</option>)}
+                  {(lookups.data?.machines ?? [])
+                    .filter((m) => !m.parentId)
+                    .map((m) => (
+                      <option key={m.id} value={m.id}>
+                        {m.code} · {m.name}
+                      </option>
+                    ))}
                 </select>
               </label>
             )}
             <label className="flex flex-col text-sm font-semibold">
               Status
-              <select className={filterClass} value={status} onChange={(e) => { setStatus(e.target.value as DueState | ''); setPage(1); }}>
+              <select
+                className={filterClass}
+                value={status}
+                onChange={(e) => {
+                  setStatus(e.target.value as DueState | '');
+                  setPage(1);
+                }}
+              >
                 <option value="">Any status</option>
-                {[...DUE_STATES].reverse().map((s) => <option key={s} value={s}>{DUE_STATE_LABELS[s]}</option>)}
+                {[...DUE_STATES].reverse().map((s) => (
+                  <option key={s} value={s}>
+                    {DUE_STATE_LABELS[s]}
+                  </option>
+                ))}
               </select>
             </label>
             <label className="flex flex-col text-sm font-semibold">
               Plans
-              <select className={filterClass} value={active} onChange={(e) => { setActive(e.target.value as ListPlansQuery['active']); setPage(1); }}>
+              <select
+                className={filterClass}
+                value={active}
+                onChange={(e) => {
+                  setActive(e.target.value as ListPlansQuery['active']);
+                  setPage(1);
+                }}
+              >
                 <option value="true">In use</option>
                 <option value="false">Paused</option>
                 <option value="all">All</option>

@@ -9,5 +9,8 @@ export const createPunchTool = (input: z.input<typeof punchToolInputSchema>) => 
 
 export function useCreatePunchTool() {
   const qc = useQueryClient();
-  return useMutation({ mutationFn: createPunchTool, onSuccess: () => Promise.all([qc.invalidateQueries({ queryKey: punchToolKeys.all }), qc.invalidateQueries({ queryKey: queryRoots.station })]) });
+  return useMutation({
+    mutationFn: createPunchTool,
+    onSuccess: () => Promise.all([qc.invalidateQueries({ queryKey: punchToolKeys.all }), qc.invalidateQueries({ queryKey: queryRoots.station })]),
+  });
 }

@@ -5,6 +5,7 @@ import { punchToolKeys } from './keys';
 
 export const getPunchTools = (machineId?: string) => api<PunchToolRow[]>('/punch-tools', { query: { machineId } });
 
-export const getPunchToolsQueryOptions = (machineId?: string) => queryOptions({ queryKey: punchToolKeys.list(machineId), queryFn: () => getPunchTools(machineId) });
+export const getPunchToolsQueryOptions = (machineId?: string) =>
+  queryOptions({ queryKey: punchToolKeys.list(machineId), queryFn: () => getPunchTools(machineId) });
 
 export const usePunchTools = (machineId?: string) => useQuery(getPunchToolsQueryOptions(machineId));

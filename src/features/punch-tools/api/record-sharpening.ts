@@ -10,5 +10,8 @@ export const recordSharpening = ({ toolId, ...input }: z.input<typeof sharpening
 
 export function useRecordSharpening() {
   const qc = useQueryClient();
-  return useMutation({ mutationFn: recordSharpening, onSuccess: () => Promise.all([qc.invalidateQueries({ queryKey: punchToolKeys.all }), qc.invalidateQueries({ queryKey: queryRoots.station })]) });
+  return useMutation({
+    mutationFn: recordSharpening,
+    onSuccess: () => Promise.all([qc.invalidateQueries({ queryKey: punchToolKeys.all }), qc.invalidateQueries({ queryKey: queryRoots.station })]),
+  });
 }

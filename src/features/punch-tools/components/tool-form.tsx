@@ -27,7 +27,14 @@ export function ToolForm({ machineId, hitMeters }: { machineId: string; hitMeter
     try {
       await create.mutateAsync(values);
       setSaved(`Added tool ${values.code}; its hits count from now.`);
-      reset({ machineId, hitsMeterId: values.hitsMeterId, stationSize: values.stationSize, sharpeningIntervalHits: values.sharpeningIntervalHits, code: '', name: '' });
+      reset({
+        machineId,
+        hitsMeterId: values.hitsMeterId,
+        stationSize: values.stationSize,
+        sharpeningIntervalHits: values.sharpeningIntervalHits,
+        code: '',
+        name: '',
+      });
     } catch (err) {
       setFormError(applyServerErrors(err, setError, ['code', 'name', 'stationSize', 'sharpeningIntervalHits', 'hitsMeterId']));
     }
@@ -36,16 +43,41 @@ export function ToolForm({ machineId, hitMeters }: { machineId: string; hitMeter
   return (
     <form onSubmit={onSubmit} noValidate aria-label="Add a punch tool" className="grid gap-4 md:grid-cols-3">
       <div className="space-y-2 md:col-span-3">
-        {formError ? <Notice tone="danger" role="alert">{formError}</Notice> : null}
-        {saved ? <Notice tone="safe" role="status">{saved}</Notice> : null}
+        {formError ? (
+          <Notice tone="danger" role="alert">
+            {formError}
+          </Notice>
+        ) : null}
+        {saved ? (
+          <Notice tone="safe" role="status">
+            {saved}
+          </Notice>
+        ) : null}
       </div>
       <TextField label="Tool code" autoComplete="off" error={formState.errors.code?.message} {...register('code')} />
       <TextField label="Shape and size" autoComplete="off" hint="e.g. Round 12 mm" error={formState.errors.name?.message} {...register('name')} />
-      <SelectField label="Station size" error={formState.errors.stationSize?.message} options={STATION_SIZES.map((s) => ({ value: s, label: s }))} {...register('stationSize')} />
-      <SelectField label="Hits meter" error={formState.errors.hitsMeterId?.message} options={hitMeters.map((m) => ({ value: m.id, label: `${m.machineCode} ${m.name}` }))} {...register('hitsMeterId')} />
-      <TextField label="Sharpen every (hits)" inputMode="numeric" error={formState.errors.sharpeningIntervalHits?.message} {...register('sharpeningIntervalHits', { setValueAs: (v) => (v === '' ? undefined : Number(v)) })} />
+      <SelectField
+        label="Station size"
+        error={formState.errors.stationSize?.message}
+        options={STATION_SIZES.map((s) => ({ value: s, label: s }))}
+        {...register('stationSize')}
+      />
+      <SelectField
+        label="Hits meter"
+        error={formState.errors.hitsMeterId?.message}
+        options={hitMeters.map((m) => ({ value: m.id, label: `${m.machineCode} ${m.name}` }))}
+        {...register('hitsMeterId')}
+      />
+      <TextField
+        label="Sharpen every (hits)"
+        inputMode="numeric"
+        error={formState.errors.sharpeningIntervalHits?.message}
+        {...register('sharpeningIntervalHits', { setValueAs: (v) => (v === '' ? undefined : Number(v)) })}
+      />
       <div className="md:mt-6">
-        <Button type="submit" busy={formState.isSubmitting}>Add tool</Button>
+        <Button type="submit" busy={formState.isSubmitting}>
+          Add tool
+        </Button>
       </div>
     </form>
   );

@@ -35,23 +35,49 @@ export function ToolsTable({ machineId, canManage }: { machineId?: string; canMa
             <div className="h-3 overflow-hidden rounded border border-steel-400 bg-steel-100" aria-hidden>
               <div className={`h-full ${r.due ? 'bg-caution' : 'bg-steel-600'}`} style={{ width: `${pct}%` }} />
             </div>
-            <span className="tabular-nums">{r.hitsSince === null ? 'no hits counted yet' : `${int.format(r.hitsSince)} of ${int.format(r.sharpeningIntervalHits)} hits`}</span>
+            <span className="tabular-nums">
+              {r.hitsSince === null ? 'no hits counted yet' : `${int.format(r.hitsSince)} of ${int.format(r.sharpeningIntervalHits)} hits`}
+            </span>
           </div>
         );
       },
     }),
-    col.accessor('due', { header: 'State', cell: (c) => (c.getValue() ? <Badge tone="caution">Sharpening due</Badge> : <span className="text-steel-700">Within interval</span>) }),
+    col.accessor('due', {
+      header: 'State',
+      cell: (c) => (c.getValue() ? <Badge tone="caution">Sharpening due</Badge> : <span className="text-steel-700">Within interval</span>),
+    }),
     col.accessor('lastSharpenedAt', { header: 'Last sharpened', cell: (c) => (c.getValue() ? when.format(new Date(c.getValue()!)) : 'not yet') }),
     col.accessor('sharpenings', { header: 'Sharpenings' }),
     ...(canManage
-      ? [col.display({ id: 'act', header: 'Record', cell: (c) => <Button variant="secondary" onClick={() => (setRemoved(''), setPending(c.row.original))} aria-label={`Sharpened ${c.row.original.code}`}>Sharpened</Button> })]
+      ? [
+          col.display({
+            id: 'act',
+            header: 'Record',
+            cell: (c) => (
+              <Button variant="secondary" onClick={() => (setRemoved(''), setPending(c.row.original))} aria-label={`Sharpened ${c.row.original.code}`}>
+                Sharpened
+              </Button>
+            ),
+          }),
+        ]
       : []),
   ];
   if (q.isError) return <Notice tone="danger">{q.error.message}</Notice>;
   return (
     <div className="space-y-3">
-      {message ? <Notice tone={message.tone} role="status">{message.text}</Notice> : null}
-      <DataTable caption="Punch tools" columns={columns} data={q.data ?? []} loading={q.isLoading} getRowId={(r) => r.id} empty={<EmptyState title="No punch tools recorded" />} />
+      {message ? (
+        <Notice tone={message.tone} role="status">
+          {message.text}
+        </Notice>
+      ) : null}
+      <DataTable
+        caption="Punch tools"
+        columns={columns}
+        data={q.data ?? []}
+        loading={q.isLoading}
+        getRowId={(r) => r.id}
+        empty={<EmptyState title="No punch tools recorded" />}
+      />
       <ConfirmDialog
         open={pending !== null}
         title={`Record a sharpening of ${pending?.code ?? ''}`}
@@ -73,7 +99,12 @@ export function ToolsTable({ machineId, canManage }: { machineId?: string; canMa
           <WorkCaution />
           <label className="block space-y-1 text-sm font-semibold">
             Ground off (mm, optional)
-            <input inputMode="decimal" value={removed} onChange={(e) => setRemoved(e.target.value)} className="block min-h-touch w-full rounded border border-steel-400 px-3 font-normal" />
+            <input
+              inputMode="decimal"
+              value={removed}
+              onChange={(e) => setRemoved(e.target.value)}
+              className="block min-h-touch w-full rounded border border-steel-400 px-3 font-normal"
+            />
           </label>
         </div>
       </ConfirmDialog>

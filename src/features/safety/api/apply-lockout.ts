@@ -5,5 +5,8 @@ import { useInvalidateSafetyAndWorkOrders } from './keys';
 
 export function useApplyLockout() {
   const invalidate = useInvalidateSafetyAndWorkOrders();
-  return useMutation({ mutationFn: (input: ApplyLockoutInput) => api<{ id: string; signOffId: string }>('/safety/lockouts', { method: 'POST', body: input }), onSuccess: invalidate });
+  return useMutation({
+    mutationFn: (input: ApplyLockoutInput) => api<{ id: string; signOffId: string }>('/safety/lockouts', { method: 'POST', body: input }),
+    onSuccess: invalidate,
+  });
 }

@@ -4,5 +4,9 @@ import { useInvalidateSafety } from './keys';
 
 export function useCertifyInspection() {
   const invalidate = useInvalidateSafety();
-  return useMutation({ mutationFn: ({ id, password }: { id: string; password: string }) => api<{ id: string }>(`/safety/inspections/${id}/certify`, { method: 'POST', body: { password } }), onSuccess: invalidate });
+  return useMutation({
+    mutationFn: ({ id, password }: { id: string; password: string }) =>
+      api<{ id: string }>(`/safety/inspections/${id}/certify`, { method: 'POST', body: { password } }),
+    onSuccess: invalidate,
+  });
 }

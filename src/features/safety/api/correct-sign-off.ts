@@ -5,5 +5,9 @@ import { useInvalidateSafety } from './keys';
 
 export function useCorrectSignOff() {
   const invalidate = useInvalidateSafety();
-  return useMutation({ mutationFn: ({ id, ...body }: CorrectionInput & { id: string }) => api<{ id: string; seq: number }>(`/safety/sign-offs/${id}/corrections`, { method: 'POST', body }), onSuccess: invalidate });
+  return useMutation({
+    mutationFn: ({ id, ...body }: CorrectionInput & { id: string }) =>
+      api<{ id: string; seq: number }>(`/safety/sign-offs/${id}/corrections`, { method: 'POST', body }),
+    onSuccess: invalidate,
+  });
 }

@@ -5,5 +5,8 @@ import { useInvalidateSafety } from './keys';
 
 export function useCreateProcedure() {
   const invalidate = useInvalidateSafety();
-  return useMutation({ mutationFn: (input: CreateProcedureInput) => api<{ id: string; versionId: string }>('/safety/procedures', { method: 'POST', body: input }), onSuccess: invalidate });
+  return useMutation({
+    mutationFn: (input: CreateProcedureInput) => api<{ id: string; versionId: string }>('/safety/procedures', { method: 'POST', body: input }),
+    onSuccess: invalidate,
+  });
 }

@@ -5,5 +5,8 @@ import { useInvalidateSafety } from './keys';
 
 export function useEndFireWatch() {
   const invalidate = useInvalidateSafety();
-  return useMutation({ mutationFn: ({ id, ...body }: EndFireWatchInput & { id: string }) => api<FireWatchRow>(`/safety/fire-watches/${id}/end`, { method: 'POST', body }), onSuccess: invalidate });
+  return useMutation({
+    mutationFn: ({ id, ...body }: EndFireWatchInput & { id: string }) => api<FireWatchRow>(`/safety/fire-watches/${id}/end`, { method: 'POST', body }),
+    onSuccess: invalidate,
+  });
 }

@@ -3,5 +3,6 @@ import { api } from '../../../lib/api-client';
 import type { InspectionRow } from '../../../../shared/schemas/safety-records';
 import { safetyKeys } from './keys';
 
-export const getInspectionsQueryOptions = () => queryOptions({ queryKey: safetyKeys.inspections(), queryFn: () => api<InspectionRow[]>('/safety/inspections') });
+export const getInspectionsQueryOptions = () =>
+  queryOptions({ queryKey: safetyKeys.inspections(), queryFn: () => api<InspectionRow[]>('/safety/inspections') });
 export const useInspections = () => useQuery(getInspectionsQueryOptions());

@@ -6,5 +6,10 @@ import { safetyKeys } from './keys';
 export type LinkedWorkOrder = { id: string; number: number; title: string; status: string };
 
 export const getLinkedWorkOrderQueryOptions = (id: string) =>
-  queryOptions({ queryKey: [...safetyKeys.all, 'work-order', id] as const, queryFn: () => api<LinkedWorkOrder>(`/work-orders/${id}`), retry: false, staleTime: 60_000 });
+  queryOptions({
+    queryKey: [...safetyKeys.all, 'work-order', id] as const,
+    queryFn: () => api<LinkedWorkOrder>(`/work-orders/${id}`),
+    retry: false,
+    staleTime: 60_000,
+  });
 export const useLinkedWorkOrder = (id: string | null | undefined) => useQuery({ ...getLinkedWorkOrderQueryOptions(id ?? ''), enabled: !!id });

@@ -5,5 +5,6 @@ import { safetyKeys } from './keys';
 
 export type SafetyPerson = { id: string; name: string; role: Role };
 
-export const getSafetyPeopleQueryOptions = () => queryOptions({ queryKey: safetyKeys.people(), queryFn: () => api<SafetyPerson[]>('/safety/people'), staleTime: 5 * 60_000 });
+export const getSafetyPeopleQueryOptions = () =>
+  queryOptions({ queryKey: safetyKeys.people(), queryFn: () => api<SafetyPerson[]>('/safety/people'), staleTime: 5 * 60_000 });
 export const useSafetyPeople = () => useQuery(getSafetyPeopleQueryOptions());

@@ -6,7 +6,11 @@ import type { Page } from '../../../../shared/schemas/paging';
 
 export type SignOffFilters = Partial<ListSignOffsQuery> & { page: number; pageSize: number };
 export const getSignOffsQueryOptions = (f: SignOffFilters) =>
-  queryOptions({ queryKey: safetyKeys.signOffs(f), queryFn: () => api<Page<SignOffRow>>('/safety/sign-offs', { query: f }), placeholderData: keepPreviousData });
+  queryOptions({
+    queryKey: safetyKeys.signOffs(f),
+    queryFn: () => api<Page<SignOffRow>>('/safety/sign-offs', { query: f }),
+    placeholderData: keepPreviousData,
+  });
 export const useSignOffs = (f: SignOffFilters, enabled = true) => useQuery({ ...getSignOffsQueryOptions(f), enabled });
 
 /** Link for the CSV or PDF export with the same filters (the browser downloads it). */

@@ -8,7 +8,8 @@ export type LockoutAction = 'verify' | 'join' | 'leave' | 'handover' | 'accept-h
 export function useLockoutAction(action: LockoutAction) {
   const invalidate = useInvalidateSafetyAndWorkOrders();
   return useMutation({
-    mutationFn: ({ id, body }: { id: string; body: Record<string, unknown> & { password: string } }) => api<{ signOffId: string }>(`/safety/lockouts/${id}/${action}`, { method: 'POST', body }),
+    mutationFn: ({ id, body }: { id: string; body: Record<string, unknown> & { password: string } }) =>
+      api<{ signOffId: string }>(`/safety/lockouts/${id}/${action}`, { method: 'POST', body }),
     onSuccess: invalidate,
   });
 }

@@ -5,5 +5,8 @@ import { useInvalidateSafety } from './keys';
 
 export function useRecordInspection() {
   const invalidate = useInvalidateSafety();
-  return useMutation({ mutationFn: (input: InspectionInput) => api<{ id: string }>('/safety/inspections', { method: 'POST', body: input }), onSuccess: invalidate });
+  return useMutation({
+    mutationFn: (input: InspectionInput) => api<{ id: string }>('/safety/inspections', { method: 'POST', body: input }),
+    onSuccess: invalidate,
+  });
 }

@@ -5,5 +5,8 @@ import { useInvalidateSafety } from './keys';
 
 export function useRecordPpeCheck() {
   const invalidate = useInvalidateSafety();
-  return useMutation({ mutationFn: (input: PpeCheckInput) => api<{ id: string; signOffId: string }>('/safety/ppe/checks', { method: 'POST', body: input }), onSuccess: invalidate });
+  return useMutation({
+    mutationFn: (input: PpeCheckInput) => api<{ id: string; signOffId: string }>('/safety/ppe/checks', { method: 'POST', body: input }),
+    onSuccess: invalidate,
+  });
 }

@@ -6,7 +6,8 @@ import { useInvalidateSafety } from './keys';
 export function useSaveDraft() {
   const invalidate = useInvalidateSafety();
   return useMutation({
-    mutationFn: ({ id, content }: { id: string; content: ProcedureContent }) => api<{ versionId: string; version: number }>(`/safety/procedures/${id}/draft`, { method: 'PUT', body: content }),
+    mutationFn: ({ id, content }: { id: string; content: ProcedureContent }) =>
+      api<{ versionId: string; version: number }>(`/safety/procedures/${id}/draft`, { method: 'PUT', body: content }),
     onSuccess: invalidate,
   });
 }

@@ -5,5 +5,8 @@ import { useInvalidateSafety } from './keys';
 
 export function useStartFireWatch() {
   const invalidate = useInvalidateSafety();
-  return useMutation({ mutationFn: (input: StartFireWatchInput) => api<FireWatchRow>('/safety/fire-watches', { method: 'POST', body: input }), onSuccess: invalidate });
+  return useMutation({
+    mutationFn: (input: StartFireWatchInput) => api<FireWatchRow>('/safety/fire-watches', { method: 'POST', body: input }),
+    onSuccess: invalidate,
+  });
 }

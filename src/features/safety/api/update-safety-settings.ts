@@ -5,5 +5,8 @@ import { useInvalidateSafety } from './keys';
 
 export function useUpdateSafetySettings() {
   const invalidate = useInvalidateSafety();
-  return useMutation({ mutationFn: (input: SafetySettings) => api<SafetySettingsView>('/safety/settings', { method: 'PUT', body: input }), onSuccess: invalidate });
+  return useMutation({
+    mutationFn: (input: SafetySettings) => api<SafetySettingsView>('/safety/settings', { method: 'PUT', body: input }),
+    onSuccess: invalidate,
+  });
 }

@@ -1,7 +1,15 @@
 /** Dates and times in the shop's time zone, so a night-shift record shows the shop's clock, not the viewer's. */
 export function fmtDateTime(iso: string | null | undefined, timeZone: string): string {
   if (!iso) return '—';
-  return new Intl.DateTimeFormat('en-GB', { timeZone, day: '2-digit', month: 'short', year: 'numeric', hour: '2-digit', minute: '2-digit', hour12: false }).format(new Date(iso));
+  return new Intl.DateTimeFormat('en-GB', {
+    timeZone,
+    day: '2-digit',
+    month: 'short',
+    year: 'numeric',
+    hour: '2-digit',
+    minute: '2-digit',
+    hour12: false,
+  }).format(new Date(iso));
 }
 export function fmtTime(iso: string | null | undefined, timeZone: string): string {
   if (!iso) return '—';
@@ -11,7 +19,12 @@ export function fmtDate(isoOrDate: string | null | undefined, timeZone?: string)
   if (!isoOrDate) return '—';
   // Plain dates (YYYY-MM-DD) are calendar days already; do not shift them through a zone.
   const d = /^\d{4}-\d{2}-\d{2}$/.test(isoOrDate) ? new Date(`${isoOrDate}T12:00:00Z`) : new Date(isoOrDate);
-  return new Intl.DateTimeFormat('en-GB', { timeZone: /^\d{4}-\d{2}-\d{2}$/.test(isoOrDate) ? 'UTC' : timeZone, day: '2-digit', month: 'short', year: 'numeric' }).format(d);
+  return new Intl.DateTimeFormat('en-GB', {
+    timeZone: /^\d{4}-\d{2}-\d{2}$/.test(isoOrDate) ? 'UTC' : timeZone,
+    day: '2-digit',
+    month: 'short',
+    year: 'numeric',
+  }).format(d);
 }
 /** Today's calendar date in the shop's zone (YYYY-MM-DD). */
 export function todayIn(timeZone: string): string {

@@ -30,7 +30,10 @@ function Countdown({ w, me, timeZone, onEnd }: { w: FireWatchRow; me: { id: stri
   const mins = Math.floor(Math.max(left, 0) / 60_000);
   const secs = Math.floor((Math.max(left, 0) % 60_000) / 1000);
   return (
-    <article className={`rounded border-l-8 p-4 ${left > 0 ? 'border-caution bg-caution-soft' : 'border-safe bg-safe-soft'}`} aria-label={`Fire watch at ${w.machineCode}`}>
+    <article
+      className={`rounded border-l-8 p-4 ${left > 0 ? 'border-caution bg-caution-soft' : 'border-safe bg-safe-soft'}`}
+      aria-label={`Fire watch at ${w.machineCode}`}
+    >
       <p className="text-lg font-bold">
         {w.machineCode} · {w.machineName} — {w.watcherName}
       </p>
@@ -38,7 +41,8 @@ function Countdown({ w, me, timeZone, onEnd }: { w: FireWatchRow; me: { id: stri
         {left > 0 ? `${String(mins).padStart(2, '0')}:${String(secs).padStart(2, '0')}` : 'Time is up'}
       </p>
       <p>
-        {left > 0 ? `Keep watching until ${fmtTime(w.until, timeZone)}.` : 'The minimum watch is over: check the area once more, then sign.'} Cutting ended {fmtTime(w.cuttingEndedAt, timeZone)}. Rule: {w.ruleLabel} ({w.ruleSource}).
+        {left > 0 ? `Keep watching until ${fmtTime(w.until, timeZone)}.` : 'The minimum watch is over: check the area once more, then sign.'} Cutting ended{' '}
+        {fmtTime(w.cuttingEndedAt, timeZone)}. Rule: {w.ruleLabel} ({w.ruleSource}).
       </p>
       {w.area ? <p className="text-sm">Area: {w.area}</p> : null}
       {w.followUp ? <p className="text-sm text-steel-700">Afterwards: {w.followUp}</p> : null}
@@ -69,17 +73,29 @@ export function HotWork({ me, timeZone }: { me: { id: string; name: string; role
 
   return (
     <div className="space-y-4">
-      {message ? <Notice tone={message.tone} role={message.tone === 'danger' ? 'alert' : 'status'}>{message.text}</Notice> : null}
+      {message ? (
+        <Notice tone={message.tone} role={message.tone === 'danger' ? 'alert' : 'status'}>
+          {message.text}
+        </Notice>
+      ) : null}
       {rule ? (
         <Notice tone="info" title={`Site rule: ${rule.label}`}>
-          {rule.description} Source: {rule.source}. {settings.data?.fireWatchRequired ? 'This site requires a fire watch after every plasma cut near combustibles.' : 'This site does not require a fire watch by default; keep one where the area needs it.'}
+          {rule.description} Source: {rule.source}.{' '}
+          {settings.data?.fireWatchRequired
+            ? 'This site requires a fire watch after every plasma cut near combustibles.'
+            : 'This site does not require a fire watch by default; keep one where the area needs it.'}
         </Notice>
       ) : null}
       <WorkCaution />
       {can(me.role, 'safety.hotwork.sign') ? (
         <Panel title="Start a fire watch now (cutting has just stopped)">
           <div className="grid gap-3 md:grid-cols-[1fr_1fr_auto] md:items-end">
-            <SelectField label="Machine" value={machineId} onChange={(e) => setMachineId(e.target.value)} options={[{ value: '', label: 'Choose a machine' }, ...(machines.data ?? []).map((m) => ({ value: m.id, label: `${m.code} · ${m.name}` }))]} />
+            <SelectField
+              label="Machine"
+              value={machineId}
+              onChange={(e) => setMachineId(e.target.value)}
+              options={[{ value: '', label: 'Choose a machine' }, ...(machines.data ?? []).map((m) => ({ value: m.id, label: `${m.code} · ${m.name}` }))]}
+            />
             <TextField label="Area watched (optional)" value={area} onChange={(e) => setArea(e.target.value)} />
             <Button
               disabled={!machineId}
@@ -130,7 +146,8 @@ export function HotWork({ me, timeZone }: { me: { id: string; name: string; role
           <ul className="space-y-1">
             {ended.map((w) => (
               <li key={w.id}>
-                {w.machineCode}: {w.watcherName}, cutting ended {fmtDateTime(w.cuttingEndedAt, timeZone)}, watch ended {fmtDateTime(w.endedAt, timeZone)} ({w.ruleLabel})
+                {w.machineCode}: {w.watcherName}, cutting ended {fmtDateTime(w.cuttingEndedAt, timeZone)}, watch ended {fmtDateTime(w.endedAt, timeZone)} (
+                {w.ruleLabel})
               </li>
             ))}
           </ul>

@@ -22,10 +22,24 @@ type FormIn = z.input<typeof applyLockoutFormSchema>;
 type FormOut = z.output<typeof applyLockoutFormSchema>;
 
 const defaultDevice = (s: EnergySource): LockDevice =>
-  s.kind === 'gravity' ? 'blocking' : s.kind === 'thermal' || s.kind === 'stored-mechanical' ? 'tag-only' : s.kind === 'hydraulic' ? 'valve-cover' : 'lock-and-tag';
+  s.kind === 'gravity'
+    ? 'blocking'
+    : s.kind === 'thermal' || s.kind === 'stored-mechanical'
+      ? 'tag-only'
+      : s.kind === 'hydraulic'
+        ? 'valve-cover'
+        : 'lock-and-tag';
 
 /** Record the locks as they go on: one row per isolation point the approved procedure names. */
-export function LockoutApplyForm({ signer, initialMachineId, workOrderId }: { signer: { name: string; role: Role }; initialMachineId?: string; workOrderId?: string }) {
+export function LockoutApplyForm({
+  signer,
+  initialMachineId,
+  workOrderId,
+}: {
+  signer: { name: string; role: Role };
+  initialMachineId?: string;
+  workOrderId?: string;
+}) {
   const machines = useSafetyMachines();
   const [machineId, setMachineId] = useState(initialMachineId ?? '');
   const machine = machines.data?.find((m) => m.id === machineId);
@@ -61,7 +75,16 @@ export function LockoutApplyForm({ signer, initialMachineId, workOrderId }: { si
         navigate(paths.safetyLockout.getHref(r.id));
       },
       {
-        onError: (err) => setFormError(applyServerErrors(err, setError, ['procedureId', 'reason', 'workOrderId', 'points', ...values.points.flatMap((_, i) => [`points.${i}.lockNumber`, `points.${i}.sourceKey`, `points.${i}.tagNumber`])])),
+        onError: (err) =>
+          setFormError(
+            applyServerErrors(err, setError, [
+              'procedureId',
+              'reason',
+              'workOrderId',
+              'points',
+              ...values.points.flatMap((_, i) => [`points.${i}.lockNumber`, `points.${i}.sourceKey`, `points.${i}.tagNumber`]),
+            ]),
+          ),
         detail: (
           <ul className="list-disc pl-5">
             {values.points.map((p) => (
@@ -78,110 +101,135 @@ export function LockoutApplyForm({ signer, initialMachineId, workOrderId }: { si
 
   return (
     <>
-    <form onSubmit={onSubmit} noValidate aria-label="Apply a lockout" className="space-y-4">
-      {formError ? (
-        <Notice tone="danger" role="alert">
-          {formError}
-        </Notice>
-      ) : null}
-      <WorkCaution />
-      <Panel title="1. Machine and procedure">
-        <div className="grid gap-4 md:grid-cols-2">
-          <SelectField
-            label="Machine"
-            value={machineId}
-            onChange={(e) => setMachineId(e.target.value)}
-            options={[{ value: '', label: machines.isLoading ? 'Loading…' : 'Choose a machine' }, ...(machines.data ?? []).map((m) => ({ value: m.id, label: `${m.code} · ${m.name}` }))]}
-          />
-          <SelectField
-            label="Energy-control procedure"
-            error={formState.errors.procedureId?.message}
-            disabled={!approved.length}
-            options={approved.length ? approved.map((p) => ({ value: p.id, label: `${p.title} (version ${p.approvedVersion})` })) : [{ value: '', label: machine ? 'No approved procedure for this machine' : 'Choose a machine first' }]}
-            {...register('procedureId')}
-          />
-          <TextField label="Work to be done" hint="What the lockout protects, e.g. “Replace the punch station clamp”." error={formState.errors.reason?.message} {...register('reason')} />
-          <label className="flex min-h-touch items-center gap-3 self-end rounded border border-steel-300 bg-white px-3">
-            <input type="checkbox" className="h-6 w-6" {...register('group')} />
-            <span>
-              <strong>Group lockout</strong> — others will add their personal locks
-            </span>
-          </label>
-          {workOrderId ? (
-            <p className="text-sm text-steel-700 md:col-span-2">
-              For {wo.data ? `WO ${wo.data.number} “${wo.data.title}”` : 'the work order you came from'}: it can be signed off only after this lockout is released.
-            </p>
-          ) : null}
-        </div>
-        {machine && !approved.length ? (
-          <div className="mt-3">
-            <Notice tone="danger" title="Stop: no approved procedure">
-              This machine has no approved energy-control procedure. Do not lock it out from memory; ask the safety officer.
-            </Notice>
-          </div>
+      <form onSubmit={onSubmit} noValidate aria-label="Apply a lockout" className="space-y-4">
+        {formError ? (
+          <Notice tone="danger" role="alert">
+            {formError}
+          </Notice>
         ) : null}
-      </Panel>
-
-      {content ? (
-        <>
-          <Panel title="2. Follow the procedure">
-            <ol className="space-y-2">
-              {PROCEDURE_PHASES.slice(0, 5).map((phase, i) => (
-                <li key={phase}>
-                  <p className="font-semibold">
-                    {i + 1}. {PHASE_LABELS[phase].title} <span className="text-sm font-normal text-steel-600">({PHASE_LABELS[phase].source})</span>
-                  </p>
-                  <ul className="list-disc pl-6 text-steel-800">
-                    {content.steps[phase].map((s, j) => (
-                      <li key={j}>{s}</li>
-                    ))}
-                  </ul>
-                </li>
-              ))}
-            </ol>
-          </Panel>
-          <Panel title="3. Your locks and tags on each isolation point">
-            {formState.errors.points?.message ? (
-              <p role="alert" className="mb-2 font-semibold text-danger">
-                {formState.errors.points.message}
+        <WorkCaution />
+        <Panel title="1. Machine and procedure">
+          <div className="grid gap-4 md:grid-cols-2">
+            <SelectField
+              label="Machine"
+              value={machineId}
+              onChange={(e) => setMachineId(e.target.value)}
+              options={[
+                { value: '', label: machines.isLoading ? 'Loading…' : 'Choose a machine' },
+                ...(machines.data ?? []).map((m) => ({ value: m.id, label: `${m.code} · ${m.name}` })),
+              ]}
+            />
+            <SelectField
+              label="Energy-control procedure"
+              error={formState.errors.procedureId?.message}
+              disabled={!approved.length}
+              options={
+                approved.length
+                  ? approved.map((p) => ({ value: p.id, label: `${p.title} (version ${p.approvedVersion})` }))
+                  : [{ value: '', label: machine ? 'No approved procedure for this machine' : 'Choose a machine first' }]
+              }
+              {...register('procedureId')}
+            />
+            <TextField
+              label="Work to be done"
+              hint="What the lockout protects, e.g. “Replace the punch station clamp”."
+              error={formState.errors.reason?.message}
+              {...register('reason')}
+            />
+            <label className="flex min-h-touch items-center gap-3 self-end rounded border border-steel-300 bg-white px-3">
+              <input type="checkbox" className="h-6 w-6" {...register('group')} />
+              <span>
+                <strong>Group lockout</strong> — others will add their personal locks
+              </span>
+            </label>
+            {workOrderId ? (
+              <p className="text-sm text-steel-700 md:col-span-2">
+                For {wo.data ? `WO ${wo.data.number} “${wo.data.title}”` : 'the work order you came from'}: it can be signed off only after this lockout is
+                released.
               </p>
             ) : null}
-            <div className="space-y-3">
-              {fields.map((f, i) => {
-                const s = content.sources.find((x) => x.key === f.sourceKey);
-                const err = formState.errors.points?.[i];
-                return (
-                  <fieldset key={f.id} className="grid gap-3 rounded border border-steel-300 bg-steel-50 p-3 md:grid-cols-[5rem_1fr_12rem_10rem_9rem]">
-                    <legend className="sr-only">Isolation point {f.sourceKey}</legend>
-                    <span className="flex h-14 min-w-14 justify-self-start items-center justify-center rounded-full bg-caution px-2 text-lg font-bold text-steel-950" aria-hidden>
-                      {f.sourceKey}
-                    </span>
-                    <div className="text-sm">
-                      <p className="font-bold">
-                        {f.sourceKey} · {s ? ENERGY_KIND_LABELS[s.kind] : ''}
-                      </p>
-                      <p>
-                        {s?.isolationDevice} — {s?.location}
-                      </p>
-                      <p className="text-steel-600">{s?.magnitude}</p>
-                    </div>
-                    <SelectField label={`Device on ${f.sourceKey}`} options={LOCK_DEVICES.map((d) => ({ value: d, label: LOCK_DEVICE_LABELS[d] }))} {...register(`points.${i}.device`)} />
-                    <TextField label={`Lock or tag no. on ${f.sourceKey}`} autoComplete="off" error={err?.lockNumber?.message} {...register(`points.${i}.lockNumber`)} />
-                    <TextField label={`Tag no. (optional)`} autoComplete="off" error={err?.tagNumber?.message} {...register(`points.${i}.tagNumber`)} />
-                  </fieldset>
-                );
-              })}
-            </div>
-          </Panel>
-          <div className="flex justify-end">
-            <Button type="submit" variant="danger" className="min-w-64">
-              Sign: my locks are on
-            </Button>
           </div>
-        </>
-      ) : null}
-    </form>
-    {dialog}
+          {machine && !approved.length ? (
+            <div className="mt-3">
+              <Notice tone="danger" title="Stop: no approved procedure">
+                This machine has no approved energy-control procedure. Do not lock it out from memory; ask the safety officer.
+              </Notice>
+            </div>
+          ) : null}
+        </Panel>
+
+        {content ? (
+          <>
+            <Panel title="2. Follow the procedure">
+              <ol className="space-y-2">
+                {PROCEDURE_PHASES.slice(0, 5).map((phase, i) => (
+                  <li key={phase}>
+                    <p className="font-semibold">
+                      {i + 1}. {PHASE_LABELS[phase].title} <span className="text-sm font-normal text-steel-600">({PHASE_LABELS[phase].source})</span>
+                    </p>
+                    <ul className="list-disc pl-6 text-steel-800">
+                      {content.steps[phase].map((s, j) => (
+                        <li key={j}>{s}</li>
+                      ))}
+                    </ul>
+                  </li>
+                ))}
+              </ol>
+            </Panel>
+            <Panel title="3. Your locks and tags on each isolation point">
+              {formState.errors.points?.message ? (
+                <p role="alert" className="mb-2 font-semibold text-danger">
+                  {formState.errors.points.message}
+                </p>
+              ) : null}
+              <div className="space-y-3">
+                {fields.map((f, i) => {
+                  const s = content.sources.find((x) => x.key === f.sourceKey);
+                  const err = formState.errors.points?.[i];
+                  return (
+                    <fieldset key={f.id} className="grid gap-3 rounded border border-steel-300 bg-steel-50 p-3 md:grid-cols-[5rem_1fr_12rem_10rem_9rem]">
+                      <legend className="sr-only">Isolation point {f.sourceKey}</legend>
+                      <span
+                        className="flex h-14 min-w-14 justify-self-start items-center justify-center rounded-full bg-caution px-2 text-lg font-bold text-steel-950"
+                        aria-hidden
+                      >
+                        {f.sourceKey}
+                      </span>
+                      <div className="text-sm">
+                        <p className="font-bold">
+                          {f.sourceKey} · {s ? ENERGY_KIND_LABELS[s.kind] : ''}
+                        </p>
+                        <p>
+                          {s?.isolationDevice} — {s?.location}
+                        </p>
+                        <p className="text-steel-600">{s?.magnitude}</p>
+                      </div>
+                      <SelectField
+                        label={`Device on ${f.sourceKey}`}
+                        options={LOCK_DEVICES.map((d) => ({ value: d, label: LOCK_DEVICE_LABELS[d] }))}
+                        {...register(`points.${i}.device`)}
+                      />
+                      <TextField
+                        label={`Lock or tag no. on ${f.sourceKey}`}
+                        autoComplete="off"
+                        error={err?.lockNumber?.message}
+                        {...register(`points.${i}.lockNumber`)}
+                      />
+                      <TextField label={`Tag no. (optional)`} autoComplete="off" error={err?.tagNumber?.message} {...register(`points.${i}.tagNumber`)} />
+                    </fieldset>
+                  );
+                })}
+              </div>
+            </Panel>
+            <div className="flex justify-end">
+              <Button type="submit" variant="danger" className="min-w-64">
+                Sign: my locks are on
+              </Button>
+            </div>
+          </>
+        ) : null}
+      </form>
+      {dialog}
     </>
   );
 }

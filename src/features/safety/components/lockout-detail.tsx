@@ -29,7 +29,9 @@ type Me = { id: string; name: string; role: Role };
 
 function Check({ label, checked, onChange, hint }: { label: ReactNode; checked: boolean; onChange: (v: boolean) => void; hint?: string }) {
   return (
-    <label className={`flex min-h-touch cursor-pointer items-start gap-3 rounded border px-3 py-2 ${checked ? 'border-safe bg-safe-soft' : 'border-steel-300 bg-white'}`}>
+    <label
+      className={`flex min-h-touch cursor-pointer items-start gap-3 rounded border px-3 py-2 ${checked ? 'border-safe bg-safe-soft' : 'border-steel-300 bg-white'}`}
+    >
       <input type="checkbox" className="mt-1 h-6 w-6 shrink-0" checked={checked} onChange={(e) => onChange(e.target.checked)} />
       <span>
         <span className="font-semibold">{label}</span>
@@ -69,7 +71,8 @@ export function LockoutDetailView({ lockout: l, me, timeZone }: { lockout: Locko
   const [note, setNote] = useState('');
 
   const done = (text: string) => setMessage({ tone: 'safe', text });
-  const failed = (err: unknown) => setMessage({ tone: 'danger', text: err instanceof ApiError ? err.message : 'Could not reach the server. Nothing was signed.' });
+  const failed = (err: unknown) =>
+    setMessage({ tone: 'danger', text: err instanceof ApiError ? err.message : 'Could not reach the server. Nothing was signed.' });
   const run = (meaning: SignMeaning, fn: (password: string) => Promise<unknown>, text: string, detail?: ReactNode) =>
     sign(
       meaning,
@@ -130,13 +133,22 @@ export function LockoutDetailView({ lockout: l, me, timeZone }: { lockout: Locko
           data={l.points}
           getRowId={(p) => p.id}
           columns={[
-            pointCol.accessor('sourceKey', { header: 'Point', cell: (c) => <span className="inline-flex h-9 min-w-9 items-center justify-center rounded-full bg-caution px-2 font-bold">{c.getValue()}</span> }),
+            pointCol.accessor('sourceKey', {
+              header: 'Point',
+              cell: (c) => <span className="inline-flex h-9 min-w-9 items-center justify-center rounded-full bg-caution px-2 font-bold">{c.getValue()}</span>,
+            }),
             pointCol.accessor('sourceKind', { header: 'Energy' }),
             pointCol.accessor('isolationDevice', { header: 'Isolation device', cell: (c) => `${c.getValue()} — ${c.row.original.location}` }),
             pointCol.accessor('device', { header: 'Device', cell: (c) => LOCK_DEVICE_LABELS[c.getValue() as LockPointRow['device']] }),
-            pointCol.accessor('lockNumber', { header: 'Lock / tag', cell: (c) => `${c.getValue()}${c.row.original.tagNumber ? ` / ${c.row.original.tagNumber}` : ''}` }),
+            pointCol.accessor('lockNumber', {
+              header: 'Lock / tag',
+              cell: (c) => `${c.getValue()}${c.row.original.tagNumber ? ` / ${c.row.original.tagNumber}` : ''}`,
+            }),
             pointCol.accessor('holderName', { header: 'Applied by' }),
-            pointCol.accessor('removedAt', { header: 'Status', cell: (c) => (c.getValue() ? `Removed ${fmtDateTime(c.getValue(), timeZone)} by ${c.row.original.removedByName}` : 'On') }),
+            pointCol.accessor('removedAt', {
+              header: 'Status',
+              cell: (c) => (c.getValue() ? `Removed ${fmtDateTime(c.getValue(), timeZone)} by ${c.row.original.removedByName}` : 'On'),
+            }),
           ]}
         />
       </Panel>
@@ -163,7 +175,13 @@ export function LockoutDetailView({ lockout: l, me, timeZone }: { lockout: Locko
             ))}
             <Button
               disabled={!startTried || tested.length !== active.length}
-              onClick={() => run('isolation-verified', (password) => verify.mutateAsync({ id: l.id, body: { testedPointIds: tested, startAttempted: true, password } }), 'Isolation verified and signed. Work may start.')}
+              onClick={() =>
+                run(
+                  'isolation-verified',
+                  (password) => verify.mutateAsync({ id: l.id, body: { testedPointIds: tested, startAttempted: true, password } }),
+                  'Isolation verified and signed. Work may start.',
+                )
+              }
             >
               Sign: zero energy verified
             </Button>
@@ -188,13 +206,25 @@ export function LockoutDetailView({ lockout: l, me, timeZone }: { lockout: Locko
           {authorized && !isPrimary && !myMembership ? (
             <div className="flex flex-wrap items-end gap-3">
               <TextField label="My personal lock number" value={lockNo} onChange={(e) => setLockNo(e.target.value)} autoComplete="off" />
-              <Button disabled={!lockNo.trim()} onClick={() => run('member-joined', (password) => join.mutateAsync({ id: l.id, body: { lockNumber: lockNo.trim(), password } }), `Your lock ${lockNo} is on the group lockout.`)}>
+              <Button
+                disabled={!lockNo.trim()}
+                onClick={() =>
+                  run(
+                    'member-joined',
+                    (password) => join.mutateAsync({ id: l.id, body: { lockNumber: lockNo.trim(), password } }),
+                    `Your lock ${lockNo} is on the group lockout.`,
+                  )
+                }
+              >
                 Sign: my lock is on
               </Button>
             </div>
           ) : null}
           {myMembership ? (
-            <Button variant="secondary" onClick={() => run('member-left', (password) => leave.mutateAsync({ id: l.id, body: { password } }), 'Your personal lock is off.')}>
+            <Button
+              variant="secondary"
+              onClick={() => run('member-left', (password) => leave.mutateAsync({ id: l.id, body: { password } }), 'Your personal lock is off.')}
+            >
               Sign: I removed my lock {myMembership.lockNumber}
             </Button>
           ) : null}
@@ -209,9 +239,24 @@ export function LockoutDetailView({ lockout: l, me, timeZone }: { lockout: Locko
               label="Hand over to"
               value={handoverTo}
               onChange={(e) => setHandoverTo(e.target.value)}
-              options={[{ value: '', label: 'Choose the oncoming person' }, ...(people.data ?? []).filter((p) => p.id !== me.id && (p.role === 'technician' || p.role === 'safety')).map((p) => ({ value: p.id, label: p.name }))]}
+              options={[
+                { value: '', label: 'Choose the oncoming person' },
+                ...(people.data ?? [])
+                  .filter((p) => p.id !== me.id && (p.role === 'technician' || p.role === 'safety'))
+                  .map((p) => ({ value: p.id, label: p.name })),
+              ]}
             />
-            <Button variant="secondary" disabled={!handoverTo} onClick={() => run('handover-offered', (password) => offer.mutateAsync({ id: l.id, body: { toUserId: handoverTo, password } }), 'Hand-over offered. Keep your locks on until it is accepted.')}>
+            <Button
+              variant="secondary"
+              disabled={!handoverTo}
+              onClick={() =>
+                run(
+                  'handover-offered',
+                  (password) => offer.mutateAsync({ id: l.id, body: { toUserId: handoverTo, password } }),
+                  'Hand-over offered. Keep your locks on until it is accepted.',
+                )
+              }
+            >
               Sign: offer hand-over
             </Button>
           </div>
@@ -221,20 +266,28 @@ export function LockoutDetailView({ lockout: l, me, timeZone }: { lockout: Locko
         <Panel title="Hand-over waiting">
           {l.pendingHandoverToId === me.id ? (
             <div className="space-y-3">
-              <p>
-                {l.primaryName} hands this lockout to you. Put your own lock on each point, then sign; their locks come off in the same record.
-              </p>
+              <p>{l.primaryName} hands this lockout to you. Put your own lock on each point, then sign; their locks come off in the same record.</p>
               {active
                 .filter((p) => p.holderId === l.primaryId)
                 .map((p) => (
-                  <TextField key={p.id} label={`Your lock on ${p.sourceKey} (replaces ${p.lockNumber})`} value={newLocks[p.id] ?? ''} onChange={(e) => setNewLocks((s) => ({ ...s, [p.id]: e.target.value }))} autoComplete="off" />
+                  <TextField
+                    key={p.id}
+                    label={`Your lock on ${p.sourceKey} (replaces ${p.lockNumber})`}
+                    value={newLocks[p.id] ?? ''}
+                    onChange={(e) => setNewLocks((s) => ({ ...s, [p.id]: e.target.value }))}
+                    autoComplete="off"
+                  />
                 ))}
               <Button
                 disabled={active.filter((p) => p.holderId === l.primaryId).some((p) => !newLocks[p.id]?.trim())}
                 onClick={() =>
                   run(
                     'handover-accepted',
-                    (password) => accept.mutateAsync({ id: l.id, body: { locks: Object.entries(newLocks).map(([pointId, lockNumber]) => ({ pointId, lockNumber: lockNumber.trim() })), password } }),
+                    (password) =>
+                      accept.mutateAsync({
+                        id: l.id,
+                        body: { locks: Object.entries(newLocks).map(([pointId, lockNumber]) => ({ pointId, lockNumber: lockNumber.trim() })), password },
+                      }),
                     'You hold this lockout now.',
                   )
                 }
@@ -263,21 +316,41 @@ export function LockoutDetailView({ lockout: l, me, timeZone }: { lockout: Locko
                 {activeMembers.map((m) => `${m.name} (${m.lockNumber})`).join(', ')} must remove their own locks first.
               </Notice>
             ) : null}
-            <Check label="Work area checked: tools removed, guards back, machine intact" checked={rel.areaChecked} onChange={(v) => setRel((r) => ({ ...r, areaChecked: v }))} />
+            <Check
+              label="Work area checked: tools removed, guards back, machine intact"
+              checked={rel.areaChecked}
+              onChange={(v) => setRel((r) => ({ ...r, areaChecked: v }))}
+            />
             <Check label="Everyone is clear of the machine" checked={rel.peopleClear} onChange={(v) => setRel((r) => ({ ...r, peopleClear: v }))} />
-            <Check label="Affected employees told the devices are coming off" checked={rel.affectedNotified} onChange={(v) => setRel((r) => ({ ...r, affectedNotified: v }))} />
+            <Check
+              label="Affected employees told the devices are coming off"
+              checked={rel.affectedNotified}
+              onChange={(v) => setRel((r) => ({ ...r, affectedNotified: v }))}
+            />
             <TextField label="Note (optional)" value={note} onChange={(e) => setNote(e.target.value)} />
             <Button
               variant="primary"
               disabled={!rel.areaChecked || !rel.peopleClear || !rel.affectedNotified || activeMembers.length > 0}
-              onClick={() => run('lockout-released', (password) => release.mutateAsync({ id: l.id, body: { areaChecked: true, peopleClear: true, affectedNotified: true, note: note || undefined, password } }), 'Lockout released: your devices are recorded as removed.')}
+              onClick={() =>
+                run(
+                  'lockout-released',
+                  (password) =>
+                    release.mutateAsync({
+                      id: l.id,
+                      body: { areaChecked: true, peopleClear: true, affectedNotified: true, note: note || undefined, password },
+                    }),
+                  'Lockout released: your devices are recorded as removed.',
+                )
+              }
             >
               Sign: release and remove my locks
             </Button>
           </div>
         </Panel>
       ) : null}
-      {open && !isPrimary && authorized ? <p className="text-steel-700">Only {l.primaryName}, who holds the locks, can verify, hand over or release this lockout.</p> : null}
+      {open && !isPrimary && authorized ? (
+        <p className="text-steel-700">Only {l.primaryName}, who holds the locks, can verify, hand over or release this lockout.</p>
+      ) : null}
 
       <Panel title="Signatures on this lockout">
         <ol className="space-y-2">

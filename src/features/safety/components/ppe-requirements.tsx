@@ -7,7 +7,16 @@ import { SelectField, TextField } from '../../../components/ui/field';
 import { Badge, EmptyState, Notice, Panel } from '../../../components/ui/notice';
 import { ConfirmDialog } from '../../../components/ui/confirm-dialog';
 import { applyServerErrors } from '../../../lib/form-errors';
-import { CADENCE_LABELS, CHECK_CADENCES, PPE_ITEM_INFO, PPE_ITEMS, ppeRequirementSchema, type PpeItem, type PpeRequirementInput, type PpeRequirementRow } from '../../../../shared/schemas/safety-ppe';
+import {
+  CADENCE_LABELS,
+  CHECK_CADENCES,
+  PPE_ITEM_INFO,
+  PPE_ITEMS,
+  ppeRequirementSchema,
+  type PpeItem,
+  type PpeRequirementInput,
+  type PpeRequirementRow,
+} from '../../../../shared/schemas/safety-ppe';
 import { deriveRequiredItems } from '../../../../shared/schemas/safety-ppe-derive';
 import type { ShadeTable } from '../../../../shared/domain/shade';
 import { usePpeRequirements } from '../api/get-ppe-requirements';
@@ -17,7 +26,15 @@ import { useSafetyMachines } from '../api/get-safety-machines';
 import { useSafetySettings } from '../api/get-safety-settings';
 import { fmtDateTime } from './format';
 
-type FormValues = { machineId: string; task: string; items: PpeItem[]; otherItems: string; arcCurrentA: string; noise: { levelDbA: string; hours: string }[]; cadence: PpeRequirementInput['cadence'] };
+type FormValues = {
+  machineId: string;
+  task: string;
+  items: PpeItem[];
+  otherItems: string;
+  arcCurrentA: string;
+  noise: { levelDbA: string; hours: string }[];
+  cadence: PpeRequirementInput['cadence'];
+};
 
 const num = (s: string) => (s.trim() === '' ? NaN : Number(s));
 const toInput = (v: FormValues) => ({
@@ -48,7 +65,15 @@ const resolver: Resolver<FormValues> = async (values) => {
   return { values: {}, errors: errors as FieldErrors<FormValues> };
 };
 
-const blank: FormValues = { machineId: '', task: '', items: ['safety-glasses', 'safety-footwear'], otherItems: '', arcCurrentA: '', noise: [], cadence: 'shift' };
+const blank: FormValues = {
+  machineId: '',
+  task: '',
+  items: ['safety-glasses', 'safety-footwear'],
+  otherItems: '',
+  arcCurrentA: '',
+  noise: [],
+  cadence: 'shift',
+};
 const fromRow = (r: PpeRequirementRow): FormValues => ({
   machineId: r.machineId,
   task: r.task,
@@ -73,7 +98,14 @@ function RequirementForm({ editing, onDone }: { editing: PpeRequirementRow | nul
     if (input.arcCurrentA !== null && !Number.isFinite(input.arcCurrentA)) return null;
     const noise = input.noise.filter((n) => Number.isFinite(n.levelDbA) && Number.isFinite(n.hours));
     try {
-      return deriveRequiredItems({ ...input, noise }, { shadeTable: settings.data.shadeTable as ShadeTable | null, hearingRequiredFromDbA: settings.data.hearingRequiredFromDbA, hearingRuleSource: settings.data.hearingRuleSource });
+      return deriveRequiredItems(
+        { ...input, noise },
+        {
+          shadeTable: settings.data.shadeTable as ShadeTable | null,
+          hearingRequiredFromDbA: settings.data.hearingRequiredFromDbA,
+          hearingRuleSource: settings.data.hearingRuleSource,
+        },
+      );
     } catch {
       return null;
     }
@@ -99,7 +131,12 @@ function RequirementForm({ editing, onDone }: { editing: PpeRequirementRow | nul
           </Notice>
         ) : null}
         <div className="grid gap-4 md:grid-cols-3">
-          <SelectField label="Machine" error={e.machineId?.message} options={[{ value: '', label: 'Choose a machine' }, ...(machines.data ?? []).map((m) => ({ value: m.id, label: `${m.code} · ${m.name}` }))]} {...register('machineId')} />
+          <SelectField
+            label="Machine"
+            error={e.machineId?.message}
+            options={[{ value: '', label: 'Choose a machine' }, ...(machines.data ?? []).map((m) => ({ value: m.id, label: `${m.code} · ${m.name}` }))]}
+            {...register('machineId')}
+          />
           <TextField label="Task" hint="e.g. Plasma cutting, Tool change" error={e.task?.message} {...register('task')} />
           <SelectField label="Check" options={CHECK_CADENCES.map((c) => ({ value: c, label: CADENCE_LABELS[c] }))} {...register('cadence')} />
         </div>
@@ -115,7 +152,11 @@ function RequirementForm({ editing, onDone }: { editing: PpeRequirementRow | nul
               </label>
             ))}
           </div>
-          {e.items?.message ? <p role="alert" className="text-sm font-semibold text-danger">{e.items.message}</p> : null}
+          {e.items?.message ? (
+            <p role="alert" className="text-sm font-semibold text-danger">
+              {e.items.message}
+            </p>
+          ) : null}
           <p className="text-sm text-steel-700">The filter lens and hearing protection are added from the arc current and the noise below.</p>
         </fieldset>
         <TextField label="Other items (comma-separated)" error={e.otherItems?.message} {...register('otherItems')} />
@@ -131,7 +172,11 @@ function RequirementForm({ editing, onDone }: { editing: PpeRequirementRow | nul
               </Button>
             </div>
           ))}
-          {e.noise?.message ? <p role="alert" className="text-sm font-semibold text-danger">{e.noise.message}</p> : null}
+          {e.noise?.message ? (
+            <p role="alert" className="text-sm font-semibold text-danger">
+              {e.noise.message}
+            </p>
+          ) : null}
           <Button variant="secondary" onClick={() => append({ levelDbA: '', hours: '' })}>
             Add a noise period
           </Button>
@@ -158,7 +203,9 @@ function RequirementForm({ editing, onDone }: { editing: PpeRequirementRow | nul
             {preview.shade && !preview.shade.ok ? <Notice tone="danger">{preview.shade.message}</Notice> : null}
             {preview.hearing ? (
               <p className="text-sm">
-                Dose {preview.hearing.dosePercent} %, TWA {preview.hearing.twaDbA ?? '—'} dBA: {preview.hearing.required ? 'hearing protection required' : 'below the site threshold'} ({preview.hearing.requiredFromDbA} dBA, {preview.hearing.ruleSource}).
+                Dose {preview.hearing.dosePercent} %, TWA {preview.hearing.twaDbA ?? '—'} dBA:{' '}
+                {preview.hearing.required ? 'hearing protection required' : 'below the site threshold'} ({preview.hearing.requiredFromDbA} dBA,{' '}
+                {preview.hearing.ruleSource}).
               </p>
             ) : null}
           </>
@@ -185,7 +232,16 @@ export function PpeRequirements({ timeZone }: { timeZone: string }) {
           {message}
         </Notice>
       ) : null}
-      <Panel title={editing ? `Change “${editing.task}” at ${editing.machineCode}` : 'Add a PPE requirement'} actions={editing ? <Button variant="ghost" onClick={() => setEditing(null)}>Cancel editing</Button> : null}>
+      <Panel
+        title={editing ? `Change “${editing.task}” at ${editing.machineCode}` : 'Add a PPE requirement'}
+        actions={
+          editing ? (
+            <Button variant="ghost" onClick={() => setEditing(null)}>
+              Cancel editing
+            </Button>
+          ) : null
+        }
+      >
         <RequirementForm key={editing?.id ?? 'new'} editing={editing} onDone={(m) => (setMessage(m), setEditing(null))} />
       </Panel>
       <Panel title="Requirements in force">
@@ -199,11 +255,26 @@ export function PpeRequirements({ timeZone }: { timeZone: string }) {
           columns={[
             col.accessor('machineCode', { header: 'Machine' }),
             col.accessor('task', { header: 'Task' }),
-            col.accessor((r) => r.required.map((i) => i.label).join(', '), { id: 'required', header: 'Required', cell: (c) => <span className="text-sm">{c.getValue() as string}</span> }),
-            col.accessor((r) => (r.shade?.ok ? r.shade.minimum : null), { id: 'shade', header: 'Lens shade', cell: (c) => (c.getValue() ? <Badge tone="mandatory">{`Shade ${c.getValue()}+`}</Badge> : '—') }),
-            col.accessor((r) => r.hearing?.twaDbA ?? null, { id: 'twa', header: 'Noise TWA', cell: (c) => (c.getValue() === null ? '—' : `${c.getValue()} dBA`) }),
+            col.accessor((r) => r.required.map((i) => i.label).join(', '), {
+              id: 'required',
+              header: 'Required',
+              cell: (c) => <span className="text-sm">{c.getValue() as string}</span>,
+            }),
+            col.accessor((r) => (r.shade?.ok ? r.shade.minimum : null), {
+              id: 'shade',
+              header: 'Lens shade',
+              cell: (c) => (c.getValue() ? <Badge tone="mandatory">{`Shade ${c.getValue()}+`}</Badge> : '—'),
+            }),
+            col.accessor((r) => r.hearing?.twaDbA ?? null, {
+              id: 'twa',
+              header: 'Noise TWA',
+              cell: (c) => (c.getValue() === null ? '—' : `${c.getValue()} dBA`),
+            }),
             col.accessor('cadence', { header: 'Check', cell: (c) => CADENCE_LABELS[c.getValue() as PpeRequirementRow['cadence']] }),
-            col.accessor('lastCheckAt', { header: 'Last check', cell: (c) => (c.getValue() ? `${fmtDateTime(c.getValue() as string, timeZone)} · ${c.row.original.lastCheckByName}` : 'Never') }),
+            col.accessor('lastCheckAt', {
+              header: 'Last check',
+              cell: (c) => (c.getValue() ? `${fmtDateTime(c.getValue() as string, timeZone)} · ${c.row.original.lastCheckByName}` : 'Never'),
+            }),
             col.display({
               id: 'actions',
               header: 'Actions',

@@ -1,36 +1,24 @@
-import { useEffect, useMemo, useRef, useState } from "react";
-import { Notice } from "../../../components/ui/notice";
-import { Button } from "../../../components/ui/button";
-import { WorkCaution } from "../../../components/ui/caution";
-import { ApiError } from "../../../lib/api-client";
-import type { Role } from "../../../../shared/permissions";
-import type { PpeRequirementRow } from "../../../../shared/schemas/safety-ppe";
-import { usePpeRequirements } from "../api/get-ppe-requirements";
-import { useRecordPpeCheck } from "../api/record-ppe-check";
-import { useSignFlow } from "./sign-dialog";
-import { fmtDateTime, fmtTime } from "./format";
+import { useEffect, useMemo, useRef, useState } from 'react';
+import { Notice } from '../../../components/ui/notice';
+import { Button } from '../../../components/ui/button';
+import { WorkCaution } from '../../../components/ui/caution';
+import { ApiError } from '../../../lib/api-client';
+import type { Role } from '../../../../shared/permissions';
+import type { PpeRequirementRow } from '../../../../shared/schemas/safety-ppe';
+import { usePpeRequirements } from '../api/get-ppe-requirements';
+import { useRecordPpeCheck } from '../api/record-ppe-check';
+import { useSignFlow } from './sign-dialog';
+import { fmtDateTime, fmtTime } from './format';
 
-const big =
-  "flex min-h-16 w-full items-center justify-between gap-3 rounded border-2 px-4 py-3 text-left text-lg font-semibold";
+const big = 'flex min-h-16 w-full items-center justify-between gap-3 rounded border-2 px-4 py-3 text-left text-lg font-semibold';
 
 /** The shift PPE check at the machine: pick the machine and task, tap each item once it is on, sign. */
-export function PpeStation({
-  me,
-  timeZone,
-  initialMachineId,
-}: {
-  me: { name: string; role: Role };
-  timeZone: string;
-  initialMachineId?: string;
-}) {
+export function PpeStation({ me, timeZone, initialMachineId }: { me: { name: string; role: Role }; timeZone: string; initialMachineId?: string }) {
   const reqs = usePpeRequirements();
   const record = useRecordPpeCheck();
   const { sign, dialog } = useSignFlow(me);
   const machines = useMemo(() => {
-    const map = new Map<
-      string,
-      { id: string; code: string; name: string; reqs: PpeRequirementRow[] }
-    >();
+    const map = new Map<string, { id: string; code: string; name: string; reqs: PpeRequirementRow[] }>();
     for (const r of reqs.data ?? []) {
       const m = map.get(r.machineId) ?? {
         id: r.machineId,
@@ -43,13 +31,10 @@ export function PpeStation({
     }
     return [...map.values()];
   }, [reqs.data]);
-  const [machineId, setMachineId] = useState(initialMachineId ?? "");
+  const [machineId, setMachineId] = useState(initialMachineId ?? '');
   const machine = machines.find((m) => m.id === machineId);
-  const [reqId, setReqId] = useState("");
-  const req =
-    machine?.reqs.length === 1
-      ? machine.reqs[0]
-      : machine?.reqs.find((r) => r.id === reqId);
+  const [reqId, setReqId] = useState('');
+  const req = machine?.reqs.length === 1 ? machine.reqs[0] : machine?.reqs.find((r) => r.id === reqId);
   const [on, setOn] = useState<string[]>([]);
   /** After signing, the page shows only what was signed until a new check is started. */
   const [done, setDone] = useState<{
@@ -66,18 +51,16 @@ export function PpeStation({
   // On a phone the sign button is far below the last item: bring it into view once everything is on.
   useEffect(() => {
     if (!allOn) return;
-    const reduce = window.matchMedia?.(
-      "(prefers-reduced-motion: reduce)",
-    ).matches;
+    const reduce = window.matchMedia?.('(prefers-reduced-motion: reduce)').matches;
     signStep.current?.scrollIntoView?.({
-      block: "nearest",
-      behavior: reduce ? "auto" : "smooth",
+      block: 'nearest',
+      behavior: reduce ? 'auto' : 'smooth',
     });
   }, [allOn]);
 
   const chooseMachine = (id: string) => {
     setMachineId(id);
-    setReqId("");
+    setReqId('');
     setOn([]);
     setDone(null);
   };
@@ -87,8 +70,7 @@ export function PpeStation({
   if (!machines.length)
     return (
       <Notice tone="caution" title="No PPE requirements yet">
-        The safety officer has not set PPE requirements for any machine. Ask
-        before you start.
+        The safety officer has not set PPE requirements for any machine. Ask before you start.
       </Notice>
     );
 
@@ -100,8 +82,7 @@ export function PpeStation({
             PPE check signed ✓
           </h2>
           <p>
-            {done.machine} · {done.task}: signed by {done.by} at {done.at}. Work
-            safely.
+            {done.machine} · {done.task}: signed by {done.by} at {done.at}. Work safely.
           </p>
           <p className="mt-2 font-semibold">Confirmed on:</p>
           <ul className="list-disc pl-5">
@@ -110,11 +91,7 @@ export function PpeStation({
             ))}
           </ul>
         </Notice>
-        <Button
-          variant="secondary"
-          className="min-h-11"
-          onClick={() => (setDone(null), setOn([]))}
-        >
+        <Button variant="secondary" className="min-h-11" onClick={() => (setDone(null), setOn([]))}>
           Start a new check
         </Button>
       </section>
@@ -138,7 +115,7 @@ export function PpeStation({
               type="button"
               aria-pressed={m.id === machineId}
               onClick={() => chooseMachine(m.id)}
-              className={`${big} ${m.id === machineId ? "border-steel-900 bg-steel-900 text-white" : "border-steel-300 bg-white text-steel-900"}`}
+              className={`${big} ${m.id === machineId ? 'border-steel-900 bg-steel-900 text-white' : 'border-steel-300 bg-white text-steel-900'}`}
             >
               <span>
                 {m.code} <span className="font-normal">· {m.name}</span>
@@ -160,7 +137,7 @@ export function PpeStation({
                 type="button"
                 aria-pressed={r.id === req?.id}
                 onClick={() => (setReqId(r.id), setOn([]), setDone(null))}
-                className={`${big} ${r.id === req?.id ? "border-steel-900 bg-steel-900 text-white" : "border-steel-300 bg-white text-steel-900"}`}
+                className={`${big} ${r.id === req?.id ? 'border-steel-900 bg-steel-900 text-white' : 'border-steel-300 bg-white text-steel-900'}`}
               >
                 {r.task}
               </button>
@@ -172,8 +149,7 @@ export function PpeStation({
       {req ? (
         <section aria-labelledby="ppe-items" className="space-y-3">
           <h2 id="ppe-items" className="text-xl font-bold">
-            {machine!.reqs.length > 1 ? "3" : "2"}. Tap each item once you have
-            it on — {req.task}
+            {machine!.reqs.length > 1 ? '3' : '2'}. Tap each item once you have it on — {req.task}
           </h2>
           <WorkCaution />
           <ul className="grid gap-2 md:grid-cols-2">
@@ -184,28 +160,16 @@ export function PpeStation({
                   <button
                     type="button"
                     aria-pressed={isOn}
-                    onClick={() =>
-                      setOn((s) =>
-                        isOn ? s.filter((x) => x !== i.code) : [...s, i.code],
-                      )
-                    }
-                    className={`${big} ${isOn ? "border-safe bg-safe-soft text-safe-ink" : "border-mandatory bg-mandatory-soft text-mandatory-ink"}`}
+                    onClick={() => setOn((s) => (isOn ? s.filter((x) => x !== i.code) : [...s, i.code]))}
+                    className={`${big} ${isOn ? 'border-safe bg-safe-soft text-safe-ink' : 'border-mandatory bg-mandatory-soft text-mandatory-ink'}`}
                   >
                     <span>
                       {i.label}
-                      {i.detail ? (
-                        <span className="block text-sm font-normal">
-                          {i.detail}
-                        </span>
-                      ) : null}
-                      <span className="block text-xs font-normal">
-                        Source: {i.source}
-                      </span>
+                      {i.detail ? <span className="block text-sm font-normal">{i.detail}</span> : null}
+                      <span className="block text-xs font-normal">Source: {i.source}</span>
                     </span>
-                    <span
-                      className={`shrink-0 rounded px-2 py-1 text-sm font-bold ${isOn ? "bg-safe text-white" : "bg-mandatory text-white"}`}
-                    >
-                      {isOn ? "On ✓" : "Not yet on"}
+                    <span className={`shrink-0 rounded px-2 py-1 text-sm font-bold ${isOn ? 'bg-safe text-white' : 'bg-mandatory text-white'}`}>
+                      {isOn ? 'On ✓' : 'Not yet on'}
                     </span>
                   </button>
                 </li>
@@ -214,24 +178,19 @@ export function PpeStation({
           </ul>
           {req.hearing ? (
             <p className="text-sm text-steel-700">
-              Noise at this task: 8-hour TWA {req.hearing.twaDbA ?? "—"} dBA
-              (dose {req.hearing.dosePercent} %, OSHA 29 CFR 1910.95 App. A).
-              Hearing protection required from {req.hearing.requiredFromDbA} dBA
-              — {req.hearing.ruleSource}.
+              Noise at this task: 8-hour TWA {req.hearing.twaDbA ?? '—'} dBA (dose {req.hearing.dosePercent} %, OSHA 29 CFR 1910.95 App. A). Hearing protection
+              required from {req.hearing.requiredFromDbA} dBA — {req.hearing.ruleSource}.
             </p>
           ) : null}
           {req.lastCheckAt ? (
             <p className="text-sm text-steel-700">
-              Last check on this task: {req.lastCheckByName},{" "}
-              {fmtDateTime(req.lastCheckAt, timeZone)}.
+              Last check on this task: {req.lastCheckByName}, {fmtDateTime(req.lastCheckAt, timeZone)}.
             </p>
           ) : null}
           <div ref={signStep} className="space-y-3">
             {missing.length ? (
               <Notice tone="danger" title="Do not start yet">
-                Still to put on:{" "}
-                {missing.map((m) => m.label.toLowerCase()).join(", ")}. If an
-                item is missing or damaged, get a replacement or tell your
+                Still to put on: {missing.map((m) => m.label.toLowerCase()).join(', ')}. If an item is missing or damaged, get a replacement or tell your
                 supervisor.
               </Notice>
             ) : (
@@ -244,7 +203,7 @@ export function PpeStation({
               disabled={missing.length > 0}
               onClick={() =>
                 sign(
-                  "ppe-check-done",
+                  'ppe-check-done',
                   async (password) => {
                     setError(null);
                     await record.mutateAsync({
@@ -257,19 +216,12 @@ export function PpeStation({
                       task: req.task,
                       by: me.name,
                       at: fmtTime(new Date().toISOString(), timeZone),
-                      items: req.required
-                        .filter((i) => on.includes(i.code))
-                        .map((i) => i.label),
+                      items: req.required.filter((i) => on.includes(i.code)).map((i) => i.label),
                     });
                     setOn([]);
                   },
                   {
-                    onError: (err) =>
-                      setError(
-                        err instanceof ApiError
-                          ? err.message
-                          : "Could not reach the server; the check was not recorded.",
-                      ),
+                    onError: (err) => setError(err instanceof ApiError ? err.message : 'Could not reach the server; the check was not recorded.'),
                   },
                 )
               }

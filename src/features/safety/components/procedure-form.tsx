@@ -39,7 +39,18 @@ const fromContent = (c: ProcedureContent | undefined, machineId: string, machine
   machineId,
   title: c?.title ?? '',
   scope: c?.scope ?? '',
-  sources: c?.sources ?? [{ key: pointTag(machineCode, 1), kind: 'electrical', description: '', magnitude: '', isolationDevice: '', location: '', relieveMethod: '', verifyMethod: '' }],
+  sources: c?.sources ?? [
+    {
+      key: pointTag(machineCode, 1),
+      kind: 'electrical',
+      description: '',
+      magnitude: '',
+      isolationDevice: '',
+      location: '',
+      relieveMethod: '',
+      verifyMethod: '',
+    },
+  ],
   steps: Object.fromEntries(PROCEDURE_PHASES.map((p) => [p, (c?.steps[p] ?? []).join('\n')])) as Record<ProcedurePhase, string>,
   release: (c?.release ?? []).join('\n'),
 });
@@ -117,7 +128,15 @@ export function ProcedureForm({
     try {
       await onSubmit({ machineId: v.machineId, content: toContent(v) });
     } catch (err) {
-      const names = ['machineId', 'title', 'scope', 'sources', 'release', ...PROCEDURE_PHASES.map((p) => `steps.${p}`), ...v.sources.flatMap((_, i) => Object.keys(v.sources[0]).map((k) => `sources.${i}.${k}`))];
+      const names = [
+        'machineId',
+        'title',
+        'scope',
+        'sources',
+        'release',
+        ...PROCEDURE_PHASES.map((p) => `steps.${p}`),
+        ...v.sources.flatMap((_, i) => Object.keys(v.sources[0]).map((k) => `sources.${i}.${k}`)),
+      ];
       setFormError(applyServerErrors(err, setError, names));
     }
   });
@@ -137,7 +156,12 @@ export function ProcedureForm({
       <Panel title="What the procedure covers">
         <div className="grid gap-4 md:grid-cols-2">
           {creating ? (
-            <SelectField label="Machine" error={e.machineId?.message} options={[{ value: '', label: 'Choose a machine' }, ...(machines ?? []).map((m) => ({ value: m.id, label: m.label }))]} {...register('machineId')} />
+            <SelectField
+              label="Machine"
+              error={e.machineId?.message}
+              options={[{ value: '', label: 'Choose a machine' }, ...(machines ?? []).map((m) => ({ value: m.id, label: m.label }))]}
+              {...register('machineId')}
+            />
           ) : (
             <p className="self-center font-semibold">Machine: {fixedMachine?.label}</p>
           )}
@@ -147,7 +171,11 @@ export function ProcedureForm({
               Scope: which work this procedure is for
             </label>
             <textarea id="proc-scope" className={`${area} ${e.scope ? 'border-danger' : 'border-steel-400'}`} {...register('scope')} />
-            {e.scope ? <p role="alert" className="text-sm font-semibold text-danger">{e.scope.message}</p> : null}
+            {e.scope ? (
+              <p role="alert" className="text-sm font-semibold text-danger">
+                {e.scope.message}
+              </p>
+            ) : null}
           </div>
         </div>
       </Panel>
@@ -155,20 +183,50 @@ export function ProcedureForm({
       <Panel
         title="Energy sources and isolation points"
         actions={
-          <Button variant="secondary" onClick={() => append({ key: nextPointTag(machineCode, getValues('sources').map((x) => x.key)), kind: 'other', description: '', magnitude: '', isolationDevice: '', location: '', relieveMethod: '', verifyMethod: '' })}>
+          <Button
+            variant="secondary"
+            onClick={() =>
+              append({
+                key: nextPointTag(
+                  machineCode,
+                  getValues('sources').map((x) => x.key),
+                ),
+                kind: 'other',
+                description: '',
+                magnitude: '',
+                isolationDevice: '',
+                location: '',
+                relieveMethod: '',
+                verifyMethod: '',
+              })
+            }
+          >
             Add energy source
           </Button>
         }
       >
-        {e.sources?.message ? <p role="alert" className="mb-2 font-semibold text-danger">{e.sources.message}</p> : null}
+        {e.sources?.message ? (
+          <p role="alert" className="mb-2 font-semibold text-danger">
+            {e.sources.message}
+          </p>
+        ) : null}
         <div className="space-y-4">
           {fields.map((f, i) => {
             const se = e.sources?.[i];
             return (
               <fieldset key={f.id} className="grid gap-3 rounded border border-steel-300 bg-steel-50 p-3 md:grid-cols-4">
                 <legend className="px-1 font-bold">Energy source {i + 1}</legend>
-                <TextField label="Tag at the point" hint={`e.g. ${pointTag(machineCode || 'C2', i + 1)}: machine code, E and a number`} error={se?.key?.message} {...register(`sources.${i}.key`)} />
-                <SelectField label="Kind of energy" options={ENERGY_KINDS.map((k) => ({ value: k, label: ENERGY_KIND_LABELS[k] }))} {...register(`sources.${i}.kind`)} />
+                <TextField
+                  label="Tag at the point"
+                  hint={`e.g. ${pointTag(machineCode || 'C2', i + 1)}: machine code, E and a number`}
+                  error={se?.key?.message}
+                  {...register(`sources.${i}.key`)}
+                />
+                <SelectField
+                  label="Kind of energy"
+                  options={ENERGY_KINDS.map((k) => ({ value: k, label: ENERGY_KIND_LABELS[k] }))}
+                  {...register(`sources.${i}.kind`)}
+                />
                 <TextField label="Description" error={se?.description?.message} {...register(`sources.${i}.description`)} />
                 <TextField label="Magnitude" hint="e.g. 480 V 3-phase; 210 bar" error={se?.magnitude?.message} {...register(`sources.${i}.magnitude`)} />
                 <TextField label="Isolation device" error={se?.isolationDevice?.message} {...register(`sources.${i}.isolationDevice`)} />
@@ -195,8 +253,17 @@ export function ProcedureForm({
                 <label htmlFor={`steps-${phase}`} className="block text-sm font-semibold">
                   {i + 1}. {PHASE_LABELS[phase].title} <span className="font-normal text-steel-600">({PHASE_LABELS[phase].source})</span>
                 </label>
-                <textarea id={`steps-${phase}`} aria-invalid={err ? true : undefined} className={`${area} ${err ? 'border-danger' : 'border-steel-400'}`} {...register(`steps.${phase}`)} />
-                {err ? <p role="alert" className="text-sm font-semibold text-danger">{err}</p> : null}
+                <textarea
+                  id={`steps-${phase}`}
+                  aria-invalid={err ? true : undefined}
+                  className={`${area} ${err ? 'border-danger' : 'border-steel-400'}`}
+                  {...register(`steps.${phase}`)}
+                />
+                {err ? (
+                  <p role="alert" className="text-sm font-semibold text-danger">
+                    {err}
+                  </p>
+                ) : null}
               </div>
             );
           })}
@@ -204,8 +271,17 @@ export function ProcedureForm({
             <label htmlFor="steps-release" className="block text-sm font-semibold">
               Release from lockout <span className="font-normal text-steel-600">(1910.147(e))</span>
             </label>
-            <textarea id="steps-release" aria-invalid={e.release ? true : undefined} className={`${area} ${e.release ? 'border-danger' : 'border-steel-400'}`} {...register('release')} />
-            {e.release ? <p role="alert" className="text-sm font-semibold text-danger">{e.release.message}</p> : null}
+            <textarea
+              id="steps-release"
+              aria-invalid={e.release ? true : undefined}
+              className={`${area} ${e.release ? 'border-danger' : 'border-steel-400'}`}
+              {...register('release')}
+            />
+            {e.release ? (
+              <p role="alert" className="text-sm font-semibold text-danger">
+                {e.release.message}
+              </p>
+            ) : null}
           </div>
         </div>
       </Panel>

@@ -31,7 +31,9 @@ export function VersionText({ procedureId, v }: { procedureId: string; v: Versio
           {c.sources.map((s) => (
             <article key={s.key} className="rounded border border-steel-300 bg-white p-3">
               <div className="flex items-start gap-3">
-                <span className="flex h-12 min-w-12 shrink-0 items-center justify-center rounded-full bg-caution px-2 text-base font-bold text-steel-950">{s.key}</span>
+                <span className="flex h-12 min-w-12 shrink-0 items-center justify-center rounded-full bg-caution px-2 text-base font-bold text-steel-950">
+                  {s.key}
+                </span>
                 <div>
                   <p className="font-bold">{ENERGY_KIND_LABELS[s.kind]}</p>
                   <p className="text-sm">
@@ -54,7 +56,11 @@ export function VersionText({ procedureId, v }: { procedureId: string; v: Versio
                   .filter((p) => p.sourceKey === s.key)
                   .map((p) => (
                     <figure key={p.id} className="w-32">
-                      <img src={`/api/safety/procedures/${procedureId}/photos/${p.id}`} alt={`Isolation point ${s.key}${p.caption ? `: ${p.caption}` : ''}`} className="h-24 w-32 rounded border border-steel-300 object-cover" />
+                      <img
+                        src={`/api/safety/procedures/${procedureId}/photos/${p.id}`}
+                        alt={`Isolation point ${s.key}${p.caption ? `: ${p.caption}` : ''}`}
+                        className="h-24 w-32 rounded border border-steel-300 object-cover"
+                      />
                       {p.caption ? <figcaption className="text-xs">{p.caption}</figcaption> : null}
                     </figure>
                   ))}
@@ -97,7 +103,17 @@ export function VersionText({ procedureId, v }: { procedureId: string; v: Versio
   );
 }
 
-export function ProcedureView({ p, me, timeZone, viewingVersion }: { p: ProcedureDetail; me: { name: string; role: Role }; timeZone: string; viewingVersion?: number }) {
+export function ProcedureView({
+  p,
+  me,
+  timeZone,
+  viewingVersion,
+}: {
+  p: ProcedureDetail;
+  me: { name: string; role: Role };
+  timeZone: string;
+  viewingVersion?: number;
+}) {
   const manage = can(me.role, 'safety.procedures.manage');
   const approve = useApproveVersion();
   const upload = useUploadPhoto();
@@ -117,12 +133,22 @@ export function ProcedureView({ p, me, timeZone, viewingVersion }: { p: Procedur
       <div className="flex flex-wrap items-center gap-2">
         <span className="text-sm font-semibold">Versions:</span>
         {p.versions.map((v) => (
-          <Link key={v.id} to={paths.safetyProcedure.getHref(p.id, v.version)} className="flex min-h-touch items-center gap-2 rounded border border-steel-300 bg-white px-3 text-sm" aria-current={shown?.version === v.version ? 'page' : undefined}>
+          <Link
+            key={v.id}
+            to={paths.safetyProcedure.getHref(p.id, v.version)}
+            className="flex min-h-touch items-center gap-2 rounded border border-steel-300 bg-white px-3 text-sm"
+            aria-current={shown?.version === v.version ? 'page' : undefined}
+          >
             v{v.version} <Badge tone={statusTone[v.status]}>{v.status}</Badge>
           </Link>
         ))}
         {shown?.status === 'approved' ? (
-          <a className="ml-auto flex min-h-touch items-center rounded bg-steel-800 px-4 font-semibold text-white" href={`/api/safety/procedures/${p.id}/placard.pdf?version=${shown.version}`} target="_blank" rel="noreferrer">
+          <a
+            className="ml-auto flex min-h-touch items-center rounded bg-steel-800 px-4 font-semibold text-white"
+            href={`/api/safety/procedures/${p.id}/placard.pdf?version=${shown.version}`}
+            target="_blank"
+            rel="noreferrer"
+          >
             Print placard (PDF)
           </a>
         ) : null}
@@ -141,7 +167,11 @@ export function ProcedureView({ p, me, timeZone, viewingVersion }: { p: Procedur
       {shown ? (
         <Panel
           title={`Version ${shown.version} — ${shown.content.title}`}
-          actions={<span className="text-sm text-steel-700">{shown.approvedAt ? `Approved ${fmtDateTime(shown.approvedAt, timeZone)} by ${shown.approvedByName}` : `Draft by ${shown.authorName}`}</span>}
+          actions={
+            <span className="text-sm text-steel-700">
+              {shown.approvedAt ? `Approved ${fmtDateTime(shown.approvedAt, timeZone)} by ${shown.approvedByName}` : `Draft by ${shown.authorName}`}
+            </span>
+          }
         >
           <WorkCaution />
           <div className="mt-4">
@@ -155,7 +185,16 @@ export function ProcedureView({ p, me, timeZone, viewingVersion }: { p: Procedur
       )}
 
       {draft ? (
-        <Panel title={`Draft version ${draft.version}`} actions={manage ? <Link className="font-semibold underline" to={paths.safetyProcedureEdit.getHref(p.id)}>Edit the draft</Link> : null}>
+        <Panel
+          title={`Draft version ${draft.version}`}
+          actions={
+            manage ? (
+              <Link className="font-semibold underline" to={paths.safetyProcedureEdit.getHref(p.id)}>
+                Edit the draft
+              </Link>
+            ) : null
+          }
+        >
           <p className="mb-3 text-sm text-steel-700">
             Saved by {draft.authorName}, {fmtDateTime(draft.createdAt, timeZone)}. A draft is not in force until it is approved.
           </p>
@@ -171,7 +210,11 @@ export function ProcedureView({ p, me, timeZone, viewingVersion }: { p: Procedur
                   <ul className="flex flex-wrap gap-2">
                     {draft.photos.map((ph) => (
                       <li key={ph.id} className="flex items-center gap-2 rounded border border-steel-200 p-1 text-sm">
-                        <img src={`/api/safety/procedures/${p.id}/photos/${ph.id}`} alt={`Isolation point ${ph.sourceKey}`} className="h-12 w-16 object-cover" />
+                        <img
+                          src={`/api/safety/procedures/${p.id}/photos/${ph.id}`}
+                          alt={`Isolation point ${ph.sourceKey}`}
+                          className="h-12 w-16 object-cover"
+                        />
                         {ph.sourceKey}
                         <Button variant="ghost" onClick={() => del.mutate({ id: p.id, photoId: ph.id })}>
                           Remove
@@ -181,12 +224,23 @@ export function ProcedureView({ p, me, timeZone, viewingVersion }: { p: Procedur
                   </ul>
                 ) : null}
                 <div className="grid gap-3 md:grid-cols-[10rem_1fr_1fr_auto] md:items-end">
-                  <SelectField label="Isolation point" value={photoKey} onChange={(e) => setPhotoKey(e.target.value)} options={[{ value: '', label: 'Choose' }, ...draft.content.sources.map((s) => ({ value: s.key, label: s.key }))]} />
+                  <SelectField
+                    label="Isolation point"
+                    value={photoKey}
+                    onChange={(e) => setPhotoKey(e.target.value)}
+                    options={[{ value: '', label: 'Choose' }, ...draft.content.sources.map((s) => ({ value: s.key, label: s.key }))]}
+                  />
                   <div className="space-y-1">
                     <label htmlFor="photo-file" className="block text-sm font-semibold">
                       Photo (JPEG, PNG or WebP, up to {megabytes(PROCEDURE_PHOTO_MAX_BYTES)} MB)
                     </label>
-                    <input id="photo-file" type="file" accept={PHOTO_TYPES.join(',')} className="block min-h-touch w-full text-sm" onChange={(e) => setFile(e.target.files?.[0] ?? null)} />
+                    <input
+                      id="photo-file"
+                      type="file"
+                      accept={PHOTO_TYPES.join(',')}
+                      className="block min-h-touch w-full text-sm"
+                      onChange={(e) => setFile(e.target.files?.[0] ?? null)}
+                    />
                   </div>
                   <TextField label="Caption (optional)" value={caption} onChange={(e) => setCaption(e.target.value)} />
                   <Button
@@ -206,7 +260,11 @@ export function ProcedureView({ p, me, timeZone, viewingVersion }: { p: Procedur
                     Upload
                   </Button>
                 </div>
-                {photoError ? <p role="alert" className="font-semibold text-danger">{photoError}</p> : null}
+                {photoError ? (
+                  <p role="alert" className="font-semibold text-danger">
+                    {photoError}
+                  </p>
+                ) : null}
               </fieldset>
               <label className="flex min-h-touch items-center gap-3">
                 <input type="checkbox" className="h-6 w-6" checked={retrain} onChange={(e) => setRetrain(e.target.checked)} />
@@ -218,7 +276,10 @@ export function ProcedureView({ p, me, timeZone, viewingVersion }: { p: Procedur
                     'procedure-approved',
                     async (password) => {
                       await approve.mutateAsync({ id: p.id, version: draft.version, password, retrainingRequired: retrain });
-                      setMessage({ tone: 'safe', text: `Version ${draft.version} approved and in force.${retrain && p.versions.some((v) => v.status === 'approved') ? ' Everyone trained on the old version is marked for retraining.' : ''}` });
+                      setMessage({
+                        tone: 'safe',
+                        text: `Version ${draft.version} approved and in force.${retrain && p.versions.some((v) => v.status === 'approved') ? ' Everyone trained on the old version is marked for retraining.' : ''}`,
+                      });
                     },
                     { onError: (err) => setMessage({ tone: 'danger', text: err instanceof ApiError ? err.message : 'Could not approve' }) },
                   )
@@ -230,7 +291,10 @@ export function ProcedureView({ p, me, timeZone, viewingVersion }: { p: Procedur
           ) : null}
         </Panel>
       ) : manage && shown?.status === 'approved' ? (
-        <Link className="inline-flex min-h-touch items-center rounded border border-steel-400 bg-white px-4 font-semibold" to={paths.safetyProcedureEdit.getHref(p.id)}>
+        <Link
+          className="inline-flex min-h-touch items-center rounded border border-steel-400 bg-white px-4 font-semibold"
+          to={paths.safetyProcedureEdit.getHref(p.id)}
+        >
           Change this procedure (starts draft version {Math.max(...p.versions.map((v) => v.version)) + 1})
         </Link>
       ) : null}

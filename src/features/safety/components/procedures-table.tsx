@@ -31,7 +31,10 @@ export function ProceduresTable({ timeZone }: { timeZone: string }) {
               </Link>
             ),
           }),
-          col.accessor('currentVersion', { header: 'In force', cell: (c) => (c.getValue() ? <Badge tone="safe">{`v${c.getValue()}`}</Badge> : <Badge tone="caution">Not approved</Badge>) }),
+          col.accessor('currentVersion', {
+            header: 'In force',
+            cell: (c) => (c.getValue() ? <Badge tone="safe">{`v${c.getValue()}`}</Badge> : <Badge tone="caution">Not approved</Badge>),
+          }),
           col.accessor('draftVersion', { header: 'Draft', cell: (c) => (c.getValue() ? `v${c.getValue()} waiting` : '—') }),
           col.accessor('lastInspectionAt', { header: 'Last inspection', cell: (c) => fmtDate(c.getValue() as string | null) }),
           col.accessor('inspectionDueAt', {
@@ -42,7 +45,12 @@ export function ProceduresTable({ timeZone }: { timeZone: string }) {
               const overdue = new Date(v).getTime() < now;
               return (
                 <span className="flex items-center gap-2">
-                  {fmtDate(v, timeZone)} {overdue ? <Badge tone="danger">Overdue</Badge> : new Date(v).getTime() - now < 30 * 86_400_000 ? <Badge tone="caution">Due soon</Badge> : null}
+                  {fmtDate(v, timeZone)}{' '}
+                  {overdue ? (
+                    <Badge tone="danger">Overdue</Badge>
+                  ) : new Date(v).getTime() - now < 30 * 86_400_000 ? (
+                    <Badge tone="caution">Due soon</Badge>
+                  ) : null}
                 </span>
               );
             },

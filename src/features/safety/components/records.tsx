@@ -11,7 +11,15 @@ import { Badge, EmptyState, Notice, Panel } from '../../../components/ui/notice'
 import { ApiError } from '../../../lib/api-client';
 import { applyServerErrors } from '../../../lib/form-errors';
 import { can, ROLE_LABELS, type Role } from '../../../../shared/permissions';
-import { inspectionSchema, TRAINING_KIND_LABELS, TRAINING_KINDS, trainingSchema, type InspectionRow, type TrainingKind, type TrainingRow } from '../../../../shared/schemas/safety-records';
+import {
+  inspectionSchema,
+  TRAINING_KIND_LABELS,
+  TRAINING_KINDS,
+  trainingSchema,
+  type InspectionRow,
+  type TrainingKind,
+  type TrainingRow,
+} from '../../../../shared/schemas/safety-records';
 import { useInspections } from '../api/get-inspections';
 import { useRecordInspection } from '../api/record-inspection';
 import { useCertifyInspection } from '../api/certify-inspection';
@@ -52,56 +60,104 @@ function InspectionForm({ me, timeZone, onDone, procedureId }: { me: Me; timeZon
         reset();
         onDone('Inspection recorded. The safety officer certifies it next.');
       },
-      { onError: (err) => setFormError(applyServerErrors(err, setError, ['procedureId', 'inspectedOn', 'employeeIds', 'findings', 'deviations', 'responsibilitiesReviewed'])) },
+      {
+        onError: (err) =>
+          setFormError(applyServerErrors(err, setError, ['procedureId', 'inspectedOn', 'employeeIds', 'findings', 'deviations', 'responsibilitiesReviewed'])),
+      },
     ),
   );
   return (
     <>
-    <form onSubmit={submit} noValidate aria-label="Record a periodic inspection" className="space-y-3">
-      {formError ? <Notice tone="danger" role="alert">{formError}</Notice> : null}
-      <p className="text-sm text-steel-700">
-        You are the inspector. OSHA 29 CFR 1910.147(c)(6)(i)(A): the inspector is an authorized employee other than the ones using the procedure, so do not include yourself.
-      </p>
-      <div className="grid gap-3 md:grid-cols-2">
-        <SelectField label="Procedure" error={e.procedureId?.message} options={[{ value: '', label: 'Choose a procedure' }, ...(procedures.data ?? []).filter((p) => p.currentVersion).map((p) => ({ value: p.id, label: `${p.machineCode} · ${p.title} (v${p.currentVersion})` }))]} {...register('procedureId')} />
-        <TextField label="Inspected on" type="date" error={e.inspectedOn?.message} {...register('inspectedOn')} />
-      </div>
-      <fieldset>
-        <legend className="text-sm font-semibold">Employees using the procedure, watched in this inspection</legend>
-        <div className="mt-1 grid gap-2 md:grid-cols-2">
-          {(people.data ?? [])
-            .filter((p) => p.id !== me.id)
-            .map((p) => (
-              <label key={p.id} className="flex min-h-touch items-center gap-3 rounded border border-steel-300 bg-white px-3">
-                <input type="checkbox" className="h-6 w-6" value={p.id} {...register('employeeIds')} />
-                {p.name} <span className="text-sm text-steel-600">({ROLE_LABELS[p.role]})</span>
-              </label>
-            ))}
+      <form onSubmit={submit} noValidate aria-label="Record a periodic inspection" className="space-y-3">
+        {formError ? (
+          <Notice tone="danger" role="alert">
+            {formError}
+          </Notice>
+        ) : null}
+        <p className="text-sm text-steel-700">
+          You are the inspector. OSHA 29 CFR 1910.147(c)(6)(i)(A): the inspector is an authorized employee other than the ones using the procedure, so do not
+          include yourself.
+        </p>
+        <div className="grid gap-3 md:grid-cols-2">
+          <SelectField
+            label="Procedure"
+            error={e.procedureId?.message}
+            options={[
+              { value: '', label: 'Choose a procedure' },
+              ...(procedures.data ?? [])
+                .filter((p) => p.currentVersion)
+                .map((p) => ({ value: p.id, label: `${p.machineCode} · ${p.title} (v${p.currentVersion})` })),
+            ]}
+            {...register('procedureId')}
+          />
+          <TextField label="Inspected on" type="date" error={e.inspectedOn?.message} {...register('inspectedOn')} />
         </div>
-        {e.employeeIds?.message ? <p role="alert" className="text-sm font-semibold text-danger">{e.employeeIds.message}</p> : null}
-      </fieldset>
-      <div className="space-y-1">
-        <label htmlFor="ins-findings" className="block text-sm font-semibold">What you saw</label>
-        <textarea id="ins-findings" className={area} {...register('findings')} />
-        {e.findings?.message ? <p role="alert" className="text-sm font-semibold text-danger">{e.findings.message}</p> : null}
-      </div>
-      <div className="space-y-1">
-        <label htmlFor="ins-dev" className="block text-sm font-semibold">Deviations or inadequacies, and how they were corrected (optional)</label>
-        <textarea id="ins-dev" className={area} {...register('deviations')} />
-      </div>
-      <label className="flex min-h-touch items-center gap-3">
-        <input type="checkbox" className="h-6 w-6" {...register('responsibilitiesReviewed')} />
-        <span>I reviewed each employee’s responsibilities under the procedure with them (1910.147(c)(6)(i)(C))</span>
-      </label>
-      {e.responsibilitiesReviewed?.message ? <p role="alert" className="text-sm font-semibold text-danger">{e.responsibilitiesReviewed.message}</p> : null}
-      <Button type="submit">Sign: inspection performed</Button>
-    </form>
-    {dialog}
+        <fieldset>
+          <legend className="text-sm font-semibold">Employees using the procedure, watched in this inspection</legend>
+          <div className="mt-1 grid gap-2 md:grid-cols-2">
+            {(people.data ?? [])
+              .filter((p) => p.id !== me.id)
+              .map((p) => (
+                <label key={p.id} className="flex min-h-touch items-center gap-3 rounded border border-steel-300 bg-white px-3">
+                  <input type="checkbox" className="h-6 w-6" value={p.id} {...register('employeeIds')} />
+                  {p.name} <span className="text-sm text-steel-600">({ROLE_LABELS[p.role]})</span>
+                </label>
+              ))}
+          </div>
+          {e.employeeIds?.message ? (
+            <p role="alert" className="text-sm font-semibold text-danger">
+              {e.employeeIds.message}
+            </p>
+          ) : null}
+        </fieldset>
+        <div className="space-y-1">
+          <label htmlFor="ins-findings" className="block text-sm font-semibold">
+            What you saw
+          </label>
+          <textarea id="ins-findings" className={area} {...register('findings')} />
+          {e.findings?.message ? (
+            <p role="alert" className="text-sm font-semibold text-danger">
+              {e.findings.message}
+            </p>
+          ) : null}
+        </div>
+        <div className="space-y-1">
+          <label htmlFor="ins-dev" className="block text-sm font-semibold">
+            Deviations or inadequacies, and how they were corrected (optional)
+          </label>
+          <textarea id="ins-dev" className={area} {...register('deviations')} />
+        </div>
+        <label className="flex min-h-touch items-center gap-3">
+          <input type="checkbox" className="h-6 w-6" {...register('responsibilitiesReviewed')} />
+          <span>I reviewed each employee’s responsibilities under the procedure with them (1910.147(c)(6)(i)(C))</span>
+        </label>
+        {e.responsibilitiesReviewed?.message ? (
+          <p role="alert" className="text-sm font-semibold text-danger">
+            {e.responsibilitiesReviewed.message}
+          </p>
+        ) : null}
+        <Button type="submit">Sign: inspection performed</Button>
+      </form>
+      {dialog}
     </>
   );
 }
 
-function TrainingForm({ me, timeZone, onDone, personId, procedureId, kind }: { me: Me; timeZone: string; onDone: (m: string) => void; personId?: string; procedureId?: string; kind?: TrainingKind }) {
+function TrainingForm({
+  me,
+  timeZone,
+  onDone,
+  personId,
+  procedureId,
+  kind,
+}: {
+  me: Me;
+  timeZone: string;
+  onDone: (m: string) => void;
+  personId?: string;
+  procedureId?: string;
+  kind?: TrainingKind;
+}) {
   const procedures = useProcedures();
   const people = useSafetyPeople();
   const record = useRecordTraining();
@@ -131,18 +187,45 @@ function TrainingForm({ me, timeZone, onDone, personId, procedureId, kind }: { m
   );
   return (
     <>
-    <form onSubmit={submit} noValidate aria-label="Record training" className="space-y-3">
-      {formError ? <Notice tone="danger" role="alert">{formError}</Notice> : null}
-      <div className="grid gap-3 md:grid-cols-2">
-        <SelectField label="Person" error={e.userId?.message} options={[{ value: '', label: 'Choose a person' }, ...(people.data ?? []).map((p) => ({ value: p.id, label: `${p.name} (${ROLE_LABELS[p.role]})` }))]} {...register('userId')} />
-        <SelectField label="Procedure (its approved version)" error={e.procedureId?.message} options={[{ value: '', label: 'Choose a procedure' }, ...(procedures.data ?? []).filter((p) => p.currentVersion).map((p) => ({ value: p.id, label: `${p.machineCode} · ${p.title} (v${p.currentVersion})` }))]} {...register('procedureId')} />
-        <SelectField label="Kind of training" error={e.kind?.message} options={TRAINING_KINDS.map((k) => ({ value: k, label: TRAINING_KIND_LABELS[k] }))} {...register('kind')} />
-        <TextField label="Trained on" type="date" error={e.trainedOn?.message} {...register('trainedOn')} />
-        <TextField label="Note (optional)" error={e.note?.message} {...register('note')} />
-      </div>
-      <Button type="submit">Sign: training recorded</Button>
-    </form>
-    {dialog}
+      <form onSubmit={submit} noValidate aria-label="Record training" className="space-y-3">
+        {formError ? (
+          <Notice tone="danger" role="alert">
+            {formError}
+          </Notice>
+        ) : null}
+        <div className="grid gap-3 md:grid-cols-2">
+          <SelectField
+            label="Person"
+            error={e.userId?.message}
+            options={[
+              { value: '', label: 'Choose a person' },
+              ...(people.data ?? []).map((p) => ({ value: p.id, label: `${p.name} (${ROLE_LABELS[p.role]})` })),
+            ]}
+            {...register('userId')}
+          />
+          <SelectField
+            label="Procedure (its approved version)"
+            error={e.procedureId?.message}
+            options={[
+              { value: '', label: 'Choose a procedure' },
+              ...(procedures.data ?? [])
+                .filter((p) => p.currentVersion)
+                .map((p) => ({ value: p.id, label: `${p.machineCode} · ${p.title} (v${p.currentVersion})` })),
+            ]}
+            {...register('procedureId')}
+          />
+          <SelectField
+            label="Kind of training"
+            error={e.kind?.message}
+            options={TRAINING_KINDS.map((k) => ({ value: k, label: TRAINING_KIND_LABELS[k] }))}
+            {...register('kind')}
+          />
+          <TextField label="Trained on" type="date" error={e.trainedOn?.message} {...register('trainedOn')} />
+          <TextField label="Note (optional)" error={e.note?.message} {...register('note')} />
+        </div>
+        <Button type="submit">Sign: training recorded</Button>
+      </form>
+      {dialog}
     </>
   );
 }
@@ -173,7 +256,11 @@ export function SafetyRecords({ me, timeZone }: { me: Me; timeZone: string }) {
   }, [inspect, trainPerson]);
   return (
     <div className="space-y-4">
-      {message ? <Notice tone={message.tone} role={message.tone === 'danger' ? 'alert' : 'status'}>{message.text}</Notice> : null}
+      {message ? (
+        <Notice tone={message.tone} role={message.tone === 'danger' ? 'alert' : 'status'}>
+          {message.text}
+        </Notice>
+      ) : null}
       <Panel title="Periodic inspections (at least once a year, OSHA 29 CFR 1910.147(c)(6))">
         <DataTable
           caption="Periodic inspections"
@@ -191,16 +278,25 @@ export function SafetyRecords({ me, timeZone }: { me: Me; timeZone: string }) {
               header: 'Certified',
               cell: (c) => {
                 const r = c.row.original;
-                if (r.certifiedAt) return <span><Badge tone="safe">Certified</Badge> {fmtDateTime(r.certifiedAt, timeZone)} · {r.certifiedByName}</span>;
+                if (r.certifiedAt)
+                  return (
+                    <span>
+                      <Badge tone="safe">Certified</Badge> {fmtDateTime(r.certifiedAt, timeZone)} · {r.certifiedByName}
+                    </span>
+                  );
                 if (!can(me.role, 'safety.inspection.certify')) return <Badge tone="caution">Waiting</Badge>;
                 return (
                   <Button
                     variant="secondary"
                     onClick={() =>
-                      sign('inspection-certified', async (password) => {
-                        await certify.mutateAsync({ id: r.id, password });
-                        ok(`Inspection of ${r.machineCode} on ${fmtDate(r.inspectedOn)} certified.`);
-                      }, { onError: (err) => setMessage({ tone: 'danger', text: err instanceof ApiError ? err.message : 'Could not certify' }) })
+                      sign(
+                        'inspection-certified',
+                        async (password) => {
+                          await certify.mutateAsync({ id: r.id, password });
+                          ok(`Inspection of ${r.machineCode} on ${fmtDate(r.inspectedOn)} certified.`);
+                        },
+                        { onError: (err) => setMessage({ tone: 'danger', text: err instanceof ApiError ? err.message : 'Could not certify' }) },
+                      )
                     }
                   >
                     Certify
@@ -230,7 +326,10 @@ export function SafetyRecords({ me, timeZone }: { me: Me; timeZone: string }) {
             trCol.accessor('machineCode', { header: 'Machine' }),
             trCol.accessor('procedureTitle', { header: 'Procedure' }),
             trCol.accessor('kind', { header: 'As', cell: (c) => TRAINING_KIND_LABELS[c.getValue() as TrainingRow['kind']].split(' (')[0] }),
-            trCol.accessor('trainedVersion', { header: 'Trained on', cell: (c) => `v${c.getValue()}${c.row.original.currentVersion ? ` (in force: v${c.row.original.currentVersion})` : ''}` }),
+            trCol.accessor('trainedVersion', {
+              header: 'Trained on',
+              cell: (c) => `v${c.getValue()}${c.row.original.currentVersion ? ` (in force: v${c.row.original.currentVersion})` : ''}`,
+            }),
             trCol.accessor('trainedOn', { header: 'Date', cell: (c) => fmtDate(c.getValue() as string) }),
             trCol.accessor('trainerName', { header: 'Trainer' }),
           ]}

@@ -8,7 +8,14 @@ import { TextField } from '../../../components/ui/field';
 import { Badge, EmptyState, Notice, Panel } from '../../../components/ui/notice';
 import { ApiError } from '../../../lib/api-client';
 import { ROLE_LABELS, type Role } from '../../../../shared/permissions';
-import { MEANING_LABELS, reversedRangeMessage, SIGN_MEANINGS, type ListSignOffsQuery, type SignMeaning, type SignOffRow } from '../../../../shared/schemas/safety-sign-offs';
+import {
+  MEANING_LABELS,
+  reversedRangeMessage,
+  SIGN_MEANINGS,
+  type ListSignOffsQuery,
+  type SignMeaning,
+  type SignOffRow,
+} from '../../../../shared/schemas/safety-sign-offs';
 import type { MachineCompliance } from '../../../../shared/schemas/safety-audit';
 import { exportHref, useSignOffs } from '../api/get-sign-offs';
 import { useChainVerification } from '../api/verify-chain';
@@ -28,9 +35,23 @@ export function ChainCheck({ timeZone }: { timeZone: string }) {
   const chain = useChainVerification();
   const v = chain.data;
   return (
-    <Panel title="Tamper check" actions={<Button onClick={() => chain.refetch()} busy={chain.isFetching}>Verify the chain</Button>}>
-      <p className="mb-3 text-steel-700">Recomputes the SHA-256 hash of every signature in order and compares the end with the stored chain head. Any changed, removed or reordered record shows here.</p>
-      {chain.isError ? <Notice tone="danger" role="alert">{chain.error.message}</Notice> : null}
+    <Panel
+      title="Tamper check"
+      actions={
+        <Button onClick={() => chain.refetch()} busy={chain.isFetching}>
+          Verify the chain
+        </Button>
+      }
+    >
+      <p className="mb-3 text-steel-700">
+        Recomputes the SHA-256 hash of every signature in order and compares the end with the stored chain head. Any changed, removed or reordered record shows
+        here.
+      </p>
+      {chain.isError ? (
+        <Notice tone="danger" role="alert">
+          {chain.error.message}
+        </Notice>
+      ) : null}
       {v ? (
         v.ok ? (
           <Notice tone="safe" title="Chain verified" role="status">
@@ -39,7 +60,9 @@ export function ChainCheck({ timeZone }: { timeZone: string }) {
         ) : (
           <Notice tone="danger" title="Chain broken" role="alert">
             {v.message} {v.checked} record{v.checked === 1 ? '' : 's'} before it verified.
-            {v.firstBad?.signerName ? ` First bad record: #${v.firstBad.seq}, ${v.firstBad.signerName}, ${fmtDateTime(v.firstBad.signedAt, timeZone)}, ${v.firstBad.meaning ? MEANING_LABELS[v.firstBad.meaning] : ''}.` : ''}
+            {v.firstBad?.signerName
+              ? ` First bad record: #${v.firstBad.seq}, ${v.firstBad.signerName}, ${fmtDateTime(v.firstBad.signedAt, timeZone)}, ${v.firstBad.meaning ? MEANING_LABELS[v.firstBad.meaning] : ''}.`
+              : ''}
           </Notice>
         )
       ) : null}
@@ -77,7 +100,10 @@ export function Compliance() {
               ['Open lockouts', t.openLockouts],
               ['People to retrain', t.retrainingNeeded],
             ].map(([label, n]) => (
-              <div key={label} className={`rounded border-l-8 bg-white p-3 ${n ? (label === 'Open lockouts' ? 'border-caution' : 'border-danger') : 'border-safe'}`}>
+              <div
+                key={label}
+                className={`rounded border-l-8 bg-white p-3 ${n ? (label === 'Open lockouts' ? 'border-caution' : 'border-danger') : 'border-safe'}`}
+              >
                 <dt className="text-sm font-semibold text-steel-700">{label}</dt>
                 <dd className="text-3xl font-bold">{n}</dd>
               </div>
@@ -93,7 +119,10 @@ export function Compliance() {
           columns={[
             mcol.accessor('machineCode', { header: 'Machine', cell: (c) => `${c.getValue()} · ${c.row.original.machineName}` }),
             mcol.accessor('procedureVersion', { header: 'Procedure', cell: (c) => (c.getValue() ? `v${c.getValue()}` : <Badge tone="caution">None</Badge>) }),
-            mcol.accessor('inspectionStatus', { header: 'Periodic inspection', cell: (c) => <DueBadge status={c.getValue() as MachineCompliance['inspectionStatus']} /> }),
+            mcol.accessor('inspectionStatus', {
+              header: 'Periodic inspection',
+              cell: (c) => <DueBadge status={c.getValue() as MachineCompliance['inspectionStatus']} />,
+            }),
             mcol.accessor('inspectionDueAt', { header: 'Inspection due', cell: (c) => fmtDate(c.getValue() as string | null) }),
             mcol.accessor('ppeMissed', {
               header: 'PPE checks',
@@ -102,13 +131,20 @@ export function Compliance() {
                 if (!r.ppeExpected) return '—';
                 return (
                   <span className="flex items-center gap-2">
-                    {r.ppeDone}/{r.ppeExpected} done {r.ppeMissed ? <Badge tone="danger">{`${r.ppeMissed} missed`}</Badge> : <Badge tone="safe">None missed</Badge>}
+                    {r.ppeDone}/{r.ppeExpected} done{' '}
+                    {r.ppeMissed ? <Badge tone="danger">{`${r.ppeMissed} missed`}</Badge> : <Badge tone="safe">None missed</Badge>}
                   </span>
                 );
               },
             }),
-            mcol.accessor('openLockouts', { header: 'Open lockouts', cell: (c) => ((c.getValue() as number) ? <Badge tone="caution">{`${c.getValue()} open`}</Badge> : '0') }),
-            mcol.accessor('retrainingNeeded', { header: 'Retrain', cell: (c) => ((c.getValue() as number) ? <Badge tone="danger">{`${c.getValue()} people`}</Badge> : '0') }),
+            mcol.accessor('openLockouts', {
+              header: 'Open lockouts',
+              cell: (c) => ((c.getValue() as number) ? <Badge tone="caution">{`${c.getValue()} open`}</Badge> : '0'),
+            }),
+            mcol.accessor('retrainingNeeded', {
+              header: 'Retrain',
+              cell: (c) => ((c.getValue() as number) ? <Badge tone="danger">{`${c.getValue()} people`}</Badge> : '0'),
+            }),
           ]}
         />
       </Panel>
@@ -124,12 +160,25 @@ export function Compliance() {
                   <Tooltip />
                   <Legend />
                   <Line type="monotone" dataKey="ppeCompliancePct" name="PPE checks done" stroke={COLORS.mandatory} strokeWidth={3} connectNulls />
-                  <Line type="monotone" dataKey="inspectionsCurrentPct" name="Procedures inspected in time" stroke={COLORS.safe} strokeWidth={3} strokeDasharray="6 3" connectNulls />
+                  <Line
+                    type="monotone"
+                    dataKey="inspectionsCurrentPct"
+                    name="Procedures inspected in time"
+                    stroke={COLORS.safe}
+                    strokeWidth={3}
+                    strokeDasharray="6 3"
+                    connectNulls
+                  />
                 </LineChart>
               </ResponsiveContainer>
             </div>
             <figcaption className="sr-only">
-              {(tl.data ?? []).map((w) => `Week of ${w.weekStart}: PPE checks ${w.ppeCompliancePct ?? 'n/a'} %, procedures inspected in time ${w.inspectionsCurrentPct ?? 'n/a'} %.`).join(' ')}
+              {(tl.data ?? [])
+                .map(
+                  (w) =>
+                    `Week of ${w.weekStart}: PPE checks ${w.ppeCompliancePct ?? 'n/a'} %, procedures inspected in time ${w.inspectionsCurrentPct ?? 'n/a'} %.`,
+                )
+                .join(' ')}
             </figcaption>
           </figure>
         </Panel>
@@ -148,7 +197,9 @@ export function Compliance() {
                 </BarChart>
               </ResponsiveContainer>
             </div>
-            <figcaption className="sr-only">{(tl.data ?? []).map((w) => `Week of ${w.weekStart}: ${w.signOffs} signatures, ${w.lockouts} lockouts.`).join(' ')}</figcaption>
+            <figcaption className="sr-only">
+              {(tl.data ?? []).map((w) => `Week of ${w.weekStart}: ${w.signOffs} signatures, ${w.lockouts} lockouts.`).join(' ')}
+            </figcaption>
           </figure>
         </Panel>
       </div>
@@ -159,7 +210,17 @@ export function Compliance() {
 const col = createColumnHelper<SignOffRow>();
 
 /** The correction form as a modal beside the table, so it opens where the row was clicked, not below the table. */
-function CorrectionDialog({ row, me, onDone, onClose }: { row: SignOffRow; me: { name: string; role: Role }; onDone: (seq: number) => void; onClose: () => void }) {
+function CorrectionDialog({
+  row,
+  me,
+  onDone,
+  onClose,
+}: {
+  row: SignOffRow;
+  me: { name: string; role: Role };
+  onDone: (seq: number) => void;
+  onClose: () => void;
+}) {
   const ref = useRef<HTMLDialogElement>(null);
   const [note, setNote] = useState('');
   const [error, setError] = useState<string | null>(null);
@@ -218,7 +279,6 @@ function CorrectionDialog({ row, me, onDone, onClose }: { row: SignOffRow; me: {
   );
 }
 
-
 /** Every signature, filtered and sorted on the server, with exports using the same filters. Filters live in the URL so a view can be shared or reloaded. */
 export function SignOffAudit({ me, timeZone }: { me: { name: string; role: Role }; timeZone: string }) {
   const [params, setParams] = useSearchParams();
@@ -245,7 +305,15 @@ export function SignOffAudit({ me, timeZone }: { me: { name: string; role: Role 
   const machines = useSafetyMachines();
   const people = useSafetyPeople();
   const rangeError = from && to && to < from ? reversedRangeMessage(from) : null;
-  const filters = { machineId: machineId || undefined, signerId: signerId || undefined, meaning: meaning || undefined, from: from || undefined, to: to || undefined, sort: (sorting[0]?.id ?? 'signedAt') as ListSignOffsQuery['sort'], dir: (sorting[0]?.desc ? 'desc' : 'asc') as 'asc' | 'desc' };
+  const filters = {
+    machineId: machineId || undefined,
+    signerId: signerId || undefined,
+    meaning: meaning || undefined,
+    from: from || undefined,
+    to: to || undefined,
+    sort: (sorting[0]?.id ?? 'signedAt') as ListSignOffsQuery['sort'],
+    dir: (sorting[0]?.desc ? 'desc' : 'asc') as 'asc' | 'desc',
+  };
   const q = useSignOffs({ ...filters, page, pageSize: 25 }, !rangeError);
   const exportLink = 'flex min-h-touch items-center rounded border border-steel-400 bg-white px-4 font-semibold';
 
@@ -274,15 +342,30 @@ export function SignOffAudit({ me, timeZone }: { me: { name: string; role: Role 
           </>
         )}
       </div>
-      {message ? <Notice tone={message.tone} role={message.tone === 'danger' ? 'alert' : 'status'}>{message.text}</Notice> : null}
-      {q.isError ? <Notice tone="danger" role="alert">{q.error.message}</Notice> : null}
+      {message ? (
+        <Notice tone={message.tone} role={message.tone === 'danger' ? 'alert' : 'status'}>
+          {message.text}
+        </Notice>
+      ) : null}
+      {q.isError ? (
+        <Notice tone="danger" role="alert">
+          {q.error.message}
+        </Notice>
+      ) : null}
       <DataTable
         caption="Safety signatures"
         data={rangeError ? [] : (q.data?.rows ?? [])}
         loading={!rangeError && q.isLoading}
         getRowId={(r) => r.id}
         empty={rangeError ? <EmptyState title="Fix the date range to see signatures" /> : <EmptyState title="No signatures match these filters" />}
-        server={{ total: rangeError ? 0 : (q.data?.total ?? 0), page, pageSize: 25, sorting, onSortingChange: (s) => (setSorting(s), setFilter('page', '')), onPageChange: (n) => setFilter('page', n > 1 ? String(n) : '') }}
+        server={{
+          total: rangeError ? 0 : (q.data?.total ?? 0),
+          page,
+          pageSize: 25,
+          sorting,
+          onSortingChange: (s) => (setSorting(s), setFilter('page', '')),
+          onPageChange: (n) => setFilter('page', n > 1 ? String(n) : ''),
+        }}
         toolbar={
           // Top-aligned so the error under "To" does not push the other filters out of line.
           <div className="flex flex-wrap items-start gap-3">
@@ -345,7 +428,10 @@ export function SignOffAudit({ me, timeZone }: { me: { name: string; role: Role 
         }
         columns={[
           col.accessor('seq', { header: '#' }),
-          col.accessor('signedAt', { header: 'Signed', cell: (c) => <span className="whitespace-nowrap">{fmtDateTime(c.getValue() as string, timeZone)}</span> }),
+          col.accessor('signedAt', {
+            header: 'Signed',
+            cell: (c) => <span className="whitespace-nowrap">{fmtDateTime(c.getValue() as string, timeZone)}</span>,
+          }),
           col.accessor('signerName', { header: 'Printed name', cell: (c) => <span className="font-semibold">{c.getValue() as string}</span> }),
           col.accessor('signerRole', { header: 'Role', enableSorting: false, cell: (c) => ROLE_LABELS[c.getValue() as Role] ?? c.getValue() }),
           col.accessor('meaning', {
@@ -359,13 +445,26 @@ export function SignOffAudit({ me, timeZone }: { me: { name: string; role: Role 
             ),
           }),
           col.accessor('machineCode', { id: 'machine', header: 'Machine', cell: (c) => c.getValue() ?? '—' }),
-          col.accessor('summary', { header: 'What was signed', enableSorting: false, cell: (c) => <span className="text-sm">{c.getValue() as string}{c.row.original.note ? <span className="block italic">Note: {c.row.original.note}</span> : null}</span> }),
+          col.accessor('summary', {
+            header: 'What was signed',
+            enableSorting: false,
+            cell: (c) => (
+              <span className="text-sm">
+                {c.getValue() as string}
+                {c.row.original.note ? <span className="block italic">Note: {c.row.original.note}</span> : null}
+              </span>
+            ),
+          }),
           col.display({
             id: 'correct',
             header: 'Correction',
             cell: (c) =>
               me.role === 'safety' ? (
-                <Button variant="secondary" aria-label={`Add correction to #${c.row.original.seq}`} onClick={() => (setMessage(null), setCorrecting(c.row.original))}>
+                <Button
+                  variant="secondary"
+                  aria-label={`Add correction to #${c.row.original.seq}`}
+                  onClick={() => (setMessage(null), setCorrecting(c.row.original))}
+                >
                   Add correction
                 </Button>
               ) : null,

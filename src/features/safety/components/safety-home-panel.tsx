@@ -13,10 +13,19 @@ export function SafetyHomePanel({ role }: { role: Role }) {
   const due = (tasks.data ?? []).length - overdue;
   const locked = open.data?.total ?? 0;
   return (
-    <Panel title="Safety" actions={<Link className="font-semibold text-mandatory underline" to={paths.safety.getHref()}>Safety log</Link>}>
+    <Panel
+      title="Safety"
+      actions={
+        <Link className="font-semibold text-mandatory underline" to={paths.safety.getHref()}>
+          Safety log
+        </Link>
+      }
+    >
       <ul className="mb-3 space-y-1">
         <li className={locked ? 'font-semibold text-danger-ink' : 'text-safe-ink'}>
-          {locked ? `${locked} machine${locked === 1 ? ' is' : 's are'} locked out: ${(open.data?.rows ?? []).map((r) => r.machineCode).join(', ')}` : 'No machine is locked out.'}
+          {locked
+            ? `${locked} machine${locked === 1 ? ' is' : 's are'} locked out: ${(open.data?.rows ?? []).map((r) => r.machineCode).join(', ')}`
+            : 'No machine is locked out.'}
         </li>
         <li className={overdue ? 'font-semibold text-danger-ink' : due ? 'text-caution-ink' : 'text-safe-ink'}>
           {overdue || due ? `Safety work: ${overdue} overdue, ${due} due now.` : 'No safety work is due.'}

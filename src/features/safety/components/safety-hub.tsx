@@ -123,7 +123,10 @@ export function SafetyHub({ role, timeZone }: { role: Role; timeZone: string }) 
             getRowId={(r) => r.id}
             empty={<EmptyState title="Nothing due">Inspections, PPE checks and retraining show here when they fall due.</EmptyState>}
             columns={[
-              taskCol.accessor('status', { header: 'Status', cell: (c) => <Badge tone={c.getValue() === 'overdue' ? 'danger' : 'caution'}>{c.getValue() === 'overdue' ? 'Overdue' : 'Due'}</Badge> }),
+              taskCol.accessor('status', {
+                header: 'Status',
+                cell: (c) => <Badge tone={c.getValue() === 'overdue' ? 'danger' : 'caution'}>{c.getValue() === 'overdue' ? 'Overdue' : 'Due'}</Badge>,
+              }),
               taskCol.accessor('kind', { header: 'Kind', cell: (c) => TASK_KIND_LABELS[c.getValue() as SafetyTaskRow['kind']] }),
               taskCol.accessor('title', {
                 header: 'What',

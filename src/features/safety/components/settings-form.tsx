@@ -29,7 +29,13 @@ const toSettings = (v: FormValues): SafetySettings => ({
   fireWatchRule: v.fireWatchRule,
   hearingRequiredFromDbA: Number(v.hearingRequiredFromDbA),
   hearingRuleSource: v.hearingRuleSource,
-  shadeTable: v.siteShade ? { source: v.shadeSource, notes: [], bands: v.bands.map((b) => ({ label: b.label, fromA: Number(b.fromA), toA: Number(b.toA), minimum: Number(b.minimum), suggested: Number(b.suggested) })) } : null,
+  shadeTable: v.siteShade
+    ? {
+        source: v.shadeSource,
+        notes: [],
+        bands: v.bands.map((b) => ({ label: b.label, fromA: Number(b.fromA), toA: Number(b.toA), minimum: Number(b.minimum), suggested: Number(b.suggested) })),
+      }
+    : null,
   shiftStarts: v.shiftStarts
     .split(',')
     .map((s) => s.trim())
@@ -48,7 +54,13 @@ const fromSettings = (s: SafetySettingsView): FormValues => {
     siteShade: s.shadeTable !== null,
     shadeSource: s.shadeTable ? t.source : '',
     // The built-in table's names are lower-case words; a site copy starts from readable names.
-    bands: t.bands.map((b) => ({ label: s.shadeTable ? b.label : b.label.charAt(0).toUpperCase() + b.label.slice(1), fromA: String(b.fromA), toA: String(b.toA), minimum: String(b.minimum), suggested: String(b.suggested) })),
+    bands: t.bands.map((b) => ({
+      label: s.shadeTable ? b.label : b.label.charAt(0).toUpperCase() + b.label.slice(1),
+      fromA: String(b.fromA),
+      toA: String(b.toA),
+      minimum: String(b.minimum),
+      suggested: String(b.suggested),
+    })),
     shiftStarts: s.shiftStarts.join(', '),
     workDays: s.workDays,
     inspectionIntervalMonths: String(s.inspectionIntervalMonths),
@@ -85,16 +97,42 @@ export function SafetySettingsForm({ settings }: { settings: SafetySettingsView 
       await update.mutateAsync(toSettings(v));
       setDone('Settings saved. PPE requirements and new fire watches use them from now on.');
     } catch (err) {
-      setFormError(applyServerErrors(err, setError, ['fireWatchRequired', 'fireWatchRule', 'hearingRequiredFromDbA', 'hearingRuleSource', 'shiftStarts', 'workDays', 'inspectionIntervalMonths']) ?? null);
-      if (err && typeof err === 'object' && 'fields' in err && (err as { fields: { path: string; message: string }[] }).fields.some((f) => f.path === 'shadeTable')) {
-        setError('bands', { type: 'server', message: (err as { fields: { path: string; message: string }[] }).fields.find((f) => f.path === 'shadeTable')!.message });
+      setFormError(
+        applyServerErrors(err, setError, [
+          'fireWatchRequired',
+          'fireWatchRule',
+          'hearingRequiredFromDbA',
+          'hearingRuleSource',
+          'shiftStarts',
+          'workDays',
+          'inspectionIntervalMonths',
+        ]) ?? null,
+      );
+      if (
+        err &&
+        typeof err === 'object' &&
+        'fields' in err &&
+        (err as { fields: { path: string; message: string }[] }).fields.some((f) => f.path === 'shadeTable')
+      ) {
+        setError('bands', {
+          type: 'server',
+          message: (err as { fields: { path: string; message: string }[] }).fields.find((f) => f.path === 'shadeTable')!.message,
+        });
       }
     }
   });
   return (
     <form onSubmit={submit} noValidate aria-label="Site safety settings" className="space-y-4">
-      {done ? <Notice tone="safe" role="status">{done}</Notice> : null}
-      {formError ? <Notice tone="danger" role="alert">{formError}</Notice> : null}
+      {done ? (
+        <Notice tone="safe" role="status">
+          {done}
+        </Notice>
+      ) : null}
+      {formError ? (
+        <Notice tone="danger" role="alert">
+          {formError}
+        </Notice>
+      ) : null}
       <Panel title="Fire watch after hot work">
         <label className="mb-3 flex min-h-touch items-center gap-3">
           <input type="checkbox" className="h-6 w-6" {...register('fireWatchRequired')} />
@@ -116,8 +154,18 @@ export function SafetySettingsForm({ settings }: { settings: SafetySettingsView 
       </Panel>
       <Panel title="Hearing protection">
         <div className="grid gap-4 md:grid-cols-[14rem_1fr]">
-          <TextField label="Required from an 8-h TWA of (dBA)" inputMode="decimal" error={e.hearingRequiredFromDbA?.message} {...register('hearingRequiredFromDbA')} />
-          <TextField label="Rule and its source" hint={`Default: ${settings.defaults.hearingRuleSource}`} error={e.hearingRuleSource?.message} {...register('hearingRuleSource')} />
+          <TextField
+            label="Required from an 8-h TWA of (dBA)"
+            inputMode="decimal"
+            error={e.hearingRequiredFromDbA?.message}
+            {...register('hearingRequiredFromDbA')}
+          />
+          <TextField
+            label="Rule and its source"
+            hint={`Default: ${settings.defaults.hearingRuleSource}`}
+            error={e.hearingRuleSource?.message}
+            {...register('hearingRuleSource')}
+          />
         </div>
         <p className="mt-2 text-sm text-steel-700">The TWA itself follows OSHA 29 CFR 1910.95 App. A (90 dBA criterion, 5 dB exchange rate).</p>
       </Panel>
@@ -142,38 +190,47 @@ export function SafetySettingsForm({ settings }: { settings: SafetySettingsView 
                 </Button>
               </fieldset>
             ))}
-            {e.bands?.message ? <p role="alert" className="font-semibold text-danger">{e.bands.message}</p> : null}
+            {e.bands?.message ? (
+              <p role="alert" className="font-semibold text-danger">
+                {e.bands.message}
+              </p>
+            ) : null}
             <Button variant="secondary" onClick={() => append({ label: '', fromA: '', toA: '', minimum: '', suggested: '' })}>
               Add band
             </Button>
           </div>
         ) : (
           <div>
-          <p className="mb-1 text-sm text-steel-700">In use: {PLASMA_ARC_CUTTING_SHADES.source}</p>
-          <table className="text-sm" aria-label="Plasma cutting shades in use">
-            <thead>
-              <tr>
-                <th className="pr-4 text-left">Band (arc current)</th>
-                <th className="pr-4 text-left">Minimum</th>
-                <th className="text-left">Suggested</th>
-              </tr>
-            </thead>
-            <tbody>
-              {PLASMA_ARC_CUTTING_SHADES.bands.map((b) => (
-                <tr key={b.label}>
-                  <td className="pr-4">{shadeBandLabel(b)}</td>
-                  <td className="pr-4">{b.minimum}</td>
-                  <td>{b.suggested}</td>
+            <p className="mb-1 text-sm text-steel-700">In use: {PLASMA_ARC_CUTTING_SHADES.source}</p>
+            <table className="text-sm" aria-label="Plasma cutting shades in use">
+              <thead>
+                <tr>
+                  <th className="pr-4 text-left">Band (arc current)</th>
+                  <th className="pr-4 text-left">Minimum</th>
+                  <th className="text-left">Suggested</th>
                 </tr>
-              ))}
-            </tbody>
-          </table>
+              </thead>
+              <tbody>
+                {PLASMA_ARC_CUTTING_SHADES.bands.map((b) => (
+                  <tr key={b.label}>
+                    <td className="pr-4">{shadeBandLabel(b)}</td>
+                    <td className="pr-4">{b.minimum}</td>
+                    <td>{b.suggested}</td>
+                  </tr>
+                ))}
+              </tbody>
+            </table>
           </div>
         )}
       </Panel>
       <Panel title="Shifts and inspections">
         <div className="grid gap-4 md:grid-cols-3">
-          <TextField label="Shift starts (24-hour, comma-separated)" hint="PPE checks are due at each shift start" error={e.shiftStarts?.message} {...register('shiftStarts')} />
+          <TextField
+            label="Shift starts (24-hour, comma-separated)"
+            hint="PPE checks are due at each shift start"
+            error={e.shiftStarts?.message}
+            {...register('shiftStarts')}
+          />
           <fieldset>
             <legend className="text-sm font-semibold">Work days</legend>
             <div className="flex flex-wrap gap-2">
@@ -184,9 +241,19 @@ export function SafetySettingsForm({ settings }: { settings: SafetySettingsView 
                 </label>
               ))}
             </div>
-            {e.workDays?.message ? <p role="alert" className="text-sm font-semibold text-danger">{e.workDays.message}</p> : null}
+            {e.workDays?.message ? (
+              <p role="alert" className="text-sm font-semibold text-danger">
+                {e.workDays.message}
+              </p>
+            ) : null}
           </fieldset>
-          <TextField label="Periodic inspection every (months)" hint="OSHA 29 CFR 1910.147(c)(6): at least every 12" inputMode="numeric" error={e.inspectionIntervalMonths?.message} {...register('inspectionIntervalMonths')} />
+          <TextField
+            label="Periodic inspection every (months)"
+            hint="OSHA 29 CFR 1910.147(c)(6): at least every 12"
+            inputMode="numeric"
+            error={e.inspectionIntervalMonths?.message}
+            {...register('inspectionIntervalMonths')}
+          />
         </div>
       </Panel>
       <div className="flex justify-end">

@@ -82,7 +82,8 @@ export function SignDialog({
         <blockquote className="rounded bg-steel-100 p-3 text-base font-semibold text-steel-900">“{MEANING_STATEMENTS[meaning]}”</blockquote>
         {children ? <div className="text-sm text-steel-800">{children}</div> : null}
         <p className="text-sm text-steel-700">
-          Signing as <strong>{signer.name}</strong> ({ROLE_LABELS[signer.role]}). The server records the time. A signature cannot be changed afterwards; a mistake is fixed with a correction.
+          Signing as <strong>{signer.name}</strong> ({ROLE_LABELS[signer.role]}). The server records the time. A signature cannot be changed afterwards; a
+          mistake is fixed with a correction.
         </p>
         <div className="space-y-1">
           <label htmlFor={`${id}-pw`} className="block text-sm font-semibold text-steel-800">

@@ -8,6 +8,7 @@ export type ChangesFilters = { machineId: string; page: number; pageSize: number
 
 export const getChanges = (f: ChangesFilters) => api<Page<ChangeRow>>('/consumable-changes', { query: f });
 
-export const getChangesQueryOptions = (f: ChangesFilters) => queryOptions({ queryKey: stationKeys.changes(f), queryFn: () => getChanges(f), placeholderData: keepPreviousData });
+export const getChangesQueryOptions = (f: ChangesFilters) =>
+  queryOptions({ queryKey: stationKeys.changes(f), queryFn: () => getChanges(f), placeholderData: keepPreviousData });
 
 export const useChanges = (f: ChangesFilters) => useQuery(getChangesQueryOptions(f));

@@ -5,6 +5,7 @@ import { stationKeys } from './keys';
 
 export const getStation = (code: string) => api<StationView>(`/stations/${encodeURIComponent(code)}`);
 
-export const getStationQueryOptions = (code: string) => queryOptions({ queryKey: stationKeys.detail(code), queryFn: () => getStation(code), staleTime: 10_000 });
+export const getStationQueryOptions = (code: string) =>
+  queryOptions({ queryKey: stationKeys.detail(code), queryFn: () => getStation(code), staleTime: 10_000 });
 
 export const useStation = (code: string) => useQuery(getStationQueryOptions(code));

@@ -14,7 +14,7 @@ export async function getStations(): Promise<StationLink[]> {
   const rootOf = new Map<string, string>();
   for (const r of rows) {
     if (r.depth === 0) top.set(r.id, r);
-    rootOf.set(r.id, r.depth === 0 ? r.id : rootOf.get(r.parentId ?? '') ?? r.id);
+    rootOf.set(r.id, r.depth === 0 ? r.id : (rootOf.get(r.parentId ?? '') ?? r.id));
   }
   const wanted = new Set(rows.filter((r) => STATION_KINDS.has(r.kind)).map((r) => rootOf.get(r.id)!));
   return [...top.values()].filter((m) => wanted.has(m.id)).map((m) => ({ code: m.code, name: m.name, location: m.location }));

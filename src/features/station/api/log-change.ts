@@ -21,6 +21,12 @@ export function useLogChange() {
   const qc = useQueryClient();
   return useMutation({
     mutationFn: logChange,
-    onSuccess: () => Promise.all([qc.invalidateQueries({ queryKey: stationKeys.all }), qc.invalidateQueries({ queryKey: queryRoots.stock }), qc.invalidateQueries({ queryKey: queryRoots.meters }), qc.invalidateQueries({ queryKey: queryRoots.consumableLife })]),
+    onSuccess: () =>
+      Promise.all([
+        qc.invalidateQueries({ queryKey: stationKeys.all }),
+        qc.invalidateQueries({ queryKey: queryRoots.stock }),
+        qc.invalidateQueries({ queryKey: queryRoots.meters }),
+        qc.invalidateQueries({ queryKey: queryRoots.consumableLife }),
+      ]),
   });
 }

@@ -9,5 +9,13 @@ export const recordCounters = (input: z.input<typeof readingBatchSchema>) => api
 
 export function useRecordCounters() {
   const qc = useQueryClient();
-  return useMutation({ mutationFn: recordCounters, onSuccess: () => Promise.all([qc.invalidateQueries({ queryKey: stationKeys.all }), qc.invalidateQueries({ queryKey: queryRoots.meters }), qc.invalidateQueries({ queryKey: queryRoots.punchTools })]) });
+  return useMutation({
+    mutationFn: recordCounters,
+    onSuccess: () =>
+      Promise.all([
+        qc.invalidateQueries({ queryKey: stationKeys.all }),
+        qc.invalidateQueries({ queryKey: queryRoots.meters }),
+        qc.invalidateQueries({ queryKey: queryRoots.punchTools }),
+      ]),
+  });
 }

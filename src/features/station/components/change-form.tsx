@@ -2,7 +2,14 @@ import { forwardRef, useEffect, useRef, useState, type InputHTMLAttributes } fro
 import { useForm } from 'react-hook-form';
 import { zodResolver } from '@hookform/resolvers/zod';
 import type { z } from 'zod';
-import { CHANGE_REASONS, CHANGE_REASON_LABELS, consumableChangeSchema, type PartOption, type ReferenceValue, type TorchStation } from '../../../../shared/schemas/consumables';
+import {
+  CHANGE_REASONS,
+  CHANGE_REASON_LABELS,
+  consumableChangeSchema,
+  type PartOption,
+  type ReferenceValue,
+  type TorchStation,
+} from '../../../../shared/schemas/consumables';
 import { PART_CATEGORY_LABELS, TORCH_CATEGORIES, type TorchCategory } from '../../../../shared/schemas/stock';
 import { TORCH_CAUTION } from '../../../../shared/domain/cautions';
 import { WorkCaution } from '../../../components/ui/caution';
@@ -37,7 +44,19 @@ export const ResetChoice = forwardRef<HTMLInputElement, InputHTMLAttributes<HTML
  * The change sheet. The common case — electrode and nozzle, normal wear, counters as last
  * read — needs one tap on the pair and one on Record: the reason and counters come filled in.
  */
-export function ChangeForm({ torch, parts, pitLimit, onDone, onCancel }: { torch: TorchStation; parts: PartOption[]; pitLimit: ReferenceValue; onDone: (message: string) => void; onCancel: () => void }) {
+export function ChangeForm({
+  torch,
+  parts,
+  pitLimit,
+  onDone,
+  onCancel,
+}: {
+  torch: TorchStation;
+  parts: PartOption[];
+  pitLimit: ReferenceValue;
+  onDone: (message: string) => void;
+  onCancel: () => void;
+}) {
   const log = useLogChange();
   const heading = useRef<HTMLHeadingElement>(null);
   const [photo, setPhoto] = useState<File | null>(null);
@@ -64,7 +83,8 @@ export function ChangeForm({ torch, parts, pitLimit, onDone, onCancel }: { torch
   const reason = watch('reason');
   const pit = watch('pitDepthMm');
   const choose = (next: TorchCategory[]) => setValue('categories', next, { shouldValidate: formState.isSubmitted });
-  const toggle = (c: TorchCategory) => choose(categories.includes(c) ? categories.filter((x) => x !== c) : TORCH_CATEGORIES.filter((x) => x === c || categories.includes(x)));
+  const toggle = (c: TorchCategory) =>
+    choose(categories.includes(c) ? categories.filter((x) => x !== c) : TORCH_CATEGORIES.filter((x) => x === c || categories.includes(x)));
 
   const onSubmit = handleSubmit(async (values) => {
     setFormError(null);
@@ -73,9 +93,22 @@ export function ChangeForm({ torch, parts, pitLimit, onDone, onCancel }: { torch
     try {
       await log.mutateAsync({ ...values, partTypeIds, photo });
       const names = values.categories.map((c) => PART_CATEGORY_LABELS[c].toLowerCase()).join(' and ');
-      onDone(`Change recorded on ${torch.code}: ${names} (${CHANGE_REASON_LABELS[values.reason].toLowerCase()}).${values.takeFromStock ? ' The new parts were taken out of stock.' : ''}`);
+      onDone(
+        `Change recorded on ${torch.code}: ${names} (${CHANGE_REASON_LABELS[values.reason].toLowerCase()}).${values.takeFromStock ? ' The new parts were taken out of stock.' : ''}`,
+      );
     } catch (err) {
-      setFormError(applyServerErrors(err, setError, ['categories', 'reason', 'startsReading', 'arcHoursReading', 'pitDepthMm', 'note', 'changedAt', ...TORCH_CATEGORIES.map((c) => `partTypeIds.${c}`)]));
+      setFormError(
+        applyServerErrors(err, setError, [
+          'categories',
+          'reason',
+          'startsReading',
+          'arcHoursReading',
+          'pitDepthMm',
+          'note',
+          'changedAt',
+          ...TORCH_CATEGORIES.map((c) => `partTypeIds.${c}`),
+        ]),
+      );
     }
   });
   const e = formState.errors;
@@ -83,17 +116,33 @@ export function ChangeForm({ torch, parts, pitLimit, onDone, onCancel }: { torch
 
   return (
     <form onSubmit={onSubmit} noValidate aria-labelledby={`change-${torch.id}`} className="space-y-5 rounded border-2 border-steel-800 bg-white p-4">
-      <h3 id={`change-${torch.id}`} ref={heading} tabIndex={-1} className="text-xl font-bold">Log a change on {torch.code}</h3>
+      <h3 id={`change-${torch.id}`} ref={heading} tabIndex={-1} className="text-xl font-bold">
+        Log a change on {torch.code}
+      </h3>
       <WorkCaution text={TORCH_CAUTION} />
-      {formError ? <Notice tone="danger" role="alert" title="Not recorded">{formError}</Notice> : null}
+      {formError ? (
+        <Notice tone="danger" role="alert" title="Not recorded">
+          {formError}
+        </Notice>
+      ) : null}
 
       <fieldset className="space-y-2">
         <legend className="text-base font-bold">Which parts came out?</legend>
         <div className="grid gap-2 sm:grid-cols-3">
-          <button type="button" className={`${big} ${same(categories, PAIR) && !custom ? on : off}`} aria-pressed={same(categories, PAIR) && !custom} onClick={() => (setCustom(false), choose(PAIR))}>
+          <button
+            type="button"
+            className={`${big} ${same(categories, PAIR) && !custom ? on : off}`}
+            aria-pressed={same(categories, PAIR) && !custom}
+            onClick={() => (setCustom(false), choose(PAIR))}
+          >
             Electrode + nozzle
           </button>
-          <button type="button" className={`${big} ${same(categories, TORCH_CATEGORIES) && !custom ? on : off}`} aria-pressed={same(categories, TORCH_CATEGORIES) && !custom} onClick={() => (setCustom(false), choose([...TORCH_CATEGORIES]))}>
+          <button
+            type="button"
+            className={`${big} ${same(categories, TORCH_CATEGORIES) && !custom ? on : off}`}
+            aria-pressed={same(categories, TORCH_CATEGORIES) && !custom}
+            onClick={() => (setCustom(false), choose([...TORCH_CATEGORIES]))}
+          >
             Whole set
           </button>
           <button type="button" className={`${big} ${custom ? on : off}`} aria-pressed={custom} onClick={() => setCustom((c) => !c)}>
@@ -103,13 +152,24 @@ export function ChangeForm({ torch, parts, pitLimit, onDone, onCancel }: { torch
         {custom ? (
           <div className="flex flex-wrap gap-2" role="group" aria-label="Parts">
             {TORCH_CATEGORIES.map((c) => (
-              <button key={c} type="button" className={`min-h-touch rounded border-2 px-4 font-semibold ${categories.includes(c) ? on : off}`} aria-pressed={categories.includes(c)} onClick={() => toggle(c)}>
-                {categories.includes(c) ? '✓ ' : ''}{PART_CATEGORY_LABELS[c]}
+              <button
+                key={c}
+                type="button"
+                className={`min-h-touch rounded border-2 px-4 font-semibold ${categories.includes(c) ? on : off}`}
+                aria-pressed={categories.includes(c)}
+                onClick={() => toggle(c)}
+              >
+                {categories.includes(c) ? '✓ ' : ''}
+                {PART_CATEGORY_LABELS[c]}
               </button>
             ))}
           </div>
         ) : null}
-        {e.categories ? <p role="alert" className="font-semibold text-danger">{e.categories.message}</p> : null}
+        {e.categories ? (
+          <p role="alert" className="font-semibold text-danger">
+            {e.categories.message}
+          </p>
+        ) : null}
       </fieldset>
 
       <fieldset className="space-y-2">
@@ -128,17 +188,35 @@ export function ChangeForm({ torch, parts, pitLimit, onDone, onCancel }: { torch
         <legend className="mb-2 text-base font-bold">Counters at the change</legend>
         {torch.startsMeter ? (
           <div className="space-y-1">
-            <TextField label={`Arc starts (${torch.startsMeter.unit})`} inputMode="numeric" hint={watch('startsReset') ? 'Enter what the counter shows now, after the reset' : 'Filled in from the latest reading; change it if the control shows more'} error={e.startsReading?.message} {...register('startsReading', { setValueAs: num })} />
+            <TextField
+              label={`Arc starts (${torch.startsMeter.unit})`}
+              inputMode="numeric"
+              hint={
+                watch('startsReset')
+                  ? 'Enter what the counter shows now, after the reset'
+                  : 'Filled in from the latest reading; change it if the control shows more'
+              }
+              error={e.startsReading?.message}
+              {...register('startsReading', { setValueAs: num })}
+            />
             <ResetChoice id={`starts-reset-${torch.id}`} {...register('startsReset')} />
           </div>
         ) : null}
         {torch.arcHoursMeter ? (
           <div className="space-y-1">
-            <TextField label={`Arc time (${torch.arcHoursMeter.unit})`} inputMode="decimal" hint={watch('arcHoursReset') ? 'Enter what the counter shows now, after the reset' : 'Filled in from the latest reading'} error={e.arcHoursReading?.message} {...register('arcHoursReading', { setValueAs: num })} />
+            <TextField
+              label={`Arc time (${torch.arcHoursMeter.unit})`}
+              inputMode="decimal"
+              hint={watch('arcHoursReset') ? 'Enter what the counter shows now, after the reset' : 'Filled in from the latest reading'}
+              error={e.arcHoursReading?.message}
+              {...register('arcHoursReading', { setValueAs: num })}
+            />
             <ResetChoice id={`hours-reset-${torch.id}`} {...register('arcHoursReset')} />
           </div>
         ) : null}
-        {!torch.startsMeter && !torch.arcHoursMeter ? <p className="text-steel-700">This torch has no arc-start or arc-time meter, so lives cannot be counted.</p> : null}
+        {!torch.startsMeter && !torch.arcHoursMeter ? (
+          <p className="text-steel-700">This torch has no arc-start or arc-time meter, so lives cannot be counted.</p>
+        ) : null}
       </fieldset>
 
       <details className="rounded border border-steel-300 p-3">
@@ -146,24 +224,53 @@ export function ChangeForm({ torch, parts, pitLimit, onDone, onCancel }: { torch
         <div className="mt-3 grid gap-4 sm:grid-cols-2">
           {categories.includes('electrode') ? (
             <div className="space-y-2">
-              <TextField label="Electrode pit depth (mm, optional)" inputMode="decimal" hint={`Reference: change at about ${pitLimit.value} mm — ${pitLimit.source}`} error={e.pitDepthMm?.message} {...register('pitDepthMm', { setValueAs: num })} />
-              {typeof pit === 'number' && pit >= pitLimit.value ? <Notice tone="caution">The pit is at or past the {pitLimit.value} mm reference: check the nozzle for damage too.</Notice> : null}
+              <TextField
+                label="Electrode pit depth (mm, optional)"
+                inputMode="decimal"
+                hint={`Reference: change at about ${pitLimit.value} mm — ${pitLimit.source}`}
+                error={e.pitDepthMm?.message}
+                {...register('pitDepthMm', { setValueAs: num })}
+              />
+              {typeof pit === 'number' && pit >= pitLimit.value ? (
+                <Notice tone="caution">The pit is at or past the {pitLimit.value} mm reference: check the nozzle for damage too.</Notice>
+              ) : null}
             </div>
           ) : null}
           <label className="flex flex-col gap-1 text-sm font-semibold text-steel-800">
             Photo (optional, image up to {megabytes(PHOTO_MAX_BYTES)} MB)
-            <input type="file" accept={CHANGE_PHOTO_TYPES.join(',')} capture="environment" className="min-h-touch rounded border border-steel-400 bg-white p-2 font-normal" onChange={(ev) => setPhoto(ev.target.files?.[0] ?? null)} />
+            <input
+              type="file"
+              accept={CHANGE_PHOTO_TYPES.join(',')}
+              capture="environment"
+              className="min-h-touch rounded border border-steel-400 bg-white p-2 font-normal"
+              onChange={(ev) => setPhoto(ev.target.files?.[0] ?? null)}
+            />
           </label>
           {categories.map((c) => (
             <div key={c} className="space-y-1">
-              <label htmlFor={`part-${torch.id}-${c}`} className="block text-sm font-semibold text-steel-800">New {PART_CATEGORY_LABELS[c].toLowerCase()}</label>
-              <select id={`part-${torch.id}-${c}`} className="block min-h-touch w-full rounded border border-steel-400 bg-white px-3" defaultValue={installedPart(c) ?? ''} {...register(`partTypeIds.${c}`, { setValueAs: (v) => (v === '' ? undefined : v) })}>
+              <label htmlFor={`part-${torch.id}-${c}`} className="block text-sm font-semibold text-steel-800">
+                New {PART_CATEGORY_LABELS[c].toLowerCase()}
+              </label>
+              <select
+                id={`part-${torch.id}-${c}`}
+                className="block min-h-touch w-full rounded border border-steel-400 bg-white px-3"
+                defaultValue={installedPart(c) ?? ''}
+                {...register(`partTypeIds.${c}`, { setValueAs: (v) => (v === '' ? undefined : v) })}
+              >
                 {!installedPart(c) ? <option value="">Choose a part</option> : null}
-                {parts.filter((p) => p.category === c).map((p) => (
-                  <option key={p.id} value={p.id}>{p.partNumber} {p.name} — {formatQty(p.onHand, p.stockUnit)} in stock</option>
-                ))}
+                {parts
+                  .filter((p) => p.category === c)
+                  .map((p) => (
+                    <option key={p.id} value={p.id}>
+                      {p.partNumber} {p.name} — {formatQty(p.onHand, p.stockUnit)} in stock
+                    </option>
+                  ))}
               </select>
-              {e.partTypeIds?.[c] ? <p role="alert" className="text-sm font-semibold text-danger">{e.partTypeIds[c]?.message}</p> : null}
+              {e.partTypeIds?.[c] ? (
+                <p role="alert" className="text-sm font-semibold text-danger">
+                  {e.partTypeIds[c]?.message}
+                </p>
+              ) : null}
               {unitOf(c) && unitOf(c)!.onHand < 1 ? <p className="text-sm font-semibold text-caution-ink">None in stock</p> : null}
             </div>
           ))}
@@ -176,8 +283,12 @@ export function ChangeForm({ torch, parts, pitLimit, onDone, onCancel }: { torch
       </details>
 
       <div className="flex flex-wrap gap-3">
-        <Button type="submit" className="min-h-[3.5rem] px-8 text-lg" busy={formState.isSubmitting}>Record the change</Button>
-        <Button variant="secondary" className="min-h-[3.5rem]" onClick={onCancel}>Cancel</Button>
+        <Button type="submit" className="min-h-[3.5rem] px-8 text-lg" busy={formState.isSubmitting}>
+          Record the change
+        </Button>
+        <Button variant="secondary" className="min-h-[3.5rem]" onClick={onCancel}>
+          Cancel
+        </Button>
       </div>
     </form>
   );

@@ -37,11 +37,17 @@ export function CountersForm({ meters }: { meters: MeterRow[] }) {
   };
   return (
     <form onSubmit={submit} noValidate aria-label="Record counters" className="space-y-3">
-      {message ? <Notice tone={message.tone} role="status">{message.text}</Notice> : null}
+      {message ? (
+        <Notice tone={message.tone} role="status">
+          {message.text}
+        </Notice>
+      ) : null}
       <div className="grid gap-3 sm:grid-cols-2">
         {meters.map((m) => (
           <div key={m.id} className="space-y-1">
-            <label htmlFor={`counter-${m.id}`} className="block text-sm font-semibold text-steel-800">{m.machineCode} · {m.name} ({m.unit})</label>
+            <label htmlFor={`counter-${m.id}`} className="block text-sm font-semibold text-steel-800">
+              {m.machineCode} · {m.name} ({m.unit})
+            </label>
             <input
               id={`counter-${m.id}`}
               inputMode="decimal"
@@ -52,12 +58,24 @@ export function CountersForm({ meters }: { meters: MeterRow[] }) {
               aria-describedby={`counter-${m.id}-hint`}
               className={`block min-h-touch w-full rounded border bg-white px-3 ${errors[m.id] ? 'border-danger ring-1 ring-danger' : 'border-steel-400'}`}
             />
-            {errors[m.id] ? <p role="alert" className="text-sm font-semibold text-danger">{errors[m.id]}</p> : <p id={`counter-${m.id}-hint`} className="text-sm text-steel-600">{m.latest ? `Last ${int.format(m.latest.value)} ${m.unit}` : 'No reading yet'}</p>}
-            {m.kind !== 'condition' ? <ResetChoice id={`counter-${m.id}-reset`} checked={!!resets[m.id]} onChange={(ev) => setResets((r) => ({ ...r, [m.id]: ev.target.checked }))} /> : null}
+            {errors[m.id] ? (
+              <p role="alert" className="text-sm font-semibold text-danger">
+                {errors[m.id]}
+              </p>
+            ) : (
+              <p id={`counter-${m.id}-hint`} className="text-sm text-steel-600">
+                {m.latest ? `Last ${int.format(m.latest.value)} ${m.unit}` : 'No reading yet'}
+              </p>
+            )}
+            {m.kind !== 'condition' ? (
+              <ResetChoice id={`counter-${m.id}-reset`} checked={!!resets[m.id]} onChange={(ev) => setResets((r) => ({ ...r, [m.id]: ev.target.checked }))} />
+            ) : null}
           </div>
         ))}
       </div>
-      <Button type="submit" disabled={filled.length === 0} busy={record.isPending}>Record {filled.length || ''} reading{filled.length === 1 ? '' : 's'}</Button>
+      <Button type="submit" disabled={filled.length === 0} busy={record.isPending}>
+        Record {filled.length || ''} reading{filled.length === 1 ? '' : 's'}
+      </Button>
     </form>
   );
 }

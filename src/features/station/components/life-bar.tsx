@@ -9,11 +9,28 @@ const STATE = {
 } as const;
 
 /** Used life against expected life. Colour follows ISO 3864-1 meanings and the words say the same. */
-export function LifeBar({ label, used, expected, unit, fraction }: { label: string; used: number | null; expected: number | null; unit: string; fraction: number | null }) {
+export function LifeBar({
+  label,
+  used,
+  expected,
+  unit,
+  fraction,
+}: {
+  label: string;
+  used: number | null;
+  expected: number | null;
+  unit: string;
+  fraction: number | null;
+}) {
   const state = lifeState(fraction);
   const s = STATE[state];
   const pct = fraction === null ? 0 : Math.min(100, fraction * 100);
-  const words = used === null ? 'No counter reading since it went in' : expected === null ? `${int.format(used)} ${unit} so far` : `${int.format(used)} of ${int.format(expected)} ${unit} (${Math.round((fraction ?? 0) * 100)} %)`;
+  const words =
+    used === null
+      ? 'No counter reading since it went in'
+      : expected === null
+        ? `${int.format(used)} ${unit} so far`
+        : `${int.format(used)} of ${int.format(expected)} ${unit} (${Math.round((fraction ?? 0) * 100)} %)`;
   return (
     <div className="space-y-1">
       <div

@@ -12,7 +12,11 @@ export function QrLabel({ code, name, url }: { code: string; name: string; url: 
   }, [url]);
   return (
     <figure className="mx-auto w-[min(90vw,24rem)] space-y-3 rounded border-2 border-steel-900 bg-white p-6 text-center print:border-black">
-      {svg ? <div role="img" aria-label={`QR code that opens ${url}`} className="mx-auto w-full" dangerouslySetInnerHTML={{ __html: svg }} /> : <p role="status">{error ?? 'Drawing…'}</p>}
+      {svg ? (
+        <div role="img" aria-label={`QR code that opens ${url}`} className="mx-auto w-full" dangerouslySetInnerHTML={{ __html: svg }} />
+      ) : (
+        <p role="status">{error ?? 'Drawing…'}</p>
+      )}
       <figcaption className="space-y-1">
         <p className="text-4xl font-bold tracking-wide">{code}</p>
         <p className="text-lg">{name}</p>

@@ -22,7 +22,12 @@ const columns = [
     cell: (c) => {
       const lives = c.row.original.parts.filter((p) => p.lifeStarts !== null || p.lifeArcHours !== null);
       if (lives.length === 0) return '—';
-      return lives.map((p) => `${PART_CATEGORY_LABELS[p.category]} ${p.lifeStarts !== null ? `${int.format(p.lifeStarts)} starts` : ''}${p.lifeArcHours !== null ? ` / ${int.format(p.lifeArcHours)} h` : ''}`).join('; ');
+      return lives
+        .map(
+          (p) =>
+            `${PART_CATEGORY_LABELS[p.category]} ${p.lifeStarts !== null ? `${int.format(p.lifeStarts)} starts` : ''}${p.lifeArcHours !== null ? ` / ${int.format(p.lifeArcHours)} h` : ''}`,
+        )
+        .join('; ');
     },
   }),
   col.accessor('pitDepthMm', { header: 'Pit', cell: (c) => (c.getValue() === null ? '—' : `${c.getValue()} mm`) }),
@@ -30,7 +35,19 @@ const columns = [
   col.accessor('hasPhoto', {
     header: 'Photo',
     enableSorting: false,
-    cell: (c) => (c.getValue() ? <a className="inline-flex min-h-touch items-center font-semibold text-mandatory-ink underline" href={`/api/consumable-changes/${c.row.original.id}/photo`} target="_blank" rel="noreferrer">Open photo</a> : '—'),
+    cell: (c) =>
+      c.getValue() ? (
+        <a
+          className="inline-flex min-h-touch items-center font-semibold text-mandatory-ink underline"
+          href={`/api/consumable-changes/${c.row.original.id}/photo`}
+          target="_blank"
+          rel="noreferrer"
+        >
+          Open photo
+        </a>
+      ) : (
+        '—'
+      ),
   }),
 ];
 

@@ -13,9 +13,15 @@ export function StationPicker() {
       <ul className="grid gap-2 sm:grid-cols-2">
         {(q.data ?? []).map((s) => (
           <li key={s.code}>
-            <Link to={paths.station.getHref(s.code)} className="flex min-h-[3.5rem] flex-col justify-center rounded border-2 border-steel-800 bg-white px-4 py-2 hover:bg-steel-50">
+            <Link
+              to={paths.station.getHref(s.code)}
+              className="flex min-h-[3.5rem] flex-col justify-center rounded border-2 border-steel-800 bg-white px-4 py-2 hover:bg-steel-50"
+            >
               <span className="text-xl font-bold">{s.code}</span>
-              <span className="text-sm text-steel-700">{s.name}{s.location ? ` · ${s.location}` : ''}</span>
+              <span className="text-sm text-steel-700">
+                {s.name}
+                {s.location ? ` · ${s.location}` : ''}
+              </span>
             </Link>
           </li>
         ))}

@@ -30,14 +30,21 @@ export function LockoutBanner({ lockouts }: { lockouts: StationLockout[] }) {
 export function DueList({ code, rows }: { code: string; rows: StationDueRow[] }) {
   return (
     <section aria-labelledby="due-heading" className="rounded border border-steel-200 bg-white p-4 shadow-sm">
-      <h2 id="due-heading" className="mb-2 text-lg font-bold">Due on {code}</h2>
+      <h2 id="due-heading" className="mb-2 text-lg font-bold">
+        Due on {code}
+      </h2>
       {rows.length === 0 ? <p className="text-steel-700">No open work orders.</p> : null}
       <ul className="divide-y divide-steel-200">
         {rows.map((w) => (
           <li key={w.id}>
             <Link to={paths.workOrder.getHref(w.id)} className="flex min-h-touch flex-wrap items-center gap-x-3 gap-y-1 py-2 hover:bg-steel-50">
-              <span className="font-semibold text-mandatory-ink underline">#{w.number} {w.title}</span>
-              <span className="text-sm text-steel-700">{w.machineCode !== code ? `${w.machineCode} · ` : ''}{WORK_STATE_LABELS[w.status]}</span>
+              <span className="font-semibold text-mandatory-ink underline">
+                #{w.number} {w.title}
+              </span>
+              <span className="text-sm text-steel-700">
+                {w.machineCode !== code ? `${w.machineCode} · ` : ''}
+                {WORK_STATE_LABELS[w.status]}
+              </span>
               <span className="ml-auto inline-flex items-center gap-2 text-sm tabular-nums">
                 {/* Same badges as the work lists, so "lockout required" reads the same at the machine. */}
                 {w.requiresLockout ? <LockoutBadge /> : null}

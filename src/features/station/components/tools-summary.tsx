@@ -27,10 +27,16 @@ export function ToolsSummary({ tools }: { tools: ToolSummary[] }) {
         return (
           <li key={t.id} className={`rounded border-l-8 p-3 ${s.box}`}>
             <p className="flex flex-wrap items-center justify-between gap-2">
-              <span className="font-bold">{t.code} · {t.name} · station {t.stationSize}</span>
+              <span className="font-bold">
+                {t.code} · {t.name} · station {t.stationSize}
+              </span>
               {s.badge}
             </p>
-            <p className="text-sm tabular-nums">{t.hitsSince === null ? 'No hits counted yet' : `${int.format(t.hitsSince)} of ${int.format(t.interval)} hits since sharpening (${Math.round((t.fraction ?? 0) * 100)} %)`}</p>
+            <p className="text-sm tabular-nums">
+              {t.hitsSince === null
+                ? 'No hits counted yet'
+                : `${int.format(t.hitsSince)} of ${int.format(t.interval)} hits since sharpening (${Math.round((t.fraction ?? 0) * 100)} %)`}
+            </p>
           </li>
         );
       })}

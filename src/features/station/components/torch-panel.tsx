@@ -27,19 +27,40 @@ export function TorchPanel({ torch, parts, pitLimit, canLog }: { torch: TorchSta
   return (
     <section aria-labelledby={`torch-${torch.id}`} className="space-y-4 rounded border border-steel-200 bg-white p-4 shadow-sm">
       <header className="flex flex-wrap items-baseline justify-between gap-2">
-        <h2 id={`torch-${torch.id}`} className="text-2xl font-bold">Torch {torch.code}</h2>
+        <h2 id={`torch-${torch.id}`} className="text-2xl font-bold">
+          Torch {torch.code}
+        </h2>
         <p className="text-steel-700">{torch.lastChangeAt ? `Last change ${when.format(new Date(torch.lastChangeAt))}` : 'No change logged yet'}</p>
       </header>
       {torch.suggestChange && torch.latestCutCheck ? (
         <Notice tone="danger" role="alert" title="Cut quality out of tolerance — consider a consumable change">
-          The test coupon of {when.format(new Date(torch.latestCutCheck.checkedAt))} was off by up to {torch.latestCutCheck.maxDeviationMm.toFixed(2)} mm (tolerance ±{torch.latestCutCheck.toleranceMm} mm) with the parts now in the torch.
+          The test coupon of {when.format(new Date(torch.latestCutCheck.checkedAt))} was off by up to {torch.latestCutCheck.maxDeviationMm.toFixed(2)} mm
+          (tolerance ±{torch.latestCutCheck.toleranceMm} mm) with the parts now in the torch.
         </Notice>
       ) : null}
       <div className="grid gap-3 sm:grid-cols-2">
-        {torch.startsMeter ? <Counter label="Arc starts" value={torch.startsMeter.latest?.value ?? null} unit={torch.startsMeter.unit} at={torch.startsMeter.latest?.readAt ?? null} /> : null}
-        {torch.arcHoursMeter ? <Counter label="Arc time" value={torch.arcHoursMeter.latest?.value ?? null} unit={torch.arcHoursMeter.unit} at={torch.arcHoursMeter.latest?.readAt ?? null} /> : null}
+        {torch.startsMeter ? (
+          <Counter
+            label="Arc starts"
+            value={torch.startsMeter.latest?.value ?? null}
+            unit={torch.startsMeter.unit}
+            at={torch.startsMeter.latest?.readAt ?? null}
+          />
+        ) : null}
+        {torch.arcHoursMeter ? (
+          <Counter
+            label="Arc time"
+            value={torch.arcHoursMeter.latest?.value ?? null}
+            unit={torch.arcHoursMeter.unit}
+            at={torch.arcHoursMeter.latest?.readAt ?? null}
+          />
+        ) : null}
       </div>
-      {done ? <Notice tone="safe" role="status" title="Done">{done}</Notice> : null}
+      {done ? (
+        <Notice tone="safe" role="status" title="Done">
+          {done}
+        </Notice>
+      ) : null}
       {canLog && !open ? (
         <Button className="min-h-[4rem] w-full text-xl" onClick={() => (setDone(null), setOpen(true))}>
           Log a change
@@ -69,9 +90,16 @@ export function TorchPanel({ torch, parts, pitLimit, canLog }: { torch: TorchSta
                   {i.partType.partNumber} · in since {when.format(new Date(i.installedAt))} · {formatQty(i.partType.onHand, i.partType.stockUnit)} in stock
                 </span>
               </p>
-              <LifeBar label={PART_CATEGORY_LABELS[i.category]} used={i.used} expected={i.expected} unit={i.partType.lifeUnit ? LIFE_UNIT_LABELS[i.partType.lifeUnit] : ''} fraction={i.fraction} />
+              <LifeBar
+                label={PART_CATEGORY_LABELS[i.category]}
+                used={i.used}
+                expected={i.expected}
+                unit={i.partType.lifeUnit ? LIFE_UNIT_LABELS[i.partType.lifeUnit] : ''}
+                fraction={i.fraction}
+              />
               <p className="mt-1 text-sm text-steel-700">
-                Since it went in: {i.startsSince === null ? '—' : `${int.format(i.startsSince)} starts`}, {i.arcHoursSince === null ? '—' : `${int.format(i.arcHoursSince)} h arc time`}
+                Since it went in: {i.startsSince === null ? '—' : `${int.format(i.startsSince)} starts`},{' '}
+                {i.arcHoursSince === null ? '—' : `${int.format(i.arcHoursSince)} h arc time`}
                 {i.expected !== null ? ' · expected life from the part catalogue' : ''}
               </p>
             </li>

@@ -9,19 +9,36 @@ import { formatQty } from '../../../lib/format-quantity';
 export function LowStockPanel() {
   const q = usePartTypes({ lowOnly: true });
   return (
-    <Panel title="Stock to reorder" actions={<Link className="inline-flex min-h-touch items-center font-semibold text-mandatory-ink underline" to={paths.stock.getHref()}>Open stock</Link>}>
+    <Panel
+      title="Stock to reorder"
+      actions={
+        <Link className="inline-flex min-h-touch items-center font-semibold text-mandatory-ink underline" to={paths.stock.getHref()}>
+          Open stock
+        </Link>
+      }
+    >
       {q.isError ? <Notice tone="danger">{q.error.message}</Notice> : null}
-      {q.isLoading ? <p role="status" className="text-steel-600">Loading…</p> : null}
+      {q.isLoading ? (
+        <p role="status" className="text-steel-600">
+          Loading…
+        </p>
+      ) : null}
       {q.data && q.data.length === 0 ? <Notice tone="safe">Every part is above its reorder point.</Notice> : null}
       {q.data && q.data.length > 0 ? (
         <ul className="divide-y divide-steel-200" aria-label="Parts at or below their reorder point">
           {q.data.slice(0, 8).map((p) => (
             <li key={p.id} className="flex flex-wrap items-center justify-between gap-2 py-2">
               <span>
-                <span className="font-semibold">{p.partNumber}</span> <span className="text-steel-700">{p.name} · {PART_CATEGORY_LABELS[p.category]}</span>
+                <span className="font-semibold">{p.partNumber}</span>{' '}
+                <span className="text-steel-700">
+                  {p.name} · {PART_CATEGORY_LABELS[p.category]}
+                </span>
               </span>
               <span className="rounded border-l-8 border-caution bg-caution-soft px-2 py-1 text-sm font-semibold text-caution-ink">
-                Reorder: {formatQty(p.onHand, p.stockUnit)} on hand, {p.reorderPoint === 0 && p.usagePerDay === 0 ? `no use in ${p.usageWindowDays} days` : `reorder point ${formatQty(p.reorderPoint, p.stockUnit)}`}
+                Reorder: {formatQty(p.onHand, p.stockUnit)} on hand,{' '}
+                {p.reorderPoint === 0 && p.usagePerDay === 0
+                  ? `no use in ${p.usageWindowDays} days`
+                  : `reorder point ${formatQty(p.reorderPoint, p.stockUnit)}`}
               </span>
             </li>
           ))}

@@ -20,10 +20,26 @@ export function MovesTable({ partTypeId, unit }: { partTypeId: string; unit: str
   const columns = [
     col.accessor('at', { header: 'When', enableSorting: false, cell: (c) => when.format(new Date(c.getValue())) }),
     col.accessor('kind', { header: 'Move', enableSorting: false, cell: (c) => KIND[c.getValue()] }),
-    col.accessor('quantity', { header: 'Change', enableSorting: false, cell: (c) => <span className="tabular-nums">{signed.format(c.getValue())} {unitFor(c.getValue(), unit)}</span> }),
-    col.accessor('onHandAfter', { header: 'On hand after', enableSorting: false, cell: (c) => <span className="tabular-nums">{formatQty(c.getValue(), unit)}</span> }),
+    col.accessor('quantity', {
+      header: 'Change',
+      enableSorting: false,
+      cell: (c) => (
+        <span className="tabular-nums">
+          {signed.format(c.getValue())} {unitFor(c.getValue(), unit)}
+        </span>
+      ),
+    }),
+    col.accessor('onHandAfter', {
+      header: 'On hand after',
+      enableSorting: false,
+      cell: (c) => <span className="tabular-nums">{formatQty(c.getValue(), unit)}</span>,
+    }),
     col.accessor('by', { header: 'Who', enableSorting: false, cell: (c) => c.getValue() ?? 'System' }),
-    col.accessor('reason', { header: 'Why', enableSorting: false, cell: (c) => c.getValue() ?? (c.row.original.refType ? `From a ${REF[c.row.original.refType] ?? c.row.original.refType}` : '—') }),
+    col.accessor('reason', {
+      header: 'Why',
+      enableSorting: false,
+      cell: (c) => c.getValue() ?? (c.row.original.refType ? `From a ${REF[c.row.original.refType] ?? c.row.original.refType}` : '—'),
+    }),
   ];
   if (q.isError) return <Notice tone="danger">{q.error.message}</Notice>;
   return (

@@ -21,7 +21,13 @@ export function PartEditForm({ part }: { part: PartTypeRow }) {
   const [saved, setSaved] = useState(false);
   const { register, handleSubmit, setError, formState } = useForm<In, unknown, Out>({
     resolver: zodResolver(partTypeUpdateSchema),
-    defaultValues: { name: part.name, expectedLife: part.expectedLife, unitCost: part.unitCost, leadTimeDays: part.leadTimeDays, serviceLevel: part.serviceLevel },
+    defaultValues: {
+      name: part.name,
+      expectedLife: part.expectedLife,
+      unitCost: part.unitCost,
+      leadTimeDays: part.leadTimeDays,
+      serviceLevel: part.serviceLevel,
+    },
   });
   const onSubmit = handleSubmit(async (values) => {
     setFormError(null);
@@ -37,16 +43,31 @@ export function PartEditForm({ part }: { part: PartTypeRow }) {
   return (
     <form onSubmit={onSubmit} noValidate aria-label={`Edit ${part.partNumber}`} className="grid gap-4 md:grid-cols-5">
       <div className="space-y-2 md:col-span-5">
-        {formError ? <Notice tone="danger" role="alert">{formError}</Notice> : null}
-        {saved ? <Notice tone="safe" role="status">Saved. The reorder point follows the new lead time and service level.</Notice> : null}
+        {formError ? (
+          <Notice tone="danger" role="alert">
+            {formError}
+          </Notice>
+        ) : null}
+        {saved ? (
+          <Notice tone="safe" role="status">
+            Saved. The reorder point follows the new lead time and service level.
+          </Notice>
+        ) : null}
       </div>
       <TextField label="Name" error={e.name?.message} {...register('name')} />
       <TextField label="Expected life" inputMode="decimal" error={e.expectedLife?.message} {...register('expectedLife', { setValueAs: numOrNull })} />
-      <TextField label={part.currency ? `Unit cost (${part.currency})` : 'Unit cost'} inputMode="decimal" error={e.unitCost?.message} {...register('unitCost', { setValueAs: num })} />
+      <TextField
+        label={part.currency ? `Unit cost (${part.currency})` : 'Unit cost'}
+        inputMode="decimal"
+        error={e.unitCost?.message}
+        {...register('unitCost', { setValueAs: num })}
+      />
       <TextField label="Lead time (days)" inputMode="numeric" error={e.leadTimeDays?.message} {...register('leadTimeDays', { setValueAs: num })} />
       <TextField label="Service level" inputMode="decimal" error={e.serviceLevel?.message} {...register('serviceLevel', { setValueAs: num })} />
       <div className="md:col-span-5">
-        <Button type="submit" variant="secondary" busy={formState.isSubmitting}>Save part</Button>
+        <Button type="submit" variant="secondary" busy={formState.isSubmitting}>
+          Save part
+        </Button>
       </div>
     </form>
   );

@@ -30,28 +30,79 @@ export function PartForm() {
       setSaved(`Added ${values.partNumber} with ${values.openingStock} ${values.stockUnit} in stock.`);
       reset();
     } catch (err) {
-      setFormError(applyServerErrors(err, setError, ['partNumber', 'name', 'category', 'stockUnit', 'lifeUnit', 'expectedLife', 'unitCost', 'leadTimeDays', 'serviceLevel', 'openingStock']));
+      setFormError(
+        applyServerErrors(err, setError, [
+          'partNumber',
+          'name',
+          'category',
+          'stockUnit',
+          'lifeUnit',
+          'expectedLife',
+          'unitCost',
+          'leadTimeDays',
+          'serviceLevel',
+          'openingStock',
+        ]),
+      );
     }
   });
   const e = formState.errors;
   return (
     <form onSubmit={onSubmit} noValidate aria-label="Add a part" className="grid gap-4 md:grid-cols-4">
       <div className="space-y-2 md:col-span-4">
-        {formError ? <Notice tone="danger" role="alert">{formError}</Notice> : null}
-        {saved ? <Notice tone="safe" role="status">{saved}</Notice> : null}
+        {formError ? (
+          <Notice tone="danger" role="alert">
+            {formError}
+          </Notice>
+        ) : null}
+        {saved ? (
+          <Notice tone="safe" role="status">
+            {saved}
+          </Notice>
+        ) : null}
       </div>
       <TextField label="Part number" autoComplete="off" error={e.partNumber?.message} {...register('partNumber')} />
       <TextField label="Name" autoComplete="off" error={e.name?.message} {...register('name')} />
-      <SelectField label="Category" error={e.category?.message} options={PART_CATEGORIES.map((c) => ({ value: c, label: PART_CATEGORY_LABELS[c] }))} {...register('category')} />
+      <SelectField
+        label="Category"
+        error={e.category?.message}
+        options={PART_CATEGORIES.map((c) => ({ value: c, label: PART_CATEGORY_LABELS[c] }))}
+        {...register('category')}
+      />
       <TextField label="Stock unit" error={e.stockUnit?.message} {...register('stockUnit')} />
-      <SelectField label="Life counted in" error={e.lifeUnit?.message} options={[{ value: '', label: '— not tracked —' }, ...LIFE_UNITS.map((u) => ({ value: u, label: LIFE_UNIT_LABELS[u] }))]} {...register('lifeUnit', { setValueAs: (v) => (v === '' ? null : v) })} />
-      <TextField label="Expected life" inputMode="decimal" hint="From the maker's data or your own records" error={e.expectedLife?.message} {...register('expectedLife', { setValueAs: numOrNull })} />
+      <SelectField
+        label="Life counted in"
+        error={e.lifeUnit?.message}
+        options={[{ value: '', label: '— not tracked —' }, ...LIFE_UNITS.map((u) => ({ value: u, label: LIFE_UNIT_LABELS[u] }))]}
+        {...register('lifeUnit', { setValueAs: (v) => (v === '' ? null : v) })}
+      />
+      <TextField
+        label="Expected life"
+        inputMode="decimal"
+        hint="From the maker's data or your own records"
+        error={e.expectedLife?.message}
+        {...register('expectedLife', { setValueAs: numOrNull })}
+      />
       <TextField label="Unit cost" inputMode="decimal" error={e.unitCost?.message} {...register('unitCost', { setValueAs: num })} />
       <TextField label="Lead time (days)" inputMode="numeric" error={e.leadTimeDays?.message} {...register('leadTimeDays', { setValueAs: num })} />
-      <TextField label="Service level" inputMode="decimal" hint="Chance of no stock-out while an order is on its way, e.g. 0.95" error={e.serviceLevel?.message} {...register('serviceLevel', { setValueAs: num })} />
-      <TextField label="Opening stock" inputMode="decimal" hint="Counted now; recorded as an adjustment" error={e.openingStock?.message} {...register('openingStock', { setValueAs: num })} />
+      <TextField
+        label="Service level"
+        inputMode="decimal"
+        hint="Chance of no stock-out while an order is on its way, e.g. 0.95"
+        error={e.serviceLevel?.message}
+        {...register('serviceLevel', { setValueAs: num })}
+      />
+      <TextField
+        label="Opening stock"
+        inputMode="decimal"
+        hint="Counted now; recorded as an adjustment"
+        error={e.openingStock?.message}
+        {...register('openingStock', { setValueAs: num })}
+      />
       <div className="md:col-span-4">
-        <Button type="submit" busy={formState.isSubmitting}>Add part</Button>
+        <Button type="submit" busy={formState.isSubmitting}>
+          Add part
+        </Button>
       </div>
     </form>
   );

@@ -8,7 +8,19 @@ import { formatMoney, formatQty } from '../../../lib/format-quantity';
 const col = createColumnHelper<PartTypeRow>();
 const dec = new Intl.NumberFormat(undefined, { maximumFractionDigits: 2 });
 
-export function PartsTable({ rows, loading, selectedId, onSelect, toolbar }: { rows: PartTypeRow[]; loading?: boolean; selectedId?: string | null; onSelect: (id: string) => void; toolbar?: React.ReactNode }) {
+export function PartsTable({
+  rows,
+  loading,
+  selectedId,
+  onSelect,
+  toolbar,
+}: {
+  rows: PartTypeRow[];
+  loading?: boolean;
+  selectedId?: string | null;
+  onSelect: (id: string) => void;
+  toolbar?: React.ReactNode;
+}) {
   const columns = [
     col.accessor('partNumber', { header: 'Part number', enableHiding: false, cell: (c) => <span className="font-semibold">{c.getValue()}</span> }),
     col.accessor('name', { header: 'Name' }),
@@ -38,24 +50,44 @@ export function PartsTable({ rows, loading, selectedId, onSelect, toolbar }: { r
         return (
           <span className="flex flex-col">
             <span className="tabular-nums">{formatQty(c.getValue(), r.stockUnit)}</span>
-            <span className="text-sm text-steel-700">{dec.format(r.usagePerDay)}/day, {r.leadTimeDays} d lead time</span>
+            <span className="text-sm text-steel-700">
+              {dec.format(r.usagePerDay)}/day, {r.leadTimeDays} d lead time
+            </span>
           </span>
         );
       },
     }),
     col.accessor('usagePerDay', { header: 'Use per day', cell: (c) => dec.format(c.getValue()) }),
     col.accessor('leadTimeDays', { header: 'Lead time', cell: (c) => `${c.getValue()} d` }),
-    col.accessor('expectedLife', { header: 'Expected life', cell: (c) => (c.getValue() !== null ? `${dec.format(c.getValue()!)} ${c.row.original.lifeUnit ? LIFE_UNIT_LABELS[c.row.original.lifeUnit] : ''}` : '—') }),
+    col.accessor('expectedLife', {
+      header: 'Expected life',
+      cell: (c) => (c.getValue() !== null ? `${dec.format(c.getValue()!)} ${c.row.original.lifeUnit ? LIFE_UNIT_LABELS[c.row.original.lifeUnit] : ''}` : '—'),
+    }),
     col.accessor('unitCost', { header: 'Unit cost', cell: (c) => <span className="tabular-nums">{formatMoney(c.getValue(), c.row.original.currency)}</span> }),
     col.display({
       id: 'select',
       header: 'Moves',
       cell: (c) => (
-        <Button variant={selectedId === c.row.original.id ? 'primary' : 'secondary'} onClick={() => onSelect(c.row.original.id)} aria-pressed={selectedId === c.row.original.id} aria-label={`Moves of ${c.row.original.partNumber}`}>
+        <Button
+          variant={selectedId === c.row.original.id ? 'primary' : 'secondary'}
+          onClick={() => onSelect(c.row.original.id)}
+          aria-pressed={selectedId === c.row.original.id}
+          aria-label={`Moves of ${c.row.original.partNumber}`}
+        >
           Moves
         </Button>
       ),
     }),
   ];
-  return <DataTable caption="Part catalogue" columns={columns} data={rows} loading={loading} getRowId={(r) => r.id} toolbar={toolbar} empty={<EmptyState title="No parts in the catalogue yet" />} />;
+  return (
+    <DataTable
+      caption="Part catalogue"
+      columns={columns}
+      data={rows}
+      loading={loading}
+      getRowId={(r) => r.id}
+      toolbar={toolbar}
+      empty={<EmptyState title="No parts in the catalogue yet" />}
+    />
+  );
 }

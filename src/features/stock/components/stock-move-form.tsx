@@ -26,7 +26,8 @@ const formSchema = z
     reason: z.string().trim().max(300, 'At most 300 characters').optional(),
   })
   .superRefine((v, ctx) => {
-    if (MOVES[v.move].kind === 'adjusted' && !v.reason) ctx.addIssue({ code: 'custom', path: ['reason'], message: 'Say why the count is corrected (e.g. stocktake)' });
+    if (MOVES[v.move].kind === 'adjusted' && !v.reason)
+      ctx.addIssue({ code: 'custom', path: ['reason'], message: 'Say why the count is corrected (e.g. stocktake)' });
   });
 type In = z.input<typeof formSchema>;
 type Out = z.output<typeof formSchema>;
@@ -36,7 +37,10 @@ export function StockMoveForm({ part }: { part: PartTypeRow }) {
   const record = useRecordStockMove();
   const [formError, setFormError] = useState<string | null>(null);
   const [saved, setSaved] = useState<string | null>(null);
-  const { register, handleSubmit, setError, reset, watch, formState } = useForm<In, unknown, Out>({ resolver: zodResolver(formSchema), defaultValues: { move: 'received' } });
+  const { register, handleSubmit, setError, reset, watch, formState } = useForm<In, unknown, Out>({
+    resolver: zodResolver(formSchema),
+    defaultValues: { move: 'received' },
+  });
   const move = MOVES[(watch('move') ?? 'received') as Move];
   const quantity = watch('quantity');
   const onSubmit = handleSubmit(async (values) => {
@@ -45,30 +49,62 @@ export function StockMoveForm({ part }: { part: PartTypeRow }) {
     const m = MOVES[values.move];
     try {
       const res = await record.mutateAsync({ partTypeId: part.id, kind: m.kind, quantity: m.sign * values.quantity, reason: values.reason || undefined });
-      setSaved(`Recorded: ${m.sign > 0 ? 'put in' : 'took out'} ${formatQty(values.quantity, part.stockUnit)}. ${part.partNumber} now has ${formatQty(res.onHand, part.stockUnit)} on hand.`);
+      setSaved(
+        `Recorded: ${m.sign > 0 ? 'put in' : 'took out'} ${formatQty(values.quantity, part.stockUnit)}. ${part.partNumber} now has ${formatQty(res.onHand, part.stockUnit)} on hand.`,
+      );
       reset({ move: values.move, reason: '' });
     } catch (err) {
       // The server speaks of the signed kind/quantity; both map onto this form's own fields.
-      setFormError(applyServerErrors(err, (name, e) => setError(name === 'kind' ? 'move' : (name as 'quantity' | 'reason'), e), ['kind', 'quantity', 'reason']));
+      setFormError(
+        applyServerErrors(err, (name, e) => setError(name === 'kind' ? 'move' : (name as 'quantity' | 'reason'), e), ['kind', 'quantity', 'reason']),
+      );
     }
   });
   const n = typeof quantity === 'number' && Number.isFinite(quantity) && quantity > 0 ? quantity : null;
   return (
-    <form onSubmit={onSubmit} noValidate aria-label={`Stock move for ${part.partNumber}`} className="grid gap-4 md:grid-cols-[16rem_10rem_1fr_auto] md:items-start">
+    <form
+      onSubmit={onSubmit}
+      noValidate
+      aria-label={`Stock move for ${part.partNumber}`}
+      className="grid gap-4 md:grid-cols-[16rem_10rem_1fr_auto] md:items-start"
+    >
       <div className="space-y-2 md:col-span-4">
-        {formError ? <Notice tone="danger" role="alert">{formError}</Notice> : null}
-        {saved ? <Notice tone="safe" role="status">{saved}</Notice> : null}
+        {formError ? (
+          <Notice tone="danger" role="alert">
+            {formError}
+          </Notice>
+        ) : null}
+        {saved ? (
+          <Notice tone="safe" role="status">
+            {saved}
+          </Notice>
+        ) : null}
       </div>
-      <SelectField label="Move" error={formState.errors.move?.message} options={Object.entries(MOVES).map(([value, m]) => ({ value, label: m.label }))} {...register('move')} />
+      <SelectField
+        label="Move"
+        error={formState.errors.move?.message}
+        options={Object.entries(MOVES).map(([value, m]) => ({ value, label: m.label }))}
+        {...register('move')}
+      />
       <TextField
         label={`How many (${part.stockUnit})`}
         inputMode="decimal"
-        hint={n === null ? (move.sign > 0 ? 'Puts this many in' : 'Takes this many out') : move.sign > 0 ? `Puts ${formatQty(n, part.stockUnit)} in` : `Takes ${formatQty(n, part.stockUnit)} out`}
+        hint={
+          n === null
+            ? move.sign > 0
+              ? 'Puts this many in'
+              : 'Takes this many out'
+            : move.sign > 0
+              ? `Puts ${formatQty(n, part.stockUnit)} in`
+              : `Takes ${formatQty(n, part.stockUnit)} out`
+        }
         error={formState.errors.quantity?.message}
         {...register('quantity', { setValueAs: (v) => (v === '' || v === undefined ? undefined : Number(v)) })}
       />
       <TextField label="Why" hint="Order number, stocktake, work order …" error={formState.errors.reason?.message} {...register('reason')} />
-      <Button type="submit" busy={formState.isSubmitting} className="md:mt-6">Record move</Button>
+      <Button type="submit" busy={formState.isSubmitting} className="md:mt-6">
+        Record move
+      </Button>
     </form>
   );
 }

@@ -13,7 +13,10 @@ export function InviteUserForm() {
   const invite = useInviteUser();
   const [formError, setFormError] = useState<string | null>(null);
   const [sentTo, setSentTo] = useState<string | null>(null);
-  const { register, handleSubmit, setError, reset, formState } = useForm<InviteUserInput>({ resolver: zodResolver(inviteUserSchema), defaultValues: { role: 'operator' } });
+  const { register, handleSubmit, setError, reset, formState } = useForm<InviteUserInput>({
+    resolver: zodResolver(inviteUserSchema),
+    defaultValues: { role: 'operator' },
+  });
   const onSubmit = handleSubmit(async (values) => {
     setFormError(null);
     setSentTo(null);
@@ -28,13 +31,28 @@ export function InviteUserForm() {
   return (
     <form onSubmit={onSubmit} noValidate aria-label="Invite someone" className="grid gap-4 md:grid-cols-[1fr_1fr_14rem_auto] md:items-start">
       <div className="md:col-span-4 space-y-2">
-        {formError ? <Notice tone="danger" role="alert">{formError}</Notice> : null}
-        {sentTo ? <Notice tone="safe" role="status">Invitation sent to {sentTo}. The link works once, for seven days.</Notice> : null}
+        {formError ? (
+          <Notice tone="danger" role="alert">
+            {formError}
+          </Notice>
+        ) : null}
+        {sentTo ? (
+          <Notice tone="safe" role="status">
+            Invitation sent to {sentTo}. The link works once, for seven days.
+          </Notice>
+        ) : null}
       </div>
       <TextField label="Name" autoComplete="off" error={formState.errors.name?.message} {...register('name')} />
       <TextField label="E-mail" type="email" autoComplete="off" error={formState.errors.email?.message} {...register('email')} />
-      <SelectField label="Role" error={formState.errors.role?.message} options={ROLES.map((r) => ({ value: r, label: ROLE_LABELS[r] }))} {...register('role')} />
-      <Button type="submit" busy={formState.isSubmitting} className="md:mt-6">Send invitation</Button>
+      <SelectField
+        label="Role"
+        error={formState.errors.role?.message}
+        options={ROLES.map((r) => ({ value: r, label: ROLE_LABELS[r] }))}
+        {...register('role')}
+      />
+      <Button type="submit" busy={formState.isSubmitting} className="md:mt-6">
+        Send invitation
+      </Button>
     </form>
   );
 }

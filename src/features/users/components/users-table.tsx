@@ -26,7 +26,15 @@ export function UsersTable({ currentUserId, timeZone }: { currentUserId: string;
   const resend = useResendInvitation();
   const pageSize = 25;
   const sort = (sorting[0]?.id ?? 'name') as ListUsersQuery['sort'];
-  const users = useUsers({ page, pageSize, q: q || undefined, role: role || undefined, status: status || undefined, sort, dir: sorting[0]?.desc ? 'desc' : 'asc' });
+  const users = useUsers({
+    page,
+    pageSize,
+    q: q || undefined,
+    role: role || undefined,
+    status: status || undefined,
+    sort,
+    dir: sorting[0]?.desc ? 'desc' : 'asc',
+  });
 
   const changeRole = async (row: MemberRow, next: Role) => {
     setMessage(null);
@@ -47,8 +55,18 @@ export function UsersTable({ currentUserId, timeZone }: { currentUserId: string;
         const row = c.row.original;
         if (row.userId === currentUserId) return ROLE_LABELS[row.role];
         return (
-          <select aria-label={`Role of ${row.name}`} className="min-h-touch rounded border border-steel-400 bg-white px-2" value={row.role} disabled={update.isPending} onChange={(e) => setPendingRole({ row, role: e.target.value as Role })}>
-            {ROLES.map((r) => <option key={r} value={r}>{ROLE_LABELS[r]}</option>)}
+          <select
+            aria-label={`Role of ${row.name}`}
+            className="min-h-touch rounded border border-steel-400 bg-white px-2"
+            value={row.role}
+            disabled={update.isPending}
+            onChange={(e) => setPendingRole({ row, role: e.target.value as Role })}
+          >
+            {ROLES.map((r) => (
+              <option key={r} value={r}>
+                {ROLE_LABELS[r]}
+              </option>
+            ))}
           </select>
         );
       },
@@ -94,7 +112,11 @@ export function UsersTable({ currentUserId, timeZone }: { currentUserId: string;
   const filterClass = 'min-h-touch rounded border border-steel-400 bg-white px-3 font-normal';
   return (
     <div className="space-y-3">
-      {message ? <Notice tone={message.tone} role="status">{message.text}</Notice> : null}
+      {message ? (
+        <Notice tone={message.tone} role="status">
+          {message.text}
+        </Notice>
+      ) : null}
       {users.isError ? <Notice tone="danger">{users.error.message}</Notice> : null}
       <DataTable
         caption="People in this shop"
@@ -103,20 +125,59 @@ export function UsersTable({ currentUserId, timeZone }: { currentUserId: string;
         loading={users.isLoading}
         getRowId={(r) => r.membershipId}
         empty={<EmptyState title="Nobody matches these filters" />}
-        server={{ total: users.data?.total ?? 0, page, pageSize, sorting, onSortingChange: (s) => { setSorting(s); setPage(1); }, onPageChange: setPage }}
+        server={{
+          total: users.data?.total ?? 0,
+          page,
+          pageSize,
+          sorting,
+          onSortingChange: (s) => {
+            setSorting(s);
+            setPage(1);
+          },
+          onPageChange: setPage,
+        }}
         toolbar={
           <>
-            <label className="flex flex-col text-sm font-semibold">Search
-              <input className={filterClass} value={q} placeholder="Name or e-mail" onChange={(e) => { setQ(e.target.value); setPage(1); }} />
+            <label className="flex flex-col text-sm font-semibold">
+              Search
+              <input
+                className={filterClass}
+                value={q}
+                placeholder="Name or e-mail"
+                onChange={(e) => {
+                  setQ(e.target.value);
+                  setPage(1);
+                }}
+              />
             </label>
-            <label className="flex flex-col text-sm font-semibold">Role
-              <select className={filterClass} value={role} onChange={(e) => { setRole(e.target.value as Role | ''); setPage(1); }}>
+            <label className="flex flex-col text-sm font-semibold">
+              Role
+              <select
+                className={filterClass}
+                value={role}
+                onChange={(e) => {
+                  setRole(e.target.value as Role | '');
+                  setPage(1);
+                }}
+              >
                 <option value="">All roles</option>
-                {ROLES.map((r) => <option key={r} value={r}>{ROLE_LABELS[r]}</option>)}
+                {ROLES.map((r) => (
+                  <option key={r} value={r}>
+                    {ROLE_LABELS[r]}
+                  </option>
+                ))}
               </select>
             </label>
-            <label className="flex flex-col text-sm font-semibold">Status
-              <select className={filterClass} value={status} onChange={(e) => { setStatus(e.target.value as ListUsersQuery['status'] | ''); setPage(1); }}>
+            <label className="flex flex-col text-sm font-semibold">
+              Status
+              <select
+                className={filterClass}
+                value={status}
+                onChange={(e) => {
+                  setStatus(e.target.value as ListUsersQuery['status'] | '');
+                  setPage(1);
+                }}
+              >
                 <option value="">Any status</option>
                 <option value="active">Active</option>
                 <option value="invited">Invited</option>
@@ -143,7 +204,13 @@ export function UsersTable({ currentUserId, timeZone }: { currentUserId: string;
       </ConfirmDialog>
       <ConfirmDialog
         open={pending !== null}
-        title={pending?.active ? `Reactivate ${pending?.row.name}?` : pending?.row.status === 'invited' ? `Withdraw the invitation to ${pending?.row.name}?` : `Deactivate ${pending?.row.name}?`}
+        title={
+          pending?.active
+            ? `Reactivate ${pending?.row.name}?`
+            : pending?.row.status === 'invited'
+              ? `Withdraw the invitation to ${pending?.row.name}?`
+              : `Deactivate ${pending?.row.name}?`
+        }
         confirmLabel={pending?.active ? 'Reactivate' : pending?.row.status === 'invited' ? 'Withdraw invitation' : 'Deactivate'}
         tone={pending?.active ? 'primary' : 'danger'}
         busy={update.isPending}

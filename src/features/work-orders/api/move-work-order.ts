@@ -4,7 +4,8 @@ import type { MoveWorkOrderInput } from '../../../../shared/schemas/work-orders'
 import { queryRoots } from '../../../lib/query-keys';
 import { workOrderKeys } from './keys';
 
-export const moveWorkOrder = ({ id, ...input }: MoveWorkOrderInput & { id: string }) => api<{ ok: true }>(`/work-orders/${id}/move`, { method: 'POST', body: input });
+export const moveWorkOrder = ({ id, ...input }: MoveWorkOrderInput & { id: string }) =>
+  api<{ ok: true }>(`/work-orders/${id}/move`, { method: 'POST', body: input });
 
 export function useMoveWorkOrder() {
   const qc = useQueryClient();

@@ -4,7 +4,8 @@ import type { UsePartInput } from '../../../../shared/schemas/work-orders';
 import { queryRoots } from '../../../lib/query-keys';
 import { workOrderKeys } from './keys';
 
-export const recordPartUsed = ({ id, ...input }: UsePartInput & { id: string }) => api<{ id: string }>(`/work-orders/${id}/parts`, { method: 'POST', body: input });
+export const recordPartUsed = ({ id, ...input }: UsePartInput & { id: string }) =>
+  api<{ id: string }>(`/work-orders/${id}/parts`, { method: 'POST', body: input });
 
 /** Records a part taken from stock for a work order (stock goes down). */
 export function useRecordPartUsed() {

@@ -11,7 +11,9 @@ export const saveChecklist = ({ id, ...input }: ChecklistResultsInput & { id: st
 function withChecklist(wo: WorkOrderDetail, checklist: ChecklistLine[]): WorkOrderDetail {
   const unanswered = checklist.filter((c) => c.result === null);
   const others = wo.closeBlockers.filter((b) => !/checklist lines? have no answer/.test(b));
-  const line = unanswered.length ? [`${unanswered.length} of ${checklist.length} checklist lines have no answer: ${unanswered.map((c) => c.label).join('; ')}`] : [];
+  const line = unanswered.length
+    ? [`${unanswered.length} of ${checklist.length} checklist lines have no answer: ${unanswered.map((c) => c.label).join('; ')}`]
+    : [];
   return { ...wo, checklist, closeBlockers: wo.closeBlockers.length || line.length ? [...line, ...others] : wo.closeBlockers };
 }
 

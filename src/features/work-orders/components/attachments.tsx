@@ -33,8 +33,12 @@ export function Attachments({ wo, timeZone, canUpload }: { wo: WorkOrderDetail; 
           return (
             <li key={a.id} className="rounded border border-steel-200 bg-white p-2">
               {a.mimeType.startsWith('image/') ? <img src={href} alt={`Photo ${a.fileName}`} className="h-40 w-full rounded object-cover" /> : null}
-              <a className="mt-1 inline-flex min-h-touch items-center font-semibold underline" href={href} target="_blank" rel="noreferrer">{a.fileName}</a>
-              <p className="text-xs text-steel-600">{Math.ceil(a.size / 1024)} kB · {a.by} · {formatWhen(a.at, timeZone)}</p>
+              <a className="mt-1 inline-flex min-h-touch items-center font-semibold underline" href={href} target="_blank" rel="noreferrer">
+                {a.fileName}
+              </a>
+              <p className="text-xs text-steel-600">
+                {Math.ceil(a.size / 1024)} kB · {a.by} · {formatWhen(a.at, timeZone)}
+              </p>
             </li>
           );
         })}
@@ -43,13 +47,28 @@ export function Attachments({ wo, timeZone, canUpload }: { wo: WorkOrderDetail; 
         <div className="flex flex-wrap items-end gap-3">
           {/* The browser's own file button is tiny; styled to the same glove-sized target as the rest. */}
           <div>
-            <label htmlFor="wo-file" className="block text-sm font-semibold">Photo or PDF (up to {ATTACHMENT_MAX_BYTES / 1024 / 1024} MB)</label>
-            <input id="wo-file" ref={input} type="file" accept="image/jpeg,image/png,image/webp,application/pdf" capture="environment" className="block min-h-touch w-full max-w-md text-base file:mr-3 file:min-h-touch file:cursor-pointer file:rounded file:border-2 file:border-steel-400 file:bg-white file:px-4 file:font-semibold file:text-steel-900" />
+            <label htmlFor="wo-file" className="block text-sm font-semibold">
+              Photo or PDF (up to {ATTACHMENT_MAX_BYTES / 1024 / 1024} MB)
+            </label>
+            <input
+              id="wo-file"
+              ref={input}
+              type="file"
+              accept="image/jpeg,image/png,image/webp,application/pdf"
+              capture="environment"
+              className="block min-h-touch w-full max-w-md text-base file:mr-3 file:min-h-touch file:cursor-pointer file:rounded file:border-2 file:border-steel-400 file:bg-white file:px-4 file:font-semibold file:text-steel-900"
+            />
           </div>
-          <Button variant="secondary" onClick={send} busy={upload.isPending}>Attach</Button>
+          <Button variant="secondary" onClick={send} busy={upload.isPending}>
+            Attach
+          </Button>
         </div>
       ) : null}
-      {message ? <Notice tone={message.tone} role={message.tone === 'danger' ? 'alert' : 'status'}>{message.text}</Notice> : null}
+      {message ? (
+        <Notice tone={message.tone} role={message.tone === 'danger' ? 'alert' : 'status'}>
+          {message.text}
+        </Notice>
+      ) : null}
     </div>
   );
 }

@@ -35,7 +35,10 @@ export function ChecklistForm({ workOrderId, lines, readOnly }: { workOrderId: s
   const [pending, setPending] = useState(0);
   const queue = useRef<Promise<unknown>>(Promise.resolve());
   const defaults = { results: lines.map((l) => ({ key: l.key, result: l.result, value: l.value, note: l.note })) };
-  const { register, setError, clearErrors, formState, control, reset, getValues, setValue } = useForm<In, unknown, Out>({ resolver: zodResolver(checklistResultsInput), defaultValues: defaults });
+  const { register, setError, clearErrors, formState, control, reset, getValues, setValue } = useForm<In, unknown, Out>({
+    resolver: zodResolver(checklistResultsInput),
+    defaultValues: defaults,
+  });
   // Server state wins after a save (other people may answer lines too); a field being edited keeps its text.
   useEffect(() => reset(defaults, { keepDirtyValues: true, keepErrors: true }), [JSON.stringify(lines)]); // eslint-disable-line react-hooks/exhaustive-deps
   const values = useWatch({ control, name: 'results' });
@@ -82,7 +85,9 @@ export function ChecklistForm({ workOrderId, lines, readOnly }: { workOrderId: s
   const answered = (values ?? []).filter((r) => r?.result).length;
   return (
     <form onSubmit={(e) => e.preventDefault()} noValidate aria-label="Checklist" className="space-y-4">
-      <p className="text-sm font-semibold text-steel-700" aria-live="polite">{answered} of {lines.length} answered</p>
+      <p className="text-sm font-semibold text-steel-700" aria-live="polite">
+        {answered} of {lines.length} answered
+      </p>
       <ol className="space-y-3">
         {lines.map((c, i) => {
           const v = values?.[i];
@@ -101,7 +106,9 @@ export function ChecklistForm({ workOrderId, lines, readOnly }: { workOrderId: s
                   {CHECK_RESULTS.map((r) => (
                     <label key={r} className="relative">
                       <input type="radio" value={r} className="peer sr-only" {...register(`results.${i}.result`, { onChange: () => saveLine(i) })} />
-                      <span className={`flex min-h-touch min-w-24 cursor-pointer items-center justify-center rounded border-2 border-steel-400 bg-white px-4 font-semibold peer-focus-visible:outline-3 peer-focus-visible:outline-offset-2 peer-focus-visible:outline-mandatory ${toneOf[r]}`}>
+                      <span
+                        className={`flex min-h-touch min-w-24 cursor-pointer items-center justify-center rounded border-2 border-steel-400 bg-white px-4 font-semibold peer-focus-visible:outline-3 peer-focus-visible:outline-offset-2 peer-focus-visible:outline-mandatory ${toneOf[r]}`}
+                      >
                         {CHECK_RESULT_LABELS[r]}
                       </span>
                     </label>
@@ -110,33 +117,52 @@ export function ChecklistForm({ workOrderId, lines, readOnly }: { workOrderId: s
                 {c.kind === 'measure' ? (
                   <div className="mt-3 grid gap-2 sm:grid-cols-[12rem_1fr] sm:items-end">
                     <div>
-                      <label htmlFor={`cl-${c.key}-value`} className="block text-sm font-semibold">Measured ({c.unit})</label>
+                      <label htmlFor={`cl-${c.key}-value`} className="block text-sm font-semibold">
+                        Measured ({c.unit})
+                      </label>
                       <input
                         id={`cl-${c.key}-value`}
                         inputMode="decimal"
                         className={inputClass}
                         aria-invalid={off || !!err?.value || undefined}
-                        {...register(`results.${i}.value`, { onBlur: () => saveLine(i, true), setValueAs: (x) => (x === '' || x === null || x === undefined ? null : Number(String(x).replace(',', '.'))) })}
+                        {...register(`results.${i}.value`, {
+                          onBlur: () => saveLine(i, true),
+                          setValueAs: (x) => (x === '' || x === null || x === undefined ? null : Number(String(x).replace(',', '.'))),
+                        })}
                       />
                     </div>
                     {off ? (
-                      <p className="text-sm font-semibold text-danger" role="status">Outside the limits: mark this line Not OK and say what you did in the note.</p>
+                      <p className="text-sm font-semibold text-danger" role="status">
+                        Outside the limits: mark this line Not OK and say what you did in the note.
+                      </p>
                     ) : null}
                   </div>
                 ) : null}
                 <div className="mt-2">
-                  <label htmlFor={`cl-${c.key}-note`} className="block text-sm font-semibold">Note (optional)</label>
-                  <input id={`cl-${c.key}-note`} className={inputClass} {...register(`results.${i}.note`, { onBlur: () => saveLine(i, true), setValueAs: (x) => (x ? x : null) })} />
+                  <label htmlFor={`cl-${c.key}-note`} className="block text-sm font-semibold">
+                    Note (optional)
+                  </label>
+                  <input
+                    id={`cl-${c.key}-note`}
+                    className={inputClass}
+                    {...register(`results.${i}.note`, { onBlur: () => saveLine(i, true), setValueAs: (x) => (x ? x : null) })}
+                  />
                 </div>
                 {err?.result?.message || err?.value?.message ? (
-                  <p className="mt-1 text-sm font-semibold text-danger" role="alert">{err?.result?.message ?? err?.value?.message}</p>
+                  <p className="mt-1 text-sm font-semibold text-danger" role="alert">
+                    {err?.result?.message ?? err?.value?.message}
+                  </p>
                 ) : null}
               </fieldset>
             </li>
           );
         })}
       </ol>
-      {message ? <Notice tone={message.tone} role={message.tone === 'danger' ? 'alert' : 'status'}>{message.text}</Notice> : null}
+      {message ? (
+        <Notice tone={message.tone} role={message.tone === 'danger' ? 'alert' : 'status'}>
+          {message.text}
+        </Notice>
+      ) : null}
       {readOnly ? null : (
         <p className="text-sm text-steel-600" role="status" aria-live="polite">
           {pending ? 'Saving answers…' : 'Each answer is saved as you give it; measured values and notes when you leave the field.'}

@@ -23,17 +23,27 @@ export function CloseWork({ wo, timeZone }: { wo: WorkOrderDetail; timeZone: str
       {wo.closeBlockers.length ? (
         <Notice tone="caution" title="Before you can sign off">
           <ul className="list-disc pl-5">
-            {wo.closeBlockers.map((b) => <li key={b}>{b}</li>)}
+            {wo.closeBlockers.map((b) => (
+              <li key={b}>{b}</li>
+            ))}
           </ul>
         </Notice>
       ) : (
-        <Notice tone="safe" title="Ready to sign off">Checklist complete{wo.requiresLockout ? ' and lockout released' : ''}.</Notice>
+        <Notice tone="safe" title="Ready to sign off">
+          Checklist complete{wo.requiresLockout ? ' and lockout released' : ''}.
+        </Notice>
       )}
       <Button onClick={signOff} busy={close.isPending} disabled={wo.closeBlockers.length > 0} aria-describedby="signoff-help">
         Sign off the work
       </Button>
-      <p id="signoff-help" className="text-sm text-steel-600">Signing off records you as the person who finished the work, with the time, checklist answers, parts and time spent.</p>
-      {message ? <Notice tone={message.tone} role={message.tone === 'danger' ? 'alert' : 'status'}>{message.text}</Notice> : null}
+      <p id="signoff-help" className="text-sm text-steel-600">
+        Signing off records you as the person who finished the work, with the time, checklist answers, parts and time spent.
+      </p>
+      {message ? (
+        <Notice tone={message.tone} role={message.tone === 'danger' ? 'alert' : 'status'}>
+          {message.text}
+        </Notice>
+      ) : null}
     </div>
   );
 }

@@ -13,17 +13,27 @@ export function MyWorkPanel({ timeZone, scope = 'mine' }: { timeZone: string; sc
   return (
     <Panel
       title={scope === 'mine' ? 'My open work' : 'Open work in the shop'}
-      actions={<Link className="inline-flex min-h-touch items-center font-semibold text-mandatory underline" to={base}>{scope === 'mine' ? 'All my work' : 'All work orders'}</Link>}
+      actions={
+        <Link className="inline-flex min-h-touch items-center font-semibold text-mandatory underline" to={base}>
+          {scope === 'mine' ? 'All my work' : 'All work orders'}
+        </Link>
+      }
     >
       {q.isError ? <Notice tone="danger">{q.error.message}</Notice> : null}
       {overdue.data && overdue.data.total > 0 ? (
         <div className="mb-3">
           <Notice tone="danger" title={`${overdue.data.total} past due`}>
-            <Link className="font-semibold underline" to={`${base}&due=overdue`}>Show past-due work</Link>
+            <Link className="font-semibold underline" to={`${base}&due=overdue`}>
+              Show past-due work
+            </Link>
           </Notice>
         </div>
       ) : null}
-      {q.data && q.data.rows.length === 0 ? <EmptyState title={scope === 'mine' ? 'Nothing open for you' : 'No open work'}>New work appears here when a plan falls due or someone reports a fault.</EmptyState> : null}
+      {q.data && q.data.rows.length === 0 ? (
+        <EmptyState title={scope === 'mine' ? 'Nothing open for you' : 'No open work'}>
+          New work appears here when a plan falls due or someone reports a fault.
+        </EmptyState>
+      ) : null}
       <ul className="divide-y divide-steel-200">
         {(q.data?.rows ?? []).map((w) => (
           <li key={w.id}>
@@ -34,7 +44,9 @@ export function MyWorkPanel({ timeZone, scope = 'mine' }: { timeZone: string; sc
               <span className="ml-auto flex items-center gap-2 text-sm">
                 {w.requiresLockout ? <LockoutBadge /> : null}
                 <DueBadge state={w.dueState} />
-                <span className="text-steel-700" title={formatWhen(w.dueAt, timeZone)}>{relative(w.dueAt)}</span>
+                <span className="text-steel-700" title={formatWhen(w.dueAt, timeZone)}>
+                  {relative(w.dueAt)}
+                </span>
               </span>
             </Link>
           </li>

@@ -43,15 +43,29 @@ export function NotifyPreferenceForm() {
       </fieldset>
       {mode === 'daily' ? (
         <div className="max-w-xs">
-          <label htmlFor="digest-hour" className="block text-sm font-semibold">Send the summary after (site time, {q.data.timeZone})</label>
+          <label htmlFor="digest-hour" className="block text-sm font-semibold">
+            Send the summary after (site time, {q.data.timeZone})
+          </label>
           <select id="digest-hour" className={inputClass} value={hour} onChange={(e) => setHour(Number(e.target.value))}>
-            {Array.from({ length: 24 }, (_, h) => <option key={h} value={h}>{String(h).padStart(2, '0')}:00</option>)}
+            {Array.from({ length: 24 }, (_, h) => (
+              <option key={h} value={h}>
+                {String(h).padStart(2, '0')}:00
+              </option>
+            ))}
           </select>
         </div>
       ) : null}
-      <Notice tone="mandatory" title="Always sent">Notices about past-due safety work reach you whatever you choose here.</Notice>
-      <Button type="submit" busy={save.isPending}>Save</Button>
-      {message ? <Notice tone={message.tone} role={message.tone === 'danger' ? 'alert' : 'status'}>{message.text}</Notice> : null}
+      <Notice tone="mandatory" title="Always sent">
+        Notices about past-due safety work reach you whatever you choose here.
+      </Notice>
+      <Button type="submit" busy={save.isPending}>
+        Save
+      </Button>
+      {message ? (
+        <Notice tone={message.tone} role={message.tone === 'danger' ? 'alert' : 'status'}>
+          {message.text}
+        </Notice>
+      ) : null}
     </form>
   );
 }

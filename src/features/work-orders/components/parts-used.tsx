@@ -21,7 +21,10 @@ export function PartsUsed({ wo, timeZone, readOnly }: { wo: WorkOrderDetail; tim
   const giveBack = useReturnPart();
   const lookups = useLookups();
   const [message, setMessage] = useState<{ tone: 'danger' | 'safe'; text: string } | null>(null);
-  const { register, handleSubmit, setError, formState, reset, setValue } = useForm<In, unknown, Out>({ resolver: zodResolver(usePartInput), defaultValues: { partTypeId: '', quantity: 1 } });
+  const { register, handleSubmit, setError, formState, reset, setValue } = useForm<In, unknown, Out>({
+    resolver: zodResolver(usePartInput),
+    defaultValues: { partTypeId: '', quantity: 1 },
+  });
   const parts = lookups.data?.parts ?? [];
   const onSubmit = handleSubmit(async (v) => {
     setMessage(null);
@@ -42,9 +45,18 @@ export function PartsUsed({ wo, timeZone, readOnly }: { wo: WorkOrderDetail; tim
           <ul className="mt-1 space-y-1">
             {wo.plannedParts.map((p) => (
               <li key={p.partTypeId} className="flex flex-wrap items-center gap-2">
-                <span>{p.quantity} {p.stockUnit} · {p.partNumber} {p.name}</span>
+                <span>
+                  {p.quantity} {p.stockUnit} · {p.partNumber} {p.name}
+                </span>
                 {readOnly ? null : (
-                  <Button variant="ghost" className="underline" onClick={() => { setValue('partTypeId', p.partTypeId); setValue('quantity', p.quantity); }}>
+                  <Button
+                    variant="ghost"
+                    className="underline"
+                    onClick={() => {
+                      setValue('partTypeId', p.partTypeId);
+                      setValue('quantity', p.quantity);
+                    }}
+                  >
                     Use these
                   </Button>
                 )}
@@ -61,17 +73,36 @@ export function PartsUsed({ wo, timeZone, readOnly }: { wo: WorkOrderDetail; tim
           <table className="mt-1 w-full text-left text-sm">
             <caption className="sr-only">Parts used</caption>
             <thead>
-              <tr className="border-b border-steel-300"><th scope="col" className="py-1">Part</th><th scope="col">Quantity</th><th scope="col">By</th><th scope="col"><span className="sr-only">Actions</span></th></tr>
+              <tr className="border-b border-steel-300">
+                <th scope="col" className="py-1">
+                  Part
+                </th>
+                <th scope="col">Quantity</th>
+                <th scope="col">By</th>
+                <th scope="col">
+                  <span className="sr-only">Actions</span>
+                </th>
+              </tr>
             </thead>
             <tbody>
               {wo.partsUsed.map((p) => (
                 <tr key={p.id} className="border-b border-steel-100">
-                  <td className="py-1">{p.partNumber} · {p.name}</td>
-                  <td>{p.quantity} {p.stockUnit}</td>
-                  <td>{p.by} <span className="text-steel-600">{formatWhen(p.at, timeZone)}</span></td>
+                  <td className="py-1">
+                    {p.partNumber} · {p.name}
+                  </td>
+                  <td>
+                    {p.quantity} {p.stockUnit}
+                  </td>
+                  <td>
+                    {p.by} <span className="text-steel-600">{formatWhen(p.at, timeZone)}</span>
+                  </td>
                   <td className="text-right">
                     {readOnly ? null : (
-                      <Button variant="ghost" busy={giveBack.isPending && giveBack.variables?.lineId === p.id} onClick={() => giveBack.mutate({ id: wo.id, lineId: p.id })}>
+                      <Button
+                        variant="ghost"
+                        busy={giveBack.isPending && giveBack.variables?.lineId === p.id}
+                        onClick={() => giveBack.mutate({ id: wo.id, lineId: p.id })}
+                      >
                         Return to stock
                       </Button>
                     )}
@@ -87,14 +118,28 @@ export function PartsUsed({ wo, timeZone, readOnly }: { wo: WorkOrderDetail; tim
           <SelectField
             label="Part, oil or grease"
             error={formState.errors.partTypeId?.message}
-            options={[{ value: '', label: 'Choose…' }, ...parts.map((p) => ({ value: p.id, label: `${p.partNumber} · ${p.name} (${p.onHand} ${p.stockUnit} in stock)` }))]}
+            options={[
+              { value: '', label: 'Choose…' },
+              ...parts.map((p) => ({ value: p.id, label: `${p.partNumber} · ${p.name} (${p.onHand} ${p.stockUnit} in stock)` })),
+            ]}
             {...register('partTypeId')}
           />
-          <TextField label="Quantity" inputMode="decimal" error={formState.errors.quantity?.message} {...register('quantity', { setValueAs: (x) => (x === '' ? undefined : Number(String(x).replace(',', '.'))) })} />
-          <Button type="submit" className="sm:mt-6" busy={formState.isSubmitting}>Record use</Button>
+          <TextField
+            label="Quantity"
+            inputMode="decimal"
+            error={formState.errors.quantity?.message}
+            {...register('quantity', { setValueAs: (x) => (x === '' ? undefined : Number(String(x).replace(',', '.'))) })}
+          />
+          <Button type="submit" className="sm:mt-6" busy={formState.isSubmitting}>
+            Record use
+          </Button>
         </form>
       )}
-      {message ? <Notice tone={message.tone} role={message.tone === 'danger' ? 'alert' : 'status'}>{message.text}</Notice> : null}
+      {message ? (
+        <Notice tone={message.tone} role={message.tone === 'danger' ? 'alert' : 'status'}>
+          {message.text}
+        </Notice>
+      ) : null}
     </div>
   );
 }

@@ -16,14 +16,33 @@ type In = z.input<typeof raiseWorkOrderInput>;
 type Out = z.output<typeof raiseWorkOrderInput>;
 
 /** Report a fault or ask for repair work by hand. */
-export function RaiseWorkForm({ onRaised, defaultMachineId, defaultInstructions, timeZone }: { onRaised: (r: { id: string; number: number }) => void; defaultMachineId?: string; defaultInstructions?: string; timeZone: string }) {
+export function RaiseWorkForm({
+  onRaised,
+  defaultMachineId,
+  defaultInstructions,
+  timeZone,
+}: {
+  onRaised: (r: { id: string; number: number }) => void;
+  defaultMachineId?: string;
+  defaultInstructions?: string;
+  timeZone: string;
+}) {
   const raise = useRaiseWorkOrder();
   const lookups = useLookups();
   const [formError, setFormError] = useState<string | null>(null);
   const [dueLocal, setDueLocal] = useState('');
   const { register, handleSubmit, setError, formState } = useForm<In, unknown, Out>({
     resolver: zodResolver(raiseWorkOrderInput),
-    defaultValues: { machineId: defaultMachineId ?? '', title: '', instructions: defaultInstructions ?? '', responsibleRole: 'technician', requiresLockout: false, safetyCritical: false, assigneeId: null, dueAt: null },
+    defaultValues: {
+      machineId: defaultMachineId ?? '',
+      title: '',
+      instructions: defaultInstructions ?? '',
+      responsibleRole: 'technician',
+      requiresLockout: false,
+      safetyCritical: false,
+      assigneeId: null,
+      dueAt: null,
+    },
   });
   const onSubmit = handleSubmit(async (values) => {
     setFormError(null);
@@ -37,20 +56,35 @@ export function RaiseWorkForm({ onRaised, defaultMachineId, defaultInstructions,
   const people = lookups.data?.people ?? [];
   return (
     <form onSubmit={onSubmit} noValidate aria-label="Report work" className="grid gap-4 md:grid-cols-2">
-      {formError ? <div className="md:col-span-2"><Notice tone="danger" role="alert">{formError}</Notice></div> : null}
+      {formError ? (
+        <div className="md:col-span-2">
+          <Notice tone="danger" role="alert">
+            {formError}
+          </Notice>
+        </div>
+      ) : null}
       <SelectField
         label="Machine"
         error={formState.errors.machineId?.message}
         options={[{ value: '', label: 'Choose a machine…' }, ...(lookups.data?.machines ?? []).map((m) => ({ value: m.id, label: `${m.code} · ${m.name}` }))]}
         {...register('machineId')}
       />
-      <TextField label="What is wrong or needed" error={formState.errors.title?.message} placeholder="e.g. Hose weeping at the pump outlet" {...register('title')} />
+      <TextField
+        label="What is wrong or needed"
+        error={formState.errors.title?.message}
+        placeholder="e.g. Hose weeping at the pump outlet"
+        {...register('title')}
+      />
       <div className="space-y-1 md:col-span-2">
-        <label htmlFor="raise-instructions" className="block text-sm font-semibold text-steel-800">Details</label>
+        <label htmlFor="raise-instructions" className="block text-sm font-semibold text-steel-800">
+          Details
+        </label>
         <textarea id="raise-instructions" rows={3} className={inputClass} {...register('instructions')} />
       </div>
       <div className="space-y-1">
-        <label htmlFor="raise-due" className="block text-sm font-semibold text-steel-800">Needed by (optional, site time)</label>
+        <label htmlFor="raise-due" className="block text-sm font-semibold text-steel-800">
+          Needed by (optional, site time)
+        </label>
         <input id="raise-due" type="datetime-local" className={inputClass} value={dueLocal} onChange={(e) => setDueLocal(e.target.value)} />
       </div>
       <SelectField
@@ -75,7 +109,9 @@ export function RaiseWorkForm({ onRaised, defaultMachineId, defaultInstructions,
         </label>
       </fieldset>
       <div className="md:col-span-2">
-        <Button type="submit" busy={formState.isSubmitting}>Raise work order</Button>
+        <Button type="submit" busy={formState.isSubmitting}>
+          Raise work order
+        </Button>
       </div>
     </form>
   );

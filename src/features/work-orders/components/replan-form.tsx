@@ -7,7 +7,6 @@ import { useUpdateWorkOrder } from '../api/update-work-order';
 import { useLookups } from '../../../lib/lookups';
 import { fromShopLocal, inputClass, toShopLocal } from './format';
 
-
 /** Name who does the work and when it is needed by. */
 export function ReplanForm({ wo, timeZone }: { wo: WorkOrderDetail; timeZone: string }) {
   const update = useUpdateWorkOrder();
@@ -28,18 +27,34 @@ export function ReplanForm({ wo, timeZone }: { wo: WorkOrderDetail; timeZone: st
   return (
     <form onSubmit={save} aria-label="Who and when" className="grid gap-3 sm:grid-cols-[1fr_1fr_auto] sm:items-end">
       <div>
-        <label htmlFor="wo-assignee" className="block text-sm font-semibold">Person doing it</label>
+        <label htmlFor="wo-assignee" className="block text-sm font-semibold">
+          Person doing it
+        </label>
         <select id="wo-assignee" className={inputClass} value={assignee} onChange={(e) => setAssignee(e.target.value)}>
           <option value="">{wo.responsibleRole ? `Any ${ROLE_LABELS[wo.responsibleRole].toLowerCase()}` : 'No one named'}</option>
-          {(lookups.data?.people ?? []).map((p) => <option key={p.userId} value={p.userId}>{p.name} ({ROLE_LABELS[p.role]})</option>)}
+          {(lookups.data?.people ?? []).map((p) => (
+            <option key={p.userId} value={p.userId}>
+              {p.name} ({ROLE_LABELS[p.role]})
+            </option>
+          ))}
         </select>
       </div>
       <div>
-        <label htmlFor="wo-due" className="block text-sm font-semibold">Needed by (site time)</label>
+        <label htmlFor="wo-due" className="block text-sm font-semibold">
+          Needed by (site time)
+        </label>
         <input id="wo-due" type="datetime-local" className={inputClass} value={due} onChange={(e) => setDue(e.target.value)} />
       </div>
-      <Button type="submit" variant="secondary" busy={update.isPending}>Save</Button>
-      {message ? <div className="sm:col-span-3"><Notice tone={message.tone} role={message.tone === 'danger' ? 'alert' : 'status'}>{message.text}</Notice></div> : null}
+      <Button type="submit" variant="secondary" busy={update.isPending}>
+        Save
+      </Button>
+      {message ? (
+        <div className="sm:col-span-3">
+          <Notice tone={message.tone} role={message.tone === 'danger' ? 'alert' : 'status'}>
+            {message.text}
+          </Notice>
+        </div>
+      ) : null}
     </form>
   );
 }

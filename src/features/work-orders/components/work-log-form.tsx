@@ -18,7 +18,8 @@ export function WorkLogForm({ wo, readOnly }: { wo: WorkOrderDetail; readOnly: b
     setMessage(null);
     setMinutesError(null);
     const n = minutes.trim() === '' ? 0 : Number(minutes);
-    if (!Number.isInteger(n) || n < 0) return setMinutesError(n < 0 ? 'Cannot be negative: enter whole minutes, 0 or more.' : 'Enter whole minutes, 0 or more.');
+    if (!Number.isInteger(n) || n < 0)
+      return setMinutesError(n < 0 ? 'Cannot be negative: enter whole minutes, 0 or more.' : 'Enter whole minutes, 0 or more.');
     try {
       await update.mutateAsync({ id: wo.id, labourMinutes: n, notes });
       setMessage({ tone: 'safe', text: 'Saved.' });
@@ -31,7 +32,9 @@ export function WorkLogForm({ wo, readOnly }: { wo: WorkOrderDetail; readOnly: b
   return (
     <form onSubmit={save} aria-label="Time and notes" className="grid gap-3 sm:grid-cols-[12rem_1fr]">
       <div>
-        <label htmlFor="wo-minutes" className="block text-sm font-semibold">Time spent (minutes)</label>
+        <label htmlFor="wo-minutes" className="block text-sm font-semibold">
+          Time spent (minutes)
+        </label>
         <input
           id="wo-minutes"
           inputMode="numeric"
@@ -40,16 +43,37 @@ export function WorkLogForm({ wo, readOnly }: { wo: WorkOrderDetail; readOnly: b
           disabled={readOnly}
           aria-invalid={minutesError ? true : undefined}
           aria-describedby={minutesError ? 'wo-minutes-error' : undefined}
-          onChange={(e) => { setMinutes(e.target.value); setMinutesError(null); }}
+          onChange={(e) => {
+            setMinutes(e.target.value);
+            setMinutesError(null);
+          }}
         />
-        {minutesError ? <p id="wo-minutes-error" className="mt-1 text-sm font-semibold text-danger" role="alert">{minutesError}</p> : null}
+        {minutesError ? (
+          <p id="wo-minutes-error" className="mt-1 text-sm font-semibold text-danger" role="alert">
+            {minutesError}
+          </p>
+        ) : null}
       </div>
       <div>
-        <label htmlFor="wo-notes" className="block text-sm font-semibold">Notes</label>
+        <label htmlFor="wo-notes" className="block text-sm font-semibold">
+          Notes
+        </label>
         <textarea id="wo-notes" rows={3} className={inputClass} value={notes} disabled={readOnly} onChange={(e) => setNotes(e.target.value)} />
       </div>
-      {readOnly ? null : <div className="sm:col-span-2"><Button type="submit" variant="secondary" busy={update.isPending}>Save time and notes</Button></div>}
-      {message ? <div className="sm:col-span-2"><Notice tone={message.tone} role={message.tone === 'danger' ? 'alert' : 'status'}>{message.text}</Notice></div> : null}
+      {readOnly ? null : (
+        <div className="sm:col-span-2">
+          <Button type="submit" variant="secondary" busy={update.isPending}>
+            Save time and notes
+          </Button>
+        </div>
+      )}
+      {message ? (
+        <div className="sm:col-span-2">
+          <Notice tone={message.tone} role={message.tone === 'danger' ? 'alert' : 'status'}>
+            {message.text}
+          </Notice>
+        </div>
+      ) : null}
     </form>
   );
 }

@@ -24,16 +24,24 @@ export function WorkOrderSummary({ wo, timeZone }: { wo: WorkOrderDetail; timeZo
           <dl className="grid grid-cols-[auto_1fr] gap-x-4 gap-y-1 text-sm">
             <dt className="font-semibold">Machine</dt>
             <dd>
-              <Link className="underline" to={paths.machine.getHref(wo.machine.id)}>{wo.machine.code} · {wo.machine.name}</Link>
+              <Link className="underline" to={paths.machine.getHref(wo.machine.id)}>
+                {wo.machine.code} · {wo.machine.name}
+              </Link>
             </dd>
             <dt className="font-semibold">Due</dt>
-            <dd>{formatWhen(wo.dueAt, timeZone)} {wo.dueAt && open ? <span className="text-steel-600">({relative(wo.dueAt)})</span> : null}</dd>
+            <dd>
+              {formatWhen(wo.dueAt, timeZone)} {wo.dueAt && open ? <span className="text-steel-600">({relative(wo.dueAt)})</span> : null}
+            </dd>
             <dt className="font-semibold">For</dt>
             <dd>{wo.assignee?.name ?? (wo.responsibleRole ? `Any ${ROLE_LABELS[wo.responsibleRole].toLowerCase()}` : '—')}</dd>
             {wo.plan ? (
               <>
                 <dt className="font-semibold">Plan</dt>
-                <dd><Link className="underline" to={`/plans/${wo.plan.id}`}>{wo.plan.title}</Link></dd>
+                <dd>
+                  <Link className="underline" to={`/plans/${wo.plan.id}`}>
+                    {wo.plan.title}
+                  </Link>
+                </dd>
               </>
             ) : null}
             {wo.estimatedMinutes ? (
@@ -43,12 +51,27 @@ export function WorkOrderSummary({ wo, timeZone }: { wo: WorkOrderDetail; timeZo
               </>
             ) : null}
             <dt className="font-semibold">Raised</dt>
-            <dd>{formatWhen(wo.raisedAt, timeZone)}{wo.raisedBy ? ` by ${wo.raisedBy.name}` : ' by the schedule'}</dd>
+            <dd>
+              {formatWhen(wo.raisedAt, timeZone)}
+              {wo.raisedBy ? ` by ${wo.raisedBy.name}` : ' by the schedule'}
+            </dd>
           </dl>
-          {wo.reason ? <p className="text-sm text-steel-700"><span className="font-semibold">Why:</span> {wo.reason}</p> : null}
+          {wo.reason ? (
+            <p className="text-sm text-steel-700">
+              <span className="font-semibold">Why:</span> {wo.reason}
+            </p>
+          ) : null}
           {wo.instructions ? <div className="whitespace-pre-line rounded bg-steel-50 p-3">{wo.instructions}</div> : null}
-          {wo.status === 'on-hold' && wo.holdReason ? <Notice tone="caution" title="Paused">{wo.holdReason}</Notice> : null}
-          {wo.status === 'cancelled' ? <Notice tone="info" title="Called off">{wo.cancelReason}</Notice> : null}
+          {wo.status === 'on-hold' && wo.holdReason ? (
+            <Notice tone="caution" title="Paused">
+              {wo.holdReason}
+            </Notice>
+          ) : null}
+          {wo.status === 'cancelled' ? (
+            <Notice tone="info" title="Called off">
+              {wo.cancelReason}
+            </Notice>
+          ) : null}
           {wo.status === 'done' ? (
             <Notice tone="safe" title="Signed off" role="status">
               {wo.completedBy?.name} signed this off on {formatWhen(wo.completedAt, timeZone)}.
@@ -62,17 +85,26 @@ export function WorkOrderSummary({ wo, timeZone }: { wo: WorkOrderDetail; timeZo
         {wo.requiresLockout ? (
           <Panel title="Lockout/tagout">
             {wo.lockoutReleasedAt ? (
-              <Notice tone="safe" title="Released">The lockout for this work was released on {formatWhen(wo.lockoutReleasedAt, timeZone)}.</Notice>
+              <Notice tone="safe" title="Released">
+                The lockout for this work was released on {formatWhen(wo.lockoutReleasedAt, timeZone)}.
+              </Notice>
             ) : wo.lockoutSessionId ? (
               <Notice tone="mandatory" title="Lockout applied">
                 Work under the lockout. Release it in the safety log before signing off.{' '}
-                <Link className="font-semibold underline" to={paths.safetyLockout.getHref(wo.lockoutSessionId)}>Open the lockout</Link>
+                <Link className="font-semibold underline" to={paths.safetyLockout.getHref(wo.lockoutSessionId)}>
+                  Open the lockout
+                </Link>
               </Notice>
             ) : (
               <Notice tone="mandatory" title="Apply lockout before work">
                 This work needs the machine isolated under the site’s energy-control procedure.{' '}
                 {open ? (
-                  <Link className="mt-3 flex min-h-touch items-center justify-center rounded bg-steel-800 px-4 py-2 font-semibold text-white hover:bg-steel-700" to={paths.safetyLockoutNew.getHref({ machineId: wo.machine.id, workOrderId: wo.id })}>Start a lockout for this work</Link>
+                  <Link
+                    className="mt-3 flex min-h-touch items-center justify-center rounded bg-steel-800 px-4 py-2 font-semibold text-white hover:bg-steel-700"
+                    to={paths.safetyLockoutNew.getHref({ machineId: wo.machine.id, workOrderId: wo.id })}
+                  >
+                    Start a lockout for this work
+                  </Link>
                 ) : null}
               </Notice>
             )}

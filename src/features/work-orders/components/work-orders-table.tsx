@@ -3,7 +3,15 @@ import { Link, useSearchParams } from 'react-router-dom';
 import { createColumnHelper, type SortingState } from '@tanstack/react-table';
 import { DataTable } from '../../../components/ui/data-table';
 import { EmptyState, Notice } from '../../../components/ui/notice';
-import { DUE_FILTERS, DUE_FILTER_LABELS, WORK_KIND_LABELS, WORK_STATES, WORK_STATE_LABELS, type ListWorkOrdersQuery, type WorkOrderRow } from '../../../../shared/schemas/work-orders';
+import {
+  DUE_FILTERS,
+  DUE_FILTER_LABELS,
+  WORK_KIND_LABELS,
+  WORK_STATES,
+  WORK_STATE_LABELS,
+  type ListWorkOrdersQuery,
+  type WorkOrderRow,
+} from '../../../../shared/schemas/work-orders';
 import { ROLE_LABELS } from '../../../../shared/permissions';
 import { useWorkOrders } from '../api/get-work-orders';
 import { useLookups } from '../../../lib/lookups';
@@ -72,7 +80,12 @@ export function WorkOrdersTable({
         // A big target for gloved fingers; keyboards and screen readers use the title link of the same row.
         cell: (c) => (
           <>
-            <Link className="inline-flex min-h-touch items-center font-bold text-mandatory underline" to={`/work-orders/${c.row.original.id}`} tabIndex={-1} aria-hidden="true">
+            <Link
+              className="inline-flex min-h-touch items-center font-bold text-mandatory underline"
+              to={`/work-orders/${c.row.original.id}`}
+              tabIndex={-1}
+              aria-hidden="true"
+            >
               {c.getValue()}
             </Link>
             <span className="sr-only">{c.getValue()}</span>
@@ -84,7 +97,9 @@ export function WorkOrdersTable({
         header: 'Work',
         cell: (c) => (
           <div className="min-w-48">
-            <Link className="font-semibold underline" to={`/work-orders/${c.row.original.id}`}>{c.getValue()}</Link>
+            <Link className="font-semibold underline" to={`/work-orders/${c.row.original.id}`}>
+              {c.getValue()}
+            </Link>
             <div className="mt-1 flex flex-wrap gap-1">
               {c.row.original.requiresLockout ? <LockoutBadge /> : null}
               <span className="text-xs text-steel-600">
@@ -109,7 +124,11 @@ export function WorkOrdersTable({
         ),
       }),
       col.accessor('status', { id: 'status', header: 'State', cell: (c) => <StateBadge status={c.getValue()} /> }),
-      col.accessor((r) => r.assignee?.name ?? (r.responsibleRole ? `Any ${ROLE_LABELS[r.responsibleRole].toLowerCase()}` : '—'), { id: 'assignee', header: 'For', enableSorting: false }),
+      col.accessor((r) => r.assignee?.name ?? (r.responsibleRole ? `Any ${ROLE_LABELS[r.responsibleRole].toLowerCase()}` : '—'), {
+        id: 'assignee',
+        header: 'For',
+        enableSorting: false,
+      }),
       col.accessor('raisedAt', { id: 'raisedAt', header: 'Raised', cell: (c) => formatWhen(c.getValue(), timeZone, false) }),
     ],
     [timeZone],
@@ -117,7 +136,11 @@ export function WorkOrdersTable({
 
   return (
     <div className="space-y-3">
-      {q.isError ? <Notice tone="danger" role="alert">{q.error.message}</Notice> : null}
+      {q.isError ? (
+        <Notice tone="danger" role="alert">
+          {q.error.message}
+        </Notice>
+      ) : null}
       <DataTable
         caption={caption}
         columns={columns}
@@ -151,16 +174,26 @@ export function WorkOrdersTable({
                 <select className={filterClass} value={get('machineId')} onChange={(e) => set('machineId', e.target.value)}>
                   <option value="">All machines</option>
                   {(lookups.data?.machines ?? []).map((m) => (
-                    <option key={m.id} value={m.id}>{m.code} · {m.name}</option>
+                    <option key={m.id} value={m.id}>
+                      {m.code} · {m.name}
+                    </option>
                   ))}
                 </select>
               </label>
             )}
             <label className="flex flex-col text-sm font-semibold">
               State
-              <select className={filterClass} value={status ?? defaultStatus} onChange={(e) => set('status', e.target.value === defaultStatus ? '' : e.target.value)}>
+              <select
+                className={filterClass}
+                value={status ?? defaultStatus}
+                onChange={(e) => set('status', e.target.value === defaultStatus ? '' : e.target.value)}
+              >
                 <option value="active">Not finished</option>
-                {WORK_STATES.map((s) => <option key={s} value={s}>{WORK_STATE_LABELS[s]}</option>)}
+                {WORK_STATES.map((s) => (
+                  <option key={s} value={s}>
+                    {WORK_STATE_LABELS[s]}
+                  </option>
+                ))}
                 <option value="any">Any state</option>
               </select>
             </label>
@@ -168,7 +201,11 @@ export function WorkOrdersTable({
               Due
               <select className={filterClass} value={get('due')} onChange={(e) => set('due', e.target.value)}>
                 <option value="">Any time</option>
-                {DUE_FILTERS.map((d) => <option key={d} value={d}>{DUE_FILTER_LABELS[d]}</option>)}
+                {DUE_FILTERS.map((d) => (
+                  <option key={d} value={d}>
+                    {DUE_FILTER_LABELS[d]}
+                  </option>
+                ))}
               </select>
             </label>
             {fixed.planId ? null : (
@@ -179,7 +216,12 @@ export function WorkOrdersTable({
                   {(plans.data?.rows ?? [])
                     // Narrowed to the chosen machine, but a chosen plan stays listed so the select never shows blank.
                     .filter((p) => !get('machineId') || p.machine.id === get('machineId') || p.id === get('planId'))
-                    .map((p) => <option key={p.id} value={p.id}>{p.machine.code} · {p.title}{p.active ? '' : ' (retired)'}</option>)}
+                    .map((p) => (
+                      <option key={p.id} value={p.id}>
+                        {p.machine.code} · {p.title}
+                        {p.active ? '' : ' (retired)'}
+                      </option>
+                    ))}
                 </select>
               </label>
             )}
@@ -190,7 +232,11 @@ export function WorkOrdersTable({
                   <option value="">Everyone</option>
                   <option value="me">Me (and my role)</option>
                   <option value="unassigned">No one named</option>
-                  {(lookups.data?.people ?? []).map((p) => <option key={p.userId} value={p.userId}>{p.name}</option>)}
+                  {(lookups.data?.people ?? []).map((p) => (
+                    <option key={p.userId} value={p.userId}>
+                      {p.name}
+                    </option>
+                  ))}
                 </select>
               </label>
             )}
