@@ -371,7 +371,7 @@ export async function stationView(em: EntityManager, who: Principal, code: strin
     note: c.note,
   }));
 
-  const ref = referenceValues(shop.settings as never);
+  const ref = referenceValues(shop.settings);
   return {
     machine: { id: machine.id, code: machine.code, name: machine.name, kind: machine.kind, location: machine.location },
     torches: torchViews,

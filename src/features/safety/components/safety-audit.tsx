@@ -1,3 +1,4 @@
+// Over 400 lines: four audit components (filters and table, chain check, compliance, correction dialog) still share this file; a split into one file each is prepared but not merged yet.
 import { useEffect, useRef, useState } from 'react';
 import { useSearchParams } from 'react-router-dom';
 import { createColumnHelper, type SortingState } from '@tanstack/react-table';
