@@ -66,6 +66,9 @@ describe('demo safety seed', () => {
     for (let i = 1; i < rows.length; i++) expect(rows[i].signedAt >= rows[i - 1].signedAt).toBe(true);
     // Nothing is signed in the future of the day it was seeded.
     expect(rows.filter((r) => new Date(r.signedAt).getTime() > new Date(at).getTime() + 60_000)).toEqual([]);
+    // Whatever the day, the plasma table's latest shift check is waiting.
+    const tasks = (await get(s, '/safety/tasks').expect(200)).body as { title: string; status: string }[];
+    expect(tasks.filter((x) => x.title.startsWith('PPE check at PT1')).map((x) => x.status)).toEqual([expect.stringMatching(/^(due|overdue)$/)]);
     const compliance = (await get(s, '/safety/audit/compliance?days=14').expect(200)).body;
     expect(compliance.totals.openLockouts).toBe(1);
     expect(compliance.totals.missedPpeChecks).toBeGreaterThan(0);
