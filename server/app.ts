@@ -97,7 +97,7 @@ export function createApp({ orm, config, smtp = null }: AppDeps): AppHandle {
   registerWorkOrderRoutes(api, config);
   registerOilAnalysisRoutes(api, planEvaluator(orm, config.APP_URL));
   registerCalendarFeedRoutes(api, config);
-  registerJobRunRoutes(api, () => runScheduledPass(orm));
+  registerJobRunRoutes(api, (orgId) => runScheduledPass(orm, undefined, { orgId }));
   registerDevInboxRoutes(api, config.MAIL_CAPTURE ? smtp : null, config.NODE_ENV === 'production');
 
   api.use(() => {
