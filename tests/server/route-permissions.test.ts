@@ -48,6 +48,8 @@ const EXPECTED: Record<string, Role[] | 'public'> = {
   'GET /oil-units': ALL,
   'PUT /oil-units/:id/target': ['technician', 'admin'],
   'GET /oil-analyses': ALL,
+  'GET /oil-settings': ALL,
+  'PUT /oil-settings': ['admin'],
   'POST /oil-analyses': ['technician', 'admin'],
   'GET /calendar-feed': ALL,
   'POST /calendar-feed': ALL,
