@@ -122,6 +122,8 @@ export type ChangeRow = {
   by: string | null;
   hasPhoto: boolean;
   note: string | null;
+  /** Scheduled work this change did (its plan names a consumable change of these parts). */
+  workOrders: { id: string; number: number; title: string }[];
 };
 
 export type ReferenceValue = { value: number; unit: string; source: string; overridden: boolean };
@@ -201,6 +203,8 @@ export type CutCheckRow = {
   installedParts: { category: string; partNumber: string }[];
   by: string | null;
   note: string | null;
+  /** Scheduled work this coupon did (its plan names a test coupon). */
+  workOrders: { id: string; number: number; title: string }[];
 };
 
 // ── Life statistics ─────────────────────────────────────────────────────────

@@ -3,6 +3,7 @@ import { executeBound } from '../../db';
 import { notFound } from '../../http/errors';
 import { ilikeExact } from '../machines/machines.service';
 import { stationStatus } from './station-status';
+import { workDoneBy } from '../work-orders/station-completion';
 import type { Principal } from '../../http/principal';
 import { advanceSince } from '../../../shared/domain/meters';
 import { lifeFraction, referenceValues } from '../../../shared/domain/consumables';
@@ -352,6 +353,10 @@ export async function stationView(em: EntityManager, who: Principal, code: strin
     .map((m) => ({ ...asRow(m)!, machineCode: machineCode.get(m.machineId)! }))
     .sort((a, b) => a.machineCode.localeCompare(b.machineCode, undefined, { numeric: true }) || a.code.localeCompare(b.code));
 
+  const workOf = await workDoneBy(
+    em,
+    (data.changes ?? []).map((c) => c.id),
+  );
   const recentChanges: ChangeRow[] = (data.changes ?? []).map(({ installed, removed, ...c }) => ({
     id: c.id,
     changedAt: iso(c.changedAt)!,
@@ -369,6 +374,7 @@ export async function stationView(em: EntityManager, who: Principal, code: strin
     by: c.by,
     hasPhoto: c.hasPhoto,
     note: c.note,
+    workOrders: workOf.get(c.id) ?? [],
   }));
 
   const ref = referenceValues(shop.settings);

@@ -12,6 +12,7 @@ import { neighbours, readingsSince, recordReading } from '../meters/meters.servi
 import type { Principal } from '../../http/principal';
 import { AppError, fieldError, notFound } from '../../http/errors';
 import { recordActivity } from '../activity-log/activity-log.service';
+import { completeByStationRecord, workDoneBy } from '../work-orders/station-completion';
 import { advanceSince } from '../../../shared/domain/meters';
 import { referenceValues } from '../../../shared/domain/consumables';
 import { PART_CATEGORY_LABELS, TORCH_CATEGORIES, type TorchCategory } from '../../../shared/schemas/stock';
@@ -119,7 +120,7 @@ export async function logChange(
   who: Principal,
   input: ConsumableChangeInput,
   photo?: Buffer,
-): Promise<{ id: string; closed: number; opened: number }> {
+): Promise<{ id: string; closed: number; opened: number; workOrders: { id: string; number: number }[] }> {
   const mime = photo ? await checkPhoto(photo) : null;
   return em.transactional(async (tx) => {
     const torch = await tx.findOne(Machine, { id: input.torchId }, { lockMode: LockMode.PESSIMISTIC_WRITE });
@@ -197,7 +198,16 @@ export async function logChange(
       { type: 'ConsumableChange', id: change.id },
       { torch: torch.code, categories: input.categories, reason: input.reason, starts, arcHours, fromStock: input.takeFromStock },
     );
-    return { id: change.id, closed: open.length, opened: taken.length };
+    const parts = (input.categories as TorchCategory[]).map((c) => PART_CATEGORY_LABELS[c].toLowerCase()).join(' + ');
+    const done = await completeByStationRecord(tx, who, {
+      type: 'ConsumableChange',
+      id: change.id,
+      machineId: torch.id,
+      at: changedAt,
+      summary: `Consumable change on ${torch.code}: ${parts}${input.pitDepthMm !== null ? `; electrode pit ${input.pitDepthMm} mm` : ''}`,
+      categories: input.categories as TorchCategory[],
+    });
+    return { id: change.id, closed: open.length, opened: taken.length, workOrders: done.workOrders.map((w) => ({ id: w.id, number: w.number })) };
   });
 }
 
@@ -216,6 +226,7 @@ export async function listChanges(em: EntityManager, q: { torchIds?: string[]; p
     ? await em.execute('select change_id from consumable_photo where change_id = any(?::uuid[])', [`{${ids.join(',')}}`])
     : [];
   const withPhoto = new Set(photos.map((p) => p.change_id));
+  const work = await workDoneBy(em, ids);
   return {
     rows: changes.map((c) => ({
       id: c.id,
@@ -240,6 +251,7 @@ export async function listChanges(em: EntityManager, q: { torchIds?: string[]; p
       by: c.by?.getEntity().name ?? null,
       hasPhoto: withPhoto.has(c.id),
       note: c.note ?? null,
+      workOrders: work.get(c.id) ?? [],
     })),
     total,
     page: q.page,

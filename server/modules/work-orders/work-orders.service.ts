@@ -95,9 +95,9 @@ export async function updateWorkOrder(em: EntityManager, who: Principal, id: str
  * Completion (or calling off) of a plan's work restarts its cycle: floating schedules and meter
  * intervals count from now, and the plan's status is evaluated again at once.
  */
-async function restartPlanCycle(tx: EntityManager, who: Principal, wo: IWorkOrder, at: Date) {
-  if (!wo.plan) return;
-  const plan = await tx.findOne(MaintenancePlan, { id: wo.plan.id }, { lockMode: LockMode.PESSIMISTIC_WRITE });
+export async function restartPlanCycle(tx: EntityManager, who: Principal, planId: string | undefined, at: Date) {
+  if (!planId) return;
+  const plan = await tx.findOne(MaintenancePlan, { id: planId }, { lockMode: LockMode.PESSIMISTIC_WRITE });
   if (!plan) return;
   if (plan.lastDoneAt && plan.lastDoneAt.getTime() >= at.getTime()) return;
   plan.lastDoneAt = at;
@@ -134,7 +134,7 @@ export async function moveWorkOrder(em: EntityManager, who: Principal, id: strin
       wo.cancelledAt = now;
       wo.cancelReason = input.reason ?? null;
       // Calling off planned work skips this occurrence; the plan schedules the next one.
-      await restartPlanCycle(tx, who, wo, now);
+      await restartPlanCycle(tx, who, wo.plan?.id, now);
     }
     recordActivity(
       tx,
@@ -261,7 +261,7 @@ export async function closeWorkOrder(em: EntityManager, who: Principal, id: stri
     wo.status = 'done';
     wo.completedAt = now;
     wo.completedBy = tx.getReference(User, who.userId, { wrapped: true });
-    await restartPlanCycle(tx, who, wo, now);
+    await restartPlanCycle(tx, who, wo.plan?.id, now);
     // A repair that ends a stop puts its machine back in service, signed by the same person.
     await returnToServiceOnWorkDone(tx, who, wo.id);
     recordActivity(
