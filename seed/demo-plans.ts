@@ -20,6 +20,7 @@ import type { Principal } from '../server/http/principal';
 import type { ChecklistLine } from '../shared/schemas/work-orders';
 import { mulberry32 } from './prng';
 import { clock } from '../shared/clock';
+import { shopLocale } from '../shared/locale';
 
 const DAY = 86_400_000;
 
@@ -65,6 +66,7 @@ export const seedPlansDemo: SeedStep = async (rootEm, shop, settings) => {
     email: admin.user.getEntity().email,
     orgName,
     timeZone: shop.timeZone,
+    locale: shopLocale(),
   };
 
   const now = clock.ms();

@@ -28,6 +28,7 @@ import { pointTag, type ProcedureContent, type EnergySource } from '../shared/sc
 import type { PpeItem } from '../shared/schemas/safety-ppe';
 import type { SeedStep } from './demo';
 import { clock } from '../shared/clock';
+import { shopLocale } from '../shared/locale';
 
 const src = (s: EnergySource) => s;
 
@@ -325,7 +326,7 @@ export const seedSafetyDemo: SeedStep = async (rootEm, shop) => {
     const m = members.find((x) => x.role === role);
     if (!m) throw new Error(`demo safety seed: no ${role} in the demo shop`);
     const u = m.user.getEntity();
-    return { userId: u.id, orgId: shop.id, role: m.role, name: u.name, email: u.email, orgName, timeZone: shop.timeZone };
+    return { userId: u.id, orgId: shop.id, role: m.role, name: u.name, email: u.email, orgName, timeZone: shop.timeZone, locale: shopLocale() };
   };
   const safety = person('safety');
   const tech = person('technician');

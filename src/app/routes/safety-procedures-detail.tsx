@@ -40,7 +40,7 @@ export function Component() {
         › {p.machine.code}
       </nav>
       <PageTitle title={`${p.machine.code} · ${p.machine.name}`} subtitle={(p.current ?? p.draft)?.content.title} />
-      <ProcedureView p={p} me={{ name: me.user.name, role: me.role }} timeZone={me.organization.timeZone} viewingVersion={version} />
+      <ProcedureView p={p} me={{ name: me.user.name, role: me.role }} viewingVersion={version} />
     </>
   );
 }

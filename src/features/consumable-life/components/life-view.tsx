@@ -4,10 +4,8 @@ import { DataTable } from '../../../components/ui/data-table';
 import { EmptyState, Notice, Panel } from '../../../components/ui/notice';
 import type { LifeStats } from '../../../../shared/schemas/consumables';
 import { useLifeStats, type LifeFilters } from '../api/get-life-stats';
+import { useShopFormat } from '../../../lib/format';
 
-const int = new Intl.NumberFormat(undefined, { maximumFractionDigits: 0 });
-const dec = new Intl.NumberFormat(undefined, { maximumFractionDigits: 2 });
-const money = new Intl.NumberFormat(undefined, { minimumFractionDigits: 2, maximumFractionDigits: 2 });
 type PerMachine = LifeStats['perMachine'][number];
 const col = createColumnHelper<PerMachine>();
 
@@ -22,17 +20,18 @@ function Figure({ label, value, note }: { label: string; value: string; note?: s
 }
 
 export function LifeView({ filters }: { filters: LifeFilters }) {
+  const f = useShopFormat();
   const q = useLifeStats(filters);
   if (q.isError) return <Notice tone="danger">{q.error.message}</Notice>;
   if (!q.data) return <p role="status">Loading…</p>;
   const s = q.data;
   const unit = s.unit === 'starts' ? 'starts' : 'arc h';
-  const fmt = (v: number) => (s.unit === 'starts' ? int.format(v) : dec.format(v));
+  const fmt = (v: number) => (s.unit === 'starts' ? f.number(v, { max: 0 }) : f.number(v, { max: 2 }));
   const columns = [
     col.accessor('machineCode', { header: 'Torch' }),
     col.accessor('removed', { header: 'Parts removed' }),
     col.accessor('meanLife', { header: `Mean life (${unit})`, cell: (c) => (c.getValue() === null ? '—' : fmt(c.getValue()!)) }),
-    col.accessor('costPerArcHour', { header: 'Cost per arc-hour', cell: (c) => (c.getValue() === null ? '—' : money.format(c.getValue()!)) }),
+    col.accessor('costPerArcHour', { header: 'Cost per arc-hour', cell: (c) => (c.getValue() === null ? '—' : f.number(c.getValue()!, { min: 2, max: 2 })) }),
   ];
   const total = s.failures.length + s.suspensions.length;
   return (
@@ -49,13 +48,13 @@ export function LifeView({ filters }: { filters: LifeFilters }) {
         />
         <Figure
           label="Cost per arc-hour"
-          value={s.costPerArcHour === null ? '—' : money.format(s.costPerArcHour)}
-          note={`unit cost ${money.format(s.partType.unitCost)}`}
+          value={s.costPerArcHour === null ? '—' : f.number(s.costPerArcHour, { min: 2, max: 2 })}
+          note={`unit cost ${f.number(s.partType.unitCost, { min: 2, max: 2 })}`}
         />
       </dl>
       {s.fit ? (
         <p className="text-sm text-steel-700">
-          Weibull fit by maximum likelihood with suspensions (NIST e-Handbook of Statistical Methods §8.4.1.2): shape β = {dec.format(s.fit.shape)} (
+          Weibull fit by maximum likelihood with suspensions (NIST e-Handbook of Statistical Methods §8.4.1.2): shape β = {f.number(s.fit.shape, { max: 2 })} (
           {s.fit.shape > 1.2
             ? 'wear-out: a planned change pays'
             : s.fit.shape < 0.9

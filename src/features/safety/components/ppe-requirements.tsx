@@ -24,8 +24,8 @@ import { useSavePpeRequirement } from '../api/save-ppe-requirement';
 import { useRetirePpeRequirement } from '../api/retire-ppe-requirement';
 import { useSafetyMachines } from '../api/get-safety-machines';
 import { useSafetySettings } from '../api/get-safety-settings';
-import { fmtDateTime } from './format';
 import { NoiseVerdicts, PersonDailyDose } from './noise-verdicts';
+import { useShopFormat } from '../../../lib/format';
 
 type FormValues = {
   machineId: string;
@@ -249,7 +249,8 @@ function RequirementForm({ editing, onDone }: { editing: PpeRequirementRow | nul
 
 const col = createColumnHelper<PpeRequirementRow>();
 
-export function PpeRequirements({ timeZone }: { timeZone: string }) {
+export function PpeRequirements() {
+  const f = useShopFormat();
   const q = usePpeRequirements();
   const retire = useRetirePpeRequirement();
   const [editing, setEditing] = useState<PpeRequirementRow | null>(null);
@@ -313,7 +314,7 @@ export function PpeRequirements({ timeZone }: { timeZone: string }) {
             col.accessor('cadence', { header: 'Check', cell: (c) => CADENCE_LABELS[c.getValue() as PpeRequirementRow['cadence']] }),
             col.accessor('lastCheckAt', {
               header: 'Last check',
-              cell: (c) => (c.getValue() ? `${fmtDateTime(c.getValue() as string, timeZone)} · ${c.row.original.lastCheckByName}` : 'Never'),
+              cell: (c) => (c.getValue() ? `${f.dateTime(c.getValue() as string)} · ${c.row.original.lastCheckByName}` : 'Never'),
             }),
             col.display({
               id: 'actions',

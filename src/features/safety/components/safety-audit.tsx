@@ -27,12 +27,13 @@ import { useSafetyPeople } from '../api/get-safety-people';
 import { useCorrectSignOff } from '../api/correct-sign-off';
 import { useSignFlow } from './sign-dialog';
 import { DueBadge } from './badges';
-import { fmtDate, fmtDateTime } from './format';
+import { useShopFormat } from '../../../lib/format';
 
 const filterClass = 'min-h-touch rounded border border-steel-400 bg-white px-3 font-normal';
 const COLORS = { safe: '#15803d', danger: '#b91c1c', steel: '#38434e', mandatory: '#1d4ed8' };
 
-export function ChainCheck({ timeZone }: { timeZone: string }) {
+export function ChainCheck() {
+  const f = useShopFormat();
   const chain = useChainVerification();
   const v = chain.data;
   return (
@@ -56,13 +57,13 @@ export function ChainCheck({ timeZone }: { timeZone: string }) {
       {v ? (
         v.ok ? (
           <Notice tone="safe" title="Chain verified" role="status">
-            {v.message} Checked {fmtDateTime(v.verifiedAt, timeZone)}.
+            {v.message} Checked {f.dateTime(v.verifiedAt)}.
           </Notice>
         ) : (
           <Notice tone="danger" title="Chain broken" role="alert">
             {v.message} {v.checked} record{v.checked === 1 ? '' : 's'} before it verified.
             {v.firstBad?.signerName
-              ? ` First bad record: #${v.firstBad.seq}, ${v.firstBad.signerName}, ${fmtDateTime(v.firstBad.signedAt, timeZone)}, ${v.firstBad.meaning ? MEANING_LABELS[v.firstBad.meaning] : ''}.`
+              ? ` First bad record: #${v.firstBad.seq}, ${v.firstBad.signerName}, ${f.dateTime(v.firstBad.signedAt)}, ${v.firstBad.meaning ? MEANING_LABELS[v.firstBad.meaning] : ''}.`
               : ''}
           </Notice>
         )
@@ -74,6 +75,7 @@ export function ChainCheck({ timeZone }: { timeZone: string }) {
 const mcol = createColumnHelper<MachineCompliance>();
 
 export function Compliance() {
+  const f = useShopFormat();
   const [days, setDays] = useState(30);
   const q = useCompliance(days);
   const tl = useTimeline(12);
@@ -124,7 +126,7 @@ export function Compliance() {
               header: 'Periodic inspection',
               cell: (c) => <DueBadge status={c.getValue() as MachineCompliance['inspectionStatus']} />,
             }),
-            mcol.accessor('inspectionDueAt', { header: 'Inspection due', cell: (c) => fmtDate(c.getValue() as string | null) }),
+            mcol.accessor('inspectionDueAt', { header: 'Inspection due', cell: (c) => f.date(c.getValue() as string | null) }),
             mcol.accessor('ppeMissed', {
               header: 'PPE checks',
               cell: (c) => {
@@ -281,7 +283,8 @@ function CorrectionDialog({
 }
 
 /** Every signature, filtered and sorted on the server, with exports using the same filters. Filters live in the URL so a view can be shared or reloaded. */
-export function SignOffAudit({ me, timeZone }: { me: { name: string; role: Role }; timeZone: string }) {
+export function SignOffAudit({ me }: { me: { name: string; role: Role } }) {
+  const f = useShopFormat();
   const [params, setParams] = useSearchParams();
   const machineId = params.get('machine') ?? '';
   const signerId = params.get('person') ?? '';
@@ -431,7 +434,7 @@ export function SignOffAudit({ me, timeZone }: { me: { name: string; role: Role 
           col.accessor('seq', { header: '#' }),
           col.accessor('signedAt', {
             header: 'Signed',
-            cell: (c) => <span className="whitespace-nowrap">{fmtDateTime(c.getValue() as string, timeZone)}</span>,
+            cell: (c) => <span className="whitespace-nowrap">{f.dateTime(c.getValue() as string)}</span>,
           }),
           col.accessor('signerName', { header: 'Printed name', cell: (c) => <span className="font-semibold">{c.getValue() as string}</span> }),
           col.accessor('signerRole', { header: 'Role', enableSorting: false, cell: (c) => ROLE_LABELS[c.getValue() as Role] ?? c.getValue() }),

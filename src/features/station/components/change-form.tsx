@@ -18,8 +18,8 @@ import { TextField } from '../../../components/ui/field';
 import { Notice } from '../../../components/ui/notice';
 import { applyServerErrors } from '../../../lib/form-errors';
 import { useLogChange } from '../api/log-change';
-import { formatQty } from '../../../lib/format-quantity';
 import { CHANGE_PHOTO_TYPES, PHOTO_MAX_BYTES, megabytes } from '../../../../shared/schemas/photos';
+import { useShopFormat } from '../../../lib/format';
 
 type In = z.input<typeof consumableChangeSchema>;
 type Out = z.output<typeof consumableChangeSchema>;
@@ -57,6 +57,7 @@ export function ChangeForm({
   onDone: (message: string) => void;
   onCancel: () => void;
 }) {
+  const f = useShopFormat();
   const log = useLogChange();
   const heading = useRef<HTMLHeadingElement>(null);
   const [photo, setPhoto] = useState<File | null>(null);
@@ -262,7 +263,7 @@ export function ChangeForm({
                   .filter((p) => p.category === c)
                   .map((p) => (
                     <option key={p.id} value={p.id}>
-                      {p.partNumber} {p.name} — {formatQty(p.onHand, p.stockUnit)} in stock
+                      {p.partNumber} {p.name} — {f.qty(p.onHand, p.stockUnit)} in stock
                     </option>
                   ))}
               </select>

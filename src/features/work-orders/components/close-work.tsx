@@ -3,17 +3,18 @@ import type { WorkOrderDetail } from '../../../../shared/schemas/work-orders';
 import { Button } from '../../../components/ui/button';
 import { Notice } from '../../../components/ui/notice';
 import { useCloseWorkOrder } from '../api/close-work-order';
-import { formatWhen } from './format';
+import { useShopFormat } from '../../../lib/format';
 
 /** Sign-off: only when the checklist is complete and, where required, the lockout is released. */
-export function CloseWork({ wo, timeZone }: { wo: WorkOrderDetail; timeZone: string }) {
+export function CloseWork({ wo }: { wo: WorkOrderDetail }) {
+  const f = useShopFormat();
   const close = useCloseWorkOrder();
   const [message, setMessage] = useState<{ tone: 'danger' | 'safe'; text: string } | null>(null);
   const signOff = async () => {
     setMessage(null);
     try {
       const r = await close.mutateAsync({ id: wo.id });
-      setMessage({ tone: 'safe', text: r.planNextDueAt ? `Signed off. The plan is next due ${formatWhen(r.planNextDueAt, timeZone)}.` : 'Signed off.' });
+      setMessage({ tone: 'safe', text: r.planNextDueAt ? `Signed off. The plan is next due ${f.dateTime(r.planNextDueAt)}.` : 'Signed off.' });
     } catch (err) {
       setMessage({ tone: 'danger', text: err instanceof Error ? err.message : 'Could not sign off' });
     }
