@@ -5,6 +5,7 @@ import { Button } from '../../../components/ui/button';
 import { Notice } from '../../../components/ui/notice';
 import { formatQty } from '../../../lib/format-quantity';
 import { LifeBar } from './life-bar';
+import { ChangePoint } from './change-point';
 import { ChangeForm } from './change-form';
 import { shopFormatter } from '../../../lib/format';
 
@@ -102,6 +103,7 @@ export function TorchPanel({ torch, parts, pitLimit, canLog }: { torch: TorchSta
                 {i.arcHoursSince === null ? '—' : `${int.format(i.arcHoursSince)} h arc time`}
                 {i.expected !== null ? ' · expected life from the part catalogue' : ''}
               </p>
+              <ChangePoint plan={i.plan} unit={i.partType.lifeUnit === 'arc-hours' ? 'h' : 'starts'} />
             </li>
           ))}
         </ul>
