@@ -2,7 +2,7 @@ import { useState } from 'react';
 import { createColumnHelper } from '@tanstack/react-table';
 import { DataTable } from '../../../components/ui/data-table';
 import { EmptyState, Notice } from '../../../components/ui/notice';
-import { CHANGE_REASON_LABELS, type ChangeRow } from '../../../../shared/schemas/consumables';
+import { REMOVAL_REASON_LABELS, type ChangeRow } from '../../../../shared/schemas/consumables';
 import { PART_CATEGORY_LABELS } from '../../../../shared/schemas/stock';
 import { useChanges } from '../api/get-changes';
 import { useShopFormat, type ShopFormat } from '../../../lib/format';
@@ -13,7 +13,15 @@ const columnsFor = (f: ShopFormat) => [
   col.accessor('changedAt', { header: 'When', cell: (c) => f.dateTime(c.getValue()) }),
   col.accessor('torchCode', { header: 'Torch' }),
   col.accessor((r) => r.parts.map((p) => PART_CATEGORY_LABELS[p.category]).join(', '), { id: 'parts', header: 'Parts' }),
-  col.accessor('reason', { header: 'Why', cell: (c) => CHANGE_REASON_LABELS[c.getValue()] }),
+  col.accessor((r) => r.parts.map((p) => (p.reason ? `${PART_CATEGORY_LABELS[p.category]}: ${REMOVAL_REASON_LABELS[p.reason].toLowerCase()}` : '')).join(' '), {
+    id: 'why',
+    header: 'Why',
+    cell: (c) => {
+      const parts = c.row.original.parts.filter((p) => p.reason);
+      if (parts.length === 0) return '—';
+      return parts.map((p) => `${PART_CATEGORY_LABELS[p.category]}: ${REMOVAL_REASON_LABELS[p.reason!].toLowerCase()}`).join('; ');
+    },
+  }),
   col.accessor((r) => r.parts.map((p) => (p.lifeStarts === null ? null : p.lifeStarts)).find((x) => x !== null) ?? null, {
     id: 'life',
     header: 'Life of the old parts',

@@ -4,6 +4,7 @@ import { LIFE_UNIT_LABELS, PART_CATEGORY_LABELS } from '../../../../shared/schem
 import { Button } from '../../../components/ui/button';
 import { Notice } from '../../../components/ui/notice';
 import { LifeBar } from './life-bar';
+import { ChangePoint } from './change-point';
 import { ChangeForm } from './change-form';
 import { useShopFormat } from '../../../lib/format';
 
@@ -100,6 +101,7 @@ export function TorchPanel({ torch, parts, pitLimit, canLog }: { torch: TorchSta
                 {i.arcHoursSince === null ? '—' : `${f.number(i.arcHoursSince)} h arc time`}
                 {i.expected !== null ? ' · expected life from the part catalogue' : ''}
               </p>
+              <ChangePoint plan={i.plan} unit={i.partType.lifeUnit === 'arc-hours' ? 'h' : 'starts'} />
             </li>
           ))}
         </ul>
