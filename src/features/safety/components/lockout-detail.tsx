@@ -1,4 +1,4 @@
-import { useState, type ReactNode } from 'react';
+import { useRef, useState, type ReactNode } from 'react';
 import { Link } from 'react-router-dom';
 import { createColumnHelper } from '@tanstack/react-table';
 import { DataTable } from '../../../components/ui/data-table';
@@ -6,6 +6,7 @@ import { Button } from '../../../components/ui/button';
 import { SelectField, TextField } from '../../../components/ui/field';
 import { Notice, Panel } from '../../../components/ui/notice';
 import { WorkCaution } from '../../../components/ui/caution';
+import { focusSoon, LiveNotice } from '../../../components/ui/live-region';
 import { ApiError } from '../../../lib/api-client';
 import { paths } from '../../../config/paths';
 import { can, type Role } from '../../../../shared/permissions';
@@ -44,6 +45,7 @@ function Check({ label, checked, onChange, hint }: { label: ReactNode; checked: 
 export function LockoutDetailView({ lockout: l, me, timeZone }: { lockout: LockoutDetail; me: Me; timeZone: string }) {
   const { sign, dialog } = useSignFlow({ name: me.name, role: me.role });
   const [message, setMessage] = useState<{ tone: 'safe' | 'danger'; text: string } | null>(null);
+  const messageRef = useRef<HTMLDivElement>(null);
   const procedure = useProcedure(l.procedureId, l.procedureVersion);
   const wo = useLinkedWorkOrder(l.workOrderId);
   const content = procedure.data?.current?.content;
@@ -71,8 +73,10 @@ export function LockoutDetailView({ lockout: l, me, timeZone }: { lockout: Locko
   const [note, setNote] = useState('');
 
   const done = (text: string) => setMessage({ tone: 'safe', text });
-  const failed = (err: unknown) =>
+  const failed = (err: unknown) => {
     setMessage({ tone: 'danger', text: err instanceof ApiError ? err.message : 'Could not reach the server. Nothing was signed.' });
+    focusSoon(() => messageRef.current);
+  };
   const run = (meaning: SignMeaning, fn: (password: string) => Promise<unknown>, text: string, detail?: ReactNode) =>
     sign(
       meaning,
@@ -81,7 +85,8 @@ export function LockoutDetailView({ lockout: l, me, timeZone }: { lockout: Locko
         await fn(pw);
         done(text);
       },
-      { onError: failed, detail },
+      // The signing control often goes away with its step (verified, released): focus goes to the result.
+      { onError: failed, detail, focusAfter: () => messageRef.current },
     );
 
   return (
@@ -105,11 +110,7 @@ export function LockoutDetailView({ lockout: l, me, timeZone }: { lockout: Locko
           ) : null}
         </span>
       </div>
-      {message ? (
-        <Notice tone={message.tone} role={message.tone === 'danger' ? 'alert' : 'status'}>
-          {message.text}
-        </Notice>
-      ) : null}
+      <LiveNotice ref={messageRef} message={message} />
       {open ? (
         l.state === 'verified' ? (
           <Notice tone="danger" title="Locked out: do not operate" role="status">

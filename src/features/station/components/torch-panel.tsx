@@ -1,8 +1,9 @@
-import { useState } from 'react';
+import { useRef, useState } from 'react';
 import type { PartOption, ReferenceValue, TorchStation } from '../../../../shared/schemas/consumables';
 import { LIFE_UNIT_LABELS, PART_CATEGORY_LABELS } from '../../../../shared/schemas/stock';
 import { Button } from '../../../components/ui/button';
 import { Notice } from '../../../components/ui/notice';
+import { focusSoon, LiveNotice } from '../../../components/ui/live-region';
 import { formatQty } from '../../../lib/format-quantity';
 import { LifeBar } from './life-bar';
 import { ChangeForm } from './change-form';
@@ -24,6 +25,8 @@ function Counter({ label, value, unit, at }: { label: string; value: number | nu
 export function TorchPanel({ torch, parts, pitLimit, canLog }: { torch: TorchStation; parts: PartOption[]; pitLimit: ReferenceValue; canLog: boolean }) {
   const [open, setOpen] = useState(false);
   const [done, setDone] = useState<string | null>(null);
+  const doneRef = useRef<HTMLDivElement>(null);
+  const logButton = useRef<HTMLButtonElement>(null);
   return (
     <section aria-labelledby={`torch-${torch.id}`} className="space-y-4 rounded border border-steel-200 bg-white p-4 shadow-sm">
       <header className="flex flex-wrap items-baseline justify-between gap-2">
@@ -56,13 +59,10 @@ export function TorchPanel({ torch, parts, pitLimit, canLog }: { torch: TorchSta
           />
         ) : null}
       </div>
-      {done ? (
-        <Notice tone="safe" role="status" title="Done">
-          {done}
-        </Notice>
-      ) : null}
+      {/* On the page before the message, so the confirmation is announced; focus lands on it once the sheet closes. */}
+      <LiveNotice ref={doneRef} message={done ? { tone: 'safe', title: 'Done', text: done } : null} />
       {canLog && !open ? (
-        <Button className="min-h-[4rem] w-full text-xl" onClick={() => (setDone(null), setOpen(true))}>
+        <Button ref={logButton} className="min-h-[4rem] w-full text-xl" onClick={() => (setDone(null), setOpen(true))}>
           Log a change
         </Button>
       ) : null}
@@ -71,10 +71,14 @@ export function TorchPanel({ torch, parts, pitLimit, canLog }: { torch: TorchSta
           torch={torch}
           parts={parts}
           pitLimit={pitLimit}
-          onCancel={() => setOpen(false)}
+          onCancel={() => {
+            setOpen(false);
+            focusSoon(() => logButton.current);
+          }}
           onDone={(message) => {
             setOpen(false);
             setDone(message);
+            focusSoon(() => doneRef.current);
           }}
         />
       ) : null}

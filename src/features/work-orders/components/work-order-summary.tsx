@@ -73,10 +73,13 @@ export function WorkOrderSummary({ wo, timeZone }: { wo: WorkOrderDetail; timeZo
             </Notice>
           ) : null}
           {wo.status === 'done' ? (
-            <Notice tone="safe" title="Signed off" role="status">
-              {wo.completedBy?.name} signed this off on {formatWhen(wo.completedAt, timeZone)}.
-              {wo.plan?.nextDueAt ? ` The plan is next due ${formatWhen(wo.plan.nextDueAt, timeZone)}.` : ''}
-            </Notice>
+            // Focus lands here once the work is signed off (the sign-off panel goes away).
+            <div id="work-signed-off" tabIndex={-1}>
+              <Notice tone="safe" title="Signed off">
+                {wo.completedBy?.name} signed this off on {formatWhen(wo.completedAt, timeZone)}.
+                {wo.plan?.nextDueAt ? ` The plan is next due ${formatWhen(wo.plan.nextDueAt, timeZone)}.` : ''}
+              </Notice>
+            </div>
           ) : null}
         </div>
       </Panel>
