@@ -3,6 +3,7 @@ import { useMe } from '../../features/auth/api/get-me';
 import { RoleHome } from '../../features/home/components/role-home';
 import { ActivityLogTable } from '../../features/activity-log/components/activity-log-table';
 import { Panel } from '../../components/ui/notice';
+import { usePageTitle } from '../../components/layout/app-shell';
 import { WorkCaution } from '../../components/ui/caution';
 import { can } from '../../../shared/permissions';
 import { paths } from '../../config/paths';
@@ -13,6 +14,7 @@ import { SafetyHomePanel } from '../../features/safety/components/safety-home-pa
 
 export function Component() {
   const { data: me } = useMe();
+  usePageTitle('Today');
   if (!me) return null;
   return (
     <RoleHome role={me.role} name={me.user.name}>

@@ -1,6 +1,6 @@
 import { useState } from 'react';
 import { Link, useParams, type LoaderFunctionArgs } from 'react-router-dom';
-import { PageTitle } from '../../components/layout/app-shell';
+import { Breadcrumbs, PageTitle } from '../../components/layout/app-shell';
 import { Panel, Notice, Badge } from '../../components/ui/notice';
 import { Button } from '../../components/ui/button';
 import { MachinesTable } from '../../features/machines/components/machines-table';
@@ -47,21 +47,10 @@ export function Component() {
   const heads = [m, ...m.components].filter((c) => c.kind === 'punch-head');
   return (
     <>
-      <nav aria-label="Breadcrumb" className="text-sm">
-        <Link className="underline" to={paths.machines.getHref()}>
-          Machines
-        </Link>
-        {m.parent ? (
-          <>
-            {' '}
-            ›{' '}
-            <Link className="underline" to={paths.machine.getHref(m.parent.id)}>
-              {m.parent.code}
-            </Link>
-          </>
-        ) : null}{' '}
-        › {m.code}
-      </nav>
+      <Breadcrumbs
+        trail={[{ to: paths.machines.getHref(), label: 'Machines' }, ...(m.parent ? [{ to: paths.machine.getHref(m.parent.id), label: m.parent.code }] : [])]}
+        current={m.code}
+      />
       <PageTitle
         title={`${m.code} · ${m.name}`}
         subtitle={[MACHINE_KIND_LABELS[m.kind], m.location, m.serial ? `serial ${m.serial}` : null].filter(Boolean).join(' · ')}

@@ -1,5 +1,5 @@
-import { Link, useParams, type LoaderFunctionArgs } from 'react-router-dom';
-import { PageTitle } from '../../components/layout/app-shell';
+import { useParams, type LoaderFunctionArgs } from 'react-router-dom';
+import { Breadcrumbs, PageTitle } from '../../components/layout/app-shell';
 import { Panel, Notice } from '../../components/ui/notice';
 import { getMeterQueryOptions, useMeter } from '../../features/meters/api/get-meter';
 import { ReadingForm } from '../../features/meters/components/reading-form';
@@ -33,16 +33,13 @@ export function Component() {
   const m = q.data;
   return (
     <>
-      <nav aria-label="Breadcrumb" className="text-sm">
-        <Link className="underline" to={paths.machines.getHref()}>
-          Machines
-        </Link>{' '}
-        ›{' '}
-        <Link className="underline" to={paths.machine.getHref(m.machineId)}>
-          {m.machineCode}
-        </Link>{' '}
-        › {m.name}
-      </nav>
+      <Breadcrumbs
+        trail={[
+          { to: paths.machines.getHref(), label: 'Machines' },
+          { to: paths.machine.getHref(m.machineId), label: m.machineCode },
+        ]}
+        current={m.name}
+      />
       <PageTitle
         title={`${m.machineCode} · ${m.name}`}
         subtitle={`A ${KIND[m.kind]} in ${m.unit} · code ${m.code}${m.latest ? ` · latest ${formatValue(f, m.latest.value, m.unit)}` : ''}${m.upperLimit !== null ? ` · upper limit ${formatValue(f, m.upperLimit, m.unit)}` : ''}${m.lowerLimit !== null ? ` · lower limit ${formatValue(f, m.lowerLimit, m.unit)}` : ''}`}

@@ -1,5 +1,5 @@
 import { Link, useParams, type LoaderFunctionArgs } from 'react-router-dom';
-import { PageTitle } from '../../components/layout/app-shell';
+import { Breadcrumbs, PageTitle } from '../../components/layout/app-shell';
 import { Notice, Panel } from '../../components/ui/notice';
 import { useMe } from '../../features/auth/api/get-me';
 import { getPlanQueryOptions, usePlan } from '../../features/plans/api/get-plan';
@@ -25,12 +25,7 @@ export function Component() {
   const p = q.data;
   return (
     <>
-      <nav aria-label="Breadcrumb" className="text-sm">
-        <Link className="underline" to="/plans">
-          Plans
-        </Link>{' '}
-        › {p.title}
-      </nav>
+      <Breadcrumbs trail={[{ to: '/plans', label: 'Plans' }]} current={p.title} />
       <PageTitle
         title={p.title}
         subtitle={`${p.machine.code} · ${p.machine.name}`}

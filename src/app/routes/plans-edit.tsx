@@ -1,5 +1,5 @@
-import { Link, useNavigate, useParams, type LoaderFunctionArgs } from 'react-router-dom';
-import { PageTitle } from '../../components/layout/app-shell';
+import { useNavigate, useParams, type LoaderFunctionArgs } from 'react-router-dom';
+import { Breadcrumbs, PageTitle } from '../../components/layout/app-shell';
 import { Notice, Panel } from '../../components/ui/notice';
 import { PlanForm, toFormValues } from '../../features/plans/components/plan-form';
 import { getLookupsQueryOptions, useLookups } from '../../lib/lookups';
@@ -25,16 +25,13 @@ export function Component() {
   if (!lookups.data || !plan.data) return <p role="status">Loading…</p>;
   return (
     <>
-      <nav aria-label="Breadcrumb" className="text-sm">
-        <Link className="underline" to="/plans">
-          Plans
-        </Link>{' '}
-        ›{' '}
-        <Link className="underline" to={`/plans/${id}`}>
-          {plan.data.title}
-        </Link>{' '}
-        › Edit
-      </nav>
+      <Breadcrumbs
+        trail={[
+          { to: '/plans', label: 'Plans' },
+          { to: `/plans/${id}`, label: plan.data.title },
+        ]}
+        current="Edit"
+      />
       <PageTitle title={`Edit: ${plan.data.title}`} />
       <Panel>
         <PlanForm

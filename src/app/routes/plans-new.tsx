@@ -1,5 +1,5 @@
-import { Link, useNavigate } from 'react-router-dom';
-import { PageTitle } from '../../components/layout/app-shell';
+import { useNavigate } from 'react-router-dom';
+import { Breadcrumbs, PageTitle } from '../../components/layout/app-shell';
 import { Panel } from '../../components/ui/notice';
 import { PlanForm } from '../../features/plans/components/plan-form';
 import { getLookupsQueryOptions, useLookups } from '../../lib/lookups';
@@ -15,12 +15,7 @@ export function Component() {
   if (!lookups.data) return <p role="status">Loading…</p>;
   return (
     <>
-      <nav aria-label="Breadcrumb" className="text-sm">
-        <Link className="underline" to="/plans">
-          Plans
-        </Link>{' '}
-        › New plan
-      </nav>
+      <Breadcrumbs trail={[{ to: '/plans', label: 'Plans' }]} current="New plan" />
       <PageTitle title="Write a maintenance plan" />
       <Panel>
         <PlanForm

@@ -1,7 +1,9 @@
 import { isRouteErrorResponse, Link, useRouteError } from 'react-router-dom';
+import { usePageTitle } from '../../components/layout/app-shell';
 
 export function RouteError() {
   const err = useRouteError();
+  usePageTitle('Something went wrong');
   const message = isRouteErrorResponse(err) ? `${err.status} ${err.statusText}` : err instanceof Error ? err.message : 'Unknown error';
   return (
     <main className="mx-auto max-w-xl space-y-3 p-6">

@@ -1,5 +1,5 @@
-import { Link, useParams, type LoaderFunctionArgs } from 'react-router-dom';
-import { PageTitle } from '../../components/layout/app-shell';
+import { useParams, type LoaderFunctionArgs } from 'react-router-dom';
+import { Breadcrumbs, PageTitle } from '../../components/layout/app-shell';
 import { Notice } from '../../components/ui/notice';
 import { useMe } from '../../features/auth/api/get-me';
 import { getLockoutQueryOptions, useLockout } from '../../features/safety/api/get-lockout';
@@ -23,16 +23,13 @@ export function Component() {
   if (!q.data) return <p role="status">Loading…</p>;
   return (
     <>
-      <nav aria-label="Breadcrumb" className="text-sm">
-        <Link className="underline" to={paths.safety.getHref()}>
-          Safety
-        </Link>{' '}
-        ›{' '}
-        <Link className="underline" to={paths.safetyLockouts.getHref()}>
-          Lockouts
-        </Link>{' '}
-        › {q.data.machineCode}
-      </nav>
+      <Breadcrumbs
+        trail={[
+          { to: paths.safety.getHref(), label: 'Safety' },
+          { to: paths.safetyLockouts.getHref(), label: 'Lockouts' },
+        ]}
+        current={q.data.machineCode}
+      />
       <PageTitle title={`Lockout of ${q.data.machineCode} · ${q.data.machineName}`} subtitle={q.data.reason} />
       <LockoutDetailView lockout={q.data} me={{ id: me.user.id, name: me.user.name, role: me.role }} />
     </>

@@ -1,5 +1,5 @@
-import { Link, useParams, useSearchParams, type LoaderFunctionArgs } from 'react-router-dom';
-import { PageTitle } from '../../components/layout/app-shell';
+import { useParams, useSearchParams, type LoaderFunctionArgs } from 'react-router-dom';
+import { Breadcrumbs, PageTitle } from '../../components/layout/app-shell';
 import { Notice } from '../../components/ui/notice';
 import { useMe } from '../../features/auth/api/get-me';
 import { getProcedureQueryOptions, useProcedure } from '../../features/safety/api/get-procedure';
@@ -29,16 +29,13 @@ export function Component() {
   const p = q.data;
   return (
     <>
-      <nav aria-label="Breadcrumb" className="text-sm">
-        <Link className="underline" to={paths.safety.getHref()}>
-          Safety
-        </Link>{' '}
-        ›{' '}
-        <Link className="underline" to={paths.safetyProcedures.getHref()}>
-          Procedures
-        </Link>{' '}
-        › {p.machine.code}
-      </nav>
+      <Breadcrumbs
+        trail={[
+          { to: paths.safety.getHref(), label: 'Safety' },
+          { to: paths.safetyProcedures.getHref(), label: 'Procedures' },
+        ]}
+        current={p.machine.code}
+      />
       <PageTitle title={`${p.machine.code} · ${p.machine.name}`} subtitle={(p.current ?? p.draft)?.content.title} />
       <ProcedureView p={p} me={{ name: me.user.name, role: me.role }} viewingVersion={version} />
     </>

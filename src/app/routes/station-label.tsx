@@ -1,5 +1,6 @@
 import { Link, useParams, type LoaderFunctionArgs } from 'react-router-dom';
 import { Notice } from '../../components/ui/notice';
+import { usePageTitle } from '../../components/layout/app-shell';
 import { Button } from '../../components/ui/button';
 import { getStationQueryOptions, useStation } from '../../features/station/api/get-station';
 import { QrLabel } from '../../features/station/components/qr-label';
@@ -11,6 +12,7 @@ export const loader = ({ params }: LoaderFunctionArgs) => queryClient.ensureQuer
 export function Component() {
   const { code } = useParams();
   const q = useStation(code!);
+  usePageTitle(`QR label ${code}`);
   if (q.isError)
     return (
       <Notice tone="danger" role="alert">

@@ -1,5 +1,6 @@
 import { Link, useParams, type LoaderFunctionArgs } from 'react-router-dom';
 import { Notice, Panel } from '../../components/ui/notice';
+import { usePageTitle } from '../../components/layout/app-shell';
 import { getStationQueryOptions, useStation } from '../../features/station/api/get-station';
 import { TorchPanel } from '../../features/station/components/torch-panel';
 import { RecentChanges } from '../../features/station/components/recent-changes';
@@ -25,6 +26,7 @@ export function Component() {
   const { code } = useParams();
   const { data: me } = useMe();
   const q = useStation(code!);
+  usePageTitle(`Station ${code}`);
   if (!me) return null;
   if (q.isError)
     return (

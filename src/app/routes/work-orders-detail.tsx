@@ -1,5 +1,5 @@
 import { Link, useParams, type LoaderFunctionArgs } from 'react-router-dom';
-import { PageTitle } from '../../components/layout/app-shell';
+import { Breadcrumbs, PageTitle } from '../../components/layout/app-shell';
 import { Notice, Panel } from '../../components/ui/notice';
 import { useMe } from '../../features/auth/api/get-me';
 import { getWorkOrderQueryOptions, useWorkOrder } from '../../features/work-orders/api/get-work-order';
@@ -37,13 +37,9 @@ export function Component() {
   const failed = wo.checklist.filter((c) => c.result === 'fail');
   return (
     <>
-      <nav aria-label="Breadcrumb" className="text-sm">
-        <Link className="underline" to="/work-orders">
-          Work orders
-        </Link>{' '}
-        › WO {wo.number}
-      </nav>
+      <Breadcrumbs trail={[{ to: '/work-orders', label: 'Work orders' }]} current={`WO ${wo.number}`} />
       <PageTitle
+        documentTitle={`WO ${wo.number}`}
         title={`WO ${wo.number} · ${wo.title}`}
         subtitle={`${wo.machine.code} ${wo.machine.name}`}
         actions={

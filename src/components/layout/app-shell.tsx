@@ -1,5 +1,50 @@
-import { useState, type ReactNode } from 'react';
-import { NavLink, useLocation } from 'react-router-dom';
+import { useEffect, useState, type ReactNode } from 'react';
+import { Link, NavLink, useLocation } from 'react-router-dom';
+import { Announcer } from '../ui/live-region';
+
+const APP_NAME = 'Kerfbook';
+
+/** The browser tab and the screen reader's first words for a page: "Station C1 — Kerfbook". */
+export function usePageTitle(title: string | undefined) {
+  useEffect(() => {
+    if (!title) return;
+    document.title = `${title} — ${APP_NAME}`;
+    return () => {
+      document.title = APP_NAME;
+    };
+  }, [title]);
+}
+
+/**
+ * After moving to another page, focus goes to its main heading (once the page has drawn it), so
+ * a keyboard or screen-reader user starts at the top of the new content rather than at the
+ * link they left. Focus someone already placed in the page (a field with autofocus) is kept.
+ */
+function useFocusHeadingOnNavigation(pathname: string) {
+  useEffect(() => {
+    const main = document.getElementById('main');
+    if (!main) return;
+    const before = document.activeElement;
+    const tryFocus = () => {
+      const h1 = main.querySelector<HTMLElement>('h1');
+      if (!h1) return false;
+      const active = document.activeElement;
+      const untouched = !active || active === document.body || !active.isConnected || active === before || active.closest('header');
+      if (untouched) {
+        if (!h1.hasAttribute('tabindex')) h1.tabIndex = -1;
+        h1.focus();
+      }
+      return true;
+    };
+    if (tryFocus()) return;
+    const watch = new MutationObserver(() => {
+      if (tryFocus()) watch.disconnect();
+    });
+    watch.observe(main, { childList: true, subtree: true });
+    const giveUp = setTimeout(() => watch.disconnect(), 15_000);
+    return () => (watch.disconnect(), clearTimeout(giveUp));
+  }, [pathname]);
+}
 
 /** A menu entry; with `children` it stands for a group whose pages show as tabs on each of them. */
 export type NavItem = { to: string; label: string; end?: boolean; personal?: boolean; children?: NavItem[] };
@@ -26,6 +71,7 @@ export function AppShell({
 }) {
   const [menuOpen, setMenuOpen] = useState(false);
   const { pathname } = useLocation();
+  useFocusHeadingOnNavigation(pathname);
   const linkClass = (isActive: boolean, personal?: boolean) =>
     `flex min-h-touch items-center rounded px-3 font-semibold ${personal ? 'text-sm' : 'text-base'} ${isActive ? 'bg-white text-steel-900' : 'text-steel-100 hover:bg-steel-700'}`;
   const group = nav.find((i) => i.children?.some((c) => onPage(pathname, c)));
@@ -35,7 +81,8 @@ export function AppShell({
       <a href="#main" className="sr-only focus:not-sr-only focus:absolute focus:left-2 focus:top-2 focus:z-50 focus:bg-white focus:p-2">
         Skip to content
       </a>
-      <header className="no-print border-b-4 border-caution bg-steel-900 text-white">
+      <Announcer />
+      <header className="no-print on-dark border-b-4 border-caution bg-steel-900 text-white">
         <div className="mx-auto flex max-w-7xl items-center gap-3 px-3 py-2">
           <img src="/favicon.svg" alt="" className="h-8 w-8" />
           <div className="mr-auto leading-tight">
@@ -109,7 +156,9 @@ export function AppShell({
   );
 }
 
-export function PageTitle({ title, subtitle, actions }: { title: string; subtitle?: string; actions?: ReactNode }) {
+/** The page's one h1; it also names the browser tab (`documentTitle` where the tab needs a shorter name). */
+export function PageTitle({ title, subtitle, actions, documentTitle }: { title: string; subtitle?: string; actions?: ReactNode; documentTitle?: string }) {
+  usePageTitle(documentTitle ?? title);
   return (
     <div className="flex flex-wrap items-end justify-between gap-3">
       <div>
@@ -118,5 +167,26 @@ export function PageTitle({ title, subtitle, actions }: { title: string; subtitl
       </div>
       {actions}
     </div>
+  );
+}
+
+/** Where the page sits: links up the trail (each a 44 px target for a gloved finger), then the page itself. */
+export function Breadcrumbs({ trail, current }: { trail: { to: string; label: string }[]; current: string }) {
+  return (
+    <nav aria-label="Breadcrumb" className="no-print text-sm">
+      <ol className="flex flex-wrap items-center gap-x-1">
+        {trail.map((c) => (
+          <li key={c.to} className="flex items-center gap-x-1">
+            <Link className="inline-flex min-h-touch min-w-touch items-center justify-center px-1 font-semibold underline" to={c.to}>
+              {c.label}
+            </Link>
+            <span aria-hidden="true">›</span>
+          </li>
+        ))}
+        <li aria-current="page" className="px-1">
+          {current}
+        </li>
+      </ol>
+    </nav>
   );
 }

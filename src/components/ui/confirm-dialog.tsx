@@ -1,7 +1,8 @@
-import { useEffect, useId, useRef, type ReactNode } from 'react';
+import { useId, useRef, type ReactNode } from 'react';
 import { Button } from './button';
+import { useModal } from './modal';
 
-/** A native modal dialog: focus is trapped and Escape cancels. */
+/** A native modal dialog: focus is trapped, Escape cancels, and focus goes back to the opener on close. */
 export function ConfirmDialog({
   open,
   title,
@@ -25,12 +26,7 @@ export function ConfirmDialog({
 }) {
   const ref = useRef<HTMLDialogElement>(null);
   const titleId = useId();
-  useEffect(() => {
-    const d = ref.current;
-    if (!d) return;
-    if (open && !d.open) d.showModal();
-    if (!open && d.open) d.close();
-  }, [open]);
+  useModal(ref, open);
   return (
     <dialog
       ref={ref}

@@ -32,9 +32,22 @@ type Props<T> = {
   empty?: ReactNode;
   toolbar?: ReactNode;
   getRowId?: (row: T) => string;
+  /** Fetching a new result (a server table keeps showing the last one meanwhile): the count is announced once it is in. */
+  fetching?: boolean;
+  /** What the count says out loud, e.g. n => `${n} signatures match`. */
+  countLabel?: (count: number) => string;
+  /** Changes whenever the filters outside the table change, so the new count is announced. */
+  resultKey?: string;
 };
 
-export function DataTable<T>({ columns, data, caption, server, loading, empty, toolbar, getRowId }: Props<T>) {
+const headerText = (header: unknown, id: string) => (typeof header === 'string' ? header : id);
+
+/**
+ * A table with sorting, paging and a filter. Sortable headers are buttons whose header cell carries
+ * `aria-sort`; every change of filters, sorting or page is announced ("12 signatures match, sorted
+ * by Signed, ascending") through a live region that is on the page from the start.
+ */
+export function DataTable<T>({ columns, data, caption, server, loading, empty, toolbar, getRowId, fetching, countLabel, resultKey = '' }: Props<T>) {
   const [localSorting, setLocalSorting] = useState<SortingState>([]);
   const [visibility, setVisibility] = useState<VisibilityState>({});
   const [globalFilter, setGlobalFilter] = useState('');
@@ -55,6 +68,8 @@ export function DataTable<T>({ columns, data, caption, server, loading, empty, t
     },
     onColumnVisibilityChange: setVisibility,
     onGlobalFilterChange: setGlobalFilter,
+    // Every press picks a direction: a third press that dropped the sort left rows in an order no header named.
+    enableSortingRemoval: false,
     getCoreRowModel: getCoreRowModel(),
     ...(server
       ? { manualSorting: true, manualPagination: true, rowCount: server.total }
@@ -69,6 +84,19 @@ export function DataTable<T>({ columns, data, caption, server, loading, empty, t
   const pageIndex = server ? server.page - 1 : table.getState().pagination.pageIndex;
   const total = server ? server.total : table.getFilteredRowModel().rows.length;
   const goTo = (index: number) => (server ? server.onPageChange(index + 1) : table.setPageIndex(index));
+
+  // Said once the result for the new filters, sorting or page is in; not on the page's first load.
+  const signature = JSON.stringify([resultKey, sorting, pageIndex, server ? '' : globalFilter]);
+  const [spoken, setSpoken] = useState({ signature, text: '' });
+  if (spoken.signature !== signature && !loading && !fetching) {
+    const sortedBy = sorting[0] ? table.getColumn(sorting[0].id) : undefined;
+    const parts = [
+      countLabel ? countLabel(total) : `${total} ${total === 1 ? 'row' : 'rows'}`,
+      sortedBy ? `sorted by ${headerText(sortedBy.columnDef.header, sortedBy.id)}, ${sorting[0].desc ? 'descending' : 'ascending'}` : '',
+      pageCount > 1 ? `page ${pageIndex + 1} of ${pageCount}` : '',
+    ];
+    setSpoken({ signature, text: parts.filter(Boolean).join(', ') });
+  }
 
   return (
     <div className="space-y-3">
@@ -94,8 +122,8 @@ export function DataTable<T>({ columns, data, caption, server, loading, empty, t
               .getAllLeafColumns()
               .filter((c) => c.getCanHide())
               .map((c) => (
-                <label key={c.id} className="flex min-h-9 items-center gap-2 text-sm">
-                  <input type="checkbox" className="h-5 w-5" checked={c.getIsVisible()} onChange={c.getToggleVisibilityHandler()} />
+                <label key={c.id} className="flex min-h-touch items-center gap-2 text-sm">
+                  <input type="checkbox" className="h-6 w-6" checked={c.getIsVisible()} onChange={c.getToggleVisibilityHandler()} />
                   {typeof c.columnDef.header === 'string' ? c.columnDef.header : c.id}
                 </label>
               ))}
@@ -106,7 +134,7 @@ export function DataTable<T>({ columns, data, caption, server, loading, empty, t
       <div className="overflow-x-auto rounded border border-steel-200 bg-white" tabIndex={0} role="region" aria-label={caption}>
         <table className="w-full border-collapse text-left text-sm">
           <caption className="sr-only">{caption}</caption>
-          <thead className="bg-steel-800 text-white">
+          <thead className="on-dark bg-steel-800 text-white">
             {table.getHeaderGroups().map((hg) => (
               <tr key={hg.id}>
                 {hg.headers.map((h) => {
@@ -115,13 +143,18 @@ export function DataTable<T>({ columns, data, caption, server, loading, empty, t
                     <th
                       key={h.id}
                       scope="col"
-                      className="px-3 py-2 font-semibold whitespace-nowrap"
+                      className={`${h.column.getCanSort() ? 'px-1 py-0' : 'px-3 py-2'} font-semibold whitespace-nowrap`}
                       aria-sort={sorted === 'asc' ? 'ascending' : sorted === 'desc' ? 'descending' : undefined}
                     >
                       {h.isPlaceholder ? null : h.column.getCanSort() ? (
-                        <button type="button" onClick={h.column.getToggleSortingHandler()} className="inline-flex min-h-9 items-center gap-1 hover:underline">
+                        // The whole header is the target (44 px for a gloved finger); the arrow shows the direction, aria-sort says it.
+                        <button
+                          type="button"
+                          onClick={h.column.getToggleSortingHandler()}
+                          className="inline-flex min-h-touch min-w-touch w-full items-center gap-1.5 rounded px-2 hover:underline"
+                        >
                           {flexRender(h.column.columnDef.header, h.getContext())}
-                          <span aria-hidden className="text-steel-300">
+                          <span aria-hidden className={sorted ? 'text-base text-caution' : 'text-steel-300'}>
                             {sorted === 'asc' ? '▲' : sorted === 'desc' ? '▼' : '↕'}
                           </span>
                         </button>
@@ -153,6 +186,9 @@ export function DataTable<T>({ columns, data, caption, server, loading, empty, t
           </p>
         ) : null}
       </div>
+      <p role="status" aria-live="polite" aria-atomic="true" className="sr-only" data-result-count="">
+        {spoken.text}
+      </p>
       <nav className="no-print flex flex-wrap items-center justify-between gap-2 text-sm" aria-label={`${caption} pages`}>
         <span className="text-steel-700">
           {total} {total === 1 ? 'row' : 'rows'} · page {pageIndex + 1} of {pageCount}

@@ -1,6 +1,8 @@
 import type { ReactNode } from 'react';
+import { usePageTitle } from '../../../components/layout/app-shell';
 
 export function AuthFrame({ title, children }: { title: string; children: ReactNode }) {
+  usePageTitle(title);
   return (
     <main className="flex min-h-screen items-center justify-center bg-steel-900 p-4">
       <div className="w-full max-w-md rounded bg-white shadow-2xl">

@@ -63,7 +63,7 @@ export function LifeView({ filters }: { filters: LifeFilters }) {
           value={s.fit?.plan.age != null ? `${fmt(s.fit.plan.age)} ${unit}` : '—'}
           note={
             s.fit?.plan.savingPercent != null
-              ? `${int.format(s.fit.plan.savingPercent)} % cheaper than running to failure`
+              ? `${f.number(s.fit.plan.savingPercent, { max: 0 })} % cheaper than running to failure`
               : (s.fit?.plan.note ?? 'needs a fit and a failure cost')
           }
         />
@@ -88,11 +88,11 @@ export function LifeView({ filters }: { filters: LifeFilters }) {
               : 'close to random failures'}
           ), characteristic life η = {fmt(s.fit.scale)} {unit}.
           {s.fit.bounds
-            ? ` ${Math.round(s.fit.bounds.level * 100)} % two-sided Fisher-matrix bounds (Meeker & Escobar, Statistical Methods for Reliability Data, §8.4): β ${dec.format(s.fit.bounds.shape.lower)}–${dec.format(s.fit.bounds.shape.upper)}, η ${fmt(s.fit.bounds.scale.lower)}–${fmt(s.fit.bounds.scale.upper)} ${unit}.`
+            ? ` ${Math.round(s.fit.bounds.level * 100)} % two-sided Fisher-matrix bounds (Meeker & Escobar, Statistical Methods for Reliability Data, §8.4): β ${f.number(s.fit.bounds.shape.lower, { max: 2 })}–${f.number(s.fit.bounds.shape.upper, { max: 2 })}, η ${fmt(s.fit.bounds.scale.lower)}–${fmt(s.fit.bounds.scale.upper)} ${unit}.`
             : ''}
           {s.partType.expectedLife !== null ? ` The catalogue expects ${fmt(s.partType.expectedLife)} ${unit}.` : ''}
           {s.fit.plan.age !== null && s.fit.plan.costRate !== null && s.fit.plan.runToFailureCostRate !== null
-            ? ` Cheapest change point (age replacement, Barlow & Proschan): planned change ${money.format(s.fit.plan.plannedCost)}, failure in service ${money.format(s.fit.plan.failureCost ?? 0)} → change at ${fmt(s.fit.plan.age)} ${unit}, ${money.format(s.fit.plan.costRate * 1000)} per 1000 ${unit} against ${money.format(s.fit.plan.runToFailureCostRate * 1000)} when run to failure.`
+            ? ` Cheapest change point (age replacement, Barlow & Proschan): planned change ${f.money(s.fit.plan.plannedCost)}, failure in service ${f.money(s.fit.plan.failureCost ?? 0)} → change at ${fmt(s.fit.plan.age)} ${unit}, ${f.money(s.fit.plan.costRate * 1000)} per 1000 ${unit} against ${f.money(s.fit.plan.runToFailureCostRate * 1000)} when run to failure.`
             : ''}
         </p>
       ) : (

@@ -16,7 +16,7 @@ export function MachinesTable({ rows, loading, toolbar }: { rows: MachineRow[]; 
       cell: (c) => (
         <Link
           to={paths.machine.getHref(c.row.original.id)}
-          className="inline-flex min-h-touch items-center font-bold text-mandatory-ink underline"
+          className="inline-flex min-h-touch min-w-touch items-center font-bold text-mandatory-ink underline"
           style={{ paddingLeft: `${c.row.original.depth * 1.25}rem` }}
         >
           {c.row.original.depth > 0 ? (

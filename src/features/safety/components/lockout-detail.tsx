@@ -1,4 +1,4 @@
-import { useState, type ReactNode } from 'react';
+import { useRef, useState, type ReactNode } from 'react';
 import { Link } from 'react-router-dom';
 import { createColumnHelper } from '@tanstack/react-table';
 import { DataTable } from '../../../components/ui/data-table';
@@ -6,6 +6,7 @@ import { Button } from '../../../components/ui/button';
 import { SelectField, TextField } from '../../../components/ui/field';
 import { Notice, Panel } from '../../../components/ui/notice';
 import { WorkCaution } from '../../../components/ui/caution';
+import { focusSoon, LiveNotice } from '../../../components/ui/live-region';
 import { ApiError } from '../../../lib/api-client';
 import { paths } from '../../../config/paths';
 import { can, type Role } from '../../../../shared/permissions';
@@ -45,6 +46,7 @@ export function LockoutDetailView({ lockout: l, me }: { lockout: LockoutDetail; 
   const f = useShopFormat();
   const { sign, dialog } = useSignFlow({ name: me.name, role: me.role });
   const [message, setMessage] = useState<{ tone: 'safe' | 'danger'; text: string } | null>(null);
+  const messageRef = useRef<HTMLDivElement>(null);
   const procedure = useProcedure(l.procedureId, l.procedureVersion);
   const wo = useLinkedWorkOrder(l.workOrderId);
   const content = procedure.data?.current?.content;
@@ -72,8 +74,10 @@ export function LockoutDetailView({ lockout: l, me }: { lockout: LockoutDetail; 
   const [note, setNote] = useState('');
 
   const done = (text: string) => setMessage({ tone: 'safe', text });
-  const failed = (err: unknown) =>
+  const failed = (err: unknown) => {
     setMessage({ tone: 'danger', text: err instanceof ApiError ? err.message : 'Could not reach the server. Nothing was signed.' });
+    focusSoon(() => messageRef.current);
+  };
   const run = (meaning: SignMeaning, fn: (password: string) => Promise<unknown>, text: string, detail?: ReactNode) =>
     sign(
       meaning,
@@ -82,7 +86,8 @@ export function LockoutDetailView({ lockout: l, me }: { lockout: LockoutDetail; 
         await fn(pw);
         done(text);
       },
-      { onError: failed, detail },
+      // The signing control often goes away with its step (verified, released): focus goes to the result.
+      { onError: failed, detail, focusAfter: () => messageRef.current },
     );
 
   return (
@@ -106,11 +111,7 @@ export function LockoutDetailView({ lockout: l, me }: { lockout: LockoutDetail; 
           ) : null}
         </span>
       </div>
-      {message ? (
-        <Notice tone={message.tone} role={message.tone === 'danger' ? 'alert' : 'status'}>
-          {message.text}
-        </Notice>
-      ) : null}
+      <LiveNotice ref={messageRef} message={message} />
       {open ? (
         l.state === 'verified' ? (
           <Notice tone="danger" title="Locked out: do not operate" role="status">

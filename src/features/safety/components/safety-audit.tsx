@@ -1,11 +1,14 @@
 // Over 400 lines: four audit components (filters and table, chain check, compliance, correction dialog) still share this file; a split into one file each is prepared but not merged yet.
-import { useEffect, useRef, useState } from 'react';
+import { useRef, useState } from 'react';
 import { useSearchParams } from 'react-router-dom';
 import { createColumnHelper, type SortingState } from '@tanstack/react-table';
 import { Bar, BarChart, CartesianGrid, Legend, Line, LineChart, ResponsiveContainer, Tooltip, XAxis, YAxis } from 'recharts';
 import { DataTable } from '../../../components/ui/data-table';
 import { Button } from '../../../components/ui/button';
 import { TextField } from '../../../components/ui/field';
+import { DateField } from '../../../components/ui/date-field';
+import { focusSoon, LiveNotice } from '../../../components/ui/live-region';
+import { useModal } from '../../../components/ui/modal';
 import { Badge, EmptyState, Notice, Panel } from '../../../components/ui/notice';
 import { ApiError } from '../../../lib/api-client';
 import { ROLE_LABELS, type Role } from '../../../../shared/permissions';
@@ -54,20 +57,23 @@ export function ChainCheck() {
           {chain.error.message}
         </Notice>
       ) : null}
-      {v ? (
-        v.ok ? (
-          <Notice tone="safe" title="Chain verified" role="status">
-            {v.message} Checked {f.dateTime(v.verifiedAt)}.
-          </Notice>
-        ) : (
-          <Notice tone="danger" title="Chain broken" role="alert">
-            {v.message} {v.checked} record{v.checked === 1 ? '' : 's'} before it verified.
-            {v.firstBad?.signerName
-              ? ` First bad record: #${v.firstBad.seq}, ${v.firstBad.signerName}, ${f.dateTime(v.firstBad.signedAt)}, ${v.firstBad.meaning ? MEANING_LABELS[v.firstBad.meaning] : ''}.`
-              : ''}
-          </Notice>
-        )
-      ) : null}
+      {/* On the page before the first check, so each result is announced; focus stays on the button. */}
+      <div role="status" aria-live="polite">
+        {v ? (
+          v.ok ? (
+            <Notice tone="safe" title="Chain verified">
+              {v.message} Checked {f.dateTime(v.verifiedAt)}.
+            </Notice>
+          ) : (
+            <Notice tone="danger" title="Chain broken">
+              {v.message} {v.checked} record{v.checked === 1 ? '' : 's'} before it verified.
+              {v.firstBad?.signerName
+                ? ` First bad record: #${v.firstBad.seq}, ${v.firstBad.signerName}, ${f.dateTime(v.firstBad.signedAt)}, ${v.firstBad.meaning ? MEANING_LABELS[v.firstBad.meaning] : ''}.`
+                : ''}
+            </Notice>
+          )
+        ) : null}
+      </div>
     </Panel>
   );
 }
@@ -229,11 +235,8 @@ function CorrectionDialog({
   const [error, setError] = useState<string | null>(null);
   const correct = useCorrectSignOff();
   const { sign, dialog } = useSignFlow(me);
-  useEffect(() => {
-    const d = ref.current;
-    if (d && !d.open) d.showModal();
-    return () => d?.close();
-  }, []);
+  // Open while it is on the page; Escape or Cancel takes focus back to the row's "Add correction".
+  useModal(ref, true);
   return (
     <dialog
       ref={ref}
@@ -306,6 +309,7 @@ export function SignOffAudit({ me }: { me: { name: string; role: Role } }) {
   const [sorting, setSorting] = useState<SortingState>([{ id: 'signedAt', desc: true }]);
   const [correcting, setCorrecting] = useState<SignOffRow | null>(null);
   const [message, setMessage] = useState<{ tone: 'safe' | 'danger'; text: string } | null>(null);
+  const messageRef = useRef<HTMLDivElement>(null);
   const machines = useSafetyMachines();
   const people = useSafetyPeople();
   const rangeError = from && to && to < from ? reversedRangeMessage(from) : null;
@@ -346,11 +350,7 @@ export function SignOffAudit({ me }: { me: { name: string; role: Role } }) {
           </>
         )}
       </div>
-      {message ? (
-        <Notice tone={message.tone} role={message.tone === 'danger' ? 'alert' : 'status'}>
-          {message.text}
-        </Notice>
-      ) : null}
+      <LiveNotice ref={messageRef} message={message} />
       {q.isError ? (
         <Notice tone="danger" role="alert">
           {q.error.message}
@@ -360,6 +360,9 @@ export function SignOffAudit({ me }: { me: { name: string; role: Role } }) {
         caption="Safety signatures"
         data={rangeError ? [] : (q.data?.rows ?? [])}
         loading={!rangeError && q.isLoading}
+        fetching={!rangeError && q.isFetching}
+        resultKey={JSON.stringify([machineId, signerId, meaning, from, to, rangeError])}
+        countLabel={(n) => (rangeError ? 'Fix the date range to see signatures' : `${n} ${n === 1 ? 'signature matches' : 'signatures match'}`)}
         getRowId={(r) => r.id}
         empty={rangeError ? <EmptyState title="Fix the date range to see signatures" /> : <EmptyState title="No signatures match these filters" />}
         server={{
@@ -406,28 +409,8 @@ export function SignOffAudit({ me }: { me: { name: string; role: Role } }) {
                 ))}
               </select>
             </label>
-            <label className="flex flex-col text-sm font-semibold">
-              From
-              <input type="date" className={filterClass} value={from} onChange={(e) => setFilter('from', e.target.value)} />
-            </label>
-            <div className="flex flex-col text-sm font-semibold">
-              <label htmlFor="audit-to">To</label>
-              <input
-                id="audit-to"
-                type="date"
-                className={`${filterClass} ${rangeError ? 'border-2 border-danger' : ''}`}
-                value={to}
-                min={from || undefined}
-                aria-invalid={rangeError ? true : undefined}
-                aria-describedby={rangeError ? 'audit-to-error' : undefined}
-                onChange={(e) => setFilter('to', e.target.value)}
-              />
-              {rangeError ? (
-                <p id="audit-to-error" role="alert" className="max-w-56 font-semibold text-danger">
-                  {rangeError}
-                </p>
-              ) : null}
-            </div>
+            <DateField label="From" value={from} onChange={(v) => setFilter('from', v)} />
+            <DateField label="To" value={to} min={from || undefined} error={rangeError} onChange={(v) => setFilter('to', v)} />
           </div>
         }
         columns={[
@@ -483,6 +466,8 @@ export function SignOffAudit({ me }: { me: { name: string; role: Role } }) {
           onDone={(seq) => {
             setMessage({ tone: 'safe', text: `Correction signed as #${seq}.` });
             setCorrecting(null);
+            // The dialog and its signing step are gone: focus goes to the result.
+            focusSoon(() => messageRef.current);
           }}
         />
       ) : null}

@@ -1,5 +1,7 @@
 import { useEffect, useId, useRef, useState, type FormEvent, type ReactNode } from 'react';
 import { Button } from '../../../components/ui/button';
+import { useModal } from '../../../components/ui/modal';
+import { focusSoon } from '../../../components/ui/live-region';
 import { ApiError } from '../../../lib/api-client';
 import { MEANING_LABELS, MEANING_STATEMENTS, type SignMeaning } from '../../../../shared/schemas/safety-sign-offs';
 import { ROLE_LABELS, type Role } from '../../../../shared/permissions';
@@ -30,15 +32,11 @@ export function SignDialog({
   const [error, setError] = useState<string | null>(null);
   const [busy, setBusy] = useState(false);
   const id = useId();
+  useModal(ref, open);
   useEffect(() => {
-    const d = ref.current;
-    if (!d) return;
-    if (open && !d.open) {
-      setPassword('');
-      setError(null);
-      d.showModal();
-    }
-    if (!open && d.open) d.close();
+    if (!open) return;
+    setPassword('');
+    setError(null);
   }, [open]);
 
   const submit = async (e: FormEvent) => {
@@ -118,7 +116,14 @@ export function SignDialog({
   );
 }
 
-type Pending = { meaning: SignMeaning; run: (password: string) => Promise<void>; onError?: (err: unknown) => void; detail?: ReactNode };
+type Pending = {
+  meaning: SignMeaning;
+  run: (password: string) => Promise<void>;
+  onError?: (err: unknown) => void;
+  detail?: ReactNode;
+  /** Where focus goes once signed: the result, or the next thing to do (the signing control often goes away). */
+  focusAfter?: () => HTMLElement | null | undefined;
+};
 
 /** One signing dialog per screen: `sign(meaning, run)` opens it; `run` gets the password. */
 export function useSignFlow(signer: { name: string; role: Role } | undefined) {
@@ -130,7 +135,9 @@ export function useSignFlow(signer: { name: string; role: Role } | undefined) {
       signer={signer}
       onSign={async (pw) => {
         await pending!.run(pw);
+        const focusAfter = pending!.focusAfter;
         setPending(null);
+        if (focusAfter) focusSoon(focusAfter);
       }}
       onCancel={() => setPending(null)}
       onError={(err) => {

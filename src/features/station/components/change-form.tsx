@@ -29,7 +29,7 @@ const PAIR: TorchCategory[] = ['electrode', 'nozzle'];
 const same = (a: readonly string[], b: readonly string[]) => a.length === b.length && a.every((x) => b.includes(x));
 const num = (v: unknown) => (v === '' || v === null || v === undefined ? null : Number(v));
 const big = 'min-h-[3.5rem] rounded border-2 px-4 py-2 text-lg font-bold text-left';
-const on = 'border-steel-900 bg-steel-900 text-white';
+const on = 'on-dark border-steel-900 bg-steel-900 text-white';
 const off = 'border-steel-400 bg-white text-steel-900';
 
 /** A counter that went back to zero (control reset, encoder replaced) may read lower than before. */

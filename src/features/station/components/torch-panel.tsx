@@ -1,8 +1,9 @@
-import { useState } from 'react';
+import { useRef, useState } from 'react';
 import type { PartOption, ReferenceValue, TorchStation } from '../../../../shared/schemas/consumables';
 import { LIFE_UNIT_LABELS, PART_CATEGORY_LABELS } from '../../../../shared/schemas/stock';
 import { Button } from '../../../components/ui/button';
 import { Notice } from '../../../components/ui/notice';
+import { focusSoon, LiveNotice } from '../../../components/ui/live-region';
 import { LifeBar } from './life-bar';
 import { ChangePoint } from './change-point';
 import { ChangeForm } from './change-form';
@@ -23,6 +24,8 @@ export function TorchPanel({ torch, parts, pitLimit, canLog }: { torch: TorchSta
   const f = useShopFormat();
   const [open, setOpen] = useState(false);
   const [done, setDone] = useState<string | null>(null);
+  const doneRef = useRef<HTMLDivElement>(null);
+  const logButton = useRef<HTMLButtonElement>(null);
   return (
     <section aria-labelledby={`torch-${torch.id}`} className="space-y-4 rounded border border-steel-200 bg-white p-4 shadow-sm">
       <header className="flex flex-wrap items-baseline justify-between gap-2">
@@ -55,13 +58,10 @@ export function TorchPanel({ torch, parts, pitLimit, canLog }: { torch: TorchSta
           />
         ) : null}
       </div>
-      {done ? (
-        <Notice tone="safe" role="status" title="Done">
-          {done}
-        </Notice>
-      ) : null}
+      {/* On the page before the message, so the confirmation is announced; focus lands on it once the sheet closes. */}
+      <LiveNotice ref={doneRef} message={done ? { tone: 'safe', title: 'Done', text: done } : null} />
       {canLog && !open ? (
-        <Button className="min-h-[4rem] w-full text-xl" onClick={() => (setDone(null), setOpen(true))}>
+        <Button ref={logButton} className="min-h-[4rem] w-full text-xl" onClick={() => (setDone(null), setOpen(true))}>
           Log a change
         </Button>
       ) : null}
@@ -70,10 +70,14 @@ export function TorchPanel({ torch, parts, pitLimit, canLog }: { torch: TorchSta
           torch={torch}
           parts={parts}
           pitLimit={pitLimit}
-          onCancel={() => setOpen(false)}
+          onCancel={() => {
+            setOpen(false);
+            focusSoon(() => logButton.current);
+          }}
           onDone={(message) => {
             setOpen(false);
             setDone(message);
+            focusSoon(() => doneRef.current);
           }}
         />
       ) : null}

@@ -2,6 +2,8 @@ import { useState } from 'react';
 import type { WorkOrderDetail } from '../../../../shared/schemas/work-orders';
 import { Button } from '../../../components/ui/button';
 import { Notice } from '../../../components/ui/notice';
+import { announce, focusSoon } from '../../../components/ui/live-region';
+import { mainHeading } from '../../../components/ui/modal';
 import { useCloseWorkOrder } from '../api/close-work-order';
 import { useShopFormat } from '../../../lib/format';
 
@@ -14,7 +16,11 @@ export function CloseWork({ wo }: { wo: WorkOrderDetail }) {
     setMessage(null);
     try {
       const r = await close.mutateAsync({ id: wo.id });
-      setMessage({ tone: 'safe', text: r.planNextDueAt ? `Signed off. The plan is next due ${f.dateTime(r.planNextDueAt)}.` : 'Signed off.' });
+      const text = r.planNextDueAt ? `Signed off. The plan is next due ${f.dateTime(r.planNextDueAt)}.` : 'Signed off.';
+      setMessage({ tone: 'safe', text });
+      // This panel goes away with the open work: the page's announcer says it, and focus goes to the record of the sign-off.
+      announce(text);
+      focusSoon(() => document.getElementById('work-signed-off') ?? mainHeading());
     } catch (err) {
       setMessage({ tone: 'danger', text: err instanceof Error ? err.message : 'Could not sign off' });
     }
@@ -40,8 +46,8 @@ export function CloseWork({ wo }: { wo: WorkOrderDetail }) {
       <p id="signoff-help" className="text-sm text-steel-600">
         Signing off records you as the person who finished the work, with the time, checklist answers, parts and time spent.
       </p>
-      {message ? (
-        <Notice tone={message.tone} role={message.tone === 'danger' ? 'alert' : 'status'}>
+      {message?.tone === 'danger' ? (
+        <Notice tone="danger" role="alert">
           {message.text}
         </Notice>
       ) : null}

@@ -24,7 +24,7 @@ export function MyWorkPanel({ scope = 'mine' }: { scope?: 'mine' | 'shop' }) {
       {overdue.data && overdue.data.total > 0 ? (
         <div className="mb-3">
           <Notice tone="danger" title={`${overdue.data.total} past due`}>
-            <Link className="font-semibold underline" to={`${base}&due=overdue`}>
+            <Link className="inline-flex min-h-touch items-center font-semibold underline" to={`${base}&due=overdue`}>
               Show past-due work
             </Link>
           </Notice>

@@ -1,7 +1,7 @@
 import { useState } from 'react';
 import type { WorkOrderDetail } from '../../../../shared/schemas/work-orders';
 import { Button } from '../../../components/ui/button';
-import { Notice } from '../../../components/ui/notice';
+import { LiveNotice } from '../../../components/ui/live-region';
 import { useUpdateWorkOrder } from '../api/update-work-order';
 import { inputClass } from './format';
 import { ApiError } from '../../../lib/api-client';
@@ -67,13 +67,8 @@ export function WorkLogForm({ wo, readOnly }: { wo: WorkOrderDetail; readOnly: b
           </Button>
         </div>
       )}
-      {message ? (
-        <div className="sm:col-span-2">
-          <Notice tone={message.tone} role={message.tone === 'danger' ? 'alert' : 'status'}>
-            {message.text}
-          </Notice>
-        </div>
-      ) : null}
+      {/* Focus stays on the save button (it is never disabled while saving); the result is announced. */}
+      <LiveNotice className="sm:col-span-2" message={message} />
     </form>
   );
 }

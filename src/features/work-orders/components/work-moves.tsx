@@ -1,17 +1,22 @@
-import { useEffect, useRef, useState } from 'react';
+import { useRef, useState } from 'react';
 import { Link } from 'react-router-dom';
 import { paths } from '../../../config/paths';
 import type { WorkMove, WorkOrderDetail } from '../../../../shared/schemas/work-orders';
 import { Button } from '../../../components/ui/button';
 import { Notice } from '../../../components/ui/notice';
 import { ConfirmDialog } from '../../../components/ui/confirm-dialog';
+import { mainHeading, useModal } from '../../../components/ui/modal';
+import { announce, focusSoon } from '../../../components/ui/live-region';
 import { ApiError } from '../../../lib/api-client';
 import { useMoveWorkOrder } from '../api/move-work-order';
 import { inputClass } from './format';
 
 /** Start, pause, resume or call off. Pausing and calling off ask why. */
+const MOVE_DONE: Record<WorkMove, string> = { start: 'Work started.', pause: 'Work paused.', resume: 'Work resumed.', cancel: 'Work called off.' };
+
 export function WorkMoves({ wo }: { wo: WorkOrderDetail }) {
   const move = useMoveWorkOrder();
+  const group = useRef<HTMLDivElement>(null);
   const [asking, setAsking] = useState<WorkMove | null>(null);
   const [reason, setReason] = useState('');
   const [error, setError] = useState<string | null>(null);
@@ -28,6 +33,9 @@ export function WorkMoves({ wo }: { wo: WorkOrderDetail }) {
       await move.mutateAsync({ id: wo.id, move: m, ...(why ? { reason: why } : {}) });
       setAsking(null);
       setReason('');
+      announce(MOVE_DONE[m]);
+      // The pressed button goes away with the move (Start becomes Pause): focus goes to the next move, or the heading when none is left.
+      focusSoon(() => group.current?.querySelector<HTMLElement>('button') ?? mainHeading());
     } catch (err) {
       setError(err instanceof ApiError && err.fields[0] ? err.fields[0].message : err instanceof Error ? err.message : 'Could not change the state');
     }
@@ -42,7 +50,7 @@ export function WorkMoves({ wo }: { wo: WorkOrderDetail }) {
       cancel: ['open', 'in-progress', 'on-hold'].includes(wo.status),
     })[m];
   return (
-    <div className="flex flex-wrap items-center gap-2">
+    <div ref={group} className="flex flex-wrap items-center gap-2">
       {can('start') ? (
         <Button onClick={() => (needsLockout ? setWarnLockout(true) : go('start'))} busy={move.isPending && move.variables?.move === 'start'}>
           Start work
@@ -146,12 +154,7 @@ function LockoutFirstDialog({
   onCancel: () => void;
 }) {
   const ref = useRef<HTMLDialogElement>(null);
-  useEffect(() => {
-    const d = ref.current;
-    if (!d) return;
-    if (open && !d.open) d.showModal();
-    if (!open && d.open) d.close();
-  }, [open]);
+  useModal(ref, open);
   return (
     <dialog
       ref={ref}

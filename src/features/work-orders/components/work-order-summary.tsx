@@ -74,10 +74,13 @@ export function WorkOrderSummary({ wo }: { wo: WorkOrderDetail }) {
             </Notice>
           ) : null}
           {wo.status === 'done' ? (
-            <Notice tone="safe" title="Signed off" role="status">
-              {wo.completedBy?.name} signed this off on {f.dateTime(wo.completedAt)}.
-              {wo.plan?.nextDueAt ? ` The plan is next due ${f.dateTime(wo.plan.nextDueAt)}.` : ''}
-            </Notice>
+            // Focus lands here once the work is signed off (the sign-off panel goes away).
+            <div id="work-signed-off" tabIndex={-1}>
+              <Notice tone="safe" title="Signed off">
+                {wo.completedBy?.name} signed this off on {f.dateTime(wo.completedAt)}.
+                {wo.plan?.nextDueAt ? ` The plan is next due ${f.dateTime(wo.plan.nextDueAt)}.` : ''}
+              </Notice>
+            </div>
           ) : null}
         </div>
       </Panel>
