@@ -6,7 +6,6 @@ import type { Principal } from '../../http/principal';
 import { AppError, conflict, fieldError, notFound } from '../../http/errors';
 import { recordActivity } from '../activity-log/activity-log.service';
 import { grouped, readingOrderProblem, readingTime, thinSeries } from '../../../shared/domain/meters';
-import { Organization } from '../organizations/organization.entity';
 import { usageRatePerDay } from '../../../shared/domain/forecast';
 import type {
   LatestReading,
@@ -132,7 +131,7 @@ export async function updateMeter(em: EntityManager, who: Principal, id: string,
  */
 export async function recordReading(
   em: EntityManager,
-  who: Pick<Principal, 'orgId' | 'userId'>,
+  who: Pick<Principal, 'orgId' | 'userId' | 'timeZone'>,
   meterId: string,
   input: ReadingInput,
   source: 'manual' | 'consumable-change' | 'work-order' = 'manual',
@@ -142,7 +141,7 @@ export async function recordReading(
   const at = input.readAt ? new Date(input.readAt) : clock.now();
   const candidate = { at, value: input.value, isReset: input.isReset };
   const { prev, next } = await neighbours(em, meter.id, at);
-  const timeZone = (await em.findOne(Organization, who.orgId))?.timeZone;
+  const timeZone = who.timeZone;
   const before = readingOrderProblem(meter.kind, prev, candidate, meter.unit, timeZone);
   if (before) throw fieldError('value', `${meter.name}: ${before}`);
   if (next && readingOrderProblem(meter.kind, candidate, next, meter.unit)) {
