@@ -16,7 +16,8 @@ export type FieldErrors = { path: string; message: string }[];
 /**
  * Machine-readable codes of error answers; clients branch on these, never on the wording.
  * `validation_failed` answers carry `fields` with the exact paths of the problems;
- * `signature_refused` is a wrong password at an electronic signature (the session stays valid).
+ * `signature_refused` is a wrong password at an electronic signature (the session stays valid);
+ * `checklist_incomplete` is a sign-off refused because checklist lines have no answer (409).
  */
 export const ERROR_CODES = [
   'validation_failed',
@@ -28,6 +29,7 @@ export const ERROR_CODES = [
   'csrf_invalid',
   'not_found',
   'conflict',
+  'checklist_incomplete',
   'payload_too_large',
   'rate_limited',
   'database_unavailable',

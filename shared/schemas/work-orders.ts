@@ -182,8 +182,16 @@ export type WorkOrderDetail = {
   attachments: { id: string; fileName: string; mimeType: string; size: number; at: string; by: string | null }[];
   history: { at: string; action: string; who: string | null; details: Record<string, unknown> | null }[];
   /** What still stands between this work order and closing it; empty when it can be closed. */
-  closeBlockers: string[];
+  closeBlockers: CloseBlocker[];
 };
+
+/** Why a work order cannot be signed off yet: a code to branch on and the words to show. */
+export const CLOSE_BLOCKER_CODES = ['checklist_incomplete', 'measured_value_missing', 'lockout_not_released'] as const;
+export type CloseBlocker = { code: (typeof CLOSE_BLOCKER_CODES)[number]; message: string };
+
+/** The words of the `checklist_incomplete` blocker; the screen recounts it from the lines it shows. */
+export const checklistBlockerText = (unanswered: { label: string }[], total: number) =>
+  `${unanswered.length} of ${total} checklist lines have no answer: ${unanswered.map((c) => c.label).join('; ')}`;
 
 export const NOTIFY_MODES = ['immediate', 'daily', 'none'] as const;
 export type NotifyMode = (typeof NOTIFY_MODES)[number];

@@ -1,5 +1,13 @@
 import { describe, expect, it } from 'vitest';
-import { buildRecurrenceText, expandRecurrence, localToInstant, parseRecurrence, previousOccurrence, validateRecurrence } from '../../shared/domain/recurrence';
+import {
+  buildRecurrenceText,
+  expandRecurrence,
+  localToInstant,
+  parseRecurrence,
+  previousOccurrence,
+  RecurrenceError,
+  validateRecurrence,
+} from '../../shared/domain/recurrence';
 import { RRule, Frequency, rrulestr } from '../../shared/domain/rrule';
 
 // The RFC 5545 §3.8.5.3 examples give local 9:00 AM and say whether it is EDT or EST.
@@ -410,5 +418,26 @@ describe('buildRecurrenceText', () => {
     expect(() => buildRecurrenceText({ start: '2024-03-31T02:30', tzid: 'Europe/Berlin', rrule: 'FREQ=DAILY' })).toThrow(/does not exist/);
     expect(() => buildRecurrenceText({ start: '2024-03-31 02:30+01:00', tzid: 'Europe/Berlin', rrule: 'FREQ=DAILY' })).toThrow(/not a local ISO date-time/);
     expect(() => buildRecurrenceText({ start: '2024-03-04T07:00', tzid: 'Europe/Berlin', rrule: 'FREQ=DAYLY' })).toThrow(/FREQ "DAYLY"/);
+  });
+
+  it('says which part is at fault, so a form can put the message on the right field', () => {
+    const partOf = (start: string, rrule: string) => {
+      try {
+        buildRecurrenceText({ start, tzid: 'Europe/Berlin', rrule });
+        return 'none';
+      } catch (err) {
+        return err instanceof RecurrenceError ? err.part : 'not a RecurrenceError';
+      }
+    };
+    // 31 March 2024 02:30 does not exist in Berlin (Directive 2000/84/EC: clocks go 02:00 CET → 03:00 CEST).
+    expect(partOf('2024-03-31T02:30', 'FREQ=DAILY')).toBe('start');
+    expect(partOf('2024-03-31 02:30+01:00', 'FREQ=DAILY')).toBe('start');
+    expect(partOf('2024-03-04T07:00', 'FREQ=DAYLY')).toBe('rule');
+    expect(partOf('2024-03-04T07:00', 'FREQ=WEEKLY;UNTIL=20241399T000000Z')).toBe('rule');
+    expect(validateRecurrence('DTSTART:20240231T070000Z\nRRULE:FREQ=DAILY')).toEqual({
+      ok: false,
+      error: expect.stringMatching(/not a calendar date/),
+      part: 'start',
+    });
   });
 });

@@ -128,11 +128,14 @@ describe('work order lifecycle', () => {
     const { woId } = await raisedWork();
     await put(tech, `/work-orders/${woId}/checklist`, { results: [{ key: 'isolated', result: 'pass' }] }).expect(200);
     const res = await post(tech, `/work-orders/${woId}/close`, { labourMinutes: 30 }).expect(409);
+    expect(res.body.error).toBe('checklist_incomplete');
     expect(res.body.message).toMatch(/cannot be signed off yet: 1 of 2 checklist lines have no answer: Filter pressure drop after start/);
     expect(res.body.fields).toEqual([{ path: 'checklist.1', message: '“Filter pressure drop after start” has no answer' }]);
     const wo = await get(tech, `/work-orders/${woId}`).expect(200);
     expect(wo.body).toMatchObject({ status: 'in-progress', labourMinutes: 0, completedAt: null });
-    expect(wo.body.closeBlockers).toHaveLength(1);
+    expect(wo.body.closeBlockers).toEqual([
+      { code: 'checklist_incomplete', message: '1 of 2 checklist lines have no answer: Filter pressure drop after start' },
+    ]);
   });
 
   it('a measured value outside its limits cannot be marked OK', async () => {

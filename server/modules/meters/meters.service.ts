@@ -7,7 +7,6 @@ import { AppError, badRequest, conflict, fieldError, notFound } from '../../http
 import { recordActivity } from '../activity-log/activity-log.service';
 import { completeByStationRecord } from '../work-orders/station-completion';
 import { grouped, readingOrderProblem, readingTime, thinSeries } from '../../../shared/domain/meters';
-import { Organization } from '../organizations/organization.entity';
 import { usageRatePerDay } from '../../../shared/domain/forecast';
 import type {
   LatestReading,
@@ -134,7 +133,7 @@ export async function updateMeter(em: EntityManager, who: Principal, id: string,
  */
 export async function recordReading(
   em: EntityManager,
-  who: Pick<Principal, 'orgId' | 'userId'>,
+  who: Pick<Principal, 'orgId' | 'userId' | 'timeZone'>,
   meterId: string,
   input: ReadingInput,
   source: 'manual' | 'consumable-change' | 'work-order' = 'manual',
@@ -144,7 +143,7 @@ export async function recordReading(
   const at = input.readAt ? new Date(input.readAt) : clock.now();
   const candidate = { at, value: input.value, isReset: input.isReset };
   const { prev, next } = await neighbours(em, meter.id, at);
-  const timeZone = (await em.findOne(Organization, who.orgId))?.timeZone;
+  const timeZone = who.timeZone;
   const before = readingOrderProblem(meter.kind, prev, candidate, meter.unit, timeZone);
   if (before) throw fieldError('value', `${meter.name}: ${before}`);
   if (next && readingOrderProblem(meter.kind, candidate, next, meter.unit)) {

@@ -9,7 +9,7 @@ import { summarizeTrigger } from '../../../shared/domain/plan-summary';
 import { STARTER_PLANS, findStarter, type StarterMeter, type StarterPlan } from '../../../shared/domain/starter-plans';
 import { MACHINE_KIND_LABELS, type MachineKind } from '../../../shared/schemas/machines';
 import type { ApplyStartersInput, ApplyStartersResult, PlanInput, StarterFit, StarterView, TriggerInput } from '../../../shared/schemas/plans';
-import { createPlan, findMachine, metersOf, relatedMachineIds, shopTimeZone, type MeterInfo } from './plans.service';
+import { createPlan, findMachine, metersOf, relatedMachineIds, type MeterInfo } from './plans.service';
 import { clock } from '../../../shared/clock';
 
 function starterSummary(s: StarterPlan): string {
@@ -125,7 +125,7 @@ export async function applyStarters(
 ): Promise<ApplyStartersResult> {
   return em.transactional(async (tx) => {
     const machine = await findMachine(tx, input.machineId);
-    const tz = await shopTimeZone(tx, who);
+    const tz = who.timeZone;
     const meters = await metersOf(tx, await relatedMachineIds(tx, machine));
     const existing = await tx.find(MaintenancePlan, { machine: machine.id, active: true, starterKey: { $ne: null } }, { fields: ['starterKey'] });
     const have = new Set(existing.map((p) => p.starterKey));

@@ -9,16 +9,7 @@ import { notFound } from '../../http/errors';
 import { summarizeTrigger, summarizeTriggers } from '../../../shared/domain/plan-summary';
 import { ROLE_LABELS } from '../../../shared/permissions';
 import type { Page } from '../../../shared/schemas/paging';
-import {
-  stationRecordSummary,
-  type DueState,
-  type ListPlansQuery,
-  type PlanDetail,
-  type PlanLookups,
-  type PlanRow,
-  type StoredTrigger,
-} from '../../../shared/schemas/plans';
-import { shopTimeZone } from './plans.service';
+import { stationRecordSummary, type DueState, type ListPlansQuery, type PlanDetail, type PlanLookups, type PlanRow, type StoredTrigger } from '../../../shared/schemas/plans';
 
 const SORT_SQL: Record<ListPlansQuery['sort'], string> = {
   title: 'p.title',
@@ -154,7 +145,7 @@ export async function getPlan(em: EntityManager, who: Principal, id: string): Pr
     evaluation: plan.evaluation?.triggers ?? [],
     meterDue: plan.evaluation?.meterDue ?? [],
     openWorkOrder: open ? { id: open.id, number: Number(open.number), status: open.status } : null,
-    timeZone: await shopTimeZone(em, who),
+    timeZone: who.timeZone,
   };
 }
 
@@ -171,6 +162,6 @@ export async function planLookups(em: EntityManager, who: Principal): Promise<Pl
     meters: meters.map((m) => ({ id: m.id, machineId: m.machine.id, code: m.code, name: m.name, kind: m.kind, unit: m.unit })),
     parts: parts.map((p) => ({ id: p.id, partNumber: p.partNumber, name: p.name, category: p.category, stockUnit: p.stockUnit, onHand: p.onHand })),
     people: people.map((p) => ({ userId: p.user_id, name: p.name, role: p.role })),
-    timeZone: await shopTimeZone(em, who),
+    timeZone: who.timeZone,
   };
 }

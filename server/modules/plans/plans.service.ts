@@ -5,22 +5,16 @@ import { Machine, type IMachine } from '../machines/machine.entity';
 import { Meter } from '../meters/meter.entity';
 import { PartType } from '../stock/stock.entity';
 import { Membership } from '../users/user.entity';
-import { Organization } from '../organizations/organization.entity';
 import type { Principal } from '../../http/principal';
 import { badRequest, notFound } from '../../http/errors';
 import { recordActivity } from '../activity-log/activity-log.service';
-import { buildRecurrenceText } from '../../../shared/domain/recurrence';
+import { buildRecurrenceText, RecurrenceError } from '../../../shared/domain/recurrence';
 import type { FieldErrors } from '../../../shared/schemas/common';
 import type { PlanInput, StoredTrigger, TriggerInput } from '../../../shared/schemas/plans';
 import { currentBaselines, refreshPlanStatus } from './plan-evaluation';
 import { clock } from '../../../shared/clock';
 
 export type MeterInfo = { id: string; code: string; name: string; unit: string; kind: string; machineId: string };
-
-export async function shopTimeZone(em: EntityManager, who: Principal): Promise<string> {
-  const org = await em.findOneOrFail(Organization, who.orgId);
-  return org.timeZone;
-}
 
 /** A machine of the caller's shop, or 404 (another shop's machine is simply not found). */
 export async function findMachine(em: EntityManager, id: string): Promise<IMachine> {
@@ -59,7 +53,8 @@ async function resolveTriggers(em: EntityManager, machine: IMachine, triggers: T
           });
         } catch (err) {
           const message = (err instanceof Error ? err.message : String(err)).replace(/^recurrence: /, '');
-          errors.push({ path: /DTSTART/.test(message) ? at('start') : at('rrule'), message: message.replace(/DTSTART/g, 'The start') });
+          const field = err instanceof RecurrenceError && err.part === 'start' ? 'start' : 'rrule';
+          errors.push({ path: at(field), message: message.replace(/DTSTART/g, 'The start') });
         }
         break;
       }
@@ -150,7 +145,7 @@ function editableFields(input: PlanInput, triggers: Awaited<ReturnType<typeof re
 export async function createPlan(em: EntityManager, who: Principal, input: PlanInput, extra: { starterKey?: string } = {}): Promise<{ id: string }> {
   return em.transactional(async (tx) => {
     const machine = await findMachine(tx, input.machineId);
-    const tz = await shopTimeZone(tx, who);
+    const tz = who.timeZone;
     await checkPeopleAndParts(tx, who, input);
     await checkStationRecord(tx, machine, input);
     const triggers = await resolveTriggers(tx, machine, input.triggers, tz);
@@ -179,7 +174,7 @@ export async function updatePlan(em: EntityManager, who: Principal, id: string, 
     const plan = await tx.findOne(MaintenancePlan, { id });
     if (!plan) throw notFound('Plan');
     const machine = await findMachine(tx, input.machineId);
-    const tz = await shopTimeZone(tx, who);
+    const tz = who.timeZone;
     await checkPeopleAndParts(tx, who, input);
     await checkStationRecord(tx, machine, input);
     const triggers = await resolveTriggers(tx, machine, input.triggers, tz);

@@ -105,7 +105,7 @@ const toRow = (r: Sql): SignOffRow => ({
 });
 
 export async function listSignOffs(em: EntityManager, who: Principal, q: ListSignOffsQuery): Promise<Page<SignOffRow>> {
-  const { tz } = await shopZone(em, who.orgId);
+  const tz = who.timeZone;
   const { where, params } = whereFor(q, who.orgId, tz);
   const rows = await em
     .getConnection()
@@ -155,7 +155,8 @@ export async function exportCsv(
   who: Principal,
   q: ExportSignOffsQuery,
 ): Promise<{ csv: string; fileName: string; verification: ChainVerification }> {
-  const { org, tz } = await shopZone(em, who.orgId);
+  const org = await em.findOneOrFail(Organization, who.orgId);
+  const tz = who.timeZone;
   const verification = await verifyShopChain(em, who.orgId);
   const rows = await allRows(em, who, q, tz);
   const csv = toCsv(
@@ -197,7 +198,8 @@ export async function exportCsv(
 }
 
 export async function exportPdf(em: EntityManager, who: Principal, q: ExportSignOffsQuery): Promise<{ pdf: Buffer; fileName: string }> {
-  const { org, tz } = await shopZone(em, who.orgId);
+  const org = await em.findOneOrFail(Organization, who.orgId);
+  const tz = who.timeZone;
   const verification = await verifyShopChain(em, who.orgId);
   const rows = await allRows(em, who, q, tz);
   const filters = await filterText(em, q);

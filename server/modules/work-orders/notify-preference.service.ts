@@ -3,12 +3,11 @@ import type { EntityManager } from '@mikro-orm/postgresql';
 import { NotifyPreference } from './work-order.entity';
 import type { Principal } from '../../http/principal';
 import { recordActivity } from '../activity-log/activity-log.service';
-import { shopTimeZone } from '../plans/plans.service';
 import type { NotifyPreference as NotifyPreferenceView, NotifyPreferenceInput } from '../../../shared/schemas/work-orders';
 
 export async function getNotifyPreference(em: EntityManager, who: Principal): Promise<NotifyPreferenceView> {
   const p = await em.findOne(NotifyPreference, { user: who.userId });
-  return { mode: p?.mode ?? 'immediate', digestHour: p?.digestHour ?? 6, timeZone: await shopTimeZone(em, who) };
+  return { mode: p?.mode ?? 'immediate', digestHour: p?.digestHour ?? 6, timeZone: who.timeZone };
 }
 
 export async function setNotifyPreference(em: EntityManager, who: Principal, input: NotifyPreferenceInput): Promise<NotifyPreferenceView> {

@@ -6,7 +6,15 @@ import { MaintenancePlan } from '../plans/plan.entity';
 import { PartType } from '../stock/stock.entity';
 import type { Principal } from '../../http/principal';
 import { notFound } from '../../http/errors';
-import type { DueFilter, ListWorkOrdersQuery, WorkOrderDetail, WorkOrderRow, WorkState } from '../../../shared/schemas/work-orders';
+import {
+  checklistBlockerText,
+  type CloseBlocker,
+  type DueFilter,
+  type ListWorkOrdersQuery,
+  type WorkOrderDetail,
+  type WorkOrderRow,
+  type WorkState,
+} from '../../../shared/schemas/work-orders';
 import type { Page } from '../../../shared/schemas/paging';
 import { clock } from '../../../shared/clock';
 
@@ -148,19 +156,19 @@ async function lockoutRequired(em: EntityManager, wo: IWorkOrder): Promise<boole
 }
 
 /** What stops this work order from being signed off; empty when it can be. */
-export async function closeBlockers(em: EntityManager, wo: IWorkOrder): Promise<string[]> {
-  const out: string[] = [];
+export async function closeBlockers(em: EntityManager, wo: IWorkOrder): Promise<CloseBlocker[]> {
+  const out: CloseBlocker[] = [];
   const unanswered = wo.checklist.filter((c) => c.result === null);
-  if (unanswered.length)
-    out.push(`${unanswered.length} of ${wo.checklist.length} checklist lines have no answer: ${unanswered.map((c) => c.label).join('; ')}`);
+  if (unanswered.length) out.push({ code: 'checklist_incomplete', message: checklistBlockerText(unanswered, wo.checklist.length) });
   const noValue = wo.checklist.filter((c) => c.kind === 'measure' && c.result !== null && c.result !== 'na' && c.value === null);
-  if (noValue.length) out.push(`Measured values missing: ${noValue.map((c) => c.label).join('; ')}`);
+  if (noValue.length) out.push({ code: 'measured_value_missing', message: `Measured values missing: ${noValue.map((c) => c.label).join('; ')}` });
   if ((await lockoutRequired(em, wo)) && !wo.lockoutReleasedAt) {
-    out.push(
-      wo.lockoutSessionId
+    out.push({
+      code: 'lockout_not_released',
+      message: wo.lockoutSessionId
         ? 'The lockout for this work has not been released in the safety log yet'
         : 'This work needs a lockout: apply it and release it in the safety log before signing off',
-    );
+    });
   }
   return out;
 }

@@ -6,10 +6,10 @@ import { MaintenancePlan } from '../plans/plan.entity';
 import { Membership, User } from '../users/user.entity';
 import { applyStockChanges } from '../stock/stock.service';
 import type { Principal } from '../../http/principal';
-import { badRequest, conflict, notFound } from '../../http/errors';
+import { AppError, badRequest, conflict, notFound } from '../../http/errors';
 import { recordActivity } from '../activity-log/activity-log.service';
 import { currentBaselines, refreshPlanStatus } from '../plans/plan-evaluation';
-import { findMachine, shopTimeZone } from '../plans/plans.service';
+import { findMachine } from '../plans/plans.service';
 import { raiseWorkOrders } from './raise-work-orders';
 import { returnToServiceOnWorkDone } from '../machines/machine-state.service';
 import { OPEN, closeBlockers, findWorkOrder, iso } from './work-orders.queries';
@@ -103,7 +103,7 @@ export async function restartPlanCycle(tx: EntityManager, who: Principal, planId
   plan.lastDoneAt = at;
   const meterIds = plan.triggers.filter((t) => t.kind === 'meter').map((t) => (t as { meterId: string }).meterId);
   plan.meterBaselines = { ...plan.meterBaselines, ...(await currentBaselines(tx, meterIds)) };
-  await refreshPlanStatus(tx, plan, await shopTimeZone(tx, who), at);
+  await refreshPlanStatus(tx, plan, who.timeZone, at);
 }
 
 const MOVES: Record<MoveWorkOrderInput['move'], { from: WorkState[]; to: WorkState }> = {
@@ -255,7 +255,9 @@ export async function closeWorkOrder(em: EntityManager, who: Principal, id: stri
       wo.checklist.forEach((c, i) => {
         if (c.result === null) fields.push({ path: `checklist.${i}`, message: `“${c.label}” has no answer` });
       });
-      throw conflict(`WO ${wo.number} cannot be signed off yet: ${blockers.join('. ')}`, fields.length ? fields : undefined);
+      const message = `WO ${wo.number} cannot be signed off yet: ${blockers.map((b) => b.message).join('. ')}`;
+      const code = blockers.some((b) => b.code === 'checklist_incomplete') ? 'checklist_incomplete' : 'conflict';
+      throw new AppError(409, code, message, fields.length ? fields : undefined);
     }
     const now = clock.now();
     wo.status = 'done';

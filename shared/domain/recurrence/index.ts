@@ -10,7 +10,7 @@
  *
  * Pure: no I/O, no Node-only modules; runs in the browser too.
  */
-import { DEFAULT_RECURRENCE_LIMIT, SLACK_MS, fail, type ExpandOptions, type WallClock } from './types';
+import { DEFAULT_RECURRENCE_LIMIT, RecurrenceError, SLACK_MS, fail, type ExpandOptions, type RecurrencePart, type WallClock } from './types';
 import { formatWallIcal, parseRecurrence } from './parse';
 import { canonicalZone, instantToWall, makeZone, wallToInstant } from './zone';
 import { prepare } from './prepare';
@@ -19,6 +19,8 @@ import { expandFromWindow, periodMs, previousFromWindow, walk, type Visit } from
 export {
   DEFAULT_RECURRENCE_LIMIT,
   MAX_RECURRENCE_SCAN,
+  RecurrenceError,
+  type RecurrencePart,
   type ExpandOptions,
   type NonexistentTimePolicy,
   type ParsedRecurrence,
@@ -138,7 +140,10 @@ export function previousOccurrence(
  * Checks recurrence text for a form: parses it (RFC 5545 §3.3.10 grammar and MUST rules) and
  * rejects a DTSTART that does not exist in its zone (RFC 5545 §3.3.5 gap).
  */
-export function validateRecurrence(ical: string, options: Pick<ExpandOptions, 'floatingZone'> = {}): { ok: true } | { ok: false; error: string } {
+export function validateRecurrence(
+  ical: string,
+  options: Pick<ExpandOptions, 'floatingZone'> = {},
+): { ok: true } | { ok: false; error: string; part: RecurrencePart } {
   try {
     const prep = prepare(ical, options.floatingZone, undefined);
     let any = false;
@@ -149,7 +154,7 @@ export function validateRecurrence(ical: string, options: Pick<ExpandOptions, 'f
     if (!any) fail('the rule produces no occurrences');
     return { ok: true };
   } catch (e) {
-    return { ok: false, error: e instanceof Error ? e.message : String(e) };
+    return { ok: false, error: e instanceof Error ? e.message : String(e), part: e instanceof RecurrenceError ? e.part : 'rule' };
   }
 }
 
@@ -171,7 +176,7 @@ export function buildRecurrenceText(input: BuildRecurrenceInput): string {
   const isUtc = tz === 'UTC' || tz === 'Etc/UTC';
   let wall: WallClock;
   if (input.start instanceof Date) {
-    if (Number.isNaN(input.start.getTime())) fail('start is an invalid Date');
+    if (Number.isNaN(input.start.getTime())) fail('start is an invalid Date', 'start');
     const w = new Date(instantToWall(input.start.getTime(), makeZone(tz)));
     wall = {
       year: w.getUTCFullYear(),
@@ -183,7 +188,7 @@ export function buildRecurrenceText(input: BuildRecurrenceInput): string {
     };
   } else if (typeof input.start === 'string') {
     const m = /^(\d{4})-(\d{2})-(\d{2})T(\d{2}):(\d{2})(?::(\d{2}))?$/.exec(input.start.trim());
-    if (!m) fail(`start "${input.start}" is not a local ISO date-time YYYY-MM-DDTHH:mm[:ss] (no offset, no Z)`);
+    if (!m) fail(`start "${input.start}" is not a local ISO date-time YYYY-MM-DDTHH:mm[:ss] (no offset, no Z)`, 'start');
     wall = {
       year: Number(m[1]),
       month: Number(m[2]),
@@ -193,14 +198,14 @@ export function buildRecurrenceText(input: BuildRecurrenceInput): string {
       second: m[6] === undefined ? 0 : Number(m[6]),
     };
   } else {
-    fail('start must be a Date or a local ISO string');
+    fail('start must be a Date or a local ISO string', 'start');
   }
   const rule = input.rrule.trim().replace(/^RRULE:/i, '');
   const stamp = formatWallIcal(wall, false);
   const dtstart = isUtc ? `DTSTART:${stamp}Z` : `DTSTART;TZID=${tz}:${stamp}`;
   const draft = `${dtstart}\nRRULE:${rule}`;
   const check = validateRecurrence(draft);
-  if (!check.ok) throw new Error(check.error);
+  if (!check.ok) throw new RecurrenceError(check.error.replace(/^recurrence: /, ''), check.part);
   // Store the normalised rule (upper case, FREQ first) so equal schedules compare equal.
   return `${dtstart}\nRRULE:${parseRecurrence(draft).rrule}`;
 }

@@ -63,14 +63,15 @@ interface DateTimeValue {
 }
 
 /** RFC 5545 §3.3.4 DATE (YYYYMMDD) and §3.3.5 DATE-TIME (YYYYMMDDTHHMMSS[Z]). */
-function parseDateTimeValue(value: string, what: string): DateTimeValue {
+function parseDateTimeValue(value: string, what: 'DTSTART' | 'UNTIL'): DateTimeValue {
+  const part = what === 'DTSTART' ? 'start' : 'rule';
   const m = /^(\d{4})(\d{2})(\d{2})(?:T(\d{2})(\d{2})(\d{2})(Z)?)?$/i.exec(value);
   if (!m) {
     if (/[+-]\d{4}$/.test(value)) {
       // RFC 5545 §3.3.5: "The form of date and time with UTC offset MUST NOT be used."
-      fail(`${what} "${value}" uses a UTC offset, which RFC 5545 does not allow; use TZID or a trailing Z`);
+      fail(`${what} "${value}" uses a UTC offset, which RFC 5545 does not allow; use TZID or a trailing Z`, part);
     }
-    fail(`${what} "${value}" is not an RFC 5545 DATE (YYYYMMDD) or DATE-TIME (YYYYMMDDTHHMMSS[Z])`);
+    fail(`${what} "${value}" is not an RFC 5545 DATE (YYYYMMDD) or DATE-TIME (YYYYMMDDTHHMMSS[Z])`, part);
   }
   const year = Number(m[1]);
   const month = Number(m[2]);
@@ -79,9 +80,9 @@ function parseDateTimeValue(value: string, what: string): DateTimeValue {
   const hour = dateOnly ? 0 : Number(m[4]);
   const minute = dateOnly ? 0 : Number(m[5]);
   let second = dateOnly ? 0 : Number(m[6]);
-  if (month < 1 || month > 12) fail(`${what} "${value}" has month ${month}; months are 01-12`);
-  if (day < 1 || day > daysInMonth(year, month)) fail(`${what} "${value}" is not a calendar date`);
-  if (hour > 23 || minute > 59 || second > 60) fail(`${what} "${value}" is not a valid time of day`);
+  if (month < 1 || month > 12) fail(`${what} "${value}" has month ${month}; months are 01-12`, part);
+  if (day < 1 || day > daysInMonth(year, month)) fail(`${what} "${value}" is not a calendar date`, part);
+  if (hour > 23 || minute > 59 || second > 60) fail(`${what} "${value}" is not a valid time of day`, part);
   // RFC 5545 §3.3.5: implementations without leap seconds treat second 60 as 59.
   if (second === 60) second = 59;
   return { wall: { year, month, day, hour, minute, second }, dateOnly, utc: m[7] !== undefined };

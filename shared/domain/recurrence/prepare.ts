@@ -83,7 +83,7 @@ function prepareUncached(ical: string, floatingZone: string | undefined, policy:
   const pol = policy ?? 'shift-forward';
   if (pol !== 'shift-forward' && pol !== 'skip') fail(`nonexistent must be 'shift-forward' or 'skip', got "${String(pol)}"`);
   if (!p.dateOnly && wallToInstant(internal.startWallMs, zone).gap) {
-    fail(`DTSTART ${p.startLocal} does not exist in ${zoneId} (it falls in a daylight-saving gap); choose a time outside the gap`);
+    fail(`DTSTART ${p.startLocal} does not exist in ${zoneId} (it falls in a daylight-saving gap); choose a time outside the gap`, 'start');
   }
   assertHasInstances(internal);
   // Bound rrule by UNTIL plus slack; the exact UNTIL test (instant or wall clock) is in walk().

@@ -100,8 +100,22 @@ export interface Internal {
   startWallMs: number;
 }
 
-export function fail(message: string): never {
-  throw new Error(`recurrence: ${message}`);
+/** Which form field a recurrence problem belongs to: the first occurrence (DTSTART) or the rule (RRULE). */
+export type RecurrencePart = 'start' | 'rule';
+
+/** A recurrence the parser refuses, with the part at fault so callers need not read the wording. */
+export class RecurrenceError extends Error {
+  constructor(
+    message: string,
+    readonly part: RecurrencePart,
+  ) {
+    super(`recurrence: ${message}`);
+    this.name = 'RecurrenceError';
+  }
+}
+
+export function fail(message: string, part: RecurrencePart = 'rule'): never {
+  throw new RecurrenceError(message, part);
 }
 
 /** A wall-clock time written as if it were UTC, in ms (the "floating" time rrule walks in). */

@@ -53,7 +53,7 @@ export function SignDialog({
       await onSign(password);
       setPassword('');
     } catch (err) {
-      if (err instanceof ApiError && err.status === 401) setError(err.fields.find((f) => f.path === 'password')?.message ?? err.message);
+      if (err instanceof ApiError && err.code === 'signature_refused') setError(err.fields.find((f) => f.path === 'password')?.message ?? err.message);
       else onError(err);
     } finally {
       setBusy(false);

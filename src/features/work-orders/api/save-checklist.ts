@@ -1,19 +1,23 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { api } from '../../../lib/api-client';
-import type { ChecklistLine, ChecklistResultsInput, WorkOrderDetail } from '../../../../shared/schemas/work-orders';
+import {
+  checklistBlockerText,
+  type ChecklistLine,
+  type ChecklistResultsInput,
+  type CloseBlocker,
+  type WorkOrderDetail,
+} from '../../../../shared/schemas/work-orders';
 import { getWorkOrderQueryOptions } from './get-work-order';
 import { workOrderKeys } from './keys';
 
 export const saveChecklist = ({ id, ...input }: ChecklistResultsInput & { id: string }) =>
   api<{ checklist: ChecklistLine[] }>(`/work-orders/${id}/checklist`, { method: 'PUT', body: input });
 
-/** Recounts the "N of M checklist lines have no answer" blocker from the lines shown. */
+/** Recounts the `checklist_incomplete` blocker from the lines shown. */
 function withChecklist(wo: WorkOrderDetail, checklist: ChecklistLine[]): WorkOrderDetail {
   const unanswered = checklist.filter((c) => c.result === null);
-  const others = wo.closeBlockers.filter((b) => !/checklist lines? have no answer/.test(b));
-  const line = unanswered.length
-    ? [`${unanswered.length} of ${checklist.length} checklist lines have no answer: ${unanswered.map((c) => c.label).join('; ')}`]
-    : [];
+  const others = wo.closeBlockers.filter((b) => b.code !== 'checklist_incomplete');
+  const line: CloseBlocker[] = unanswered.length ? [{ code: 'checklist_incomplete', message: checklistBlockerText(unanswered, checklist.length) }] : [];
   return { ...wo, checklist, closeBlockers: wo.closeBlockers.length || line.length ? [...line, ...others] : wo.closeBlockers };
 }
 

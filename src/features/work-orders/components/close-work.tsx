@@ -31,7 +31,7 @@ export function CloseWork({ wo }: { wo: WorkOrderDetail }) {
         <Notice tone="caution" title="Before you can sign off">
           <ul className="list-disc pl-5">
             {wo.closeBlockers.map((b) => (
-              <li key={b}>{b}</li>
+              <li key={b.code}>{b.message}</li>
             ))}
           </ul>
         </Notice>
