@@ -15,6 +15,23 @@ export class ApiError extends Error {
   }
 }
 
+/**
+ * The words people see for an answer that has nothing to do with what they typed. A database
+ * outage is passing and nothing was half-saved (writes are all-or-nothing), so the notice says
+ * exactly that instead of sounding like a fault in their entry.
+ */
+export function messageFor(status: number, code: ApiError['code'], serverMessage: string, mutating: boolean): string {
+  if (code === 'database_unavailable') {
+    return mutating
+      ? 'The database is not answering; your entry was not saved, try again in a moment.'
+      : 'The database is not answering; try again in a moment.';
+  }
+  return serverMessage || `Request failed (${status})`;
+}
+
+/** A passing outage is a caution, not an alarm: nothing the person did was wrong. */
+export const isPassingOutage = (err: unknown): boolean => err instanceof ApiError && err.code === 'database_unavailable';
+
 let csrfToken: string | null = null;
 
 export function setCsrfToken(token: string | null) {
@@ -58,7 +75,8 @@ export async function api<T>(path: string, { method = 'GET', body, query, signal
       await fetchCsrfToken();
       return api<T>(path, { method, body, query, signal }, true);
     }
-    throw new ApiError(res.status, data.error ?? 'unknown', data.message ?? `Request failed (${res.status})`, data.fields ?? []);
+    const code = data.error ?? 'unknown';
+    throw new ApiError(res.status, code, messageFor(res.status, code, data.message ?? '', mutating), data.fields ?? []);
   }
   return data as T;
 }

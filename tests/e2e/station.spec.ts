@@ -102,6 +102,26 @@ test.describe('station page on a tablet', () => {
     await expect(hint).toHaveText('Last 5 starts');
   });
 
+  test('when the database does not answer, the operator is told the entry was not saved and to try again', async ({ page }) => {
+    await signIn(page, 'operator@alder-row.example');
+    await page.goto('/station/P1');
+    await page.getByRole('button', { name: 'Record counters' }).tap();
+    const starts = page.getByLabel('P1-T · Arc starts (starts)');
+    const hint = page.locator(`#${await starts.getAttribute('id')}-hint`);
+    const before = await hint.innerText();
+    // The server's own 503 answer is covered by tests/server/db-restart.test.ts; here the screen's reading of it.
+    await page.route('**/api/meter-readings', (route) =>
+      route.fulfill({ status: 503, json: { error: 'database_unavailable', message: 'The database is unavailable right now. Try again in a moment.' } }),
+    );
+    await starts.fill('123456789');
+    await page.getByRole('button', { name: 'Record 1 reading' }).tap();
+    await expect(
+      page.getByRole('status').filter({ hasText: 'Nothing recorded. The database is not answering; your entry was not saved, try again in a moment.' }),
+    ).toBeVisible();
+    await expect(hint).toHaveText(before);
+    await snap(page, 'station-database-unavailable');
+  });
+
   test('a punch tool far past its sharpening interval is overdue, not just due', async ({ page }) => {
     await signIn(page, 'operator@alder-row.example');
     // Fix the tool wear in the answer so the page's thresholds are what is tested.

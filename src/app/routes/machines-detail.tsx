@@ -1,6 +1,7 @@
 import { useState } from 'react';
 import { Link, useParams, type LoaderFunctionArgs } from 'react-router-dom';
-import { Breadcrumbs, PageTitle } from '../../components/layout/app-shell';
+import { PageTitle } from '../../components/layout/app-shell';
+import { DetailPage } from '../../components/layout/detail-page';
 import { Panel, Notice, Badge } from '../../components/ui/notice';
 import { Button } from '../../components/ui/button';
 import { MachinesTable } from '../../features/machines/components/machines-table';
@@ -32,105 +33,106 @@ export function Component() {
   const update = useUpdateMachine();
   const [editing, setEditing] = useState(false);
   if (!me) return null;
-  if (q.isError)
-    return (
-      <Notice tone="danger" role="alert">
-        {q.error.message}
-      </Notice>
-    );
-  if (!q.data) return <p role="status">Loading…</p>;
-  const m = q.data;
-  const manage = can(me.role, 'machines.manage');
-  const station = STATION_KINDS.has(m.kind) || m.components.some((c) => c.kind === 'torch');
-  const punching = m.kind === 'punch-head' || m.components.some((c) => c.kind === 'punch-head');
-  const hitMeters = m.meters.filter((x) => x.kind === 'count' && x.unit === 'hits');
-  const heads = [m, ...m.components].filter((c) => c.kind === 'punch-head');
   return (
-    <>
-      <Breadcrumbs
-        trail={[{ to: paths.machines.getHref(), label: 'Machines' }, ...(m.parent ? [{ to: paths.machine.getHref(m.parent.id), label: m.parent.code }] : [])]}
-        current={m.code}
-      />
-      <PageTitle
-        title={`${m.code} · ${m.name}`}
-        subtitle={[MACHINE_KIND_LABELS[m.kind], m.location, m.serial ? `serial ${m.serial}` : null].filter(Boolean).join(' · ')}
-        actions={
-          <div className="flex flex-wrap gap-2">
-            {station ? (
-              <Link
-                to={paths.station.getHref(m.parent && m.kind !== 'punch-plasma-cell' && m.kind !== 'plasma-table' ? m.parent.code : m.code)}
-                className="inline-flex min-h-touch items-center rounded bg-steel-800 px-4 font-semibold text-white"
-              >
-                Open station page
-              </Link>
+    <DetailPage
+      query={q}
+      trail={(m) => [
+        { label: 'Machines', to: paths.machines.getHref() },
+        ...(m.parent ? [{ label: m.parent.code, to: paths.machine.getHref(m.parent.id) }] : []),
+      ]}
+      here={(m) => m.code}
+    >
+      {(m) => {
+        const manage = can(me.role, 'machines.manage');
+        const station = STATION_KINDS.has(m.kind) || m.components.some((c) => c.kind === 'torch');
+        const punching = m.kind === 'punch-head' || m.components.some((c) => c.kind === 'punch-head');
+        const hitMeters = m.meters.filter((x) => x.kind === 'count' && x.unit === 'hits');
+        const heads = [m, ...m.components].filter((c) => c.kind === 'punch-head');
+        return (
+          <>
+            <PageTitle
+              title={`${m.code} · ${m.name}`}
+              subtitle={[MACHINE_KIND_LABELS[m.kind], m.location, m.serial ? `serial ${m.serial}` : null].filter(Boolean).join(' · ')}
+              actions={
+                <div className="flex flex-wrap gap-2">
+                  {station ? (
+                    <Link
+                      to={paths.station.getHref(m.parent && m.kind !== 'punch-plasma-cell' && m.kind !== 'plasma-table' ? m.parent.code : m.code)}
+                      className="inline-flex min-h-touch items-center rounded bg-steel-800 px-4 font-semibold text-white"
+                    >
+                      Open station page
+                    </Link>
+                  ) : null}
+                  {manage ? (
+                    <Button variant="secondary" onClick={() => setEditing((e) => !e)} aria-expanded={editing}>
+                      {editing ? 'Close editing' : 'Edit'}
+                    </Button>
+                  ) : null}
+                  {manage ? (
+                    <Button variant="secondary" busy={update.isPending} onClick={() => update.mutate({ id: m.id, active: !m.active })}>
+                      {m.active ? 'Retire' : 'Return to service'}
+                    </Button>
+                  ) : null}
+                </div>
+              }
+            />
+            {!m.active ? <Notice tone="info">This machine is retired: it is hidden from lists and station pages, and its history stays.</Notice> : null}
+            {m.notes ? (
+              <Panel title="Notes">
+                <p className="whitespace-pre-line">{m.notes}</p>
+              </Panel>
             ) : null}
-            {manage ? (
-              <Button variant="secondary" onClick={() => setEditing((e) => !e)} aria-expanded={editing}>
-                {editing ? 'Close editing' : 'Edit'}
-              </Button>
+            {editing ? (
+              <Panel title={`Edit ${m.code}`}>
+                <MachineForm machines={all.data ?? []} machine={m} onDone={() => setEditing(false)} />
+              </Panel>
             ) : null}
-            {manage ? (
-              <Button variant="secondary" busy={update.isPending} onClick={() => update.mutate({ id: m.id, active: !m.active })}>
-                {m.active ? 'Retire' : 'Return to service'}
-              </Button>
+            <Panel title="Photos">
+              <MachinePhotos machineId={m.id} code={m.code} canManage={manage} />
+            </Panel>
+            <Panel title="Components" actions={<Badge>{m.components.length}</Badge>}>
+              <MachinesTable rows={m.components} />
+              {manage ? (
+                <details className="mt-4">
+                  <summary className="inline-flex min-h-touch cursor-pointer items-center font-semibold underline">Add a component to {m.code}</summary>
+                  <div className="mt-3">
+                    <MachineForm machines={all.data ?? []} defaultParentId={m.id} />
+                  </div>
+                </details>
+              ) : null}
+            </Panel>
+            {punching ? (
+              <Panel title="Punch tools">
+                <ToolsTable machineId={m.id} canManage={can(me.role, 'tools.manage')} />
+                {can(me.role, 'tools.manage') && heads[0] ? (
+                  <details className="mt-4">
+                    <summary className="inline-flex min-h-touch cursor-pointer items-center font-semibold underline">Add a punch tool</summary>
+                    <div className="mt-3">
+                      <ToolForm machineId={heads[0].id} hitMeters={hitMeters} />
+                    </div>
+                  </details>
+                ) : null}
+              </Panel>
             ) : null}
-          </div>
-        }
-      />
-      {!m.active ? <Notice tone="info">This machine is retired: it is hidden from lists and station pages, and its history stays.</Notice> : null}
-      {m.notes ? (
-        <Panel title="Notes">
-          <p className="whitespace-pre-line">{m.notes}</p>
-        </Panel>
-      ) : null}
-      {editing ? (
-        <Panel title={`Edit ${m.code}`}>
-          <MachineForm machines={all.data ?? []} machine={m} onDone={() => setEditing(false)} />
-        </Panel>
-      ) : null}
-      <Panel title="Photos">
-        <MachinePhotos machineId={m.id} code={m.code} canManage={manage} />
-      </Panel>
-      <Panel title="Components" actions={<Badge>{m.components.length}</Badge>}>
-        <MachinesTable rows={m.components} />
-        {manage ? (
-          <details className="mt-4">
-            <summary className="inline-flex min-h-touch cursor-pointer items-center font-semibold underline">Add a component to {m.code}</summary>
-            <div className="mt-3">
-              <MachineForm machines={all.data ?? []} defaultParentId={m.id} />
-            </div>
-          </details>
-        ) : null}
-      </Panel>
-      {punching ? (
-        <Panel title="Punch tools">
-          <ToolsTable machineId={m.id} canManage={can(me.role, 'tools.manage')} />
-          {can(me.role, 'tools.manage') && heads[0] ? (
-            <details className="mt-4">
-              <summary className="inline-flex min-h-touch cursor-pointer items-center font-semibold underline">Add a punch tool</summary>
-              <div className="mt-3">
-                <ToolForm machineId={heads[0].id} hitMeters={hitMeters} />
-              </div>
-            </details>
-          ) : null}
-        </Panel>
-      ) : null}
-      {m.kind === 'torch' || m.components.some((c) => c.kind === 'torch') ? (
-        <Panel title="Consumable changes">
-          <ChangesHistory machineId={m.id} />
-        </Panel>
-      ) : null}
-      <Panel title="Meters">
-        <MetersTable meters={m.meters} />
-        {can(me.role, 'meters.manage') ? (
-          <details className="mt-4">
-            <summary className="inline-flex min-h-touch cursor-pointer items-center font-semibold underline">Add a meter</summary>
-            <div className="mt-3">
-              <MeterForm machines={[m, ...m.components]} />
-            </div>
-          </details>
-        ) : null}
-      </Panel>
-    </>
+            {m.kind === 'torch' || m.components.some((c) => c.kind === 'torch') ? (
+              <Panel title="Consumable changes">
+                <ChangesHistory machineId={m.id} />
+              </Panel>
+            ) : null}
+            <Panel title="Meters">
+              <MetersTable meters={m.meters} />
+              {can(me.role, 'meters.manage') ? (
+                <details className="mt-4">
+                  <summary className="inline-flex min-h-touch cursor-pointer items-center font-semibold underline">Add a meter</summary>
+                  <div className="mt-3">
+                    <MeterForm machines={[m, ...m.components]} />
+                  </div>
+                </details>
+              ) : null}
+            </Panel>
+          </>
+        );
+      }}
+    </DetailPage>
   );
 }

@@ -1,6 +1,7 @@
 import { useParams, type LoaderFunctionArgs } from 'react-router-dom';
-import { Breadcrumbs, PageTitle } from '../../components/layout/app-shell';
-import { Panel, Notice } from '../../components/ui/notice';
+import { PageTitle } from '../../components/layout/app-shell';
+import { DetailPage } from '../../components/layout/detail-page';
+import { Panel } from '../../components/ui/notice';
 import { getMeterQueryOptions, useMeter } from '../../features/meters/api/get-meter';
 import { ReadingForm } from '../../features/meters/components/reading-form';
 import { ReadingsTable } from '../../features/meters/components/readings-table';
@@ -23,43 +24,39 @@ export function Component() {
   const q = useMeter(id!);
   const f = useShopFormat();
   if (!me) return null;
-  if (q.isError)
-    return (
-      <Notice tone="danger" role="alert">
-        {q.error.message}
-      </Notice>
-    );
-  if (!q.data) return <p role="status">Loading…</p>;
-  const m = q.data;
   return (
-    <>
-      <Breadcrumbs
-        trail={[
-          { to: paths.machines.getHref(), label: 'Machines' },
-          { to: paths.machine.getHref(m.machineId), label: m.machineCode },
-        ]}
-        current={m.name}
-      />
-      <PageTitle
-        title={`${m.machineCode} · ${m.name}`}
-        subtitle={`A ${KIND[m.kind]} in ${m.unit} · code ${m.code}${m.latest ? ` · latest ${formatValue(f, m.latest.value, m.unit)}` : ''}${m.upperLimit !== null ? ` · upper limit ${formatValue(f, m.upperLimit, m.unit)}` : ''}${m.lowerLimit !== null ? ` · lower limit ${formatValue(f, m.lowerLimit, m.unit)}` : ''}`}
-      />
-      <Panel title="Trend, last 12 months">
-        <TrendChart meterId={m.id} />
-      </Panel>
-      {can(me.role, 'readings.record') ? (
-        <Panel title="Record a reading">
-          <ReadingForm meter={m} />
-        </Panel>
-      ) : null}
-      <Panel title="Readings">
-        <ReadingsTable meter={m} />
-      </Panel>
-      {can(me.role, 'meters.manage') ? (
-        <Panel title="Meter settings">
-          <MeterEditForm key={m.id} meter={m} />
-        </Panel>
-      ) : null}
-    </>
+    <DetailPage
+      query={q}
+      trail={(m) => [
+        { label: 'Machines', to: paths.machines.getHref() },
+        { label: m.machineCode, to: paths.machine.getHref(m.machineId) },
+      ]}
+      here={(m) => m.name}
+    >
+      {(m) => (
+        <>
+          <PageTitle
+            title={`${m.machineCode} · ${m.name}`}
+            subtitle={`A ${KIND[m.kind]} in ${m.unit} · code ${m.code}${m.latest ? ` · latest ${formatValue(f, m.latest.value, m.unit)}` : ''}${m.upperLimit !== null ? ` · upper limit ${formatValue(f, m.upperLimit, m.unit)}` : ''}${m.lowerLimit !== null ? ` · lower limit ${formatValue(f, m.lowerLimit, m.unit)}` : ''}`}
+          />
+          <Panel title="Trend, last 12 months">
+            <TrendChart meterId={m.id} />
+          </Panel>
+          {can(me.role, 'readings.record') ? (
+            <Panel title="Record a reading">
+              <ReadingForm meter={m} />
+            </Panel>
+          ) : null}
+          <Panel title="Readings">
+            <ReadingsTable meter={m} />
+          </Panel>
+          {can(me.role, 'meters.manage') ? (
+            <Panel title="Meter settings">
+              <MeterEditForm key={m.id} meter={m} />
+            </Panel>
+          ) : null}
+        </>
+      )}
+    </DetailPage>
   );
 }

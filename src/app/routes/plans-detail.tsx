@@ -1,6 +1,7 @@
 import { Link, useParams, type LoaderFunctionArgs } from 'react-router-dom';
-import { Breadcrumbs, PageTitle } from '../../components/layout/app-shell';
-import { Notice, Panel } from '../../components/ui/notice';
+import { PageTitle } from '../../components/layout/app-shell';
+import { DetailPage } from '../../components/layout/detail-page';
+import { Panel } from '../../components/ui/notice';
 import { useMe } from '../../features/auth/api/get-me';
 import { getPlanQueryOptions, usePlan } from '../../features/plans/api/get-plan';
 import { PlanView } from '../../features/plans/components/plan-view';
@@ -15,32 +16,27 @@ export function Component() {
   const { data: me } = useMe();
   const q = usePlan(id!);
   if (!me) return null;
-  if (q.isError)
-    return (
-      <Notice tone="danger" role="alert">
-        {q.error.message}
-      </Notice>
-    );
-  if (!q.data) return <p role="status">Loading…</p>;
-  const p = q.data;
   return (
-    <>
-      <Breadcrumbs trail={[{ to: '/plans', label: 'Plans' }]} current={p.title} />
-      <PageTitle
-        title={p.title}
-        subtitle={`${p.machine.code} · ${p.machine.name}`}
-        actions={
-          can(me.role, 'plans.manage') ? (
-            <Link className="inline-flex min-h-touch items-center rounded border border-steel-400 bg-white px-4 font-semibold" to={`/plans/${p.id}/edit`}>
-              Edit plan
-            </Link>
-          ) : null
-        }
-      />
-      <PlanView plan={p} />
-      <Panel title="Work orders from this plan">
-        <WorkOrdersTable fixed={{ planId: p.id }} caption="Work orders from this plan" pageSize={10} defaultStatus="any" />
-      </Panel>
-    </>
+    <DetailPage query={q} trail={[{ label: 'Plans', to: '/plans' }]} here={(p) => p.title}>
+      {(p) => (
+        <>
+          <PageTitle
+            title={p.title}
+            subtitle={`${p.machine.code} · ${p.machine.name}`}
+            actions={
+              can(me.role, 'plans.manage') ? (
+                <Link className="inline-flex min-h-touch items-center rounded border border-steel-400 bg-white px-4 font-semibold" to={`/plans/${p.id}/edit`}>
+                  Edit plan
+                </Link>
+              ) : null
+            }
+          />
+          <PlanView plan={p} />
+          <Panel title="Work orders from this plan">
+            <WorkOrdersTable fixed={{ planId: p.id }} caption="Work orders from this plan" pageSize={10} defaultStatus="any" />
+          </Panel>
+        </>
+      )}
+    </DetailPage>
   );
 }

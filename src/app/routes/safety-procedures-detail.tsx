@@ -1,6 +1,6 @@
 import { useParams, useSearchParams, type LoaderFunctionArgs } from 'react-router-dom';
-import { Breadcrumbs, PageTitle } from '../../components/layout/app-shell';
-import { Notice } from '../../components/ui/notice';
+import { PageTitle } from '../../components/layout/app-shell';
+import { DetailPage } from '../../components/layout/detail-page';
 import { useMe } from '../../features/auth/api/get-me';
 import { getProcedureQueryOptions, useProcedure } from '../../features/safety/api/get-procedure';
 import { ProcedureView } from '../../features/safety/components/procedure-view';
@@ -19,25 +19,21 @@ export function Component() {
   const { data: me } = useMe();
   const q = useProcedure(id!, version);
   if (!me) return null;
-  if (q.isError)
-    return (
-      <Notice tone="danger" role="alert">
-        {q.error.message}
-      </Notice>
-    );
-  if (!q.data) return <p role="status">Loading…</p>;
-  const p = q.data;
   return (
-    <>
-      <Breadcrumbs
-        trail={[
-          { to: paths.safety.getHref(), label: 'Safety' },
-          { to: paths.safetyProcedures.getHref(), label: 'Procedures' },
-        ]}
-        current={p.machine.code}
-      />
-      <PageTitle title={`${p.machine.code} · ${p.machine.name}`} subtitle={(p.current ?? p.draft)?.content.title} />
-      <ProcedureView p={p} me={{ name: me.user.name, role: me.role }} viewingVersion={version} />
-    </>
+    <DetailPage
+      query={q}
+      trail={[
+        { label: 'Safety', to: paths.safety.getHref() },
+        { label: 'Procedures', to: paths.safetyProcedures.getHref() },
+      ]}
+      here={(p) => p.machine.code}
+    >
+      {(p) => (
+        <>
+          <PageTitle title={`${p.machine.code} · ${p.machine.name}`} subtitle={(p.current ?? p.draft)?.content.title} />
+          <ProcedureView p={p} me={{ name: me.user.name, role: me.role }} viewingVersion={version} />
+        </>
+      )}
+    </DetailPage>
   );
 }

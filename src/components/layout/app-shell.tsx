@@ -171,7 +171,10 @@ export function PageTitle({ title, subtitle, actions, documentTitle }: { title: 
 }
 
 /** Where the page sits: links up the trail (each a 44 px target for a gloved finger), then the page itself. */
-export function Breadcrumbs({ trail, current }: { trail: { to: string; label: string }[]; current: string }) {
+export type Crumb = { label: ReactNode; to: string };
+
+/** "Machines › C1 › Arc starts": the way back up from a record's own page, each step a full-size target. */
+export function Breadcrumbs({ trail, current }: { trail: Crumb[]; current: ReactNode }) {
   return (
     <nav aria-label="Breadcrumb" className="no-print text-sm">
       <ol className="flex flex-wrap items-center gap-x-1">

@@ -2,7 +2,7 @@ import { useState } from 'react';
 import type { MeterRow } from '../../../../shared/schemas/machines';
 import { Button } from '../../../components/ui/button';
 import { Notice } from '../../../components/ui/notice';
-import { ApiError } from '../../../lib/api-client';
+import { ApiError, isPassingOutage } from '../../../lib/api-client';
 import { useRecordCounters } from '../api/record-counters';
 import { ResetChoice } from './change-form';
 import { useShopFormat } from '../../../lib/format';
@@ -14,7 +14,7 @@ export function CountersForm({ meters }: { meters: MeterRow[] }) {
   const [values, setValues] = useState<Record<string, string>>({});
   const [resets, setResets] = useState<Record<string, boolean>>({});
   const [errors, setErrors] = useState<Record<string, string>>({});
-  const [message, setMessage] = useState<{ tone: 'safe' | 'danger'; text: string } | null>(null);
+  const [message, setMessage] = useState<{ tone: 'safe' | 'caution' | 'danger'; text: string } | null>(null);
   const filled = meters.filter((m) => (values[m.id] ?? '').trim() !== '');
   const submit = async (e: React.FormEvent) => {
     e.preventDefault();
@@ -32,7 +32,7 @@ export function CountersForm({ meters }: { meters: MeterRow[] }) {
         // Field paths are readings.<i>.value, in the order sent.
         setErrors(Object.fromEntries(err.fields.map((f) => [filled[Number(f.path.split('.')[1])]?.id ?? '', f.message])));
       }
-      setMessage({ tone: 'danger', text: err instanceof Error ? `Nothing recorded. ${err.message}` : 'Nothing recorded' });
+      setMessage({ tone: isPassingOutage(err) ? 'caution' : 'danger', text: err instanceof Error ? `Nothing recorded. ${err.message}` : 'Nothing recorded' });
     }
   };
   return (
