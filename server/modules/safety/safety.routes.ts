@@ -95,7 +95,7 @@ export function registerSafetyRoutes(r: ApiRouter, config: Config) {
     });
     next();
   };
-  const signing = { before: [signLimit] };
+  const signing = { before: [signLimit], idempotent: true };
 
   // Pickers and settings.
   route(r, 'get', '/safety/machines', { access: 'safety.read' }, async (_req, res, { principal: who }) => void res.json(await safetyMachines(em(), who)));
