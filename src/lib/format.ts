@@ -1,5 +1,3 @@
-import { DateTime } from 'luxon';
-
 /**
  * One way to show time everywhere: the shop's own clock (its IANA zone), day-month-year,
  * 24-hour — a night-shift record reads the same on every device, whatever zone the viewer is in.
@@ -31,16 +29,6 @@ export function relative(iso: string | null): string {
   return rtf.format(Math.round(diff / 86_400_000), 'day');
 }
 
-/** An instant as "YYYY-MM-DDTHH:mm" in the shop's zone, for a datetime-local field. */
-export function toShopLocal(iso: string | null, timeZone: string): string {
-  return iso ? DateTime.fromISO(iso).setZone(timeZone).toFormat("yyyy-MM-dd'T'HH:mm") : '';
-}
-
-/** A datetime-local value read in the shop's zone (not the browser's) as an ISO instant, or null. */
-export function fromShopLocal(local: string, timeZone: string): string | null {
-  return local ? DateTime.fromISO(local, { zone: timeZone }).toUTC().toISO() : null;
-}
-
 /** 12345.6 → "12,345.6": counters are read at a glance. */
 export const formatNumber = (n: number, maxFractionDigits = 1) => new Intl.NumberFormat('en-GB', { maximumFractionDigits: maxFractionDigits }).format(n);
 
@@ -52,9 +40,8 @@ export function setShopTimeZone(timeZone: string) {
 
 /** Today's date (YYYY-MM-DD) on the shop's clock: for a few hours a day the UTC date is another day. */
 export function shopToday(): string {
-  return DateTime.now()
-    .setZone(shopTimeZone ?? 'local')
-    .toISODate() as string;
+  // en-CA writes dates as YYYY-MM-DD; Intl keeps luxon out of every page's first load.
+  return new Intl.DateTimeFormat('en-CA', { timeZone: shopTimeZone, year: 'numeric', month: '2-digit', day: '2-digit' }).format(new Date());
 }
 
 /** Like `new Intl.DateTimeFormat`, but always on the shop's clock (read when formatting). */
