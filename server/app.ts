@@ -1,3 +1,4 @@
+import '../shared/luxon-clock';
 import express, { type Express } from 'express';
 import helmet from 'helmet';
 import { pinoHttp } from 'pino-http';

@@ -16,6 +16,8 @@ const schema = z.object({
   /** The role that owns the tables and runs migrations (default: the private cluster's owner role, same database). */
   MIGRATION_DATABASE_URL: z.string().optional(),
   SESSION_SECRET: z.string().min(16, 'SESSION_SECRET must be at least 16 characters').optional(),
+  /** Signs the copies of the sign-off chain head that leave the database (default: derived from SESSION_SECRET). */
+  CHAIN_COPY_SECRET: z.string().min(16, 'CHAIN_COPY_SECRET must be at least 16 characters').optional(),
   SESSION_IDLE_MINUTES: z.coerce.number().int().min(1).default(120),
   SESSION_ABSOLUTE_HOURS: z.coerce.number().int().min(1).default(12),
   TRUST_PROXY: z.string().optional(),

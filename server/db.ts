@@ -1,3 +1,4 @@
+import '../shared/luxon-clock';
 import { MikroORM, RequestContext, type EntityManager, type Knex } from '@mikro-orm/postgresql';
 import { createOrmConfig } from './mikro-orm.config';
 

@@ -13,6 +13,7 @@ import { WorkOrder, WorkOrderPart, WorkOrderAttachment, WorkOrderCounter, Notify
 import { OilTarget, OilAnalysis } from './modules/oil-analysis/oil-analysis.entity';
 import { CalendarFeed } from './modules/calendar-feed/calendar-feed.entity';
 import { JobRun } from './modules/job-runs/job-run.entity';
+import { IdempotencyKey } from './modules/common/idempotency-key.entity';
 import { safetyEntities } from './modules/safety/index';
 import { ConsumableChange, ConsumableInstall, ConsumablePhoto, CutCheck } from './modules/station/consumable.entity';
 import { PunchTool, ToolSharpening } from './modules/punch-tools/punch-tool.entity';
@@ -39,6 +40,7 @@ export const entities = [
   OilAnalysis,
   CalendarFeed,
   JobRun,
+  IdempotencyKey,
   ...safetyEntities,
   ConsumableChange,
   ConsumableInstall,

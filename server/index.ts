@@ -1,3 +1,4 @@
+import '../shared/luxon-clock';
 import { loadConfig } from './config';
 import { initORM, closeORM } from './db';
 import { createApp } from './app';

@@ -1,6 +1,7 @@
 import { Router, type Request, type RequestHandler, type Response } from 'express';
 import { can, type Permission } from '../../shared/permissions';
 import { forbidden, unauthorized } from './errors';
+import { idempotency } from './idempotency';
 import { parseInput, type ParsedInput, type Schemas } from './validate';
 import type { Principal } from './principal';
 
@@ -16,6 +17,8 @@ export type RouteSpec = Schemas & {
   access: Access;
   /** Middleware that must run before validation (e.g. rate limits that count bad input too). */
   before?: readonly RequestHandler[];
+  /** Honour an `Idempotency-Key` header: a retry of the same request gets the first answer and writes nothing (./idempotency.ts). */
+  idempotent?: boolean;
 };
 
 /** What a handler receives: the parsed body, query and params, and who is calling. */
@@ -27,11 +30,13 @@ export type RouteInput<S extends RouteSpec> = ParsedInput<S> & {
 /** Handlers may be async; Express 5 forwards rejected promises to the error handler. */
 export type RouteHandler<S extends RouteSpec> = (req: Request, res: Response, input: RouteInput<S>) => unknown;
 
-export type ApiRouter = Router & { routeAccess: Map<string, Access> };
+/** `idempotentRoutes`: the routes that honour an Idempotency-Key, for the test that checks every signing and station write does. */
+export type ApiRouter = Router & { routeAccess: Map<string, Access>; idempotentRoutes: Set<string> };
 
 export function createApiRouter(): ApiRouter {
   const router = Router() as ApiRouter;
   router.routeAccess = new Map();
+  router.idempotentRoutes = new Set();
   return router;
 }
 
@@ -57,7 +62,8 @@ function principalFor<S extends RouteSpec>(spec: S, req: Request): RouteInput<S>
  */
 export function route<const S extends RouteSpec>(router: ApiRouter, method: Method, path: string, spec: S, handler: RouteHandler<S>) {
   router.routeAccess.set(`${method.toUpperCase()} ${path}`, spec.access);
-  router[method](path, guard(spec.access), ...(spec.before ?? []), async (req, res) => {
+  if (spec.idempotent) router.idempotentRoutes.add(`${method.toUpperCase()} ${path}`);
+  router[method](path, guard(spec.access), ...(spec.before ?? []), ...(spec.idempotent ? [idempotency] : []), async (req, res) => {
     const input: RouteInput<S> = { ...parseInput(spec, req), principal: principalFor(spec, req) };
     await handler(req, res, input);
   });

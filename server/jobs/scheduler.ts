@@ -18,6 +18,19 @@ const steps: JobStep[] = [
       return { expiredTokensRemoved: Number((removed as { affectedRows?: number }).affectedRows ?? 0) };
     },
   },
+  {
+    name: 'expire-idempotency-keys',
+    async run(orm, now, scope) {
+      const removed = await orm.em
+        .getConnection()
+        .execute(
+          `delete from idempotency_key where expires_at < ? ${scope.orgId ? 'and organization_id = ?' : ''}`,
+          scope.orgId ? [now, scope.orgId] : [now],
+          'run',
+        );
+      return { expiredIdempotencyKeysRemoved: Number((removed as { affectedRows?: number }).affectedRows ?? 0) };
+    },
+  },
 ];
 
 /** Start-up adds the feature steps (jobs/register.ts). */

@@ -4,6 +4,7 @@
  * source; dates follow ISO 8601 / RFC 3339, CSV quoting follows RFC 4180.
  * Pure: no I/O; the server looks up machines and meters, this checks the text.
  */
+import '../luxon-clock';
 import { DateTime } from 'luxon';
 import { clock } from '../clock';
 import { toCsv } from './csv';

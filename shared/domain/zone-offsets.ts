@@ -6,6 +6,7 @@
  * offset, since no zone changes its offset twice within an hour. Hours containing a change are
  * never cached and fall through to Intl, so the answers are exactly IANAZone's.
  */
+import '../luxon-clock';
 import { IANAZone } from 'luxon';
 
 const HOUR_MS = 3_600_000;

@@ -30,6 +30,8 @@ export const ERROR_CODES = [
   'not_found',
   'conflict',
   'checklist_incomplete',
+  'idempotency_in_progress',
+  'idempotency_key_reused',
   'payload_too_large',
   'rate_limited',
   'database_unavailable',
@@ -40,3 +42,9 @@ export type ErrorCode = (typeof ERROR_CODES)[number];
 
 /** The JSON body every error response carries. */
 export type ApiErrorBody = { error: ErrorCode; message: string; fields?: FieldErrors };
+
+/** The header a client sends so that a retried write is carried out once (server/http/idempotency.ts). */
+export const IDEMPOTENCY_HEADER = 'Idempotency-Key';
+export const IDEMPOTENCY_KEY_PATTERN = /^[A-Za-z0-9._:-]{8,200}$/;
+/** How long a key and its stored answer are kept. */
+export const IDEMPOTENCY_TTL_HOURS = 24;

@@ -1,3 +1,4 @@
+import '../luxon-clock';
 import { z } from 'zod';
 import { IANAZone } from 'luxon';
 import { oneLine } from './text';

@@ -125,7 +125,23 @@ export type ChainVerification = {
   total: number;
   headSeq: number;
   verifiedAt: string;
-  problem: null | 'content-altered' | 'link-broken' | 'head-mismatch';
+  problem: null | 'content-altered' | 'link-broken' | 'head-mismatch' | 'copy-mismatch';
   message: string;
+  /** The newest copy of the head that left the database (mail or download), when the chain still holds it. */
+  lastCopy?: { seq: number; hash: string; madeAt: string; via: string } | null;
   firstBad: null | { id: string | null; seq: number; signedAt: string | null; signerName: string | null; meaning: SignMeaning | null };
 };
+
+/** A signed copy of the chain head, as mailed to the safety officers or downloaded from the safety audit. */
+export const chainHeadCopySchema = z.object({
+  format: z.literal('kerfbook-chain-head/1', { message: 'Not a Kerfbook chain-head copy' }),
+  shopId: z.uuid({ message: 'Not a Kerfbook chain-head copy (shop id)' }),
+  shopName: z.string().max(200),
+  seq: z.number().int().min(1),
+  hash: z.string().regex(/^[0-9a-f]{64}$/, 'The hash must be 64 hexadecimal characters'),
+  madeAt: z.string().max(40),
+  via: z.enum(['mail', 'export']),
+  signature: z.string().regex(/^[0-9a-f]{64}$/, 'The signature must be 64 hexadecimal characters'),
+});
+export type ChainHeadCopy = z.infer<typeof chainHeadCopySchema>;
+export type ChainCopyCheck = { signatureValid: boolean; matches: boolean; message: string };

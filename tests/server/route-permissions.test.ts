@@ -97,6 +97,8 @@ const EXPECTED: Record<string, Role[] | 'public'> = {
   'GET /safety/sign-offs': ['safety', 'admin'],
   'POST /safety/sign-offs/:id/corrections': ['operator', 'technician', 'safety'],
   'GET /safety/chain/verify': ['safety', 'admin'],
+  'POST /safety/chain/copies': ['safety', 'admin'],
+  'POST /safety/chain/copies/check': ['safety', 'admin'],
   'GET /safety/audit/compliance': ['safety', 'admin'],
   'GET /safety/audit/timeline': ['safety', 'admin'],
   'GET /safety/audit/export.csv': ['safety', 'admin'],

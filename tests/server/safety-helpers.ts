@@ -1,4 +1,5 @@
 // Shared set-up for the safety-log tests: a shop with machines, signed-in roles and an approved procedure.
+import '../../shared/luxon-clock';
 import pg from 'pg';
 import { DateTime } from 'luxon';
 import type { EntityManager } from '@mikro-orm/postgresql';

@@ -1,3 +1,4 @@
+import '../../shared/luxon-clock';
 import { afterAll } from 'vitest';
 import { closeORM } from '../../server/db';
 

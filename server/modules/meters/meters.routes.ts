@@ -28,14 +28,20 @@ export function registerMeterRoutes(r: ApiRouter) {
     r,
     'post',
     '/meters/:id/readings',
-    { access: 'readings.record', params: uuidParam, body: readingInputSchema },
+    { access: 'readings.record', params: uuidParam, body: readingInputSchema, idempotent: true },
     async (_req, res, { params, body, principal: who }) => {
       res.status(201).json(await addReading(requestEm(), who, params.id, body));
     },
   );
-  route(r, 'post', '/meter-readings', { access: 'readings.record', body: readingBatchSchema }, async (_req, res, { body, principal: who }) => {
-    res.status(201).json(await addReadings(requestEm(), who, body));
-  });
+  route(
+    r,
+    'post',
+    '/meter-readings',
+    { access: 'readings.record', body: readingBatchSchema, idempotent: true },
+    async (_req, res, { body, principal: who }) => {
+      res.status(201).json(await addReadings(requestEm(), who, body));
+    },
+  );
   route(r, 'get', '/meters/:id/trend', { access: 'machines.read', params: uuidParam, query: trendQuery }, async (_req, res, { params, query }) => {
     res.json(await meterTrend(requestEm(), params.id, query.days));
   });

@@ -8,6 +8,7 @@ import type { Principal } from '../../http/principal';
 import { chainHash, verifyChain, GENESIS_HASH } from '../../../shared/domain/signature-chain';
 import { MEANING_STATEMENTS, type ChainVerification, type SignMeaning } from '../../../shared/schemas/safety-sign-offs';
 import { clock } from '../../../shared/clock';
+import { compareWithLastCopy } from './chain-copy';
 
 /** FIPS 180-4 SHA-256 of the UTF-8 bytes, lowercase hex (what signature-chain.ts expects). */
 export const sha256Hex = (s: string) => createHash('sha256').update(s, 'utf8').digest('hex');
@@ -214,12 +215,27 @@ export async function verifyShopChain(em: EntityManager, orgId: string): Promise
       firstBad: describe(undefined, missingFrom),
     };
   }
+  // Self-consistent is not enough: a history rewritten with its hashes and head recomputed
+  // shows against the newest copy of the head that left the database.
+  const copy = await compareWithLastCopy(em, orgId);
+  if (!copy.ok) {
+    return {
+      ...base,
+      ok: false,
+      checked: rows.length,
+      problem: 'copy-mismatch',
+      message: copy.message,
+      firstBad: describe(rows[copy.seq - 1], copy.seq),
+      lastCopy: null,
+    };
+  }
   return {
     ...base,
     ok: true,
     checked: rows.length,
     problem: null,
-    message: `Chain verified: all ${rows.length} signatures are intact and in order.`,
+    message: `Chain verified: all ${rows.length} signatures are intact and in order${copy.copy ? `, and record #${copy.copy.seq} still matches the copy of ${copy.copy.madeAt}` : ''}.`,
     firstBad: null,
+    lastCopy: copy.copy,
   };
 }

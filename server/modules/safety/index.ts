@@ -1,5 +1,5 @@
 // The safety module's entities, for server/entities.ts.
-import { SafetySignOff, SafetyChainHead } from './sign-off.entity';
+import { SafetySignOff, SafetyChainHead, SafetyChainCopy } from './sign-off.entity';
 import { EnergyProcedure, ProcedureVersion, ProcedurePhoto } from './procedure.entity';
 import { LockoutSession, LockoutPoint, LockoutMember } from './lockout.entity';
 import { PpeRequirement, PpeCheck, PeriodicInspection, TrainingRecord, FireWatch, SafetyTask } from './records.entity';
@@ -7,6 +7,7 @@ import { PpeRequirement, PpeCheck, PeriodicInspection, TrainingRecord, FireWatch
 export const safetyEntities = [
   SafetySignOff,
   SafetyChainHead,
+  SafetyChainCopy,
   EnergyProcedure,
   ProcedureVersion,
   ProcedurePhoto,

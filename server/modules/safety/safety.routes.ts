@@ -4,7 +4,8 @@ import { z } from 'zod';
 import { route, type ApiRouter } from '../../http/route';
 import { requestEm } from '../../db';
 import type { Principal } from '../../http/principal';
-import { rateLimited } from '../../http/errors';
+import { conflict, rateLimited } from '../../http/errors';
+import { chainCopyKey, checkKeptCopy, recordChainCopy } from './chain-copy';
 import { singleFileUpload } from '../../http/upload';
 import type { Config } from '../../config';
 import { uuidParam } from '../../../shared/schemas/common';
@@ -56,7 +57,7 @@ import {
   startFireWatchSchema,
   trainingSchema,
 } from '../../../shared/schemas/safety-records';
-import { correctionSchema, exportSignOffsQuery, listSignOffsQuery } from '../../../shared/schemas/safety-sign-offs';
+import { chainHeadCopySchema, correctionSchema, exportSignOffsQuery, listSignOffsQuery } from '../../../shared/schemas/safety-sign-offs';
 import { complianceQuery, timelineQuery } from '../../../shared/schemas/safety-audit';
 import { PROCEDURE_PHOTO_MAX_BYTES } from '../../../shared/schemas/photos';
 
@@ -95,7 +96,7 @@ export function registerSafetyRoutes(r: ApiRouter, config: Config) {
     });
     next();
   };
-  const signing = { before: [signLimit] };
+  const signing = { before: [signLimit], idempotent: true };
 
   // Pickers and settings.
   route(r, 'get', '/safety/machines', { access: 'safety.read' }, async (_req, res, { principal: who }) => void res.json(await safetyMachines(em(), who)));
@@ -340,6 +341,19 @@ export function registerSafetyRoutes(r: ApiRouter, config: Config) {
     '/safety/chain/verify',
     { access: 'safety.audit' },
     async (_req, res, { principal: who }) => void res.json(await verifyShopChain(em(), who.orgId)),
+  );
+  const copyKey = chainCopyKey(config);
+  route(r, 'post', '/safety/chain/copies', { access: 'safety.audit' }, async (_req, res, { principal: who }) => {
+    const copy = await em().transactional((tx) => recordChainCopy(tx, copyKey, { id: who.orgId, name: who.orgName }, 'export', { madeById: who.userId }));
+    if (!copy) throw conflict('No safety signatures yet: there is no chain head to copy.');
+    res.status(201).json(copy);
+  });
+  route(
+    r,
+    'post',
+    '/safety/chain/copies/check',
+    { access: 'safety.audit', body: chainHeadCopySchema },
+    async (_req, res, { body, principal: who }) => void res.json(await checkKeptCopy(em(), copyKey, who.orgId, body)),
   );
   route(
     r,

@@ -67,3 +67,34 @@ export const SafetyChainHead = defineEntity({
   },
 });
 export type ISafetyChainHead = InferEntity<typeof SafetyChainHead>;
+
+/**
+ * Each time the chain head left the database (the daily mail to the safety officers, or a
+ * download from the safety audit page): the sequence number and hash it carried, and the
+ * HMAC it was signed with. Verification checks the chain still holds that hash at that
+ * number, so history rewritten below a copy shows even when the rewrite is self-consistent.
+ * Append-only for the app role, like the sign-offs.
+ */
+export const SafetyChainCopy = defineEntity({
+  name: 'SafetyChainCopy',
+  tableName: 'safety_chain_copy',
+  filters: orgFilter,
+  indexes: [{ properties: ['organization', 'madeAt'] }],
+  properties: {
+    id: p
+      .uuid()
+      .primary()
+      .onCreate(() => randomUUID()),
+    organization: () => p.manyToOne(Organization).ref().deleteRule('no action').updateRule('no action'),
+    seq: p.integer(),
+    hash: p.string().length(64),
+    madeAt: p.datetime(),
+    via: p.enum(['mail', 'export'] as const),
+    /** Who downloaded it (an export), or null (the daily mail). */
+    madeBy: () => p.manyToOne(User).ref().nullable().deleteRule('no action').updateRule('no action'),
+    /** The shop's local date of a daily mail, so each day sends one. */
+    localDate: p.string().length(10).nullable(),
+    signature: p.string().length(64),
+  },
+});
+export type ISafetyChainCopy = InferEntity<typeof SafetyChainCopy>;

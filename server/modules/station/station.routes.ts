@@ -45,7 +45,7 @@ export function registerStationRoutes(r: ApiRouter) {
     r,
     'post',
     '/consumable-changes',
-    { access: 'consumables.log', before: [receiveChange], body: consumableChangeSchema },
+    { access: 'consumables.log', before: [receiveChange], body: consumableChangeSchema, idempotent: true },
     async (req, res, { body, principal: who }) => {
       res.status(201).json(await logChange(requestEm(), who, body, req.file?.buffer));
     },
@@ -63,7 +63,7 @@ export function registerStationRoutes(r: ApiRouter) {
   route(r, 'get', '/consumable-life', { access: 'machines.read', query: lifeStatsQuery }, async (_req, res, { query, principal: who }) => {
     res.json(await lifeStats(requestEm(), who, query.partTypeId, query.machineId));
   });
-  route(r, 'post', '/cut-checks', { access: 'cutchecks.record', body: cutCheckSchema }, async (_req, res, { body, principal: who }) => {
+  route(r, 'post', '/cut-checks', { access: 'cutchecks.record', body: cutCheckSchema, idempotent: true }, async (_req, res, { body, principal: who }) => {
     res.status(201).json(await recordCutCheck(requestEm(), who, body));
   });
   route(r, 'get', '/cut-checks', { access: 'machines.read', query: changesQuery }, async (_req, res, { query: q }) => {

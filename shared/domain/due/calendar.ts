@@ -1,4 +1,5 @@
 /** Calendar triggers: fixed RRULE occurrences (RFC 5545, via ../recurrence) and floating intervals. */
+import '../../luxon-clock';
 import { DateTime } from 'luxon';
 import { expandRecurrence, previousOccurrence } from '../recurrence';
 import { cachedZone } from '../zone-offsets';

@@ -2,6 +2,7 @@
  * Wall clock <-> instant in an IANA zone (RFC 5545 §3.3.5 rules for gaps and overlaps), and
  * canonical zone ids. Converters are cached per zone so offset caches are shared by every rule.
  */
+import '../../luxon-clock';
 import { IANAZone } from 'luxon';
 import { cachedZone } from '../zone-offsets';
 import { DAY_MS, MINUTE_MS, fail, wallToMs, type WallClock } from './types';

@@ -5,7 +5,7 @@ import type { CutCheckRow, cutCheckSchema } from '../../../../shared/schemas/con
 import { queryRoots } from '../../../lib/query-keys';
 import { cutCheckKeys } from './keys';
 
-export const recordCutCheck = (input: z.input<typeof cutCheckSchema>) => api<CutCheckRow>('/cut-checks', { method: 'POST', body: input });
+export const recordCutCheck = (input: z.input<typeof cutCheckSchema>) => api<CutCheckRow>('/cut-checks', { method: 'POST', body: input, idempotent: true });
 
 /** The station page suggests a change after a failed coupon. */
 export function useRecordCutCheck() {

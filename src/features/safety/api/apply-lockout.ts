@@ -6,7 +6,7 @@ import { useInvalidateSafetyAndWorkOrders } from './keys';
 export function useApplyLockout() {
   const invalidate = useInvalidateSafetyAndWorkOrders();
   return useMutation({
-    mutationFn: (input: ApplyLockoutInput) => api<{ id: string; signOffId: string }>('/safety/lockouts', { method: 'POST', body: input }),
+    mutationFn: (input: ApplyLockoutInput) => api<{ id: string; signOffId: string }>('/safety/lockouts', { method: 'POST', body: input, idempotent: true }),
     onSuccess: invalidate,
   });
 }

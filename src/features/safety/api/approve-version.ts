@@ -6,7 +6,11 @@ export function useApproveVersion() {
   const invalidate = useInvalidateSafety();
   return useMutation({
     mutationFn: ({ id, version, password, retrainingRequired }: { id: string; version: number; password: string; retrainingRequired: boolean }) =>
-      api<{ signOffId: string }>(`/safety/procedures/${id}/versions/${version}/approve`, { method: 'POST', body: { password, retrainingRequired } }),
+      api<{ signOffId: string }>(`/safety/procedures/${id}/versions/${version}/approve`, {
+        method: 'POST',
+        body: { password, retrainingRequired },
+        idempotent: true,
+      }),
     onSuccess: invalidate,
   });
 }

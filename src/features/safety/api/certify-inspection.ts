@@ -6,7 +6,7 @@ export function useCertifyInspection() {
   const invalidate = useInvalidateSafety();
   return useMutation({
     mutationFn: ({ id, password }: { id: string; password: string }) =>
-      api<{ id: string }>(`/safety/inspections/${id}/certify`, { method: 'POST', body: { password } }),
+      api<{ id: string }>(`/safety/inspections/${id}/certify`, { method: 'POST', body: { password }, idempotent: true }),
     onSuccess: invalidate,
   });
 }

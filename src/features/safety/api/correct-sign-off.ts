@@ -7,7 +7,7 @@ export function useCorrectSignOff() {
   const invalidate = useInvalidateSafety();
   return useMutation({
     mutationFn: ({ id, ...body }: CorrectionInput & { id: string }) =>
-      api<{ id: string; seq: number }>(`/safety/sign-offs/${id}/corrections`, { method: 'POST', body }),
+      api<{ id: string; seq: number }>(`/safety/sign-offs/${id}/corrections`, { method: 'POST', body, idempotent: true }),
     onSuccess: invalidate,
   });
 }

@@ -6,7 +6,8 @@ import { useInvalidateSafety } from './keys';
 export function useEndFireWatch() {
   const invalidate = useInvalidateSafety();
   return useMutation({
-    mutationFn: ({ id, ...body }: EndFireWatchInput & { id: string }) => api<FireWatchRow>(`/safety/fire-watches/${id}/end`, { method: 'POST', body }),
+    mutationFn: ({ id, ...body }: EndFireWatchInput & { id: string }) =>
+      api<FireWatchRow>(`/safety/fire-watches/${id}/end`, { method: 'POST', body, idempotent: true }),
     onSuccess: invalidate,
   });
 }

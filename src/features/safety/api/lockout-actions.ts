@@ -9,7 +9,7 @@ export function useLockoutAction(action: LockoutAction) {
   const invalidate = useInvalidateSafetyAndWorkOrders();
   return useMutation({
     mutationFn: ({ id, body }: { id: string; body: Record<string, unknown> & { password: string } }) =>
-      api<{ signOffId: string }>(`/safety/lockouts/${id}/${action}`, { method: 'POST', body }),
+      api<{ signOffId: string }>(`/safety/lockouts/${id}/${action}`, { method: 'POST', body, idempotent: true }),
     onSuccess: invalidate,
   });
 }

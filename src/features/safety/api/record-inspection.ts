@@ -6,7 +6,7 @@ import { useInvalidateSafety } from './keys';
 export function useRecordInspection() {
   const invalidate = useInvalidateSafety();
   return useMutation({
-    mutationFn: (input: InspectionInput) => api<{ id: string }>('/safety/inspections', { method: 'POST', body: input }),
+    mutationFn: (input: InspectionInput) => api<{ id: string }>('/safety/inspections', { method: 'POST', body: input, idempotent: true }),
     onSuccess: invalidate,
   });
 }

@@ -6,7 +6,7 @@ import { useInvalidateSafety } from './keys';
 export function useRecordPpeCheck() {
   const invalidate = useInvalidateSafety();
   return useMutation({
-    mutationFn: (input: PpeCheckInput) => api<{ id: string; signOffId: string }>('/safety/ppe/checks', { method: 'POST', body: input }),
+    mutationFn: (input: PpeCheckInput) => api<{ id: string; signOffId: string }>('/safety/ppe/checks', { method: 'POST', body: input, idempotent: true }),
     onSuccess: invalidate,
   });
 }

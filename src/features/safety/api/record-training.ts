@@ -5,5 +5,8 @@ import { useInvalidateSafety } from './keys';
 
 export function useRecordTraining() {
   const invalidate = useInvalidateSafety();
-  return useMutation({ mutationFn: (input: TrainingInput) => api<{ id: string }>('/safety/training', { method: 'POST', body: input }), onSuccess: invalidate });
+  return useMutation({
+    mutationFn: (input: TrainingInput) => api<{ id: string }>('/safety/training', { method: 'POST', body: input, idempotent: true }),
+    onSuccess: invalidate,
+  });
 }

@@ -6,7 +6,7 @@ import { useInvalidateSafety } from './keys';
 export function useStartFireWatch() {
   const invalidate = useInvalidateSafety();
   return useMutation({
-    mutationFn: (input: StartFireWatchInput) => api<FireWatchRow>('/safety/fire-watches', { method: 'POST', body: input }),
+    mutationFn: (input: StartFireWatchInput) => api<FireWatchRow>('/safety/fire-watches', { method: 'POST', body: input, idempotent: true }),
     onSuccess: invalidate,
   });
 }

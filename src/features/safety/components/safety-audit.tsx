@@ -29,6 +29,7 @@ import { useSafetyMachines } from '../api/get-safety-machines';
 import { useSafetyPeople } from '../api/get-safety-people';
 import { useCorrectSignOff } from '../api/correct-sign-off';
 import { useSignFlow } from './sign-dialog';
+import { ChainCopies } from './chain-copies';
 import { DueBadge } from './badges';
 import { useShopFormat } from '../../../lib/format';
 
@@ -49,8 +50,8 @@ export function ChainCheck() {
       }
     >
       <p className="mb-3 text-steel-700">
-        Recomputes the SHA-256 hash of every signature in order and compares the end with the stored chain head. Any changed, removed or reordered record shows
-        here.
+        Recomputes the SHA-256 hash of every signature in order and compares the end with the stored chain head and with the newest copy of the head that left
+        the database. Any changed, removed or reordered record shows here.
       </p>
       {chain.isError ? (
         <Notice tone="danger" role="alert">
@@ -74,6 +75,7 @@ export function ChainCheck() {
           )
         ) : null}
       </div>
+      <ChainCopies />
     </Panel>
   );
 }

@@ -9,11 +9,11 @@ export type LogChangeInput = z.input<typeof consumableChangeSchema> & { photo?: 
 
 /** JSON for the common case; multipart with the details in `data` when a photo comes along. */
 export function logChange({ photo, ...input }: LogChangeInput) {
-  if (!photo) return api<{ id: string; closed: number; opened: number }>('/consumable-changes', { method: 'POST', body: input });
+  if (!photo) return api<{ id: string; closed: number; opened: number }>('/consumable-changes', { method: 'POST', body: input, idempotent: true });
   const form = new FormData();
   form.append('data', JSON.stringify(input));
   form.append('photo', photo);
-  return api<{ id: string; closed: number; opened: number }>('/consumable-changes', { method: 'POST', body: form });
+  return api<{ id: string; closed: number; opened: number }>('/consumable-changes', { method: 'POST', body: form, idempotent: true });
 }
 
 /** A change moves life bars, counters and stock. */

@@ -5,7 +5,8 @@ import type { readingBatchSchema } from '../../../../shared/schemas/machines';
 import { queryRoots } from '../../../lib/query-keys';
 import { stationKeys } from './keys';
 
-export const recordCounters = (input: z.input<typeof readingBatchSchema>) => api<{ ids: string[] }>('/meter-readings', { method: 'POST', body: input });
+export const recordCounters = (input: z.input<typeof readingBatchSchema>) =>
+  api<{ ids: string[] }>('/meter-readings', { method: 'POST', body: input, idempotent: true });
 
 export function useRecordCounters() {
   const qc = useQueryClient();
