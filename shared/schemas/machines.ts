@@ -178,7 +178,13 @@ export type ReadingRow = {
 };
 
 export type TrendPoint = { at: string; value: number; isReset: boolean };
-export type MeterTrend = { meter: MeterRow; points: TrendPoint[]; ratePerDay: number | null };
+export type MeterTrend = {
+  meter: MeterRow;
+  points: TrendPoint[];
+  /** Usage per calendar day over the forecast window (the due engine's rate). */
+  ratePerDay: number | null;
+  rate: { spanDays: number; readings: number; provisional: boolean; windowDays: number } | null;
+};
 
 /** Several counters read at one moment (the station page's "Record counters"): all or none. */
 export const readingBatchSchema = z.object({

@@ -7,7 +7,8 @@ import { AppError, conflict, fieldError, notFound } from '../../http/errors';
 import { recordActivity } from '../activity-log/activity-log.service';
 import { grouped, readingOrderProblem, readingTime, thinSeries } from '../../../shared/domain/meters';
 import { Organization } from '../organizations/organization.entity';
-import { usageRatePerDay } from '../../../shared/domain/forecast';
+import { FORECAST_WINDOW_DAYS, windowedUsageRate } from '../../../shared/domain/forecast';
+import { loadMeterSeries } from '../plans/plan-inputs';
 import type {
   LatestReading,
   ListReadingsQuery,
@@ -226,9 +227,15 @@ export async function meterTrend(em: EntityManager, meterId: string, days: numbe
   const meter = await getMeter(em, meterId);
   const since = new Date(clock.ms() - days * 86_400_000);
   const all = await readingsSince(em, meterId, since);
-  // The rate is fitted after the last reset only: across a reset the line would be meaningless.
-  let lastReset = -1;
-  all.forEach((r, i) => r.isReset && (lastReset = i));
-  const rate = meter.kind === 'condition' ? null : usageRatePerDay(all.slice(Math.max(0, lastReset)).map((r) => ({ at: r.at, value: r.value })));
-  return { meter, points: thinSeries(all, 400).map((r) => ({ at: r.at.toISOString(), value: r.value, isReset: r.isReset })), ratePerDay: rate };
+  // The rate is the due engine's: the same time window (loadMeterSeries, forecastWindow), fitted after the last reset only.
+  const series = (await loadMeterSeries(em, [meterId], clock.now())).get(meterId);
+  const rate = meter.kind === 'condition' || !series ? null : windowedUsageRate(series.readings);
+  return {
+    meter,
+    points: thinSeries(all, 400).map((r) => ({ at: r.at.toISOString(), value: r.value, isReset: r.isReset })),
+    ratePerDay: rate?.ratePerDay ?? null,
+    rate: rate
+      ? { spanDays: Math.round(rate.spanDays * 10) / 10, readings: rate.readings, provisional: rate.provisional, windowDays: FORECAST_WINDOW_DAYS }
+      : null,
+  };
 }
