@@ -7,6 +7,7 @@ import { AppError, conflict, fieldError, notFound } from '../../http/errors';
 import { recordActivity } from '../activity-log/activity-log.service';
 import { grouped, readingOrderProblem, readingTime, thinSeries } from '../../../shared/domain/meters';
 import { Organization } from '../organizations/organization.entity';
+import { convertUnit } from '../../../shared/domain/units';
 import { FORECAST_WINDOW_DAYS, windowedUsageRate } from '../../../shared/domain/forecast';
 import { loadMeterSeries } from '../plans/plan-inputs';
 import type {
@@ -141,6 +142,14 @@ export async function recordReading(
   const meter = await em.findOne(Meter, { id: meterId }, { lockMode: LockMode.PESSIMISTIC_WRITE });
   if (!meter) throw notFound('Meter');
   const at = input.readAt ? new Date(input.readAt) : clock.now();
+  // A value read in another unit of the same quantity is stored in the meter's own unit.
+  if (input.unit && input.unit !== meter.unit) {
+    try {
+      input = { ...input, value: convertUnit(input.value, input.unit, meter.unit) };
+    } catch (err) {
+      throw fieldError('unit', `${meter.name} counts in ${meter.unit}: ${err instanceof Error ? err.message : String(err)}`);
+    }
+  }
   const candidate = { at, value: input.value, isReset: input.isReset };
   const { prev, next } = await neighbours(em, meter.id, at);
   const timeZone = (await em.findOne(Organization, who.orgId))?.timeZone;
