@@ -19,7 +19,7 @@ test('the PPE page shows both noise verdicts with their basis, and a person’s 
   await expect(preview.getByText(/issued protector \(NRR 29\)/)).toBeVisible();
   // A person's day: hours at two tasks add their partial doses.
   const day = page.getByRole('complementary', { name: 'Daily dose of one person' });
-  const inputs = page.getByLabel(/^Hours at /);
+  const inputs = page.getByLabel(/^Hours at .+ · /);
   await inputs.nth(0).fill('4');
   await inputs.nth(1).fill('4');
   await expect(day.getByText(/Partial doses add up/)).toBeVisible();
