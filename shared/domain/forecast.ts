@@ -1,6 +1,8 @@
 /**
- * Meter forecasting (arc starts, hits, hours): fit a straight line to recent readings
- * and project when a target will be reached. Pure functions, browser-safe.
+ * Meter forecasting (arc starts, hits, hours, condition readings): the usage rate per calendar day,
+ * fitted by least squares over a time window of readings (not a number of them), and when a target
+ * will be reached. One forecast for the due engine, the plan page and the meter page.
+ * Pure functions, browser-safe.
  */
 
 export interface MeterReading {
@@ -55,58 +57,119 @@ function fitLine(readings: readonly MeterReading[]): LineFit | null {
   return { slope, intercept: yMean - slope * xMean, originMs };
 }
 
-/** Latest reading time and its value (largest value if several share that time). */
-function latestReading(readings: readonly MeterReading[]): { ms: number; value: number } {
-  let ms = -Infinity;
-  let value = -Infinity;
-  for (const r of readings) {
-    const t = r.at.getTime();
-    if (t > ms || (t === ms && r.value > value)) {
-      ms = t;
-      value = r.value;
-    }
-  }
-  return { ms, value };
-}
-
-/** Time (ms) at which the fitted line reaches `target`, or null if not a valid Date. */
-function crossingMs(line: LineFit, target: number): number | null {
-  const ms = line.originMs + ((target - line.intercept) / line.slope) * MS_PER_DAY;
-  return Number.isFinite(ms) && !Number.isNaN(new Date(ms).getTime()) ? ms : null;
-}
-
 /**
  * Usage rate in meter units per day: the OLS slope of value on time
- * (NIST e-Handbook §4.4.3.1). Null with fewer than 2 distinct reading times.
+ * (NIST e-Handbook §4.4.3.1) over all the readings given. Null with fewer than 2 distinct reading times.
+ * Forecasts use {@link windowedUsageRate}, which first picks the readings of the time window.
  */
 export function usageRatePerDay(readings: MeterReading[]): number | null {
   assertReadings(readings);
   return fitLine(readings)?.slope ?? null;
 }
 
+/** The rate is fitted on the readings of the last 28 days before the latest reading… */
+export const FORECAST_WINDOW_DAYS = 28;
+/** …and on at least 14 days where the history allows (two weekly cycles of a shift pattern). */
+export const MIN_FORECAST_SPAN_DAYS = 14;
+
 /**
- * When a meter growing at its fitted OLS rate (NIST e-Handbook §4.4.3.1) reaches `target`.
- *
- * - Null when fewer than 2 distinct reading times exist, the fitted slope is ≤ 0
- *   (the meter is not advancing, so it never gets there), or the date falls outside
- *   the range a Date can hold.
- * - Already reached (latest reading ≥ target): a due date in the future would be
- *   wrong, so the answer is the fitted crossing time capped at the latest reading
- *   time — how long ago it was likely reached. Without a rising fit the latest
- *   reading time is returned: the data show it reached by then, whatever the trend.
+ * The readings a rate is fitted on: every reading in the FORECAST_WINDOW_DAYS before the latest one,
+ * whatever their count, plus, when those span less than MIN_FORECAST_SPAN_DAYS, the newest reading
+ * at least that far back (so a meter read monthly still has two points). Whole weeks of a shift
+ * pattern — nights and weekends included — weigh in, so the slope is a rate per calendar day; a
+ * count of readings would cover a few hours of one shift on a counter exported every 15 minutes.
+ * Returned oldest first. (House rule for the window; the fit itself is NIST §4.4.3.1.)
  */
-export function forecastReach(readings: MeterReading[], target: number): Date | null {
-  assertReadings(readings);
-  if (!Number.isFinite(target)) throw new Error(`target must be a finite number, got ${String(target)}`);
-  if (readings.length === 0) return null;
-  const line = fitLine(readings);
-  const rising = line !== null && line.slope > 0;
-  const latest = latestReading(readings);
-  if (latest.value >= target) {
-    const fitted = rising ? crossingMs(line, target) : null;
-    return new Date(fitted === null ? latest.ms : Math.min(fitted, latest.ms));
+export function forecastWindow<T extends MeterReading>(readings: readonly T[]): T[] {
+  if (readings.length === 0) return [];
+  const sorted = [...readings].sort((a, b) => a.at.getTime() - b.at.getTime());
+  const latestMs = sorted[sorted.length - 1].at.getTime();
+  const fromMs = latestMs - FORECAST_WINDOW_DAYS * MS_PER_DAY;
+  const spanFloorMs = latestMs - MIN_FORECAST_SPAN_DAYS * MS_PER_DAY;
+  let first = sorted.findIndex((r) => r.at.getTime() >= fromMs);
+  if (sorted[first].at.getTime() > spanFloorMs) {
+    // Too short a span: reach back to the newest reading at or before the 14-day mark.
+    for (let i = first - 1; i >= 0; i--) {
+      if (sorted[i].at.getTime() <= spanFloorMs) {
+        first = i;
+        break;
+      }
+    }
   }
-  if (!rising) return null;
-  const ms = crossingMs(line, target);
-  return ms === null ? null : new Date(ms);
+  return sorted.slice(first);
+}
+
+export interface UsageRate {
+  /** Meter units per calendar day. */
+  ratePerDay: number;
+  /** Days between the first and the last reading fitted. */
+  spanDays: number;
+  /** Readings fitted. */
+  readings: number;
+  /** Fewer than MIN_FORECAST_SPAN_DAYS of readings: a rate from part of a week can be far off. */
+  provisional: boolean;
+}
+
+/** The usage rate per calendar day over the time window ({@link forecastWindow}); null without two distinct times. */
+export function windowedUsageRate(readings: readonly MeterReading[]): UsageRate | null {
+  assertReadings(readings);
+  const win = forecastWindow(readings);
+  const line = fitLine(win);
+  if (!line) return null;
+  const spanDays = (win[win.length - 1].at.getTime() - win[0].at.getTime()) / MS_PER_DAY;
+  return { ratePerDay: line.slope, spanDays, readings: win.length, provisional: spanDays < MIN_FORECAST_SPAN_DAYS };
+}
+
+/**
+ * When the readings reach `target` going from the latest reading at `ratePerDay`, or null when the
+ * rate is missing, zero or runs away from the target, or the date does not fit a Date.
+ *
+ * Anchored at the latest reading, not at the fitted line: a counter's latest value is exact, while
+ * the line's value at that moment is off by wherever the shift pattern is in its week (below the
+ * reading after a busy week, above it after a weekend) — from the line, a meter still short of its
+ * target could be shown as due in the past.
+ */
+export function projectFromLatest(latest: MeterReading, ratePerDay: number | null, target: number): Date | null {
+  if (ratePerDay === null || ratePerDay === 0) return null;
+  const days = (target - latest.value) / ratePerDay;
+  if (days < 0) return null;
+  const ms = latest.at.getTime() + days * MS_PER_DAY;
+  return Number.isFinite(ms) && !Number.isNaN(new Date(ms).getTime()) ? new Date(ms) : null;
+}
+
+/**
+ * Time the readings (oldest first) first reached `target` in their latest run at or above it,
+ * interpolated linearly between the two readings around it; null when the latest is below.
+ */
+export function reachedAt(sorted: readonly MeterReading[], target: number): Date | null {
+  let i = sorted.length - 1;
+  if (i < 0 || sorted[i].value < target) return null;
+  while (i > 0 && sorted[i - 1].value >= target) i--;
+  if (i === 0) return sorted[0].at;
+  const a = sorted[i - 1];
+  const b = sorted[i];
+  const f = (target - a.value) / (b.value - a.value);
+  return new Date(a.at.getTime() + f * (b.at.getTime() - a.at.getTime()));
+}
+
+/**
+ * When a rising meter reaches `target`: if the readings already did, when they did ({@link reachedAt});
+ * otherwise from the latest reading along the windowed rate per calendar day ({@link windowedUsageRate},
+ * {@link projectFromLatest}). Null when not reached and there is no rising rate.
+ */
+export function forecastReach(
+  readings: readonly MeterReading[],
+  target: number,
+  /** For a caller that checked and sorted the readings (oldest first) and knows their windowed rate (the due engine). */
+  known?: { sorted: readonly MeterReading[]; ratePerDay: number | null },
+): Date | null {
+  if (!known) assertReadings(readings);
+  if (!Number.isFinite(target)) throw new Error(`target must be a finite number, got ${String(target)}`);
+  const sorted = known?.sorted ?? [...readings].sort((a, b) => a.at.getTime() - b.at.getTime());
+  if (sorted.length === 0) return null;
+  const reached = reachedAt(sorted, target);
+  if (reached) return reached;
+  const ratePerDay = known ? known.ratePerDay : (windowedUsageRate(sorted)?.ratePerDay ?? null);
+  if (ratePerDay === null || ratePerDay <= 0) return null;
+  return projectFromLatest(sorted[sorted.length - 1], ratePerDay, target);
 }

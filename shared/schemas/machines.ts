@@ -23,7 +23,7 @@ export type MeterKind = (typeof METER_KINDS)[number];
 export const METER_UNITS: Record<MeterKind, readonly string[]> = {
   count: ['starts', 'hits', 'cycles'],
   'running-time': ['h'],
-  condition: ['Pa', 'kPa', 'bar', '°C', 'mm'],
+  condition: ['Pa', 'kPa', 'bar', 'psi', 'inH2O', '°C', '°F', 'mm'],
 };
 
 /** Empty form fields become null so optional columns are cleared, not filled with ''. */
@@ -155,6 +155,8 @@ export const readingInputSchema = z.object({
     .refine((v) => !v || new Date(v).getTime() <= clock.ms() + 5 * 60_000, 'The reading time lies in the future'),
   isReset: z.boolean().default(false),
   note: optionalText(300, 'Note'),
+  /** The unit the value was read in, when not the meter's own: converted on entry (shared/domain/units.ts, NIST SP 811). */
+  unit: z.string().trim().max(16, 'Unit: at most 16 characters').optional(),
 });
 export type ReadingInput = z.output<typeof readingInputSchema>;
 
@@ -178,7 +180,13 @@ export type ReadingRow = {
 };
 
 export type TrendPoint = { at: string; value: number; isReset: boolean };
-export type MeterTrend = { meter: MeterRow; points: TrendPoint[]; ratePerDay: number | null };
+export type MeterTrend = {
+  meter: MeterRow;
+  points: TrendPoint[];
+  /** Usage per calendar day over the forecast window (the due engine's rate). */
+  ratePerDay: number | null;
+  rate: { spanDays: number; readings: number; provisional: boolean; windowDays: number } | null;
+};
 
 /** Several counters read at one moment (the station page's "Record counters"): all or none. */
 export const readingBatchSchema = z.object({

@@ -57,11 +57,13 @@ describe('usageRatePerDay', () => {
 });
 
 describe('forecastReach', () => {
-  it('projects the hand-worked line to the target: day 1400/190', () => {
+  it('projects from the latest reading along the hand-worked slope: day 4 + 90/(190/7)', () => {
+    // Latest reading 210 at day 4; 90 to go at 190/7 per day (NIST §4.4.3.1 slope, worked above) → day 4 + 630/190.
+    // (Starting from the fitted line instead gave day 1400/190 ≈ 7.37, 0.05 d later: the line sits below the reading.)
     const when = forecastReach(HAND, 300);
     expect(when).not.toBeNull();
     // A Date holds whole milliseconds, so allow 1 ms.
-    expect(Math.abs(when!.getTime() - (T0 + (1400 / 190) * DAY))).toBeLessThanOrEqual(1);
+    expect(Math.abs(when!.getTime() - (T0 + (4 + 630 / 190) * DAY))).toBeLessThanOrEqual(1);
   });
 
   it('returns null for a flat meter', () => {
@@ -84,30 +86,27 @@ describe('forecastReach', () => {
     expect(forecastReach([{ at: at(0), value: 5 }], 10)).toBeNull();
   });
 
-  describe('target already reached (latest reading ≥ target)', () => {
-    it('returns the fitted crossing when it lies before the latest reading', () => {
-      // Same line as the hand example: y = 100 + (190/7)x reaches 200 at x = 700/190 ≈ 3.684 d,
-      // before the latest reading at day 4 (210 ≥ 200).
+  describe('target already reached (latest reading ≥ target): when the readings reached it', () => {
+    it('interpolates between the two readings around the crossing', () => {
+      // 150 at day 2, 210 at day 4: 200 is 50/60 of the way → day 2 + 5/3 (linear interpolation, worked by hand)
       const when = forecastReach(HAND, 200)!;
-      expect(Math.abs(when.getTime() - (T0 + (700 / 190) * DAY))).toBeLessThanOrEqual(1);
+      expect(Math.abs(when.getTime() - (T0 + (2 + 5 / 3) * DAY))).toBeLessThanOrEqual(1);
     });
 
-    it('caps at the latest reading time when the fit would cross later', () => {
-      // y = 0, 0, 100 at x = 0, 1, 2: x̄ = 1, ȳ = 100/3, Sxy = 100, Sxx = 2 → b = 50,
-      // a = 100/3 − 50; it reaches 90 at x = (90 − a)/50 ≈ 2.133 d, after the day-2 reading
-      // that already shows 100 ≥ 90, so the answer is day 2.
+    it('takes the latest run at or above the target', () => {
+      // 0 at day 1, 100 at day 2: 90 is reached at day 1.9 (worked by hand)
       const jump = [
         { at: at(0), value: 0 },
         { at: at(1), value: 0 },
         { at: at(2), value: 100 },
       ];
-      expect(forecastReach(jump, 90)!.getTime()).toBe(at(2).getTime());
+      expect(forecastReach(jump, 90)!.getTime()).toBe(T0 + 1.9 * DAY);
     });
 
-    it('returns the latest reading time when there is no rising fit', () => {
+    it('returns the first reading when every reading is already past the target', () => {
       expect(forecastReach([{ at: at(5), value: 900 }], 800)!.getTime()).toBe(at(5).getTime());
       const flat = [0, 1, 2].map((d) => ({ at: at(d), value: 500 }));
-      expect(forecastReach(flat, 400)!.getTime()).toBe(at(2).getTime());
+      expect(forecastReach(flat, 400)!.getTime()).toBe(at(0).getTime());
     });
   });
 

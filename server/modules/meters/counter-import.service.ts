@@ -1,3 +1,4 @@
+import { convertUnit, quantityOf } from '../../../shared/domain/units';
 import { hash } from 'node:crypto';
 import type { PoolClient } from 'pg';
 import type { EntityManager } from '@mikro-orm/postgresql';
@@ -145,11 +146,20 @@ export async function analyseCounterCsv(
           : { line, column: 'machine_code', message: `No machine with the code “${r.machineCode}” in this shop` },
       ];
     }
+    let value = r.value;
     if (r.unit !== null && r.unit !== meter.unit) {
-      return [{ line, column: 'unit', message: `Unit “${r.unit}” does not match meter ${meter.machineCode}/${meter.code}, which counts in ${meter.unit}` }];
+      // Another unit of the same quantity is converted into the meter's own (NIST SP 811 factors, shared/domain/units.ts).
+      try {
+        value = convertUnit(r.value, r.unit, meter.unit);
+      } catch (err) {
+        const why = quantityOf(meter.unit) === null ? '' : ` (${err instanceof Error ? err.message : String(err)})`;
+        return [
+          { line, column: 'unit', message: `Unit “${r.unit}” does not match meter ${meter.machineCode}/${meter.code}, which counts in ${meter.unit}${why}` },
+        ];
+      }
     }
-    const key = hash('sha256', importKeySource(meter.id, r.readAt, r.value, r.reset), 'hex');
-    return stagingLine(line, meter.id, r.readAt, r.value, r.reset, key);
+    const key = hash('sha256', importKeySource(meter.id, r.readAt, value, r.reset), 'hex');
+    return stagingLine(line, meter.id, r.readAt, value, r.reset, key);
   }
   await copyIntoStaging(client, stagingText());
 

@@ -8,6 +8,10 @@ import { recordActivity } from '../activity-log/activity-log.service';
 import { completeByStationRecord } from '../work-orders/station-completion';
 import { grouped, readingOrderProblem, readingTime, thinSeries } from '../../../shared/domain/meters';
 import { usageRatePerDay } from '../../../shared/domain/forecast';
+import { Organization } from '../organizations/organization.entity';
+import { convertUnit } from '../../../shared/domain/units';
+import { FORECAST_WINDOW_DAYS, windowedUsageRate } from '../../../shared/domain/forecast';
+import { loadMeterSeries } from '../plans/plan-inputs';
 import type {
   LatestReading,
   ListReadingsQuery,
@@ -141,6 +145,14 @@ export async function recordReading(
   const meter = await em.findOne(Meter, { id: meterId }, { lockMode: LockMode.PESSIMISTIC_WRITE });
   if (!meter) throw notFound('Meter');
   const at = input.readAt ? new Date(input.readAt) : clock.now();
+  // A value read in another unit of the same quantity is stored in the meter's own unit.
+  if (input.unit && input.unit !== meter.unit) {
+    try {
+      input = { ...input, value: convertUnit(input.value, input.unit, meter.unit) };
+    } catch (err) {
+      throw fieldError('unit', `${meter.name} counts in ${meter.unit}: ${err instanceof Error ? err.message : String(err)}`);
+    }
+  }
   const candidate = { at, value: input.value, isReset: input.isReset };
   const { prev, next } = await neighbours(em, meter.id, at);
   const timeZone = who.timeZone;
@@ -257,9 +269,15 @@ export async function meterTrend(em: EntityManager, meterId: string, days: numbe
   const meter = await getMeter(em, meterId);
   const since = new Date(clock.ms() - days * 86_400_000);
   const all = await readingsSince(em, meterId, since);
-  // The rate is fitted after the last reset only: across a reset the line would be meaningless.
-  let lastReset = -1;
-  all.forEach((r, i) => r.isReset && (lastReset = i));
-  const rate = meter.kind === 'condition' ? null : usageRatePerDay(all.slice(Math.max(0, lastReset)).map((r) => ({ at: r.at, value: r.value })));
-  return { meter, points: thinSeries(all, 400).map((r) => ({ at: r.at.toISOString(), value: r.value, isReset: r.isReset })), ratePerDay: rate };
+  // The rate is the due engine's: the same time window (loadMeterSeries, forecastWindow), fitted after the last reset only.
+  const series = (await loadMeterSeries(em, [meterId], clock.now())).get(meterId);
+  const rate = meter.kind === 'condition' || !series ? null : windowedUsageRate(series.readings);
+  return {
+    meter,
+    points: thinSeries(all, 400).map((r) => ({ at: r.at.toISOString(), value: r.value, isReset: r.isReset })),
+    ratePerDay: rate?.ratePerDay ?? null,
+    rate: rate
+      ? { spanDays: Math.round(rate.spanDays * 10) / 10, readings: rate.readings, provisional: rate.provisional, windowDays: FORECAST_WINDOW_DAYS }
+      : null,
+  };
 }

@@ -9,8 +9,10 @@ import type { StoredTrigger } from '../../../shared/schemas/plans';
 import type { MeterBaselines } from './plan.entity';
 import { uuidArray } from '../../db';
 
-/** Readings kept per meter for the usage trend and condition runs (the newest ones). */
-export const RECENT_READINGS = 24;
+import { FORECAST_WINDOW_DAYS, MIN_FORECAST_SPAN_DAYS } from '../../../shared/domain/forecast';
+
+/** Oil results kept per machine for the "outside targets" run (the newest ones). */
+export const RECENT_OIL_RESULTS = 24;
 
 export type EnginePlanRow = {
   id: string;
@@ -94,15 +96,27 @@ export function needsEvaluation(row: EnginePlanRow, nowMs: number, latest: Map<s
   return row.inputs_at === null || newest > new Date(row.inputs_at).getTime();
 }
 
-/** Recent readings (as of `now`) of the given meters, newest RECENT_READINGS each, split at the latest reset. */
+/**
+ * Recent readings (as of `now`) of the given meters, split at the latest reset: every reading of the
+ * FORECAST_WINDOW_DAYS before each meter's latest one, whatever their count, plus the newest reading
+ * at least MIN_FORECAST_SPAN_DAYS before it (the same window as shared/domain/forecast.ts forecastWindow).
+ */
 export async function loadMeterSeries(em: EntityManager, meterIds: string[], now: Date): Promise<Map<string, MeterSeries>> {
   const out = new Map<string, MeterSeries>();
   if (meterIds.length === 0) return out;
   const rows: { meter_id: string; value: number; read_at: Date; is_reset: boolean }[] = await em.execute(
     `select m.id as meter_id, x.value, x.read_at, x.is_reset
        from unnest(?::uuid[]) as m(id)
-       cross join lateral (select value, read_at, is_reset from meter_reading r where r.meter_id = m.id and r.read_at <= ?
-                           order by read_at desc, created_at desc limit ${RECENT_READINGS}) x`,
+       cross join lateral (select max(read_at) as latest from meter_reading r where r.meter_id = m.id and r.read_at <= ?) l
+       cross join lateral (
+         select id, value, read_at, is_reset, created_at from meter_reading r
+          where r.meter_id = m.id and r.read_at <= l.latest and r.read_at >= l.latest - interval '${FORECAST_WINDOW_DAYS} days'
+         union
+         (select id, value, read_at, is_reset, created_at from meter_reading r
+           where r.meter_id = m.id and r.read_at <= l.latest - interval '${MIN_FORECAST_SPAN_DAYS} days'
+           order by read_at desc, created_at desc limit 1)
+       ) x
+      order by m.id, x.read_at desc, x.created_at desc`,
     [uuidArray(meterIds), now],
   );
   const grouped = new Map<string, { value: number; at: Date; isReset: boolean }[]>();
@@ -135,7 +149,7 @@ export async function loadOilSeries(em: EntityManager, machineIds: string[], now
     `select m.id as machine_id, x.sampled_at, x.out_of_limits
        from unnest(?::uuid[]) as m(id)
        cross join lateral (select sampled_at, out_of_limits from oil_analysis o where o.machine_id = m.id and o.sampled_at <= ?
-                           order by sampled_at desc limit ${RECENT_READINGS}) x`,
+                           order by sampled_at desc limit ${RECENT_OIL_RESULTS}) x`,
     [uuidArray(machineIds), now],
   );
   for (const id of machineIds) out.set(oilMeterId(id), { readings: [], reset: null });

@@ -1,6 +1,6 @@
 /** Checks of the due engine's input, and the shared helpers the trigger evaluations read it with. */
 import { canonicalZone as canonicalZoneUncached } from '../recurrence';
-import { usageRatePerDay } from '../forecast';
+import { windowedUsageRate } from '../forecast';
 import { DAY_MS, type DueSoonWindow, type MeterInput, type PlanInput, type Reading } from './types';
 
 // Zone names are few and their lookup (Intl) is slow; the answer for a name never changes.
@@ -120,10 +120,11 @@ export function readingsOf(m: MeterInput): Reading[] {
   return sorted;
 }
 
+/** Usage rate per calendar day over the forecast window (../forecast windowedUsageRate), once per list. */
 export function usageRateOf(readings: Reading[]): number | null {
   let rate = usageRates.get(readings);
   if (rate === undefined) {
-    rate = usageRatePerDay(readings);
+    rate = windowedUsageRate(readings)?.ratePerDay ?? null;
     usageRates.set(readings, rate);
   }
   return rate;

@@ -1,31 +1,12 @@
 /** Meter triggers (every N units, with a usage forecast) and condition triggers (limits on a reading). */
 import { DAY_MS, MIN_GRACE_MS, type DueStatus, type MeterDue, type PlanInput, type Reading, type Trigger, type TriggerEvaluation } from './types';
 import { daysText, iso, justAfter, numText, readingsOf, usageRateOf } from './inputs';
+import { forecastReach, projectFromLatest, reachedAt } from '../forecast';
 
-/** Time the readings first reached `target` in their latest run at or above it, interpolated linearly. */
-function crossingTime(readings: Reading[], target: number): Date | null {
-  let i = readings.length - 1;
-  if (i < 0 || readings[i].value < target) return null;
-  while (i > 0 && readings[i - 1].value >= target) i--;
-  if (i === 0) return readings[0].at;
-  const a = readings[i - 1];
-  const b = readings[i];
-  const f = (target - a.value) / (b.value - a.value);
-  return new Date(a.at.getTime() + f * (b.at.getTime() - a.at.getTime()));
-}
-
-/** Forecast from the latest reading along the OLS usage rate (./forecast usageRatePerDay). */
+/** The one forecast (../forecast projectFromLatest): from the latest reading along the windowed rate per calendar day. */
 function forecastFromLatest(readings: Reading[], target: number): Date | null {
   if (readings.length < 2) return null;
-  const ratePerDay = usageRateOf(readings);
-  const last = readings[readings.length - 1];
-  if (ratePerDay === null || ratePerDay === 0) return null;
-  const days = (target - last.value) / ratePerDay;
-  // Anchored at the latest reading: a cumulative meter's latest value is exact, while the fitted
-  // line's intercept can put the date before a reading that is still short of the target.
-  if (days < 0) return null; // trend runs away from the target
-  const ms = last.at.getTime() + days * DAY_MS;
-  return Number.isFinite(ms) && !Number.isNaN(new Date(ms).getTime()) ? new Date(ms) : null;
+  return projectFromLatest(readings[readings.length - 1], usageRateOf(readings), target);
 }
 
 export function evalMeter(t: Extract<Trigger, { kind: 'meter' }>, input: PlanInput, index: number): { evaluation: TriggerEvaluation; meter: MeterDue } {
@@ -45,7 +26,7 @@ export function evalMeter(t: Extract<Trigger, { kind: 'meter' }>, input: PlanInp
   }
   const windowUnits = (dueSoon.fraction ?? 0) * t.every;
   if (current >= dueValue) {
-    const crossedAt = crossingTime(readings, dueValue) ?? (m.latest?.at as Date);
+    const crossedAt = reachedAt(readings, dueValue) ?? (m.latest?.at as Date);
     const over = current - dueValue;
     const sinceMs = now.getTime() - crossedAt.getTime();
     const graceMs = Math.max((dueSoon.days ?? 0) * DAY_MS, MIN_GRACE_MS);
@@ -65,7 +46,7 @@ export function evalMeter(t: Extract<Trigger, { kind: 'meter' }>, input: PlanInp
       meter: { meterId: t.meterId, dueValue, current, forecastAt: crossedAt },
     };
   }
-  const forecastAt = forecastFromLatest(readings, dueValue);
+  const forecastAt = readings.length < 2 ? null : forecastReach(readings, dueValue, { sorted: readings, ratePerDay: usageRateOf(readings) });
   const byUnits = windowUnits > 0 && dueValue - current <= windowUnits;
   const byTime = dueSoon.days !== undefined && forecastAt !== null && forecastAt.getTime() - now.getTime() <= dueSoon.days * DAY_MS;
   const soon = byUnits || byTime;

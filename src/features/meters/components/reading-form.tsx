@@ -3,7 +3,8 @@ import { useForm } from 'react-hook-form';
 import { zodResolver } from '@hookform/resolvers/zod';
 import type { z } from 'zod';
 import { readingInputSchema, type MeterRow } from '../../../../shared/schemas/machines';
-import { TextField } from '../../../components/ui/field';
+import { SelectField, TextField } from '../../../components/ui/field';
+import { CONVERTIBLE_UNITS, quantityOf } from '../../../../shared/domain/units';
 import { Button } from '../../../components/ui/button';
 import { Notice } from '../../../components/ui/notice';
 import { applyServerErrors } from '../../../lib/form-errors';
@@ -25,15 +26,22 @@ export function ReadingForm({ meter }: { meter: MeterRow }) {
     defaultValues: { isReset: false },
   });
   const cumulative = meter.kind !== 'condition';
+  // A pressure or temperature may be read in another unit; the server converts it into the meter's own.
+  const quantity = quantityOf(meter.unit);
+  const units = quantity ? CONVERTIBLE_UNITS.filter((u) => quantityOf(u) === quantity) : [];
   const onSubmit = handleSubmit(async (values) => {
     setFormError(null);
     setSaved(null);
     try {
       await add.mutateAsync({ meterId: meter.id, ...values });
-      setSaved(`Recorded ${formatValue(f, values.value, meter.unit)}.`);
-      reset({ isReset: false, value: undefined, readAt: undefined, note: '' });
+      const shown =
+        values.unit && values.unit !== meter.unit
+          ? `${formatValue(f, values.value, values.unit)}, stored in ${meter.unit}`
+          : formatValue(f, values.value, meter.unit);
+      setSaved(`Recorded ${shown}.`);
+      reset({ isReset: false, value: undefined, readAt: undefined, note: '', unit: values.unit });
     } catch (err) {
-      setFormError(applyServerErrors(err, setError, ['value', 'readAt', 'isReset', 'note']));
+      setFormError(applyServerErrors(err, setError, ['value', 'readAt', 'isReset', 'note', 'unit']));
     }
   });
   return (
@@ -51,13 +59,23 @@ export function ReadingForm({ meter }: { meter: MeterRow }) {
         ) : null}
       </div>
       <TextField
-        label={`Reading (${meter.unit})`}
+        label={units.length > 1 ? 'Reading' : `Reading (${meter.unit})`}
         inputMode="decimal"
         autoComplete="off"
         hint={meter.latest ? `Last: ${formatValue(f, meter.latest.value, meter.unit)}` : 'First reading of this meter'}
         error={formState.errors.value?.message}
         {...register('value')}
       />
+      {units.length > 1 ? (
+        <SelectField
+          label="Read in"
+          hint={`Stored in ${meter.unit} (NIST SP 811 factors)`}
+          error={formState.errors.unit?.message}
+          options={units.map((u) => ({ value: u, label: u }))}
+          defaultValue={meter.unit}
+          {...register('unit')}
+        />
+      ) : null}
       <TextField
         label="Read at"
         type="datetime-local"

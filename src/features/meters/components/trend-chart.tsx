@@ -15,7 +15,7 @@ export function TrendChart({ meterId, days = 365 }: { meterId: string; days?: nu
         Loading chart…
       </p>
     );
-  const { meter, points, ratePerDay } = q.data;
+  const { meter, points, ratePerDay, rate } = q.data;
   if (points.length === 0) return <EmptyState title={`No readings in the last ${days} days`} />;
   const data = points.map((p) => ({ t: new Date(p.at).getTime(), value: p.value }));
   return (
@@ -58,7 +58,9 @@ export function TrendChart({ meterId, days = 365 }: { meterId: string; days?: nu
       </div>
       <figcaption className="text-sm text-steel-700">
         {points.length} readings over the last {days} days.
-        {ratePerDay !== null ? ` Recent usage about ${formatValue(f, ratePerDay, meter.unit)} per day (least-squares fit since the last reset).` : ''}
+        {ratePerDay !== null && rate
+          ? ` Usage about ${formatValue(f, ratePerDay, meter.unit)} per calendar day (least-squares fit on ${rate.readings} readings over ${rate.spanDays} days, the last ${rate.windowDays} days since the last reset; nights and weekends count). Forecasts use this rate.${rate.provisional ? ' Provisional: less than two weeks of readings.' : ''}`
+          : ''}
       </figcaption>
     </figure>
   );

@@ -6,15 +6,22 @@ import { useShopFormat } from '../../../lib/format';
 /** Every figure of the latest sample beside its limit, so the technician reads one card, not the table. */
 export function OilLatest({ row, target }: { row: OilAnalysisRow; target: OilTarget | null }) {
   const f = useShopFormat();
-  const band = target ? isoViscosityGradeLimits(target.vgGrade) : null;
-  const flagged = new Set(row.findings.filter((f) => f.severity === 'danger').map((f) => f.field));
+  const baseline = target ? (target.baselineViscosityCst ?? isoViscosityGradeLimits(target.vgGrade).midpoint) : null;
+  const severity = new Map(row.findings.map((x) => [x.field, x.severity]));
   const facts: { key: OilAnalysisRow['findings'][number]['field']; label: string; value: string; limit: string }[] = [
     { key: 'cleanliness', label: 'ISO 4406', value: row.isoCode, limit: target ? `target ${target.targetCode}` : 'no target set' },
     {
       key: 'viscosity',
       label: 'Viscosity at 40 °C',
       value: row.viscosity40 === null ? 'not measured' : `${row.viscosity40} mm²/s`,
-      limit: band && target ? `ISO VG ${target.vgGrade}: ${band.min}–${band.max}` : 'no grade set',
+      limit:
+        baseline !== null && target
+          ? `${target.baselineViscosityCst !== null ? 'new oil' : `VG ${target.vgGrade} mid-point`} ${baseline} mm²/s${
+              row.viscosity40 !== null
+                ? ` (${row.viscosity40 >= baseline ? '+' : ''}${Math.round(((row.viscosity40 - baseline) / baseline) * 1000) / 10} %)`
+                : ''
+            }`
+          : 'no grade set',
     },
     {
       key: 'water',
@@ -26,7 +33,7 @@ export function OilLatest({ row, target }: { row: OilAnalysisRow; target: OilTar
       key: 'temperature',
       label: 'Oil temperature',
       value: row.temperatureC === null ? 'not measured' : `${row.temperatureC} °C`,
-      limit: target?.temperatureLimitC != null ? `limit ${target.temperatureLimitC} °C` : 'no limit set',
+      limit: 'at sampling; shown, not judged',
     },
   ];
   return (
@@ -37,11 +44,15 @@ export function OilLatest({ row, target }: { row: OilAnalysisRow; target: OilTar
       </p>
       <dl className="grid gap-3 sm:grid-cols-2 lg:grid-cols-4">
         {facts.map((f) => (
-          <div key={f.key} className={`rounded border-2 p-3 ${flagged.has(f.key) ? 'border-danger bg-danger-soft' : 'border-steel-200 bg-white'}`}>
+          <div
+            key={f.key}
+            className={`rounded border-2 p-3 ${severity.get(f.key) === 'danger' ? 'border-danger bg-danger-soft' : severity.get(f.key) === 'caution' ? 'border-caution bg-caution-soft' : 'border-steel-200 bg-white'}`}
+          >
             <dt className="text-sm font-semibold text-steel-700">{f.label}</dt>
             <dd className="text-2xl font-bold">{f.value}</dd>
             <dd className="text-sm text-steel-600">
-              {flagged.has(f.key) ? <span className="font-semibold text-danger">Outside · </span> : null}
+              {severity.get(f.key) === 'danger' ? <span className="font-semibold text-danger">Action · </span> : null}
+              {severity.get(f.key) === 'caution' ? <span className="font-semibold text-caution-ink">Caution · </span> : null}
               {f.limit}
             </dd>
           </div>

@@ -13,13 +13,13 @@ import { useSetOilTarget } from '../api/set-oil-target';
 type In = z.input<typeof oilTargetInput>;
 type Out = z.output<typeof oilTargetInput>;
 
-/** A unit's targets: ISO 4406 code, ISO VG grade (band from ISO 3448), water and temperature limits. */
+/** A unit's targets: ISO 4406 code, ISO VG grade (band from ISO 3448), the oil's new-oil viscosity and the water limit. */
 export function OilTargetForm({ unit }: { unit: HydraulicUnitView }) {
   const save = useSetOilTarget();
   const [message, setMessage] = useState<{ tone: 'danger' | 'safe'; text: string } | null>(null);
   const { register, handleSubmit, setError, formState, watch } = useForm<In, unknown, Out>({
     resolver: zodResolver(oilTargetInput),
-    defaultValues: unit.target ?? { targetCode: '17/15/12', vgGrade: 46, waterLimitPpm: 500, temperatureLimitC: 60 },
+    defaultValues: unit.target ?? { targetCode: '17/15/12', vgGrade: 46, baselineViscosityCst: null, waterLimitPpm: 500, temperatureLimitC: null },
   });
   const grade = watch('vgGrade');
   let band = '';
@@ -37,13 +37,19 @@ export function OilTargetForm({ unit }: { unit: HydraulicUnitView }) {
     } catch (err) {
       setMessage({
         tone: 'danger',
-        text: applyServerErrors(err, setError, ['targetCode', 'vgGrade', 'waterLimitPpm', 'temperatureLimitC']) ?? 'Check the marked fields.',
+        text: applyServerErrors(err, setError, ['targetCode', 'vgGrade', 'baselineViscosityCst', 'waterLimitPpm']) ?? 'Check the marked fields.',
       });
     }
   });
   return (
     <form onSubmit={onSubmit} noValidate aria-label={`Targets for ${unit.code}`} className="grid gap-3 md:grid-cols-4">
-      <TextField label="Target ISO 4406 code" error={formState.errors.targetCode?.message} placeholder="17/15/12" {...register('targetCode')} />
+      <TextField
+        label="Target ISO 4406 code"
+        error={formState.errors.targetCode?.message}
+        placeholder="17/15/12"
+        hint="A dash for a size not judged, e.g. -/15/12"
+        {...register('targetCode')}
+      />
       <SelectField
         label="ISO VG grade"
         hint={band}
@@ -58,10 +64,11 @@ export function OilTargetForm({ unit }: { unit: HydraulicUnitView }) {
         {...register('waterLimitPpm', { setValueAs: (v) => Number(v) })}
       />
       <TextField
-        label="Temperature limit (°C)"
+        label="New-oil viscosity at 40 °C (mm²/s)"
+        hint="From the delivered oil's certificate or first sample; used oil is judged against it (empty: the grade's mid-point)"
         inputMode="decimal"
-        error={formState.errors.temperatureLimitC?.message}
-        {...register('temperatureLimitC', { setValueAs: (v) => (v === '' ? null : Number(v)) })}
+        error={formState.errors.baselineViscosityCst?.message}
+        {...register('baselineViscosityCst', { setValueAs: (v) => (v === '' || v === null ? null : Number(v)) })}
       />
       <div className="md:col-span-4">
         <Button type="submit" variant="secondary" busy={formState.isSubmitting}>

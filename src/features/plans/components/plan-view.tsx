@@ -83,7 +83,11 @@ export function PlanView({ plan }: { plan: PlanDetail }) {
                 <div className="h-3 w-full rounded bg-steel-200" role="img" aria-label={`${meter?.name ?? 'Meter'} at ${Math.round(pct)} % of the next mark`}>
                   <div className={`h-3 rounded ${pct >= 100 ? 'bg-danger' : pct >= 90 ? 'bg-caution' : 'bg-steel-500'}`} style={{ width: `${pct}%` }} />
                 </div>
-                {m.forecastAt ? <p className="text-xs text-steel-600">Forecast from the recent usage rate: {f.dateTime(m.forecastAt)}</p> : null}
+                {m.forecastAt ? (
+                  <p className="text-xs text-steel-600">
+                    Forecast from the latest reading at the usage rate per calendar day (fitted on the last 28 days of readings): {f.dateTime(m.forecastAt)}
+                  </p>
+                ) : null}
               </div>
             );
           })}
