@@ -44,7 +44,8 @@ test('a purchase request is raised, approved, ordered and received; the low flag
   await low.getByLabel(`Quantity of ${pn}`).fill('10');
   await low.getByRole('button', { name: 'Raise request' }).click();
   await expect(low.getByRole('status')).toContainText(/Request \d+ raised for 10 pcs/);
-  const row = page.getByRole('row').filter({ hasText: pn }).filter({ hasText: 'Waiting for approval' });
+  const requests = page.getByRole('table', { name: 'Purchase requests' });
+  const row = requests.getByRole('row').filter({ hasText: pn }).filter({ hasText: 'Waiting for approval' });
   await expect(row).toBeVisible();
   await expect(row.getByRole('button', { name: 'Approve' })).toHaveCount(0);
   await shot(page, 'purchasing-raised');
@@ -52,7 +53,7 @@ test('a purchase request is raised, approved, ordered and received; the low flag
   await signOut(page);
   await signIn(page, 'admin@alder-row.example');
   await page.goto('/purchasing');
-  const adminRow = page.getByRole('row').filter({ hasText: pn });
+  const adminRow = page.getByRole('table', { name: 'Purchase requests' }).getByRole('row').filter({ hasText: pn });
   await adminRow.getByRole('button', { name: 'Approve' }).click();
   await expect(adminRow).toContainText('Approved, not yet ordered');
   // Approved but not ordered: still low.
@@ -67,7 +68,8 @@ test('a purchase request is raised, approved, ordered and received; the low flag
   await signOut(page);
   await signIn(page, 'tech@alder-row.example');
   await page.goto('/purchasing');
-  const techRow = page.getByRole('row').filter({ hasText: pn });
+  const techRows = page.getByRole('table', { name: 'Purchase requests' }).getByRole('row');
+  const techRow = techRows.filter({ hasText: pn });
   // A partial receipt, then too many (refused), then the rest.
   await techRow.getByRole('textbox').fill('4');
   await techRow.getByRole('button', { name: 'Book receipt' }).click();
@@ -77,10 +79,10 @@ test('a purchase request is raised, approved, ordered and received; the low flag
   await expect(techRow.getByRole('alert')).toContainText('Only 6 still open');
   await techRow.getByRole('textbox').fill('6');
   await techRow.getByRole('button', { name: 'Book receipt' }).click();
-  await expect(page.getByRole('row').filter({ hasText: pn })).toHaveCount(0);
+  await expect(techRow).toHaveCount(0);
   expect(await (await page.request.get(`/api/part-types/${partId}`)).json()).toMatchObject({ onHand: 15, onOrder: 0 });
   await page.getByLabel('Show').selectOption('received');
-  await expect(page.getByRole('row').filter({ hasText: pn })).toContainText('Received');
+  await expect(techRow).toContainText('Received');
   await shot(page, 'purchasing-received');
 });
 
@@ -88,7 +90,7 @@ test('screens: the life page with bounds and cheapest change, the station with r
   await signIn(page, 'admin@alder-row.example');
   await page.setViewportSize({ width: 1280, height: 1000 });
   await page.goto('/consumable-life');
-  await expect(page.getByText('Cheapest change')).toBeVisible();
+  await expect(page.getByText('Cheapest change', { exact: true })).toBeVisible();
   await expect(page.getByText(/Fisher-matrix bounds/)).toBeVisible();
   await shot(page, 'life-page');
   await page.setViewportSize({ width: 800, height: 1280 });
