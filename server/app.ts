@@ -25,6 +25,7 @@ import { registerMachineStateRoutes } from './modules/machines/machine-state.rou
 import { registerMeterRoutes } from './modules/meters/meters.routes';
 import { registerCounterImportRoutes } from './modules/meters/counter-import.routes';
 import { registerStockRoutes } from './modules/stock/stock.routes';
+import { registerPurchasingRoutes } from './modules/purchasing/purchasing.routes';
 import { registerStationRoutes } from './modules/station/station.routes';
 import { registerPunchToolRoutes } from './modules/punch-tools/punch-tools.routes';
 import { registerPlanRoutes } from './modules/plans/plans.routes';
@@ -94,6 +95,7 @@ export function createApp({ orm, config, smtp = null }: AppDeps): AppHandle {
   registerMeterRoutes(api);
   registerCounterImportRoutes(api);
   registerStockRoutes(api);
+  registerPurchasingRoutes(api);
   registerStationRoutes(api);
   registerPunchToolRoutes(api);
   registerPlanRoutes(api);

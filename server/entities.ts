@@ -7,7 +7,8 @@ import { Machine } from './modules/machines/machine.entity';
 import { MachinePhoto } from './modules/machines/machine-photo.entity';
 import { FailureCode, MachineDowntime, MachineStateChange } from './modules/machines/machine-state.entity';
 import { Meter, MeterReading } from './modules/meters/meter.entity';
-import { PartType, StockMove } from './modules/stock/stock.entity';
+import { PartType, StockMove, Supplier } from './modules/stock/stock.entity';
+import { PurchaseReceipt, PurchaseRequest } from './modules/purchasing/purchasing.entity';
 import { MaintenancePlan } from './modules/plans/plan.entity';
 import { WorkOrder, WorkOrderPart, WorkOrderAttachment, WorkOrderCounter, NotifyPreference } from './modules/work-orders/work-order.entity';
 import { OilTarget, OilAnalysis } from './modules/oil-analysis/oil-analysis.entity';
@@ -30,6 +31,9 @@ export const entities = [
   MeterReading,
   PartType,
   StockMove,
+  Supplier,
+  PurchaseRequest,
+  PurchaseReceipt,
   MaintenancePlan,
   WorkOrder,
   WorkOrderPart,

@@ -42,6 +42,13 @@ export const PERMISSIONS = {
   'readings.import': ['technician', 'admin'],
   'stock.read': everyone,
   'stock.manage': ['technician', 'admin'],
+  // Purchasing: technicians (who see the shelves) raise requests and book what comes in; the admin approves and places orders.
+  'purchasing.read': ['technician', 'admin'],
+  'purchasing.suppliers': ['technician', 'admin'],
+  'purchasing.request': ['technician', 'admin'],
+  'purchasing.approve': ['admin'],
+  'purchasing.order': ['admin'],
+  'purchasing.receive': ['technician', 'admin'],
   'consumables.log': ['operator', 'technician', 'admin'],
   'tools.manage': ['technician', 'admin'],
   'cutchecks.record': ['operator', 'technician', 'admin'],

@@ -90,6 +90,12 @@ const partTypeFields = z.object({
   failureCost: optionalMoney,
   leadTimeDays: z.number({ message: 'Enter the lead time in days' }).int('Whole days').min(0, 'The lead time cannot be negative').max(365, 'At most 365 days'),
   serviceLevel: z.number().gt(0.5, 'Between 0.5 and 0.999').lt(1, 'Between 0.5 and 0.999').default(0.95),
+  /** Spread of the supplier's lead time; 0 for a fixed lead time. */
+  leadTimeSdDays: z.number({ message: 'Enter the spread in days' }).min(0, 'The spread cannot be negative').max(180, 'At most 180 days').default(0),
+  supplierId: z.uuid({ message: 'Choose a supplier' }).nullable().default(null),
+  /** Parts per pack the supplier sells; orders are whole packs. */
+  packSize: z.number({ message: 'Enter the pack size' }).int('A whole number of parts').min(1, 'A pack holds at least 1 part').max(100_000).default(1),
+  minOrderQty: z.number({ message: 'Enter the minimum order' }).min(0, 'The minimum order cannot be negative').max(1_000_000).default(0),
   /** Stock counted when the part is first entered; recorded as an adjustment, never written over on-hand. */
   openingStock: z.number({ message: 'Enter the opening stock as a number' }).min(0, 'Stock cannot be negative').default(0),
 });
@@ -145,8 +151,15 @@ export type PartTypeRow = {
   /** ISO 4217 code from the shop's settings, or null when none is set. */
   currency: string | null;
   onHand: number;
+  /** Ordered from the supplier and not yet received. */
+  onOrder: number;
   leadTimeDays: number;
+  leadTimeSdDays: number;
   serviceLevel: number;
+  supplierId: string | null;
+  supplierName: string | null;
+  packSize: number;
+  minOrderQty: number;
   active: boolean;
   /** Mean and standard deviation of daily use over the usage window. */
   usagePerDay: number;
@@ -154,6 +167,7 @@ export type PartTypeRow = {
   usageWindowDays: number;
   /** reorderPointUnits from shared/domain/stock.ts. */
   reorderPoint: number;
+  /** On hand plus on order at or below the reorder point. */
   low: boolean;
 };
 

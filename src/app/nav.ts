@@ -17,6 +17,7 @@ const items: Entry[] = [
   { to: paths.machines.getHref(), label: 'Machines', permission: 'machines.read' },
   { to: paths.counterImport.getHref(), label: 'Counter import', permission: 'readings.import' },
   { to: paths.stock.getHref(), label: 'Stock', permission: 'stock.read', for: ['technician', 'admin'] },
+  { to: paths.purchasing.getHref(), label: 'Purchasing', permission: 'purchasing.read' },
   { to: paths.consumableLife.getHref(), label: 'Consumable life', permission: 'machines.read', for: office },
   { to: paths.oilAnalysis.getHref(), label: 'Oil analysis', permission: 'oil.read', for: ['technician', 'admin'] },
   { to: paths.safety.getHref(), label: 'Safety', permission: 'safety.read', end: true },

@@ -59,6 +59,7 @@ export const router = createBrowserRouter([
       { path: paths.meter.path.slice(1), lazy: () => import('./routes/meters-detail') },
       { path: paths.counterImport.path.slice(1), lazy: () => import('./routes/counter-import') },
       { path: paths.stock.path.slice(1), lazy: () => import('./routes/stock') },
+      { path: paths.purchasing.path.slice(1), lazy: () => import('./routes/purchasing') },
       { path: paths.station.path.slice(1), lazy: () => import('./routes/station') },
       { path: paths.stationLabel.path.slice(1), lazy: () => import('./routes/station-label') },
       { path: paths.consumableLife.path.slice(1), lazy: () => import('./routes/consumable-life') },

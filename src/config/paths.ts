@@ -38,6 +38,7 @@ export const paths = {
   meter: { path: '/meters/:id', getHref: (id: string) => `/meters/${id}` },
   counterImport: { path: '/counter-import', getHref: () => '/counter-import' },
   stock: { path: '/stock', getHref: () => '/stock' },
+  purchasing: { path: '/purchasing', getHref: () => '/purchasing' },
   station: { path: '/station/:code', getHref: (code: string) => `/station/${encodeURIComponent(code)}` },
   stationLabel: { path: '/station/:code/label', getHref: (code: string) => `/station/${encodeURIComponent(code)}/label` },
   consumableLife: { path: '/consumable-life', getHref: () => '/consumable-life' },

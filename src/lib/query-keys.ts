@@ -19,6 +19,7 @@ export const queryRoots = {
   orgSettings: ['org-settings'],
   plans: ['plans'],
   punchTools: ['punch-tools'],
+  purchasing: ['purchasing'],
   safety: ['safety'],
   station: ['station'],
   stock: ['stock'],

@@ -1,5 +1,6 @@
 import type { EntityManager } from '@mikro-orm/postgresql';
-import { PartType, StockMove, type IPartType } from './stock.entity';
+import { PartType, StockMove, Supplier, type IPartType } from './stock.entity';
+import { onOrderByPart } from '../purchasing/purchasing.service';
 import { Organization, type OrgSettings } from '../organizations/organization.entity';
 import { applyStockChanges } from './stock.service';
 import type { Principal } from '../../http/principal';
@@ -49,9 +50,16 @@ function currencyOf(settings: OrgSettings | null | undefined): string | null {
   return typeof c === 'string' && /^[A-Z]{3}$/.test(c) ? c : null;
 }
 
-function toRow(p: IPartType, usage: number[], currency: string | null = null): PartTypeRow {
+function toRow(p: IPartType, usage: number[], currency: string | null = null, onOrder = 0): PartTypeRow {
   const { mean, sd } = demandStats(usage);
-  const rop = reorderPointUnits({ dailyDemandMean: mean, dailyDemandSd: sd, leadTimeDays: p.leadTimeDays, serviceLevel: p.serviceLevel });
+  const rop = reorderPointUnits({
+    dailyDemandMean: mean,
+    dailyDemandSd: sd,
+    leadTimeDays: p.leadTimeDays,
+    leadTimeSdDays: p.leadTimeSdDays,
+    serviceLevel: p.serviceLevel,
+  });
+  const position = p.onHand + onOrder;
   return {
     id: p.id,
     partNumber: p.partNumber,
@@ -65,37 +73,42 @@ function toRow(p: IPartType, usage: number[], currency: string | null = null): P
     failureCost: p.failureCost === null || p.failureCost === undefined ? null : Number(p.failureCost),
     currency,
     onHand: p.onHand,
+    onOrder,
     leadTimeDays: p.leadTimeDays,
+    leadTimeSdDays: p.leadTimeSdDays,
     serviceLevel: p.serviceLevel,
+    supplierId: p.supplier?.id ?? null,
+    supplierName: p.supplier?.isInitialized() ? p.supplier.getEntity().name : null,
+    packSize: p.packSize,
+    minOrderQty: p.minOrderQty,
     active: p.active,
     usagePerDay: mean,
     usageSdPerDay: sd,
     usageWindowDays: USAGE_WINDOW_DAYS,
     reorderPoint: rop,
-    // At or below the reorder point: an order placed now just covers the lead time.
-    low: p.active && (rop > 0 ? p.onHand <= rop : p.onHand <= 0),
+    // On hand plus on order at or below the reorder point: an order placed now just covers the
+    // lead time. Counting what is on order keeps the flag from asking for the same parts twice.
+    low: p.active && (rop > 0 ? position <= rop : position <= 0),
   };
 }
 
 export async function listPartTypes(em: EntityManager, who: Principal, q: { lowOnly?: boolean; includeInactive?: boolean } = {}): Promise<PartTypeRow[]> {
-  const parts = await em.find(PartType, q.includeInactive ? {} : { active: true }, { orderBy: { category: 'asc', partNumber: 'asc' } });
+  const parts = await em.find(PartType, q.includeInactive ? {} : { active: true }, { orderBy: { category: 'asc', partNumber: 'asc' }, populate: ['supplier'] });
   const org = await em.findOneOrFail(Organization, who.orgId);
-  const usage = await dailyUsage(
-    em,
-    who.orgId,
-    org.timeZone,
-    parts.map((p) => p.id),
-  );
-  const rows = parts.map((p) => toRow(p, usage.get(p.id)!, currencyOf(org.settings)));
+  const ids = parts.map((p) => p.id);
+  const usage = await dailyUsage(em, who.orgId, org.timeZone, ids);
+  const ordered = await onOrderByPart(em, who.orgId, ids);
+  const rows = parts.map((p) => toRow(p, usage.get(p.id)!, currencyOf(org.settings), ordered.get(p.id)?.onOrder ?? 0));
   return q.lowOnly ? rows.filter((r) => r.low) : rows;
 }
 
 export async function getPartType(em: EntityManager, who: Principal, id: string): Promise<PartTypeRow> {
-  const p = await em.findOne(PartType, { id });
+  const p = await em.findOne(PartType, { id }, { populate: ['supplier'] });
   if (!p) throw notFound('Part');
   const org = await em.findOneOrFail(Organization, who.orgId);
   const usage = await dailyUsage(em, who.orgId, org.timeZone, [p.id]);
-  return toRow(p, usage.get(p.id)!, currencyOf(org.settings));
+  const ordered = await onOrderByPart(em, who.orgId, [p.id]);
+  return toRow(p, usage.get(p.id)!, currencyOf(org.settings), ordered.get(p.id)?.onOrder ?? 0);
 }
 
 async function assertPartNumberFree(em: EntityManager, partNumber: string, selfId: string | null) {
@@ -106,11 +119,16 @@ async function assertPartNumberFree(em: EntityManager, partNumber: string, selfI
     ]);
 }
 
+async function assertSupplier(em: EntityManager, supplierId: string | null | undefined) {
+  if (supplierId && !(await em.findOne(Supplier, { id: supplierId }))) throw fieldError('supplierId', 'The supplier was not found');
+}
+
 export async function createPartType(em: EntityManager, who: Principal, input: PartTypeInput): Promise<{ id: string }> {
   return em.transactional(async (tx) => {
     await assertPartNumberFree(tx, input.partNumber, null);
-    const { openingStock, ...fields } = input;
-    const p = tx.create(PartType, { organization: who.orgId, ...fields, onHand: 0 });
+    const { openingStock, supplierId, ...fields } = input;
+    await assertSupplier(tx, supplierId);
+    const p = tx.create(PartType, { organization: who.orgId, ...fields, supplier: supplierId, onHand: 0 });
     await tx.flush();
     if (openingStock > 0) await applyStockChanges(tx, who, [{ partTypeId: p.id, quantity: openingStock, kind: 'adjusted', reason: 'Opening stock' }]);
     recordActivity(tx, who, 'part.created', { type: 'PartType', id: p.id }, { partNumber: input.partNumber, openingStock });
@@ -129,7 +147,12 @@ export async function updatePartType(em: EntityManager, who: Principal, id: stri
     };
     const problem = failureCostProblem(next('plannedChangeCost') ?? next('unitCost') ?? 0, next('failureCost'));
     if (problem) throw fieldError('failureCost', problem);
-    tx.assign(p, input);
+    const { supplierId, ...fields } = input;
+    if (supplierId !== undefined) {
+      await assertSupplier(tx, supplierId);
+      tx.assign(p, { supplier: supplierId });
+    }
+    tx.assign(p, fields);
     recordActivity(tx, who, 'part.updated', { type: 'PartType', id }, { ...input });
   });
 }

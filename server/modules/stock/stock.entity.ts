@@ -4,6 +4,23 @@ import { Organization } from '../organizations/organization.entity';
 import { User } from '../users/user.entity';
 import { LIFE_UNITS, PART_CATEGORIES, STOCK_MOVE_KINDS } from '../../../shared/schemas/stock';
 
+/** Someone the shop buys parts from. */
+export const Supplier = defineEntity({
+  name: 'Supplier',
+  tableName: 'supplier',
+  filters: orgFilter,
+  uniques: [{ properties: ['organization', 'name'] }],
+  properties: {
+    ...baseProperties,
+    organization: () => p.manyToOne(Organization).ref(),
+    name: p.string().length(120),
+    email: p.string().length(254).nullable(),
+    phone: p.string().length(40).nullable(),
+    note: p.string().length(300).nullable(),
+  },
+});
+export type ISupplier = InferEntity<typeof Supplier>;
+
 /** A catalogue entry: a consumable, tool or supply the shop stocks. */
 export const PartType = defineEntity({
   name: 'PartType',
@@ -29,6 +46,10 @@ export const PartType = defineEntity({
     onHand: p.double().$type<number>().default(0),
     leadTimeDays: p.integer().default(7),
     serviceLevel: p.double().$type<number>().default(0.95),
+    leadTimeSdDays: p.double().$type<number>().default(0),
+    supplier: () => p.manyToOne(Supplier).ref().nullable(),
+    packSize: p.integer().default(1),
+    minOrderQty: p.double().$type<number>().default(0),
     active: p.boolean().default(true),
   },
 });

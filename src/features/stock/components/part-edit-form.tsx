@@ -8,6 +8,7 @@ import { Button } from '../../../components/ui/button';
 import { Notice } from '../../../components/ui/notice';
 import { applyServerErrors } from '../../../lib/form-errors';
 import { useUpdatePartType } from '../api/update-part-type';
+import { useSupplierOptions } from '../api/get-suppliers';
 
 type In = z.input<typeof partTypeUpdateSchema>;
 type Out = z.output<typeof partTypeUpdateSchema>;
@@ -17,6 +18,7 @@ const numOrNull = (v: unknown) => (v === '' || v === null || v === undefined ? n
 /** Catalogue data of one part; stock itself only changes through moves. */
 export function PartEditForm({ part }: { part: PartTypeRow }) {
   const update = useUpdatePartType();
+  const suppliers = useSupplierOptions(true);
   const [formError, setFormError] = useState<string | null>(null);
   const [saved, setSaved] = useState(false);
   const { register, handleSubmit, setError, formState } = useForm<In, unknown, Out>({
@@ -28,7 +30,11 @@ export function PartEditForm({ part }: { part: PartTypeRow }) {
       plannedChangeCost: part.plannedChangeCost,
       failureCost: part.failureCost,
       leadTimeDays: part.leadTimeDays,
+      leadTimeSdDays: part.leadTimeSdDays,
       serviceLevel: part.serviceLevel,
+      supplierId: part.supplierId,
+      packSize: part.packSize,
+      minOrderQty: part.minOrderQty,
     },
   });
   const onSubmit = handleSubmit(async (values) => {
@@ -38,7 +44,21 @@ export function PartEditForm({ part }: { part: PartTypeRow }) {
       await update.mutateAsync({ id: part.id, ...values });
       setSaved(true);
     } catch (err) {
-      setFormError(applyServerErrors(err, setError, ['name', 'expectedLife', 'unitCost', 'plannedChangeCost', 'failureCost', 'leadTimeDays', 'serviceLevel']));
+      setFormError(
+        applyServerErrors(err, setError, [
+          'name',
+          'expectedLife',
+          'unitCost',
+          'plannedChangeCost',
+          'failureCost',
+          'leadTimeDays',
+          'leadTimeSdDays',
+          'serviceLevel',
+          'supplierId',
+          'packSize',
+          'minOrderQty',
+        ]),
+      );
     }
   });
   const e = formState.errors;
@@ -79,6 +99,27 @@ export function PartEditForm({ part }: { part: PartTypeRow }) {
         {...register('failureCost', { setValueAs: numOrNull })}
       />
       <TextField label="Lead time (days)" inputMode="numeric" error={e.leadTimeDays?.message} {...register('leadTimeDays', { setValueAs: num })} />
+      <TextField
+        label="Lead time spread (days)"
+        inputMode="decimal"
+        hint="Standard deviation; 0 = always on time"
+        error={e.leadTimeSdDays?.message}
+        {...register('leadTimeSdDays', { setValueAs: num })}
+      />
+      <label className="flex flex-col gap-1 text-sm font-semibold text-steel-800">
+        Supplier
+        <select className="min-h-touch rounded border border-steel-400 bg-white px-2 font-normal" {...register('supplierId', { setValueAs: (v) => v || null })}>
+          <option value="">None</option>
+          {(suppliers.data ?? []).map((s) => (
+            <option key={s.id} value={s.id}>
+              {s.name}
+            </option>
+          ))}
+        </select>
+        {e.supplierId ? <span className="text-danger">{e.supplierId.message}</span> : null}
+      </label>
+      <TextField label="Pack size" inputMode="numeric" error={e.packSize?.message} {...register('packSize', { setValueAs: num })} />
+      <TextField label="Minimum order" inputMode="decimal" error={e.minOrderQty?.message} {...register('minOrderQty', { setValueAs: num })} />
       <TextField label="Service level" inputMode="decimal" error={e.serviceLevel?.message} {...register('serviceLevel', { setValueAs: num })} />
       <div className="md:col-span-4">
         <Button type="submit" variant="secondary" busy={formState.isSubmitting}>
