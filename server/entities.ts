@@ -5,7 +5,7 @@ import { ActivityEvent } from './modules/activity-log/activity-event.entity';
 import { OutboxMail } from './mail/outbox.entity';
 import { Machine } from './modules/machines/machine.entity';
 import { MachinePhoto } from './modules/machines/machine-photo.entity';
-import { FailureCode, MachineDowntime, MachineStateChange } from './modules/machines/machine-state.entity';
+import { FailureCode, LightCurtainCheck, MachineDowntime, MachineStateChange } from './modules/machines/machine-state.entity';
 import { Meter, MeterReading } from './modules/meters/meter.entity';
 import { PartType, StockMove, Supplier } from './modules/stock/stock.entity';
 import { PurchaseReceipt, PurchaseRequest } from './modules/purchasing/purchasing.entity';
@@ -56,4 +56,5 @@ export const entities = [
   MachineDowntime,
   MachineStateChange,
   FailureCode,
+  LightCurtainCheck,
 ];

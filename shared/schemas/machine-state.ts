@@ -80,3 +80,39 @@ export type DowntimeRow = {
   endedAt: string | null;
   endedBy: string | null;
 };
+
+const measured = (label: string, max: number) =>
+  z
+    .number({ message: `Enter the ${label} as a number` })
+    .refine(Number.isFinite, `The ${label} must be a finite number`)
+    .refine((v) => v > 0, `The ${label} must be above zero`)
+    .refine((v) => v <= max, `The ${label} looks wrong (above ${max})`);
+
+/** The periodic press-brake light-curtain check as the technician enters it. */
+export const lightCurtainCheckSchema = z.object({
+  stoppingTimeMs: measured('stopping time (ms)', 10_000),
+  detectionCapabilityMm: measured('detection capability (mm)', 1000),
+  measuredDistanceMm: measured('measured mounting distance (mm)', 10_000),
+  note: z
+    .string()
+    .trim()
+    .max(500, 'Keep the note under 500 characters')
+    .refine(isOneLineText, ONE_LINE_MESSAGE)
+    .nullish()
+    .transform((v) => v || null),
+});
+export type LightCurtainCheckInput = z.output<typeof lightCurtainCheckSchema>;
+
+export type LightCurtainCheckRow = {
+  id: string;
+  stoppingTimeMs: number;
+  detectionCapabilityMm: number;
+  measuredDistanceMm: number;
+  requiredDistanceMm: number;
+  approachSpeedMmS: number;
+  pass: boolean;
+  note: string | null;
+  checkedAt: string;
+  checkedBy: string;
+  tookOutOfService: boolean;
+};

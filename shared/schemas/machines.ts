@@ -1,6 +1,7 @@
 import { z } from 'zod';
 import { clock } from '../clock';
 import { isOneLineText, isoDateTime, oneLine, ONE_LINE_MESSAGE } from './text';
+import type { MachineStatus } from './machine-state';
 
 export const MACHINE_KINDS = ['punch-plasma-cell', 'plasma-table', 'press-brake', 'hydraulic-unit', 'fume-extractor', 'torch', 'punch-head', 'other'] as const;
 export type MachineKind = (typeof MACHINE_KINDS)[number];
@@ -81,6 +82,8 @@ export type MachineRow = {
   /** Depth in the component tree (0 = top-level machine), in tree order. */
   depth: number;
   meterCount: number;
+  /** In service, out of service or locked out, since when and why. */
+  status: MachineStatus;
 };
 
 export type LatestReading = { value: number; readAt: string; isReset: boolean };

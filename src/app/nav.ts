@@ -19,6 +19,7 @@ const items: Entry[] = [
   { to: paths.stock.getHref(), label: 'Stock', permission: 'stock.read', for: ['technician', 'admin'] },
   { to: paths.purchasing.getHref(), label: 'Purchasing', permission: 'purchasing.read' },
   { to: paths.consumableLife.getHref(), label: 'Consumable life', permission: 'machines.read', for: office },
+  { to: paths.reliability.getHref(), label: 'Reliability', permission: 'machines.read', for: office },
   { to: paths.oilAnalysis.getHref(), label: 'Oil analysis', permission: 'oil.read', for: ['technician', 'admin'] },
   { to: paths.safety.getHref(), label: 'Safety', permission: 'safety.read', end: true },
   { to: paths.safetyPpe.getHref(), label: 'PPE check', permission: 'safety.ppe.sign', end: true },

@@ -55,6 +55,7 @@ export const router = createBrowserRouter([
       { path: paths.safetyAudit.path.slice(1), lazy: () => import('./routes/safety-audit') },
       { path: paths.safetySettings.path.slice(1), lazy: () => import('./routes/safety-settings') },
       { path: paths.machines.path.slice(1), lazy: () => import('./routes/machines') },
+      { path: paths.reliability.path.slice(1), lazy: () => import('./routes/reliability') },
       { path: paths.machine.path.slice(1), lazy: () => import('./routes/machines-detail') },
       { path: paths.meter.path.slice(1), lazy: () => import('./routes/meters-detail') },
       { path: paths.counterImport.path.slice(1), lazy: () => import('./routes/counter-import') },

@@ -1,6 +1,10 @@
 /** Every route path in one place; `getHref` builds links so paths are never typed twice. */
 export const paths = {
   home: { path: '/', getHref: () => '/' },
+  reliability: {
+    path: '/reliability',
+    getHref: (machineId?: string) => `/reliability${machineId ? `?machine=${machineId}` : ''}`,
+  },
   signIn: { path: '/sign-in', getHref: (redirectTo?: string) => `/sign-in${redirectTo ? `?redirectTo=${encodeURIComponent(redirectTo)}` : ''}` },
   forgotPassword: { path: '/forgot-password', getHref: () => '/forgot-password' },
   acceptInvite: { path: '/accept-invite', getHref: () => '/accept-invite' },

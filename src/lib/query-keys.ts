@@ -14,6 +14,7 @@ export const queryRoots = {
   jobRuns: ['job-runs'],
   lookups: ['lookups'],
   machines: ['machines'],
+  machineState: ['machine-state'],
   meters: ['meters'],
   oilAnalysis: ['oil-analysis'],
   orgSettings: ['org-settings'],

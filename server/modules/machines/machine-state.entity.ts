@@ -82,3 +82,28 @@ export const FailureCode = defineEntity({
   },
 });
 export type IFailureCode = InferEntity<typeof FailureCode>;
+
+/** A periodic light-curtain check on a press brake: what was measured and what the distance rule asked for. */
+export const LightCurtainCheck = defineEntity({
+  name: 'LightCurtainCheck',
+  tableName: 'light_curtain_check',
+  filters: orgFilter,
+  indexes: [{ properties: ['machine', 'checkedAt'] }],
+  properties: {
+    ...baseProperties,
+    organization: () => p.manyToOne(Organization).ref(),
+    machine: () => p.manyToOne(Machine).ref(),
+    stoppingTimeMs: p.double().$type<number>(),
+    detectionCapabilityMm: p.double().$type<number>(),
+    measuredDistanceMm: p.double().$type<number>(),
+    requiredDistanceMm: p.integer(),
+    approachSpeedMmS: p.integer(),
+    pass: p.boolean(),
+    note: p.string().length(500).nullable(),
+    checkedAt: p.datetime(),
+    checkedBy: () => p.manyToOne(User).ref(),
+    /** The stop a failed check opened, if the machine was in service. */
+    downtime: () => p.manyToOne(MachineDowntime).ref().nullable(),
+  },
+});
+export type ILightCurtainCheck = InferEntity<typeof LightCurtainCheck>;

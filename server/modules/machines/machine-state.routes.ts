@@ -6,12 +6,21 @@ import { singleFileUpload } from '../../http/upload';
 import type { Config } from '../../config';
 import { uuidParam } from '../../../shared/schemas/common';
 import { machineCodeParam } from '../../../shared/schemas/machines';
-import { faultReportSchema, returnToServiceSchema, takeOutOfServiceSchema, type MachineStatus } from '../../../shared/schemas/machine-state';
+import {
+  faultReportSchema,
+  lightCurtainCheckSchema,
+  returnToServiceSchema,
+  takeOutOfServiceSchema,
+  type MachineStatus,
+} from '../../../shared/schemas/machine-state';
+import { reliabilityQuery } from '../../../shared/schemas/reliability';
 import { downtimeCodesSchema, failureCodeInputSchema, failureCodeUpdateSchema } from '../../../shared/schemas/failure-codes';
 import { PHOTO_MAX_BYTES } from '../../../shared/schemas/photos';
 import { machineByCode } from './machines.service';
 import { machineStatus, returnToService, takeOutOfService, type MachineStatusValue } from './machine-state.service';
 import { reportFault } from './fault-report.service';
+import { reliabilityReport, machineDowntimes } from './reliability.service';
+import { listLightCurtainChecks, recordLightCurtainCheck } from './light-curtain.service';
 import { assertShopCode, createFailureCode, listFailureCodes, setDowntimeCodes, updateFailureCode } from './failure-codes.service';
 
 const upload = singleFileUpload('photo', PHOTO_MAX_BYTES, 'photo');
@@ -97,6 +106,26 @@ export function registerMachineStateRoutes(r: ApiRouter, config: Pick<Config, 'A
     async (_req, res, { params, body, principal: who }) => {
       await setDowntimeCodes(requestEm(), who, params.id, body);
       res.json({ ok: true });
+    },
+  );
+  route(r, 'get', '/machines/:code/downtimes', { access: 'machines.read', params: machineCodeParam }, async (_req, res, { params }) => {
+    const em = requestEm();
+    const m = await machineByCode(em, params.code);
+    res.json(await machineDowntimes(em, m.id));
+  });
+  route(r, 'get', '/reliability', { access: 'machines.read', query: reliabilityQuery }, async (_req, res, { query, principal: who }) => {
+    res.json(await reliabilityReport(requestEm(), who, query));
+  });
+  route(r, 'get', '/machines/:code/light-curtain-checks', { access: 'machines.read', params: machineCodeParam }, async (_req, res, { params }) => {
+    res.json(await listLightCurtainChecks(requestEm(), params.code));
+  });
+  route(
+    r,
+    'post',
+    '/machines/:code/light-curtain-checks',
+    { access: 'safety.inspection.perform', params: machineCodeParam, body: lightCurtainCheckSchema },
+    async (_req, res, { params, body, principal: who }) => {
+      res.status(201).json(await recordLightCurtainCheck(requestEm(), who, params.code, body));
     },
   );
 }

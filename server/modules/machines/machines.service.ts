@@ -5,6 +5,7 @@ import type { Principal } from '../../http/principal';
 import { conflict, fieldError, notFound } from '../../http/errors';
 import { recordActivity } from '../activity-log/activity-log.service';
 import { latestReadings } from '../meters/meters.service';
+import { machineStatuses, type MachineStatusValue } from './machine-state.service';
 import type { MachineDetail, MachineInput, MachineRow, MachineUpdate, MeterRow } from '../../../shared/schemas/machines';
 
 type Flat = IMachine;
@@ -31,7 +32,7 @@ export function treeOrder<T extends { id: string; code: string; parentId: string
   return out;
 }
 
-function toRow(m: Flat, meterCount: number): Omit<MachineRow, 'depth'> {
+function toRow(m: Flat, meterCount: number, status: MachineStatusValue | undefined): Omit<MachineRow, 'depth'> {
   return {
     id: m.id,
     code: m.code,
@@ -43,6 +44,7 @@ function toRow(m: Flat, meterCount: number): Omit<MachineRow, 'depth'> {
     notes: m.notes ?? null,
     active: m.active,
     meterCount,
+    status: { state: status?.state ?? 'in-service', since: status?.since?.toISOString() ?? null, reason: status?.reason ?? null },
   };
 }
 
@@ -57,7 +59,11 @@ async function meterCounts(em: EntityManager, orgId: string): Promise<Map<string
 export async function listMachines(em: EntityManager, who: Principal, opts: { includeInactive?: boolean } = {}): Promise<MachineRow[]> {
   const machines = await em.find(Machine, opts.includeInactive ? {} : { active: true });
   const counts = await meterCounts(em, who.orgId);
-  return treeOrder(machines.map((m) => toRow(m, counts.get(m.id) ?? 0)));
+  const states = await machineStatuses(
+    em,
+    machines.map((m) => m.id),
+  );
+  return treeOrder(machines.map((m) => toRow(m, counts.get(m.id) ?? 0, states.get(m.id))));
 }
 
 export async function getMachine(em: EntityManager, who: Principal, id: string): Promise<MachineDetail> {
@@ -65,7 +71,11 @@ export async function getMachine(em: EntityManager, who: Principal, id: string):
   if (!machine) throw notFound('Machine');
   const all = await em.find(Machine, {});
   const counts = await meterCounts(em, who.orgId);
-  const rows = all.map((m) => toRow(m, counts.get(m.id) ?? 0));
+  const states = await machineStatuses(
+    em,
+    all.map((m) => m.id),
+  );
+  const rows = all.map((m) => toRow(m, counts.get(m.id) ?? 0, states.get(m.id)));
   // Components: the subtree under this machine, in tree order, depth relative to it.
   const sub = new Set(subtreeIds(all, machine.id));
   const subtree = rows.filter((r) => sub.has(r.id)).map((r) => (r.id === machine.id ? { ...r, parentId: null } : r));

@@ -11,6 +11,7 @@ import { LowStockPanel } from '../../features/stock/components/low-stock-panel';
 import { StationPicker } from '../../features/station/components/station-picker';
 import { MyWorkPanel } from '../../features/work-orders/components/my-work-panel';
 import { SafetyHomePanel } from '../../features/safety/components/safety-home-panel';
+import { StoppedMachinesPanel } from '../../features/machine-state/components/stopped-machines-panel';
 
 export function Component() {
   const { data: me } = useMe();
@@ -20,6 +21,7 @@ export function Component() {
     <RoleHome role={me.role} name={me.user.name}>
       {/* At the machine the station is what an operator came for: first, above the fold on a phone. */}
       {me.role === 'operator' ? <StationPicker /> : null}
+      <StoppedMachinesPanel />
       <MyWorkPanel scope={me.role === 'admin' ? 'shop' : 'mine'} />
       <SafetyHomePanel role={me.role} />
       {me.role === 'operator' || me.role === 'technician' ? (

@@ -7,6 +7,10 @@ import { RecentChanges } from '../../features/station/components/recent-changes'
 import { ToolsSummary } from '../../features/station/components/tools-summary';
 import { RecordCountersPanel } from '../../features/station/components/record-counters-panel';
 import { DueList, LockoutBanner } from '../../features/station/components/station-status';
+import { useMachineStatus } from '../../features/machine-state/api/get-status';
+import { StateBanner } from '../../features/machine-state/components/state-banner';
+import { FaultReport } from '../../features/machine-state/components/fault-report';
+import { ReturnToServiceButton } from '../../features/machine-state/components/return-to-service';
 import { CutCheckForm } from '../../features/cut-checks/components/cut-check-form';
 import { CutChecksTable } from '../../features/cut-checks/components/cut-checks-table';
 import { MetersTable } from '../../features/meters/components/meters-table';
@@ -27,6 +31,7 @@ export function Component() {
   const { data: me } = useMe();
   const q = useStation(code!);
   usePageTitle(`Station ${code}`);
+  const status = useMachineStatus(code!);
   if (!me) return null;
   if (q.isError)
     return (
@@ -50,6 +55,7 @@ export function Component() {
   const s = q.data;
   return (
     <div className="space-y-4">
+      {status.data ? <StateBanner status={status.data} /> : null}
       <LockoutBanner lockouts={s.lockouts} />
       <div className="flex flex-wrap items-end justify-between gap-3">
         <div>
@@ -73,6 +79,14 @@ export function Component() {
             Print QR label
           </Link>
         </div>
+      </div>
+      <div className="no-print flex flex-wrap items-start gap-2">
+        {can(me.role, 'work-orders.raise') ? (
+          <div className="min-w-[16rem] flex-1">
+            <FaultReport code={s.machine.code} workOrderHref={paths.workOrder.getHref} />
+          </div>
+        ) : null}
+        {status.data?.state === 'out-of-service' && can(me.role, 'machines.state') ? <ReturnToServiceButton code={s.machine.code} /> : null}
       </div>
       <DueList code={s.machine.code} rows={s.due} />
       {s.torches.length === 0 && CUTS_WITH_PLASMA.includes(s.machine.kind as MachineKind) ? (

@@ -2,6 +2,7 @@ import { Link } from 'react-router-dom';
 import { createColumnHelper } from '@tanstack/react-table';
 import { DataTable } from '../../../components/ui/data-table';
 import { Badge, EmptyState } from '../../../components/ui/notice';
+import { MachineStateBadge } from '../../../components/ui/machine-state-badge';
 import { MACHINE_KIND_LABELS, type MachineRow } from '../../../../shared/schemas/machines';
 import { paths } from '../../../config/paths';
 
@@ -33,7 +34,18 @@ export function MachinesTable({ rows, loading, toolbar }: { rows: MachineRow[]; 
     col.accessor('location', { header: 'Location', cell: (c) => c.getValue() ?? '—' }),
     col.accessor('serial', { header: 'Serial', cell: (c) => c.getValue() ?? '—' }),
     col.accessor('meterCount', { header: 'Meters' }),
-    col.accessor('active', { header: 'Status', cell: (c) => (c.getValue() ? 'In service' : <Badge>Retired</Badge>) }),
+    col.accessor((r) => r.status.state, {
+      id: 'state',
+      header: 'State',
+      cell: (c) =>
+        c.row.original.active ? (
+          <span title={c.row.original.status.reason ?? undefined}>
+            <MachineStateBadge state={c.row.original.status.state} />
+          </span>
+        ) : (
+          <Badge>Retired</Badge>
+        ),
+    }),
   ];
   return (
     <DataTable

@@ -1,0 +1,51 @@
+import { useMutation, useQueryClient } from '@tanstack/react-query';
+import { api } from '../../../lib/api-client';
+import { queryRoots } from '../../../lib/query-keys';
+import type { FaultReportResult, MachineStatus } from '../../../../shared/schemas/machine-state';
+import { machineStateKeys } from './keys';
+
+export type FaultInput = { description: string; takeOutOfService: boolean; failureCode?: string | null; photo?: File | null };
+
+/** JSON for the common case; multipart with the details in `data` when a photo comes along. */
+export function reportFault(code: string, { photo, ...input }: FaultInput) {
+  const path = `/machines/${encodeURIComponent(code)}/faults`;
+  if (!photo) return api<FaultReportResult>(path, { method: 'POST', body: input });
+  const form = new FormData();
+  form.append('data', JSON.stringify(input));
+  form.append('photo', photo);
+  return api<FaultReportResult>(path, { method: 'POST', body: form });
+}
+
+/** A state change shows on the station, the machine list, the home page and the work lists. */
+function useRefreshAfter() {
+  const qc = useQueryClient();
+  return () =>
+    Promise.all([
+      qc.invalidateQueries({ queryKey: machineStateKeys.all }),
+      qc.invalidateQueries({ queryKey: queryRoots.machines }),
+      qc.invalidateQueries({ queryKey: queryRoots.station }),
+      qc.invalidateQueries({ queryKey: queryRoots.workOrders }),
+    ]);
+}
+
+export function useReportFault(code: string) {
+  const refresh = useRefreshAfter();
+  return useMutation({ mutationFn: (input: FaultInput) => reportFault(code, input), onSuccess: refresh });
+}
+
+export function useReturnToService(code: string) {
+  const refresh = useRefreshAfter();
+  return useMutation({
+    mutationFn: (note: string | null) => api<MachineStatus>(`/machines/${encodeURIComponent(code)}/return-to-service`, { method: 'POST', body: { note } }),
+    onSuccess: refresh,
+  });
+}
+
+export function useTakeOutOfService(code: string) {
+  const refresh = useRefreshAfter();
+  return useMutation({
+    mutationFn: (input: { reason: string; kind: 'failure' | 'planned' }) =>
+      api<MachineStatus>(`/machines/${encodeURIComponent(code)}/out-of-service`, { method: 'POST', body: input }),
+    onSuccess: refresh,
+  });
+}
