@@ -73,8 +73,17 @@ export function WorkOrderSummary({ wo, timeZone }: { wo: WorkOrderDetail; timeZo
             </Notice>
           ) : null}
           {wo.status === 'done' ? (
-            <Notice tone="safe" title="Signed off" role="status">
-              {wo.completedBy?.name} signed this off on {formatWhen(wo.completedAt, timeZone)}.
+            <Notice tone="safe" title={wo.stationRecord ? 'Done at the station' : 'Signed off'} role="status">
+              {wo.stationRecord ? (
+                <>
+                  {wo.completedBy?.name} recorded it at the station on {formatWhen(wo.completedAt, timeZone)}: <strong>{wo.stationRecord.summary}</strong>. That
+                  record did this work; the checklist was not answered separately.
+                </>
+              ) : (
+                <>
+                  {wo.completedBy?.name} signed this off on {formatWhen(wo.completedAt, timeZone)}.
+                </>
+              )}
               {wo.plan?.nextDueAt ? ` The plan is next due ${formatWhen(wo.plan.nextDueAt, timeZone)}.` : ''}
             </Notice>
           ) : null}
