@@ -11,6 +11,7 @@ import { recordActivity } from '../activity-log/activity-log.service';
 import { currentBaselines, refreshPlanStatus } from '../plans/plan-evaluation';
 import { findMachine, shopTimeZone } from '../plans/plans.service';
 import { raiseWorkOrders } from './raise-work-orders';
+import { returnToServiceOnWorkDone } from '../machines/machine-state.service';
 import { OPEN, closeBlockers, findWorkOrder, iso } from './work-orders.queries';
 import { WORK_STATE_LABELS } from '../../../shared/schemas/work-orders';
 import type {
@@ -261,6 +262,8 @@ export async function closeWorkOrder(em: EntityManager, who: Principal, id: stri
     wo.completedAt = now;
     wo.completedBy = tx.getReference(User, who.userId, { wrapped: true });
     await restartPlanCycle(tx, who, wo.plan?.id, now);
+    // A repair that ends a stop puts its machine back in service, signed by the same person.
+    await returnToServiceOnWorkDone(tx, who, wo.id);
     recordActivity(
       tx,
       who,

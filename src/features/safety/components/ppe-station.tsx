@@ -9,6 +9,7 @@ import { usePpeRequirements } from '../api/get-ppe-requirements';
 import { useRecordPpeCheck } from '../api/record-ppe-check';
 import { useSignFlow } from './sign-dialog';
 import { fmtDateTime, fmtTime } from './format';
+import { NoiseVerdicts } from './noise-verdicts';
 
 const big = 'flex min-h-16 w-full items-center justify-between gap-3 rounded border-2 px-4 py-3 text-left text-lg font-semibold';
 
@@ -177,10 +178,13 @@ export function PpeStation({ me, timeZone, initialMachineId }: { me: { name: str
             })}
           </ul>
           {req.hearing ? (
-            <p className="text-sm text-steel-700">
-              Noise at this task: 8-hour TWA {req.hearing.twaDbA ?? '—'} dBA (dose {req.hearing.dosePercent} %, OSHA 29 CFR 1910.95 App. A). Hearing protection
-              required from {req.hearing.requiredFromDbA} dBA — {req.hearing.ruleSource}.
-            </p>
+            <section aria-label="Noise at this task" className="space-y-1 text-steel-800">
+              <h3 className="text-sm font-semibold">Noise at this task (OSHA 29 CFR 1910.95 App. A)</h3>
+              <NoiseVerdicts hearing={req.hearing} />
+              <p className="text-sm text-steel-700">
+                Hearing protection required from {req.hearing.requiredFromDbA} dBA — {req.hearing.ruleSource}.
+              </p>
+            </section>
           ) : null}
           {req.lastCheckAt ? (
             <p className="text-sm text-steel-700">
