@@ -63,6 +63,8 @@ export const PERMISSIONS = {
   'safety.training.manage': ['safety'],
   'safety.hotwork.sign': ['operator', 'technician', 'safety'],
   'safety.correct': ['operator', 'technician', 'safety'],
+  /** Letting a machine run with a failed safety-critical check, signed with a reason. */
+  'safety.deviation.sign': ['safety'],
   'safety.audit': ['safety', 'admin'],
   'safety.settings.manage': ['safety', 'admin'],
 } as const satisfies Record<string, readonly Role[]>;

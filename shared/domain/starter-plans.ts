@@ -360,9 +360,9 @@ export const STARTER_PLANS: readonly StarterPlan[] = [
     instructions:
       'With the machine powered and in setting mode, test the light curtain or laser guard and the emergency stops as the maker’s test sheet describes. Do not run production if any test fails.',
     checklist: [
-      check('guard', 'Guard stops the beam when the test piece breaks it'),
-      check('estops', 'Every emergency stop halts the beam and needs a reset'),
-      check('footswitch', 'Foot switch cover and stop work'),
+      { ...check('guard', 'Guard stops the beam when the test piece breaks it'), safetyCritical: true },
+      { ...check('estops', 'Every emergency stop halts the beam and needs a reset'), safetyCritical: true },
+      { ...check('footswitch', 'Foot switch cover and stop work'), safetyCritical: true },
     ],
     estimatedMinutes: 15,
     responsibleRole: 'technician',

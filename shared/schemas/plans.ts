@@ -36,6 +36,8 @@ export const checklistTemplateItem = z
     unit: oneLine(z.string().trim().max(16)).optional(),
     min: num('a lower limit').optional(),
     max: num('an upper limit').optional(),
+    /** A failed answer stops the sign-off until repair work is raised or a deviation is signed. */
+    safetyCritical: z.boolean().optional(),
   })
   .refine((i) => i.kind === 'check' || (i.unit !== undefined && i.unit !== ''), { path: ['unit'], message: 'A measured value needs a unit' })
   .refine((i) => i.min === undefined || i.max === undefined || i.min <= i.max, { path: ['max'], message: 'The upper limit must not be below the lower limit' });

@@ -22,6 +22,8 @@ export const SIGN_MEANINGS = [
   'fire-watch-started',
   'fire-watch-ended',
   'correction',
+  'safety-work-signed-off',
+  'deviation-accepted',
 ] as const;
 export type SignMeaning = (typeof SIGN_MEANINGS)[number];
 
@@ -42,6 +44,8 @@ export const MEANING_LABELS: Record<SignMeaning, string> = {
   'fire-watch-started': 'Fire watch started',
   'fire-watch-ended': 'Fire watch ended',
   correction: 'Correction',
+  'safety-work-signed-off': 'Safety work signed off',
+  'deviation-accepted': 'Failed check: deviation accepted',
 };
 
 /** The sentence the signer agrees to by re-entering their password. */
@@ -61,6 +65,8 @@ export const MEANING_STATEMENTS: Record<SignMeaning, string> = {
   'fire-watch-started': 'I am keeping fire watch over the area where hot work ended.',
   'fire-watch-ended': 'I kept fire watch for the full time and found no fire or smouldering material.',
   correction: 'I correct an earlier safety record as described in the note.',
+  'safety-work-signed-off': 'I did this safety work as its checklist records, and the machine is fit to run.',
+  'deviation-accepted': 'I accept that the machine runs with this failed safety check, for the reason and under the measures I give.',
 };
 
 /** The password re-entered at signing (21 CFR 11.200-style re-authentication, house rule). */

@@ -43,7 +43,25 @@ export const CHECK_RESULTS = ['pass', 'fail', 'na'] as const;
 export type CheckResult = (typeof CHECK_RESULTS)[number];
 export const CHECK_RESULT_LABELS: Record<CheckResult, string> = { pass: 'OK', fail: 'Not OK', na: 'Not applicable' };
 
-export type ChecklistLine = ChecklistTemplateItem & { result: CheckResult | null; value: number | null; note: string | null };
+/** What was done about a failed safety-critical line: repair work raised, or a signed deviation. */
+export type FailedCheckFollowUp =
+  | { kind: 'repair'; workOrderId: string; number: number; by: string; at: string }
+  | { kind: 'deviation'; justification: string; by: string; at: string; signOffId: string };
+
+export type ChecklistLine = ChecklistTemplateItem & {
+  result: CheckResult | null;
+  value: number | null;
+  note: string | null;
+  followUp?: FailedCheckFollowUp | null;
+};
+
+export const checklistKeyParam = z.object({ id: z.uuid({ message: 'Not a valid id' }), key: z.string().min(1).max(40) });
+
+export const deviationInput = z.object({
+  justification: z.string().trim().min(10, 'Say why the machine may run and under which measures (at least 10 characters)').max(2000),
+  password: z.string().min(1, 'Enter your password to sign').max(200),
+});
+export type DeviationInput = z.infer<typeof deviationInput>;
 
 export const listWorkOrdersQuery = paging.extend({
   machineId: z.uuid().optional(),
@@ -126,6 +144,8 @@ export const usePartInput = z.object({
 export type UsePartInput = z.infer<typeof usePartInput>;
 
 export const closeWorkOrderInput = z.object({
+  /** Safety work is signed with the signer's password, like the safety log's other signatures. */
+  password: z.string().max(200).optional(),
   labourMinutes: z.number({ message: 'Enter the time spent' }).int('Whole minutes').min(0, 'Cannot be negative').max(100_000).optional(),
   notes: z.string().max(8000).optional(),
 });
@@ -186,7 +206,7 @@ export type WorkOrderDetail = {
 };
 
 /** Why a work order cannot be signed off yet: a code to branch on and the words to show. */
-export const CLOSE_BLOCKER_CODES = ['checklist_incomplete', 'measured_value_missing', 'lockout_not_released'] as const;
+export const CLOSE_BLOCKER_CODES = ['checklist_incomplete', 'measured_value_missing', 'lockout_not_released', 'safety_check_failed'] as const;
 export type CloseBlocker = { code: (typeof CLOSE_BLOCKER_CODES)[number]; message: string };
 
 /** The words of the `checklist_incomplete` blocker; the screen recounts it from the lines it shows. */

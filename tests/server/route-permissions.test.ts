@@ -40,6 +40,8 @@ const EXPECTED: Record<string, Role[] | 'public'> = {
   'POST /work-orders/:id/parts': ['technician', 'safety', 'admin'],
   'DELETE /work-orders/:id/parts/:lineId': ['technician', 'safety', 'admin'],
   'POST /work-orders/:id/close': ['technician', 'safety', 'admin'],
+  'POST /work-orders/:id/checklist/:key/repair': ['technician', 'safety', 'admin'],
+  'POST /work-orders/:id/checklist/:key/deviation': ['safety'],
   'POST /work-orders/:id/attachments': ['technician', 'safety', 'admin'],
   'GET /work-orders/:id/attachments/:attachmentId': ALL,
   'GET /work-orders/:id/pdf': ALL,

@@ -239,3 +239,29 @@ describe('a test coupon and a counter reading do the plans that name them', () =
     expect(foreign.body.fields[0].path).toBe('stationRecord.meterId');
   });
 });
+
+describe('the station counter form keeps the good reading beside a refused one', () => {
+  it('with keepValid the good reading is kept and the bad one comes back on its own field; without it nothing is written', async () => {
+    setClock(at(24 * 9));
+    const hours = (await post(tech, '/meters', { machineId: torch, code: 'arc-hours', name: 'Arc hours', kind: 'running-time', unit: 'h' }).expect(201)).body
+      .id;
+    const body = (keepValid: boolean) => ({
+      keepValid,
+      readings: [
+        { meterId: hours, value: 12 },
+        { meterId: starts, value: 3 }, // below the 1,800 already read: refused
+      ],
+    });
+    const all = await post(op, '/meter-readings', body(false)).expect(400);
+    expect(all.body.fields[0].path).toBe('readings.1.value');
+    expect((await get(op, `/meters/${hours}`).expect(200)).body.latest).toBeNull();
+
+    const some = await post(op, '/meter-readings', body(true)).expect(201);
+    expect(some.body.kept).toEqual([hours]);
+    expect(some.body.refused).toEqual([{ path: 'readings.1.value', meterId: starts, message: expect.stringMatching(/^Arc starts: 3 starts is lower/) }]);
+    expect((await get(op, `/meters/${hours}`).expect(200)).body.latest.value).toBe(12);
+
+    const none = await post(op, '/meter-readings', { keepValid: true, readings: [{ meterId: starts, value: 4 }] }).expect(400);
+    expect(none.body.fields).toEqual([{ path: 'readings.0.value', message: expect.stringMatching(/lower/) }]);
+  });
+});

@@ -162,6 +162,13 @@ export async function closeBlockers(em: EntityManager, wo: IWorkOrder): Promise<
   if (unanswered.length) out.push({ code: 'checklist_incomplete', message: checklistBlockerText(unanswered, wo.checklist.length) });
   const noValue = wo.checklist.filter((c) => c.kind === 'measure' && c.result !== null && c.result !== 'na' && c.value === null);
   if (noValue.length) out.push({ code: 'measured_value_missing', message: `Measured values missing: ${noValue.map((c) => c.label).join('; ')}` });
+  // A failed safety-critical check is not done work: it needs repair work raised or a signed deviation first.
+  const failedSafety = wo.checklist.filter((c) => c.safetyCritical && c.result === 'fail' && !c.followUp);
+  if (failedSafety.length)
+    out.push({
+      code: 'safety_check_failed',
+      message: `Safety-critical check failed: ${failedSafety.map((c) => c.label).join('; ')}. Raise repair work (the machine goes out of service until it is done) or have the safety officer sign a deviation`,
+    });
   if ((await lockoutRequired(em, wo)) && !wo.lockoutReleasedAt) {
     out.push({
       code: 'lockout_not_released',

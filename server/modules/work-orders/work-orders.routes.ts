@@ -8,8 +8,10 @@ import { uuidParam } from '../../../shared/schemas/common';
 import {
   ATTACHMENT_MAX_BYTES,
   ATTACHMENT_TYPES,
+  checklistKeyParam,
   checklistResultsInput,
   closeWorkOrderInput,
+  deviationInput,
   listWorkOrdersQuery,
   moveWorkOrderInput,
   notifyPreferenceInput,
@@ -21,6 +23,8 @@ import {
 import { z } from 'zod';
 import { closeWorkOrder, moveWorkOrder, raiseWorkOrder, returnPart, saveChecklist, updateWorkOrder, usePart } from './work-orders.service';
 import { getWorkOrder, listWorkOrders } from './work-orders.queries';
+import { acceptDeviation, raiseRepairForFailedCheck } from './failed-checks';
+import { confirmSignature } from '../safety/chain';
 import { addAttachment, getAttachment } from './work-order-attachments.service';
 import { getNotifyPreference, setNotifyPreference } from './notify-preference.service';
 import { workOrderPdf } from './work-order-pdf';
@@ -84,6 +88,27 @@ export function registerWorkOrderRoutes(r: ApiRouter, config: Config) {
     await returnPart(em(), who, params.id, params.lineId);
     res.json({ ok: true });
   });
+  // A failed safety-critical check: repair work (machine out of service until it is done), or a signed deviation.
+  route(
+    r,
+    'post',
+    '/work-orders/:id/checklist/:key/repair',
+    { access: 'work-orders.work', params: checklistKeyParam },
+    async (_req, res, { params, principal: who }) => {
+      res.status(201).json(await raiseRepairForFailedCheck(em(), who, params.id, params.key, config.APP_URL));
+    },
+  );
+  route(
+    r,
+    'post',
+    '/work-orders/:id/checklist/:key/deviation',
+    { access: 'safety.deviation.sign', params: checklistKeyParam, body: deviationInput },
+    async (_req, res, { params, body, principal: who }) => {
+      // The password first, as at every signature: a wrong one writes nothing.
+      await confirmSignature(em(), who, body.password);
+      res.status(201).json(await acceptDeviation(em(), who, params.id, params.key, body));
+    },
+  );
   route(
     r,
     'post',

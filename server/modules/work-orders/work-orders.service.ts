@@ -6,7 +6,8 @@ import { MaintenancePlan } from '../plans/plan.entity';
 import { Membership, User } from '../users/user.entity';
 import { applyStockChanges } from '../stock/stock.service';
 import type { Principal } from '../../http/principal';
-import { AppError, badRequest, conflict, notFound } from '../../http/errors';
+import { AppError, badRequest, conflict, fieldError, notFound } from '../../http/errors';
+import { appendSignOff, confirmSignature } from '../safety/chain';
 import { recordActivity } from '../activity-log/activity-log.service';
 import { currentBaselines, refreshPlanStatus } from '../plans/plan-evaluation';
 import { findMachine } from '../plans/plans.service';
@@ -263,6 +264,30 @@ export async function closeWorkOrder(em: EntityManager, who: Principal, id: stri
     wo.status = 'done';
     wo.completedAt = now;
     wo.completedBy = tx.getReference(User, who.userId, { wrapped: true });
+    if (wo.safetyCritical) {
+      // Safety work is signed like the safety log's other records: password again, into the signed chain.
+      if (!input.password) throw fieldError('password', 'Safety work is signed with your password: enter it to sign off');
+      await confirmSignature(tx, who, input.password);
+      const failed = wo.checklist.filter((c) => c.result === 'fail');
+      await appendSignOff(
+        tx,
+        who,
+        {
+          meaning: 'safety-work-signed-off',
+          subjectType: 'WorkOrder',
+          subjectId: wo.id,
+          machineId: wo.machine.id,
+          details: {
+            summary: `WO ${wo.number} signed off: ${wo.title}`,
+            workOrder: wo.number,
+            checklist: wo.checklist.map((c) => ({ key: c.key, result: c.result, value: c.value, followUp: c.followUp?.kind ?? null })),
+            failed: failed.map((c) => c.key),
+          },
+          note: input.notes ?? null,
+        },
+        now,
+      );
+    }
     await restartPlanCycle(tx, who, wo.plan?.id, now);
     // A repair that ends a stop puts its machine back in service, signed by the same person.
     await returnToServiceOnWorkDone(tx, who, wo.id);

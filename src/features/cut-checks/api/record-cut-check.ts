@@ -12,6 +12,13 @@ export function useRecordCutCheck() {
   const qc = useQueryClient();
   return useMutation({
     mutationFn: recordCutCheck,
-    onSuccess: () => Promise.all([qc.invalidateQueries({ queryKey: cutCheckKeys.all }), qc.invalidateQueries({ queryKey: queryRoots.station })]),
+    onSuccess: () =>
+      Promise.all([
+        qc.invalidateQueries({ queryKey: cutCheckKeys.all }),
+        qc.invalidateQueries({ queryKey: queryRoots.station }),
+        // A coupon may sign off the plan's work order that names it.
+        qc.invalidateQueries({ queryKey: queryRoots.workOrders }),
+        qc.invalidateQueries({ queryKey: queryRoots.plans }),
+      ]),
   });
 }

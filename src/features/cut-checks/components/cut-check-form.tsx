@@ -61,6 +61,7 @@ export function CutCheckForm({ torches, tolerance }: { torches: { id: string; co
         >
           Largest deviation {result.maxDeviationMm.toFixed(2)} mm against ±{result.toleranceMm} mm. Parts in the torch:{' '}
           {result.installedParts.map((p) => p.partNumber).join(', ') || 'none recorded'}.
+          {result.workOrders.length ? ` This coupon did the scheduled work ${result.workOrders.map((w) => `WO ${w.number}`).join(', ')}, now signed off.` : ''}
         </Notice>
       ) : null}
       {torches.length > 1 ? (

@@ -14,6 +14,7 @@ import { applyServerErrors } from '../../../lib/form-errors';
 import { inputClass } from './format';
 import { todayIn } from '../../../../shared/locale';
 import { useShopFormat } from '../../../lib/format';
+import { StationRecordField } from './station-record-field';
 
 type In = z.input<typeof planInput>;
 type Out = z.output<typeof planInput>;
@@ -58,6 +59,7 @@ export function toFormValues(p: PlanDetail): In {
     dueSoonDays: p.dueSoonDays,
     dueSoonFraction: p.dueSoonFraction,
     active: p.active,
+    stationRecord: p.stationRecord ? (({ summary: _summary, ...rule }) => rule)(p.stationRecord) : null,
     triggers: p.triggers.map((t): TriggerInput => {
       switch (t.kind) {
         case 'calendar-fixed':
@@ -281,6 +283,7 @@ export function PlanForm({
       dueSoonDays: 3,
       dueSoonFraction: 0.1,
       active: true,
+      stationRecord: null,
       triggers: [blank('calendar-floating', lookups.timeZone)],
     },
   });
@@ -325,6 +328,9 @@ export function PlanForm({
         'dueSoonFraction',
         'checklist',
         'triggers',
+        'stationRecord.kind',
+        'stationRecord.categories',
+        'stationRecord.meterId',
         ...(vals.triggers ?? []).flatMap((_, i) => ['start', 'rrule', 'every', 'unit', 'meterId', 'above', 'below', 'kind'].map((f) => `triggers.${i}.${f}`)),
         ...(vals.checklist ?? []).flatMap((_, i) => ['label', 'unit', 'min', 'max'].map((f) => `checklist.${i}.${f}`)),
         ...(vals.parts ?? []).flatMap((_, i) => [`parts.${i}.partTypeId`, `parts.${i}.quantity`]),
@@ -380,6 +386,15 @@ export function PlanForm({
             <input type="checkbox" className="h-6 w-6" {...register('safetyCritical')} /> Safety work (past due: safety officer told, notices always sent)
           </label>
         </fieldset>
+        <StationRecordField
+          control={control}
+          meters={meters}
+          errors={{
+            kind: (errs.stationRecord as { kind?: { message?: string } } | undefined)?.kind?.message ?? errs.stationRecord?.message,
+            categories: (errs.stationRecord as { categories?: { message?: string } } | undefined)?.categories?.message,
+            meterId: (errs.stationRecord as { meterId?: { message?: string } } | undefined)?.meterId?.message,
+          }}
+        />
       </section>
 
       <section className="space-y-3" aria-labelledby="plan-when">

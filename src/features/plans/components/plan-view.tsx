@@ -38,6 +38,8 @@ export function PlanView({ plan }: { plan: PlanDetail }) {
             <dd>{plan.lastDoneAt ? f.dateTime(plan.lastDoneAt) : 'Not yet'}</dd>
             <dt className="font-semibold">For (role or person)</dt>
             <dd>{plan.responsibleUser?.name ?? (plan.responsibleRole ? `Any ${ROLE_LABELS[plan.responsibleRole].toLowerCase()}` : '—')}</dd>
+            <dt className="font-semibold">Done at the station by</dt>
+            <dd>{plan.stationRecord?.summary ?? 'Nothing: a signed-off work order'}</dd>
           </dl>
           {plan.openWorkOrder ? (
             <Notice tone={plan.status === 'overdue' ? 'danger' : 'caution'} title="Work is open">

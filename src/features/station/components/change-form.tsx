@@ -18,6 +18,7 @@ import { WorkCaution } from '../../../components/ui/caution';
 import { Button } from '../../../components/ui/button';
 import { TextField } from '../../../components/ui/field';
 import { Notice } from '../../../components/ui/notice';
+import { selectOnFocus } from '../../../lib/select-on-focus';
 import { applyServerErrors } from '../../../lib/form-errors';
 import { useLogChange } from '../api/log-change';
 import { CHANGE_PHOTO_TYPES, PHOTO_MAX_BYTES, megabytes } from '../../../../shared/schemas/photos';
@@ -100,11 +101,12 @@ export function ChangeForm({
     // Parts not chosen explicitly go in as the same part number that comes out.
     const partTypeIds = Object.fromEntries(values.categories.map((c) => [c, values.partTypeIds[c] ?? installedPart(c)]).filter(([, id]) => id));
     try {
-      await log.mutateAsync({ ...values, partTypeIds, photo });
+      const res = await log.mutateAsync({ ...values, partTypeIds, photo });
       const names = values.categories
         .map((c) => `${PART_CATEGORY_LABELS[c].toLowerCase()} (${values.reasons[c] ? REMOVAL_REASON_LABELS[values.reasons[c]].toLowerCase() : '—'})`)
         .join(' and ');
-      onDone(`Change recorded on ${torch.code}: ${names}.${values.takeFromStock ? ' The new parts were taken out of stock.' : ''}`);
+      const work = res.workOrders.length ? ` It also did the scheduled work ${res.workOrders.map((w) => `WO ${w.number}`).join(', ')}, now signed off.` : '';
+      onDone(`Change recorded on ${torch.code}: ${names}.${values.takeFromStock ? ' The new parts were taken out of stock.' : ''}${work}`);
     } catch (err) {
       setFormError(
         applyServerErrors(err, setError, [
@@ -203,6 +205,7 @@ export function ChangeForm({
                   : 'Filled in from the latest reading; change it if the control shows more'
               }
               error={e.startsReading?.message}
+              onFocus={selectOnFocus}
               {...register('startsReading', { setValueAs: num })}
             />
             <ResetChoice id={`starts-reset-${torch.id}`} {...register('startsReset')} />
@@ -215,6 +218,7 @@ export function ChangeForm({
               inputMode="decimal"
               hint={watch('arcHoursReset') ? 'Enter what the counter shows now, after the reset' : 'Filled in from the latest reading'}
               error={e.arcHoursReading?.message}
+              onFocus={selectOnFocus}
               {...register('arcHoursReading', { setValueAs: num })}
             />
             <ResetChoice id={`hours-reset-${torch.id}`} {...register('arcHoursReset')} />

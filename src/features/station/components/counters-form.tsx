@@ -3,6 +3,7 @@ import type { MeterRow } from '../../../../shared/schemas/machines';
 import { Button } from '../../../components/ui/button';
 import { Notice } from '../../../components/ui/notice';
 import { ApiError, isPassingOutage } from '../../../lib/api-client';
+import { selectOnFocus } from '../../../lib/select-on-focus';
 import { useRecordCounters } from '../api/record-counters';
 import { ResetChoice } from './change-form';
 import { useShopFormat } from '../../../lib/format';
@@ -16,6 +17,10 @@ export function CountersForm({ meters }: { meters: MeterRow[] }) {
   const [errors, setErrors] = useState<Record<string, string>>({});
   const [message, setMessage] = useState<{ tone: 'safe' | 'caution' | 'danger'; text: string } | null>(null);
   const filled = meters.filter((m) => (values[m.id] ?? '').trim() !== '');
+  const label = (id: string) => {
+    const m = meters.find((x) => x.id === id);
+    return m ? `${m.machineCode} · ${m.name}` : 'a counter';
+  };
   const submit = async (e: React.FormEvent) => {
     e.preventDefault();
     setMessage(null);
@@ -23,10 +28,21 @@ export function CountersForm({ meters }: { meters: MeterRow[] }) {
     const bad = filled.filter((m) => !Number.isFinite(Number(values[m.id])));
     if (bad.length) return setErrors(Object.fromEntries(bad.map((m) => [m.id, 'Enter a number'])));
     try {
-      await record.mutateAsync({ readings: filled.map((m) => ({ meterId: m.id, value: Number(values[m.id]), isReset: !!resets[m.id] })) });
-      setMessage({ tone: 'safe', text: `Recorded ${filled.length} reading${filled.length === 1 ? '' : 's'}.` });
-      setValues({});
-      setResets({});
+      // Keep the good readings when one beside them is refused; the refused ones stay in their fields.
+      const res = await record.mutateAsync({
+        keepValid: true,
+        readings: filled.map((m) => ({ meterId: m.id, value: Number(values[m.id]), isReset: !!resets[m.id] })),
+      });
+      const kept = new Set(res.kept);
+      setValues((v) => Object.fromEntries(Object.entries(v).filter(([id]) => !kept.has(id))));
+      setResets((r) => Object.fromEntries(Object.entries(r).filter(([id]) => !kept.has(id))));
+      setErrors(Object.fromEntries(res.refused.map((f) => [f.meterId, f.message])));
+      const keptText = `Recorded ${res.kept.length} reading${res.kept.length === 1 ? '' : 's'}: ${res.kept.map(label).join(', ')}.`;
+      setMessage(
+        res.refused.length
+          ? { tone: 'caution', text: `${keptText} Not recorded: ${res.refused.map((f) => label(f.meterId)).join(', ')} (see the field).` }
+          : { tone: 'safe', text: keptText },
+      );
     } catch (err) {
       if (err instanceof ApiError && err.fields.length) {
         // Field paths are readings.<i>.value, in the order sent.
@@ -54,6 +70,7 @@ export function CountersForm({ meters }: { meters: MeterRow[] }) {
               autoComplete="off"
               value={values[m.id] ?? ''}
               onChange={(ev) => setValues((v) => ({ ...v, [m.id]: ev.target.value }))}
+              onFocus={selectOnFocus}
               aria-invalid={errors[m.id] ? true : undefined}
               aria-describedby={`counter-${m.id}-hint`}
               className={`block min-h-touch w-full rounded border bg-white px-3 ${errors[m.id] ? 'border-danger ring-1 ring-danger' : 'border-steel-400'}`}

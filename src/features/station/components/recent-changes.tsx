@@ -1,4 +1,5 @@
 import { useState } from 'react';
+import { Link } from 'react-router-dom';
 import { createColumnHelper } from '@tanstack/react-table';
 import { DataTable } from '../../../components/ui/data-table';
 import { EmptyState, Notice } from '../../../components/ui/notice';
@@ -6,6 +7,7 @@ import { REMOVAL_REASON_LABELS, type ChangeRow } from '../../../../shared/schema
 import { PART_CATEGORY_LABELS } from '../../../../shared/schemas/stock';
 import { useChanges } from '../api/get-changes';
 import { useShopFormat, type ShopFormat } from '../../../lib/format';
+import { paths } from '../../../config/paths';
 
 const col = createColumnHelper<ChangeRow>();
 
@@ -38,6 +40,24 @@ const columnsFor = (f: ShopFormat) => [
   }),
   col.accessor('pitDepthMm', { header: 'Pit', cell: (c) => (c.getValue() === null ? '—' : `${c.getValue()} mm`) }),
   col.accessor('by', { header: 'By', cell: (c) => c.getValue() ?? '—' }),
+  col.accessor((r) => r.workOrders.map((w) => w.number).join(' '), {
+    id: 'work',
+    header: 'Work done',
+    enableSorting: false,
+    cell: (c) =>
+      c.row.original.workOrders.length === 0
+        ? '—'
+        : c.row.original.workOrders.map((w) => (
+            <Link
+              key={w.id}
+              to={paths.workOrder.getHref(w.id)}
+              title={w.title}
+              className="mr-2 inline-flex min-h-touch items-center font-semibold text-mandatory-ink underline"
+            >
+              WO {w.number} signed off
+            </Link>
+          )),
+  }),
   col.accessor('hasPhoto', {
     header: 'Photo',
     enableSorting: false,

@@ -14,6 +14,7 @@ const words: Record<string, string> = {
   'work-order.updated': 'Details changed',
   'work-order.escalated': 'Past due: admin told',
   'work-order.closed': 'Signed off',
+  'work-order.done-at-station': 'Done by a station record',
 };
 
 export function WorkHistory({ wo }: { wo: WorkOrderDetail }) {

@@ -76,8 +76,17 @@ export function WorkOrderSummary({ wo }: { wo: WorkOrderDetail }) {
           {wo.status === 'done' ? (
             // Focus lands here once the work is signed off (the sign-off panel goes away).
             <div id="work-signed-off" tabIndex={-1}>
-              <Notice tone="safe" title="Signed off">
-                {wo.completedBy?.name} signed this off on {f.dateTime(wo.completedAt)}.
+              <Notice tone="safe" title={wo.stationRecord ? 'Done at the station' : 'Signed off'}>
+                {wo.stationRecord ? (
+                  <>
+                    {wo.completedBy?.name} recorded it at the station on {f.dateTime(wo.completedAt)}: <strong>{wo.stationRecord.summary}</strong>. That record
+                    did this work; the checklist was not answered separately.
+                  </>
+                ) : (
+                  <>
+                    {wo.completedBy?.name} signed this off on {f.dateTime(wo.completedAt)}.
+                  </>
+                )}
                 {wo.plan?.nextDueAt ? ` The plan is next due ${f.dateTime(wo.plan.nextDueAt)}.` : ''}
               </Notice>
             </div>
