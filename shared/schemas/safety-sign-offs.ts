@@ -22,6 +22,11 @@ export const SIGN_MEANINGS = [
   'fire-watch-started',
   'fire-watch-ended',
   'correction',
+  'absence-verified',
+  'contact-attempted',
+  'removal-authorized',
+  'absent-locks-removed',
+  'employee-informed',
 ] as const;
 export type SignMeaning = (typeof SIGN_MEANINGS)[number];
 
@@ -42,6 +47,11 @@ export const MEANING_LABELS: Record<SignMeaning, string> = {
   'fire-watch-started': 'Fire watch started',
   'fire-watch-ended': 'Fire watch ended',
   correction: 'Correction',
+  'absence-verified': 'Absent employee: not at facility',
+  'contact-attempted': 'Absent employee: contact attempted',
+  'removal-authorized': 'Absent employee: removal authorized',
+  'absent-locks-removed': 'Absent employee: locks removed',
+  'employee-informed': 'Absent employee: informed',
 };
 
 /** The sentence the signer agrees to by re-entering their password. */
@@ -61,6 +71,11 @@ export const MEANING_STATEMENTS: Record<SignMeaning, string> = {
   'fire-watch-started': 'I am keeping fire watch over the area where hot work ended.',
   'fire-watch-ended': 'I kept fire watch for the full time and found no fire or smouldering material.',
   correction: 'I correct an earlier safety record as described in the note.',
+  'absence-verified': 'I verified that the employee who applied these locks is not at the facility.',
+  'contact-attempted': 'I made every reasonable effort to tell the employee that their locks are to be removed, as described.',
+  'removal-authorized': 'As safety officer I authorize removal of the absent employee’s locks by the supervisor named.',
+  'absent-locks-removed': 'I checked the work area and that everyone is clear, then removed the absent employee’s locks listed.',
+  'employee-informed': 'I told the employee that their locks were removed, before they resumed work at the facility.',
 };
 
 /** The password re-entered at signing (21 CFR 11.200-style re-authentication, house rule). */

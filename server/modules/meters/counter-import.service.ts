@@ -1,4 +1,5 @@
 import { hash } from 'node:crypto';
+import { checkCounterAdvances } from '../safety/lockout-alarms';
 import type { PoolClient } from 'pg';
 import type { EntityManager } from '@mikro-orm/postgresql';
 import { Meter } from './meter.entity';
@@ -235,6 +236,7 @@ export async function importCounterCsv(em: EntityManager, who: Principal, filePa
     const added = await insertFromStaging(client, who.orgId, who.userId);
     await progress?.({ phase: 'writing', done: preview.toAdd, total: preview.toAdd });
     const duplicates = preview.duplicates + (preview.toAdd - added);
+    if (added > 0) await checkCounterAdvances(tx, who.orgId, 'all-locked');
     recordActivity(
       tx,
       who,

@@ -1,6 +1,7 @@
 import type { EntityManager } from '@mikro-orm/postgresql';
 import { LockMode } from '@mikro-orm/core';
 import { Meter, MeterReading, type IMeter } from './meter.entity';
+import { checkCounterAdvances } from '../safety/lockout-alarms';
 import { Machine } from '../machines/machine.entity';
 import type { Principal } from '../../http/principal';
 import { AppError, conflict, fieldError, notFound } from '../../http/errors';
@@ -167,6 +168,8 @@ export async function recordReading(
 export async function addReading(em: EntityManager, who: Principal, meterId: string, input: ReadingInput): Promise<{ id: string }> {
   return em.transactional(async (tx) => {
     const r = await recordReading(tx, who, meterId, input);
+    await tx.flush();
+    await checkCounterAdvances(tx, who.orgId, [meterId]);
     recordActivity(
       tx,
       who,
@@ -192,6 +195,12 @@ export async function addReadings(em: EntityManager, who: Principal, input: Read
         throw err;
       }
     }
+    await tx.flush();
+    await checkCounterAdvances(
+      tx,
+      who.orgId,
+      input.readings.map((r) => r.meterId),
+    );
     recordActivity(tx, who, 'meter.readings-recorded', { type: 'Meter' }, { count: ids.length });
     return { ids };
   });

@@ -5,7 +5,7 @@ import { TorchPanel } from '../../features/station/components/torch-panel';
 import { RecentChanges } from '../../features/station/components/recent-changes';
 import { ToolsSummary } from '../../features/station/components/tools-summary';
 import { RecordCountersPanel } from '../../features/station/components/record-counters-panel';
-import { DueList, LockoutBanner } from '../../features/station/components/station-status';
+import { DueList, LockoutAlarmBanner, LockoutBanner } from '../../features/station/components/station-status';
 import { CutCheckForm } from '../../features/cut-checks/components/cut-check-form';
 import { CutChecksTable } from '../../features/cut-checks/components/cut-checks-table';
 import { MetersTable } from '../../features/meters/components/meters-table';
@@ -48,6 +48,7 @@ export function Component() {
   const s = q.data;
   return (
     <div className="space-y-4">
+      <LockoutAlarmBanner alarms={s.alarms ?? []} />
       <LockoutBanner lockouts={s.lockouts} />
       <div className="flex flex-wrap items-end justify-between gap-3">
         <div>

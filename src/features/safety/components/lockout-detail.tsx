@@ -178,7 +178,7 @@ export function LockoutDetailView({ lockout: l, me, timeZone }: { lockout: Locko
               onClick={() =>
                 run(
                   'isolation-verified',
-                  (password) => verify.mutateAsync({ id: l.id, body: { testedPointIds: tested, startAttempted: true, password } }),
+                  (password) => verify.mutateAsync({ id: l.id, body: { testedPointIds: tested, readings: [], startAttempted: true, password } }),
                   'Isolation verified and signed. Work may start.',
                 )
               }

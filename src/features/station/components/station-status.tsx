@@ -1,5 +1,5 @@
 import { Link } from 'react-router-dom';
-import type { StationDueRow, StationLockout } from '../../../../shared/schemas/consumables';
+import type { StationAlarm, StationDueRow, StationLockout } from '../../../../shared/schemas/consumables';
 import { WORK_STATE_LABELS } from '../../../../shared/schemas/work-orders';
 import { DueBadge, LockoutBadge } from '../../../components/ui/work-badges';
 import { paths } from '../../../config/paths';
@@ -19,6 +19,31 @@ export function LockoutBanner({ lockouts }: { lockouts: StationLockout[] }) {
           <li key={l.id}>
             {l.machineCode} · {l.reason} · locked since {when.format(new Date(l.appliedAt))} by {l.heldBy}
             {l.state === 'verified' ? ' · isolation verified' : ''}
+          </li>
+        ))}
+      </ul>
+    </div>
+  );
+}
+
+/** A counter rose while the machine was locked out: the machine ran, or the procedure misses an energy source. */
+export function LockoutAlarmBanner({ alarms }: { alarms: StationAlarm[] }) {
+  if (alarms.length === 0) return null;
+  return (
+    <div role="alert" data-testid="lockout-alarm" className="rounded border-4 border-danger bg-white px-4 py-3 text-danger">
+      <p className="text-xl font-bold">Alarm: counter rose while locked out</p>
+      <ul className="mt-1 space-y-1 text-steel-900">
+        {alarms.map((a) => (
+          <li key={a.id}>
+            {when.format(new Date(a.at))} · {a.reason}
+            {a.lockoutId ? (
+              <>
+                {' · '}
+                <Link to={paths.safetyLockout.getHref(a.lockoutId)} className="font-semibold underline">
+                  open the lockout
+                </Link>
+              </>
+            ) : null}
           </li>
         ))}
       </ul>
