@@ -23,7 +23,9 @@ export async function checkCounterAdvances(tx: EntityManager, orgId: string, met
   if (meterIds === 'all-locked') {
     // An import may touch any meter: check those on machines that have been locked out and verified.
     const rows = await tx.execute<{ id: string }[]>(
-      `select mt.id from meter mt where mt.organization_id = ? and exists (select 1 from safety_lockout l where l.machine_id = mt.machine_id and l.verified_at is not null)`,
+      `select mt.id from meter mt join machine m on m.id = mt.machine_id where mt.organization_id = ?
+          and exists (select 1 from safety_lockout l where l.verified_at is not null and l.organization_id = mt.organization_id
+                        and (l.machine_id = m.id or l.machine_id = m.parent_id or l.machine_id in (select p.parent_id from machine p where p.id = m.parent_id)))`,
       [orgId],
     );
     meterIds = rows.map((r) => r.id);
@@ -38,9 +40,13 @@ export async function checkCounterAdvances(tx: EntityManager, orgId: string, met
   const now = clock.now();
   let raised = 0;
   for (const meter of meters) {
+    // A lockout on the cell locks its components too: take lockouts on the meter's machine and every machine above it.
     const lockouts = await tx.execute<LockoutSql[]>(
-      `select id, verified_at, released_at, primary_id from safety_lockout where organization_id = ? and machine_id = ? and verified_at is not null`,
-      [orgId, meter.machine_id],
+      `with recursive up(id, parent_id) as (
+         select id, parent_id from machine where id = ? union all select m.id, m.parent_id from machine m join up on m.id = up.parent_id)
+       select id, verified_at, released_at, primary_id from safety_lockout
+        where organization_id = ? and machine_id in (select id from up) and verified_at is not null`,
+      [meter.machine_id, orgId],
     );
     if (lockouts.length === 0) continue;
     const windows = lockouts.map((l) => ({
@@ -52,10 +58,10 @@ export async function checkCounterAdvances(tx: EntityManager, orgId: string, met
     const readings = await tx.execute<{ read_at: Date; value: number }[]>(
       `select r.read_at, r.value from meter_reading r
         where r.organization_id = ? and r.meter_id = ?
-          and exists (select 1 from safety_lockout l where l.organization_id = ? and l.machine_id = ? and l.verified_at is not null
+          and exists (select 1 from safety_lockout l where l.id = any(?::uuid[])
                        and r.read_at >= l.verified_at and r.read_at <= coalesce(l.released_at, ?))
         order by r.read_at`,
-      [orgId, meter.id, orgId, meter.machine_id, now],
+      [orgId, meter.id, `{${lockouts.map((l) => l.id).join(',')}}`, now],
     );
     const advances = meterAdvancesDuringLockouts(
       windows,

@@ -23,6 +23,7 @@ import { useSignFlow } from './sign-dialog';
 import { useLinkedWorkOrder } from '../api/get-linked-work-order';
 import { LockoutStateBadge } from './badges';
 import { fmtDateTime } from './format';
+import { AbsentRemovalPanel } from './absent-removal-panel';
 
 const pointCol = createColumnHelper<LockPointRow>();
 type Me = { id: string; name: string; role: Role };
@@ -364,6 +365,7 @@ export function LockoutDetailView({ lockout: l, me, timeZone }: { lockout: Locko
           ))}
         </ol>
       </Panel>
+      <AbsentRemovalPanel lockout={l} me={me} timeZone={timeZone} run={run} />
       {dialog}
     </div>
   );
