@@ -24,13 +24,25 @@ import { contentDigest } from '../server/modules/safety/procedures.service';
 import { deriveRequiredItems } from '../shared/schemas/safety-ppe-derive';
 import { DEFAULT_SAFETY_SETTINGS } from '../server/modules/safety/settings';
 import type { Principal } from '../server/http/principal';
-import { pointTag, type ProcedureContent, type EnergySource } from '../shared/schemas/safety-procedures';
+import { pointTag, type ProcedureContent, type EnergySource, type MinorTask } from '../shared/schemas/safety-procedures';
 import type { PpeItem } from '../shared/schemas/safety-ppe';
 import type { SeedStep } from './demo';
 import { clock } from '../shared/clock';
 import { shopLocale } from '../shared/locale';
 
 const src = (s: EnergySource) => s;
+
+/** Torch consumable change: minor servicing under alternative measures (OSHA 29 CFR 1910.147(a)(2)(ii) note). */
+export const TORCH_TASK = 'torch-consumables';
+const torchConsumables = (source: string): MinorTask => ({
+  key: TORCH_TASK,
+  name: 'Torch consumable change (electrode, nozzle, shield, swirl ring)',
+  alternativeMeasures: [
+    `Plasma power source off at its own disconnect ${source}, the control's torch-change mode on, and its key kept by the operator`,
+    'Wait for the torch to cool; parts out with the torch wrench only, never by hand near the arc path',
+    'Any other work on the torch, leads or power source: full lockout under this procedure',
+  ],
+});
 
 function cellContent(m: IMachine, extraStep?: string): ProcedureContent {
   return {
@@ -108,6 +120,7 @@ function cellContent(m: IMachine, extraStep?: string): ProcedureContent {
       'Make sure everyone is clear of the cell.',
       'Tell the operator that locks are coming off; remove only your own locks and tags.',
     ],
+    minorTasks: [torchConsumables(`Q5 (${pointTag(m.code, 4)})`)],
   };
 }
 
@@ -156,6 +169,7 @@ function tableContent(m: IMachine): ProcedureContent {
       verify: ['Try to jog the gantry and fire the torch from the control; both must do nothing.'],
     },
     release: ['Clear tools and offcuts from the slats.', 'Make sure everyone is clear.', 'Tell the operator; remove your own locks.'],
+    minorTasks: [torchConsumables(`Q2 (${pointTag(m.code, 2)})`)],
   };
 }
 
@@ -368,7 +382,7 @@ export const seedSafetyDemo: SeedStep = async (rootEm, shop) => {
         version: 1,
         status: p.v2 ? 'superseded' : 'approved',
         content: p.content,
-        author: safety.userId,
+        author: tech.userId,
         retrainingRequired: true,
         createdAt: day(p.approvedDaysAgo + 3, 9),
       });
@@ -408,7 +422,7 @@ export const seedSafetyDemo: SeedStep = async (rootEm, shop) => {
           version: 2,
           status: 'approved',
           content: v2c,
-          author: safety.userId,
+          author: tech.userId,
           retrainingRequired: true,
           createdAt: day(p.v2.daysAgo + 2, 9),
         });
@@ -441,13 +455,19 @@ export const seedSafetyDemo: SeedStep = async (rootEm, shop) => {
       }
     }
 
-    // Training: the technician (authorized) and the operator (affected) on version 1; the technician again on the first cell's version 2.
+    // Training: the technician and the safety officer (authorized: the safety officer joins group lockouts
+    // only with a training record) and the operator (affected) on version 1, the authorized ones again on
+    // the first cell's version 2; the operator also on the torch consumable change as minor servicing
+    // where the procedure names it.
     for (const p of plans) {
       const procId = procs.get(p.m.id)!;
-      for (const [who, kind, daysAgo, version] of [
-        [tech, 'authorized', p.approvedDaysAgo - 4, 1],
-        [operator, 'affected', p.approvedDaysAgo - 5, 1],
-        ...(p.v2 ? [[tech, 'authorized', p.v2.daysAgo - 6, 2] as const] : []),
+      const torchTask = (p.v2?.content ?? p.content).minorTasks?.find((t) => t.key === TORCH_TASK)?.key ?? null;
+      for (const [who, kind, daysAgo, version, minorTask] of [
+        [tech, 'authorized', p.approvedDaysAgo - 4, 1, null],
+        [safety, 'authorized', p.approvedDaysAgo - 4, 1, null],
+        [operator, 'affected', p.approvedDaysAgo - 5, 1, null],
+        ...(p.v2 ? [[tech, 'authorized', p.v2.daysAgo - 6, 2, null] as const, [safety, 'authorized', p.v2.daysAgo - 6, 2, null] as const] : []),
+        ...(torchTask ? [[operator, 'minor-servicing', (p.v2?.daysAgo ?? p.approvedDaysAgo) - 5, p.v2 ? 2 : 1, torchTask] as const] : []),
       ] as const) {
         const at = day(daysAgo, 14);
         events.push({
@@ -459,6 +479,7 @@ export const seedSafetyDemo: SeedStep = async (rootEm, shop) => {
               procedure: procId,
               procedureVersion: version,
               kind,
+              minorTask,
               trainedOn: dateOf(at),
               trainer: safety.userId,
               note: null,
@@ -472,12 +493,13 @@ export const seedSafetyDemo: SeedStep = async (rootEm, shop) => {
                 subjectId: rec.id,
                 machineId: p.m.id,
                 details: {
-                  summary: `${who.name}: ${p.m.code} ${p.content.title} v${version}, ${kind} employee, ${dateOf(at)}`,
+                  summary: `${who.name}: ${p.m.code} ${p.content.title} v${version}, ${kind === 'minor-servicing' ? `minor servicing (${minorTask})` : `${kind} employee`}, ${dateOf(at)}`,
                   personId: who.userId,
                   personName: who.name,
                   procedureId: procId,
                   procedureVersion: version,
                   kind,
+                  minorTask,
                   trainedOn: dateOf(at),
                 },
               },

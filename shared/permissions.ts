@@ -54,7 +54,11 @@ export const PERMISSIONS = {
   'cutchecks.record': ['operator', 'technician', 'admin'],
   // Safety log: the safety officer writes procedures and audits; technicians are the authorized employees who lock out.
   'safety.read': everyone,
+  /** Technicians write and revise procedures for the machines they service; a safety officer approves (never their own draft). */
+  'safety.procedures.draft': ['technician', 'safety'],
   'safety.procedures.manage': ['safety'],
+  /** Removal of an absent employee's lock (1910.147(e)(3)): a supervisor runs the steps, the safety officer authorizes. */
+  'safety.lockout.absent-removal': ['admin', 'technician', 'safety'],
   'safety.lockout.sign': ['technician', 'safety'],
   'safety.ppe.sign': ['operator', 'technician', 'safety'],
   'safety.ppe.manage': ['safety'],

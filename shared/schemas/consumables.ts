@@ -175,6 +175,8 @@ export type ChangeRow = {
 export type ReferenceValue = { value: number; unit: string; source: string; overridden: boolean };
 
 export type StationLockout = { id: string; machineCode: string; state: 'locked' | 'verified'; appliedAt: string; reason: string; heldBy: string };
+/** A counter that rose while the machine was locked out: shown at the machine until the lockout ends (and a week after). */
+export type StationAlarm = { id: string; machineCode: string; at: string; reason: string; lockoutId: string | null };
 export type StationDueRow = {
   id: string;
   number: number;
@@ -197,6 +199,8 @@ export type StationView = {
   lockouts: StationLockout[];
   /** Open work orders on the machine or its components, soonest due first. */
   due: StationDueRow[];
+  /** Alarms raised on the machine: counters that advanced during a verified lockout. */
+  alarms: StationAlarm[];
   reference: { pitLimitMm: ReferenceValue; cutToleranceMm: ReferenceValue; changeReliability: ReferenceValue };
 };
 

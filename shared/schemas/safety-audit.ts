@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { paging } from './paging';
 
 export const complianceQuery = z.object({
   /** Window for missed PPE checks and the charts. */
@@ -35,4 +36,25 @@ export type TimelineWeek = {
   lockouts: number;
   signOffs: number;
   inspectionsCurrentPct: number | null;
+};
+
+export const SAFETY_EVENT_KIND_LABELS = { refused: 'Refused', alarm: 'Alarm' } as const;
+
+export const listSafetyEventsQuery = paging.extend({
+  kind: z.enum(['refused', 'alarm']).optional(),
+  machineId: z.uuid({ message: 'Not a valid machine id' }).optional(),
+});
+
+/** A refused attempt or a raised alarm, as the safety audit lists them beside the signatures. */
+export type SafetyEventRow = {
+  id: string;
+  at: string;
+  kind: 'refused' | 'alarm';
+  action: string;
+  reason: string;
+  personId: string | null;
+  personName: string | null;
+  machineId: string | null;
+  machineCode: string | null;
+  subjectId: string | null;
 };

@@ -58,9 +58,25 @@ export const applyLockoutFormSchema = applyLockoutFields.superRefine(distinctLoc
 export const applyLockoutSchema = applyLockoutFields.extend({ password: signPassword }).superRefine(distinctLocks);
 export type ApplyLockoutInput = z.infer<typeof applyLockoutSchema>;
 
+/**
+ * A zero-energy reading at one isolation point: the value, its unit, the instrument, and the tester
+ * proved on a known source before and after (live-dead-live, common practice in NFPA 70E work).
+ * The unit and the proving are checked by the server so that a refusal is recorded in the audit.
+ */
+export const zeroEnergyReadingSchema = z.object({
+  pointId: z.uuid({ message: 'Choose the isolation point' }),
+  value: z.number({ message: 'Enter the reading' }).finite(),
+  unit: z.string().trim().max(12, 'Unit: at most 12 characters').default(''),
+  instrument: oneLine(z.string().trim().min(2, 'Name the instrument (type and asset number)').max(80)),
+  testerProvedBefore: z.boolean().default(false),
+  testerProvedAfter: z.boolean().default(false),
+});
+export type ZeroEnergyReading = z.infer<typeof zeroEnergyReadingSchema>;
+
 export const verifyLockoutSchema = z.object({
   /** Every point must be tested: the client sends the ids ticked one by one. */
   testedPointIds: z.array(z.uuid()).min(1, 'Tick each isolation point after testing it'),
+  readings: z.array(zeroEnergyReadingSchema).max(20).default([]),
   startAttempted: z.literal(true, { message: 'Try to start the machine with its normal controls first (1910.147(d)(6))' }),
   note: z.string().trim().max(500).optional(),
   password: signPassword,
@@ -143,4 +159,32 @@ export type LockoutDetail = LockoutRow & {
   points: LockPointRow[];
   members: { id: string; userId: string; name: string; lockNumber: string; joinedAt: string; leftAt: string | null }[];
   signOffs: { id: string; seq: number; signedAt: string; signerName: string; meaning: string; statement: string }[];
+};
+
+export const lockRegisterQuery = paging.extend({
+  /** Part of a lock number or a holder's name. */
+  q: z.string().trim().max(60).optional(),
+  status: z.enum(['all', 'applied', 'free']).default('all'),
+});
+export type LockRegisterQuery = z.infer<typeof lockRegisterQuery>;
+
+/** One use of a lock: on an isolation point of a lockout, or as a personal lock on a group lockout. */
+export type LockUse = {
+  lockoutId: string;
+  machineCode: string;
+  where: string;
+  personal: boolean;
+  holderName: string;
+  appliedAt: string;
+  removedAt: string | null;
+  removedByName: string | null;
+};
+
+/** A lock by its number: who holds it, where it is applied now, and where it has been. */
+export type LockRegisterRow = {
+  lockNumber: string;
+  holderName: string;
+  current: LockUse | null;
+  uses: number;
+  history: LockUse[];
 };

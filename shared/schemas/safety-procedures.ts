@@ -69,6 +69,14 @@ export const energySourceSchema = z.object({
 });
 export type EnergySource = z.infer<typeof energySourceSchema>;
 
+const MINOR_KEY = /^[a-z][a-z0-9-]{1,39}$/;
+export const minorTaskSchema = z.object({
+  key: z.string().trim().regex(MINOR_KEY, 'Use a short key: lowercase letters, digits and dashes, e.g. torch-consumables'),
+  name: text('Task name', 120),
+  alternativeMeasures: z.array(text('Measure', 300)).min(1, 'Name at least one alternative measure').max(10),
+});
+export type MinorTask = z.infer<typeof minorTaskSchema>;
+
 const stepList = (phase: ProcedurePhase) =>
   z
     .array(text('Step', 400), { message: `${PHASE_LABELS[phase].title}: add at least one step` })
@@ -89,9 +97,21 @@ const contentObject = z.object({
   }),
   /** Release from lockout, OSHA 29 CFR 1910.147(e)(1)-(3). */
   release: z.array(text('Release step', 400)).min(1, 'Add at least one release step').max(30),
+  /**
+   * Minor servicing done during normal production without a full lockout, because the task is
+   * routine, repetitive and integral and the alternative measures give effective protection
+   * (OSHA 29 CFR 1910.147(a)(2)(ii), note). Each names its own measures; a person trained on the
+   * task may do it under these measures instead of the lockout.
+   */
+  minorTasks: z.array(minorTaskSchema).max(10).optional(),
 });
 
-function uniqueKeys(v: { sources: { key: string }[] }, ctx: z.RefinementCtx) {
+function uniqueKeys(v: { sources: { key: string }[]; minorTasks?: { key: string }[] }, ctx: z.RefinementCtx) {
+  const tasks = new Set<string>();
+  (v.minorTasks ?? []).forEach((t, i) => {
+    if (tasks.has(t.key)) ctx.addIssue({ code: 'custom', path: ['minorTasks', i, 'key'], message: `Task ${t.key} is named twice` });
+    tasks.add(t.key);
+  });
   const seen = new Set<string>();
   v.sources.forEach((s, i) => {
     if (seen.has(s.key)) ctx.addIssue({ code: 'custom', path: ['sources', i, 'key'], message: `Tag ${s.key} is used twice` });

@@ -10,6 +10,8 @@ export const inspectionSchema = z.object({
   employeeIds: z.array(z.uuid()).min(1, 'Include at least one employee who uses the procedure').max(50),
   findings: z.string().trim().min(3, 'Describe what you saw').max(2000),
   deviations: z.string().trim().max(2000).optional(),
+  /** Who the deviations concern; each is sent back to training. */
+  deviationEmployeeIds: z.array(z.uuid()).max(50).default([]),
   responsibilitiesReviewed: z.literal(true, { message: 'Review each employee’s responsibilities with them (1910.147(c)(6)(i)(C))' }),
   password: signPassword,
 });
@@ -30,21 +32,25 @@ export type InspectionRow = {
   employees: { id: string; name: string }[];
   findings: string;
   deviations: string | null;
+  deviationEmployees: { id: string; name: string }[];
   certifiedAt: string | null;
   certifiedByName: string | null;
 };
 
-export const TRAINING_KINDS = ['authorized', 'affected'] as const;
+export const TRAINING_KINDS = ['authorized', 'affected', 'minor-servicing'] as const;
 export type TrainingKind = (typeof TRAINING_KINDS)[number];
 export const TRAINING_KIND_LABELS: Record<TrainingKind, string> = {
   authorized: 'Authorized employee (applies locks)',
   affected: 'Affected employee (works near)',
+  'minor-servicing': 'Minor servicing task (alternative measures)',
 };
 
 export const trainingSchema = z.object({
   userId: z.uuid({ message: 'Choose the person' }),
   procedureId: z.uuid({ message: 'Choose the procedure' }),
   kind: z.enum(TRAINING_KINDS, { message: 'Choose the kind of training' }),
+  /** With minor-servicing training: the key of the procedure's minor task. */
+  minorTask: z.string().trim().max(40).optional(),
   trainedOn: isoDate('Enter the training date', { refusedIfFuture: true }),
   note: z.string().trim().max(500).optional(),
   password: signPassword,
@@ -60,6 +66,7 @@ export type TrainingRow = {
   procedureTitle: string;
   machineCode: string;
   kind: TrainingKind;
+  minorTask: string | null;
   trainedOn: string;
   trainedVersion: number;
   currentVersion: number | null;
@@ -154,4 +161,14 @@ export type SafetyTaskRow = {
   procedureId: string | null;
   personId: string | null;
   trainingKind: TrainingKind | null;
+};
+
+/** Whether a person may apply locks with a procedure, and why not (1910.147(c)(7)(i)(A)). */
+export type LockoutAuthorization = {
+  authorized: boolean;
+  reason: string | null;
+  currentVersion: number | null;
+  trainedVersion: number | null;
+  /** Minor-servicing tasks of the procedure the person is trained for. */
+  minorTasks: string[];
 };

@@ -24,6 +24,11 @@ export const SIGN_MEANINGS = [
   'correction',
   'safety-work-signed-off',
   'deviation-accepted',
+  'absence-verified',
+  'contact-attempted',
+  'removal-authorized',
+  'absent-locks-removed',
+  'employee-informed',
 ] as const;
 export type SignMeaning = (typeof SIGN_MEANINGS)[number];
 
@@ -46,6 +51,11 @@ export const MEANING_LABELS: Record<SignMeaning, string> = {
   correction: 'Correction',
   'safety-work-signed-off': 'Safety work signed off',
   'deviation-accepted': 'Failed check: deviation accepted',
+  'absence-verified': 'Absent employee: not at facility',
+  'contact-attempted': 'Absent employee: contact attempted',
+  'removal-authorized': 'Absent employee: removal authorized',
+  'absent-locks-removed': 'Absent employee: locks removed',
+  'employee-informed': 'Absent employee: informed',
 };
 
 /** The sentence the signer agrees to by re-entering their password. */
@@ -67,6 +77,11 @@ export const MEANING_STATEMENTS: Record<SignMeaning, string> = {
   correction: 'I correct an earlier safety record as described in the note.',
   'safety-work-signed-off': 'I did this safety work as its checklist records, and the machine is fit to run.',
   'deviation-accepted': 'I accept that the machine runs with this failed safety check, for the reason and under the measures I give.',
+  'absence-verified': 'I verified that the employee who applied these locks is not at the facility.',
+  'contact-attempted': 'I made every reasonable effort to tell the employee that their locks are to be removed, as described.',
+  'removal-authorized': 'As safety officer I authorize removal of the absent employee’s locks by the supervisor named.',
+  'absent-locks-removed': 'I checked the work area and that everyone is clear, then removed the absent employee’s locks listed.',
+  'employee-informed': 'I told the employee that their locks were removed, before they resumed work at the facility.',
 };
 
 /** The password re-entered at signing (21 CFR 11.200-style re-authentication, house rule). */

@@ -78,11 +78,39 @@ export async function makeSafetyShop(app: AppHandle['app'], em: EntityManager, l
   return { ...shop, machineId: m1.id, machineCode: 'C1', otherMachineId: m2.id, s };
 }
 
-/** Creates and approves a procedure for the shop's cell; returns its id. */
-export async function approvedProcedure(shop: SafetyShop, content = cellProcedure(), machineId = shop.machineId): Promise<string> {
-  const created = await post(shop.s.safety, '/safety/procedures', { ...content, machineId }).expect(201);
+/**
+ * Creates a procedure for the shop's cell (the technician drafts, the safety officer approves: nobody
+ * approves their own draft) and, unless `trained` is empty, records authorized-employee training
+ * for the technician and the safety officer, who may then apply locks with it. Returns its id.
+ */
+export async function approvedProcedure(
+  shop: SafetyShop,
+  content = cellProcedure(),
+  machineId = shop.machineId,
+  trained: Role[] = ['technician', 'safety'],
+): Promise<string> {
+  const created = await post(shop.s.technician, '/safety/procedures', { ...content, machineId }).expect(201);
   await post(shop.s.safety, `/safety/procedures/${created.body.id}/versions/1/approve`, { password: PASSWORD }).expect(201);
+  for (const role of trained) await trainAuthorized(shop, role, created.body.id);
   return created.body.id as string;
+}
+
+/** Signed authorized-employee training (1910.147(c)(7)(i)(A)) of one of the shop's people on the procedure's current version. */
+export async function trainAuthorized(
+  shop: SafetyShop,
+  role: Role,
+  procedureId: string,
+  kind: 'authorized' | 'minor-servicing' = 'authorized',
+  minorTask?: string,
+) {
+  await post(shop.s.safety, '/safety/training', {
+    userId: shop.users[role].userId,
+    procedureId,
+    kind,
+    minorTask,
+    trainedOn: shopToday(),
+    password: PASSWORD,
+  }).expect(201);
 }
 
 export const lockPoints = (prefix = 'L') => [

@@ -1,6 +1,6 @@
 import { describe, it, expect, beforeAll, afterAll } from 'vitest';
 import { makeTestApp } from '../setup/test-app';
-import { approvedProcedure, cellProcedure, countSignOffs, get, lockPoints, makeSafetyShop, PASSWORD, post, type SafetyShop } from './safety-helpers';
+import { approvedProcedure, cellProcedure, countSignOffs, get, lockPoints, makeSafetyShop, PASSWORD, post, shopToday, type SafetyShop } from './safety-helpers';
 import { WorkOrder } from '../../server/modules/work-orders/work-order.entity';
 import { createMember } from '../../seed/factories';
 
@@ -121,6 +121,18 @@ describe('lockout sessions', () => {
     const second = await createMember(t.em(), { id: shop.orgId }, { email: `second-tech@${shop.slug}.example`, name: 'Second Technician', role: 'technician' });
     const { signIn } = await import('../setup/test-app');
     const tech2 = await signIn(t.app, `second-tech@${shop.slug}.example`);
+    // OSHA 29 CFR 1910.147(c)(7)(i)(A): a technician's role is not enough; without training on this procedure the join is refused and nothing is signed.
+    const before = await countSignOffs(shop.orgId);
+    const untrained = await post(tech2, `/safety/lockouts/${id}/join`, { lockNumber: 'P-200', password: PASSWORD }).expect(403);
+    expect(untrained.body.message).toMatch(/^Second Technician has no authorized-employee training on C1 .*1910\.147\(c\)\(7\)\(i\)\(A\)/);
+    expect(await countSignOffs(shop.orgId)).toBe(before);
+    await post(shop.s.safety, '/safety/training', {
+      userId: second.user.id,
+      procedureId: procId,
+      kind: 'authorized',
+      trainedOn: shopToday(),
+      password: PASSWORD,
+    }).expect(201);
     await post(tech2, `/safety/lockouts/${id}/join`, { lockNumber: 'P-200', password: PASSWORD }).expect(201);
     await post(tech2, `/safety/lockouts/${id}/join`, { lockNumber: 'P-201', password: PASSWORD }).expect(409);
     await post(shop.s.safety, `/safety/lockouts/${id}/join`, { lockNumber: 'P-200', password: PASSWORD }).expect(409); // that lock is on already

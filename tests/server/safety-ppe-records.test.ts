@@ -216,7 +216,7 @@ describe('periodic inspection and training', () => {
   });
 
   it('marks training for retraining when a changed procedure asks for it', async () => {
-    const procId = await approvedProcedure(shop, cellProcedure('Trained procedure'));
+    const procId = await approvedProcedure(shop, cellProcedure('Trained procedure'), shop.machineId, []);
     const today = shopToday();
     const affectedAsAuthorized = await post(shop.s.safety, '/safety/training', {
       userId: shop.users.operator.userId,
@@ -258,12 +258,12 @@ describe('periodic inspection and training', () => {
       [`technician of ${shop.slug}`, 'current'],
     ]);
     // An editorial change without retraining keeps everyone current …
-    await put(shop.s.safety, `/safety/procedures/${procId}/draft`, { ...cellProcedure('Trained procedure'), scope: 'Typo fixed.' }).expect(200);
+    await put(shop.s.technician, `/safety/procedures/${procId}/draft`, { ...cellProcedure('Trained procedure'), scope: 'Typo fixed.' }).expect(200);
     await post(shop.s.safety, `/safety/procedures/${procId}/versions/2/approve`, { password: PASSWORD, retrainingRequired: false }).expect(201);
     rows = (await get(shop.s.operator, '/safety/training').expect(200)).body;
     expect(mine(rows).map((r) => r[1])).toEqual(['current', 'current']);
     // … a real change sends everyone back to training.
-    await put(shop.s.safety, `/safety/procedures/${procId}/draft`, { ...cellProcedure('Trained procedure'), release: ['New release step'] }).expect(200);
+    await put(shop.s.technician, `/safety/procedures/${procId}/draft`, { ...cellProcedure('Trained procedure'), release: ['New release step'] }).expect(200);
     await post(shop.s.safety, `/safety/procedures/${procId}/versions/3/approve`, { password: PASSWORD }).expect(201);
     rows = (await get(shop.s.operator, '/safety/training').expect(200)).body;
     expect(mine(rows).map((r) => r[1])).toEqual(['retrain', 'retrain']);

@@ -74,14 +74,14 @@ describe('energy-control procedures', () => {
     expect([pointTag('C2', 1), pointTag('LONGCODE', 3), nextPointTag('C2', ['C2-E1', 'C2-E3'])]).toEqual(['C2-E1', 'E3', 'C2-E2']);
   });
 
-  it('lets only the safety officer write procedures, and answers 404 for another shop’s machine', async () => {
-    await post(shop.s.technician, '/safety/procedures', { ...cellProcedure(), machineId: shop.machineId }).expect(403);
+  it('lets technicians and the safety officer write procedures (the safety officer approves), and answers 404 for another shop’s machine', async () => {
+    await post(shop.s.operator, '/safety/procedures', { ...cellProcedure(), machineId: shop.machineId }).expect(403);
     await post(shop.s.admin, '/safety/procedures', { ...cellProcedure(), machineId: shop.machineId }).expect(403);
     await post(shop.s.safety, '/safety/procedures', { ...cellProcedure(), machineId: other.machineId }).expect(404);
   });
 
   it('versions a procedure: drafts change, approval freezes, old versions stay readable', async () => {
-    const created = await post(shop.s.safety, '/safety/procedures', { ...cellProcedure('Cell lockout'), machineId: shop.machineId }).expect(201);
+    const created = await post(shop.s.technician, '/safety/procedures', { ...cellProcedure('Cell lockout'), machineId: shop.machineId }).expect(201);
     const id = created.body.id;
     // A wrong password writes nothing: the version stays a draft and the chain does not grow.
     const before = await countSignOffs(shop.orgId);
@@ -93,14 +93,14 @@ describe('energy-control procedures', () => {
 
     const edited = cellProcedure('Cell lockout');
     edited.scope = 'Edited scope before approval.';
-    await put(shop.s.safety, `/safety/procedures/${id}/draft`, edited).expect(200);
+    await put(shop.s.technician, `/safety/procedures/${id}/draft`, edited).expect(200);
     const ok = await post(shop.s.safety, `/safety/procedures/${id}/versions/1/approve`, { password: PASSWORD }).expect(201);
     expect(ok.body.version).toBe(1);
     await post(shop.s.safety, `/safety/procedures/${id}/versions/1/approve`, { password: PASSWORD }).expect(409);
 
     const v2 = cellProcedure('Cell lockout');
     v2.steps.relieve.push('Block the ram with the red safety block.');
-    const draft = await put(shop.s.safety, `/safety/procedures/${id}/draft`, v2).expect(200);
+    const draft = await put(shop.s.technician, `/safety/procedures/${id}/draft`, v2).expect(200);
     expect(draft.body.version).toBe(2);
     detail = await get(shop.s.safety, `/safety/procedures/${id}`).expect(200);
     expect(detail.body.current).toMatchObject({ version: 1, status: 'approved', approvedByName: `safety of ${shop.slug}` });
@@ -137,7 +137,7 @@ describe('energy-control procedures', () => {
         .attach('photo', buf, name);
     let res = await upload(png(), 'q0.png');
     expect(res.status).toBe(409); // approved versions do not change
-    await put(shop.s.safety, `/safety/procedures/${id}/draft`, cellProcedure('Photo procedure')).expect(200);
+    await put(shop.s.technician, `/safety/procedures/${id}/draft`, cellProcedure('Photo procedure')).expect(200);
     res = await upload(Buffer.from('just some text, not an image'), 'fake.png').expect(400);
     expect(res.body.fields).toEqual([{ path: 'photo', message: 'Only JPEG, PNG or WebP photos are accepted (this file is not an image)' }]);
     res = await upload(Buffer.concat([png(), Buffer.alloc(5 * 1024 * 1024)]), 'huge.png').expect(413);

@@ -1,5 +1,6 @@
 import { convertUnit, quantityOf } from '../../../shared/domain/units';
 import { hash } from 'node:crypto';
+import { checkCounterAdvances } from '../safety/lockout-alarms';
 import type { PoolClient } from 'pg';
 import type { EntityManager } from '@mikro-orm/postgresql';
 import { Meter } from './meter.entity';
@@ -245,6 +246,7 @@ export async function importCounterCsv(em: EntityManager, who: Principal, filePa
     const added = await insertFromStaging(client, who.orgId, who.userId);
     await progress?.({ phase: 'writing', done: preview.toAdd, total: preview.toAdd });
     const duplicates = preview.duplicates + (preview.toAdd - added);
+    if (added > 0) await checkCounterAdvances(tx, who.orgId, 'all-locked');
     recordActivity(
       tx,
       who,

@@ -1,6 +1,7 @@
 import type { EntityManager } from '@mikro-orm/postgresql';
 import { LockMode } from '@mikro-orm/core';
 import { Meter, MeterReading, type IMeter } from './meter.entity';
+import { checkCounterAdvances } from '../safety/lockout-alarms';
 import { Machine } from '../machines/machine.entity';
 import type { Principal } from '../../http/principal';
 import { AppError, badRequest, conflict, fieldError, notFound } from '../../http/errors';
@@ -193,6 +194,8 @@ export async function addReading(em: EntityManager, who: Principal, meterId: str
   return em.transactional(async (tx) => {
     const r = await recordReading(tx, who, meterId, input);
     await readingDoesWork(tx, who, { id: r.id, readAt: r.readAt, value: r.value, meter: r.meter.getEntity() });
+    await tx.flush();
+    await checkCounterAdvances(tx, who.orgId, [meterId]);
     recordActivity(
       tx,
       who,
@@ -235,6 +238,12 @@ export async function addReadings(em: EntityManager, who: Principal, input: Read
         out.refused.map(({ path, message }) => ({ path, message })),
       );
     for (const m of made) await readingDoesWork(tx, who, m);
+    await tx.flush();
+    await checkCounterAdvances(
+      tx,
+      who.orgId,
+      input.readings.map((r) => r.meterId),
+    );
     recordActivity(tx, who, 'meter.readings-recorded', { type: 'Meter' }, { count: out.ids.length, refused: out.refused.length });
     return out;
   });

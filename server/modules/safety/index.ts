@@ -2,6 +2,8 @@
 import { SafetySignOff, SafetyChainHead, SafetyChainCopy } from './sign-off.entity';
 import { EnergyProcedure, ProcedureVersion, ProcedurePhoto } from './procedure.entity';
 import { LockoutSession, LockoutPoint, LockoutMember } from './lockout.entity';
+import { SafetyEvent } from './safety-event.entity';
+import { AbsentLockRemoval } from './absent-removal.entity';
 import { PpeRequirement, PpeCheck, PeriodicInspection, TrainingRecord, FireWatch, SafetyTask } from './records.entity';
 
 export const safetyEntities = [
@@ -20,4 +22,6 @@ export const safetyEntities = [
   TrainingRecord,
   FireWatch,
   SafetyTask,
+  SafetyEvent,
+  AbsentLockRemoval,
 ];

@@ -6,6 +6,8 @@ import { markLockoutApplied, markLockoutReleased } from '../work-orders/work-ord
 import { EnergyProcedure, ProcedureVersion } from './procedure.entity';
 import { LockoutMember, LockoutPoint, LockoutSession, type ILockoutPoint, type ILockoutSession } from './lockout.entity';
 import { appendSignOff } from './chain';
+import { lockoutAuthorization, requireAuthorized } from './authorization';
+import { requireInformedOfRemoval } from './absent-removal.service';
 import { badRequest, conflict, fieldError, forbidden, notFound } from '../../http/errors';
 import { recordActivity } from '../activity-log/activity-log.service';
 import type { Principal } from '../../http/principal';
@@ -64,6 +66,8 @@ export async function applyLockout(em: EntityManager, who: Principal, input: App
       throw conflict('This procedure has no approved version; the safety officer must approve it before anyone locks out with it', [
         { path: 'procedureId', message: 'No approved version' },
       ]);
+    await requireAuthorized(tx, who.userId, proc.id);
+    await requireInformedOfRemoval(tx, who.userId);
     const sources = version.content.sources;
     input.points.forEach((p, i) => {
       if (!sources.some((s) => s.key === p.sourceKey))
@@ -155,6 +159,18 @@ export async function verifyLockout(em: EntityManager, who: Principal, id: strin
       throw fieldError('testedPointIds', `Test every isolation point before signing; not ticked: ${untested.map((p) => p.sourceKey).join(', ')}`);
     const stray = input.testedPointIds.filter((pid) => !points.some((p) => p.id === pid));
     if (stray.length) throw fieldError('testedPointIds', 'Some ticked points do not belong to this lockout');
+    const readings = (input.readings ?? []).map((r, i) => {
+      const point = points.find((p) => p.id === r.pointId);
+      if (!point) throw fieldError(`readings.${i}.pointId`, 'This reading is for a point that is not on this lockout');
+      if (!r.unit)
+        throw fieldError(`readings.${i}.unit`, `Give the unit of the reading at ${point.sourceKey} (V, bar …): a number alone does not show zero energy`);
+      if (!r.testerProvedBefore || !r.testerProvedAfter)
+        throw fieldError(
+          `readings.${i}.${r.testerProvedBefore ? 'testerProvedAfter' : 'testerProvedBefore'}`,
+          `Prove the tester on a known source before and after the reading at ${point.sourceKey} (live-dead-live, common practice)`,
+        );
+      return { key: point.sourceKey, value: r.value, unit: r.unit, instrument: r.instrument, testerProvedBefore: true, testerProvedAfter: true };
+    });
     s.state = 'verified';
     const signOff = await appendSignOff(tx, who, {
       meaning: 'isolation-verified',
@@ -162,8 +178,9 @@ export async function verifyLockout(em: EntityManager, who: Principal, id: strin
       subjectId: s.id,
       machineId: s.machine.id,
       details: {
-        summary: `${s.machine.getEntity().code}: start attempted; zero energy at ${points.map((p) => p.sourceKey).join(', ')}`,
+        summary: `${s.machine.getEntity().code}: start attempted; zero energy at ${points.map((p) => p.sourceKey).join(', ')}${readings.length ? ` — ${readings.map((r) => `${r.key} ${r.value} ${r.unit}`).join(', ')}` : ''}`,
         points: points.map((p) => p.sourceKey),
+        readings,
         startAttempted: true,
       },
       note: input.note ?? null,
@@ -180,6 +197,8 @@ export async function joinLockout(em: EntityManager, who: Principal, id: string,
     if (s.primary.id === who.userId) throw conflict('You hold this lockout already; your locks are on the isolation points');
     const already = await tx.findOne(LockoutMember, { session: s.id, user: who.userId, leftAt: null });
     if (already) throw conflict(`Your personal lock ${already.lockNumber} is already on this lockout`);
+    await requireAuthorized(tx, who.userId, s.procedure.id);
+    await requireInformedOfRemoval(tx, who.userId);
     const used = await locksInUse(tx, who.orgId, [input.lockNumber]);
     const where = used.get(input.lockNumber.toUpperCase());
     if (where) throw conflict(`Lock ${input.lockNumber} is already on ${where}`, [{ path: 'lockNumber', message: `Already on ${where}` }]);
@@ -230,6 +249,8 @@ export async function offerHandover(em: EntityManager, who: Principal, id: strin
     if (!m) throw fieldError('toUserId', 'This person is not an active member of your shop');
     if (!(AUTHORIZED_ROLES as readonly string[]).includes(m.role))
       throw fieldError('toUserId', `${m.user.getEntity().name} is not an authorized employee (technician or safety officer) and cannot hold a lockout`);
+    const auth = await lockoutAuthorization(tx, input.toUserId, s.procedure.id);
+    if (!auth.authorized) throw fieldError('toUserId', auth.reason ?? 'Not authorized on this procedure');
     s.pendingHandoverTo = tx.getReference(User, input.toUserId, { wrapped: true });
     const signOff = await appendSignOff(tx, who, {
       meaning: 'handover-offered',
@@ -253,6 +274,7 @@ export async function acceptHandover(em: EntityManager, who: Principal, id: stri
   return em.transactional(async (tx) => {
     const s = await loadOpen(tx, who, id);
     if (s.pendingHandoverTo?.id !== who.userId) throw forbidden('No hand-over of this lockout is waiting for you');
+    await requireAuthorized(tx, who.userId, s.procedure.id);
     const from = s.primary.getEntity();
     const points = await activePoints(tx, s.id);
     const mine = points.filter((p) => p.holder.id === from.id);
@@ -317,7 +339,7 @@ export async function releaseLockout(em: EntityManager, who: Principal, id: stri
     const others = points.filter((p) => p.holder.id !== who.userId);
     if (others.length) {
       throw forbidden(
-        `Only the person who applied a lock removes it (OSHA 29 CFR 1910.147(e)(3)): ${others.map((p) => `${pointLabel(p)} belongs to ${p.holder.getEntity().name}`).join('; ')}`,
+        `Only the person who applied a lock removes it (OSHA 29 CFR 1910.147(e)(3)): ${others.map((p) => `${pointLabel(p)} belongs to ${p.holder.getEntity().name}`).join('; ')}. If they are away from the facility, a supervisor uses the absent-employee removal steps.`,
       );
     }
     const members = await tx.find(LockoutMember, { session: s.id, leftAt: null }, { populate: ['user'], orderBy: { joinedAt: 'asc' } });

@@ -6,7 +6,7 @@ import { User } from '../users/user.entity';
 import { EnergyProcedure, ProcedurePhoto, ProcedureVersion, type IProcedureVersion } from './procedure.entity';
 import { PeriodicInspection } from './records.entity';
 import { appendSignOff, sha256Hex } from './chain';
-import { badRequest, conflict, fieldError, notFound } from '../../http/errors';
+import { badRequest, conflict, fieldError, forbidden, notFound } from '../../http/errors';
 import { recordActivity } from '../activity-log/activity-log.service';
 import type { Principal } from '../../http/principal';
 import { canonicalize } from '../../../shared/domain/signature-chain';
@@ -197,6 +197,9 @@ export async function approveVersion(em: EntityManager, who: Principal, procedur
     const v = versions.find((x) => x.version === version);
     if (!v) throw notFound(`Version ${version}`);
     if (v.status !== 'draft') throw conflict(`Version ${version} is ${v.status}; only a draft can be approved`);
+    // Review by a second person: the author of a procedure does not approve it (common practice for controlled documents).
+    if (v.author.id === who.userId)
+      throw forbidden(`You wrote version ${version} of this procedure, so someone else must review and approve it; nothing was signed`);
     const previous = versions.filter((x) => x.status === 'approved');
     const photos = await tx.count(ProcedurePhoto, { version: v.id });
     const signOff = await appendSignOff(tx, who, {

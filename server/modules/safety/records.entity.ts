@@ -63,6 +63,8 @@ export const PeriodicInspection = defineEntity({
     employees: p.json<{ id: string; name: string }[]>(),
     findings: p.text(),
     deviations: p.text().nullable(),
+    /** The employees the deviations concern: they need retraining (1910.147(c)(6)(i)(B), (c)(7)(iii)(B)). */
+    deviationEmployees: p.json<{ id: string; name: string }[]>().default([]),
     performedSignOff: () => p.manyToOne(SafetySignOff).ref().deleteRule('no action'),
     certifiedAt: p.datetime().nullable(),
     certifiedBy: () => p.manyToOne(User).ref().nullable(),
@@ -83,6 +85,8 @@ export const TrainingRecord = defineEntity({
     procedure: () => p.manyToOne(EnergyProcedure).ref(),
     procedureVersion: p.integer(),
     kind: p.enum([...TRAINING_KINDS]),
+    /** For minor-servicing training: which of the procedure's named minor tasks (1910.147(a)(2)(ii) note). */
+    minorTask: p.string().length(40).nullable(),
     trainedOn: p.date(),
     trainer: () => p.manyToOne(User).ref(),
     note: p.string().length(500).nullable(),

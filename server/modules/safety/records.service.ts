@@ -66,6 +66,11 @@ export async function recordInspection(em: EntityManager, who: Principal, input:
     const unknown = ids.filter((id) => !members.has(id));
     if (unknown.length) throw fieldError('employeeIds', 'Some of the employees are not active members of your shop');
     const employees = ids.map((id) => ({ id, name: members.get(id)!.name }));
+    const deviationIds = [...new Set(input.deviationEmployeeIds ?? [])];
+    const stray = deviationIds.filter((id) => !ids.includes(id));
+    if (stray.length) throw fieldError('deviationEmployeeIds', 'Deviations can only be recorded against employees included in the inspection');
+    if (deviationIds.length && !input.deviations) throw fieldError('deviations', 'Describe the deviations the named employees are to be retrained on');
+    const deviationEmployees = employees.filter((e) => deviationIds.includes(e.id));
     // The sign-off names the record and the record points at its sign-off: the id comes first.
     const inspectionId = randomUUID();
     const signOff = await appendSignOff(tx, who, {
@@ -81,6 +86,7 @@ export async function recordInspection(em: EntityManager, who: Principal, input:
         employees,
         findings: input.findings,
         deviations: input.deviations || null,
+        deviationEmployees,
         responsibilitiesReviewed: true,
       },
     });
@@ -94,6 +100,7 @@ export async function recordInspection(em: EntityManager, who: Principal, input:
       employees,
       findings: input.findings,
       deviations: input.deviations || null,
+      deviationEmployees,
       performedSignOff: signOff,
     });
     recordActivity(tx, who, 'safety.inspection-performed', { type: 'PeriodicInspection', id: inspection.id }, { signOffId: signOff.id });
@@ -149,6 +156,7 @@ function inspectionRow(i: IPeriodicInspection): InspectionRow {
     employees: i.employees,
     findings: i.findings,
     deviations: i.deviations ?? null,
+    deviationEmployees: i.deviationEmployees ?? [],
     certifiedAt: i.certifiedAt ? i.certifiedAt.toISOString() : null,
     certifiedByName: i.certifiedBy?.getEntity().name ?? null,
   };
@@ -187,7 +195,15 @@ export async function recordTraining(em: EntityManager, who: Principal, input: T
     if (input.kind === 'authorized' && !AUTHORIZED.includes(person.role)) {
       throw fieldError(
         'kind',
-        `${person.name} is not in an authorized-employee role (technician or safety officer); record affected-employee training instead`,
+        `${person.name} is not in an authorized-employee role (technician or safety officer); record affected-employee or minor-servicing training instead`,
+      );
+    }
+    const minorTask = input.kind === 'minor-servicing' ? (input.minorTask ?? '') : null;
+    if (minorTask !== null && !(v.content.minorTasks ?? []).some((t) => t.key === minorTask)) {
+      const named = (v.content.minorTasks ?? []).map((t) => t.key).join(', ');
+      throw fieldError(
+        'minorTask',
+        named ? `Choose one of the procedure's minor-servicing tasks: ${named}` : `Version ${v.version} of this procedure names no minor-servicing task`,
       );
     }
     const recordId = randomUUID();
@@ -203,6 +219,7 @@ export async function recordTraining(em: EntityManager, who: Principal, input: T
         procedureId: proc.id,
         procedureVersion: v.version,
         kind: input.kind,
+        minorTask,
         trainedOn: input.trainedOn,
       },
       note: input.note || null,
@@ -214,6 +231,7 @@ export async function recordTraining(em: EntityManager, who: Principal, input: T
       procedure: proc,
       procedureVersion: v.version,
       kind: input.kind,
+      minorTask,
       trainedOn: input.trainedOn,
       trainer: who.userId,
       note: input.note || null,
@@ -229,7 +247,7 @@ export async function listTraining(em: EntityManager): Promise<TrainingRow[]> {
   const all = await em.find(TrainingRecord, {}, { populate: ['person', 'procedure.machine', 'trainer'], orderBy: { trainedOn: 'desc', createdAt: 'desc' } });
   const latest = new Map<string, (typeof all)[number]>();
   for (const r of all) {
-    const key = `${r.person.id}:${r.procedure.id}:${r.kind}`;
+    const key = `${r.person.id}:${r.procedure.id}:${r.kind}:${r.minorTask ?? ''}`;
     if (!latest.has(key)) latest.set(key, r); // newest first, so the first one seen is the latest
   }
   const req = await requiredVersions(em, [...new Set(all.map((r) => r.procedure.id))]);
@@ -245,6 +263,7 @@ export async function listTraining(em: EntityManager): Promise<TrainingRow[]> {
         procedureTitle: proc.title,
         machineCode: proc.machine.getEntity().code,
         kind: r.kind,
+        minorTask: r.minorTask ?? null,
         trainedOn: r.trainedOn,
         trainedVersion: r.procedureVersion,
         currentVersion: v.current || null,

@@ -30,6 +30,13 @@ import {
 import { correctSignOff } from './corrections.service';
 import { compliance, exportCsv, exportPdf, listSignOffs, timeline } from './safety-audit.service';
 import { listSafetyTasks } from './work';
+import { listSafetyEvents, refusable } from './safety-events';
+import { lockoutAuthorization } from './authorization';
+import { listAbsentRemovals, signAbsentStep, startAbsentRemoval } from './absent-removal.service';
+import { lockRegister } from './lock-register';
+import { absentStepSchema, startAbsentRemovalSchema } from '../../../shared/schemas/safety-absent-removal';
+import { listSafetyEventsQuery } from '../../../shared/schemas/safety-audit';
+import { lockRegisterQuery } from '../../../shared/schemas/safety-lockout';
 import {
   approveVersionSchema,
   createProcedureSchema,
@@ -123,7 +130,7 @@ export function registerSafetyRoutes(r: ApiRouter, config: Config) {
     r,
     'post',
     '/safety/procedures',
-    { access: 'safety.procedures.manage', body: createProcedureSchema },
+    { access: 'safety.procedures.draft', body: createProcedureSchema },
     async (_req, res, { body, principal: who }) => void res.status(201).json(await createProcedure(em(), who, body)),
   );
   route(
@@ -137,7 +144,7 @@ export function registerSafetyRoutes(r: ApiRouter, config: Config) {
     r,
     'put',
     '/safety/procedures/:id/draft',
-    { access: 'safety.procedures.manage', params: uuidParam, body: procedureContentSchema },
+    { access: 'safety.procedures.draft', params: uuidParam, body: procedureContentSchema },
     async (_req, res, { params, body, principal: who }) => void res.json(await saveDraft(em(), who, params.id, body)),
   );
   route(
@@ -145,13 +152,17 @@ export function registerSafetyRoutes(r: ApiRouter, config: Config) {
     'post',
     '/safety/procedures/:id/versions/:version/approve',
     { access: 'safety.procedures.manage', params: versionParams, body: approveVersionSchema, ...signing },
-    signed(({ params, body, principal: who }) => approveVersion(em(), who, params.id, params.version, body.retrainingRequired)),
+    signed(({ params, body, principal: who }) =>
+      refusable(em(), who, 'procedure.approve', { procedureId: params.id }, () =>
+        approveVersion(em(), who, params.id, params.version, body.retrainingRequired),
+      ),
+    ),
   );
   route(
     r,
     'post',
     '/safety/procedures/:id/photos',
-    { access: 'safety.procedures.manage', params: uuidParam, before: [upload], body: photoUploadFields },
+    { access: 'safety.procedures.draft', params: uuidParam, before: [upload], body: photoUploadFields },
     async (req, res, { params, body, principal: who }) => {
       res.status(201).json(await addPhoto(em(), who, params.id, req.file, body));
     },
@@ -164,7 +175,7 @@ export function registerSafetyRoutes(r: ApiRouter, config: Config) {
     r,
     'delete',
     '/safety/procedures/:id/photos/:photoId',
-    { access: 'safety.procedures.manage', params: photoParams },
+    { access: 'safety.procedures.draft', params: photoParams },
     async (_req, res, { params, principal: who }) => {
       await deletePhoto(em(), who, params.id, params.photoId);
       res.status(204).end();
@@ -194,7 +205,7 @@ export function registerSafetyRoutes(r: ApiRouter, config: Config) {
     'post',
     '/safety/lockouts',
     { access: 'safety.lockout.sign', body: applyLockoutSchema, ...signing },
-    signed(({ body, principal: who }) => applyLockout(em(), who, body)),
+    signed(({ body, principal: who }) => refusable(em(), who, 'lockout.apply', { procedureId: body.procedureId }, () => applyLockout(em(), who, body))),
   );
   route(
     r,
@@ -208,42 +219,95 @@ export function registerSafetyRoutes(r: ApiRouter, config: Config) {
     'post',
     '/safety/lockouts/:id/verify',
     { access: 'safety.lockout.sign', params: uuidParam, body: verifyLockoutSchema, ...signing },
-    signed(({ params, body, principal: who }) => verifyLockout(em(), who, params.id, body)),
+    signed(({ params, body, principal: who }) =>
+      refusable(em(), who, 'lockout.verify', { lockoutId: params.id }, () => verifyLockout(em(), who, params.id, body)),
+    ),
   );
   route(
     r,
     'post',
     '/safety/lockouts/:id/join',
     { access: 'safety.lockout.sign', params: uuidParam, body: joinLockoutSchema, ...signing },
-    signed(({ params, body, principal: who }) => joinLockout(em(), who, params.id, body)),
+    signed(({ params, body, principal: who }) => refusable(em(), who, 'lockout.join', { lockoutId: params.id }, () => joinLockout(em(), who, params.id, body))),
   );
   route(
     r,
     'post',
     '/safety/lockouts/:id/leave',
     { access: 'safety.lockout.sign', params: uuidParam, body: leaveLockoutSchema, ...signing },
-    signed(({ params, principal: who }) => leaveLockout(em(), who, params.id)),
+    signed(({ params, principal: who }) => refusable(em(), who, 'lockout.leave', { lockoutId: params.id }, () => leaveLockout(em(), who, params.id))),
   );
   route(
     r,
     'post',
     '/safety/lockouts/:id/handover',
     { access: 'safety.lockout.sign', params: uuidParam, body: offerHandoverSchema, ...signing },
-    signed(({ params, body, principal: who }) => offerHandover(em(), who, params.id, body)),
+    signed(({ params, body, principal: who }) =>
+      refusable(em(), who, 'lockout.handover', { lockoutId: params.id }, () => offerHandover(em(), who, params.id, body)),
+    ),
   );
   route(
     r,
     'post',
     '/safety/lockouts/:id/accept-handover',
     { access: 'safety.lockout.sign', params: uuidParam, body: acceptHandoverSchema, ...signing },
-    signed(({ params, body, principal: who }) => acceptHandover(em(), who, params.id, body)),
+    signed(({ params, body, principal: who }) =>
+      refusable(em(), who, 'lockout.accept-handover', { lockoutId: params.id }, () => acceptHandover(em(), who, params.id, body)),
+    ),
   );
   route(
     r,
     'post',
     '/safety/lockouts/:id/release',
     { access: 'safety.lockout.sign', params: uuidParam, body: releaseLockoutSchema, ...signing },
-    signed(({ params, body, principal: who }) => releaseLockout(em(), who, params.id, body)),
+    signed(({ params, body, principal: who }) =>
+      refusable(em(), who, 'lockout.release', { lockoutId: params.id }, () => releaseLockout(em(), who, params.id, body)),
+    ),
+  );
+
+  // Who may lock out with a procedure, and why not (the lockout form asks before signing).
+  route(
+    r,
+    'get',
+    '/safety/procedures/:id/authorization',
+    { access: 'safety.read', params: uuidParam },
+    async (_req, res, { params, principal: who }) => void res.json(await lockoutAuthorization(em(), who.userId, params.id)),
+  );
+
+  // Removing an absent employee's locks, step by step (1910.147(e)(3)).
+  route(
+    r,
+    'get',
+    '/safety/lockouts/:id/absent-removals',
+    { access: 'safety.read', params: uuidParam },
+    async (_req, res, { params }) => void res.json(await listAbsentRemovals(em(), params.id)),
+  );
+  route(
+    r,
+    'post',
+    '/safety/lockouts/:id/absent-removals',
+    { access: 'safety.lockout.absent-removal', params: uuidParam, body: startAbsentRemovalSchema, ...signing },
+    signed(({ params, body, principal: who }) =>
+      refusable(em(), who, 'lockout.absent-removal', { lockoutId: params.id }, () => startAbsentRemoval(em(), who, params.id, body)),
+    ),
+  );
+  route(
+    r,
+    'post',
+    '/safety/absent-removals/:id/steps',
+    { access: 'safety.lockout.absent-removal', params: uuidParam, body: absentStepSchema, ...signing },
+    signed(({ params, body, principal: who }) =>
+      refusable(em(), who, `lockout.absent-removal.${body.step}`, { subjectId: params.id }, () => signAbsentStep(em(), who, params.id, body)),
+    ),
+  );
+
+  // The lock register: every lock by number, where it hangs now and where it has been.
+  route(
+    r,
+    'get',
+    '/safety/locks',
+    { access: 'safety.read', query: lockRegisterQuery },
+    async (_req, res, { query, principal: who }) => void res.json(await lockRegister(em(), who, query)),
   );
 
   // PPE.
@@ -334,6 +398,13 @@ export function registerSafetyRoutes(r: ApiRouter, config: Config) {
     '/safety/sign-offs/:id/corrections',
     { access: 'safety.correct', params: uuidParam, body: correctionSchema, ...signing },
     signed(({ params, body, principal: who }) => correctSignOff(em(), who, params.id, body.note)),
+  );
+  route(
+    r,
+    'get',
+    '/safety/events',
+    { access: 'safety.audit', query: listSafetyEventsQuery },
+    async (_req, res, { query, principal: who }) => void res.json(await listSafetyEvents(em(), who, query)),
   );
   route(
     r,

@@ -107,6 +107,33 @@ export async function currentSafetyWork(em: EntityManager, orgId: string, now: D
       status: now > dueAt ? 'overdue' : 'due',
     });
   }
+  // Deviations seen at a periodic inspection send the people concerned back to training
+  // (1910.147(c)(6)(i)(B), (c)(7)(iii)(B)), due RETRAIN_DAYS after the inspection.
+  const withDeviations = (await em.find(PeriodicInspection, {}, { populate: ['procedure.machine'] })).filter((i) => (i.deviationEmployees ?? []).length > 0);
+  for (const ins of withDeviations) {
+    const proc = ins.procedure.getEntity();
+    for (const person of ins.deviationEmployees) {
+      const retrained = trainings.some(
+        (t) =>
+          t.person.id === person.id &&
+          t.procedure.id === proc.id &&
+          (t.trainedOn > ins.inspectedOn || (t.trainedOn === ins.inspectedOn && t.createdAt > ins.createdAt)),
+      );
+      if (retrained) continue;
+      const dueAt = new Date(DateTime.fromISO(ins.inspectedOn, { zone: tz }).toMillis() + RETRAIN_DAYS * DAY_MS);
+      out.push({
+        kind: 'retraining',
+        key: `${person.id}:${proc.id}:deviation:${ins.id}`,
+        title: `Retrain ${person.name} on ${proc.machine.getEntity().code} “${proc.title}”: deviations at the inspection of ${ins.inspectedOn}`,
+        machineId: proc.machine.id,
+        procedureId: proc.id,
+        personId: person.id,
+        trainingKind: 'authorized',
+        dueAt,
+        status: now > dueAt ? 'overdue' : 'due',
+      });
+    }
+  }
   return out;
 }
 

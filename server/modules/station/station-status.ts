@@ -1,5 +1,5 @@
 import type { EntityManager } from '@mikro-orm/postgresql';
-import type { StationDueRow, StationLockout } from '../../../shared/schemas/consumables';
+import type { StationAlarm, StationDueRow, StationLockout } from '../../../shared/schemas/consumables';
 import { clock } from '../../../shared/clock';
 
 /**
@@ -13,8 +13,8 @@ export async function stationStatus(
   orgId: string,
   machineIds: string[],
   ancestorIds: string[] = [],
-): Promise<{ lockouts: StationLockout[]; due: StationDueRow[] }> {
-  if (machineIds.length === 0) return { lockouts: [], due: [] };
+): Promise<{ lockouts: StationLockout[]; due: StationDueRow[]; alarms: StationAlarm[] }> {
+  if (machineIds.length === 0) return { lockouts: [], due: [], alarms: [] };
   const ids = `{${machineIds.join(',')}}`;
   const lockable = `{${[...machineIds, ...ancestorIds].join(',')}}`;
   // The holder's name tells the operator whom to ask before anything is switched back on.
@@ -35,7 +35,17 @@ export async function stationStatus(
       [orgId, ids],
     );
   const now = clock.ms();
+  // Alarms stay on the page while their lockout is open and for a week after it is raised.
+  const alarms: { id: string; code: string; at: Date; reason: string; subject_id: string | null }[] = await em.execute(
+    `select e.id, m.code, e.at, e.reason, e.subject_id
+       from safety_event e join machine m on m.id = e.machine_id left join safety_lockout l on l.id = e.subject_id
+      where e.organization_id = ? and e.kind = 'alarm' and e.machine_id = any(?::uuid[])
+        and (e.at > ? or (l.id is not null and l.state <> 'released'))
+      order by e.at desc limit 10`,
+    [orgId, lockable, new Date(now - 7 * 86_400_000)],
+  );
   return {
+    alarms: alarms.map((a) => ({ id: a.id, machineCode: a.code, at: new Date(a.at).toISOString(), reason: a.reason, lockoutId: a.subject_id })),
     lockouts: lockouts.map((l) => ({
       id: l.id,
       machineCode: l.code,

@@ -6,7 +6,7 @@ import { TorchPanel } from '../../features/station/components/torch-panel';
 import { RecentChanges } from '../../features/station/components/recent-changes';
 import { ToolsSummary } from '../../features/station/components/tools-summary';
 import { RecordCountersPanel } from '../../features/station/components/record-counters-panel';
-import { DueList, LockoutBanner } from '../../features/station/components/station-status';
+import { DueList, LockoutAlarmBanner, LockoutBanner } from '../../features/station/components/station-status';
 import { useMachineStatus } from '../../features/machine-state/api/get-status';
 import { StateBanner } from '../../features/machine-state/components/state-banner';
 import { FaultReport } from '../../features/machine-state/components/fault-report';
@@ -56,6 +56,7 @@ export function Component() {
   return (
     <div className="space-y-4">
       {status.data ? <StateBanner status={status.data} /> : null}
+      <LockoutAlarmBanner alarms={s.alarms ?? []} />
       <LockoutBanner lockouts={s.lockouts} />
       <div className="flex flex-wrap items-end justify-between gap-3">
         <div>

@@ -24,6 +24,7 @@ import { useSignFlow } from './sign-dialog';
 import { useLinkedWorkOrder } from '../api/get-linked-work-order';
 import { LockoutStateBadge } from './badges';
 import { useShopFormat } from '../../../lib/format';
+import { AbsentRemovalPanel } from './absent-removal-panel';
 
 const pointCol = createColumnHelper<LockPointRow>();
 type Me = { id: string; name: string; role: Role };
@@ -180,7 +181,7 @@ export function LockoutDetailView({ lockout: l, me }: { lockout: LockoutDetail; 
               onClick={() =>
                 run(
                   'isolation-verified',
-                  (password) => verify.mutateAsync({ id: l.id, body: { testedPointIds: tested, startAttempted: true, password } }),
+                  (password) => verify.mutateAsync({ id: l.id, body: { testedPointIds: tested, readings: [], startAttempted: true, password } }),
                   'Isolation verified and signed. Work may start.',
                 )
               }
@@ -366,6 +367,7 @@ export function LockoutDetailView({ lockout: l, me }: { lockout: LockoutDetail; 
           ))}
         </ol>
       </Panel>
+      <AbsentRemovalPanel lockout={l} me={me} run={run} />
       {dialog}
     </div>
   );

@@ -1,5 +1,5 @@
 import { Link } from 'react-router-dom';
-import type { StationDueRow, StationLockout } from '../../../../shared/schemas/consumables';
+import type { StationAlarm, StationDueRow, StationLockout } from '../../../../shared/schemas/consumables';
 import { WORK_STATE_LABELS } from '../../../../shared/schemas/work-orders';
 import { DueBadge, LockoutBadge } from '../../../components/ui/work-badges';
 import { paths } from '../../../config/paths';
@@ -17,6 +17,32 @@ export function LockoutBanner({ lockouts }: { lockouts: StationLockout[] }) {
           <li key={l.id}>
             {l.machineCode} · {l.reason} · locked since {f.dateTime(l.appliedAt)} by {l.heldBy}
             {l.state === 'verified' ? ' · isolation verified' : ''}
+          </li>
+        ))}
+      </ul>
+    </div>
+  );
+}
+
+/** A counter rose while the machine was locked out: the machine ran, or the procedure misses an energy source. */
+export function LockoutAlarmBanner({ alarms }: { alarms: StationAlarm[] }) {
+  const f = useShopFormat();
+  if (alarms.length === 0) return null;
+  return (
+    <div role="alert" data-testid="lockout-alarm" className="rounded border-4 border-danger bg-white px-4 py-3 text-danger">
+      <p className="text-xl font-bold">Alarm: counter rose while locked out</p>
+      <ul className="mt-1 space-y-1 text-steel-900">
+        {alarms.map((a) => (
+          <li key={a.id}>
+            {f.dateTime(a.at)} · {a.reason}
+            {a.lockoutId ? (
+              <>
+                {' · '}
+                <Link to={paths.safetyLockout.getHref(a.lockoutId)} className="font-semibold underline">
+                  open the lockout
+                </Link>
+              </>
+            ) : null}
           </li>
         ))}
       </ul>
