@@ -24,6 +24,7 @@ import { Machine } from '../server/modules/machines/machine.entity';
 import { Meter } from '../server/modules/meters/meter.entity';
 import { importCounterCsv, previewCounterCsv } from '../server/modules/meters/counter-import.service';
 import type { Principal } from '../server/http/principal';
+import { shopLocale } from '../shared/locale';
 
 const port = process.env.PGPORT ?? '54329';
 const dbName = process.env.BENCH_DATABASE ?? 'kerfbook_bench';
@@ -109,7 +110,16 @@ async function main() {
         meters.push({ machine: `B${c}-T`, code: 'arc-starts', kind: 'count' }, { machine: `B${c}-T`, code: 'arc-hours', kind: 'running-time' });
       }
       await em.flush();
-      const who: Principal = { userId: user.id, orgId: shop.id, role: 'admin', name: 'Bench Person', email, orgName: shop.name, timeZone: shop.timeZone };
+      const who: Principal = {
+        userId: user.id,
+        orgId: shop.id,
+        role: 'admin',
+        name: 'Bench Person',
+        email,
+        orgName: shop.name,
+        timeZone: shop.timeZone,
+        locale: shopLocale(),
+      };
       const scoped = () => {
         const f = orm.em.fork() as EntityManager;
         f.setFilterParams('org', { orgId: shop.id });

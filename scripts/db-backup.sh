@@ -2,7 +2,8 @@
 # Backups of the Kerfbook database with Debian's pg_dump/pg_restore (the installed postgresql package).
 #   scripts/db-backup.sh backup [file]          custom-format dump (default .data/backups/kerfbook-<UTC time>.dump)
 #   scripts/db-backup.sh restore <file> [db]    into an EMPTY database (default KERFBOOK_DB or kerfbook), then
-#                                               applies newer migrations and grants the app role its privileges
+#                                               applies newer migrations, grants the app role its privileges
+#                                               and ends every session the dump carried
 # Both connect as the owner role: MIGRATION_DATABASE_URL, or the private cluster's kerfbook_owner
 # on 127.0.0.1:$PGPORT. The dump holds the whole public schema: tables, sessions, the sign-off
 # chain and its append-only triggers.
@@ -56,6 +57,9 @@ restore() {
   fi
   # --clean --if-exists: the dump recreates the (empty) public schema; one transaction, all or nothing.
   "$bin/pg_restore" --no-owner --no-privileges --clean --if-exists --single-transaction --exit-on-error -d "$url" "$file"
+  # Sessions in the dump were live when it was taken; a restored server must not honour them
+  # (a stolen or since-revoked sign-in would come back), so everyone signs in again.
+  "$bin/psql" "$url" -qtAc 'delete from session' >/dev/null
   # Migrations newer than the backup, and the app role's privileges (the dump carries none).
   local app_url="${DATABASE_URL:-postgres://kerfbook:${KERFBOOK_DB_PASSWORD:-kerfbook}@127.0.0.1:$PGPORT/$db}"
   DATABASE_URL="${app_url%/*}/$db" MIGRATION_DATABASE_URL="$url" npx tsx scripts/migrate.ts

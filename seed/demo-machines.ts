@@ -15,7 +15,7 @@ import { PartType, StockMove } from '../server/modules/stock/stock.entity';
 import { ConsumableChange, ConsumableInstall, CutCheck } from '../server/modules/station/consumable.entity';
 import { PunchTool, ToolSharpening } from '../server/modules/punch-tools/punch-tool.entity';
 import { couponResult } from '../shared/domain/consumables';
-import type { ChangeReason } from '../shared/schemas/consumables';
+import type { RemovalReason } from '../shared/schemas/consumables';
 import type { TorchCategory } from '../shared/schemas/stock';
 import { mulberry32 } from './prng';
 import { clock } from '../shared/clock';
@@ -171,6 +171,17 @@ export const seedMachines: SeedStep = async (em, shop) => {
   const cartridge = part('FX-C325', 'Extractor filter cartridge', 'extractor-cartridge', null, null, 118, 14);
   const oil = part('HO-46', 'Hydraulic oil ISO VG 46', 'oil', null, null, 3.9, 5, 'L');
   part('GR-EP2', 'Grease EP2 for guides and screws', 'grease', null, null, 7.5, 5, 'kg');
+  // Change costs of the torch parts: a planned change is the part plus about 6 minutes of
+  // fitting; a failure in service adds a scrapped sheet and stopped time (invented figures).
+  for (const [id, failureCost] of [
+    [big.electrode, 160],
+    [big.nozzle, 120],
+    [small.electrode, 110],
+    [small.nozzle, 90],
+  ] as const) {
+    const r = parts.find((x) => x.id === id)!;
+    Object.assign(r, { plannedChangeCost: Number(r.unitCost) + 6, failureCost });
+  }
   await insertAll(em, PartType, parts);
 
   // Stock moves are written in time order so each row's on-hand-after is right.
@@ -283,7 +294,8 @@ export const seedMachines: SeedStep = async (em, shop) => {
     const first = new Date(start - DAY + 22 * HOUR);
     for (const c of Object.keys(t.scale) as TorchCategory[]) install(c, first, null, starts, hours);
 
-    const change = (at: Date, cats: TorchCategory[], reason: ChangeReason, s: number, h: number) => {
+    /** The part whose life ran out gets the reason; the others came out with it. */
+    const change = (at: Date, cats: TorchCategory[], lead: TorchCategory, reason: RemovalReason, s: number, h: number) => {
       const id = randomUUID();
       const withElectrode = cats.includes('electrode');
       const used = withElectrode ? (s - open.get('electrode')!.starts) / t.scale.electrode : 0;
@@ -292,7 +304,6 @@ export const seedMachines: SeedStep = async (em, shop) => {
         id,
         torch: t.id,
         changedAt: at,
-        reason,
         startsReading: s,
         arcHoursReading: h,
         pitDepthMm: withElectrode && rnd.next() < 0.6 ? round(Math.max(0.2, 0.45 + 0.6 * used + rnd.normal(0, 0.12)), 2) : null,
@@ -307,7 +318,7 @@ export const seedMachines: SeedStep = async (em, shop) => {
         Object.assign(inst, {
           removedAt: at,
           removalChange: id,
-          removalReason: reason,
+          removalReason: c === lead || reason === 'preventive' ? reason : 'with-partner',
           lifeStarts: s - old.starts,
           lifeArcHours: round(h - old.hours, 3),
           updatedAt: at,
@@ -333,39 +344,43 @@ export const seedMachines: SeedStep = async (em, shop) => {
         const at = new Date(shiftStart + ((s - s0) / Math.max(1, dayStarts)) * shiftLen);
         const h = round(h0 + (s - s0) * perStart, 3);
         let cats: TorchCategory[];
-        let reason: ChangeReason;
+        let reason: RemovalReason;
         if (next.category === 'electrode') {
           cats = rnd.next() < 0.9 ? ['electrode', 'nozzle'] : ['electrode'];
           reason = next.preventive
             ? 'preventive'
-            : rnd.pick<ChangeReason>([
-                ['normal-wear', 78],
+            : rnd.pick<RemovalReason>([
+                ['worn', 78],
                 ['failed-start', 11],
                 ['poor-cut', 11],
               ]);
           if (rnd.next() < 0.12) cats.push('swirl-ring');
         } else if (next.category === 'nozzle') {
           cats = ['nozzle'];
-          reason = rnd.pick<ChangeReason>([
-            ['poor-cut', 55],
-            ['normal-wear', 35],
-            ['damaged', 10],
+          reason = rnd.pick<RemovalReason>([
+            ['poor-cut', 50],
+            ['worn', 32],
+            ['damaged', 8],
+            ['gas-pressure', 5],
+            ['moisture', 5],
           ]);
         } else {
           cats = [next.category];
-          reason = rnd.pick<ChangeReason>([
-            ['normal-wear', 70],
+          reason = rnd.pick<RemovalReason>([
+            ['worn', 70],
             ['damaged', 30],
           ]);
         }
-        change(at, cats, reason, s, h);
+        change(at, cats, next.category, reason, s, h);
       }
       if (rnd.next() < 0.015) {
         // After the day's wear-out changes, so lives never run backwards.
+        const knocked: TorchCategory = rnd.next() < 0.5 ? 'shield' : 'nozzle';
         change(
           new Date(shiftStart + shiftLen - 600_000),
-          [rnd.next() < 0.5 ? 'shield' : 'nozzle'],
-          'damaged',
+          [knocked],
+          knocked,
+          rnd.next() < 0.7 ? 'damaged' : 'torch-height',
           s0 + dayStarts,
           round(h0 + dayStarts * perStart, 3),
         );

@@ -20,6 +20,7 @@ import type { Principal } from '../server/http/principal';
 import type { ChecklistLine } from '../shared/schemas/work-orders';
 import { mulberry32 } from './prng';
 import { clock } from '../shared/clock';
+import { shopLocale } from '../shared/locale';
 
 const DAY = 86_400_000;
 
@@ -65,6 +66,7 @@ export const seedPlansDemo: SeedStep = async (rootEm, shop, settings) => {
     email: admin.user.getEntity().email,
     orgName,
     timeZone: shop.timeZone,
+    locale: shopLocale(),
   };
 
   const now = clock.ms();
@@ -94,8 +96,15 @@ export const seedPlansDemo: SeedStep = async (rootEm, shop, settings) => {
       for (const s of oilSamples.filter((o) => o.at <= day && o.at > day - 7 * DAY)) {
         const target = await em.findOne(OilTarget, { machine: h1.id });
         const t = target
-          ? { targetCode: target.targetCode, vgGrade: target.vgGrade, waterLimitPpm: target.waterLimitPpm, temperatureLimitC: target.temperatureLimitC ?? null }
-          : { targetCode: '17/15/12', vgGrade: 46, waterLimitPpm: 500, temperatureLimitC: 60 };
+          ? {
+              targetCode: target.targetCode,
+              vgGrade: target.vgGrade,
+              baselineViscosityCst: target.baselineViscosityCst ?? null,
+              waterLimitPpm: target.waterLimitPpm,
+              temperatureLimitC: target.temperatureLimitC ?? null,
+            }
+          : // The oil as delivered measured 45.8 mm²/s; used oil is judged against that.
+            { targetCode: '17/15/12', vgGrade: 46, baselineViscosityCst: 45.8, waterLimitPpm: 500, temperatureLimitC: null };
         if (!target) em.create(OilTarget, { organization: shop.id, machine: h1, ...t });
         const input = { ge4um: s.counts[0], ge6um: s.counts[1], ge14um: s.counts[2], viscosity40: s.v, waterPpm: s.w, temperatureC: s.t };
         const v = judge(input, t);

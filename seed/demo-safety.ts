@@ -28,6 +28,7 @@ import { pointTag, type ProcedureContent, type EnergySource } from '../shared/sc
 import type { PpeItem } from '../shared/schemas/safety-ppe';
 import type { SeedStep } from './demo';
 import { clock } from '../shared/clock';
+import { shopLocale } from '../shared/locale';
 
 const src = (s: EnergySource) => s;
 
@@ -325,7 +326,7 @@ export const seedSafetyDemo: SeedStep = async (rootEm, shop) => {
     const m = members.find((x) => x.role === role);
     if (!m) throw new Error(`demo safety seed: no ${role} in the demo shop`);
     const u = m.user.getEntity();
-    return { userId: u.id, orgId: shop.id, role: m.role, name: u.name, email: u.email, orgName, timeZone: shop.timeZone };
+    return { userId: u.id, orgId: shop.id, role: m.role, name: u.name, email: u.email, orgName, timeZone: shop.timeZone, locale: shopLocale() };
   };
   const safety = person('safety');
   const tech = person('technician');
@@ -664,7 +665,15 @@ export const seedSafetyDemo: SeedStep = async (rootEm, shop) => {
     if (hyd) lockout(hyd, openedAt, 'Hose replacement in progress', { open: true });
 
     // PPE requirements and ten weeks of shift checks (a few missed).
-    const reqs: { m: IMachine; task: string; items: PpeItem[]; arc: number | null; noise: { levelDbA: number; hours: number }[] }[] = [];
+    const reqs: {
+      m: IMachine;
+      task: string;
+      items: PpeItem[];
+      arc: number | null;
+      noise: { levelDbA: number; hours: number }[];
+      peakDbC?: number;
+      protectorNrr?: number;
+    }[] = [];
     for (const c of cells) {
       reqs.push({
         m: c,
@@ -675,6 +684,9 @@ export const seedSafetyDemo: SeedStep = async (rootEm, shop) => {
           { levelDbA: 91, hours: 5 },
           { levelDbA: 84, hours: 3 },
         ],
+        // Punching is impact noise: its peak is checked against 140 dB, and the issued plugs are rated.
+        peakDbC: 131,
+        protectorNrr: 29,
       });
     }
     if (table)
@@ -709,13 +721,15 @@ export const seedSafetyDemo: SeedStep = async (rootEm, shop) => {
         otherItems: [],
         arcCurrentA: r.arc,
         noise: r.noise,
+        peakDbC: r.peakDbC ?? null,
+        protectorNrr: r.protectorNrr ?? null,
         cadence: r.m.kind === 'hydraulic-unit' ? 'none' : 'shift',
         active: true,
         createdAt: reqAt,
       });
       if (req.cadence === 'none') continue;
       const derived = deriveRequiredItems(
-        { items: r.items, otherItems: [], arcCurrentA: r.arc, noise: r.noise },
+        { items: r.items, otherItems: [], arcCurrentA: r.arc, noise: r.noise, peakDbC: r.peakDbC ?? null, protectorNrr: r.protectorNrr ?? null },
         {
           shadeTable: null,
           hearingRequiredFromDbA: DEFAULT_SAFETY_SETTINGS.hearingRequiredFromDbA,
@@ -755,7 +769,15 @@ export const seedSafetyDemo: SeedStep = async (rootEm, shop) => {
                     task: r.task,
                     items: derived.required.map((i) => ({ code: i.code, detail: i.detail })),
                     shade: derived.shade?.ok ? { minimum: derived.shade.minimum, arcCurrentA: derived.shade.arcCurrentA, source: derived.shade.source } : null,
-                    hearing: derived.hearing ? { twaDbA: derived.hearing.twaDbA, required: derived.hearing.required, rule: derived.hearing.ruleSource } : null,
+                    hearing: derived.hearing
+                      ? {
+                          twaDbA: derived.hearing.twaDbA,
+                          pelTwaDbA: derived.hearing.pel.twaDbA,
+                          overPel: derived.hearing.pel.reached,
+                          required: derived.hearing.required,
+                          rule: derived.hearing.ruleSource,
+                        }
+                      : null,
                   },
                 },
                 at,

@@ -20,6 +20,7 @@ import { registerActivityLogRoutes } from './modules/activity-log/activity-log.r
 import { registerOrganizationRoutes } from './modules/organizations/organizations.routes';
 import { registerSafetyRoutes } from './modules/safety/safety.routes';
 import { registerMachineRoutes } from './modules/machines/machines.routes';
+import { registerMachineStateRoutes } from './modules/machines/machine-state.routes';
 import { registerMeterRoutes } from './modules/meters/meters.routes';
 import { registerCounterImportRoutes } from './modules/meters/counter-import.routes';
 import { registerStockRoutes } from './modules/stock/stock.routes';
@@ -88,6 +89,7 @@ export function createApp({ orm, config, smtp = null }: AppDeps): AppHandle {
   registerOrganizationRoutes(api);
   registerSafetyRoutes(api, config);
   registerMachineRoutes(api);
+  registerMachineStateRoutes(api, config);
   registerMeterRoutes(api);
   registerCounterImportRoutes(api);
   registerStockRoutes(api);
@@ -97,7 +99,7 @@ export function createApp({ orm, config, smtp = null }: AppDeps): AppHandle {
   registerWorkOrderRoutes(api, config);
   registerOilAnalysisRoutes(api, planEvaluator(orm, config.APP_URL));
   registerCalendarFeedRoutes(api, config);
-  registerJobRunRoutes(api, () => runScheduledPass(orm));
+  registerJobRunRoutes(api, (orgId) => runScheduledPass(orm, undefined, { orgId }));
   registerDevInboxRoutes(api, config.MAIL_CAPTURE ? smtp : null, config.NODE_ENV === 'production');
 
   api.use(() => {

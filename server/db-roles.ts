@@ -23,9 +23,9 @@ export function roleOf(databaseUrl: string): string {
 const ident = (name: string) => `"${name.replace(/"/g, '""')}"`;
 
 /** Tables whose rows the app role may add and read but never change or remove. */
-const APPEND_ONLY_TABLES = ['safety_sign_off'];
+const APPEND_ONLY_TABLES = ['safety_sign_off', 'machine_state_change'];
 /** Tables the app role may add, read and update, but not delete from. */
-const NO_DELETE_TABLES = ['safety_chain_head'];
+const NO_DELETE_TABLES = ['safety_chain_head', 'machine_downtime'];
 
 /**
  * Grants the app role what the server needs, run by the owner after every migration run

@@ -5,6 +5,7 @@ import { ActivityEvent } from './modules/activity-log/activity-event.entity';
 import { OutboxMail } from './mail/outbox.entity';
 import { Machine } from './modules/machines/machine.entity';
 import { MachinePhoto } from './modules/machines/machine-photo.entity';
+import { FailureCode, MachineDowntime, MachineStateChange } from './modules/machines/machine-state.entity';
 import { Meter, MeterReading } from './modules/meters/meter.entity';
 import { PartType, StockMove } from './modules/stock/stock.entity';
 import { MaintenancePlan } from './modules/plans/plan.entity';
@@ -46,4 +47,7 @@ export const entities = [
   PunchTool,
   ToolSharpening,
   MachinePhoto,
+  MachineDowntime,
+  MachineStateChange,
+  FailureCode,
 ];

@@ -34,6 +34,9 @@ export const PERMISSIONS = {
   // Machines, meters, consumables: everyone reads; operators log at the machine, technicians keep records and stock.
   'machines.read': everyone,
   'machines.manage': ['admin', 'technician'],
+  /** Taking a machine out of service or back by hand (an operator stops one by reporting a fault). */
+  'machines.state': ['technician', 'safety', 'admin'],
+  'failure-codes.manage': ['technician', 'admin'],
   'meters.manage': ['admin', 'technician'],
   'readings.record': ['operator', 'technician', 'admin'],
   'readings.import': ['technician', 'admin'],

@@ -9,6 +9,8 @@ export type Principal = {
   /** The shop's name and IANA time zone, read with the membership so a request needs no second query. */
   orgName: string;
   timeZone: string;
+  /** The shop's locale for numbers and month names (shared/locale.ts). */
+  locale: string;
 };
 
 declare module 'express-session' {

@@ -18,8 +18,8 @@ type Due = {
   org_name: string;
 };
 
-/** Sends the summaries due at `now` (links start with `appUrl`); returns mails queued per shop. */
-export async function sendDigests(orm: MikroORM, now: Date, appUrl: string): Promise<Map<string, number>> {
+/** Sends the summaries due at `now` (links start with `appUrl`), in every shop or in `orgId`'s; returns mails queued per shop. */
+export async function sendDigests(orm: MikroORM, now: Date, appUrl: string, orgId?: string): Promise<Map<string, number>> {
   const out = new Map<string, number>();
   const candidates: Due[] = await orm.em.fork().execute(
     `select np.id, np.organization_id, np.user_id, np.digest_hour, np.last_digest_date, u.email, u.name, m.role, o.time_zone, o.name as org_name
@@ -27,7 +27,8 @@ export async function sendDigests(orm: MikroORM, now: Date, appUrl: string): Pro
        join membership m on m.user_id = np.user_id and m.organization_id = np.organization_id and m.active
        join app_user u on u.id = np.user_id
        join organization o on o.id = np.organization_id
-      where np.mode = 'daily'`,
+      where np.mode = 'daily' ${orgId ? 'and np.organization_id = ?' : ''}`,
+    orgId ? [orgId] : [],
   );
   for (const c of candidates) {
     const local = DateTime.fromJSDate(now, { zone: c.time_zone });

@@ -6,7 +6,7 @@ import { clock } from '../../shared/clock';
 import { runDueEngine } from './due-engine';
 import { sendDigests } from './due-engine-digest';
 import { emptyStats, errorText, type OrgStats } from './due-engine-run';
-import type { JobStep } from './scheduler';
+import type { JobStep, PassScope } from './scheduler';
 
 const DAY_MS = 86_400_000;
 /** Job run rows are kept this long. */
@@ -43,21 +43,23 @@ async function recordRuns(orm: MikroORM, passId: string, startedAt: Date, stats:
 }
 
 /** The scheduled step: evaluate every plan, raise, escalate, send daily summaries, record the run. */
-export async function runMaintenancePass(orm: MikroORM, now: Date, config: { appUrl: string }): Promise<Record<string, number>> {
+export async function runMaintenancePass(orm: MikroORM, now: Date, config: { appUrl: string }, scope: PassScope = {}): Promise<Record<string, number>> {
   const passId = randomUUID();
   const startedAt = clock.now();
   let stats = new Map<string, OrgStats>();
   let failure: unknown = null;
   try {
-    stats = await runDueEngine(orm, now, { appUrl: config.appUrl });
-    const digests = await sendDigests(orm, now, config.appUrl);
+    stats = await runDueEngine(orm, now, { appUrl: config.appUrl, orgId: scope.orgId });
+    const digests = await sendDigests(orm, now, config.appUrl, scope.orgId);
     for (const [org, n] of digests) {
       const s = stats.get(org);
       if (s) s.mailsQueued += n;
     }
   } catch (err) {
     failure = err;
-    const orgs: { id: string }[] = await orm.em.fork().execute(`select id from organization`);
+    const orgs: { id: string }[] = await orm.em
+      .fork()
+      .execute(`select id from organization ${scope.orgId ? 'where id = ?' : ''}`, scope.orgId ? [scope.orgId] : []);
     for (const o of orgs) {
       const s = stats.get(o.id) ?? emptyStats();
       s.errors.push({ message: `pass failed: ${errorText(err)}` });
@@ -86,4 +88,7 @@ export async function runMaintenancePass(orm: MikroORM, now: Date, config: { app
 }
 
 /** The due engine's scheduler step, with the settings it mails links with. */
-export const maintenancePassStep = (config: { appUrl: string }): JobStep => ({ name: 'due-engine', run: (orm, now) => runMaintenancePass(orm, now, config) });
+export const maintenancePassStep = (config: { appUrl: string }): JobStep => ({
+  name: 'due-engine',
+  run: (orm, now, scope) => runMaintenancePass(orm, now, config, scope),
+});

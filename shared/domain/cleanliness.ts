@@ -185,3 +185,40 @@ export function compareToTarget(actual: string | Iso4406Parsed, target: string |
   const ge14um = one(a.ge14um, t.ge14um);
   return { ge4um, ge6um, ge14um, exceedsAny: [ge4um, ge6um, ge14um].some((s) => s.exceeds === true) };
 }
+
+export type OilVerdict = 'within' | 'caution' | 'action';
+
+/** Steps over target at which a result is a caution and an action; a shop may set its own. */
+export interface CleanlinessSteps {
+  caution: number;
+  action: number;
+}
+
+/**
+ * One step over target is a caution, two or more call for action: common practice in oil-condition
+ * monitoring, since one ISO 4406 step (about a doubling of the count, ISO 4406:2021 §4.1) is within
+ * what a repeated count of the same sample can give. A shop may set its own steps.
+ */
+export const DEFAULT_CLEANLINESS_STEPS: CleanlinessSteps = Object.freeze({ caution: 1, action: 2 });
+
+/**
+ * Verdict of a measured ISO 4406 code against a target code, on the worst size reported on both
+ * sides: 'within' when no size is over, 'caution' from `steps.caution` steps over, 'action' from
+ * `steps.action` steps over. A size written "-" on either side is not judged (a target such as
+ * "-/15/12" leaves the ≥4 µm count free). Throws for a code that does not parse (naming the part) or
+ * for steps that are not whole numbers with 1 ≤ caution ≤ action.
+ */
+export function cleanlinessVerdict(
+  actual: string | Iso4406Parsed,
+  target: string | Iso4406Parsed,
+  steps: CleanlinessSteps = DEFAULT_CLEANLINESS_STEPS,
+): { verdict: OilVerdict; worstStepsOver: number; comparison: TargetComparison } {
+  if (!Number.isInteger(steps.caution) || !Number.isInteger(steps.action) || steps.caution < 1 || steps.action < steps.caution) {
+    throw new Error(`cleanlinessVerdict: steps must be whole numbers with 1 ≤ caution ≤ action (got ${steps.caution}, ${steps.action})`);
+  }
+  const comparison = compareToTarget(actual, target);
+  const over = [comparison.ge4um, comparison.ge6um, comparison.ge14um].map((s) => s.stepsOver).filter((s): s is number => s !== null);
+  const worstStepsOver = over.length ? Math.max(...over) : 0;
+  const verdict: OilVerdict = worstStepsOver >= steps.action ? 'action' : worstStepsOver >= steps.caution ? 'caution' : 'within';
+  return { verdict, worstStepsOver, comparison };
+}

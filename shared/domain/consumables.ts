@@ -3,6 +3,8 @@
  * and the split of removals into failures and suspensions for the life statistics.
  * Pure: no I/O; runs in the browser too.
  */
+import { REMOVAL_REASON_KIND, type ChangeReason, type RemovalReason } from '../schemas/consumables';
+import { TORCH_CATEGORIES, type TorchCategory } from '../schemas/stock';
 
 export type ReferenceValue = { value: number; unit: string; source: string; overridden: boolean };
 
@@ -64,19 +66,52 @@ export function lifeState(fraction: number | null): 'ok' | 'near' | 'over' | 'un
 }
 
 /**
- * Splits achieved lives into failures (worn out) and right-censored suspensions (removed for
- * another reason, or still installed), the inputs of a censored Weibull fit (NIST
- * e-Handbook §8.4.1.2). Lives of zero or less carry no information and are left out.
+ * The part a change was made for, when several came out together: the nozzle for a poor
+ * cut, else the electrode (it wears fastest and is what operators change for), else the
+ * innermost part. Shop rule of thumb (common practice).
  */
-export function splitLives(removals: { life: number | null; wornOut: boolean }[], stillInstalled: (number | null)[]) {
+export function leadPart(categories: readonly TorchCategory[], reason?: ChangeReason | RemovalReason): TorchCategory {
+  if (categories.length === 0) throw new Error('A change needs at least one part');
+  if (reason === 'poor-cut' && categories.includes('nozzle')) return 'nozzle';
+  if (categories.includes('electrode')) return 'electrode';
+  return [...categories].sort((a, b) => TORCH_CATEGORIES.indexOf(a) - TORCH_CATEGORIES.indexOf(b))[0];
+}
+
+/**
+ * One reason for a whole change, split per part: the reason applies to the lead part and the
+ * others were changed with their partner; a preventive change is preventive for every part.
+ * The same rule moved the older records (one reason per change) to a reason per part.
+ */
+export function reasonsFromSingle(categories: readonly TorchCategory[], reason: ChangeReason): Partial<Record<TorchCategory, RemovalReason>> {
+  const lead = leadPart(categories, reason);
+  const own: RemovalReason = reason === 'normal-wear' ? 'worn' : reason;
+  return Object.fromEntries(categories.map((c) => [c, reason === 'preventive' ? 'preventive' : c === lead ? own : 'with-partner']));
+}
+
+/** The reasons the change form starts with: the lead part worn, the others changed with it. */
+export function defaultReasons(categories: readonly TorchCategory[]): Partial<Record<TorchCategory, RemovalReason>> {
+  return categories.length ? reasonsFromSingle(categories, 'normal-wear') : {};
+}
+
+/**
+ * Splits achieved lives into failures (the part wore out) and right-censored suspensions
+ * (it still had life: changed with its partner, preventive, damaged; or the process killed it;
+ * or it is still installed), the inputs of a censored Weibull fit (NIST e-Handbook §8.4.1.2;
+ * competing causes treated as censoring, Meeker & Escobar §15). Process faults are also counted
+ * apart. Lives of zero or less carry no information and are left out.
+ */
+export function splitLives(removals: { life: number | null; reason: RemovalReason | null }[], stillInstalled: (number | null)[]) {
   const failures: number[] = [];
   const suspensions: number[] = [];
+  let processFaults = 0;
   for (const r of removals) {
     if (r.life === null || !(r.life > 0)) continue;
-    (r.wornOut ? failures : suspensions).push(r.life);
+    const kind = r.reason ? REMOVAL_REASON_KIND[r.reason] : 'suspension';
+    if (kind === 'process') processFaults++;
+    (kind === 'wear' ? failures : suspensions).push(r.life);
   }
   for (const life of stillInstalled) if (life !== null && life > 0) suspensions.push(life);
-  return { failures, suspensions };
+  return { failures, suspensions, processFaults };
 }
 
 /** Equal-width bins from 0 to the longest life, about √n of them (square-root choice), at most 20. */

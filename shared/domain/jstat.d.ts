@@ -14,6 +14,8 @@ declare module 'jstat' {
   interface JStatStatic {
     normal: JStatNormal;
     weibull: JStatWeibull;
+    /** Regularised lower incomplete gamma P(a, x). */
+    lowRegGamma(a: number, x: number): number;
     mean(values: number[]): number;
     /** Sample covariance (divides by n − 1). */
     covariance(a: number[], b: number[]): number;

@@ -52,21 +52,42 @@ export function permissibleHours(levelDbA: number): number {
 }
 
 /**
+ * Which sound levels a dose integrates (OSHA 29 CFR 1910.95 App. A, I, and 1910.95(d)(2)(i)):
+ * - 'hearing-conservation': 80 to 130 dBA, judged against the 85 dBA action level (1910.95(c)(1));
+ * - 'pel': 90 to 140 dBA, judged against the 90 dBA permissible exposure limit (1910.95(b), Table G-16).
+ * Levels under the lower bound add nothing. Levels over the upper bound are counted at their level
+ * (a reading past the instrument's range must not lower a dose).
+ */
+export type DoseBasis = 'hearing-conservation' | 'pel';
+
+export const DOSE_BASES: Record<DoseBasis, { fromDbA: number; toDbA: number; label: string; source: string }> = {
+  'hearing-conservation': {
+    fromDbA: DOSE_THRESHOLD_DBA,
+    toDbA: 130,
+    label: 'hearing conservation (80–130 dBA)',
+    source: 'OSHA 29 CFR 1910.95(c)(1), (d)(2)(i) and App. A',
+  },
+  pel: { fromDbA: 90, toDbA: 140, label: 'PEL (90–140 dBA)', source: 'OSHA 29 CFR 1910.95(b)(1), Table G-16 and App. A' },
+};
+
+/**
  * Daily noise dose in percent: D = 100 · Σ Cn / Tn.
  *
- * Source: OSHA 29 CFR 1910.95 Appendix A, I(1)(ii); Tn from permissibleHours.
- * Periods below 80 dBA contribute nothing, because 1910.95(d)(2)(i) integrates
- * sound levels from 80 to 130 dB; exactly 80 dBA counts. This is the dose
- * the hearing conservation program is judged on; it is also used for the PEL
- * here, which can only over-state (never under-state) a PEL exposure.
+ * Source: OSHA 29 CFR 1910.95 Appendix A, I(1)(ii); Tn from permissibleHours. The basis picks the
+ * levels integrated (see DoseBasis): the default, 'hearing-conservation', counts from 80 dBA; 'pel'
+ * counts from 90 dBA. 8 h at 90 dBA + 4 h at 85 dBA is 125 % (TWA 91.6) for the hearing
+ * conservation program but 100 % (TWA 90, at the limit) for the PEL.
  *
  * Throws for a non-array, a non-finite level, negative or non-finite hours,
  * or periods totalling more than 24 hours.
  */
-export function noiseDosePercent(exposures: readonly NoiseExposure[]): number {
+export function noiseDosePercent(exposures: readonly NoiseExposure[], options: { basis?: DoseBasis } = {}): number {
   if (!Array.isArray(exposures)) {
     throw new Error('exposures must be an array of { levelDbA, hours }');
   }
+  const basis = options.basis ?? 'hearing-conservation';
+  const range = DOSE_BASES[basis];
+  if (!range) throw new Error(`basis must be 'hearing-conservation' or 'pel' (got ${String(basis)})`);
   let totalHours = 0;
   let fraction = 0;
   exposures.forEach((e: NoiseExposure, i: number) => {
@@ -77,7 +98,7 @@ export function noiseDosePercent(exposures: readonly NoiseExposure[]): number {
     const hours = requireFinite(e.hours, `exposures[${i}].hours`);
     if (hours < 0) throw new Error(`exposures[${i}].hours must be >= 0 (got ${hours})`);
     totalHours += hours;
-    if (level >= DOSE_THRESHOLD_DBA) fraction += hours / permissibleHours(level);
+    if (level >= range.fromDbA) fraction += hours / permissibleHours(level);
   });
   // A dose is per work day; more than 24 h of periods is a data-entry error.
   if (totalHours > 24) {
@@ -156,5 +177,97 @@ export function hearingProtectionRequired(twaDbA: number): HearingProtectionStat
     protectorsRequired: overPel,
     description: descriptions[band],
     sources: ['OSHA 29 CFR 1910.95(c)(1)', 'OSHA 29 CFR 1910.95(i)(1)-(2)', 'OSHA 29 CFR 1910.95(b)(1), Table G-16'],
+  };
+}
+
+/** One basis's result: the dose, its TWA (null for a 0 % dose) and whether it passes the basis's limit. */
+export interface BasisVerdict {
+  basis: DoseBasis;
+  dosePercent: number;
+  twaDbA: number | null;
+  /** Hearing conservation: TWA ≥ 85 dBA (dose ≥ 50 %). PEL: TWA > 90 dBA (dose > 100 %). */
+  reached: boolean;
+  limitDbA: number;
+  label: string;
+  source: string;
+}
+
+function verdictOn(exposures: readonly NoiseExposure[], basis: DoseBasis): BasisVerdict {
+  const dosePercent = noiseDosePercent(exposures, { basis });
+  const twaDbA = dosePercent > 0 ? twaFromDose(dosePercent) : null;
+  const limitDbA = basis === 'pel' ? PEL_TWA_DBA : ACTION_LEVEL_TWA_DBA;
+  // "Equal or exceed" for the action level (1910.95(c)(1)), "exceed" for the PEL (1910.95(b)(1)).
+  const reached = twaDbA !== null && (basis === 'pel' ? twaDbA > PEL_TWA_DBA + TWA_TOLERANCE_DB : twaDbA >= ACTION_LEVEL_TWA_DBA - TWA_TOLERANCE_DB);
+  return { basis, dosePercent, twaDbA, reached, limitDbA, label: DOSE_BASES[basis].label, source: DOSE_BASES[basis].source };
+}
+
+/**
+ * Both verdicts a day's exposure gets, each on its own basis (OSHA 29 CFR 1910.95 App. A):
+ * the action level on the 80–130 dBA dose, the PEL on the 90–140 dBA dose.
+ */
+export function noiseVerdicts(exposures: readonly NoiseExposure[]): { actionLevel: BasisVerdict; pel: BasisVerdict } {
+  return { actionLevel: verdictOn(exposures, 'hearing-conservation'), pel: verdictOn(exposures, 'pel') };
+}
+
+/** Impulse or impact noise should not exceed 140 dB peak sound pressure level (OSHA 29 CFR 1910.95(b)(2)). */
+export const IMPULSE_PEAK_LIMIT_DB = 140;
+
+/**
+ * True when a peak sound pressure level (dB, C-weighted or unweighted peak, as a meter reports it)
+ * is over the 140 dB ceiling for impulsive or impact noise of OSHA 29 CFR 1910.95(b)(2); exactly 140
+ * is not over ("should not exceed").
+ */
+export function impulsePeakExceeded(peakDbC: number): boolean {
+  requireFinite(peakDbC, 'peak level (dB)');
+  return peakDbC > IMPULSE_PEAK_LIMIT_DB;
+}
+
+/**
+ * Estimated exposure under a hearing protector from its Noise Reduction Rating.
+ *
+ * Source: OSHA 29 CFR 1910.95 Appendix B, the methods for A-weighted dosimeter or sound-level-meter
+ * TWAs: protected TWA = TWA − (NRR − 7). For a C-weighted TWA (`weighting: 'C'`) the NRR is
+ * subtracted as it is (App. B, the C-weighted methods). `derate: true` halves the attenuation term,
+ * (NRR − 7) / 2: the OSHA Technical Manual (Section III, Chapter 5) applies this 50 % correction
+ * when judging whether protectors are adequate in the field (from memory of the manual; the
+ * Appendix itself does not derate). An NRR below 7 gives no credit with an A-weighted TWA rather
+ * than a negative attenuation.
+ */
+export function protectedExposureDbA(twaDbA: number, nrr: number, options: { derate?: boolean; weighting?: 'A' | 'C' } = {}): number {
+  requireFinite(twaDbA, 'TWA (dBA)');
+  requireFinite(nrr, 'NRR (dB)');
+  if (nrr < 0) throw new Error(`NRR must be >= 0 (got ${nrr})`);
+  const attenuation = Math.max(0, options.weighting === 'C' ? nrr : nrr - 7);
+  return twaDbA - (options.derate ? attenuation / 2 : attenuation);
+}
+
+/** One task's share of a person's day: the task's noise periods as that person spends them. */
+export interface TaskExposure {
+  label: string;
+  exposures: readonly NoiseExposure[];
+}
+
+/**
+ * A person's daily dose from several tasks (at several machines): each task's partial dose, and
+ * their sum, which is the App. A formula D = 100 · Σ Cn / Tn over all the day's periods (OSHA 29
+ * CFR 1910.95 App. A, I(1)(ii)); both bases. The periods of all tasks may not add up to more than
+ * 24 hours.
+ */
+export function dailyDoseAcrossTasks(tasks: readonly TaskExposure[]): {
+  tasks: { label: string; actionLevelDosePercent: number; pelDosePercent: number }[];
+  actionLevel: BasisVerdict;
+  pel: BasisVerdict;
+} {
+  if (!Array.isArray(tasks)) throw new Error('tasks must be an array of { label, exposures }');
+  const all = tasks.flatMap((t) => t.exposures);
+  const { actionLevel, pel } = noiseVerdicts(all);
+  return {
+    tasks: tasks.map((t) => ({
+      label: t.label,
+      actionLevelDosePercent: noiseDosePercent(t.exposures),
+      pelDosePercent: noiseDosePercent(t.exposures, { basis: 'pel' }),
+    })),
+    actionLevel,
+    pel,
   };
 }

@@ -10,7 +10,7 @@
 import type { MachineKind } from '../schemas/machines';
 import type { PartCategory } from '../schemas/stock';
 import type { Role } from '../permissions';
-import type { ChecklistTemplateItem } from '../schemas/plans';
+import type { ChecklistTemplateItem, StationRecordRule } from '../schemas/plans';
 
 export type StarterMeter = { codes: string[]; unit: string };
 
@@ -36,6 +36,8 @@ export type StarterPlan = {
   dueSoonFraction: number;
   /** Parts to plan, matched to the shop's catalogue by category (first active part of that category). */
   parts: { category: PartCategory; quantity: number }[];
+  /** The station record that does this work (a counter reading is left out: it names a meter of the shop). */
+  stationRecord?: Exclude<StationRecordRule, { kind: 'counter-reading' }>;
 };
 
 const PUMP_HOURS: StarterMeter = { codes: ['pump-hours', 'hpu-hours'], unit: 'h' };
@@ -228,6 +230,8 @@ export const STARTER_PLANS: readonly StarterPlan[] = [
     dueSoonDays: 0,
     dueSoonFraction: 0.1,
     parts: [],
+    // Changing electrode and nozzle at the station is this check done: the pit is measured as they come out.
+    stationRecord: { kind: 'consumable-change', categories: ['electrode', 'nozzle'] },
   },
   {
     key: 'axis-lube',
@@ -326,6 +330,7 @@ export const STARTER_PLANS: readonly StarterPlan[] = [
     dueSoonDays: 1,
     dueSoonFraction: 0,
     parts: [],
+    stationRecord: { kind: 'cut-check' },
   },
   {
     key: 'torch-lead',

@@ -99,3 +99,44 @@ export function viscosityStatus(measured: number, grade: number, options: { warn
   else band = 'within';
   return { band, withinGrade: band === 'within' || band === 'near-limit', deviation, limits };
 }
+
+/** Change from the new-oil value, in percent, at which a result is a caution and an action. */
+export interface ViscosityLimits {
+  cautionPercent: number;
+  actionPercent: number;
+}
+
+/**
+ * ±10 % caution, ±20 % action: common practice in used-oil analysis for industrial and hydraulic
+ * oils (not from a standard); a shop may set its own.
+ */
+export const DEFAULT_VISCOSITY_LIMITS: ViscosityLimits = Object.freeze({ cautionPercent: 10, actionPercent: 20 });
+
+/**
+ * Change of a used oil's kinematic viscosity at 40 °C from its new-oil baseline (the value measured
+ * on, or printed for, the oil as delivered), and its verdict: at or beyond ±cautionPercent a caution,
+ * at or beyond ±actionPercent action. The ISO VG band (ISO 3448) classifies new oil and is not used
+ * to condemn used oil. Throws for non-positive viscosities or limits with 0 < caution ≤ action not met.
+ */
+export function viscosityChange(
+  measuredCst: number,
+  baselineCst: number,
+  limits: ViscosityLimits = DEFAULT_VISCOSITY_LIMITS,
+): { changePercent: number; verdict: 'within' | 'caution' | 'action' } {
+  for (const [name, v] of [
+    ['measuredCst', measuredCst],
+    ['baselineCst', baselineCst],
+  ] as const) {
+    if (typeof v !== 'number' || !Number.isFinite(v) || v <= 0)
+      throw new Error(`viscosityChange: ${name} must be a positive number of mm²/s, got ${String(v)}`);
+  }
+  const { cautionPercent, actionPercent } = limits;
+  if (!(Number.isFinite(cautionPercent) && Number.isFinite(actionPercent) && cautionPercent > 0 && actionPercent >= cautionPercent)) {
+    throw new Error(`viscosityChange: limits need 0 < cautionPercent ≤ actionPercent (got ${cautionPercent}, ${actionPercent})`);
+  }
+  const changePercent = ((measuredCst - baselineCst) / baselineCst) * 100;
+  // Compared after rounding to 1e-9 %, so 55.2 against 46 is +20 % exactly, not 19.999…
+  const size = Math.round(Math.abs(changePercent) * 1e9) / 1e9;
+  const verdict = size >= actionPercent ? 'action' : size >= cautionPercent ? 'caution' : 'within';
+  return { changePercent, verdict };
+}

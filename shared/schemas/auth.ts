@@ -21,6 +21,6 @@ export type TokenPasswordInput = z.infer<typeof tokenPasswordSchema>;
 export const meSchema = z.object({
   user: z.object({ id: z.string(), email: z.string(), name: z.string() }),
   role: z.enum(ROLES),
-  organization: z.object({ id: z.string(), name: z.string(), timeZone: z.string() }),
+  organization: z.object({ id: z.string(), name: z.string(), timeZone: z.string(), locale: z.string() }),
 });
 export type Me = z.infer<typeof meSchema>;

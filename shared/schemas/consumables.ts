@@ -4,21 +4,57 @@ import type { MeterRow } from './machines';
 import { clock } from '../clock';
 import { isoDateTime, oneLine } from './text';
 
-/** Why a consumable came out. Our own labels; the first three mean the part reached the end of its life. */
+/**
+ * Why a change was made, as one reason for the whole change. Kept for older clients and
+ * imports: it is turned into a reason per part by `reasonsFromSingle` (shared/domain/consumables).
+ */
 export const CHANGE_REASONS = ['normal-wear', 'failed-start', 'poor-cut', 'damaged', 'preventive'] as const;
 export type ChangeReason = (typeof CHANGE_REASONS)[number];
-export const CHANGE_REASON_LABELS: Record<ChangeReason, string> = {
-  'normal-wear': 'Normal wear',
-  'failed-start': 'Failed start / blow-out',
-  'poor-cut': 'Poor cut quality',
+
+/** Why one part came out. Our own short labels. */
+export const REMOVAL_REASONS = [
+  'worn',
+  'failed-start',
+  'poor-cut',
+  'damaged',
+  'with-partner',
+  'preventive',
+  'gas-pressure',
+  'moisture',
+  'torch-height',
+] as const;
+export type RemovalReason = (typeof REMOVAL_REASONS)[number];
+export const REMOVAL_REASON_LABELS: Record<RemovalReason, string> = {
+  worn: 'Worn',
+  'failed-start': 'Failed start',
+  'poor-cut': 'Poor cut',
   damaged: 'Damaged',
+  'with-partner': 'With its partner',
   preventive: 'Preventive',
+  'gas-pressure': 'Gas pressure',
+  moisture: 'Moisture in air',
+  'torch-height': 'Torch height',
 };
 /**
- * Removals that end a part's life by wear count as failures in the life statistics;
- * damaged (an accident, not wear) and preventive (still working) are suspensions.
+ * How a removal counts in the life statistics:
+ * - wear: the part's own life ended (a failure in the Weibull fit);
+ * - suspension: the part still had life (changed with its partner, preventive, knocked) — right-censored;
+ * - process: the process killed it (gas pressure, moisture, torch height) — not the part's wear,
+ *   so also right-censored in the fit, and counted apart so the process gets fixed.
  */
-export const WEAR_OUT_REASONS: readonly ChangeReason[] = ['normal-wear', 'failed-start', 'poor-cut'];
+export type RemovalKind = 'wear' | 'suspension' | 'process';
+export const REMOVAL_REASON_KIND: Record<RemovalReason, RemovalKind> = {
+  worn: 'wear',
+  'failed-start': 'wear',
+  'poor-cut': 'wear',
+  damaged: 'suspension',
+  'with-partner': 'suspension',
+  preventive: 'suspension',
+  'gas-pressure': 'process',
+  moisture: 'process',
+  'torch-height': 'process',
+};
+export const REMOVAL_KIND_LABELS: Record<RemovalKind, string> = { wear: 'Worn out', suspension: 'Still had life', process: 'Process fault' };
 
 const optionalCounter = (label: string) =>
   z
@@ -36,7 +72,10 @@ export const consumableChangeSchema = z
       .max(TORCH_CATEGORIES.length),
     /** Part type per category; when left out, the same part as the one coming out. */
     partTypeIds: z.partialRecord(z.enum(TORCH_CATEGORIES), z.uuid({ message: 'Choose a part' })).default({}),
-    reason: z.enum(CHANGE_REASONS, { message: 'Choose why the parts came out' }),
+    /** Why each part came out; a part left out takes its reason from `reason`. */
+    reasons: z.partialRecord(z.enum(TORCH_CATEGORIES), z.enum(REMOVAL_REASONS, { message: 'Choose why this part came out' })).default({}),
+    /** One reason for the whole change (older clients); split per part by reasonsFromSingle. */
+    reason: z.enum(CHANGE_REASONS, { message: 'Choose why the parts came out' }).optional(),
     /** Counters at the change; left out = the latest readings. */
     startsReading: optionalCounter('arc start count'),
     arcHoursReading: optionalCounter('arc hours'),
@@ -63,6 +102,11 @@ export const consumableChangeSchema = z
   })
   .superRefine((v, ctx) => {
     if (new Set(v.categories).size !== v.categories.length) ctx.addIssue({ code: 'custom', path: ['categories'], message: 'Each part only once' });
+    for (const c of Object.keys(v.reasons))
+      if (!v.categories.includes(c as TorchCategory))
+        ctx.addIssue({ code: 'custom', path: ['reasons', c], message: 'A reason for a part that did not come out' });
+    if (!v.reason)
+      for (const c of v.categories) if (!v.reasons[c]) ctx.addIssue({ code: 'custom', path: ['reasons', c], message: 'Choose why this part came out' });
     if (v.pitDepthMm !== null && !v.categories.includes('electrode'))
       ctx.addIssue({ code: 'custom', path: ['pitDepthMm'], message: 'A pit depth belongs to an electrode change' });
   });
@@ -80,6 +124,8 @@ export type InstalledPart = {
   expected: number | null;
   expectedSource: 'recommended' | 'catalogue' | null;
   fraction: number | null;
+  /** B10 and the cheapest change point of this part number over the shop's records, when there is a fit. */
+  plan: { b10: number; failures: number; change: ChangePlan } | null;
 };
 
 export type CutCheckSummary = { id: string; checkedAt: string; passed: boolean; maxDeviationMm: number; toleranceMm: number; afterLastChange: boolean };
@@ -114,14 +160,16 @@ export type ChangeRow = {
   id: string;
   changedAt: string;
   torchCode: string;
-  reason: ChangeReason;
-  parts: { category: TorchCategory; partNumber: string; lifeStarts: number | null; lifeArcHours: number | null }[];
+  /** Parts put in, with why the one they replaced came out (null when nothing was in that position). */
+  parts: { category: TorchCategory; partNumber: string; reason: RemovalReason | null; lifeStarts: number | null; lifeArcHours: number | null }[];
   startsReading: number | null;
   arcHoursReading: number | null;
   pitDepthMm: number | null;
   by: string | null;
   hasPhoto: boolean;
   note: string | null;
+  /** Scheduled work this change did (its plan names a consumable change of these parts). */
+  workOrders: { id: string; number: number; title: string }[];
 };
 
 export type ReferenceValue = { value: number; unit: string; source: string; overridden: boolean };
@@ -201,6 +249,8 @@ export type CutCheckRow = {
   installedParts: { category: string; partNumber: string }[];
   by: string | null;
   note: string | null;
+  /** Scheduled work this coupon did (its plan names a test coupon). */
+  workOrders: { id: string; number: number; title: string }[];
 };
 
 // ── Life statistics ─────────────────────────────────────────────────────────
@@ -209,15 +259,60 @@ export const lifeStatsQuery = z.object({
   machineId: z.uuid().optional(),
 });
 
+/** The cheapest planned change age against a failure in service (age replacement), or why there is none. */
+export type ChangePlan = {
+  plannedCost: number;
+  failureCost: number | null;
+  age: number | null;
+  /** Cost per unit of life (per start or per arc hour) at that age, and when running to failure. */
+  costRate: number | null;
+  runToFailureCostRate: number | null;
+  savingPercent: number | null;
+  note: string | null;
+};
+
+export type LifeFit = {
+  shape: number;
+  scale: number;
+  meanLife: number;
+  b10: number;
+  recommended: number;
+  targetReliability: number;
+  bounds: {
+    level: number;
+    method: 'fisher-matrix';
+    shape: { lower: number; upper: number };
+    scale: { lower: number; upper: number };
+    b10: { lower: number; upper: number };
+  } | null;
+  plan: ChangePlan;
+  curve: { life: number; reliability: number }[];
+};
+
 export type LifeStats = {
-  partType: { id: string; partNumber: string; name: string; category: PartCategory; lifeUnit: LifeUnit | null; unitCost: number; expectedLife: number | null };
+  partType: {
+    id: string;
+    partNumber: string;
+    name: string;
+    category: PartCategory;
+    lifeUnit: LifeUnit | null;
+    unitCost: number;
+    plannedChangeCost: number | null;
+    failureCost: number | null;
+    expectedLife: number | null;
+  };
   unit: 'starts' | 'arc-hours';
   failures: number[];
   suspensions: number[];
   stillInstalled: number;
+  /** Removals by reason, process faults among them. */
+  byReason: { reason: RemovalReason; kind: RemovalKind; count: number }[];
+  processFaults: number;
   histogram: { from: number; to: number; failures: number; suspensions: number }[];
-  fit: { shape: number; scale: number; b10: number; recommended: number; targetReliability: number; curve: { life: number; reliability: number }[] } | null;
+  fit: LifeFit | null;
   fitProblem: string | null;
+  /** Set when the fit rests on fewer than 10 worn-out parts. */
+  warning: string | null;
   meanLife: number | null;
   /** Σ unit cost of removed parts / Σ their arc hours. */
   costPerArcHour: number | null;

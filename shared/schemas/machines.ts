@@ -187,7 +187,11 @@ export const readingBatchSchema = z.object({
     .array(z.object({ meterId: z.uuid({ message: 'Choose a meter' }), value: readingInputSchema.shape.value, isReset: z.boolean().default(false) }))
     .min(1, 'Enter at least one reading')
     .max(50, 'At most 50 readings at once'),
+  /** Keep the readings that are fine when another one is refused (the station form); default: all or none. */
+  keepValid: z.boolean().default(false),
 });
+/** What a batch kept and, with keepValid, which readings it refused and why. */
+export type ReadingBatchResult = { ids: string[]; kept: string[]; refused: { path: string; meterId: string; message: string }[] };
 export type ReadingBatchInput = z.output<typeof readingBatchSchema>;
 
 /** Fields sent beside a machine photo (multipart). */

@@ -2,6 +2,7 @@ import { z } from 'zod';
 import { ROLES, type Role } from '../permissions';
 import { paging } from './paging';
 import { localDateTime, oneLine } from './text';
+import { PART_CATEGORY_LABELS, TORCH_CATEGORIES } from './stock';
 
 /** Plan status as the due engine sees it (shared/domain/due/index.ts DueStatus). */
 export const DUE_STATES = ['not-due', 'due-soon', 'due', 'overdue'] as const;
@@ -88,6 +89,46 @@ export type TriggerInput = z.infer<typeof triggerInput>;
 /** Stored form: the fixed calendar keeps the RFC 5545 text it was built into. */
 export type StoredTrigger = Exclude<TriggerInput, { kind: 'calendar-fixed' }> | { kind: 'calendar-fixed'; start: string; rrule: string; ical: string };
 
+/**
+ * The record made at the station that counts as doing the plan's work, so nobody enters it twice:
+ * a consumable change of (at least) the given torch parts, a test coupon, a reading of one counter,
+ * or a pre-use check of the machine.
+ */
+export const STATION_RECORD_KINDS = ['consumable-change', 'cut-check', 'counter-reading', 'pre-use-check'] as const;
+export type StationRecordKind = (typeof STATION_RECORD_KINDS)[number];
+export const STATION_RECORD_LABELS: Record<StationRecordKind, string> = {
+  'consumable-change': 'A consumable change at the station',
+  'cut-check': 'A test coupon (cut check) at the station',
+  'counter-reading': 'A counter reading',
+  'pre-use-check': 'A pre-use check of the machine',
+};
+export const stationRecordRule = z.discriminatedUnion('kind', [
+  z.object({
+    kind: z.literal('consumable-change'),
+    categories: z
+      .array(z.enum(TORCH_CATEGORIES, { message: 'Not a torch consumable' }))
+      .min(1, 'Choose the parts whose change does this work')
+      .max(TORCH_CATEGORIES.length)
+      .refine((c) => new Set(c).size === c.length, 'Each part only once'),
+  }),
+  z.object({ kind: z.literal('cut-check') }),
+  z.object({ kind: z.literal('counter-reading'), meterId: z.uuid({ message: 'Choose the counter' }) }),
+  z.object({ kind: z.literal('pre-use-check') }),
+]);
+export type StationRecordRule = z.infer<typeof stationRecordRule>;
+
+/** One line for people: "A consumable change of electrode + nozzle". */
+export function stationRecordSummary(rule: StationRecordRule, meterName?: string): string {
+  switch (rule.kind) {
+    case 'consumable-change':
+      return `A consumable change of ${rule.categories.map((c) => PART_CATEGORY_LABELS[c].toLowerCase()).join(' + ')}`;
+    case 'counter-reading':
+      return `A reading of ${meterName ?? 'its counter'}`;
+    default:
+      return STATION_RECORD_LABELS[rule.kind];
+  }
+}
+
 export const planPartInput = z.object({
   partTypeId: z.uuid({ message: 'Choose a part' }),
   quantity: positive('the quantity'),
@@ -110,6 +151,8 @@ export const planInput = z
     /** Share of the interval counted as "coming up", 0–0.9. */
     dueSoonFraction: z.number().min(0, 'Cannot be negative').max(0.9, 'At most 90 %').nullable().default(0.1),
     active: z.boolean().default(true),
+    /** Which station record does this work; null: only a signed-off work order does. */
+    stationRecord: stationRecordRule.nullable().default(null),
   })
   .refine((p) => p.responsibleRole !== null || p.responsibleUserId !== null, {
     path: ['responsibleRole'],
@@ -169,6 +212,7 @@ export type PlanDetail = {
   statusReason: string | null;
   evaluatedAt: string | null;
   starterKey: string | null;
+  stationRecord: (StationRecordRule & { summary: string }) | null;
   /** Per-trigger view from the last evaluation. */
   evaluation: { kind: string; status: DueState; dueAt: string | null; reason: string }[];
   meterDue: { meterId: string; dueValue: number; current: number | null; forecastAt: string | null }[];

@@ -5,8 +5,8 @@
  * 1910.95 App. A via noise.ts, with the site's threshold for "hearing protection required".
  */
 import { plasmaCuttingShade, PLASMA_ARC_CUTTING_SHADES, type ShadeTable } from '../domain/shade';
-import { hearingProtectionRequired, noiseDosePercent, twaFromDose } from '../domain/noise';
-import { PPE_ITEM_INFO, type HearingResult, type PpeItem, type RequiredItem, type ShadeResult } from './safety-ppe';
+import { hearingProtectionRequired, impulsePeakExceeded, IMPULSE_PEAK_LIMIT_DB, noiseVerdicts, protectedExposureDbA, type BasisVerdict } from '../domain/noise';
+import { PPE_ITEM_INFO, type HearingResult, type NoiseBasisResult, type PpeItem, type RequiredItem, type ShadeResult } from './safety-ppe';
 
 export type DeriveSettings = { shadeTable: ShadeTable | null; hearingRequiredFromDbA: number; hearingRuleSource: string };
 
@@ -30,32 +30,71 @@ export function deriveShade(arcCurrentA: number | null, table: ShadeTable | null
   }
 }
 
-export function deriveHearing(noise: { levelDbA: number; hours: number }[], settings: DeriveSettings): HearingResult | null {
-  if (noise.length === 0) return null;
-  const dose = noiseDosePercent(noise);
-  const twa = dose > 0 ? twaFromDose(dose) : null;
+const round1 = (x: number) => Math.round(x * 10) / 10;
+const basisResult = (v: BasisVerdict): NoiseBasisResult => ({
+  dosePercent: round1(v.dosePercent),
+  twaDbA: v.twaDbA === null ? null : round1(v.twaDbA),
+  reached: v.reached,
+  limitDbA: v.limitDbA,
+  label: v.label,
+  source: v.source,
+});
+
+export type NoiseInput = { noise: { levelDbA: number; hours: number }[]; peakDbC?: number | null; protectorNrr?: number | null };
+
+/**
+ * The day's noise at a task: the action-level verdict on the 80–130 dBA dose and the PEL verdict on
+ * the 90–140 dBA dose (App. A), the 140 dB peak (1910.95(b)(2)) and the protected exposure from the
+ * issued protector's NRR (App. B). Protection is required from the site threshold on the
+ * hearing-conservation TWA, over the PEL, or over the peak.
+ */
+export function deriveHearing(input: NoiseInput | NoiseInput['noise'], settings: DeriveSettings): HearingResult | null {
+  const { noise, peakDbC = null, protectorNrr = null } = Array.isArray(input) ? { noise: input } : input;
+  if (noise.length === 0 && peakDbC === null) return null;
+  const { actionLevel, pel } = noiseVerdicts(noise);
+  const twa = actionLevel.twaDbA;
   const status = twa === null ? null : hearingProtectionRequired(twa);
+  const peak =
+    peakDbC === null ? null : { peakDbC, exceeded: impulsePeakExceeded(peakDbC), limitDb: IMPULSE_PEAK_LIMIT_DB, source: 'OSHA 29 CFR 1910.95(b)(2)' };
   // 0.001 dB slack, as noise.ts does, so a 50 % dose counts as 85 dBA.
-  const required = twa !== null && twa >= settings.hearingRequiredFromDbA - 0.001;
+  const required = (twa !== null && twa >= settings.hearingRequiredFromDbA - 0.001) || pel.reached || peak?.exceeded === true;
+  const band = pel.reached ? 'over-pel' : actionLevel.reached ? 'action-level' : 'below-action-level';
+  const protectedTwa =
+    protectorNrr === null || pel.twaDbA === null
+      ? null
+      : {
+          nrr: protectorNrr,
+          twaDbA: round1(protectedExposureDbA(pel.twaDbA, protectorNrr)),
+          deratedTwaDbA: round1(protectedExposureDbA(pel.twaDbA, protectorNrr, { derate: true })),
+          source: 'OSHA 29 CFR 1910.95 App. B: TWA − (NRR − 7)',
+          deratedSource: 'OSHA Technical Manual Sec. III Ch. 5 field practice: TWA − (NRR − 7) / 2',
+        };
   return {
-    dosePercent: Math.round(dose * 10) / 10,
-    twaDbA: twa === null ? null : Math.round(twa * 10) / 10,
-    band: status?.band ?? 'below-action-level',
-    description: status?.description ?? 'No exposure at or above 80 dBA: no dose (OSHA 29 CFR 1910.95(d)(2)(i)).',
+    dosePercent: round1(actionLevel.dosePercent),
+    twaDbA: twa === null ? null : round1(twa),
+    band,
+    description:
+      band === 'over-pel'
+        ? hearingProtectionRequired(pel.twaDbA as number).description
+        : (status?.description ?? 'No exposure at or above 80 dBA: no dose (OSHA 29 CFR 1910.95(d)(2)(i)).'),
     required,
     requiredFromDbA: settings.hearingRequiredFromDbA,
     ruleSource: settings.hearingRuleSource,
     sources: status?.sources ?? ['OSHA 29 CFR 1910.95 App. A'],
+    actionLevel: basisResult(actionLevel),
+    pel: basisResult(pel),
+    peak,
+    protected: protectedTwa,
   };
 }
 
 /** Listed items plus filter lens (when there is an arc) and hearing protection (when the TWA calls for it). */
 export function deriveRequiredItems(
-  r: { items: PpeItem[]; otherItems: string[]; arcCurrentA: number | null; noise: { levelDbA: number; hours: number }[] },
+  r: { items: PpeItem[]; otherItems: string[]; arcCurrentA: number | null } & NoiseInput,
   settings: DeriveSettings,
 ): { shade: ShadeResult | null; hearing: HearingResult | null; required: RequiredItem[] } {
   const shade = deriveShade(r.arcCurrentA, settings.shadeTable);
-  const hearing = deriveHearing(r.noise, settings);
+  const hearing = deriveHearing({ noise: r.noise, peakDbC: r.peakDbC ?? null, protectorNrr: r.protectorNrr ?? null }, settings);
   const codes = new Set<PpeItem>(r.items);
   if (shade) codes.add('filter-lens');
   if (hearing?.required) codes.add('hearing-protection');
@@ -70,7 +109,14 @@ export function deriveRequiredItems(
           : `No published shade for ${shade.arcCurrentA} A: ask the lens or torch maker`;
       }
       if (code === 'hearing-protection' && hearing?.required) {
-        detail = `8-h TWA ${hearing.twaDbA} dBA (dose ${hearing.dosePercent} %) reaches the site threshold of ${hearing.requiredFromDbA} dBA`;
+        const why = [
+          hearing.twaDbA !== null && hearing.twaDbA >= hearing.requiredFromDbA - 0.05
+            ? `8-h TWA ${hearing.twaDbA} dBA (dose ${hearing.dosePercent} %, ${hearing.actionLevel.label}) reaches the site threshold of ${hearing.requiredFromDbA} dBA`
+            : null,
+          hearing.pel.reached ? `over the PEL: TWA ${hearing.pel.twaDbA} dBA (dose ${hearing.pel.dosePercent} %, ${hearing.pel.label})` : null,
+          hearing.peak?.exceeded ? `impact peak ${hearing.peak.peakDbC} dB is over ${hearing.peak.limitDb} dB` : null,
+        ].filter(Boolean);
+        detail = why.join('; ');
       }
       const source =
         code === 'filter-lens' && shade

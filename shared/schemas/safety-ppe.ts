@@ -49,6 +49,10 @@ export const ppeRequirementSchema = z
     arcCurrentA: z.number({ message: 'Enter the arc current in amperes' }).positive('Arc current must be above 0 A').max(1000, 'At most 1000 A').nullable(),
     /** The day's noise at this task, for the dose (OSHA 29 CFR 1910.95 App. A). */
     noise: z.array(noiseExposureSchema).max(12).default([]),
+    /** Highest peak sound pressure level at the task (impact noise from punching), dB; null when not measured. */
+    peakDbC: z.number({ message: 'Enter the peak in dB' }).min(60, 'A peak below 60 dB is not plausible').max(170, 'At most 170 dB').nullable().default(null),
+    /** Noise Reduction Rating of the protector issued for the task, dB (OSHA 29 CFR 1910.95 App. B); null when none is named. */
+    protectorNrr: z.number({ message: 'Enter the NRR in dB' }).min(0, 'NRR cannot be negative').max(45, 'At most 45 dB').nullable().default(null),
     cadence: z.enum(CHECK_CADENCES).default('shift'),
   })
   .superRefine((v, ctx) => {
@@ -72,7 +76,11 @@ export type ShadeResult =
   | { ok: true; arcCurrentA: number; minimum: number; suggested: number; band: string; source: string; notes: string[]; siteOverride: boolean }
   | { ok: false; arcCurrentA: number; message: string; source: string };
 
+/** One dose basis's verdict (shared/domain/noise.ts noiseVerdicts), rounded for display. */
+export type NoiseBasisResult = { dosePercent: number; twaDbA: number | null; reached: boolean; limitDbA: number; label: string; source: string };
+
 export type HearingResult = {
+  /** Hearing-conservation basis (80–130 dBA), kept under its former names for stored sign-offs and clients. */
   dosePercent: number;
   twaDbA: number | null;
   band: string;
@@ -81,6 +89,13 @@ export type HearingResult = {
   requiredFromDbA: number;
   ruleSource: string;
   sources: string[];
+  /** Action level on the 80–130 dBA dose, PEL on the 90–140 dBA dose (OSHA 29 CFR 1910.95 App. A). */
+  actionLevel: NoiseBasisResult;
+  pel: NoiseBasisResult;
+  /** Peak over 140 dB (OSHA 29 CFR 1910.95(b)(2)); null when no peak was entered. */
+  peak: { peakDbC: number; exceeded: boolean; limitDb: number; source: string } | null;
+  /** Estimated exposure under the issued protector (OSHA 29 CFR 1910.95 App. B); null without an NRR or a PEL-basis TWA. */
+  protected: { nrr: number; twaDbA: number; deratedTwaDbA: number; source: string; deratedSource: string } | null;
 };
 
 export type RequiredItem = { code: string; label: string; source: string; detail: string | null };
@@ -95,6 +110,8 @@ export type PpeRequirementRow = {
   otherItems: string[];
   arcCurrentA: number | null;
   noise: { levelDbA: number; hours: number }[];
+  peakDbC: number | null;
+  protectorNrr: number | null;
   cadence: CheckCadence;
   shade: ShadeResult | null;
   hearing: HearingResult | null;

@@ -65,7 +65,16 @@ export type TorchCategory = (typeof TORCH_CATEGORIES)[number];
 
 const money = z.number({ message: 'Enter a cost' }).min(0, 'A cost cannot be negative').max(1_000_000, 'That cost is implausibly high');
 
-export const partTypeInputSchema = z.object({
+const optionalMoney = money.nullable().default(null);
+
+/** A failure in service must cost more than a planned change, or no change age is the cheapest. */
+export function failureCostProblem(plannedCost: number, failureCost: number | null): string | null {
+  return failureCost !== null && failureCost <= plannedCost
+    ? `A failure in service must cost more than a planned change (${plannedCost}); otherwise there is no cheapest change point`
+    : null;
+}
+
+const partTypeFields = z.object({
   partNumber: oneLine(
     z.string({ message: 'Enter a part number' }).trim().min(1, 'Enter a part number').max(60, 'The part number is too long (at most 60 characters)'),
   ),
@@ -75,16 +84,30 @@ export const partTypeInputSchema = z.object({
   lifeUnit: z.enum(LIFE_UNITS, { message: 'Choose what wears it out' }).nullable().default(null),
   expectedLife: z.number({ message: 'Enter the expected life as a number' }).positive('The expected life must be above zero').nullable().default(null),
   unitCost: money.default(0),
+  /** Cost of a planned change (part and fitting time); empty = the unit cost. */
+  plannedChangeCost: optionalMoney,
+  /** Cost of a failure in service: the part, scrapped sheet, damaged torch parts, downtime. */
+  failureCost: optionalMoney,
   leadTimeDays: z.number({ message: 'Enter the lead time in days' }).int('Whole days').min(0, 'The lead time cannot be negative').max(365, 'At most 365 days'),
   serviceLevel: z.number().gt(0.5, 'Between 0.5 and 0.999').lt(1, 'Between 0.5 and 0.999').default(0.95),
   /** Stock counted when the part is first entered; recorded as an adjustment, never written over on-hand. */
   openingStock: z.number({ message: 'Enter the opening stock as a number' }).min(0, 'Stock cannot be negative').default(0),
 });
+export const partTypeInputSchema = partTypeFields.superRefine((v, ctx) => {
+  if ((v.failureCost ?? 0) < 0 || (v.plannedChangeCost ?? 0) < 0) return; // already refused on its own field
+  const problem = failureCostProblem(v.plannedChangeCost ?? v.unitCost, v.failureCost);
+  if (problem) ctx.addIssue({ code: 'custom', path: ['failureCost'], message: problem });
+});
 export type PartTypeInput = z.output<typeof partTypeInputSchema>;
 
-export const partTypeUpdateSchema = partTypeInputSchema
-  .omit({ openingStock: true })
-  .partial()
+/** A change to a part; the failure cost is checked against the planned cost in the service, which knows the stored values. */
+const { openingStock: _opening, ...editable } = partTypeFields.shape;
+/** The same fields without their defaults: a field left out of a change stays as it is (a default would overwrite it). */
+const withoutDefaults = Object.fromEntries(Object.entries(editable).map(([k, v]) => [k, (v instanceof z.ZodDefault ? v.unwrap() : v).optional()])) as {
+  [K in keyof typeof editable]: z.ZodOptional<(typeof editable)[K] extends z.ZodDefault<infer T> ? T : (typeof editable)[K]>;
+};
+export const partTypeUpdateSchema = z
+  .object(withoutDefaults)
   .extend({ active: z.boolean().optional() })
   .refine((v) => Object.values(v).some((x) => x !== undefined), { message: 'Nothing to change' });
 export type PartTypeUpdate = z.output<typeof partTypeUpdateSchema>;
@@ -117,6 +140,8 @@ export type PartTypeRow = {
   lifeUnit: LifeUnit | null;
   expectedLife: number | null;
   unitCost: number;
+  plannedChangeCost: number | null;
+  failureCost: number | null;
   /** ISO 4217 code from the shop's settings, or null when none is set. */
   currency: string | null;
   onHand: number;

@@ -10,17 +10,27 @@ import { z } from 'zod';
 const ANY_TEXT_FORBIDDEN = /[\u0000\p{Cs}]/u;
 /** Controls of every kind (C0 with tab, CR and LF; DEL; C1) and unpaired surrogates. */
 const ONE_LINE_FORBIDDEN = /[\p{Cc}\p{Cs}]/u;
+/**
+ * Unicode's explicit direction embeddings, overrides and isolates (Unicode Standard Annex #9,
+ * "Unicode Bidirectional Algorithm", table 1: LRE, RLE, PDF, LRO, RLO and LRI, RLI, FSI, PDI).
+ * Invisible, they make a name or title display in an order other than the one stored, so a
+ * list, label or signed statement could read differently from what was saved.
+ */
+const DIRECTION_CONTROLS = /[\u202A-\u202E\u2066-\u2069]/u;
 
 export const ANY_TEXT_MESSAGE = 'Contains a NUL or a broken (unpaired surrogate) character';
 export const ONE_LINE_MESSAGE = 'Use one line of plain text: no line breaks, tabs or control characters';
+export const DIRECTION_CONTROL_MESSAGE =
+  'Contains a hidden text-direction character (U+202A–U+202E or U+2066–U+2069) that would change how the text displays; type it again without it';
 
 /** True when a multi-line text may be stored: line breaks and tabs are fine, NUL and broken characters are not. */
 export const isStorableText = (v: string) => !ANY_TEXT_FORBIDDEN.test(v);
-export const isOneLineText = (v: string) => !ONE_LINE_FORBIDDEN.test(v);
+export const hasNoDirectionControls = (v: string) => !DIRECTION_CONTROLS.test(v);
+export const isOneLineText = (v: string) => !ONE_LINE_FORBIDDEN.test(v) && hasNoDirectionControls(v);
 
-/** Names, titles, codes, labels: one line, no control characters. Wraps a string schema. */
+/** Names, titles, codes, labels: one line, no control characters, no hidden direction changes. Wraps a string schema. */
 export function oneLine<T extends z.ZodString>(schema: T): T {
-  return schema.refine(isOneLineText, ONE_LINE_MESSAGE);
+  return schema.refine((v) => !ONE_LINE_FORBIDDEN.test(v), ONE_LINE_MESSAGE).refine(hasNoDirectionControls, DIRECTION_CONTROL_MESSAGE);
 }
 
 /**

@@ -177,6 +177,8 @@ export type WorkOrderDetail = {
   completedBy: { id: string; name: string } | null;
   cancelledAt: string | null;
   cancelReason: string | null;
+  /** The station record that did this work, when one did (see the plan's station record). */
+  stationRecord: { type: string; id: string; summary: string } | null;
   attachments: { id: string; fileName: string; mimeType: string; size: number; at: string; by: string | null }[];
   history: { at: string; action: string; who: string | null; details: Record<string, unknown> | null }[];
   /** What still stands between this work order and closing it; empty when it can be closed. */

@@ -1,66 +1,78 @@
 import { DateTime } from 'luxon';
+import { createContext, createElement, useContext, useMemo, type ReactNode } from 'react';
+import {
+  DEFAULT_SHOP_LOCALE,
+  formatDate,
+  formatDateTime,
+  formatDay,
+  formatMoney,
+  formatNumber,
+  formatRelative,
+  formatTime,
+  fromShopLocal,
+  todayIn,
+  toShopLocal,
+  type Instant,
+  type NumberStyle,
+  type ShopClock,
+} from '../../shared/locale';
 
-/**
- * One way to show time everywhere: the shop's own clock (its IANA zone), day-month-year,
- * 24-hour — a night-shift record reads the same on every device, whatever zone the viewer is in.
- */
-export function formatWhen(iso: string | Date | null | undefined, timeZone: string, withTime = true): string {
-  if (!iso) return '—';
-  return new Intl.DateTimeFormat('en-GB', {
-    timeZone,
-    day: 'numeric',
-    month: 'short',
-    year: 'numeric',
-    ...(withTime ? { hour: '2-digit', minute: '2-digit', hourCycle: 'h23' } : {}),
-  }).format(new Date(iso));
-}
+// Stock units are stored in the plural; one of them reads in the singular.
+const SINGULAR: Record<string, string> = {
+  pcs: 'pc',
+  sets: 'set',
+  boxes: 'box',
+  rolls: 'roll',
+  pairs: 'pair',
+  packs: 'pack',
+  litres: 'litre',
+  cartridges: 'cartridge',
+};
+export const unitFor = (n: number, unit: string) => (Math.abs(n) === 1 ? (SINGULAR[unit] ?? unit) : unit);
 
-/** Short axis labels for charts: "3 Dec". */
-export function formatDay(iso: string | Date, timeZone: string): string {
-  return new Intl.DateTimeFormat('en-GB', { timeZone, day: 'numeric', month: 'short' }).format(new Date(iso));
-}
-
-/** "in 3 days", "2 days ago" … relative to now, in whole units. */
-export function relative(iso: string | null): string {
-  if (!iso) return '';
-  const diff = new Date(iso).getTime() - Date.now();
-  const abs = Math.abs(diff);
-  const rtf = new Intl.RelativeTimeFormat('en', { numeric: 'auto' });
-  if (abs < 3_600_000) return rtf.format(Math.round(diff / 60_000), 'minute');
-  if (abs < 86_400_000) return rtf.format(Math.round(diff / 3_600_000), 'hour');
-  return rtf.format(Math.round(diff / 86_400_000), 'day');
-}
-
-/** An instant as "YYYY-MM-DDTHH:mm" in the shop's zone, for a datetime-local field. */
-export function toShopLocal(iso: string | null, timeZone: string): string {
-  return iso ? DateTime.fromISO(iso).setZone(timeZone).toFormat("yyyy-MM-dd'T'HH:mm") : '';
-}
-
-/** A datetime-local value read in the shop's zone (not the browser's) as an ISO instant, or null. */
-export function fromShopLocal(local: string, timeZone: string): string | null {
-  return local ? DateTime.fromISO(local, { zone: timeZone }).toUTC().toISO() : null;
-}
-
-/** 12345.6 → "12,345.6": counters are read at a glance. */
-export const formatNumber = (n: number, maxFractionDigits = 1) => new Intl.NumberFormat('en-GB', { maximumFractionDigits: maxFractionDigits }).format(n);
-
-// The signed-in shop's zone, set once by the app layout, for formatters made at module level.
-let shopTimeZone: string | undefined;
-export function setShopTimeZone(timeZone: string) {
-  shopTimeZone = timeZone;
-}
-
-/** Today's date (YYYY-MM-DD) on the shop's clock: for a few hours a day the UTC date is another day. */
-export function shopToday(): string {
-  return DateTime.now()
-    .setZone(shopTimeZone ?? 'local')
-    .toISODate() as string;
-}
-
-/** Like `new Intl.DateTimeFormat`, but always on the shop's clock (read when formatting). */
-export function shopFormatter(options: Intl.DateTimeFormatOptions) {
+/** Every way the client shows a time or a number, bound to one shop's zone and locale (rules in shared/locale.ts). */
+export function shopFormat(shop: ShopClock) {
   return {
-    format: (value: Date | number | string) =>
-      new Intl.DateTimeFormat('en-GB', { ...options, ...(options.timeStyle ? { hourCycle: 'h23' } : {}), timeZone: shopTimeZone }).format(new Date(value)),
+    timeZone: shop.timeZone,
+    locale: shop.locale,
+    /** "5 Dec 2026" */
+    date: (at: Instant | null | undefined) => formatDate(at, shop),
+    /** "5 Dec 2026, 14:30" */
+    dateTime: (at: Instant | null | undefined, opts?: { weekday?: boolean; seconds?: boolean }) => formatDateTime(at, shop, opts),
+    /** "14:30" */
+    time: (at: Instant | null | undefined) => formatTime(at, shop),
+    /** "5 Dec", for chart axes */
+    day: (at: Instant) => formatDay(at, shop),
+    /** "in 3 days", "2 hours ago" */
+    relative: (iso: string | null | undefined) => formatRelative(iso, shop.locale),
+    /** Today's date (YYYY-MM-DD) on the shop's clock */
+    today: () => todayIn(shop.timeZone),
+    toLocalInput: (iso: string | null) => toShopLocal(iso, shop.timeZone),
+    fromLocalInput: (local: string) => fromShopLocal(local, shop.timeZone),
+    /** "12,345.6" (at most one decimal unless told) */
+    number: (n: number, style?: NumberStyle) => formatNumber(n, shop.locale, style),
+    /** "3 pcs", "1 pc" */
+    qty: (n: number, unit: string) => `${formatNumber(n, shop.locale, { max: 2 })} ${unitFor(n, unit)}`,
+    money: (n: number, currency: string | null = null) => formatMoney(n, shop.locale, currency),
   };
+}
+export type ShopFormat = ReturnType<typeof shopFormat>;
+
+// Before sign-in (and in isolated component tests) there is no shop: the viewer's zone and the default locale.
+const fallback = shopFormat({ timeZone: DateTime.local().zoneName, locale: DEFAULT_SHOP_LOCALE });
+const ShopFormatContext = createContext<ShopFormat>(fallback);
+
+/** Given once by the signed-in layout, from the principal's shop (`/api/me`). */
+export function ShopFormatProvider({ timeZone, locale, children }: { timeZone: string; locale?: string; children: ReactNode }) {
+  const value = useMemo(() => shopFormat({ timeZone, locale: locale ?? DEFAULT_SHOP_LOCALE }), [timeZone, locale]);
+  return createElement(ShopFormatContext.Provider, { value }, children);
+}
+
+/** The signed-in shop's formatter: `const f = useShopFormat(); f.dateTime(row.at)`. */
+export const useShopFormat = (): ShopFormat => useContext(ShopFormatContext);
+
+/** A moment on the shop's clock, for table cells and texts defined outside a component. */
+export function ShopTime({ at, dateOnly = false }: { at: Instant | null | undefined; dateOnly?: boolean }) {
+  const f = useShopFormat();
+  return dateOnly ? f.date(at) : f.dateTime(at);
 }

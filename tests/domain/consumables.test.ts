@@ -1,5 +1,15 @@
 import { describe, it, expect } from 'vitest';
-import { couponResult, lifeFraction, lifeHistogram, lifeState, referenceValues, splitLives } from '../../shared/domain/consumables';
+import {
+  couponResult,
+  defaultReasons,
+  leadPart,
+  lifeFraction,
+  lifeHistogram,
+  lifeState,
+  reasonsFromSingle,
+  referenceValues,
+  splitLives,
+} from '../../shared/domain/consumables';
 
 describe('couponResult', () => {
   // Symmetric bilateral tolerance ±t: a size passes when |measured − nominal| ≤ t (ISO 286-1 limits of size).
@@ -34,17 +44,29 @@ describe('referenceValues', () => {
 
 describe('life helpers', () => {
   it('splits removals into failures and suspensions; parts still in are suspensions; empty lives are dropped', () => {
-    // Right-censoring as in NIST e-Handbook §8.4.1.2.
+    // Right-censoring as in NIST e-Handbook §8.4.1.2; other causes as censoring (Meeker & Escobar §15).
     const r = splitLives(
       [
-        { life: 900, wornOut: true },
-        { life: 400, wornOut: false },
-        { life: 0, wornOut: true },
-        { life: null, wornOut: true },
+        { life: 900, reason: 'worn' },
+        { life: 950, reason: 'failed-start' },
+        { life: 400, reason: 'with-partner' },
+        { life: 300, reason: 'gas-pressure' },
+        { life: 350, reason: 'moisture' },
+        { life: 0, reason: 'worn' },
+        { life: null, reason: 'worn' },
       ],
       [250, null],
     );
-    expect(r).toEqual({ failures: [900], suspensions: [400, 250] });
+    expect(r).toEqual({ failures: [900, 950], suspensions: [400, 300, 350, 250], processFaults: 2 });
+  });
+  it('one reason per change becomes a reason per part: the lead part keeps it, the rest came out with it', () => {
+    expect(reasonsFromSingle(['electrode', 'nozzle'], 'normal-wear')).toEqual({ electrode: 'worn', nozzle: 'with-partner' });
+    expect(reasonsFromSingle(['electrode', 'nozzle'], 'poor-cut')).toEqual({ electrode: 'with-partner', nozzle: 'poor-cut' });
+    expect(reasonsFromSingle(['electrode', 'swirl-ring'], 'poor-cut')).toEqual({ electrode: 'poor-cut', 'swirl-ring': 'with-partner' });
+    expect(reasonsFromSingle(['shield', 'nozzle'], 'damaged')).toEqual({ nozzle: 'damaged', shield: 'with-partner' });
+    expect(reasonsFromSingle(['electrode', 'nozzle'], 'preventive')).toEqual({ electrode: 'preventive', nozzle: 'preventive' });
+    expect(defaultReasons(['nozzle', 'electrode'])).toEqual({ electrode: 'worn', nozzle: 'with-partner' });
+    expect(leadPart(['shield'])).toBe('shield');
   });
   it('fractions and states of a life bar (house thresholds 85 % and 100 %)', () => {
     expect(lifeFraction(600, 1000)).toBe(0.6);

@@ -49,3 +49,32 @@ describe('required items', () => {
     expect(r.hearing).toBeNull();
   });
 });
+
+describe('both noise verdicts, the impact peak and the protector', () => {
+  const shift = [
+    { levelDbA: 90, hours: 8 },
+    { levelDbA: 85, hours: 4 },
+  ];
+  it('shows the action level and the PEL each on its own basis', () => {
+    // OSHA 29 CFR 1910.95 App. A: 80–130 dBA → 125 %, TWA 91.6 (over the action level);
+    // 90–140 dBA → 100 %, TWA 90.0 (at the PEL, not over it, 1910.95(b)(1))
+    const h = deriveHearing({ noise: shift }, site)!;
+    expect(h.actionLevel).toMatchObject({ dosePercent: 125, twaDbA: 91.6, reached: true, limitDbA: 85 });
+    expect(h.pel).toMatchObject({ dosePercent: 100, twaDbA: 90, reached: false, limitDbA: 90 });
+    expect(h.band).toBe('action-level');
+    expect(h.required).toBe(true);
+  });
+  it('a peak over 140 dB requires protection whatever the dose', () => {
+    // OSHA 29 CFR 1910.95(b)(2)
+    const h = deriveHearing({ noise: [{ levelDbA: 80, hours: 2 }], peakDbC: 142 }, site)!;
+    expect(h.peak).toMatchObject({ exceeded: true, limitDb: 140 });
+    expect(h.required).toBe(true);
+    const r = deriveRequiredItems({ items: [], otherItems: [], arcCurrentA: null, noise: [{ levelDbA: 80, hours: 2 }], peakDbC: 142 }, site);
+    expect(r.required.find((i) => i.code === 'hearing-protection')?.detail).toMatch(/peak 142 dB is over 140 dB/);
+  });
+  it('estimates the protected exposure from the NRR on the PEL-basis TWA', () => {
+    // OSHA 29 CFR 1910.95 App. B: 95 − (29 − 7) = 73; derated (OSHA Technical Manual, from memory): 95 − 11 = 84
+    const h = deriveHearing({ noise: [{ levelDbA: 95, hours: 8 }], protectorNrr: 29 }, site)!;
+    expect(h.protected).toMatchObject({ nrr: 29, twaDbA: 73, deratedTwaDbA: 84 });
+  });
+});

@@ -1,6 +1,6 @@
 import { describe, it, expect } from 'vitest';
 import jStat from 'jstat';
-import { demandStats, reorderPoint, reorderPointUnits, serviceLevelZ } from '../../shared/domain/stock';
+import { demandStats, packedOrderQuantity, reorderPoint, reorderPointUnits, serviceLevelZ, suggestedOrder } from '../../shared/domain/stock';
 
 describe('serviceLevelZ (standard normal quantile)', () => {
   // NIST e-Handbook of Statistical Methods §1.3.6.7.2, table of upper critical values
@@ -118,5 +118,50 @@ describe('bad input', () => {
     expect(() => reorderPoint({ ...ok, leadTimeDays: -2 })).toThrow(/leadTimeDays/);
     expect(() => reorderPoint({ ...ok, leadTimeDays: Number.POSITIVE_INFINITY })).toThrow(/leadTimeDays/);
     expect(() => reorderPointUnits({ ...ok, dailyDemandMean: Number.NaN })).toThrow(/dailyDemandMean/);
+  });
+});
+
+describe('reorderPoint with a varying lead time: d·L + z·√(L·σd² + d²·σL²)', () => {
+  it('hand-worked: d 20, σd 4, L 10, σL 2, 95 % → 200 + 1.6449·√1760 = 269.005', () => {
+    // √(10·4² + 20²·2²) = √(160 + 1600) = 41.952; z(0.95) = 1.645 (NIST §1.3.6.7.2 table, above).
+    // SciPy: 200 + stats.norm.ppf(0.95)*math.sqrt(1760) = 269.0054815156588.
+    const rop = reorderPoint({ dailyDemandMean: 20, dailyDemandSd: 4, leadTimeDays: 10, leadTimeSdDays: 2, serviceLevel: 0.95 });
+    expect(Math.abs(rop - 269.0054815156588)).toBeLessThan(1e-6);
+    // With the table's z = 1.645 by hand: 200 + 1.645·41.952 = 269.01.
+    expect(Math.abs(rop - 269.01)).toBeLessThan(0.01);
+  });
+
+  it('hand-worked: d 3, σd 1.5, L 5, σL 2, 99 % → 15 + 2.3263·√47.25 = 30.991', () => {
+    // SciPy: 15 + stats.norm.ppf(0.99)*math.sqrt(5*1.5**2 + 9*2**2) = 30.99099783838762.
+    const rop = reorderPoint({ dailyDemandMean: 3, dailyDemandSd: 1.5, leadTimeDays: 5, leadTimeSdDays: 2, serviceLevel: 0.99 });
+    expect(Math.abs(rop - 30.99099783838762)).toBeLessThan(1e-6);
+  });
+
+  it('leaving out σL or giving 0 is the fixed-lead-time formula; more lead-time spread raises it', () => {
+    const base = { dailyDemandMean: 4, dailyDemandSd: 1.5, leadTimeDays: 9, serviceLevel: 0.99 };
+    expect(reorderPoint({ ...base, leadTimeSdDays: 0 })).toBe(reorderPoint(base));
+    expect(reorderPoint({ ...base, leadTimeSdDays: 1 })).toBeGreaterThan(reorderPoint(base));
+    expect(() => reorderPoint({ ...base, leadTimeSdDays: -1 })).toThrow(/leadTimeSdDays/);
+  });
+});
+
+describe('packedOrderQuantity and suggestedOrder (common practice: whole packs, at least the minimum order)', () => {
+  it('rounds a shortfall up to whole packs', () => {
+    expect(packedOrderQuantity(7, 5)).toBe(10);
+    expect(packedOrderQuantity(10, 5)).toBe(10);
+    expect(packedOrderQuantity(10.000000001, 5)).toBe(10);
+    expect(packedOrderQuantity(0, 5)).toBe(0);
+  });
+  it('orders at least the minimum, itself in whole packs', () => {
+    expect(packedOrderQuantity(3, 5, 12)).toBe(15);
+    expect(packedOrderQuantity(3, 1, 12)).toBe(12);
+  });
+  it('refuses a pack size of 0', () => {
+    expect(() => packedOrderQuantity(3, 0)).toThrow(/packSize/);
+  });
+  it('covers use over the horizon plus the reorder point, less on hand and on order', () => {
+    // 30 to use + 8 to keep − 10 on hand − 5 on order = 23 short → 3 packs of 10.
+    expect(suggestedOrder({ expectedUse: 30, reorderPoint: 8, onHand: 10, onOrder: 5, packSize: 10 })).toEqual({ shortfall: 23, quantity: 30 });
+    expect(suggestedOrder({ expectedUse: 3, reorderPoint: 2, onHand: 10, onOrder: 0, packSize: 10 })).toEqual({ shortfall: 0, quantity: 0 });
   });
 });

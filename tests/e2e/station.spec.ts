@@ -47,7 +47,7 @@ test.describe('station page on a tablet', () => {
     await snap(page, 'station-change-sheet');
     await taps.tap(page.getByRole('button', { name: 'Electrode + nozzle' }));
     await taps.tap(page.getByRole('button', { name: 'Record the change' }));
-    await expect(page.getByRole('status').filter({ hasText: 'Change recorded on C1-T: electrode and nozzle (normal wear).' })).toBeVisible();
+    await expect(page.getByRole('status').filter({ hasText: 'Change recorded on C1-T: electrode (worn) and nozzle (with its partner).' })).toBeVisible();
     expect(taps.count).toBe(3);
 
     await expect(electrode.getByRole('meter')).toHaveAttribute('aria-valuenow', '0');

@@ -120,11 +120,12 @@ describe('consumable changes at the station', () => {
       [0, 8],
     ]);
     const change = s.recentChanges[0];
-    expect(change).toMatchObject({ reason: 'normal-wear', startsReading: 1600, arcHoursReading: 14.5, pitDepthMm: 1.1, by: `operator of ${a.slug}` });
+    expect(change).toMatchObject({ startsReading: 1600, arcHoursReading: 14.5, pitDepthMm: 1.1, by: `operator of ${a.slug}` });
     // Life = counter at removal − counter at installation: 1600 − 1000 starts, 14.5 − 10 h.
+    // One reason for the change: the electrode wore out, the nozzle came out with it.
     expect(change.parts).toEqual([
-      { category: 'electrode', partNumber: 'EL-1', lifeStarts: 600, lifeArcHours: 4.5 },
-      { category: 'nozzle', partNumber: 'NZ-1', lifeStarts: 600, lifeArcHours: 4.5 },
+      { category: 'electrode', partNumber: 'EL-1', reason: 'worn', lifeStarts: 600, lifeArcHours: 4.5 },
+      { category: 'nozzle', partNumber: 'NZ-1', reason: 'with-partner', lifeStarts: 600, lifeArcHours: 4.5 },
     ]);
   });
 
@@ -146,7 +147,7 @@ describe('consumable changes at the station', () => {
     const after = await counts(a.orgId);
     expect(after.readings).toBe(before.readings + 2);
     const s = await station();
-    expect(s.recentChanges[0].parts).toEqual([{ category: 'electrode', partNumber: 'EL-1', lifeStarts: 150, lifeArcHours: 0.5 }]);
+    expect(s.recentChanges[0].parts).toEqual([{ category: 'electrode', partNumber: 'EL-1', reason: 'failed-start', lifeStarts: 150, lifeArcHours: 0.5 }]);
   });
 
   it('refuses when stock runs out, leaving the typed counter and everything else unwritten', async () => {
@@ -283,6 +284,6 @@ describe('a counter reset or replaced at a change', () => {
     expect(readings[0]).toMatchObject({ value: 30, isReset: true, source: 'consumable-change' });
     // Life: 400 starts before the reset plus 30 after it.
     const s = (await op.agent.get('/api/stations/C9').expect(200)).body;
-    expect(s.recentChanges[0].parts).toEqual([{ category: 'electrode', partNumber: 'EL-1', lifeStarts: 430, lifeArcHours: null }]);
+    expect(s.recentChanges[0].parts).toEqual([{ category: 'electrode', partNumber: 'EL-1', reason: 'worn', lifeStarts: 430, lifeArcHours: null }]);
   });
 });

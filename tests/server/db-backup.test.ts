@@ -84,6 +84,9 @@ describe('backup and restore', () => {
     expect(before).toBe(3); // the approval and two PPE checks
     expect(await count(targetUrl, signOffs, [shop.orgId])).toBe(before);
     expect(await count(targetUrl, 'select count(*)::int as n from membership where organization_id = $1', [shop.orgId])).toBe(4);
+    // Sessions signed in when the backup was taken do not come back: everyone signs in again.
+    expect(await count(process.env.DATABASE_URL!, 'select count(*)::int as n from session', [])).toBeGreaterThan(0);
+    expect(await count(targetUrl, 'select count(*)::int as n from session', [])).toBe(0);
 
     // Verified in the restored database, as the app role the server would use there.
     const orm = await MikroORM.init({ ...createOrmConfig(targetUrl), pool: { min: 0, max: 1 } });

@@ -9,6 +9,7 @@ import { FakeSmtp } from '../../server/mail/fake-smtp';
 import { createTransport } from '../../server/mail/transport';
 import { deliverOutbox } from '../../server/mail/sender';
 import { loadConfig } from '../../server/config';
+import { clock } from '../../shared/clock';
 import { WORK_CAUTION } from '../../shared/domain/cautions';
 import { addReadings, drainOutbox, get, makeMachine, makeMeter, pendingMails, planBody, post, put, scoped } from './work-orders-fixtures';
 
@@ -257,7 +258,34 @@ describe('a plan falls due', () => {
     expect(after.body.rows[0].finishedAt >= after.body.rows[0].startedAt).toBe(true);
     await post(tech, '/job-runs').expect(403);
   });
+
+  it("an admin's run-now pass covers only the admin's shop: another shop's due work and run history stay untouched", async () => {
+    const mine = await makePlan({ title: 'Check breather', triggers: [{ kind: 'meter', meterId: pumpHours, every: 100 }] }, '2026-01-01T00:00:00Z');
+    await addReadings(scoped(t.em(), shop.orgId), shop.orgId, pumpHours, [{ at: clockedReadingAt(), value: 1200 }]);
+    const myShop = { shop, admin, pumpHours };
+    // A second shop with a plan that is just as due.
+    await freshShop();
+    const theirs = await makePlan({ title: 'Check breather', triggers: [{ kind: 'meter', meterId: pumpHours, every: 100 }] }, '2026-01-01T00:00:00Z');
+    await addReadings(scoped(t.em(), shop.orgId), shop.orgId, pumpHours, [{ at: clockedReadingAt(), value: 1200 }]);
+    const runsOf = async (orgId: string): Promise<{ pass_id: string }[]> =>
+      orm.em.fork().execute(`select pass_id from job_run where organization_id = ?`, [orgId]);
+    const theirRunsBefore = (await runsOf(shop.orgId)).length;
+
+    const ran = await post(myShop.admin, '/job-runs').expect(200);
+    expect(ran.body.run).toMatchObject({ trigger: 'manual', workOrdersRaised: 1 });
+    expect(await workOf(mine)).toHaveLength(1);
+    expect(await workOf(theirs)).toHaveLength(0);
+    expect(await runsOf(shop.orgId)).toHaveLength(theirRunsBefore);
+    // The pass of this run wrote a row for the caller's shop and for no other.
+    const passRows: { organization_id: string }[] = await orm.em
+      .fork()
+      .execute(`select organization_id from job_run where pass_id = (select pass_id from job_run where id = ?)`, [ran.body.run.id]);
+    expect(passRows.map((r) => r.organization_id)).toEqual([myShop.shop.orgId]);
+  });
 });
+
+/** A reading an hour before now, so a pass run now sees it. */
+const clockedReadingAt = () => new Date(clock.ms() - 3_600_000).toISOString();
 
 describe('notices of raised work', () => {
   it('go out once per person per pass, after the raising, and a pass that stopped before telling anyone is caught up by the next', async () => {

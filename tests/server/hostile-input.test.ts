@@ -55,6 +55,22 @@ describe('text that cannot be stored or shown on one line', () => {
     }
   });
 
+  it('refuses hidden text-direction characters in one-line text, saying which characters', async () => {
+    // Unicode Standard Annex #9, table 1: embeddings/overrides U+202A–U+202E, isolates U+2066–U+2069.
+    for (const cp of [0x202a, 0x202b, 0x202c, 0x202d, 0x202e, 0x2066, 0x2067, 0x2068, 0x2069]) {
+      const bad = String.fromCodePoint(cp);
+      const res = await post(admin, '/machines', { code: 'C8', name: `Cell ${bad}exe.txt`, kind: 'plasma-table' });
+      refused(res, 400, 'name');
+      expect(res.body.fields.find((f: { path: string }) => f.path === 'name').message).toMatch(
+        /text-direction character \(U\+202A–U\+202E or U\+2066–U\+2069\)/,
+      );
+      refused(await post(tech, '/work-orders', { machineId, title: `Leak ${bad}` }), 400, 'title');
+      refused(await post(safety, '/safety/procedures', { title: `Lockout ${bad}`, machineId }), 400, 'title');
+    }
+    // Right-to-left letters themselves are text, not controls, and are kept.
+    await post(tech, '/work-orders', { machineId, title: 'Leak \u05d0\u05d1 at the valve' }).expect(201);
+  });
+
   it('refuses NUL and lone surrogates in multi-line text, but keeps line breaks', async () => {
     refused(await patch(tech, `/work-orders/${workOrderId}`, { notes: `Found ${NUL}` }), 400, 'notes');
     refused(await patch(tech, `/work-orders/${workOrderId}`, { notes: `Found ${LONE_SURROGATE}` }), 400, 'notes');

@@ -82,7 +82,7 @@ export function registerAuthRoutes(r: ApiRouter, config: Config) {
     res.json({
       user: { id: p.userId, email: p.email, name: p.name },
       role: p.role,
-      organization: { id: p.orgId, name: p.orgName, timeZone: p.timeZone },
+      organization: { id: p.orgId, name: p.orgName, timeZone: p.timeZone, locale: p.locale },
     });
   });
 }

@@ -9,6 +9,7 @@ import { queueMail } from '../../mail/outbox';
 import { renderMail } from '../../mail/templates';
 import type { Principal } from '../../http/principal';
 import { clock } from '../../../shared/clock';
+import { shopLocale } from '../../../shared/locale';
 
 const noScope = { filters: false } as const;
 
@@ -30,7 +31,7 @@ export async function loadPrincipal(pool: pg.Pool, userId: string, orgId: string
     [userId, orgId],
   );
   const r = rows[0];
-  return r ? { userId, orgId, role: r.role, name: r.name, email: r.email, orgName: r.org_name, timeZone: r.time_zone } : null;
+  return r ? { userId, orgId, role: r.role, name: r.name, email: r.email, orgName: r.org_name, timeZone: r.time_zone, locale: shopLocale() } : null;
 }
 
 export async function authenticate(em: EntityManager, email: string, password: string): Promise<Principal> {
@@ -43,7 +44,16 @@ export async function authenticate(em: EntityManager, email: string, password: s
   user.lastSignInAt = clock.now();
   recordActivity(em, { orgId: membership.organization.id, userId: user.id }, 'auth.sign-in', { type: 'User', id: user.id });
   await em.flush();
-  return { userId: user.id, orgId: org.id, role: membership.role, name: user.name, email: user.email, orgName: org.name, timeZone: org.timeZone };
+  return {
+    userId: user.id,
+    orgId: org.id,
+    role: membership.role,
+    name: user.name,
+    email: user.email,
+    orgName: org.name,
+    timeZone: org.timeZone,
+    locale: shopLocale(),
+  };
 }
 
 /** Creates a single-use token and returns the raw value (only its hash is stored). */

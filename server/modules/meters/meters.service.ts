@@ -3,8 +3,9 @@ import { LockMode } from '@mikro-orm/core';
 import { Meter, MeterReading, type IMeter } from './meter.entity';
 import { Machine } from '../machines/machine.entity';
 import type { Principal } from '../../http/principal';
-import { AppError, conflict, fieldError, notFound } from '../../http/errors';
+import { AppError, badRequest, conflict, fieldError, notFound } from '../../http/errors';
 import { recordActivity } from '../activity-log/activity-log.service';
+import { completeByStationRecord } from '../work-orders/station-completion';
 import { grouped, readingOrderProblem, readingTime, thinSeries } from '../../../shared/domain/meters';
 import { Organization } from '../organizations/organization.entity';
 import { usageRatePerDay } from '../../../shared/domain/forecast';
@@ -16,6 +17,7 @@ import type {
   MeterTrend,
   MeterUpdate,
   ReadingBatchInput,
+  ReadingBatchResult,
   ReadingInput,
   ReadingRow,
 } from '../../../shared/schemas/machines';
@@ -164,9 +166,22 @@ export async function recordReading(
   return reading;
 }
 
+/** A reading typed in by a person may be the record a plan waits for ("read the counter weekly"). */
+async function readingDoesWork(tx: EntityManager, who: Principal, r: { id: string; readAt: Date; value: number; meter: IMeter }) {
+  await completeByStationRecord(tx, who, {
+    type: 'MeterReading',
+    id: r.id,
+    machineId: r.meter.machine.id,
+    meterId: r.meter.id,
+    at: r.readAt,
+    summary: `Reading of ${r.meter.name}: ${grouped.format(r.value)} ${r.meter.unit}`,
+  });
+}
+
 export async function addReading(em: EntityManager, who: Principal, meterId: string, input: ReadingInput): Promise<{ id: string }> {
   return em.transactional(async (tx) => {
     const r = await recordReading(tx, who, meterId, input);
+    await readingDoesWork(tx, who, { id: r.id, readAt: r.readAt, value: r.value, meter: r.meter.getEntity() });
     recordActivity(
       tx,
       who,
@@ -178,22 +193,39 @@ export async function addReading(em: EntityManager, who: Principal, meterId: str
   });
 }
 
-/** Records several readings taken at one moment in one transaction; a refused one refuses all, on its own field. */
-export async function addReadings(em: EntityManager, who: Principal, input: ReadingBatchInput): Promise<{ ids: string[] }> {
+/**
+ * Records several readings taken at one moment in one transaction. A refused one refuses all, on its
+ * own field; with keepValid the others are kept and the refused ones come back with their reasons
+ * (a reading is checked before anything of it is written, so a refused one leaves nothing behind).
+ */
+export async function addReadings(em: EntityManager, who: Principal, input: ReadingBatchInput): Promise<ReadingBatchResult> {
   return em.transactional(async (tx) => {
-    const ids: string[] = [];
+    const out: ReadingBatchResult = { ids: [], kept: [], refused: [] };
+    const made: { id: string; readAt: Date; value: number; meter: IMeter }[] = [];
     for (const [i, r] of input.readings.entries()) {
       try {
         const reading = await recordReading(tx, who, r.meterId, { value: r.value, readAt: input.readAt, isReset: r.isReset, note: null });
-        ids.push(reading.id);
+        out.ids.push(reading.id);
+        out.kept.push(r.meterId);
+        made.push({ id: reading.id, readAt: reading.readAt, value: reading.value, meter: reading.meter.getEntity() });
       } catch (err) {
         if (err instanceof AppError && err.status === 404) throw fieldError(`readings.${i}.meterId`, 'Meter not found');
-        if (err instanceof AppError && err.fields?.[0]?.path === 'value') throw fieldError(`readings.${i}.value`, err.message);
+        if (err instanceof AppError && err.fields?.[0]?.path === 'value') {
+          if (!input.keepValid) throw fieldError(`readings.${i}.value`, err.message);
+          out.refused.push({ path: `readings.${i}.value`, meterId: r.meterId, message: err.message });
+          continue;
+        }
         throw err;
       }
     }
-    recordActivity(tx, who, 'meter.readings-recorded', { type: 'Meter' }, { count: ids.length });
-    return { ids };
+    if (out.ids.length === 0)
+      throw badRequest(
+        `No reading kept: ${out.refused.map((f) => f.message).join('; ')}`,
+        out.refused.map(({ path, message }) => ({ path, message })),
+      );
+    for (const m of made) await readingDoesWork(tx, who, m);
+    recordActivity(tx, who, 'meter.readings-recorded', { type: 'Meter' }, { count: out.ids.length, refused: out.refused.length });
+    return out;
   });
 }
 

@@ -18,6 +18,7 @@ export const OilTarget = defineEntity({
     machine: () => p.manyToOne(Machine).ref(),
     targetCode: p.string().length(20),
     vgGrade: p.integer(),
+    baselineViscosityCst: p.double().$type<number>().nullable(),
     waterLimitPpm: p.double().$type<number>(),
     temperatureLimitC: p.double().$type<number>().nullable(),
   },

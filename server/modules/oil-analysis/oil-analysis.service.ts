@@ -6,8 +6,8 @@ import { WorkOrder } from '../work-orders/work-order.entity';
 import type { Principal } from '../../http/principal';
 import { badRequest, notFound } from '../../http/errors';
 import { recordActivity } from '../activity-log/activity-log.service';
-import { compareToTarget, iso4406Code } from '../../../shared/domain/cleanliness';
-import { viscosityStatus } from '../../../shared/domain/viscosity';
+import { cleanlinessVerdict, iso4406Code } from '../../../shared/domain/cleanliness';
+import { isoViscosityGradeLimits, viscosityChange } from '../../../shared/domain/viscosity';
 import { raiseWorkOrders } from '../work-orders/raise-work-orders';
 import type { EvaluatePlansNow } from '../plans/plan-evaluation';
 import { uuidArray } from '../../db';
@@ -19,12 +19,12 @@ import type {
   OilTarget as OilTargetView,
   OilTargetInput,
   ListOilAnalysesQuery,
+  OilVerdictSettings,
 } from '../../../shared/schemas/oil-analysis';
+import { DEFAULT_OIL_VERDICT_SETTINGS, oilVerdictSettings } from '../../../shared/schemas/oil-analysis';
+import { Organization } from '../organizations/organization.entity';
 import { clock } from '../../../shared/clock';
 import type { Page } from '../../../shared/schemas/paging';
-
-/** Inside ±5 % of the grade mid-point is fine; beyond that (still inside the ±10 % ISO 3448 band) is a drift warning. */
-const VISCOSITY_WARN = 0.05;
 
 async function hydraulicUnit(em: EntityManager, id: string) {
   const m = await em.findOne(Machine, { id });
@@ -33,60 +33,70 @@ async function hydraulicUnit(em: EntityManager, id: string) {
   return m;
 }
 
+const STEP_WORD = (n: number) => `${n} step${n === 1 ? '' : 's'}`;
+
 /**
- * Judges a result against the unit's targets: ISO 4406 code size by size (shared/domain/cleanliness.ts,
- * ISO 4406:2021 Table 1), kinematic viscosity at 40 °C against the ISO VG band (shared/domain/viscosity.ts,
- * ISO 3448 Table 1), water against the site's limit, temperature against the site's limit.
+ * Judges a result against the unit's targets and the shop's thresholds:
+ * - cleanliness: ISO 4406 code (shared/domain/cleanliness.ts, ISO 4406:2021 Table 1) steps over the
+ *   target on the worst size, caution/action at the shop's steps (default 1/2, common practice);
+ * - viscosity at 40 °C: change from the oil's new-oil value (shared/domain/viscosity.ts), caution/action
+ *   at the shop's percentages (default ±10/±20 %, common practice); without a recorded new-oil value
+ *   the grade's ISO 3448 mid-point stands in, and the finding says so;
+ * - water over the unit's limit: action.
+ * Oil temperature at sampling is recorded and shown, not judged. Only 'action' raises condition work.
  */
 export function judge(
   input: Pick<OilAnalysisInput, 'ge4um' | 'ge6um' | 'ge14um' | 'viscosity40' | 'waterPpm' | 'temperatureC'>,
-  target: OilTargetInput | null,
+  target: OilTargetView | OilTargetInput | null,
+  settings: OilVerdictSettings = DEFAULT_OIL_VERDICT_SETTINGS,
 ) {
   const isoCode = iso4406Code({ ge4um: input.ge4um, ge6um: input.ge6um, ge14um: input.ge14um });
   const findings: OilFinding[] = [];
   let viscosityBand: string | null = null;
   if (target) {
-    const cmp = compareToTarget(isoCode, target.targetCode);
-    if (cmp.exceedsAny) {
+    const c = cleanlinessVerdict(isoCode, target.targetCode, { caution: settings.cleanlinessCautionSteps, action: settings.cleanlinessActionSteps });
+    if (c.verdict !== 'within') {
+      const cmp = c.comparison;
       const sizes = (['ge4um', 'ge6um', 'ge14um'] as const)
         .filter((k) => cmp[k].exceeds)
-        .map((k) => `≥${k.slice(2, -2)} µm by ${cmp[k].stepsOver} step${cmp[k].stepsOver === 1 ? '' : 's'}`);
+        .map((k) => `≥${k.slice(2, -2)} µm by ${STEP_WORD(cmp[k].stepsOver as number)}`);
       findings.push({
         field: 'cleanliness',
-        severity: 'danger',
-        message: `Cleanliness ${isoCode} is worse than the target ${target.targetCode} (${sizes.join(', ')}; each step is about twice the particles)`,
+        severity: c.verdict === 'action' ? 'danger' : 'caution',
+        message:
+          `Cleanliness ${isoCode} is worse than the target ${target.targetCode} (${sizes.join(', ')}; each step is about twice the particles): ` +
+          (c.verdict === 'action'
+            ? `act (${STEP_WORD(settings.cleanlinessActionSteps)} or more over)`
+            : `watch the next sample (under ${STEP_WORD(settings.cleanlinessActionSteps)} over is within a recount's spread)`),
       });
     }
     if (input.viscosity40 !== null) {
-      const v = viscosityStatus(input.viscosity40, target.vgGrade, { warnFraction: VISCOSITY_WARN });
-      viscosityBand = v.band;
-      const pct = `${v.deviation > 0 ? '+' : ''}${Math.round(v.deviation * 1000) / 10} %`;
-      if (v.band === 'below' || v.band === 'above') {
+      const measured = target.baselineViscosityCst ?? null;
+      const baseline = measured ?? isoViscosityGradeLimits(target.vgGrade).midpoint;
+      const v = viscosityChange(input.viscosity40, baseline, {
+        cautionPercent: settings.viscosityCautionPercent,
+        actionPercent: settings.viscosityActionPercent,
+      });
+      viscosityBand = v.verdict;
+      if (v.verdict !== 'within') {
+        const pct = `${v.changePercent > 0 ? '+' : ''}${Math.round(v.changePercent * 10) / 10} %`;
+        const from =
+          measured !== null ? `the new-oil value ${baseline} mm²/s` : `ISO VG ${target.vgGrade}'s mid-point ${baseline} mm²/s (no new-oil value recorded)`;
+        const limit = v.verdict === 'action' ? `±${settings.viscosityActionPercent} %` : `±${settings.viscosityCautionPercent} %`;
         findings.push({
           field: 'viscosity',
-          severity: 'danger',
-          message: `Viscosity ${input.viscosity40} mm²/s is ${v.band} the ISO VG ${target.vgGrade} band ${v.limits.min}–${v.limits.max} mm²/s (${pct})`,
-        });
-      } else if (v.band === 'near-limit') {
-        findings.push({
-          field: 'viscosity',
-          severity: 'caution',
-          message: `Viscosity ${input.viscosity40} mm²/s is inside ISO VG ${target.vgGrade} but ${pct} from its mid-point`,
+          severity: v.verdict === 'action' ? 'danger' : 'caution',
+          message: `Viscosity ${input.viscosity40} mm²/s is ${pct} from ${from}, at or beyond ${limit}`,
         });
       }
     }
     if (input.waterPpm !== null && input.waterPpm > target.waterLimitPpm) {
       findings.push({ field: 'water', severity: 'danger', message: `Water ${input.waterPpm} ppm is above the limit of ${target.waterLimitPpm} ppm` });
     }
-    if (input.temperatureC !== null && target.temperatureLimitC !== null && input.temperatureC > target.temperatureLimitC) {
-      findings.push({
-        field: 'temperature',
-        severity: 'danger',
-        message: `Oil temperature ${input.temperatureC} °C is above the limit of ${target.temperatureLimitC} °C`,
-      });
-    }
   }
-  return { isoCode, findings, viscosityBand, outOfLimits: findings.some((f) => f.severity === 'danger') };
+  const outOfLimits = findings.some((f) => f.severity === 'danger');
+  const verdict: OilAnalysisRow['verdict'] = outOfLimits ? 'action' : findings.length ? 'caution' : 'within';
+  return { isoCode, findings, viscosityBand, outOfLimits, verdict };
 }
 
 function toRow(a: IOilAnalysis, machine: { id: string; code: string; name: string }, wo: { id: string; number: number } | null): OilAnalysisRow {
@@ -105,6 +115,7 @@ function toRow(a: IOilAnalysis, machine: { id: string; code: string; name: strin
     viscosityBand: a.viscosityBand ?? null,
     waterPpm: a.waterPpm ?? null,
     temperatureC: a.temperatureC ?? null,
+    verdict: a.outOfLimits ? 'action' : a.findings.length ? 'caution' : 'within',
     outOfLimits: a.outOfLimits,
     findings: a.findings,
     workOrder: wo,
@@ -115,9 +126,28 @@ const targetView = (t: IOilTarget): OilTargetView => ({
   machineId: t.machine.id,
   targetCode: t.targetCode,
   vgGrade: t.vgGrade,
+  baselineViscosityCst: t.baselineViscosityCst ?? null,
   waterLimitPpm: t.waterLimitPpm,
   temperatureLimitC: t.temperatureLimitC ?? null,
 });
+
+/** The shop's oil thresholds (Organization.settings.oil) over the common-practice defaults. */
+export async function loadOilSettings(em: EntityManager, orgId: string): Promise<OilVerdictSettings> {
+  const org = await em.findOneOrFail(Organization, orgId);
+  const stored = (org.settings as { oil?: Partial<OilVerdictSettings> } | null)?.oil ?? {};
+  return { ...DEFAULT_OIL_VERDICT_SETTINGS, ...stored };
+}
+
+export async function saveOilSettings(em: EntityManager, who: Principal, input: OilVerdictSettings): Promise<OilVerdictSettings> {
+  const parsed = oilVerdictSettings.parse(input);
+  return em.transactional(async (tx) => {
+    const org = await tx.findOneOrFail(Organization, who.orgId);
+    const before = await loadOilSettings(tx, who.orgId);
+    org.settings = { ...(org.settings ?? {}), oil: parsed };
+    recordActivity(tx, who, 'oil.settings', { type: 'Organization', id: org.id }, { before, after: parsed });
+    return parsed;
+  });
+}
 
 export async function listUnits(em: EntityManager): Promise<HydraulicUnitView[]> {
   const units = await em.find(Machine, { kind: 'hydraulic-unit', active: true }, { orderBy: { code: 'asc' } });
@@ -179,7 +209,7 @@ export async function recordAnalysis(em: EntityManager, who: Principal, input: O
     const unit = await hydraulicUnit(tx, input.machineId);
     const t = await tx.findOne(OilTarget, { machine: unit.id });
     const target = t ? targetView(t) : null;
-    const verdict = judge(input, target);
+    const verdict = judge(input, target, await loadOilSettings(tx, who.orgId));
     const a = tx.create(OilAnalysis, {
       organization: who.orgId,
       machine: unit,

@@ -166,6 +166,7 @@ export async function applyStarters(
           dueSoonDays: s.dueSoonDays,
           dueSoonFraction: s.dueSoonFraction,
           active: true,
+          stationRecord: s.stationRecord ?? null,
         },
         { starterKey: s.key },
       );

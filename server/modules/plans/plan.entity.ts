@@ -4,7 +4,7 @@ import { Organization } from '../organizations/organization.entity';
 import { Machine } from '../machines/machine.entity';
 import { User } from '../users/user.entity';
 import { ROLES } from '../../../shared/permissions';
-import { DUE_STATES, type ChecklistTemplateItem, type StoredTrigger } from '../../../shared/schemas/plans';
+import { DUE_STATES, type ChecklistTemplateItem, type StationRecordRule, type StoredTrigger } from '../../../shared/schemas/plans';
 
 /** Meter value the plan counts from, per meter id; set when the plan starts and at every completion. */
 export type MeterBaselines = Record<string, { value: number; at: string }>;
@@ -45,6 +45,8 @@ export const MaintenancePlan = defineEntity({
     lastRaisedKey: p.string().length(200).nullable(),
     meterBaselines: p.json<MeterBaselines>(),
     starterKey: p.string().length(60).nullable(),
+    /** The station record that does this work (see shared/schemas/plans.ts); null: only a signed-off work order. */
+    stationRecord: p.json<StationRecordRule>().nullable(),
     // Cached result of the last evaluation, written by the due engine.
     status: p.enum([...DUE_STATES]).default('not-due'),
     nextDueAt: p.datetime().nullable(),

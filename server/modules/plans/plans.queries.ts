@@ -9,7 +9,15 @@ import { notFound } from '../../http/errors';
 import { summarizeTrigger, summarizeTriggers } from '../../../shared/domain/plan-summary';
 import { ROLE_LABELS } from '../../../shared/permissions';
 import type { Page } from '../../../shared/schemas/paging';
-import type { DueState, ListPlansQuery, PlanDetail, PlanLookups, PlanRow, StoredTrigger } from '../../../shared/schemas/plans';
+import {
+  stationRecordSummary,
+  type DueState,
+  type ListPlansQuery,
+  type PlanDetail,
+  type PlanLookups,
+  type PlanRow,
+  type StoredTrigger,
+} from '../../../shared/schemas/plans';
 import { shopTimeZone } from './plans.service';
 
 const SORT_SQL: Record<ListPlansQuery['sort'], string> = {
@@ -99,10 +107,11 @@ export async function listPlans(em: EntityManager, who: Principal, q: ListPlansQ
 export async function getPlan(em: EntityManager, who: Principal, id: string): Promise<PlanDetail> {
   const plan = await em.findOne(MaintenancePlan, { id }, { populate: ['machine', 'responsibleUser'] });
   if (!plan) throw notFound('Plan');
-  const labels = await meterLabels(
-    em,
-    plan.triggers.flatMap((t) => ('meterId' in t ? [t.meterId] : [])),
-  );
+  const rule = plan.stationRecord ?? null;
+  const labels = await meterLabels(em, [
+    ...plan.triggers.flatMap((t) => ('meterId' in t ? [t.meterId] : [])),
+    ...(rule?.kind === 'counter-reading' ? [rule.meterId] : []),
+  ]);
   const parts = plan.parts.length ? await em.find(PartType, { id: { $in: plan.parts.map((p) => p.partTypeId) } }) : [];
   const partOf = new Map(parts.map((p) => [p.id, p]));
   const [open]: { id: string; number: number; status: string }[] = await em.execute(
@@ -141,6 +150,7 @@ export async function getPlan(em: EntityManager, who: Principal, id: string): Pr
     statusReason: plan.statusReason ?? null,
     evaluatedAt: iso(plan.evaluatedAt),
     starterKey: plan.starterKey ?? null,
+    stationRecord: rule ? { ...rule, summary: stationRecordSummary(rule, rule.kind === 'counter-reading' ? labels.get(rule.meterId)?.name : undefined) } : null,
     evaluation: plan.evaluation?.triggers ?? [],
     meterDue: plan.evaluation?.meterDue ?? [],
     openWorkOrder: open ? { id: open.id, number: Number(open.number), status: open.status } : null,

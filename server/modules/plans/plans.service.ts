@@ -104,6 +104,27 @@ async function checkPeopleAndParts(em: EntityManager, who: Principal, input: Pla
   }
 }
 
+/** The station record a plan names must be one this machine can make: a torch for parts and coupons, its own counter for a reading. */
+async function checkStationRecord(em: EntityManager, machine: IMachine, input: PlanInput) {
+  const rule = input.stationRecord;
+  if (!rule) return;
+  const related = await relatedMachineIds(em, machine);
+  if (rule.kind === 'consumable-change' || rule.kind === 'cut-check') {
+    const torches = await em.count(Machine, { id: { $in: related }, kind: 'torch' });
+    if (machine.kind !== 'torch' && torches === 0)
+      throw badRequest(`${machine.code} has no torch, so no ${rule.kind === 'cut-check' ? 'test coupon' : 'consumable change'} is recorded on it`, [
+        { path: 'stationRecord.kind', message: `${machine.code} has no torch` },
+      ]);
+  }
+  if (rule.kind === 'counter-reading') {
+    const meter = await em.findOne(Meter, { id: rule.meterId });
+    if (!meter || !related.includes(meter.machine.id))
+      throw badRequest('The counter must belong to this machine or its components', [
+        { path: 'stationRecord.meterId', message: 'Choose a counter of this machine or its components' },
+      ]);
+  }
+}
+
 const meterIdsOf = (ts: StoredTrigger[]) => ts.filter((t): t is Extract<StoredTrigger, { kind: 'meter' }> => t.kind === 'meter').map((t) => t.meterId);
 
 /** The plan columns a create or an edit takes straight from the form. */
@@ -122,6 +143,7 @@ function editableFields(input: PlanInput, triggers: Awaited<ReturnType<typeof re
     dueSoonDays: input.dueSoonDays,
     dueSoonFraction: input.dueSoonFraction,
     active: input.active,
+    stationRecord: input.stationRecord,
   };
 }
 
@@ -130,6 +152,7 @@ export async function createPlan(em: EntityManager, who: Principal, input: PlanI
     const machine = await findMachine(tx, input.machineId);
     const tz = await shopTimeZone(tx, who);
     await checkPeopleAndParts(tx, who, input);
+    await checkStationRecord(tx, machine, input);
     const triggers = await resolveTriggers(tx, machine, input.triggers, tz);
     const plan = tx.create(MaintenancePlan, {
       organization: who.orgId,
@@ -158,6 +181,7 @@ export async function updatePlan(em: EntityManager, who: Principal, id: string, 
     const machine = await findMachine(tx, input.machineId);
     const tz = await shopTimeZone(tx, who);
     await checkPeopleAndParts(tx, who, input);
+    await checkStationRecord(tx, machine, input);
     const triggers = await resolveTriggers(tx, machine, input.triggers, tz);
     // Meters already counted keep their baseline; newly added meters count from their current value.
     const fresh = await currentBaselines(

@@ -21,7 +21,14 @@ export const deriveSettings = (s: SafetySettings) => ({
 function toRow(r: IPpeRequirement, settings: SafetySettings, last: { at: Date; name: string } | undefined): PpeRequirementRow {
   const machine = r.machine.getEntity();
   const derived = deriveRequiredItems(
-    { items: r.items, otherItems: r.otherItems, arcCurrentA: r.arcCurrentA ?? null, noise: r.noise },
+    {
+      items: r.items,
+      otherItems: r.otherItems,
+      arcCurrentA: r.arcCurrentA ?? null,
+      noise: r.noise,
+      peakDbC: r.peakDbC ?? null,
+      protectorNrr: r.protectorNrr ?? null,
+    },
     deriveSettings(settings),
   );
   return {
@@ -34,6 +41,8 @@ function toRow(r: IPpeRequirement, settings: SafetySettings, last: { at: Date; n
     otherItems: r.otherItems,
     arcCurrentA: r.arcCurrentA ?? null,
     noise: r.noise,
+    peakDbC: r.peakDbC ?? null,
+    protectorNrr: r.protectorNrr ?? null,
     cadence: r.cadence,
     ...derived,
     lastCheckAt: last ? last.at.toISOString() : null,
@@ -64,7 +73,14 @@ export async function saveRequirement(em: EntityManager, who: Principal, input: 
     const { settings } = await loadSafetySettings(tx, who.orgId);
     // Refuse an arc current the shade table cannot answer, instead of posting no shade at all.
     const derived = deriveRequiredItems(
-      { items: input.items, otherItems: input.otherItems, arcCurrentA: input.arcCurrentA, noise: input.noise },
+      {
+        items: input.items,
+        otherItems: input.otherItems,
+        arcCurrentA: input.arcCurrentA,
+        noise: input.noise,
+        peakDbC: input.peakDbC,
+        protectorNrr: input.protectorNrr,
+      },
       deriveSettings(settings),
     );
     if (derived.shade && !derived.shade.ok) throw fieldError('arcCurrentA', derived.shade.message);
@@ -80,6 +96,8 @@ export async function saveRequirement(em: EntityManager, who: Principal, input: 
         otherItems: input.otherItems,
         arcCurrentA: input.arcCurrentA,
         noise: input.noise,
+        peakDbC: input.peakDbC,
+        protectorNrr: input.protectorNrr,
         cadence: input.cadence,
       });
     } else {
@@ -91,6 +109,8 @@ export async function saveRequirement(em: EntityManager, who: Principal, input: 
         otherItems: input.otherItems,
         arcCurrentA: input.arcCurrentA,
         noise: input.noise,
+        peakDbC: input.peakDbC,
+        protectorNrr: input.protectorNrr,
         cadence: input.cadence,
         active: true,
       });
@@ -122,7 +142,14 @@ export async function recordPpeCheck(em: EntityManager, who: Principal, input: P
     if (!r) throw notFound('PPE requirement');
     const { settings } = await loadSafetySettings(tx, who.orgId);
     const derived = deriveRequiredItems(
-      { items: r.items, otherItems: r.otherItems, arcCurrentA: r.arcCurrentA ?? null, noise: r.noise },
+      {
+        items: r.items,
+        otherItems: r.otherItems,
+        arcCurrentA: r.arcCurrentA ?? null,
+        noise: r.noise,
+        peakDbC: r.peakDbC ?? null,
+        protectorNrr: r.protectorNrr ?? null,
+      },
       deriveSettings(settings),
     );
     const missing = derived.required.filter((i) => !input.confirmed.includes(i.code));
@@ -143,7 +170,15 @@ export async function recordPpeCheck(em: EntityManager, who: Principal, input: P
         task: r.task,
         items: derived.required.map((i) => ({ code: i.code, detail: i.detail })),
         shade: derived.shade?.ok ? { minimum: derived.shade.minimum, arcCurrentA: derived.shade.arcCurrentA, source: derived.shade.source } : null,
-        hearing: derived.hearing ? { twaDbA: derived.hearing.twaDbA, required: derived.hearing.required, rule: derived.hearing.ruleSource } : null,
+        hearing: derived.hearing
+          ? {
+              twaDbA: derived.hearing.twaDbA,
+              pelTwaDbA: derived.hearing.pel.twaDbA,
+              overPel: derived.hearing.pel.reached,
+              required: derived.hearing.required,
+              rule: derived.hearing.ruleSource,
+            }
+          : null,
       },
     });
     const check = tx.create(PpeCheck, {

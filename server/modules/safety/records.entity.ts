@@ -22,6 +22,8 @@ export const PpeRequirement = defineEntity({
     otherItems: p.json<string[]>(),
     arcCurrentA: p.double().$type<number>().nullable(),
     noise: p.json<{ levelDbA: number; hours: number }[]>(),
+    peakDbC: p.double().$type<number>().nullable(),
+    protectorNrr: p.double().$type<number>().nullable(),
     cadence: p.enum([...CHECK_CADENCES]).default('shift'),
     active: p.boolean().default(true),
   },

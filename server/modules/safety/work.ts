@@ -114,8 +114,8 @@ export async function currentSafetyWork(em: EntityManager, orgId: string, now: D
  * The scheduled step: raises each due occurrence once as a safety task (unique key), closes
  * tasks that are no longer due, and mails the safety officers one digest of newly overdue work.
  */
-export async function runSafetyDue(orm: MikroORM, now: Date): Promise<Record<string, number>> {
-  const orgs = await orm.em.fork().find(Organization, {}, { orderBy: { createdAt: 'asc' } });
+export async function runSafetyDue(orm: MikroORM, now: Date, scope: { orgId?: string } = {}): Promise<Record<string, number>> {
+  const orgs = await orm.em.fork().find(Organization, scope.orgId ? { id: scope.orgId } : {}, { orderBy: { createdAt: 'asc' } });
   const totals = { shops: 0, raised: 0, closed: 0, overdue: 0, mailsQueued: 0 };
   const appUrl = loadConfig().APP_URL;
   for (const org of orgs) {

@@ -4,10 +4,10 @@ import { Organization } from '../organizations/organization.entity';
 import { Machine } from '../machines/machine.entity';
 import { User } from '../users/user.entity';
 import { PartType } from '../stock/stock.entity';
-import { CHANGE_REASONS } from '../../../shared/schemas/consumables';
+import { REMOVAL_REASONS } from '../../../shared/schemas/consumables';
 import { TORCH_CATEGORIES } from '../../../shared/schemas/stock';
 
-/** One visit to the torch: which parts came out, why, and the counters at that moment. */
+/** One visit to the torch: which parts came out and the counters at that moment (why, per part, on each install). */
 export const ConsumableChange = defineEntity({
   name: 'ConsumableChange',
   tableName: 'consumable_change',
@@ -18,7 +18,6 @@ export const ConsumableChange = defineEntity({
     organization: () => p.manyToOne(Organization).ref(),
     torch: () => p.manyToOne(Machine).ref(),
     changedAt: p.datetime(),
-    reason: p.enum([...CHANGE_REASONS]),
     startsReading: p.double().$type<number>().nullable(),
     arcHoursReading: p.double().$type<number>().nullable(),
     /** Electrode pit depth measured when it came out. */
@@ -50,7 +49,8 @@ export const ConsumableInstall = defineEntity({
     arcHoursAtInstall: p.double().$type<number>().nullable(),
     removedAt: p.datetime().nullable(),
     removalChange: () => p.manyToOne(ConsumableChange).ref().nullable(),
-    removalReason: p.enum([...CHANGE_REASONS]).nullable(),
+    /** Why this part came out (see REMOVAL_REASON_KIND for how it counts in the life statistics). */
+    removalReason: p.enum([...REMOVAL_REASONS]).nullable(),
     lifeStarts: p.double().$type<number>().nullable(),
     lifeArcHours: p.double().$type<number>().nullable(),
   },

@@ -5,6 +5,7 @@ import { Organization } from '../organizations/organization.entity';
 import type { Principal } from '../../http/principal';
 import { fieldError, notFound } from '../../http/errors';
 import { recordActivity } from '../activity-log/activity-log.service';
+import { completeByStationRecord, workDoneBy } from '../work-orders/station-completion';
 import { couponResult, referenceValues } from '../../../shared/domain/consumables';
 import type { CutCheckInput, CutCheckRow } from '../../../shared/schemas/consumables';
 import { clock } from '../../../shared/clock';
@@ -44,6 +45,14 @@ export async function recordCutCheck(em: EntityManager, who: Principal, input: C
       { type: 'CutCheck', id: check.id },
       { torch: torch.code, passed: result.passed, maxDeviationMm: result.maxDeviationMm },
     );
+    // A coupon out of tolerance still is the check done; its result is in the summary for the work order.
+    await completeByStationRecord(tx, who, {
+      type: 'CutCheck',
+      id: check.id,
+      machineId: torch.id,
+      at,
+      summary: `Test coupon on ${torch.code}: ${result.passed ? 'within' : 'OUT OF'} tolerance (largest deviation ${result.maxDeviationMm} mm, tolerance ±${tolerance} mm)`,
+    });
     return check.id;
   });
   return (await listCutChecks(em, { ids: [id], page: 1, pageSize: 1 })).rows[0];
@@ -60,6 +69,10 @@ export async function listCutChecks(em: EntityManager, q: { torchIds?: string[];
   const installIds = [...new Set(checks.flatMap((c) => c.installIds))];
   const installs = installIds.length ? await em.find(ConsumableInstall, { id: { $in: installIds } }, { populate: ['partType'] }) : [];
   const byId = new Map(installs.map((i) => [i.id, i]));
+  const work = await workDoneBy(
+    em,
+    checks.map((c) => c.id),
+  );
   return {
     rows: checks.map((c) => ({
       id: c.id,
@@ -75,6 +88,7 @@ export async function listCutChecks(em: EntityManager, q: { torchIds?: string[];
         .map((i) => ({ category: i.category, partNumber: i.partType.getEntity().partNumber })),
       by: c.by?.getEntity().name ?? null,
       note: c.note ?? null,
+      workOrders: work.get(c.id) ?? [],
     })),
     total,
     page: q.page,

@@ -1,35 +1,32 @@
 import type { EntityManager } from '@mikro-orm/postgresql';
-import { ConsumableInstall } from './consumable.entity';
-import { Machine } from '../machines/machine.entity';
-import { PartType } from '../stock/stock.entity';
+import { ConsumableInstall, type IConsumableInstall } from './consumable.entity';
+import { Machine, type IMachine } from '../machines/machine.entity';
+import { PartType, type IPartType } from '../stock/stock.entity';
 import { Organization } from '../organizations/organization.entity';
 import { readingsSince } from '../meters/meters.service';
 import { torchMeters } from './station.service';
 import { subtreeIds } from '../machines/machines.service';
+import { lifeModel, type PartCosts } from './life-model';
 import type { Principal } from '../../http/principal';
 import { notFound } from '../../http/errors';
 import { advanceSince } from '../../../shared/domain/meters';
 import { lifeHistogram, referenceValues, splitLives } from '../../../shared/domain/consumables';
-import { fitWeibull, recommendedChangePoint, weibullBLife, weibullReliability } from '../../../shared/domain/weibull';
-import { WEAR_OUT_REASONS, type LifeStats } from '../../../shared/schemas/consumables';
+import { REMOVAL_REASONS, REMOVAL_REASON_KIND, type InstalledPart, type LifeStats } from '../../../shared/schemas/consumables';
 
 const mean = (xs: number[]) => (xs.length ? xs.reduce((s, x) => s + x, 0) / xs.length : null);
+const unitOf = (part: IPartType): LifeStats['unit'] => (part.lifeUnit === 'arc-hours' ? 'arc-hours' : 'starts');
+export const costsOf = (part: IPartType): PartCosts => ({
+  unitCost: Number(part.unitCost),
+  plannedChangeCost: part.plannedChangeCost === null || part.plannedChangeCost === undefined ? null : Number(part.plannedChangeCost),
+  failureCost: part.failureCost === null || part.failureCost === undefined ? null : Number(part.failureCost),
+});
 
 /**
- * Achieved lives of one part type (optionally on one machine and its components): the
- * distribution, a Weibull fit with non-wear removals and parts still in the torch as
- * suspensions, B10, a recommended change point and the consumable cost per arc-hour.
+ * Achieved lives of one part type on the given torches (all when null): removed parts with
+ * their reasons, and the lives so far of the parts still in a torch.
  */
-export async function lifeStats(em: EntityManager, who: Principal, partTypeId: string, machineId?: string): Promise<LifeStats> {
-  const part = await em.findOne(PartType, { id: partTypeId });
-  if (!part) throw notFound('Part');
-  const unit: LifeStats['unit'] = part.lifeUnit === 'arc-hours' ? 'arc-hours' : 'starts';
-  const all = await em.find(Machine, {});
-  let torchIds: string[] | null = null;
-  if (machineId) {
-    if (!all.some((m) => m.id === machineId)) throw notFound('Machine');
-    torchIds = subtreeIds(all, machineId);
-  }
+async function collectLives(em: EntityManager, part: IPartType, machines: IMachine[], torchIds: string[] | null) {
+  const unit = unitOf(part);
   const installs = await em.find(
     ConsumableInstall,
     { partType: part.id, ...(torchIds ? { torch: { $in: torchIds } } : {}) },
@@ -37,10 +34,11 @@ export async function lifeStats(em: EntityManager, who: Principal, partTypeId: s
   );
   const removed = installs.filter((i) => i.removedAt);
   const open = installs.filter((i) => !i.removedAt);
-
   // Lives of parts still in the torch: the counter advance since they went in.
-  const openTorches = all.filter((m) => open.some((i) => i.torch.id === m.id));
-  const meters = await torchMeters(em, openTorches);
+  const meters = await torchMeters(
+    em,
+    machines.filter((m) => open.some((i) => i.torch.id === m.id)),
+  );
   const current: (number | null)[] = [];
   for (const i of open) {
     const tm = meters.get(i.torch.id);
@@ -53,33 +51,37 @@ export async function lifeStats(em: EntityManager, who: Principal, partTypeId: s
     const rs = (await readingsSince(em, meterId, i.installedAt)).filter((r) => r.at > i.installedAt);
     current.push(advanceSince(start, rs));
   }
-  const lifeOf = (i: (typeof installs)[number]) => (unit === 'starts' ? (i.lifeStarts ?? null) : (i.lifeArcHours ?? null));
-  const { failures, suspensions } = splitLives(
-    removed.map((i) => ({ life: lifeOf(i), wornOut: WEAR_OUT_REASONS.includes(i.removalReason!) })),
+  const lifeOf = (i: IConsumableInstall) => (unit === 'starts' ? (i.lifeStarts ?? null) : (i.lifeArcHours ?? null));
+  const split = splitLives(
+    removed.map((i) => ({ life: lifeOf(i), reason: i.removalReason ?? null })),
     current,
   );
+  return { unit, removed, open, lifeOf, ...split };
+}
 
+async function targetReliability(em: EntityManager, who: Principal) {
   const org = await em.findOneOrFail(Organization, who.orgId);
-  const target = referenceValues(org.settings).changeTargetReliability.value;
-  let fit: LifeStats['fit'] = null;
-  let fitProblem: string | null = null;
-  if (failures.length < 3) fitProblem = `A fit needs at least 3 worn-out parts; ${failures.length} so far.`;
-  else {
-    try {
-      const f = fitWeibull(failures, suspensions);
-      const top = Math.max(...failures, ...suspensions) * 1.25;
-      fit = {
-        shape: f.shape,
-        scale: f.scale,
-        b10: weibullBLife(f, 0.1),
-        recommended: recommendedChangePoint(f, target),
-        targetReliability: target,
-        curve: Array.from({ length: 41 }, (_, k) => ({ life: (top * k) / 40, reliability: weibullReliability(f, (top * k) / 40) })),
-      };
-    } catch (err) {
-      fitProblem = err instanceof Error ? err.message : 'The fit failed';
-    }
+  return referenceValues(org.settings).changeTargetReliability.value;
+}
+
+/**
+ * Achieved lives of one part type (optionally on one machine and its components): the
+ * distribution, a Weibull fit with suspensions (changed with a partner, preventive, damaged,
+ * process faults, still installed), its bounds, B10, the reliability-target change point, the
+ * cheapest change point and the consumable cost per arc-hour.
+ */
+export async function lifeStats(em: EntityManager, who: Principal, partTypeId: string, machineId?: string): Promise<LifeStats> {
+  const part = await em.findOne(PartType, { id: partTypeId });
+  if (!part) throw notFound('Part');
+  const all = await em.find(Machine, {});
+  let torchIds: string[] | null = null;
+  if (machineId) {
+    if (!all.some((m) => m.id === machineId)) throw notFound('Machine');
+    torchIds = subtreeIds(all, machineId);
   }
+  const { unit, removed, open, lifeOf, failures, suspensions, processFaults } = await collectLives(em, part, all, torchIds);
+  const costs = costsOf(part);
+  const model = lifeModel(failures, suspensions, costs, await targetReliability(em, who));
 
   const costOf = (rows: typeof removed) => {
     const hours = rows.reduce((s, i) => s + (i.lifeArcHours ?? 0), 0);
@@ -88,6 +90,11 @@ export async function lifeStats(em: EntityManager, who: Principal, partTypeId: s
   const codeOf = new Map(all.map((m) => [m.id, m.code]));
   const byTorch = new Map<string, typeof removed>();
   for (const i of removed) byTorch.set(i.torch.id, [...(byTorch.get(i.torch.id) ?? []), i]);
+  const byReason = REMOVAL_REASONS.map((reason) => ({
+    reason,
+    kind: REMOVAL_REASON_KIND[reason],
+    count: removed.filter((i) => i.removalReason === reason).length,
+  })).filter((r) => r.count > 0);
   return {
     partType: {
       id: part.id,
@@ -95,16 +102,19 @@ export async function lifeStats(em: EntityManager, who: Principal, partTypeId: s
       name: part.name,
       category: part.category,
       lifeUnit: part.lifeUnit ?? null,
-      unitCost: Number(part.unitCost),
+      unitCost: costs.unitCost,
+      plannedChangeCost: costs.plannedChangeCost,
+      failureCost: costs.failureCost,
       expectedLife: part.expectedLife ?? null,
     },
     unit,
     failures,
     suspensions,
     stillInstalled: open.length,
+    byReason,
+    processFaults,
     histogram: lifeHistogram(failures, suspensions),
-    fit,
-    fitProblem,
+    ...model,
     meanLife: mean(removed.map(lifeOf).filter((x): x is number => x !== null && x > 0)),
     costPerArcHour: costOf(removed),
     perMachine: [...byTorch.entries()]
@@ -117,4 +127,19 @@ export async function lifeStats(em: EntityManager, who: Principal, partTypeId: s
       }))
       .sort((a, b) => a.machineCode.localeCompare(b.machineCode)),
   };
+}
+
+/** B10 and the cheapest change point of each part type, over the whole shop, for the station page. */
+export async function changePlans(em: EntityManager, who: Principal, partTypeIds: string[]): Promise<Map<string, InstalledPart['plan']>> {
+  const out = new Map<string, InstalledPart['plan']>();
+  if (partTypeIds.length === 0) return out;
+  const parts = await em.find(PartType, { id: { $in: [...new Set(partTypeIds)] } });
+  const all = await em.find(Machine, {});
+  const target = await targetReliability(em, who);
+  for (const part of parts) {
+    const { failures, suspensions } = await collectLives(em, part, all, null);
+    const { fit } = lifeModel(failures, suspensions, costsOf(part), target);
+    out.set(part.id, fit ? { b10: fit.b10, failures: failures.length, change: fit.plan } : null);
+  }
+  return out;
 }

@@ -3,11 +3,13 @@ import { executeBound } from '../../db';
 import { notFound } from '../../http/errors';
 import { ilikeExact } from '../machines/machines.service';
 import { stationStatus } from './station-status';
+import { workDoneBy } from '../work-orders/station-completion';
 import type { Principal } from '../../http/principal';
 import { advanceSince } from '../../../shared/domain/meters';
 import { lifeFraction, referenceValues } from '../../../shared/domain/consumables';
+import { changePlans } from './life-stats.service';
 import { TORCH_CATEGORIES, type TorchCategory } from '../../../shared/schemas/stock';
-import type { ChangeRow, InstalledPart, PartOption, StationView, ToolSummary, TorchStation } from '../../../shared/schemas/consumables';
+import type { ChangeRow, InstalledPart, PartOption, RemovalReason, StationView, ToolSummary, TorchStation } from '../../../shared/schemas/consumables';
 import type { MeterRow } from '../../../shared/schemas/machines';
 
 /*
@@ -71,7 +73,7 @@ type ToolJson = {
 };
 type ChangeJson = Omit<ChangeRow, 'parts'> & {
   installed: { category: TorchCategory; partNumber: string }[] | null;
-  removed: { category: TorchCategory; lifeStarts: number | null; lifeArcHours: number | null }[] | null;
+  removed: { category: TorchCategory; reason: RemovalReason | null; lifeStarts: number | null; lifeArcHours: number | null }[] | null;
 };
 type Reading = { at: Date; value: number; isReset: boolean };
 
@@ -139,14 +141,14 @@ async function subtreeData(em: EntityManager, orgId: string, subtree: string[], 
           left join lateral (select r.value from meter_reading r where r.meter_id = pt.hits_meter_id
                               order by r.read_at desc, r.created_at desc limit 1) lh on true
          where pt.organization_id = ? and pt.active and pt.machine_id = any(?::uuid[])) as tools,
-       (select json_agg(json_build_object('id', c.id, 'changedAt', c.changed_at, 'torchCode', t.code, 'reason', c.reason,
+       (select json_agg(json_build_object('id', c.id, 'changedAt', c.changed_at, 'torchCode', t.code,
                                           'startsReading', c.starts_reading, 'arcHoursReading', c.arc_hours_reading, 'pitDepthMm', c.pit_depth_mm,
                                           'by', u.name, 'note', c.note,
                                           'hasPhoto', exists (select 1 from consumable_photo ph where ph.change_id = c.id),
                                           'installed', (select json_agg(json_build_object('category', i.category, 'partNumber', p.part_number))
                                                           from consumable_install i join part_type p on p.id = i.part_type_id
                                                          where i.organization_id = ? and i.install_change_id = c.id),
-                                          'removed', (select json_agg(json_build_object('category', r.category, 'lifeStarts', r.life_starts, 'lifeArcHours', r.life_arc_hours))
+                                          'removed', (select json_agg(json_build_object('category', r.category, 'reason', r.removal_reason, 'lifeStarts', r.life_starts, 'lifeArcHours', r.life_arc_hours))
                                                         from consumable_install r where r.organization_id = ? and r.removal_change_id = c.id))
                         order by c.changed_at desc, c.id)
           from (select * from consumable_change where organization_id = ? and torch_id = any(?::uuid[])
@@ -267,6 +269,11 @@ export async function stationView(em: EntityManager, who: Principal, code: strin
   );
   const readings = await readingsSinceEach(em, wanted);
   const listAt = (i: number) => (i >= 0 ? readings[i] : []);
+  const plans = await changePlans(
+    em,
+    who,
+    installs.map((i) => i.partType.id),
+  );
 
   const torchState = new Map((data.torches ?? []).map((t) => [t.torchId, t]));
   const torchViews: TorchStation[] = torchCounters.map((c, n) => {
@@ -301,6 +308,7 @@ export async function stationView(em: EntityManager, who: Principal, code: strin
           expected,
           expectedSource: expected !== null ? ('catalogue' as const) : null,
           fraction: lifeFraction(used, expected),
+          plan: plans.get(p.id) ?? null,
         };
       })
       .sort((a, b) => TORCH_CATEGORIES.indexOf(a.category) - TORCH_CATEGORIES.indexOf(b.category));
@@ -352,16 +360,25 @@ export async function stationView(em: EntityManager, who: Principal, code: strin
     .map((m) => ({ ...asRow(m)!, machineCode: machineCode.get(m.machineId)! }))
     .sort((a, b) => a.machineCode.localeCompare(b.machineCode, undefined, { numeric: true }) || a.code.localeCompare(b.code));
 
+  const workOf = await workDoneBy(
+    em,
+    (data.changes ?? []).map((c) => c.id),
+  );
   const recentChanges: ChangeRow[] = (data.changes ?? []).map(({ installed, removed, ...c }) => ({
     id: c.id,
     changedAt: iso(c.changedAt)!,
     torchCode: c.torchCode,
-    reason: c.reason,
     parts: (installed ?? [])
       .sort((a, b) => TORCH_CATEGORIES.indexOf(a.category) - TORCH_CATEGORIES.indexOf(b.category))
       .map((i) => {
         const out = (removed ?? []).find((r) => r.category === i.category);
-        return { category: i.category, partNumber: i.partNumber, lifeStarts: out?.lifeStarts ?? null, lifeArcHours: out?.lifeArcHours ?? null };
+        return {
+          category: i.category,
+          partNumber: i.partNumber,
+          reason: out?.reason ?? null,
+          lifeStarts: out?.lifeStarts ?? null,
+          lifeArcHours: out?.lifeArcHours ?? null,
+        };
       }),
     startsReading: c.startsReading,
     arcHoursReading: c.arcHoursReading,
@@ -369,6 +386,7 @@ export async function stationView(em: EntityManager, who: Principal, code: strin
     by: c.by,
     hasPhoto: c.hasPhoto,
     note: c.note,
+    workOrders: workOf.get(c.id) ?? [],
   }));
 
   const ref = referenceValues(shop.settings);

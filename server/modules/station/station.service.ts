@@ -12,8 +12,9 @@ import { neighbours, readingsSince, recordReading } from '../meters/meters.servi
 import type { Principal } from '../../http/principal';
 import { AppError, fieldError, notFound } from '../../http/errors';
 import { recordActivity } from '../activity-log/activity-log.service';
+import { completeByStationRecord, workDoneBy } from '../work-orders/station-completion';
 import { advanceSince } from '../../../shared/domain/meters';
-import { referenceValues } from '../../../shared/domain/consumables';
+import { reasonsFromSingle, referenceValues } from '../../../shared/domain/consumables';
 import { PART_CATEGORY_LABELS, TORCH_CATEGORIES, type TorchCategory } from '../../../shared/schemas/stock';
 import { type ChangeRow, type ConsumableChangeInput, type ConsumableSettingsInput } from '../../../shared/schemas/consumables';
 import { clock } from '../../../shared/clock';
@@ -119,7 +120,7 @@ export async function logChange(
   who: Principal,
   input: ConsumableChangeInput,
   photo?: Buffer,
-): Promise<{ id: string; closed: number; opened: number }> {
+): Promise<{ id: string; closed: number; opened: number; workOrders: { id: string; number: number }[] }> {
   const mime = photo ? await checkPhoto(photo) : null;
   return em.transactional(async (tx) => {
     const torch = await tx.findOne(Machine, { id: input.torchId }, { lockMode: LockMode.PESSIMISTIC_WRITE });
@@ -134,11 +135,12 @@ export async function logChange(
     await tx.flush(); // new readings count in the lives computed below
 
     const open = await tx.find(ConsumableInstall, { torch: torch.id, removedAt: null, category: { $in: input.categories } });
+    // Reasons given per part win; the rest follow the one reason for the change (older clients).
+    const reasons = { ...(input.reason ? reasonsFromSingle(input.categories, input.reason) : {}), ...input.reasons };
     const change = tx.create(ConsumableChange, {
       organization: who.orgId,
       torch,
       changedAt,
-      reason: input.reason,
       startsReading: starts,
       arcHoursReading: arcHours,
       pitDepthMm: input.pitDepthMm,
@@ -160,7 +162,7 @@ export async function logChange(
       if (old) {
         old.removedAt = changedAt;
         old.removalChange = ref(change);
-        old.removalReason = input.reason;
+        old.removalReason = reasons[category] ?? null;
         old.lifeStarts = await advanceFrom(tx, meters.starts?.id, old.startsAtInstall, old.installedAt, changedAt);
         old.lifeArcHours = await advanceFrom(tx, meters.arcHours?.id, old.arcHoursAtInstall, old.installedAt, changedAt);
       }
@@ -195,9 +197,18 @@ export async function logChange(
       who,
       'consumable.changed',
       { type: 'ConsumableChange', id: change.id },
-      { torch: torch.code, categories: input.categories, reason: input.reason, starts, arcHours, fromStock: input.takeFromStock },
+      { torch: torch.code, categories: input.categories, reasons, starts, arcHours, fromStock: input.takeFromStock },
     );
-    return { id: change.id, closed: open.length, opened: taken.length };
+    const parts = (input.categories as TorchCategory[]).map((c) => PART_CATEGORY_LABELS[c].toLowerCase()).join(' + ');
+    const done = await completeByStationRecord(tx, who, {
+      type: 'ConsumableChange',
+      id: change.id,
+      machineId: torch.id,
+      at: changedAt,
+      summary: `Consumable change on ${torch.code}: ${parts}${input.pitDepthMm !== null ? `; electrode pit ${input.pitDepthMm} mm` : ''}`,
+      categories: input.categories as TorchCategory[],
+    });
+    return { id: change.id, closed: open.length, opened: taken.length, workOrders: done.workOrders.map((w) => ({ id: w.id, number: w.number })) };
   });
 }
 
@@ -216,12 +227,12 @@ export async function listChanges(em: EntityManager, q: { torchIds?: string[]; p
     ? await em.execute('select change_id from consumable_photo where change_id = any(?::uuid[])', [`{${ids.join(',')}}`])
     : [];
   const withPhoto = new Set(photos.map((p) => p.change_id));
+  const work = await workDoneBy(em, ids);
   return {
     rows: changes.map((c) => ({
       id: c.id,
       changedAt: c.changedAt.toISOString(),
       torchCode: c.torch.getEntity().code,
-      reason: c.reason,
       parts: installs
         .filter((i) => i.installChange?.id === c.id)
         .sort((a, b) => TORCH_CATEGORIES.indexOf(a.category) - TORCH_CATEGORIES.indexOf(b.category))
@@ -230,6 +241,7 @@ export async function listChanges(em: EntityManager, q: { torchIds?: string[]; p
           return {
             category: i.category,
             partNumber: i.partType.getEntity().partNumber,
+            reason: out?.removalReason ?? null,
             lifeStarts: out?.lifeStarts ?? null,
             lifeArcHours: out?.lifeArcHours ?? null,
           };
@@ -240,6 +252,7 @@ export async function listChanges(em: EntityManager, q: { torchIds?: string[]; p
       by: c.by?.getEntity().name ?? null,
       hasPhoto: withPhoto.has(c.id),
       note: c.note ?? null,
+      workOrders: work.get(c.id) ?? [],
     })),
     total,
     page: q.page,

@@ -3,10 +3,17 @@ import { PartType, StockMove, type IPartType } from './stock.entity';
 import { Organization, type OrgSettings } from '../organizations/organization.entity';
 import { applyStockChanges } from './stock.service';
 import type { Principal } from '../../http/principal';
-import { conflict, notFound } from '../../http/errors';
+import { conflict, fieldError, notFound } from '../../http/errors';
 import { recordActivity } from '../activity-log/activity-log.service';
 import { demandStats, reorderPointUnits } from '../../../shared/domain/stock';
-import type { PartTypeInput, PartTypeRow, PartTypeUpdate, RecordStockMoveInput, StockMoveRow } from '../../../shared/schemas/stock';
+import {
+  failureCostProblem,
+  type PartTypeInput,
+  type PartTypeRow,
+  type PartTypeUpdate,
+  type RecordStockMoveInput,
+  type StockMoveRow,
+} from '../../../shared/schemas/stock';
 import type { Page } from '../../../shared/schemas/paging';
 
 /** Days of 'used' moves the reorder point learns from; days without use count as zero. */
@@ -54,6 +61,8 @@ function toRow(p: IPartType, usage: number[], currency: string | null = null): P
     lifeUnit: p.lifeUnit ?? null,
     expectedLife: p.expectedLife ?? null,
     unitCost: Number(p.unitCost),
+    plannedChangeCost: p.plannedChangeCost === null || p.plannedChangeCost === undefined ? null : Number(p.plannedChangeCost),
+    failureCost: p.failureCost === null || p.failureCost === undefined ? null : Number(p.failureCost),
     currency,
     onHand: p.onHand,
     leadTimeDays: p.leadTimeDays,
@@ -114,6 +123,12 @@ export async function updatePartType(em: EntityManager, who: Principal, id: stri
     const p = await tx.findOne(PartType, { id });
     if (!p) throw notFound('Part');
     if (input.partNumber !== undefined) await assertPartNumberFree(tx, input.partNumber, id);
+    const next = (k: 'unitCost' | 'plannedChangeCost' | 'failureCost') => {
+      const v = input[k] !== undefined ? input[k] : p[k];
+      return v === null || v === undefined ? null : Number(v);
+    };
+    const problem = failureCostProblem(next('plannedChangeCost') ?? next('unitCost') ?? 0, next('failureCost'));
+    if (problem) throw fieldError('failureCost', problem);
     tx.assign(p, input);
     recordActivity(tx, who, 'part.updated', { type: 'PartType', id }, { ...input });
   });

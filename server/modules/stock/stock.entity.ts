@@ -21,6 +21,10 @@ export const PartType = defineEntity({
     lifeUnit: p.enum([...LIFE_UNITS]).nullable(),
     expectedLife: p.double().$type<number>().nullable(),
     unitCost: p.decimal('number').precision(12).scale(2).default(0),
+    /** What a planned change costs (part, fitting time); empty = the unit cost. */
+    plannedChangeCost: p.decimal('number').precision(12).scale(2).nullable(),
+    /** What a failure in service costs (part, scrapped sheet, damaged torch parts, downtime). */
+    failureCost: p.decimal('number').precision(12).scale(2).nullable(),
     /** Kept equal to the sum of this part's stock moves, in the same transaction. */
     onHand: p.double().$type<number>().default(0),
     leadTimeDays: p.integer().default(7),

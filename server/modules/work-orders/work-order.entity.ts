@@ -21,6 +21,7 @@ export const WorkOrder = defineEntity({
     { properties: ['organization', 'status', 'dueAt'] },
     { properties: ['assignee', 'status'] },
     { properties: ['machine'] },
+    { properties: ['stationRecordId'] },
     // The due engine's notice step reads only raised work nobody has been told about yet.
     {
       name: 'work_order_unnotified_index',
@@ -64,6 +65,11 @@ export const WorkOrder = defineEntity({
     holdReason: p.string().length(500).nullable(),
     completedAt: p.datetime().nullable(),
     completedBy: () => p.manyToOne(User).ref().nullable(),
+    /** The station record that completed this work (a consumable change, cut check, reading or pre-use check). */
+    stationRecordType: p.string().length(40).nullable(),
+    stationRecordId: p.uuid().nullable(),
+    /** What that record said, in words, as it stood when it did the work. */
+    stationRecordSummary: p.string().length(300).nullable(),
     cancelledAt: p.datetime().nullable(),
     cancelReason: p.string().length(500).nullable(),
   },

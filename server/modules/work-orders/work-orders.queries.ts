@@ -231,6 +231,8 @@ export async function getWorkOrder(em: EntityManager, who: Principal, id: string
     completedBy: wo.completedBy ? { id: wo.completedBy.id, name: wo.completedBy.getEntity().name } : null,
     cancelledAt: iso(wo.cancelledAt),
     cancelReason: wo.cancelReason ?? null,
+    stationRecord:
+      wo.stationRecordType && wo.stationRecordId ? { type: wo.stationRecordType, id: wo.stationRecordId, summary: wo.stationRecordSummary ?? '' } : null,
     attachments: attachments.map((a) => ({
       id: a.id,
       fileName: a.fileName,

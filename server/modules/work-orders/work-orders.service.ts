@@ -11,6 +11,7 @@ import { recordActivity } from '../activity-log/activity-log.service';
 import { currentBaselines, refreshPlanStatus } from '../plans/plan-evaluation';
 import { findMachine, shopTimeZone } from '../plans/plans.service';
 import { raiseWorkOrders } from './raise-work-orders';
+import { returnToServiceOnWorkDone } from '../machines/machine-state.service';
 import { OPEN, closeBlockers, findWorkOrder, iso } from './work-orders.queries';
 import { WORK_STATE_LABELS } from '../../../shared/schemas/work-orders';
 import type {
@@ -94,9 +95,9 @@ export async function updateWorkOrder(em: EntityManager, who: Principal, id: str
  * Completion (or calling off) of a plan's work restarts its cycle: floating schedules and meter
  * intervals count from now, and the plan's status is evaluated again at once.
  */
-async function restartPlanCycle(tx: EntityManager, who: Principal, wo: IWorkOrder, at: Date) {
-  if (!wo.plan) return;
-  const plan = await tx.findOne(MaintenancePlan, { id: wo.plan.id }, { lockMode: LockMode.PESSIMISTIC_WRITE });
+export async function restartPlanCycle(tx: EntityManager, who: Principal, planId: string | undefined, at: Date) {
+  if (!planId) return;
+  const plan = await tx.findOne(MaintenancePlan, { id: planId }, { lockMode: LockMode.PESSIMISTIC_WRITE });
   if (!plan) return;
   if (plan.lastDoneAt && plan.lastDoneAt.getTime() >= at.getTime()) return;
   plan.lastDoneAt = at;
@@ -133,7 +134,7 @@ export async function moveWorkOrder(em: EntityManager, who: Principal, id: strin
       wo.cancelledAt = now;
       wo.cancelReason = input.reason ?? null;
       // Calling off planned work skips this occurrence; the plan schedules the next one.
-      await restartPlanCycle(tx, who, wo, now);
+      await restartPlanCycle(tx, who, wo.plan?.id, now);
     }
     recordActivity(
       tx,
@@ -260,7 +261,9 @@ export async function closeWorkOrder(em: EntityManager, who: Principal, id: stri
     wo.status = 'done';
     wo.completedAt = now;
     wo.completedBy = tx.getReference(User, who.userId, { wrapped: true });
-    await restartPlanCycle(tx, who, wo, now);
+    await restartPlanCycle(tx, who, wo.plan?.id, now);
+    // A repair that ends a stop puts its machine back in service, signed by the same person.
+    await returnToServiceOnWorkDone(tx, who, wo.id);
     recordActivity(
       tx,
       who,

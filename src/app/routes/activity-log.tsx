@@ -14,7 +14,7 @@ export function Component() {
     <>
       <PageTitle title="Activity" subtitle="Who did what, newest first: sign-ins, invitations, role changes and every recorded change." />
       <Panel>
-        <ActivityLogTable timeZone={me.organization.timeZone} />
+        <ActivityLogTable />
       </Panel>
     </>
   );

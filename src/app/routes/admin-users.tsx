@@ -14,7 +14,7 @@ export function Component() {
         <InviteUserForm />
       </Panel>
       <Panel>
-        <UsersTable currentUserId={me.user.id} timeZone={me.organization.timeZone} />
+        <UsersTable currentUserId={me.user.id} />
       </Panel>
     </>
   );

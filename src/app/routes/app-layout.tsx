@@ -5,14 +5,13 @@ import { useLogout } from '../../features/auth/api/logout';
 import { ROLE_LABELS } from '../../../shared/permissions';
 import { navFor } from '../nav';
 import { paths } from '../../config/paths';
-import { setShopTimeZone } from '../../lib/format';
+import { ShopFormatProvider } from '../../lib/format';
 
 export function Component() {
   const { data: me } = useMe();
   const logout = useLogout();
   const navigate = useNavigate();
   if (!me) return null; // the loader redirects before this happens
-  setShopTimeZone(me.organization.timeZone);
   return (
     <AppShell
       shopName={me.organization.name}
@@ -22,7 +21,9 @@ export function Component() {
       signingOut={logout.isPending}
       onSignOut={() => logout.mutate(undefined, { onSettled: () => navigate(paths.signIn.getHref(), { replace: true }) })}
     >
-      <Outlet />
+      <ShopFormatProvider timeZone={me.organization.timeZone} locale={me.organization.locale}>
+        <Outlet />
+      </ShopFormatProvider>
     </AppShell>
   );
 }

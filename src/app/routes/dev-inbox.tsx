@@ -13,7 +13,7 @@ export function Component() {
         subtitle="E-mail caught by the local test mail server. Everyone sees the mail sent to them; admins also see what the shop sent its members, except password-reset links."
       />
       <Notice tone="info">Development and demo only: in production, mail goes to the configured SMTP relay and this page is empty.</Notice>
-      <Inbox timeZone={me.organization.timeZone} />
+      <Inbox />
     </>
   );
 }

@@ -20,7 +20,7 @@ export function Component() {
     <RoleHome role={me.role} name={me.user.name}>
       {/* At the machine the station is what an operator came for: first, above the fold on a phone. */}
       {me.role === 'operator' ? <StationPicker /> : null}
-      <MyWorkPanel timeZone={me.organization.timeZone} scope={me.role === 'admin' ? 'shop' : 'mine'} />
+      <MyWorkPanel scope={me.role === 'admin' ? 'shop' : 'mine'} />
       <SafetyHomePanel role={me.role} />
       {me.role === 'operator' || me.role === 'technician' ? (
         <Panel title="Before you work on a machine">
@@ -43,7 +43,7 @@ export function Component() {
       ) : null}
       {can(me.role, 'activity-log.read') ? (
         <Panel title="Latest activity" className="lg:col-span-2">
-          <ActivityLogTable pageSize={5} timeZone={me.organization.timeZone} filters={false} />
+          <ActivityLogTable pageSize={5} filters={false} />
         </Panel>
       ) : null}
     </RoleHome>

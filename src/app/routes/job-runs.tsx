@@ -10,7 +10,7 @@ export function Component() {
     <>
       <PageTitle title="Pass log" subtitle="Each run of the scheduled job: plans checked, work raised, past-due work reported, mails queued, problems." />
       <Panel>
-        <JobRuns timeZone={me.organization.timeZone} />
+        <JobRuns />
       </Panel>
     </>
   );

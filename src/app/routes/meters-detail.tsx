@@ -7,6 +7,7 @@ import { ReadingsTable } from '../../features/meters/components/readings-table';
 import { TrendChart } from '../../features/meters/components/trend-chart';
 import { MeterEditForm } from '../../features/meters/components/meter-edit-form';
 import { formatValue } from '../../features/meters/components/format';
+import { useShopFormat } from '../../lib/format';
 import { useMe } from '../../features/auth/api/get-me';
 import { queryClient } from '../../lib/query-client';
 import { can } from '../../../shared/permissions';
@@ -20,6 +21,7 @@ export function Component() {
   const { id } = useParams();
   const { data: me } = useMe();
   const q = useMeter(id!);
+  const f = useShopFormat();
   if (!me) return null;
   if (q.isError)
     return (
@@ -40,7 +42,7 @@ export function Component() {
       />
       <PageTitle
         title={`${m.machineCode} · ${m.name}`}
-        subtitle={`A ${KIND[m.kind]} in ${m.unit} · code ${m.code}${m.latest ? ` · latest ${formatValue(m.latest.value, m.unit)}` : ''}${m.upperLimit !== null ? ` · upper limit ${formatValue(m.upperLimit, m.unit)}` : ''}${m.lowerLimit !== null ? ` · lower limit ${formatValue(m.lowerLimit, m.unit)}` : ''}`}
+        subtitle={`A ${KIND[m.kind]} in ${m.unit} · code ${m.code}${m.latest ? ` · latest ${formatValue(f, m.latest.value, m.unit)}` : ''}${m.upperLimit !== null ? ` · upper limit ${formatValue(f, m.upperLimit, m.unit)}` : ''}${m.lowerLimit !== null ? ` · lower limit ${formatValue(f, m.lowerLimit, m.unit)}` : ''}`}
       />
       <Panel title="Trend, last 12 months">
         <TrendChart meterId={m.id} />

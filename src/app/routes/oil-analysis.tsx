@@ -29,7 +29,6 @@ export function Component() {
         {units.error.message}
       </Notice>
     );
-  const tz = me.organization.timeZone;
   const record = can(me.role, 'oil.record');
   return (
     <>
@@ -61,15 +60,15 @@ export function Component() {
       {unit ? (
         <>
           <Panel title={`${unit.code}: latest result`} actions={unit.latest ? <OilVerdict row={unit.latest} /> : null}>
-            {unit.latest ? <OilLatest row={unit.latest} target={unit.target} timeZone={tz} /> : <p className="text-steel-600">No results yet.</p>}
+            {unit.latest ? <OilLatest row={unit.latest} target={unit.target} /> : <p className="text-steel-600">No results yet.</p>}
           </Panel>
           <Panel title="Trends">
-            <OilTrendCharts rows={trend.data?.rows ?? []} target={unit.target} timeZone={tz} />
+            <OilTrendCharts rows={trend.data?.rows ?? []} target={unit.target} />
           </Panel>
           {record ? (
             <>
               <Panel title="Record a result">
-                <OilAnalysisForm key={unit.id} units={list} defaultMachineId={unit.id} timeZone={tz} />
+                <OilAnalysisForm key={unit.id} units={list} defaultMachineId={unit.id} />
               </Panel>
               <Panel title={`Targets for ${unit.code}`}>
                 <OilTargetForm key={unit.id} unit={unit} />
@@ -77,7 +76,7 @@ export function Component() {
             </>
           ) : null}
           <Panel title="All results">
-            <OilAnalysesTable machineId={unit.id} timeZone={tz} />
+            <OilAnalysesTable machineId={unit.id} />
           </Panel>
         </>
       ) : null}

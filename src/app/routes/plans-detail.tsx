@@ -39,7 +39,7 @@ export function Component() {
       />
       <PlanView plan={p} />
       <Panel title="Work orders from this plan">
-        <WorkOrdersTable timeZone={me.organization.timeZone} fixed={{ planId: p.id }} caption="Work orders from this plan" pageSize={10} defaultStatus="any" />
+        <WorkOrdersTable fixed={{ planId: p.id }} caption="Work orders from this plan" pageSize={10} defaultStatus="any" />
       </Panel>
     </>
   );

@@ -38,7 +38,7 @@ export function Component() {
         }
       />
       <Panel>
-        <PlansTable timeZone={me.organization.timeZone} />
+        <PlansTable />
       </Panel>
       {manage && lookups.data ? (
         <div id="starter-plans" className="scroll-mt-4">

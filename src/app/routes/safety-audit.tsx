@@ -11,9 +11,9 @@ export function Component() {
   return (
     <>
       <PageTitle title="Safety audit" subtitle="Who signed what and when, per machine; whether anything was changed afterwards; evidence to export." />
-      <ChainCheck timeZone={me.organization.timeZone} />
+      <ChainCheck />
       <Compliance />
-      <SignOffAudit me={{ name: me.user.name, role: me.role }} timeZone={me.organization.timeZone} />
+      <SignOffAudit me={{ name: me.user.name, role: me.role }} />
     </>
   );
 }

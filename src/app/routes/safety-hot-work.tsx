@@ -12,7 +12,7 @@ export function Component() {
   return (
     <>
       <PageTitle title="Fire watch" subtitle="After plasma cutting, someone stays and watches for smouldering fires for the time the site’s rule sets." />
-      <HotWork me={{ id: me.user.id, name: me.user.name, role: me.role }} timeZone={me.organization.timeZone} />
+      <HotWork me={{ id: me.user.id, name: me.user.name, role: me.role }} />
     </>
   );
 }

@@ -31,7 +31,7 @@ export function Component() {
         current={q.data.machineCode}
       />
       <PageTitle title={`Lockout of ${q.data.machineCode} · ${q.data.machineName}`} subtitle={q.data.reason} />
-      <LockoutDetailView lockout={q.data} me={{ id: me.user.id, name: me.user.name, role: me.role }} timeZone={me.organization.timeZone} />
+      <LockoutDetailView lockout={q.data} me={{ id: me.user.id, name: me.user.name, role: me.role }} />
     </>
   );
 }

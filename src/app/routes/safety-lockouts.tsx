@@ -23,7 +23,7 @@ export function Component() {
         }
       />
       <Panel>
-        <LockoutsTable timeZone={me.organization.timeZone} />
+        <LockoutsTable />
       </Panel>
     </>
   );

@@ -18,7 +18,7 @@ export function Component() {
         title="PPE requirements"
         subtitle="What each task at each machine needs. Lens shade follows the arc current and hearing protection the noise dose; sources are shown and the site can override them in settings."
       />
-      <PpeRequirements timeZone={me.organization.timeZone} />
+      <PpeRequirements />
     </>
   );
 }

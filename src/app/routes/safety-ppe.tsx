@@ -28,7 +28,7 @@ export function Component() {
         }
       />
       {can(me.role, 'safety.ppe.sign') ? (
-        <PpeStation me={{ name: me.user.name, role: me.role }} timeZone={me.organization.timeZone} initialMachineId={params.get('machineId') ?? undefined} />
+        <PpeStation me={{ name: me.user.name, role: me.role }} initialMachineId={params.get('machineId') ?? undefined} />
       ) : (
         <Notice tone="info">PPE checks are signed by the people who work at the machines.</Notice>
       )}

@@ -37,7 +37,7 @@ export function Component() {
         current={p.machine.code}
       />
       <PageTitle title={`${p.machine.code} · ${p.machine.name}`} subtitle={(p.current ?? p.draft)?.content.title} />
-      <ProcedureView p={p} me={{ name: me.user.name, role: me.role }} timeZone={me.organization.timeZone} viewingVersion={version} />
+      <ProcedureView p={p} me={{ name: me.user.name, role: me.role }} viewingVersion={version} />
     </>
   );
 }

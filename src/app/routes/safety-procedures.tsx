@@ -27,7 +27,7 @@ export function Component() {
         }
       />
       <Panel>
-        <ProceduresTable timeZone={me.organization.timeZone} />
+        <ProceduresTable />
       </Panel>
     </>
   );

@@ -17,7 +17,7 @@ export function Component() {
         title="Inspections and training"
         subtitle="The periodic inspection of each procedure, its certification, and who is trained on which version."
       />
-      <SafetyRecords me={{ id: me.user.id, name: me.user.name, role: me.role }} timeZone={me.organization.timeZone} />
+      <SafetyRecords me={{ id: me.user.id, name: me.user.name, role: me.role }} />
     </>
   );
 }

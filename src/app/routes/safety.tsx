@@ -17,7 +17,7 @@ export function Component() {
   return (
     <>
       <PageTitle title="Safety log" subtitle="Lockouts, PPE checks, fire watch, procedures and inspections — each one signed and kept." />
-      <SafetyHub role={me.role} timeZone={me.organization.timeZone} />
+      <SafetyHub role={me.role} />
     </>
   );
 }

@@ -31,7 +31,6 @@ export function Component() {
     );
   if (!q.data) return <p role="status">Loading…</p>;
   const wo = q.data;
-  const tz = me.organization.timeZone;
   const worker = can(me.role, 'work-orders.work');
   const open = wo.status !== 'done' && wo.status !== 'cancelled';
   const readOnly = !worker || !open;
@@ -57,10 +56,10 @@ export function Component() {
           </div>
         }
       />
-      <WorkOrderSummary wo={wo} timeZone={tz} />
+      <WorkOrderSummary wo={wo} />
       {worker && open ? (
         <Panel title="Who and when">
-          <ReplanForm wo={wo} timeZone={tz} />
+          <ReplanForm wo={wo} />
         </Panel>
       ) : null}
       <Panel title="Checklist">
@@ -81,22 +80,22 @@ export function Component() {
       </Panel>
       <div className="grid gap-4 lg:grid-cols-2">
         <Panel title="Parts, oil and grease">
-          <PartsUsed wo={wo} timeZone={tz} readOnly={readOnly} />
+          <PartsUsed wo={wo} readOnly={readOnly} />
         </Panel>
         <Panel title="Time and notes">
           <WorkLogForm wo={wo} readOnly={readOnly} />
         </Panel>
       </div>
       <Panel title="Photos and files">
-        <Attachments wo={wo} timeZone={tz} canUpload={worker} />
+        <Attachments wo={wo} canUpload={worker} />
       </Panel>
       {worker && open ? (
         <Panel title="Sign off">
-          <CloseWork wo={wo} timeZone={tz} />
+          <CloseWork wo={wo} />
         </Panel>
       ) : null}
       <Panel title="History">
-        <WorkHistory wo={wo} timeZone={tz} />
+        <WorkHistory wo={wo} />
       </Panel>
     </>
   );

@@ -36,7 +36,6 @@ export function Component() {
       {raising ? (
         <Panel title="Report a fault or job">
           <RaiseWorkForm
-            timeZone={me.organization.timeZone}
             defaultMachineId={params.get('raise') === '1' ? (params.get('machineId') ?? undefined) : undefined}
             defaultInstructions={from && /^\d+$/.test(from) ? `Follow-up to WO ${from}: ` : undefined}
             onRaised={(r) => navigate(`/work-orders/${r.id}`)}
@@ -44,7 +43,7 @@ export function Component() {
         </Panel>
       ) : null}
       <Panel>
-        <WorkOrdersTable timeZone={me.organization.timeZone} />
+        <WorkOrdersTable />
       </Panel>
     </>
   );

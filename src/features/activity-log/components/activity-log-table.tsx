@@ -3,7 +3,7 @@ import { createColumnHelper, type SortingState } from '@tanstack/react-table';
 import { DataTable } from '../../../components/ui/data-table';
 import { EmptyState, Notice } from '../../../components/ui/notice';
 import { useActivityLog, type ActivityRow } from '../api/get-activity-log';
-import { formatWhen } from '../../../lib/format';
+import { useShopFormat, type ShopFormat } from '../../../lib/format';
 
 const col = createColumnHelper<ActivityRow>();
 const words = (s: string) => s.replace(/[-_]/g, ' ');
@@ -30,15 +30,16 @@ const describeRecord = (r: ActivityRow) => {
             : null;
   return label ? `${kind} ${label}` : kind;
 };
-const columnsFor = (timeZone: string) => [
-  col.accessor('at', { header: 'When', cell: (c) => formatWhen(c.getValue(), timeZone) }),
+const columnsFor = (f: ShopFormat) => [
+  col.accessor('at', { header: 'When', cell: (c) => f.dateTime(c.getValue()) }),
   col.accessor('actor', { header: 'Who', cell: (c) => c.getValue() ?? 'System', enableSorting: false }),
   col.accessor('action', { header: 'What', cell: (c) => describeAction(c.getValue()), enableSorting: false }),
   col.display({ id: 'record', header: 'Record', cell: (c) => describeRecord(c.row.original) }),
 ];
 
 /** The shop's activity; `filters` off for the short list on the home page. */
-export function ActivityLogTable({ pageSize = 25, timeZone, filters = true }: { pageSize?: number; timeZone: string; filters?: boolean }) {
+export function ActivityLogTable({ pageSize = 25, filters = true }: { pageSize?: number; filters?: boolean }) {
+  const f = useShopFormat();
   const [page, setPage] = useState(1);
   const [area, setArea] = useState('');
   const [actor, setActor] = useState('');
@@ -49,7 +50,7 @@ export function ActivityLogTable({ pageSize = 25, timeZone, filters = true }: { 
   return (
     <DataTable
       caption="Activity log"
-      columns={columnsFor(timeZone)}
+      columns={columnsFor(f)}
       data={q.data?.rows ?? []}
       loading={q.isLoading}
       getRowId={(r) => r.id}

@@ -2,13 +2,15 @@ import { useRef, useState } from 'react';
 import { Button } from '../../../components/ui/button';
 import { Notice } from '../../../components/ui/notice';
 import { ConfirmDialog } from '../../../components/ui/confirm-dialog';
-import { shopFormatter } from '../../../lib/format';
+import { useShopFormat } from '../../../lib/format';
 import { useCalendarFeed } from '../api/get-calendar-feed';
 import { useCreateCalendarFeed } from '../api/create-calendar-feed';
 import { useRevokeCalendarFeed } from '../api/revoke-calendar-feed';
 
 /** A private iCalendar address of my due work, shown once when made; revoking it stops it at once. */
 export function CalendarFeedPanel() {
+  // Site time, like every other time in Kerfbook, not the browser's zone.
+  const f = useShopFormat();
   const q = useCalendarFeed();
   const create = useCreateCalendarFeed();
   const revoke = useRevokeCalendarFeed();
@@ -25,8 +27,6 @@ export function CalendarFeedPanel() {
       </Notice>
     );
   if (!q.data) return <p role="status">Loading…</p>;
-  // Site time, like every other time in Kerfbook, not the browser's zone.
-  const fmt = shopFormatter({ dateStyle: 'medium', timeStyle: 'short' });
   const make = async () => {
     setConfirm(null);
     setError(null);
@@ -84,8 +84,8 @@ export function CalendarFeedPanel() {
       ) : null}
       {q.data.active ? (
         <p>
-          Feed on since {q.data.createdAt ? fmt.format(new Date(q.data.createdAt)) : '—'}
-          {q.data.lastUsedAt ? `; last read by a calendar ${fmt.format(new Date(q.data.lastUsedAt))}` : '; not read by a calendar yet'}.
+          Feed on since {f.dateTime(q.data.createdAt)}
+          {q.data.lastUsedAt ? `; last read by a calendar ${f.dateTime(q.data.lastUsedAt)}` : '; not read by a calendar yet'}.
         </p>
       ) : (
         <p>No calendar feed is on.</p>

@@ -2,12 +2,10 @@ import { Bar, BarChart, CartesianGrid, Legend, Line, LineChart, ReferenceLine, R
 import { createColumnHelper } from '@tanstack/react-table';
 import { DataTable } from '../../../components/ui/data-table';
 import { EmptyState, Notice, Panel } from '../../../components/ui/notice';
-import type { LifeStats } from '../../../../shared/schemas/consumables';
+import { REMOVAL_KIND_LABELS, REMOVAL_REASON_LABELS, type LifeStats } from '../../../../shared/schemas/consumables';
 import { useLifeStats, type LifeFilters } from '../api/get-life-stats';
+import { useShopFormat } from '../../../lib/format';
 
-const int = new Intl.NumberFormat(undefined, { maximumFractionDigits: 0 });
-const dec = new Intl.NumberFormat(undefined, { maximumFractionDigits: 2 });
-const money = new Intl.NumberFormat(undefined, { minimumFractionDigits: 2, maximumFractionDigits: 2 });
 type PerMachine = LifeStats['perMachine'][number];
 const col = createColumnHelper<PerMachine>();
 
@@ -22,26 +20,53 @@ function Figure({ label, value, note }: { label: string; value: string; note?: s
 }
 
 export function LifeView({ filters }: { filters: LifeFilters }) {
+  const f = useShopFormat();
   const q = useLifeStats(filters);
   if (q.isError) return <Notice tone="danger">{q.error.message}</Notice>;
   if (!q.data) return <p role="status">Loading…</p>;
   const s = q.data;
   const unit = s.unit === 'starts' ? 'starts' : 'arc h';
-  const fmt = (v: number) => (s.unit === 'starts' ? int.format(v) : dec.format(v));
+  const fmt = (v: number) => (s.unit === 'starts' ? f.number(v, { max: 0 }) : f.number(v, { max: 2 }));
   const columns = [
     col.accessor('machineCode', { header: 'Torch' }),
     col.accessor('removed', { header: 'Parts removed' }),
     col.accessor('meanLife', { header: `Mean life (${unit})`, cell: (c) => (c.getValue() === null ? '—' : fmt(c.getValue()!)) }),
-    col.accessor('costPerArcHour', { header: 'Cost per arc-hour', cell: (c) => (c.getValue() === null ? '—' : money.format(c.getValue()!)) }),
+    col.accessor('costPerArcHour', { header: 'Cost per arc-hour', cell: (c) => (c.getValue() === null ? '—' : f.number(c.getValue()!, { min: 2, max: 2 })) }),
   ];
   const total = s.failures.length + s.suspensions.length;
   return (
     <div className="space-y-4">
-      <dl className="grid grid-cols-2 gap-3 md:grid-cols-3 lg:grid-cols-6">
-        <Figure label="Worn out" value={String(s.failures.length)} note="normal wear, failed start, poor cut" />
-        <Figure label="Suspensions" value={String(s.suspensions.length)} note={`damaged, preventive, ${s.stillInstalled} still in`} />
+      {s.warning ? (
+        <Notice tone="caution" title="Few failures">
+          {s.warning}
+        </Notice>
+      ) : null}
+      <dl className="grid grid-cols-2 gap-3 md:grid-cols-4">
+        <Figure label="Worn out" value={String(s.failures.length)} note="worn, failed start, poor cut" />
+        <Figure
+          label="Suspensions"
+          value={String(s.suspensions.length)}
+          note={`with its partner, preventive, damaged, ${s.processFaults} process faults, ${s.stillInstalled} still in`}
+        />
         <Figure label={`Mean achieved life`} value={s.meanLife === null ? '—' : `${fmt(s.meanLife)} ${unit}`} note="of parts removed" />
-        <Figure label="B10 life" value={s.fit ? `${fmt(s.fit.b10)} ${unit}` : '—'} note="10 % have worn out by then" />
+        <Figure
+          label="B10 life"
+          value={s.fit ? `${fmt(s.fit.b10)} ${unit}` : '—'}
+          note={
+            s.fit?.bounds
+              ? `${Math.round(s.fit.bounds.level * 100)} % bounds ${fmt(s.fit.bounds.b10.lower)}–${fmt(s.fit.bounds.b10.upper)}`
+              : '10 % have worn out by then'
+          }
+        />
+        <Figure
+          label="Cheapest change"
+          value={s.fit?.plan.age != null ? `${fmt(s.fit.plan.age)} ${unit}` : '—'}
+          note={
+            s.fit?.plan.savingPercent != null
+              ? `${int.format(s.fit.plan.savingPercent)} % cheaper than running to failure`
+              : (s.fit?.plan.note ?? 'needs a fit and a failure cost')
+          }
+        />
         <Figure
           label="Recommended change"
           value={s.fit ? `${fmt(s.fit.recommended)} ${unit}` : '—'}
@@ -49,26 +74,46 @@ export function LifeView({ filters }: { filters: LifeFilters }) {
         />
         <Figure
           label="Cost per arc-hour"
-          value={s.costPerArcHour === null ? '—' : money.format(s.costPerArcHour)}
-          note={`unit cost ${money.format(s.partType.unitCost)}`}
+          value={s.costPerArcHour === null ? '—' : f.number(s.costPerArcHour, { min: 2, max: 2 })}
+          note={`unit cost ${f.number(s.partType.unitCost, { min: 2, max: 2 })}`}
         />
       </dl>
       {s.fit ? (
         <p className="text-sm text-steel-700">
-          Weibull fit by maximum likelihood with suspensions (NIST e-Handbook of Statistical Methods §8.4.1.2): shape β = {dec.format(s.fit.shape)} (
+          Weibull fit by maximum likelihood with suspensions (NIST e-Handbook of Statistical Methods §8.4.1.2): shape β = {f.number(s.fit.shape, { max: 2 })} (
           {s.fit.shape > 1.2
             ? 'wear-out: a planned change pays'
             : s.fit.shape < 0.9
               ? 'early failures: look at fitting and gas quality before planning changes'
               : 'close to random failures'}
           ), characteristic life η = {fmt(s.fit.scale)} {unit}.
+          {s.fit.bounds
+            ? ` ${Math.round(s.fit.bounds.level * 100)} % two-sided Fisher-matrix bounds (Meeker & Escobar, Statistical Methods for Reliability Data, §8.4): β ${dec.format(s.fit.bounds.shape.lower)}–${dec.format(s.fit.bounds.shape.upper)}, η ${fmt(s.fit.bounds.scale.lower)}–${fmt(s.fit.bounds.scale.upper)} ${unit}.`
+            : ''}
           {s.partType.expectedLife !== null ? ` The catalogue expects ${fmt(s.partType.expectedLife)} ${unit}.` : ''}
+          {s.fit.plan.age !== null && s.fit.plan.costRate !== null && s.fit.plan.runToFailureCostRate !== null
+            ? ` Cheapest change point (age replacement, Barlow & Proschan): planned change ${money.format(s.fit.plan.plannedCost)}, failure in service ${money.format(s.fit.plan.failureCost ?? 0)} → change at ${fmt(s.fit.plan.age)} ${unit}, ${money.format(s.fit.plan.costRate * 1000)} per 1000 ${unit} against ${money.format(s.fit.plan.runToFailureCostRate * 1000)} when run to failure.`
+            : ''}
         </p>
       ) : (
         <Notice tone="info" title="No fit yet">
           {s.fitProblem}
         </Notice>
       )}
+      {s.byReason.length ? (
+        <ul className="flex flex-wrap gap-2 text-sm" aria-label="Removals by reason">
+          {s.byReason.map((r) => (
+            <li
+              key={r.reason}
+              className={`rounded border px-2 py-1 ${r.kind === 'process' ? 'border-caution bg-caution-soft' : 'border-steel-300 bg-white'}`}
+              title={REMOVAL_KIND_LABELS[r.kind]}
+            >
+              {REMOVAL_REASON_LABELS[r.reason]}: <span className="font-bold tabular-nums">{r.count}</span>
+              {r.kind === 'process' ? ' (process fault)' : ''}
+            </li>
+          ))}
+        </ul>
+      ) : null}
       {total === 0 ? (
         <EmptyState title="No lives recorded for this part yet" />
       ) : (

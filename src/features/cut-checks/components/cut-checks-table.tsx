@@ -4,13 +4,11 @@ import { DataTable } from '../../../components/ui/data-table';
 import { Badge, EmptyState, Notice } from '../../../components/ui/notice';
 import type { CutCheckRow } from '../../../../shared/schemas/consumables';
 import { useCutChecks } from '../api/get-cut-checks';
-import { shopFormatter } from '../../../lib/format';
+import { ShopTime, useShopFormat, type ShopFormat } from '../../../lib/format';
 
 const col = createColumnHelper<CutCheckRow>();
-const when = shopFormatter({ dateStyle: 'medium', timeStyle: 'short' });
-const signed = new Intl.NumberFormat(undefined, { signDisplay: 'always', minimumFractionDigits: 2, maximumFractionDigits: 3 });
-const columns = [
-  col.accessor('checkedAt', { header: 'When', enableSorting: false, cell: (c) => when.format(new Date(c.getValue())) }),
+const columnsFor = (f: ShopFormat) => [
+  col.accessor('checkedAt', { header: 'When', enableSorting: false, cell: (c) => <ShopTime at={c.getValue()} /> }),
   col.accessor('torchCode', { header: 'Torch', enableSorting: false }),
   col.accessor('passed', {
     header: 'Result',
@@ -23,7 +21,7 @@ const columns = [
     cell: (c) =>
       c
         .getValue()
-        .map((d) => `${d.label} ${signed.format(d.deviationMm)} mm`)
+        .map((d) => `${d.label} ${f.number(d.deviationMm, { signed: true, min: 2, max: 3 })} mm`)
         .join(' · '),
   }),
   col.accessor('toleranceMm', { header: 'Tolerance', enableSorting: false, cell: (c) => `±${c.getValue()} mm` }),
@@ -40,6 +38,8 @@ const columns = [
 ];
 
 export function CutChecksTable({ machineId, pageSize = 10 }: { machineId: string; pageSize?: number }) {
+  const f = useShopFormat();
+  const columns = columnsFor(f);
   const [page, setPage] = useState(1);
   const q = useCutChecks({ machineId, page, pageSize });
   if (q.isError) return <Notice tone="danger">{q.error.message}</Notice>;

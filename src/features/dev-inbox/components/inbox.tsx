@@ -1,16 +1,17 @@
 import { useState } from 'react';
 import { EmptyState, Notice } from '../../../components/ui/notice';
 import { useInbox, type CapturedMail } from '../api/get-inbox';
-import { formatWhen } from '../../../lib/format';
+import { useShopFormat } from '../../../lib/format';
 
 /** Mail captured by the local fake SMTP server. Plain text is shown: links stay clickable. */
-function MailBody({ mail, timeZone }: { mail: CapturedMail; timeZone: string }) {
+function MailBody({ mail }: { mail: CapturedMail }) {
+  const f = useShopFormat();
   const parts = mail.text.split(/(https?:\/\/\S+)/g);
   return (
     <article className="space-y-2">
       <h3 className="text-lg font-bold">{mail.subject}</h3>
       <p className="text-sm text-steel-600">
-        To {mail.to.join(', ')} · {formatWhen(mail.receivedAt, timeZone)}
+        To {mail.to.join(', ')} · {f.dateTime(mail.receivedAt)}
       </p>
       <pre className="whitespace-pre-wrap break-words rounded bg-steel-50 p-3 font-sans text-base">
         {parts.map((p, i) =>
@@ -27,7 +28,8 @@ function MailBody({ mail, timeZone }: { mail: CapturedMail; timeZone: string }) 
   );
 }
 
-export function Inbox({ timeZone }: { timeZone: string }) {
+export function Inbox() {
+  const f = useShopFormat();
   const q = useInbox();
   const [openId, setOpenId] = useState<number | null>(null);
   if (q.isError) return <Notice tone="danger">{q.error.message}</Notice>;
@@ -49,14 +51,14 @@ export function Inbox({ timeZone }: { timeZone: string }) {
             >
               <span className="block font-semibold">{m.subject}</span>
               <span className="block text-sm text-steel-600">
-                {m.to.join(', ')} · {formatWhen(m.receivedAt, timeZone)}
+                {m.to.join(', ')} · {f.dateTime(m.receivedAt)}
               </span>
             </button>
           </li>
         ))}
       </ul>
       <div className="rounded border border-steel-200 bg-white p-4">
-        <MailBody mail={open} timeZone={timeZone} />
+        <MailBody mail={open} />
       </div>
     </div>
   );

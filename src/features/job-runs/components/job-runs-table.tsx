@@ -7,6 +7,7 @@ import type { JobRunRow } from '../../../../shared/schemas/job-runs';
 import { useJobRuns } from '../api/get-job-runs';
 import { useRunPassNow } from '../api/run-pass-now';
 import { ApiError } from '../../../lib/api-client';
+import { useShopFormat } from '../../../lib/format';
 
 const col = createColumnHelper<JobRunRow>();
 
@@ -19,20 +20,20 @@ function took(ms: number | null): string {
 }
 
 /** Each pass of the scheduled job for this shop, newest first, with a button to run one now. */
-export function JobRuns({ timeZone }: { timeZone: string }) {
+export function JobRuns() {
+  const f = useShopFormat();
   const [page, setPage] = useState(1);
   const [sorting, setSorting] = useState<SortingState>([]);
   const [message, setMessage] = useState<{ tone: 'danger' | 'safe' | 'caution'; text: string } | null>(null);
   const pageSize = 25;
   const q = useJobRuns({ page, pageSize });
   const run = useRunPassNow();
-  const fmt = useMemo(() => new Intl.DateTimeFormat('en-GB', { timeZone, dateStyle: 'medium', timeStyle: 'medium' }), [timeZone]);
   const columns = useMemo(
     () => [
       col.accessor('startedAt', {
         header: 'Started',
         enableSorting: false,
-        cell: (c) => <span className="whitespace-nowrap">{fmt.format(new Date(c.getValue()))}</span>,
+        cell: (c) => <span className="whitespace-nowrap">{f.dateTime(c.getValue(), { seconds: true })}</span>,
       }),
       col.accessor((r) => (r.finishedAt ? new Date(r.finishedAt).getTime() - new Date(r.startedAt).getTime() : null), {
         id: 'took',
@@ -73,7 +74,7 @@ export function JobRuns({ timeZone }: { timeZone: string }) {
       col.accessor('escalations', { header: 'Past due reported', enableSorting: false }),
       col.accessor('mailsQueued', { header: 'Mails', enableSorting: false }),
     ],
-    [fmt],
+    [f],
   );
   const runNow = async () => {
     setMessage(null);

@@ -7,7 +7,7 @@ import type { ImportPreview, ImportResult } from '../../../../shared/schemas/cou
 import type { RowError } from '../../../../shared/domain/counter-import';
 import { COUNTER_IMPORT_MAX_BYTES } from '../../../../shared/schemas/counter-import';
 import { useImportCounterCsv, usePreviewCounterCsv, type UploadProgress } from '../api/upload-counter-csv';
-import { shopFormatter } from '../../../lib/format';
+import { ShopTime } from '../../../lib/format';
 
 const errCol = createColumnHelper<RowError>();
 const errorColumns = [
@@ -17,7 +17,6 @@ const errorColumns = [
 ];
 type Sample = ImportPreview['sample'][number];
 const sampleCol = createColumnHelper<Sample>();
-const when = shopFormatter({ dateStyle: 'medium', timeStyle: 'short' });
 const STATUS = {
   add: { tone: 'safe', label: 'Will be added' },
   duplicate: { tone: 'info', label: 'Already recorded' },
@@ -29,7 +28,7 @@ const sampleColumns = (blocked: boolean) => [
   sampleCol.accessor('line', { header: 'Line' }),
   sampleCol.accessor('machineCode', { header: 'Machine' }),
   sampleCol.accessor('meterCode', { header: 'Meter' }),
-  sampleCol.accessor('readAt', { header: 'Read at', cell: (c) => when.format(new Date(c.getValue())) }),
+  sampleCol.accessor('readAt', { header: 'Read at', cell: (c) => <ShopTime at={c.getValue()} /> }),
   sampleCol.accessor('value', { header: 'Value' }),
   sampleCol.accessor('reset', { header: 'Reset', cell: (c) => (c.getValue() ? 'yes' : 'no') }),
   sampleCol.accessor('status', {

@@ -5,14 +5,14 @@ import { Badge, EmptyState } from '../../../components/ui/notice';
 import type { MeterRow } from '../../../../shared/schemas/machines';
 import { paths } from '../../../config/paths';
 import { formatValue, limitState } from './format';
-import { shopFormatter } from '../../../lib/format';
+import { useShopFormat } from '../../../lib/format';
 
 const col = createColumnHelper<MeterRow>();
-const when = shopFormatter({ dateStyle: 'medium', timeStyle: 'short' });
 const KIND = { count: 'Count', 'running-time': 'Running time', condition: 'Condition' } as const;
 
 /** `compact` (the station page): meter name and unit only; codes and kinds are for the people who set meters up. */
 export function MetersTable({ meters, compact = false }: { meters: MeterRow[]; compact?: boolean }) {
+  const f = useShopFormat();
   const columns = [
     col.accessor('name', {
       header: 'Meter',
@@ -34,16 +34,16 @@ export function MetersTable({ meters, compact = false }: { meters: MeterRow[]; c
       cell: (c) => {
         const m = c.row.original;
         if (!m.latest) return <span className="text-steel-600">No reading yet</span>;
-        const state = limitState(m, m.latest.value);
+        const state = limitState(f, m, m.latest.value);
         return (
           <span className="inline-flex flex-wrap items-center gap-2">
-            <span className="font-semibold tabular-nums">{formatValue(m.latest.value, m.unit)}</span>
+            <span className="font-semibold tabular-nums">{formatValue(f, m.latest.value, m.unit)}</span>
             {state ? <Badge tone="danger">{state}</Badge> : null}
           </span>
         );
       },
     }),
-    col.accessor((m) => m.latest?.readAt ?? '', { id: 'readAt', header: 'Read', cell: (c) => (c.getValue() ? when.format(new Date(c.getValue())) : '—') }),
+    col.accessor((m) => m.latest?.readAt ?? '', { id: 'readAt', header: 'Read', cell: (c) => f.dateTime(c.getValue() || null) }),
   ];
   return <DataTable caption="Meters" columns={columns} data={meters} getRowId={(m) => m.id} empty={<EmptyState title="No meters on this machine yet" />} />;
 }

@@ -9,12 +9,14 @@ import { Notice } from '../../../components/ui/notice';
 import { applyServerErrors } from '../../../lib/form-errors';
 import { useAddReading } from '../api/add-reading';
 import { formatValue } from './format';
+import { useShopFormat } from '../../../lib/format';
 
 type In = z.input<typeof readingInputSchema>;
 type Out = z.output<typeof readingInputSchema>;
 
 /** Type in a reading. Counts and hours must not go backwards unless marked as a reset. */
 export function ReadingForm({ meter }: { meter: MeterRow }) {
+  const f = useShopFormat();
   const add = useAddReading();
   const [formError, setFormError] = useState<string | null>(null);
   const [saved, setSaved] = useState<string | null>(null);
@@ -28,7 +30,7 @@ export function ReadingForm({ meter }: { meter: MeterRow }) {
     setSaved(null);
     try {
       await add.mutateAsync({ meterId: meter.id, ...values });
-      setSaved(`Recorded ${formatValue(values.value, meter.unit)}.`);
+      setSaved(`Recorded ${formatValue(f, values.value, meter.unit)}.`);
       reset({ isReset: false, value: undefined, readAt: undefined, note: '' });
     } catch (err) {
       setFormError(applyServerErrors(err, setError, ['value', 'readAt', 'isReset', 'note']));
@@ -52,7 +54,7 @@ export function ReadingForm({ meter }: { meter: MeterRow }) {
         label={`Reading (${meter.unit})`}
         inputMode="decimal"
         autoComplete="off"
-        hint={meter.latest ? `Last: ${formatValue(meter.latest.value, meter.unit)}` : 'First reading of this meter'}
+        hint={meter.latest ? `Last: ${formatValue(f, meter.latest.value, meter.unit)}` : 'First reading of this meter'}
         error={formState.errors.value?.message}
         {...register('value')}
       />
@@ -61,7 +63,7 @@ export function ReadingForm({ meter }: { meter: MeterRow }) {
         type="datetime-local"
         hint="Leave empty for now"
         error={formState.errors.readAt?.message}
-        {...register('readAt', { setValueAs: (v: string) => (v ? new Date(v).toISOString() : undefined) })}
+        {...register('readAt', { setValueAs: (v: string) => f.fromLocalInput(v) ?? undefined })}
       />
       {cumulative ? (
         <label className="flex min-h-touch items-center gap-3 text-base">

@@ -5,25 +5,25 @@ import { Badge, EmptyState, Notice } from '../../../components/ui/notice';
 import type { MeterRow, ReadingRow } from '../../../../shared/schemas/machines';
 import { useReadings } from '../api/get-readings';
 import { formatValue } from './format';
-import { shopFormatter } from '../../../lib/format';
+import { useShopFormat } from '../../../lib/format';
 
 const col = createColumnHelper<ReadingRow>();
-const when = shopFormatter({ dateStyle: 'medium', timeStyle: 'short' });
 const SOURCE = { manual: 'Typed in', import: 'Imported', 'work-order': 'Work order', 'consumable-change': 'Consumable change' } as const;
 
 export function ReadingsTable({ meter }: { meter: MeterRow }) {
+  const f = useShopFormat();
   const [page, setPage] = useState(1);
   const [sorting, setSorting] = useState<SortingState>([{ id: 'readAt', desc: true }]);
   const pageSize = 25;
   const q = useReadings(meter.id, { page, pageSize, dir: sorting[0]?.desc === false ? 'asc' : 'desc' });
   const columns = [
-    col.accessor('readAt', { header: 'Read at', cell: (c) => when.format(new Date(c.getValue())) }),
+    col.accessor('readAt', { header: 'Read at', cell: (c) => f.dateTime(c.getValue()) }),
     col.accessor('value', {
       header: 'Value',
       enableSorting: false,
       cell: (c) => (
         <span className="inline-flex items-center gap-2">
-          <span className="tabular-nums">{formatValue(c.getValue(), meter.unit)}</span>
+          <span className="tabular-nums">{formatValue(f, c.getValue(), meter.unit)}</span>
           {c.row.original.isReset ? <Badge>Reset</Badge> : null}
         </span>
       ),

@@ -6,19 +6,20 @@ import { EmptyState } from '../../../components/ui/notice';
 import type { ListOilAnalysesQuery, OilAnalysisRow } from '../../../../shared/schemas/oil-analysis';
 import { useOilAnalyses } from '../api/get-oil-analyses';
 import { OilVerdict } from './oil-badges';
+import { useShopFormat } from '../../../lib/format';
 
 const col = createColumnHelper<OilAnalysisRow>();
 
-export function OilAnalysesTable({ machineId, timeZone }: { machineId?: string; timeZone: string }) {
+export function OilAnalysesTable({ machineId }: { machineId?: string }) {
+  const f = useShopFormat();
   const [page, setPage] = useState(1);
   const [sorting, setSorting] = useState<SortingState>([{ id: 'sampledAt', desc: true }]);
   const pageSize = 20;
   const sort = (sorting[0]?.id ?? 'sampledAt') as ListOilAnalysesQuery['sort'];
   const q = useOilAnalyses({ machineId, page, pageSize, sort, dir: sorting[0] && !sorting[0].desc ? 'asc' : 'desc' });
-  const fmt = useMemo(() => new Intl.DateTimeFormat('en-GB', { timeZone, dateStyle: 'medium' }), [timeZone]);
   const columns = useMemo(
     () => [
-      col.accessor('sampledAt', { header: 'Sampled', cell: (c) => fmt.format(new Date(c.getValue())) }),
+      col.accessor('sampledAt', { header: 'Sampled', cell: (c) => f.date(c.getValue()) }),
       col.accessor((r) => r.machine.code, { id: 'unit', header: 'Unit' }),
       col.accessor('isoCode', { header: 'ISO 4406', enableSorting: false, cell: (c) => <span className="font-bold">{c.getValue()}</span> }),
       col.accessor('targetCode', { header: 'Target', enableSorting: false, cell: (c) => c.getValue() ?? '—' }),
@@ -39,7 +40,7 @@ export function OilAnalysesTable({ machineId, timeZone }: { machineId?: string; 
           ),
       }),
     ],
-    [fmt],
+    [f],
   );
   return (
     <DataTable

@@ -1,5 +1,4 @@
 import { useState } from 'react';
-import { DateTime } from 'luxon';
 import { useForm } from 'react-hook-form';
 import { zodResolver } from '@hookform/resolvers/zod';
 import type { z } from 'zod';
@@ -11,6 +10,7 @@ import { Notice } from '../../../components/ui/notice';
 import { SelectField, TextField } from '../../../components/ui/field';
 import { applyServerErrors } from '../../../lib/form-errors';
 import { useRecordOilAnalysis } from '../api/record-oil-analysis';
+import { useShopFormat } from '../../../lib/format';
 
 type In = z.input<typeof oilAnalysisInput>;
 type Out = z.output<typeof oilAnalysisInput>;
@@ -18,11 +18,12 @@ const num = (x: unknown) => (x === '' || x === null || x === undefined ? undefin
 const numOrNull = (x: unknown) => (x === '' || x === null || x === undefined ? null : Number(String(x).replace(',', '.')));
 
 /** Enter a lab (or on-site counter) result; the ISO 4406 code is worked out as you type. */
-export function OilAnalysisForm({ units, defaultMachineId, timeZone }: { units: HydraulicUnitView[]; defaultMachineId?: string; timeZone: string }) {
+export function OilAnalysisForm({ units, defaultMachineId }: { units: HydraulicUnitView[]; defaultMachineId?: string }) {
+  const f = useShopFormat();
   const record = useRecordOilAnalysis();
   const [formError, setFormError] = useState<string | null>(null);
   const [saved, setSaved] = useState<OilAnalysisRow | null>(null);
-  const [sampled, setSampled] = useState(() => DateTime.now().setZone(timeZone).toFormat("yyyy-MM-dd'T'HH:mm"));
+  const [sampled, setSampled] = useState(() => f.toLocalInput(new Date().toISOString()));
   const { register, handleSubmit, setError, formState, watch, reset } = useForm<In, unknown, Out>({
     resolver: zodResolver(oilAnalysisInput),
     defaultValues: {
@@ -46,7 +47,7 @@ export function OilAnalysisForm({ units, defaultMachineId, timeZone }: { units: 
     setSaved(null);
     try {
       // Read in the site's zone, whatever the browser's zone.
-      const r = await record.mutateAsync({ ...v, sampledAt: DateTime.fromISO(sampled, { zone: timeZone }).toUTC().toISO()! });
+      const r = await record.mutateAsync({ ...v, sampledAt: f.fromLocalInput(sampled)! });
       setSaved(r);
       reset({ machineId: v.machineId, sampledAt: new Date().toISOString(), viscosity40: null, waterPpm: null, temperatureC: null });
     } catch (err) {

@@ -1,10 +1,11 @@
 import { isoViscosityGradeLimits } from '../../../../shared/domain/viscosity';
 import type { OilAnalysisRow, OilTarget } from '../../../../shared/schemas/oil-analysis';
 import { Notice } from '../../../components/ui/notice';
+import { useShopFormat } from '../../../lib/format';
 
 /** Every figure of the latest sample beside its limit, so the technician reads one card, not the table. */
-export function OilLatest({ row, target, timeZone }: { row: OilAnalysisRow; target: OilTarget | null; timeZone: string }) {
-  const fmt = new Intl.DateTimeFormat('en-GB', { timeZone, dateStyle: 'medium' });
+export function OilLatest({ row, target }: { row: OilAnalysisRow; target: OilTarget | null }) {
+  const f = useShopFormat();
   const band = target ? isoViscosityGradeLimits(target.vgGrade) : null;
   const flagged = new Set(row.findings.filter((f) => f.severity === 'danger').map((f) => f.field));
   const facts: { key: OilAnalysisRow['findings'][number]['field']; label: string; value: string; limit: string }[] = [
@@ -31,7 +32,7 @@ export function OilLatest({ row, target, timeZone }: { row: OilAnalysisRow; targ
   return (
     <div className="space-y-3">
       <p className="text-sm text-steel-600">
-        Sampled {fmt.format(new Date(row.sampledAt))}
+        Sampled {f.date(row.sampledAt)}
         {row.labReference ? ` · lab reference ${row.labReference}` : ''}
       </p>
       <dl className="grid gap-3 sm:grid-cols-2 lg:grid-cols-4">

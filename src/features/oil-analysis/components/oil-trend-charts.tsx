@@ -2,6 +2,7 @@ import { CartesianGrid, Legend, Line, LineChart, ReferenceArea, ReferenceLine, R
 import { parseIso4406Code } from '../../../../shared/domain/cleanliness';
 import { isoViscosityGradeLimits } from '../../../../shared/domain/viscosity';
 import type { OilAnalysisRow, OilTarget } from '../../../../shared/schemas/oil-analysis';
+import { useShopFormat } from '../../../lib/format';
 
 const scale = (code: string, i: 0 | 1 | 2) => {
   try {
@@ -13,10 +14,10 @@ const scale = (code: string, i: 0 | 1 | 2) => {
 };
 
 /** Cleanliness scale numbers and viscosity over time, against the unit's targets. */
-export function OilTrendCharts({ rows, target, timeZone }: { rows: OilAnalysisRow[]; target: OilTarget | null; timeZone: string }) {
-  const fmt = new Intl.DateTimeFormat('en-GB', { timeZone, day: 'numeric', month: 'short', year: '2-digit' });
+export function OilTrendCharts({ rows, target }: { rows: OilAnalysisRow[]; target: OilTarget | null }) {
+  const f = useShopFormat();
   const data = [...rows].reverse().map((r) => ({
-    at: fmt.format(new Date(r.sampledAt)),
+    at: f.date(r.sampledAt),
     r4: scale(r.isoCode, 0),
     r6: scale(r.isoCode, 1),
     r14: scale(r.isoCode, 2),

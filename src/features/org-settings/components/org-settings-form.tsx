@@ -6,7 +6,8 @@ import { TextField } from '../../../components/ui/field';
 import { Button } from '../../../components/ui/button';
 import { Notice } from '../../../components/ui/notice';
 import { applyServerErrors } from '../../../lib/form-errors';
-import { formatWhen } from '../../../lib/format';
+import { useShopFormat } from '../../../lib/format';
+import { formatDateTime, isTimeZone } from '../../../../shared/locale';
 import { useUpdateOrganization, type OrganizationSettings } from '../api/organization';
 
 const zones = typeof Intl.supportedValuesOf === 'function' ? Intl.supportedValuesOf('timeZone') : [];
@@ -19,12 +20,8 @@ export function OrgSettingsForm({ org }: { org: OrganizationSettings }) {
     defaultValues: { name: org.name, timeZone: org.timeZone },
   });
   const zone = watch('timeZone');
-  let preview = '';
-  try {
-    preview = formatWhen(new Date(), zone);
-  } catch {
-    preview = '';
-  }
+  const { locale } = useShopFormat();
+  const preview = isTimeZone(zone) ? formatDateTime(new Date(), { timeZone: zone, locale }) : '';
   const onSubmit = handleSubmit(async (values) => {
     setMessage(null);
     try {

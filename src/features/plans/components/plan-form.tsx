@@ -12,7 +12,8 @@ import { Notice } from '../../../components/ui/notice';
 import { SelectField, TextField } from '../../../components/ui/field';
 import { applyServerErrors } from '../../../lib/form-errors';
 import { inputClass } from './format';
-import { shopToday } from '../../../lib/format';
+import { todayIn } from '../../../../shared/locale';
+import { useShopFormat } from '../../../lib/format';
 
 type In = z.input<typeof planInput>;
 type Out = z.output<typeof planInput>;
@@ -26,10 +27,10 @@ const RULE_PRESETS = [
   { label: 'Every 3 months on the 1st', rrule: 'FREQ=MONTHLY;INTERVAL=3;BYMONTHDAY=1' },
 ];
 
-const blank = (kind: TriggerInput['kind']): TriggerInput => {
+const blank = (kind: TriggerInput['kind'], timeZone: string): TriggerInput => {
   switch (kind) {
     case 'calendar-fixed':
-      return { kind, start: `${shopToday()}T07:00`, rrule: 'FREQ=WEEKLY;BYDAY=MO' };
+      return { kind, start: `${todayIn(timeZone)}T07:00`, rrule: 'FREQ=WEEKLY;BYDAY=MO' };
     case 'calendar-floating':
       return { kind, every: 1, unit: 'month' };
     case 'meter':
@@ -76,24 +77,16 @@ export function toFormValues(p: PlanDetail): In {
 
 /** Next few occurrences of a fixed calendar trigger, computed in the browser with the same domain code as the server. */
 function RulePreview({ start, rrule, timeZone }: { start: string; rrule: string; timeZone: string }) {
+  const f = useShopFormat();
   const preview = useMemo(() => {
     try {
       const ical = buildRecurrenceText({ start, tzid: timeZone, rrule });
       const next = expandRecurrence(ical, { after: new Date(), limit: 3 });
-      const fmt = new Intl.DateTimeFormat('en-GB', {
-        timeZone,
-        weekday: 'short',
-        day: 'numeric',
-        month: 'short',
-        year: 'numeric',
-        hour: '2-digit',
-        minute: '2-digit',
-      });
-      return { ok: true as const, text: next.length ? next.map((d) => fmt.format(d)).join(' · ') : 'No more occurrences' };
+      return { ok: true as const, text: next.length ? next.map((d) => f.dateTime(d, { weekday: true })).join(' · ') : 'No more occurrences' };
     } catch (err) {
       return { ok: false as const, text: (err instanceof Error ? err.message : String(err)).replace(/^recurrence: /, '') };
     }
-  }, [start, rrule, timeZone]);
+  }, [start, rrule, timeZone, f]);
   return (
     <p className={`text-sm ${preview.ok ? 'text-steel-700' : 'font-semibold text-danger'}`} aria-live="polite">
       {preview.ok ? `Next: ${preview.text}` : `Check the rule: ${preview.text}`}
@@ -288,7 +281,7 @@ export function PlanForm({
       dueSoonDays: 3,
       dueSoonFraction: 0.1,
       active: true,
-      triggers: [blank('calendar-floating')],
+      triggers: [blank('calendar-floating', lookups.timeZone)],
     },
   });
   const triggers = useFieldArray({ control, name: 'triggers' });
@@ -416,13 +409,13 @@ export function PlanForm({
                 errors={errs}
                 meters={meters}
                 timeZone={lookups.timeZone}
-                onKind={(k) => triggers.update(i, blank(k))}
+                onKind={(k) => triggers.update(i, blank(k, lookups.timeZone))}
               />
             </li>
           ))}
         </ol>
         {triggers.fields.length < 6 ? (
-          <Button variant="secondary" onClick={() => triggers.append(blank('calendar-floating'))}>
+          <Button variant="secondary" onClick={() => triggers.append(blank('calendar-floating', lookups.timeZone))}>
             Add a trigger
           </Button>
         ) : null}

@@ -4,22 +4,20 @@ import { WorkCaution } from '../../../components/ui/caution';
 import { ROLE_LABELS } from '../../../../shared/permissions';
 import { DUE_STATE_LABELS, TRIGGER_KIND_LABELS, type PlanDetail } from '../../../../shared/schemas/plans';
 import { PlanDueBadge } from './plan-badges';
-import { formatWhen, relative } from './format';
-
-const num = new Intl.NumberFormat('en-US', { maximumFractionDigits: 1 });
+import { useShopFormat, type ShopFormat } from '../../../lib/format';
 
 /** "Run hours: 12,009.8 h now, due at 11,986.4 h (23.4 h past)": the reading, the mark and the gap in words. */
-function meterLine(name: string, unit: string, current: number | null, due: number): string {
+function meterLine(f: ShopFormat, name: string, unit: string, current: number | null, due: number): string {
   const u = unit ? ` ${unit}` : '';
-  if (current === null) return `${name}: no reading yet, due at ${num.format(due)}${u}`;
+  if (current === null) return `${name}: no reading yet, due at ${f.number(due)}${u}`;
   const gap = due - current;
-  const tail = gap > 0 ? `${num.format(gap)}${u} to go` : gap === 0 ? 'at the mark' : `${num.format(-gap)}${u} past`;
-  return `${name}: ${num.format(current)}${u} now, due at ${num.format(due)}${u} (${tail})`;
+  const tail = gap > 0 ? `${f.number(gap)}${u} to go` : gap === 0 ? 'at the mark' : `${f.number(-gap)}${u} past`;
+  return `${name}: ${f.number(current)}${u} now, due at ${f.number(due)}${u} (${tail})`;
 }
 
 /** A plan's state at a glance: status and why, each trigger's own view, meters against their marks. */
 export function PlanView({ plan }: { plan: PlanDetail }) {
-  const tz = plan.timeZone;
+  const f = useShopFormat();
   const meterName = (id: string) => plan.triggers.find((t) => 'meterId' in t && t.meterId === id)?.meter;
   return (
     <div className="grid gap-4 lg:grid-cols-[3fr_2fr]">
@@ -34,10 +32,10 @@ export function PlanView({ plan }: { plan: PlanDetail }) {
           <dl className="grid grid-cols-[auto_1fr] gap-x-4 gap-y-1">
             <dt className="font-semibold">Next due</dt>
             <dd>
-              {formatWhen(plan.nextDueAt, tz)} {plan.nextDueAt ? <span className="text-steel-600">({relative(plan.nextDueAt)})</span> : null}
+              {f.dateTime(plan.nextDueAt)} {plan.nextDueAt ? <span className="text-steel-600">({f.relative(plan.nextDueAt)})</span> : null}
             </dd>
             <dt className="font-semibold">Last done</dt>
-            <dd>{plan.lastDoneAt ? formatWhen(plan.lastDoneAt, tz) : 'Not yet'}</dd>
+            <dd>{plan.lastDoneAt ? f.dateTime(plan.lastDoneAt) : 'Not yet'}</dd>
             <dt className="font-semibold">For (role or person)</dt>
             <dd>{plan.responsibleUser?.name ?? (plan.responsibleRole ? `Any ${ROLE_LABELS[plan.responsibleRole].toLowerCase()}` : '—')}</dd>
           </dl>
@@ -70,7 +68,7 @@ export function PlanView({ plan }: { plan: PlanDetail }) {
                       {t.summary}
                     </td>
                     <td className="pr-2">{ev ? <span title={ev.reason}>{DUE_STATE_LABELS[ev.status]}</span> : '—'}</td>
-                    <td>{ev ? formatWhen(ev.dueAt, tz) : '—'}</td>
+                    <td>{ev ? f.dateTime(ev.dueAt) : '—'}</td>
                   </tr>
                 );
               })}
@@ -81,11 +79,11 @@ export function PlanView({ plan }: { plan: PlanDetail }) {
             const pct = m.current === null ? 0 : Math.min(100, Math.max(0, (m.current / m.dueValue) * 100));
             return (
               <div key={m.meterId}>
-                <p className="text-sm font-semibold">{meterLine(meter?.name ?? 'Meter', meter?.unit ?? '', m.current, m.dueValue)}</p>
+                <p className="text-sm font-semibold">{meterLine(f, meter?.name ?? 'Meter', meter?.unit ?? '', m.current, m.dueValue)}</p>
                 <div className="h-3 w-full rounded bg-steel-200" role="img" aria-label={`${meter?.name ?? 'Meter'} at ${Math.round(pct)} % of the next mark`}>
                   <div className={`h-3 rounded ${pct >= 100 ? 'bg-danger' : pct >= 90 ? 'bg-caution' : 'bg-steel-500'}`} style={{ width: `${pct}%` }} />
                 </div>
-                {m.forecastAt ? <p className="text-xs text-steel-600">Forecast from the recent usage rate: {formatWhen(m.forecastAt, tz)}</p> : null}
+                {m.forecastAt ? <p className="text-xs text-steel-600">Forecast from the recent usage rate: {f.dateTime(m.forecastAt)}</p> : null}
               </div>
             );
           })}

@@ -7,12 +7,13 @@ import { DUE_STATES, DUE_STATE_LABELS, type DueState, type ListPlansQuery, type 
 import { usePlans } from '../api/get-plans';
 import { useLookups } from '../../../lib/lookups';
 import { PlanDueBadge } from './plan-badges';
-import { formatWhen, relative } from './format';
+import { useShopFormat } from '../../../lib/format';
 
 const col = createColumnHelper<PlanRow>();
 const filterClass = 'min-h-touch rounded border border-steel-400 bg-white px-3 font-normal';
 
-export function PlansTable({ timeZone, machineId: fixedMachine }: { timeZone: string; machineId?: string }) {
+export function PlansTable({ machineId: fixedMachine }: { machineId?: string }) {
+  const f = useShopFormat();
   const lookups = useLookups();
   const [page, setPage] = useState(1);
   const [sorting, setSorting] = useState<SortingState>([{ id: 'nextDueAt', desc: false }]);
@@ -58,15 +59,15 @@ export function PlansTable({ timeZone, machineId: fixedMachine }: { timeZone: st
         header: 'Next due',
         cell: (c) => (
           <div className="whitespace-nowrap">
-            <div>{formatWhen(c.getValue(), timeZone)}</div>
-            <div className="text-xs text-steel-600">{relative(c.getValue())}</div>
+            <div>{f.dateTime(c.getValue())}</div>
+            <div className="text-xs text-steel-600">{f.relative(c.getValue())}</div>
           </div>
         ),
       }),
-      col.accessor('lastDoneAt', { id: 'lastDoneAt', header: 'Last done', enableSorting: false, cell: (c) => formatWhen(c.getValue(), timeZone, false) }),
+      col.accessor('lastDoneAt', { id: 'lastDoneAt', header: 'Last done', enableSorting: false, cell: (c) => f.date(c.getValue()) }),
       col.accessor('responsible', { id: 'responsible', header: 'For (role or person)', enableSorting: false }),
     ],
-    [timeZone],
+    [f],
   );
   return (
     <div className="space-y-3">

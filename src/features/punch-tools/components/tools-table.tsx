@@ -8,14 +8,13 @@ import { WorkCaution } from '../../../components/ui/caution';
 import type { PunchToolRow } from '../../../../shared/schemas/punch-tools';
 import { usePunchTools } from '../api/get-punch-tools';
 import { useRecordSharpening } from '../api/record-sharpening';
-import { shopFormatter } from '../../../lib/format';
+import { useShopFormat } from '../../../lib/format';
 
 const col = createColumnHelper<PunchToolRow>();
-const int = new Intl.NumberFormat(undefined, { maximumFractionDigits: 0 });
-const when = shopFormatter({ dateStyle: 'medium' });
 
 /** Punch tools with hits since their last sharpening; reaching the interval raises a caution badge. */
 export function ToolsTable({ machineId, canManage }: { machineId?: string; canManage: boolean }) {
+  const f = useShopFormat();
   const q = usePunchTools(machineId);
   const sharpen = useRecordSharpening();
   const [pending, setPending] = useState<PunchToolRow | null>(null);
@@ -36,7 +35,7 @@ export function ToolsTable({ machineId, canManage }: { machineId?: string; canMa
               <div className={`h-full ${r.due ? 'bg-caution' : 'bg-steel-600'}`} style={{ width: `${pct}%` }} />
             </div>
             <span className="tabular-nums">
-              {r.hitsSince === null ? 'no hits counted yet' : `${int.format(r.hitsSince)} of ${int.format(r.sharpeningIntervalHits)} hits`}
+              {r.hitsSince === null ? 'no hits counted yet' : `${f.number(r.hitsSince, { max: 0 })} of ${f.number(r.sharpeningIntervalHits, { max: 0 })} hits`}
             </span>
           </div>
         );
@@ -46,7 +45,7 @@ export function ToolsTable({ machineId, canManage }: { machineId?: string; canMa
       header: 'State',
       cell: (c) => (c.getValue() ? <Badge tone="caution">Sharpening due</Badge> : <span className="text-steel-700">Within interval</span>),
     }),
-    col.accessor('lastSharpenedAt', { header: 'Last sharpened', cell: (c) => (c.getValue() ? when.format(new Date(c.getValue()!)) : 'not yet') }),
+    col.accessor('lastSharpenedAt', { header: 'Last sharpened', cell: (c) => (c.getValue() ? f.date(c.getValue()) : 'not yet') }),
     col.accessor('sharpenings', { header: 'Sharpenings' }),
     ...(canManage
       ? [
@@ -88,7 +87,7 @@ export function ToolsTable({ machineId, canManage }: { machineId?: string; canMa
           if (!pending) return;
           try {
             const res = await sharpen.mutateAsync({ toolId: pending.id, removedMm: removed === '' ? null : Number(removed) });
-            setMessage({ tone: 'safe', text: `${pending.code} sharpened after ${int.format(res.hitsSincePrevious)} hits; the count starts again.` });
+            setMessage({ tone: 'safe', text: `${pending.code} sharpened after ${f.number(res.hitsSincePrevious, { max: 0 })} hits; the count starts again.` });
           } catch (err) {
             setMessage({ tone: 'danger', text: err instanceof Error ? err.message : 'Could not record the sharpening' });
           }

@@ -13,7 +13,7 @@ import { useEndFireWatch } from '../api/end-fire-watch';
 import { useSafetyMachines } from '../api/get-safety-machines';
 import { useSafetySettings } from '../api/get-safety-settings';
 import { useSignFlow } from './sign-dialog';
-import { fmtDateTime, fmtTime } from './format';
+import { useShopFormat } from '../../../lib/format';
 
 function useNow(ms = 1000) {
   const [now, setNow] = useState(() => Date.now());
@@ -24,7 +24,8 @@ function useNow(ms = 1000) {
   return now;
 }
 
-function Countdown({ w, me, timeZone, onEnd }: { w: FireWatchRow; me: { id: string }; timeZone: string; onEnd: () => void }) {
+function Countdown({ w, me, onEnd }: { w: FireWatchRow; me: { id: string }; onEnd: () => void }) {
+  const f = useShopFormat();
   const now = useNow();
   const left = new Date(w.until).getTime() - now;
   const mins = Math.floor(Math.max(left, 0) / 60_000);
@@ -41,8 +42,8 @@ function Countdown({ w, me, timeZone, onEnd }: { w: FireWatchRow; me: { id: stri
         {left > 0 ? `${String(mins).padStart(2, '0')}:${String(secs).padStart(2, '0')}` : 'Time is up'}
       </p>
       <p>
-        {left > 0 ? `Keep watching until ${fmtTime(w.until, timeZone)}.` : 'The minimum watch is over: check the area once more, then sign.'} Cutting ended{' '}
-        {fmtTime(w.cuttingEndedAt, timeZone)}. Rule: {w.ruleLabel} ({w.ruleSource}).
+        {left > 0 ? `Keep watching until ${f.time(w.until)}.` : 'The minimum watch is over: check the area once more, then sign.'} Cutting ended{' '}
+        {f.time(w.cuttingEndedAt)}. Rule: {w.ruleLabel} ({w.ruleSource}).
       </p>
       {w.area ? <p className="text-sm">Area: {w.area}</p> : null}
       {w.followUp ? <p className="text-sm text-steel-700">Afterwards: {w.followUp}</p> : null}
@@ -56,7 +57,8 @@ function Countdown({ w, me, timeZone, onEnd }: { w: FireWatchRow; me: { id: stri
 }
 
 /** Fire watch after plasma cutting: the end time follows the rule the site chose in settings. */
-export function HotWork({ me, timeZone }: { me: { id: string; name: string; role: Role }; timeZone: string }) {
+export function HotWork({ me }: { me: { id: string; name: string; role: Role } }) {
+  const f = useShopFormat();
   const watches = useFireWatches();
   const machines = useSafetyMachines();
   const settings = useSafetySettings();
@@ -104,7 +106,7 @@ export function HotWork({ me, timeZone }: { me: { id: string; name: string; role
                   'fire-watch-started',
                   async (password) => {
                     const w = await start.mutateAsync({ machineId, area: area || undefined, password });
-                    setMessage({ tone: 'safe', text: `Fire watch started: stay until ${fmtTime(w.until, timeZone)}.` });
+                    setMessage({ tone: 'safe', text: `Fire watch started: stay until ${f.time(w.until)}.` });
                   },
                   { onError: fail },
                 )
@@ -123,7 +125,6 @@ export function HotWork({ me, timeZone }: { me: { id: string; name: string; role
                 key={w.id}
                 w={w}
                 me={me}
-                timeZone={timeZone}
                 onEnd={() =>
                   sign(
                     'fire-watch-ended',
@@ -146,8 +147,7 @@ export function HotWork({ me, timeZone }: { me: { id: string; name: string; role
           <ul className="space-y-1">
             {ended.map((w) => (
               <li key={w.id}>
-                {w.machineCode}: {w.watcherName}, cutting ended {fmtDateTime(w.cuttingEndedAt, timeZone)}, watch ended {fmtDateTime(w.endedAt, timeZone)} (
-                {w.ruleLabel})
+                {w.machineCode}: {w.watcherName}, cutting ended {f.dateTime(w.cuttingEndedAt)}, watch ended {f.dateTime(w.endedAt)} ({w.ruleLabel})
               </li>
             ))}
           </ul>

@@ -23,7 +23,7 @@ import { useReleaseLockout } from '../api/release-lockout';
 import { useSignFlow } from './sign-dialog';
 import { useLinkedWorkOrder } from '../api/get-linked-work-order';
 import { LockoutStateBadge } from './badges';
-import { fmtDateTime } from './format';
+import { useShopFormat } from '../../../lib/format';
 
 const pointCol = createColumnHelper<LockPointRow>();
 type Me = { id: string; name: string; role: Role };
@@ -42,7 +42,8 @@ function Check({ label, checked, onChange, hint }: { label: ReactNode; checked: 
   );
 }
 
-export function LockoutDetailView({ lockout: l, me, timeZone }: { lockout: LockoutDetail; me: Me; timeZone: string }) {
+export function LockoutDetailView({ lockout: l, me }: { lockout: LockoutDetail; me: Me }) {
+  const f = useShopFormat();
   const { sign, dialog } = useSignFlow({ name: me.name, role: me.role });
   const [message, setMessage] = useState<{ tone: 'safe' | 'danger'; text: string } | null>(null);
   const messageRef = useRef<HTMLDivElement>(null);
@@ -98,7 +99,7 @@ export function LockoutDetailView({ lockout: l, me, timeZone }: { lockout: Locko
           <Link className="font-semibold underline" to={paths.safetyProcedure.getHref(l.procedureId, l.procedureVersion)}>
             version {l.procedureVersion}
           </Link>{' '}
-          · held by <strong>{l.primaryName}</strong> · applied {fmtDateTime(l.appliedAt, timeZone)}
+          · held by <strong>{l.primaryName}</strong> · applied {f.dateTime(l.appliedAt)}
           {l.group ? ' · group lockout' : ''}
           {l.workOrderId ? (
             <>
@@ -114,7 +115,7 @@ export function LockoutDetailView({ lockout: l, me, timeZone }: { lockout: Locko
       {open ? (
         l.state === 'verified' ? (
           <Notice tone="danger" title="Locked out: do not operate" role="status">
-            Zero energy was verified {fmtDateTime(l.verifiedAt, timeZone)}. Work may go ahead under these locks.
+            Zero energy was verified {f.dateTime(l.verifiedAt)}. Work may go ahead under these locks.
           </Notice>
         ) : (
           <Notice tone="caution" title="Locks on, isolation not yet verified" role="status">
@@ -123,7 +124,7 @@ export function LockoutDetailView({ lockout: l, me, timeZone }: { lockout: Locko
         )
       ) : (
         <Notice tone="safe" title="Released" role="status">
-          All devices were removed {fmtDateTime(l.releasedAt, timeZone)}. The machine may be run again.
+          All devices were removed {f.dateTime(l.releasedAt)}. The machine may be run again.
         </Notice>
       )}
       {open ? <WorkCaution /> : null}
@@ -148,7 +149,7 @@ export function LockoutDetailView({ lockout: l, me, timeZone }: { lockout: Locko
             pointCol.accessor('holderName', { header: 'Applied by' }),
             pointCol.accessor('removedAt', {
               header: 'Status',
-              cell: (c) => (c.getValue() ? `Removed ${fmtDateTime(c.getValue(), timeZone)} by ${c.row.original.removedByName}` : 'On'),
+              cell: (c) => (c.getValue() ? `Removed ${f.dateTime(c.getValue())} by ${c.row.original.removedByName}` : 'On'),
             }),
           ]}
         />
@@ -196,8 +197,8 @@ export function LockoutDetailView({ lockout: l, me, timeZone }: { lockout: Locko
             <ul className="mb-3 space-y-1">
               {l.members.map((m) => (
                 <li key={m.id} className="flex flex-wrap gap-2">
-                  <strong>{m.name}</strong> lock {m.lockNumber} · on {fmtDateTime(m.joinedAt, timeZone)}
-                  {m.leftAt ? ` · off ${fmtDateTime(m.leftAt, timeZone)}` : ' · still on'}
+                  <strong>{m.name}</strong> lock {m.lockNumber} · on {f.dateTime(m.joinedAt)}
+                  {m.leftAt ? ` · off ${f.dateTime(m.leftAt)}` : ' · still on'}
                 </li>
               ))}
             </ul>
@@ -358,7 +359,7 @@ export function LockoutDetailView({ lockout: l, me, timeZone }: { lockout: Locko
           {l.signOffs.map((s) => (
             <li key={s.id} className="rounded border-l-4 border-steel-400 bg-steel-50 px-3 py-2">
               <p className="font-semibold">
-                #{s.seq} {MEANING_LABELS[s.meaning as SignMeaning] ?? s.meaning} — {s.signerName}, {fmtDateTime(s.signedAt, timeZone)}
+                #{s.seq} {MEANING_LABELS[s.meaning as SignMeaning] ?? s.meaning} — {s.signerName}, {f.dateTime(s.signedAt)}
               </p>
               <p className="text-sm text-steel-700">“{s.statement}”</p>
             </li>

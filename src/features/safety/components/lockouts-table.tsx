@@ -8,12 +8,13 @@ import { LOCKOUT_STATE_LABELS, LOCKOUT_STATES, type ListLockoutsQuery, type Lock
 import { useLockouts } from '../api/get-lockouts';
 import { useSafetyMachines } from '../api/get-safety-machines';
 import { LockoutStateBadge } from './badges';
-import { fmtDateTime } from './format';
+import { useShopFormat } from '../../../lib/format';
 
 const col = createColumnHelper<LockoutRow>();
 const filterClass = 'min-h-touch rounded border border-steel-400 bg-white px-3 font-normal';
 
-export function LockoutsTable({ timeZone }: { timeZone: string }) {
+export function LockoutsTable() {
+  const f = useShopFormat();
   const [page, setPage] = useState(1);
   const [state, setState] = useState<ListLockoutsQuery['state'] | ''>('');
   const [machineId, setMachineId] = useState('');
@@ -70,8 +71,8 @@ export function LockoutsTable({ timeZone }: { timeZone: string }) {
           col.accessor('reason', { header: 'Work', enableSorting: false }),
           col.accessor('primaryName', { header: 'Held by', enableSorting: false }),
           col.accessor('activeMembers', { header: 'Personal locks', enableSorting: false }),
-          col.accessor('appliedAt', { header: 'Applied', enableSorting: false, cell: (c) => fmtDateTime(c.getValue(), timeZone) }),
-          col.accessor('releasedAt', { header: 'Released', enableSorting: false, cell: (c) => fmtDateTime(c.getValue(), timeZone) }),
+          col.accessor('appliedAt', { header: 'Applied', enableSorting: false, cell: (c) => f.dateTime(c.getValue()) }),
+          col.accessor('releasedAt', { header: 'Released', enableSorting: false, cell: (c) => f.dateTime(c.getValue()) }),
         ]}
       />
     </div>

@@ -24,7 +24,8 @@ import { useSavePpeRequirement } from '../api/save-ppe-requirement';
 import { useRetirePpeRequirement } from '../api/retire-ppe-requirement';
 import { useSafetyMachines } from '../api/get-safety-machines';
 import { useSafetySettings } from '../api/get-safety-settings';
-import { fmtDateTime } from './format';
+import { NoiseVerdicts, PersonDailyDose } from './noise-verdicts';
+import { useShopFormat } from '../../../lib/format';
 
 type FormValues = {
   machineId: string;
@@ -33,6 +34,8 @@ type FormValues = {
   otherItems: string;
   arcCurrentA: string;
   noise: { levelDbA: string; hours: string }[];
+  peakDbC: string;
+  protectorNrr: string;
   cadence: PpeRequirementInput['cadence'];
 };
 
@@ -47,6 +50,8 @@ const toInput = (v: FormValues) => ({
     .filter(Boolean),
   arcCurrentA: v.arcCurrentA.trim() === '' ? null : num(v.arcCurrentA),
   noise: v.noise.map((n) => ({ levelDbA: num(n.levelDbA), hours: num(n.hours) })),
+  peakDbC: (v.peakDbC ?? '').trim() === '' ? null : num(v.peakDbC),
+  protectorNrr: (v.protectorNrr ?? '').trim() === '' ? null : num(v.protectorNrr),
   cadence: v.cadence,
 });
 
@@ -72,6 +77,8 @@ const blank: FormValues = {
   otherItems: '',
   arcCurrentA: '',
   noise: [],
+  peakDbC: '',
+  protectorNrr: '',
   cadence: 'shift',
 };
 const fromRow = (r: PpeRequirementRow): FormValues => ({
@@ -81,6 +88,8 @@ const fromRow = (r: PpeRequirementRow): FormValues => ({
   otherItems: r.otherItems.join(', '),
   arcCurrentA: r.arcCurrentA === null ? '' : String(r.arcCurrentA),
   noise: r.noise.map((n) => ({ levelDbA: String(n.levelDbA), hours: String(n.hours) })),
+  peakDbC: r.peakDbC === null ? '' : String(r.peakDbC),
+  protectorNrr: r.protectorNrr === null ? '' : String(r.protectorNrr),
   cadence: r.cadence,
 });
 
@@ -96,6 +105,7 @@ function RequirementForm({ editing, onDone }: { editing: PpeRequirementRow | nul
     if (!settings.data) return null;
     const input = toInput({ ...blank, ...live, noise: (live.noise ?? []) as FormValues['noise'], items: (live.items ?? []) as PpeItem[] } as FormValues);
     if (input.arcCurrentA !== null && !Number.isFinite(input.arcCurrentA)) return null;
+    if ((input.peakDbC !== null && !Number.isFinite(input.peakDbC)) || (input.protectorNrr !== null && !Number.isFinite(input.protectorNrr))) return null;
     const noise = input.noise.filter((n) => Number.isFinite(n.levelDbA) && Number.isFinite(n.hours));
     try {
       return deriveRequiredItems(
@@ -118,7 +128,9 @@ function RequirementForm({ editing, onDone }: { editing: PpeRequirementRow | nul
       reset(blank);
       onDone(editing ? `Requirement “${v.task}” updated.` : `Requirement “${v.task}” added.`);
     } catch (err) {
-      setFormError(applyServerErrors(err, setError, ['machineId', 'task', 'items', 'otherItems', 'arcCurrentA', 'noise', 'cadence']));
+      setFormError(
+        applyServerErrors(err, setError, ['machineId', 'task', 'items', 'otherItems', 'arcCurrentA', 'noise', 'peakDbC', 'protectorNrr', 'cadence']),
+      );
     }
   });
 
@@ -180,6 +192,22 @@ function RequirementForm({ editing, onDone }: { editing: PpeRequirementRow | nul
           <Button variant="secondary" onClick={() => append({ levelDbA: '', hours: '' })}>
             Add a noise period
           </Button>
+          <div className="grid gap-4 md:grid-cols-2">
+            <TextField
+              label="Impact peak (dB), empty if not measured"
+              hint="Highest peak at the task, e.g. punching (limit 140 dB, OSHA 29 CFR 1910.95(b)(2))"
+              inputMode="decimal"
+              error={e.peakDbC?.message}
+              {...register('peakDbC')}
+            />
+            <TextField
+              label="Issued protector's NRR (dB), empty if none"
+              hint="For the protected exposure (OSHA 29 CFR 1910.95 App. B)"
+              inputMode="decimal"
+              error={e.protectorNrr?.message}
+              {...register('protectorNrr')}
+            />
+          </div>
         </fieldset>
         <div className="flex gap-2">
           <Button type="submit" busy={formState.isSubmitting}>
@@ -202,11 +230,13 @@ function RequirementForm({ editing, onDone }: { editing: PpeRequirementRow | nul
             </ul>
             {preview.shade && !preview.shade.ok ? <Notice tone="danger">{preview.shade.message}</Notice> : null}
             {preview.hearing ? (
-              <p className="text-sm">
-                Dose {preview.hearing.dosePercent} %, TWA {preview.hearing.twaDbA ?? '—'} dBA:{' '}
-                {preview.hearing.required ? 'hearing protection required' : 'below the site threshold'} ({preview.hearing.requiredFromDbA} dBA,{' '}
-                {preview.hearing.ruleSource}).
-              </p>
+              <>
+                <NoiseVerdicts hearing={preview.hearing} />
+                <p className="text-sm">
+                  {preview.hearing.required ? 'Hearing protection required' : 'Below the site threshold'} (site threshold {preview.hearing.requiredFromDbA} dBA
+                  on the action-level basis, {preview.hearing.ruleSource}).
+                </p>
+              </>
             ) : null}
           </>
         ) : (
@@ -219,7 +249,8 @@ function RequirementForm({ editing, onDone }: { editing: PpeRequirementRow | nul
 
 const col = createColumnHelper<PpeRequirementRow>();
 
-export function PpeRequirements({ timeZone }: { timeZone: string }) {
+export function PpeRequirements() {
+  const f = useShopFormat();
   const q = usePpeRequirements();
   const retire = useRetirePpeRequirement();
   const [editing, setEditing] = useState<PpeRequirementRow | null>(null);
@@ -267,13 +298,23 @@ export function PpeRequirements({ timeZone }: { timeZone: string }) {
             }),
             col.accessor((r) => r.hearing?.twaDbA ?? null, {
               id: 'twa',
-              header: 'Noise TWA',
-              cell: (c) => (c.getValue() === null ? '—' : `${c.getValue()} dBA`),
+              header: 'Noise TWA (action level · PEL basis)',
+              cell: (c) => {
+                const h = c.row.original.hearing;
+                if (!h) return '—';
+                return (
+                  <span className="text-sm">
+                    {h.actionLevel.twaDbA ?? '—'} dBA {h.actionLevel.reached ? '(≥ action level)' : ''} · {h.pel.twaDbA ?? '—'} dBA{' '}
+                    {h.pel.reached ? '(over PEL)' : h.pel.twaDbA !== null && h.pel.twaDbA >= 90 ? '(at PEL)' : ''}
+                    {h.peak?.exceeded ? ' · peak over 140 dB' : ''}
+                  </span>
+                );
+              },
             }),
             col.accessor('cadence', { header: 'Check', cell: (c) => CADENCE_LABELS[c.getValue() as PpeRequirementRow['cadence']] }),
             col.accessor('lastCheckAt', {
               header: 'Last check',
-              cell: (c) => (c.getValue() ? `${fmtDateTime(c.getValue() as string, timeZone)} · ${c.row.original.lastCheckByName}` : 'Never'),
+              cell: (c) => (c.getValue() ? `${f.dateTime(c.getValue() as string)} · ${c.row.original.lastCheckByName}` : 'Never'),
             }),
             col.display({
               id: 'actions',
@@ -291,6 +332,9 @@ export function PpeRequirements({ timeZone }: { timeZone: string }) {
             }),
           ]}
         />
+      </Panel>
+      <Panel title="A person's daily noise dose across tasks">
+        <PersonDailyDose requirements={q.data ?? []} />
       </Panel>
       <ConfirmDialog
         open={retiring !== null}

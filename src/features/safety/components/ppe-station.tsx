@@ -8,12 +8,14 @@ import type { PpeRequirementRow } from '../../../../shared/schemas/safety-ppe';
 import { usePpeRequirements } from '../api/get-ppe-requirements';
 import { useRecordPpeCheck } from '../api/record-ppe-check';
 import { useSignFlow } from './sign-dialog';
-import { fmtDateTime, fmtTime } from './format';
+import { NoiseVerdicts } from './noise-verdicts';
+import { useShopFormat } from '../../../lib/format';
 
 const big = 'flex min-h-16 w-full items-center justify-between gap-3 rounded border-2 px-4 py-3 text-left text-lg font-semibold';
 
 /** The shift PPE check at the machine: pick the machine and task, tap each item once it is on, sign. */
-export function PpeStation({ me, timeZone, initialMachineId }: { me: { name: string; role: Role }; timeZone: string; initialMachineId?: string }) {
+export function PpeStation({ me, initialMachineId }: { me: { name: string; role: Role }; initialMachineId?: string }) {
+  const f = useShopFormat();
   const reqs = usePpeRequirements();
   const record = useRecordPpeCheck();
   const { sign, dialog } = useSignFlow(me);
@@ -177,14 +179,17 @@ export function PpeStation({ me, timeZone, initialMachineId }: { me: { name: str
             })}
           </ul>
           {req.hearing ? (
-            <p className="text-sm text-steel-700">
-              Noise at this task: 8-hour TWA {req.hearing.twaDbA ?? '—'} dBA (dose {req.hearing.dosePercent} %, OSHA 29 CFR 1910.95 App. A). Hearing protection
-              required from {req.hearing.requiredFromDbA} dBA — {req.hearing.ruleSource}.
-            </p>
+            <section aria-label="Noise at this task" className="space-y-1 text-steel-800">
+              <h3 className="text-sm font-semibold">Noise at this task (OSHA 29 CFR 1910.95 App. A)</h3>
+              <NoiseVerdicts hearing={req.hearing} />
+              <p className="text-sm text-steel-700">
+                Hearing protection required from {req.hearing.requiredFromDbA} dBA — {req.hearing.ruleSource}.
+              </p>
+            </section>
           ) : null}
           {req.lastCheckAt ? (
             <p className="text-sm text-steel-700">
-              Last check on this task: {req.lastCheckByName}, {fmtDateTime(req.lastCheckAt, timeZone)}.
+              Last check on this task: {req.lastCheckByName}, {f.dateTime(req.lastCheckAt)}.
             </p>
           ) : null}
           <div ref={signStep} className="space-y-3">
@@ -215,7 +220,7 @@ export function PpeStation({ me, timeZone, initialMachineId }: { me: { name: str
                       machine: machine!.code,
                       task: req.task,
                       by: me.name,
-                      at: fmtTime(new Date().toISOString(), timeZone),
+                      at: f.time(new Date().toISOString()),
                       items: req.required.filter((i) => on.includes(i.code)).map((i) => i.label),
                     });
                     setOn([]);

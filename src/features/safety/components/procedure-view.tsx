@@ -12,7 +12,7 @@ import { useApproveVersion } from '../api/approve-version';
 import { useUploadPhoto } from '../api/upload-photo';
 import { useDeletePhoto } from '../api/delete-photo';
 import { useSignFlow } from './sign-dialog';
-import { fmtDateTime } from './format';
+import { useShopFormat } from '../../../lib/format';
 import { PHOTO_TYPES, PROCEDURE_PHOTO_MAX_BYTES, megabytes } from '../../../../shared/schemas/photos';
 
 const statusTone = { draft: 'caution', approved: 'safe', superseded: 'info' } as const;
@@ -103,17 +103,8 @@ export function VersionText({ procedureId, v }: { procedureId: string; v: Versio
   );
 }
 
-export function ProcedureView({
-  p,
-  me,
-  timeZone,
-  viewingVersion,
-}: {
-  p: ProcedureDetail;
-  me: { name: string; role: Role };
-  timeZone: string;
-  viewingVersion?: number;
-}) {
+export function ProcedureView({ p, me, viewingVersion }: { p: ProcedureDetail; me: { name: string; role: Role }; viewingVersion?: number }) {
+  const f = useShopFormat();
   const manage = can(me.role, 'safety.procedures.manage');
   const approve = useApproveVersion();
   const upload = useUploadPhoto();
@@ -169,7 +160,7 @@ export function ProcedureView({
           title={`Version ${shown.version} — ${shown.content.title}`}
           actions={
             <span className="text-sm text-steel-700">
-              {shown.approvedAt ? `Approved ${fmtDateTime(shown.approvedAt, timeZone)} by ${shown.approvedByName}` : `Draft by ${shown.authorName}`}
+              {shown.approvedAt ? `Approved ${f.dateTime(shown.approvedAt)} by ${shown.approvedByName}` : `Draft by ${shown.authorName}`}
             </span>
           }
         >
@@ -196,7 +187,7 @@ export function ProcedureView({
           }
         >
           <p className="mb-3 text-sm text-steel-700">
-            Saved by {draft.authorName}, {fmtDateTime(draft.createdAt, timeZone)}. A draft is not in force until it is approved.
+            Saved by {draft.authorName}, {f.dateTime(draft.createdAt)}. A draft is not in force until it is approved.
           </p>
           <details className="mb-4">
             <summary className="flex min-h-touch cursor-pointer items-center font-semibold">Read the draft text</summary>

@@ -5,11 +5,12 @@ import { Badge, EmptyState, Notice } from '../../../components/ui/notice';
 import { paths } from '../../../config/paths';
 import type { ProcedureSummary } from '../../../../shared/schemas/safety-procedures';
 import { useProcedures } from '../api/get-procedures';
-import { fmtDate } from './format';
+import { useShopFormat } from '../../../lib/format';
 
 const col = createColumnHelper<ProcedureSummary>();
 
-export function ProceduresTable({ timeZone }: { timeZone: string }) {
+export function ProceduresTable() {
+  const f = useShopFormat();
   const q = useProcedures();
   const now = Date.now();
   return (
@@ -36,7 +37,7 @@ export function ProceduresTable({ timeZone }: { timeZone: string }) {
             cell: (c) => (c.getValue() ? <Badge tone="safe">{`v${c.getValue()}`}</Badge> : <Badge tone="caution">Not approved</Badge>),
           }),
           col.accessor('draftVersion', { header: 'Draft', cell: (c) => (c.getValue() ? `v${c.getValue()} waiting` : '—') }),
-          col.accessor('lastInspectionAt', { header: 'Last inspection', cell: (c) => fmtDate(c.getValue() as string | null) }),
+          col.accessor('lastInspectionAt', { header: 'Last inspection', cell: (c) => f.date(c.getValue() as string | null) }),
           col.accessor('inspectionDueAt', {
             header: 'Inspection due',
             cell: (c) => {
@@ -45,7 +46,7 @@ export function ProceduresTable({ timeZone }: { timeZone: string }) {
               const overdue = new Date(v).getTime() < now;
               return (
                 <span className="flex items-center gap-2">
-                  {fmtDate(v, timeZone)}{' '}
+                  {f.date(v)}{' '}
                   {overdue ? (
                     <Badge tone="danger">Overdue</Badge>
                   ) : new Date(v).getTime() - now < 30 * 86_400_000 ? (

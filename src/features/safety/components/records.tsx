@@ -29,14 +29,15 @@ import { useProcedures } from '../api/get-procedures';
 import { useSafetyPeople } from '../api/get-safety-people';
 import { useSignFlow } from './sign-dialog';
 import { DueBadge } from './badges';
-import { fmtDate, fmtDateTime, todayIn } from './format';
+import { useShopFormat } from '../../../lib/format';
 
 type Me = { id: string; name: string; role: Role };
 const inspectionForm = inspectionSchema.omit({ password: true });
 const trainingForm = trainingSchema.omit({ password: true });
 const area = 'block min-h-20 w-full rounded border border-steel-400 bg-white px-3 py-2';
 
-function InspectionForm({ me, timeZone, onDone, procedureId }: { me: Me; timeZone: string; onDone: (m: string) => void; procedureId?: string }) {
+function InspectionForm({ me, onDone, procedureId }: { me: Me; onDone: (m: string) => void; procedureId?: string }) {
+  const f = useShopFormat();
   const procedures = useProcedures();
   const people = useSafetyPeople();
   const record = useRecordInspection();
@@ -44,7 +45,7 @@ function InspectionForm({ me, timeZone, onDone, procedureId }: { me: Me; timeZon
   const [formError, setFormError] = useState<string | null>(null);
   const { register, handleSubmit, setError, reset, formState, setValue } = useForm<z.input<typeof inspectionForm>, unknown, z.output<typeof inspectionForm>>({
     resolver: zodResolver(inspectionForm),
-    defaultValues: { procedureId: '', inspectedOn: todayIn(timeZone), employeeIds: [], findings: '', deviations: '' },
+    defaultValues: { procedureId: '', inspectedOn: f.today(), employeeIds: [], findings: '', deviations: '' },
   });
   // Opened from a due task: choose its procedure once the options exist.
   useEffect(() => {
@@ -145,19 +146,18 @@ function InspectionForm({ me, timeZone, onDone, procedureId }: { me: Me; timeZon
 
 function TrainingForm({
   me,
-  timeZone,
   onDone,
   personId,
   procedureId,
   kind,
 }: {
   me: Me;
-  timeZone: string;
   onDone: (m: string) => void;
   personId?: string;
   procedureId?: string;
   kind?: TrainingKind;
 }) {
+  const f = useShopFormat();
   const procedures = useProcedures();
   const people = useSafetyPeople();
   const record = useRecordTraining();
@@ -165,7 +165,7 @@ function TrainingForm({
   const [formError, setFormError] = useState<string | null>(null);
   const { register, handleSubmit, setError, formState, setValue } = useForm<z.input<typeof trainingForm>, unknown, z.output<typeof trainingForm>>({
     resolver: zodResolver(trainingForm),
-    defaultValues: { userId: '', procedureId: '', kind: 'authorized', trainedOn: todayIn(timeZone), note: '' },
+    defaultValues: { userId: '', procedureId: '', kind: 'authorized', trainedOn: f.today(), note: '' },
   });
   // Opened from a due retraining task: choose the person and procedure once the options exist.
   useEffect(() => {
@@ -233,7 +233,8 @@ function TrainingForm({
 const insCol = createColumnHelper<InspectionRow>();
 const trCol = createColumnHelper<TrainingRow>();
 
-export function SafetyRecords({ me, timeZone }: { me: Me; timeZone: string }) {
+export function SafetyRecords({ me }: { me: Me }) {
+  const f = useShopFormat();
   const inspections = useInspections();
   const training = useTraining();
   const certify = useCertifyInspection();
@@ -269,7 +270,7 @@ export function SafetyRecords({ me, timeZone }: { me: Me; timeZone: string }) {
           getRowId={(r) => r.id}
           empty={<EmptyState title="No inspections recorded yet" />}
           columns={[
-            insCol.accessor('inspectedOn', { header: 'Date', cell: (c) => fmtDate(c.getValue() as string) }),
+            insCol.accessor('inspectedOn', { header: 'Date', cell: (c) => f.date(c.getValue() as string) }),
             insCol.accessor('machineCode', { header: 'Machine' }),
             insCol.accessor('procedureTitle', { header: 'Procedure', cell: (c) => `${c.getValue()} v${c.row.original.procedureVersion}` }),
             insCol.accessor('inspectorName', { header: 'Inspector' }),
@@ -281,7 +282,7 @@ export function SafetyRecords({ me, timeZone }: { me: Me; timeZone: string }) {
                 if (r.certifiedAt)
                   return (
                     <span>
-                      <Badge tone="safe">Certified</Badge> {fmtDateTime(r.certifiedAt, timeZone)} · {r.certifiedByName}
+                      <Badge tone="safe">Certified</Badge> {f.dateTime(r.certifiedAt)} · {r.certifiedByName}
                     </span>
                   );
                 if (!can(me.role, 'safety.inspection.certify')) return <Badge tone="caution">Waiting</Badge>;
@@ -293,7 +294,7 @@ export function SafetyRecords({ me, timeZone }: { me: Me; timeZone: string }) {
                         'inspection-certified',
                         async (password) => {
                           await certify.mutateAsync({ id: r.id, password });
-                          ok(`Inspection of ${r.machineCode} on ${fmtDate(r.inspectedOn)} certified.`);
+                          ok(`Inspection of ${r.machineCode} on ${f.date(r.inspectedOn)} certified.`);
                         },
                         { onError: (err) => setMessage({ tone: 'danger', text: err instanceof ApiError ? err.message : 'Could not certify' }) },
                       )
@@ -309,7 +310,7 @@ export function SafetyRecords({ me, timeZone }: { me: Me; timeZone: string }) {
         {can(me.role, 'safety.inspection.perform') ? (
           <details ref={inspectRef} id="record-inspection" className="mt-4 scroll-mt-4 rounded border border-steel-300 p-3">
             <summary className="flex min-h-touch cursor-pointer items-center font-semibold">Record an inspection I performed</summary>
-            <InspectionForm me={me} timeZone={timeZone} onDone={ok} procedureId={inspect} />
+            <InspectionForm me={me} onDone={ok} procedureId={inspect} />
           </details>
         ) : null}
       </Panel>
@@ -330,14 +331,14 @@ export function SafetyRecords({ me, timeZone }: { me: Me; timeZone: string }) {
               header: 'Trained on',
               cell: (c) => `v${c.getValue()}${c.row.original.currentVersion ? ` (in force: v${c.row.original.currentVersion})` : ''}`,
             }),
-            trCol.accessor('trainedOn', { header: 'Date', cell: (c) => fmtDate(c.getValue() as string) }),
+            trCol.accessor('trainedOn', { header: 'Date', cell: (c) => f.date(c.getValue() as string) }),
             trCol.accessor('trainerName', { header: 'Trainer' }),
           ]}
         />
         {can(me.role, 'safety.training.manage') ? (
           <details ref={trainRef} id="record-training" className="mt-4 scroll-mt-4 rounded border border-steel-300 p-3">
             <summary className="flex min-h-touch cursor-pointer items-center font-semibold">Record training</summary>
-            <TrainingForm me={me} timeZone={timeZone} onDone={ok} personId={trainPerson} procedureId={trainProcedure} kind={trainAs} />
+            <TrainingForm me={me} onDone={ok} personId={trainPerson} procedureId={trainProcedure} kind={trainAs} />
           </details>
         ) : null}
       </Panel>

@@ -1,5 +1,5 @@
 // Over 400 lines: four audit components (filters and table, chain check, compliance, correction dialog) still share this file; a split into one file each is prepared but not merged yet.
-import { useRef, useState } from 'react';
+import { useMemo, useRef, useState } from 'react';
 import { useSearchParams } from 'react-router-dom';
 import { createColumnHelper, type SortingState } from '@tanstack/react-table';
 import { Bar, BarChart, CartesianGrid, Legend, Line, LineChart, ResponsiveContainer, Tooltip, XAxis, YAxis } from 'recharts';
@@ -30,12 +30,13 @@ import { useSafetyPeople } from '../api/get-safety-people';
 import { useCorrectSignOff } from '../api/correct-sign-off';
 import { useSignFlow } from './sign-dialog';
 import { DueBadge } from './badges';
-import { fmtDate, fmtDateTime } from './format';
+import { useShopFormat } from '../../../lib/format';
 
 const filterClass = 'min-h-touch rounded border border-steel-400 bg-white px-3 font-normal';
 const COLORS = { safe: '#15803d', danger: '#b91c1c', steel: '#38434e', mandatory: '#1d4ed8' };
 
-export function ChainCheck({ timeZone }: { timeZone: string }) {
+export function ChainCheck() {
+  const f = useShopFormat();
   const chain = useChainVerification();
   const v = chain.data;
   return (
@@ -61,13 +62,13 @@ export function ChainCheck({ timeZone }: { timeZone: string }) {
         {v ? (
           v.ok ? (
             <Notice tone="safe" title="Chain verified">
-              {v.message} Checked {fmtDateTime(v.verifiedAt, timeZone)}.
+              {v.message} Checked {f.dateTime(v.verifiedAt)}.
             </Notice>
           ) : (
             <Notice tone="danger" title="Chain broken">
               {v.message} {v.checked} record{v.checked === 1 ? '' : 's'} before it verified.
               {v.firstBad?.signerName
-                ? ` First bad record: #${v.firstBad.seq}, ${v.firstBad.signerName}, ${fmtDateTime(v.firstBad.signedAt, timeZone)}, ${v.firstBad.meaning ? MEANING_LABELS[v.firstBad.meaning] : ''}.`
+                ? ` First bad record: #${v.firstBad.seq}, ${v.firstBad.signerName}, ${f.dateTime(v.firstBad.signedAt)}, ${v.firstBad.meaning ? MEANING_LABELS[v.firstBad.meaning] : ''}.`
                 : ''}
             </Notice>
           )
@@ -80,6 +81,7 @@ export function ChainCheck({ timeZone }: { timeZone: string }) {
 const mcol = createColumnHelper<MachineCompliance>();
 
 export function Compliance() {
+  const f = useShopFormat();
   const [days, setDays] = useState(30);
   const q = useCompliance(days);
   const tl = useTimeline(12);
@@ -130,7 +132,7 @@ export function Compliance() {
               header: 'Periodic inspection',
               cell: (c) => <DueBadge status={c.getValue() as MachineCompliance['inspectionStatus']} />,
             }),
-            mcol.accessor('inspectionDueAt', { header: 'Inspection due', cell: (c) => fmtDate(c.getValue() as string | null) }),
+            mcol.accessor('inspectionDueAt', { header: 'Inspection due', cell: (c) => f.date(c.getValue() as string | null) }),
             mcol.accessor('ppeMissed', {
               header: 'PPE checks',
               cell: (c) => {
@@ -284,7 +286,8 @@ function CorrectionDialog({
 }
 
 /** Every signature, filtered and sorted on the server, with exports using the same filters. Filters live in the URL so a view can be shared or reloaded. */
-export function SignOffAudit({ me, timeZone }: { me: { name: string; role: Role }; timeZone: string }) {
+export function SignOffAudit({ me }: { me: { name: string; role: Role } }) {
+  const f = useShopFormat();
   const [params, setParams] = useSearchParams();
   const machineId = params.get('machine') ?? '';
   const signerId = params.get('person') ?? '';
@@ -320,6 +323,55 @@ export function SignOffAudit({ me, timeZone }: { me: { name: string; role: Role 
     dir: (sorting[0]?.desc ? 'desc' : 'asc') as 'asc' | 'desc',
   };
   const q = useSignOffs({ ...filters, page, pageSize: 25 }, !rangeError);
+  // Built once per shop format and role: new cell functions on every render would remount the cells, and the
+  // "Add correction" button that opened a dialog would no longer be there to take focus back.
+  const columns = useMemo(
+    () => [
+      col.accessor('seq', { header: '#' }),
+      col.accessor('signedAt', {
+        header: 'Signed',
+        cell: (c) => <span className="whitespace-nowrap">{f.dateTime(c.getValue() as string)}</span>,
+      }),
+      col.accessor('signerName', { header: 'Printed name', cell: (c) => <span className="font-semibold">{c.getValue() as string}</span> }),
+      col.accessor('signerRole', { header: 'Role', enableSorting: false, cell: (c) => ROLE_LABELS[c.getValue() as Role] ?? c.getValue() }),
+      col.accessor('meaning', {
+        header: 'Meaning',
+        cell: (c) => (
+          <span>
+            {MEANING_LABELS[c.getValue() as SignMeaning]}
+            {c.row.original.correctsSeq ? <span className="block text-xs">corrects #{c.row.original.correctsSeq}</span> : null}
+            {c.row.original.correctedBy.length ? <Badge tone="caution">{`corrected by #${c.row.original.correctedBy.join(', #')}`}</Badge> : null}
+          </span>
+        ),
+      }),
+      col.accessor('machineCode', { id: 'machine', header: 'Machine', cell: (c) => c.getValue() ?? '—' }),
+      col.accessor('summary', {
+        header: 'What was signed',
+        enableSorting: false,
+        cell: (c) => (
+          <span className="text-sm">
+            {c.getValue() as string}
+            {c.row.original.note ? <span className="block italic">Note: {c.row.original.note}</span> : null}
+          </span>
+        ),
+      }),
+      col.display({
+        id: 'correct',
+        header: 'Correction',
+        cell: (c) =>
+          me.role === 'safety' ? (
+            <Button
+              variant="secondary"
+              aria-label={`Add correction to #${c.row.original.seq}`}
+              onClick={() => (setMessage(null), setCorrecting(c.row.original))}
+            >
+              Add correction
+            </Button>
+          ) : null,
+      }),
+    ],
+    [f, me.role],
+  );
   const exportLink = 'flex min-h-touch items-center rounded border border-steel-400 bg-white px-4 font-semibold';
 
   return (
@@ -410,50 +462,7 @@ export function SignOffAudit({ me, timeZone }: { me: { name: string; role: Role 
             <DateField label="To" value={to} min={from || undefined} error={rangeError} onChange={(v) => setFilter('to', v)} />
           </div>
         }
-        columns={[
-          col.accessor('seq', { header: '#' }),
-          col.accessor('signedAt', {
-            header: 'Signed',
-            cell: (c) => <span className="whitespace-nowrap">{fmtDateTime(c.getValue() as string, timeZone)}</span>,
-          }),
-          col.accessor('signerName', { header: 'Printed name', cell: (c) => <span className="font-semibold">{c.getValue() as string}</span> }),
-          col.accessor('signerRole', { header: 'Role', enableSorting: false, cell: (c) => ROLE_LABELS[c.getValue() as Role] ?? c.getValue() }),
-          col.accessor('meaning', {
-            header: 'Meaning',
-            cell: (c) => (
-              <span>
-                {MEANING_LABELS[c.getValue() as SignMeaning]}
-                {c.row.original.correctsSeq ? <span className="block text-xs">corrects #{c.row.original.correctsSeq}</span> : null}
-                {c.row.original.correctedBy.length ? <Badge tone="caution">{`corrected by #${c.row.original.correctedBy.join(', #')}`}</Badge> : null}
-              </span>
-            ),
-          }),
-          col.accessor('machineCode', { id: 'machine', header: 'Machine', cell: (c) => c.getValue() ?? '—' }),
-          col.accessor('summary', {
-            header: 'What was signed',
-            enableSorting: false,
-            cell: (c) => (
-              <span className="text-sm">
-                {c.getValue() as string}
-                {c.row.original.note ? <span className="block italic">Note: {c.row.original.note}</span> : null}
-              </span>
-            ),
-          }),
-          col.display({
-            id: 'correct',
-            header: 'Correction',
-            cell: (c) =>
-              me.role === 'safety' ? (
-                <Button
-                  variant="secondary"
-                  aria-label={`Add correction to #${c.row.original.seq}`}
-                  onClick={() => (setMessage(null), setCorrecting(c.row.original))}
-                >
-                  Add correction
-                </Button>
-              ) : null,
-          }),
-        ]}
+        columns={columns}
       />
       {correcting ? (
         <CorrectionDialog

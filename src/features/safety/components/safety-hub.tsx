@@ -11,7 +11,7 @@ import { useSafetyTasks } from '../api/get-safety-tasks';
 import { useLockouts } from '../api/get-lockouts';
 import { useFireWatches } from '../api/get-fire-watches';
 import { LockoutStateBadge } from './badges';
-import { fmtDateTime, fmtTime } from './format';
+import { useShopFormat } from '../../../lib/format';
 
 const taskCol = createColumnHelper<SafetyTaskRow>();
 const lockCol = createColumnHelper<LockoutRow>();
@@ -27,7 +27,8 @@ function taskHref(t: SafetyTaskRow): string {
 const action = 'flex min-h-touch items-center justify-center rounded px-4 py-3 text-center text-base font-semibold';
 
 /** The front page of the safety log: what to act on now, and the way to each record. */
-export function SafetyHub({ role, timeZone }: { role: Role; timeZone: string }) {
+export function SafetyHub({ role }: { role: Role }) {
+  const f = useShopFormat();
   const tasks = useSafetyTasks();
   const open = useLockouts({ state: 'open', page: 1, pageSize: 50 });
   const watches = useFireWatches();
@@ -81,7 +82,7 @@ export function SafetyHub({ role, timeZone }: { role: Role; timeZone: string }) 
         <Notice tone="caution" title={`Fire watch running (${running.length})`} role="status">
           {running.map((w) => (
             <span key={w.id} className="block">
-              {w.machineCode}: {w.watcherName} watches until {fmtTime(w.until, timeZone)}.{' '}
+              {w.machineCode}: {w.watcherName} watches until {f.time(w.until)}.{' '}
               <Link className="font-semibold underline" to={paths.safetyHotWork.getHref()}>
                 Open
               </Link>
@@ -110,7 +111,7 @@ export function SafetyHub({ role, timeZone }: { role: Role; timeZone: string }) 
               }),
               lockCol.accessor('state', { header: 'State', cell: (c) => <LockoutStateBadge state={c.getValue()} /> }),
               lockCol.accessor('primaryName', { header: 'Held by' }),
-              lockCol.accessor('appliedAt', { header: 'Since', cell: (c) => fmtDateTime(c.getValue(), timeZone) }),
+              lockCol.accessor('appliedAt', { header: 'Since', cell: (c) => f.dateTime(c.getValue()) }),
             ]}
           />
         </Panel>
@@ -136,7 +137,7 @@ export function SafetyHub({ role, timeZone }: { role: Role; timeZone: string }) 
                   </Link>
                 ),
               }),
-              taskCol.accessor('dueAt', { header: 'Due', cell: (c) => fmtDateTime(c.getValue(), timeZone) }),
+              taskCol.accessor('dueAt', { header: 'Due', cell: (c) => f.dateTime(c.getValue()) }),
             ]}
           />
         </Panel>

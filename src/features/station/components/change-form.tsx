@@ -3,23 +3,25 @@ import { useForm } from 'react-hook-form';
 import { zodResolver } from '@hookform/resolvers/zod';
 import type { z } from 'zod';
 import {
-  CHANGE_REASONS,
-  CHANGE_REASON_LABELS,
+  REMOVAL_REASON_LABELS,
   consumableChangeSchema,
+  type RemovalReason,
   type PartOption,
   type ReferenceValue,
   type TorchStation,
 } from '../../../../shared/schemas/consumables';
 import { PART_CATEGORY_LABELS, TORCH_CATEGORIES, type TorchCategory } from '../../../../shared/schemas/stock';
 import { TORCH_CAUTION } from '../../../../shared/domain/cautions';
+import { defaultReasons } from '../../../../shared/domain/consumables';
+import { ReasonPicker } from './reason-picker';
 import { WorkCaution } from '../../../components/ui/caution';
 import { Button } from '../../../components/ui/button';
 import { TextField } from '../../../components/ui/field';
 import { Notice } from '../../../components/ui/notice';
 import { applyServerErrors } from '../../../lib/form-errors';
 import { useLogChange } from '../api/log-change';
-import { formatQty } from '../../../lib/format-quantity';
 import { CHANGE_PHOTO_TYPES, PHOTO_MAX_BYTES, megabytes } from '../../../../shared/schemas/photos';
+import { useShopFormat } from '../../../lib/format';
 
 type In = z.input<typeof consumableChangeSchema>;
 type Out = z.output<typeof consumableChangeSchema>;
@@ -41,8 +43,9 @@ export const ResetChoice = forwardRef<HTMLInputElement, InputHTMLAttributes<HTML
 });
 
 /**
- * The change sheet. The common case — electrode and nozzle, normal wear, counters as last
- * read — needs one tap on the pair and one on Record: the reason and counters come filled in.
+ * The change sheet. The common case — electrode and nozzle, the electrode worn and the nozzle
+ * changed with it, counters as last read — needs one tap on the pair and one on Record: the
+ * reasons and counters come filled in; a different reason for one part is one more tap.
  */
 export function ChangeForm({
   torch,
@@ -57,6 +60,7 @@ export function ChangeForm({
   onDone: (message: string) => void;
   onCancel: () => void;
 }) {
+  const f = useShopFormat();
   const log = useLogChange();
   const heading = useRef<HTMLHeadingElement>(null);
   const [photo, setPhoto] = useState<File | null>(null);
@@ -69,7 +73,7 @@ export function ChangeForm({
       torchId: torch.id,
       categories: [],
       partTypeIds: {},
-      reason: 'normal-wear',
+      reasons: {},
       startsReading: torch.startsMeter?.latest?.value ?? null,
       arcHoursReading: torch.arcHoursMeter?.latest?.value ?? null,
       pitDepthMm: null,
@@ -80,7 +84,12 @@ export function ChangeForm({
   });
   useEffect(() => heading.current?.focus(), []);
   const categories = (watch('categories') ?? []) as TorchCategory[];
-  const reason = watch('reason');
+  const [picked, setPicked] = useState<Partial<Record<TorchCategory, RemovalReason>>>({});
+  // Defaults for every part chosen, overridden by what the operator tapped.
+  const reasons: Partial<Record<TorchCategory, RemovalReason>> = { ...defaultReasons(categories) };
+  for (const c of categories) if (picked[c]) reasons[c] = picked[c];
+  const reasonsKey = JSON.stringify(reasons);
+  useEffect(() => setValue('reasons', JSON.parse(reasonsKey)), [reasonsKey, setValue]);
   const pit = watch('pitDepthMm');
   const choose = (next: TorchCategory[]) => setValue('categories', next, { shouldValidate: formState.isSubmitted });
   const toggle = (c: TorchCategory) =>
@@ -92,15 +101,15 @@ export function ChangeForm({
     const partTypeIds = Object.fromEntries(values.categories.map((c) => [c, values.partTypeIds[c] ?? installedPart(c)]).filter(([, id]) => id));
     try {
       await log.mutateAsync({ ...values, partTypeIds, photo });
-      const names = values.categories.map((c) => PART_CATEGORY_LABELS[c].toLowerCase()).join(' and ');
-      onDone(
-        `Change recorded on ${torch.code}: ${names} (${CHANGE_REASON_LABELS[values.reason].toLowerCase()}).${values.takeFromStock ? ' The new parts were taken out of stock.' : ''}`,
-      );
+      const names = values.categories
+        .map((c) => `${PART_CATEGORY_LABELS[c].toLowerCase()} (${values.reasons[c] ? REMOVAL_REASON_LABELS[values.reasons[c]].toLowerCase() : '—'})`)
+        .join(' and ');
+      onDone(`Change recorded on ${torch.code}: ${names}.${values.takeFromStock ? ' The new parts were taken out of stock.' : ''}`);
     } catch (err) {
       setFormError(
         applyServerErrors(err, setError, [
           'categories',
-          'reason',
+          ...TORCH_CATEGORIES.map((c) => `reasons.${c}`),
           'startsReading',
           'arcHoursReading',
           'pitDepthMm',
@@ -172,17 +181,14 @@ export function ChangeForm({
         ) : null}
       </fieldset>
 
-      <fieldset className="space-y-2">
-        <legend className="text-base font-bold">Why?</legend>
-        <div className="grid gap-2 sm:grid-cols-3">
-          {CHANGE_REASONS.map((r) => (
-            <label key={r} className={`${big} flex cursor-pointer items-center gap-3 ${reason === r ? on : off}`}>
-              <input type="radio" value={r} className="h-6 w-6 accent-white" {...register('reason')} />
-              {CHANGE_REASON_LABELS[r]}
-            </label>
-          ))}
-        </div>
-      </fieldset>
+      {categories.length ? (
+        <ReasonPicker
+          categories={categories}
+          reasons={reasons}
+          errors={e.reasons as Partial<Record<TorchCategory, { message?: string }>> | undefined}
+          onPick={(c, r) => setPicked((p) => ({ ...p, [c]: r }))}
+        />
+      ) : null}
 
       <fieldset className="grid gap-4 sm:grid-cols-2">
         <legend className="mb-2 text-base font-bold">Counters at the change</legend>
@@ -262,7 +268,7 @@ export function ChangeForm({
                   .filter((p) => p.category === c)
                   .map((p) => (
                     <option key={p.id} value={p.id}>
-                      {p.partNumber} {p.name} — {formatQty(p.onHand, p.stockUnit)} in stock
+                      {p.partNumber} {p.name} — {f.qty(p.onHand, p.stockUnit)} in stock
                     </option>
                   ))}
               </select>

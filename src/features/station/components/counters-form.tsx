@@ -5,11 +5,11 @@ import { Notice } from '../../../components/ui/notice';
 import { ApiError } from '../../../lib/api-client';
 import { useRecordCounters } from '../api/record-counters';
 import { ResetChoice } from './change-form';
-
-const int = new Intl.NumberFormat(undefined, { maximumFractionDigits: 1 });
+import { useShopFormat } from '../../../lib/format';
 
 /** Type in what the control shows for any of the station's meters; empty fields are skipped. */
 export function CountersForm({ meters }: { meters: MeterRow[] }) {
+  const f = useShopFormat();
   const record = useRecordCounters();
   const [values, setValues] = useState<Record<string, string>>({});
   const [resets, setResets] = useState<Record<string, boolean>>({});
@@ -64,7 +64,7 @@ export function CountersForm({ meters }: { meters: MeterRow[] }) {
               </p>
             ) : (
               <p id={`counter-${m.id}-hint`} className="text-sm text-steel-600">
-                {m.latest ? `Last ${int.format(m.latest.value)} ${m.unit}` : 'No reading yet'}
+                {m.latest ? `Last ${f.number(m.latest.value)} ${m.unit}` : 'No reading yet'}
               </p>
             )}
             {m.kind !== 'condition' ? (

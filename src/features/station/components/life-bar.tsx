@@ -1,6 +1,6 @@
 import { lifeState } from '../../../../shared/domain/consumables';
+import { useShopFormat } from '../../../lib/format';
 
-const int = new Intl.NumberFormat(undefined, { maximumFractionDigits: 1 });
 const STATE = {
   ok: { bar: 'bg-safe', text: 'Within expected life' },
   near: { bar: 'bg-caution', text: 'Near the end of its expected life' },
@@ -22,6 +22,7 @@ export function LifeBar({
   unit: string;
   fraction: number | null;
 }) {
+  const f = useShopFormat();
   const state = lifeState(fraction);
   const s = STATE[state];
   const pct = fraction === null ? 0 : Math.min(100, fraction * 100);
@@ -29,8 +30,8 @@ export function LifeBar({
     used === null
       ? 'No counter reading since it went in'
       : expected === null
-        ? `${int.format(used)} ${unit} so far`
-        : `${int.format(used)} of ${int.format(expected)} ${unit} (${Math.round((fraction ?? 0) * 100)} %)`;
+        ? `${f.number(used)} ${unit} so far`
+        : `${f.number(used)} of ${f.number(expected)} ${unit} (${Math.round((fraction ?? 0) * 100)} %)`;
   return (
     <div className="space-y-1">
       <div

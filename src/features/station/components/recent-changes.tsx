@@ -2,20 +2,26 @@ import { useState } from 'react';
 import { createColumnHelper } from '@tanstack/react-table';
 import { DataTable } from '../../../components/ui/data-table';
 import { EmptyState, Notice } from '../../../components/ui/notice';
-import { CHANGE_REASON_LABELS, type ChangeRow } from '../../../../shared/schemas/consumables';
+import { REMOVAL_REASON_LABELS, type ChangeRow } from '../../../../shared/schemas/consumables';
 import { PART_CATEGORY_LABELS } from '../../../../shared/schemas/stock';
 import { useChanges } from '../api/get-changes';
-import { shopFormatter } from '../../../lib/format';
+import { useShopFormat, type ShopFormat } from '../../../lib/format';
 
 const col = createColumnHelper<ChangeRow>();
-const when = shopFormatter({ dateStyle: 'medium', timeStyle: 'short' });
-const int = new Intl.NumberFormat(undefined, { maximumFractionDigits: 1 });
 
-const columns = [
-  col.accessor('changedAt', { header: 'When', cell: (c) => when.format(new Date(c.getValue())) }),
+const columnsFor = (f: ShopFormat) => [
+  col.accessor('changedAt', { header: 'When', cell: (c) => f.dateTime(c.getValue()) }),
   col.accessor('torchCode', { header: 'Torch' }),
   col.accessor((r) => r.parts.map((p) => PART_CATEGORY_LABELS[p.category]).join(', '), { id: 'parts', header: 'Parts' }),
-  col.accessor('reason', { header: 'Why', cell: (c) => CHANGE_REASON_LABELS[c.getValue()] }),
+  col.accessor((r) => r.parts.map((p) => (p.reason ? `${PART_CATEGORY_LABELS[p.category]}: ${REMOVAL_REASON_LABELS[p.reason].toLowerCase()}` : '')).join(' '), {
+    id: 'why',
+    header: 'Why',
+    cell: (c) => {
+      const parts = c.row.original.parts.filter((p) => p.reason);
+      if (parts.length === 0) return '—';
+      return parts.map((p) => `${PART_CATEGORY_LABELS[p.category]}: ${REMOVAL_REASON_LABELS[p.reason!].toLowerCase()}`).join('; ');
+    },
+  }),
   col.accessor((r) => r.parts.map((p) => (p.lifeStarts === null ? null : p.lifeStarts)).find((x) => x !== null) ?? null, {
     id: 'life',
     header: 'Life of the old parts',
@@ -25,7 +31,7 @@ const columns = [
       return lives
         .map(
           (p) =>
-            `${PART_CATEGORY_LABELS[p.category]} ${p.lifeStarts !== null ? `${int.format(p.lifeStarts)} starts` : ''}${p.lifeArcHours !== null ? ` / ${int.format(p.lifeArcHours)} h` : ''}`,
+            `${PART_CATEGORY_LABELS[p.category]} ${p.lifeStarts !== null ? `${f.number(p.lifeStarts)} starts` : ''}${p.lifeArcHours !== null ? ` / ${f.number(p.lifeArcHours)} h` : ''}`,
         )
         .join('; ');
     },
@@ -52,11 +58,13 @@ const columns = [
 ];
 
 export function RecentChanges({ rows, caption = 'Recent consumable changes' }: { rows: ChangeRow[]; caption?: string }) {
-  return <DataTable caption={caption} columns={columns} data={rows} getRowId={(r) => r.id} empty={<EmptyState title="No changes logged yet" />} />;
+  const f = useShopFormat();
+  return <DataTable caption={caption} columns={columnsFor(f)} data={rows} getRowId={(r) => r.id} empty={<EmptyState title="No changes logged yet" />} />;
 }
 
 /** Every change on a machine's torches, newest first, paged by the server. */
 export function ChangesHistory({ machineId }: { machineId: string }) {
+  const f = useShopFormat();
   const [page, setPage] = useState(1);
   const pageSize = 20;
   const q = useChanges({ machineId, page, pageSize });
@@ -64,7 +72,7 @@ export function ChangesHistory({ machineId }: { machineId: string }) {
   return (
     <DataTable
       caption="Consumable changes"
-      columns={columns.map((c) => ({ ...c, enableSorting: false }))}
+      columns={columnsFor(f).map((c) => ({ ...c, enableSorting: false }))}
       data={q.data?.rows ?? []}
       loading={q.isLoading}
       getRowId={(r) => r.id}

@@ -3,13 +3,11 @@ import type { StationDueRow, StationLockout } from '../../../../shared/schemas/c
 import { WORK_STATE_LABELS } from '../../../../shared/schemas/work-orders';
 import { DueBadge, LockoutBadge } from '../../../components/ui/work-badges';
 import { paths } from '../../../config/paths';
-import { shopFormatter } from '../../../lib/format';
-
-const when = shopFormatter({ dateStyle: 'medium', timeStyle: 'short' });
-const day = shopFormatter({ dateStyle: 'medium' });
+import { useShopFormat } from '../../../lib/format';
 
 /** First thing on the station page: an applied lockout means the machine must not be run. */
 export function LockoutBanner({ lockouts }: { lockouts: StationLockout[] }) {
+  const f = useShopFormat();
   if (lockouts.length === 0) return null;
   return (
     <div role="alert" className="rounded border-4 border-danger bg-danger px-4 py-3 text-white">
@@ -17,7 +15,7 @@ export function LockoutBanner({ lockouts }: { lockouts: StationLockout[] }) {
       <ul className="mt-1 space-y-1">
         {lockouts.map((l) => (
           <li key={l.id}>
-            {l.machineCode} · {l.reason} · locked since {when.format(new Date(l.appliedAt))} by {l.heldBy}
+            {l.machineCode} · {l.reason} · locked since {f.dateTime(l.appliedAt)} by {l.heldBy}
             {l.state === 'verified' ? ' · isolation verified' : ''}
           </li>
         ))}
@@ -28,6 +26,7 @@ export function LockoutBanner({ lockouts }: { lockouts: StationLockout[] }) {
 
 /** Open work on the machine and its components, so the operator knows what is coming. */
 export function DueList({ code, rows }: { code: string; rows: StationDueRow[] }) {
+  const f = useShopFormat();
   return (
     <section aria-labelledby="due-heading" className="rounded border border-steel-200 bg-white p-4 shadow-sm">
       <h2 id="due-heading" className="mb-2 text-lg font-bold">
@@ -48,7 +47,7 @@ export function DueList({ code, rows }: { code: string; rows: StationDueRow[] })
               <span className="ml-auto inline-flex items-center gap-2 text-sm tabular-nums">
                 {/* Same badges as the work lists, so "lockout required" reads the same at the machine. */}
                 {w.requiresLockout ? <LockoutBadge /> : null}
-                {w.dueAt ? `due ${day.format(new Date(w.dueAt))}` : 'no due date'}
+                {w.dueAt ? `due ${f.date(w.dueAt)}` : 'no due date'}
                 {w.overdue ? <DueBadge state="overdue" /> : null}
               </span>
             </Link>

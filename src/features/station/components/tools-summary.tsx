@@ -1,7 +1,6 @@
 import type { ToolSummary } from '../../../../shared/schemas/consumables';
 import { Badge } from '../../../components/ui/notice';
-
-const int = new Intl.NumberFormat(undefined, { maximumFractionDigits: 0 });
+import { useShopFormat } from '../../../lib/format';
 
 /** Past this share of the interval a dull tool is no longer "due" but risks burrs and a broken punch. */
 export const SHARPENING_OVERDUE_FRACTION = 1.2;
@@ -19,6 +18,7 @@ const RANK: Record<SharpeningState, number> = { overdue: 2, due: 1, ok: 0 };
 
 /** The punch tools at this station, most worn first, with hits since their last sharpening. */
 export function ToolsSummary({ tools }: { tools: ToolSummary[] }) {
+  const f = useShopFormat();
   const sorted = [...tools].sort((a, b) => RANK[sharpeningState(b)] - RANK[sharpeningState(a)] || (b.fraction ?? 0) - (a.fraction ?? 0));
   return (
     <ul className="grid gap-2 sm:grid-cols-2" aria-label="Punch tools">
@@ -35,7 +35,7 @@ export function ToolsSummary({ tools }: { tools: ToolSummary[] }) {
             <p className="text-sm tabular-nums">
               {t.hitsSince === null
                 ? 'No hits counted yet'
-                : `${int.format(t.hitsSince)} of ${int.format(t.interval)} hits since sharpening (${Math.round((t.fraction ?? 0) * 100)} %)`}
+                : `${f.number(t.hitsSince, { max: 0 })} of ${f.number(t.interval, { max: 0 })} hits since sharpening (${Math.round((t.fraction ?? 0) * 100)} %)`}
             </p>
           </li>
         );

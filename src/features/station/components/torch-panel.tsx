@@ -4,25 +4,24 @@ import { LIFE_UNIT_LABELS, PART_CATEGORY_LABELS } from '../../../../shared/schem
 import { Button } from '../../../components/ui/button';
 import { Notice } from '../../../components/ui/notice';
 import { focusSoon, LiveNotice } from '../../../components/ui/live-region';
-import { formatQty } from '../../../lib/format-quantity';
 import { LifeBar } from './life-bar';
+import { ChangePoint } from './change-point';
 import { ChangeForm } from './change-form';
-import { shopFormatter } from '../../../lib/format';
-
-const int = new Intl.NumberFormat(undefined, { maximumFractionDigits: 1 });
-const when = shopFormatter({ dateStyle: 'medium', timeStyle: 'short' });
+import { useShopFormat } from '../../../lib/format';
 
 function Counter({ label, value, unit, at }: { label: string; value: number | null; unit: string; at: string | null }) {
+  const f = useShopFormat();
   return (
     <div className="rounded border border-steel-300 bg-steel-50 p-3">
       <p className="text-sm font-semibold text-steel-700">{label}</p>
-      <p className="text-3xl font-bold tabular-nums">{value === null ? '—' : `${int.format(value)} ${unit}`}</p>
-      <p className="text-sm text-steel-700">{at ? `read ${when.format(new Date(at))}` : 'no reading yet'}</p>
+      <p className="text-3xl font-bold tabular-nums">{value === null ? '—' : `${f.number(value)} ${unit}`}</p>
+      <p className="text-sm text-steel-700">{at ? `read ${f.dateTime(at)}` : 'no reading yet'}</p>
     </div>
   );
 }
 
 export function TorchPanel({ torch, parts, pitLimit, canLog }: { torch: TorchStation; parts: PartOption[]; pitLimit: ReferenceValue; canLog: boolean }) {
+  const f = useShopFormat();
   const [open, setOpen] = useState(false);
   const [done, setDone] = useState<string | null>(null);
   const doneRef = useRef<HTMLDivElement>(null);
@@ -33,12 +32,12 @@ export function TorchPanel({ torch, parts, pitLimit, canLog }: { torch: TorchSta
         <h2 id={`torch-${torch.id}`} className="text-2xl font-bold">
           Torch {torch.code}
         </h2>
-        <p className="text-steel-700">{torch.lastChangeAt ? `Last change ${when.format(new Date(torch.lastChangeAt))}` : 'No change logged yet'}</p>
+        <p className="text-steel-700">{torch.lastChangeAt ? `Last change ${f.dateTime(torch.lastChangeAt)}` : 'No change logged yet'}</p>
       </header>
       {torch.suggestChange && torch.latestCutCheck ? (
         <Notice tone="danger" role="alert" title="Cut quality out of tolerance — consider a consumable change">
-          The test coupon of {when.format(new Date(torch.latestCutCheck.checkedAt))} was off by up to {torch.latestCutCheck.maxDeviationMm.toFixed(2)} mm
-          (tolerance ±{torch.latestCutCheck.toleranceMm} mm) with the parts now in the torch.
+          The test coupon of {f.dateTime(torch.latestCutCheck.checkedAt)} was off by up to {torch.latestCutCheck.maxDeviationMm.toFixed(2)} mm (tolerance ±
+          {torch.latestCutCheck.toleranceMm} mm) with the parts now in the torch.
         </Notice>
       ) : null}
       <div className="grid gap-3 sm:grid-cols-2">
@@ -91,7 +90,7 @@ export function TorchPanel({ torch, parts, pitLimit, canLog }: { torch: TorchSta
               <p className="flex flex-wrap items-baseline justify-between gap-2">
                 <span className="text-lg font-bold">{PART_CATEGORY_LABELS[i.category]}</span>
                 <span className="text-sm text-steel-700">
-                  {i.partType.partNumber} · in since {when.format(new Date(i.installedAt))} · {formatQty(i.partType.onHand, i.partType.stockUnit)} in stock
+                  {i.partType.partNumber} · in since {f.dateTime(i.installedAt)} · {f.qty(i.partType.onHand, i.partType.stockUnit)} in stock
                 </span>
               </p>
               <LifeBar
@@ -102,10 +101,11 @@ export function TorchPanel({ torch, parts, pitLimit, canLog }: { torch: TorchSta
                 fraction={i.fraction}
               />
               <p className="mt-1 text-sm text-steel-700">
-                Since it went in: {i.startsSince === null ? '—' : `${int.format(i.startsSince)} starts`},{' '}
-                {i.arcHoursSince === null ? '—' : `${int.format(i.arcHoursSince)} h arc time`}
+                Since it went in: {i.startsSince === null ? '—' : `${f.number(i.startsSince)} starts`},{' '}
+                {i.arcHoursSince === null ? '—' : `${f.number(i.arcHoursSince)} h arc time`}
                 {i.expected !== null ? ' · expected life from the part catalogue' : ''}
               </p>
+              <ChangePoint plan={i.plan} unit={i.partType.lifeUnit === 'arc-hours' ? 'h' : 'starts'} />
             </li>
           ))}
         </ul>

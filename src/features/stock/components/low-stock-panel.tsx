@@ -3,10 +3,11 @@ import { Panel, Notice } from '../../../components/ui/notice';
 import { usePartTypes } from '../api/get-part-types';
 import { PART_CATEGORY_LABELS } from '../../../../shared/schemas/stock';
 import { paths } from '../../../config/paths';
-import { formatQty } from '../../../lib/format-quantity';
+import { useShopFormat } from '../../../lib/format';
 
 /** Parts at or below their reorder point, for the home pages. */
 export function LowStockPanel() {
+  const f = useShopFormat();
   const q = usePartTypes({ lowOnly: true });
   return (
     <Panel
@@ -35,10 +36,8 @@ export function LowStockPanel() {
                 </span>
               </span>
               <span className="rounded border-l-8 border-caution bg-caution-soft px-2 py-1 text-sm font-semibold text-caution-ink">
-                Reorder: {formatQty(p.onHand, p.stockUnit)} on hand,{' '}
-                {p.reorderPoint === 0 && p.usagePerDay === 0
-                  ? `no use in ${p.usageWindowDays} days`
-                  : `reorder point ${formatQty(p.reorderPoint, p.stockUnit)}`}
+                Reorder: {f.qty(p.onHand, p.stockUnit)} on hand,{' '}
+                {p.reorderPoint === 0 && p.usagePerDay === 0 ? `no use in ${p.usageWindowDays} days` : `reorder point ${f.qty(p.reorderPoint, p.stockUnit)}`}
               </span>
             </li>
           ))}

@@ -4,35 +4,34 @@ import { DataTable } from '../../../components/ui/data-table';
 import { EmptyState, Notice } from '../../../components/ui/notice';
 import type { StockMoveRow } from '../../../../shared/schemas/stock';
 import { useStockMoves } from '../api/get-stock-moves';
-import { formatQty, unitFor } from '../../../lib/format-quantity';
-import { shopFormatter } from '../../../lib/format';
+import { unitFor } from '../../../lib/format';
+import { useShopFormat } from '../../../lib/format';
 
 const col = createColumnHelper<StockMoveRow>();
-const when = shopFormatter({ dateStyle: 'medium', timeStyle: 'short' });
 const KIND = { received: 'Received', used: 'Used', adjusted: 'Adjusted' } as const;
 const REF: Record<string, string> = { ConsumableChange: 'consumable change', WorkOrder: 'work order' };
-const signed = new Intl.NumberFormat(undefined, { signDisplay: 'always', maximumFractionDigits: 2 });
 
 export function MovesTable({ partTypeId, unit }: { partTypeId: string; unit: string }) {
+  const f = useShopFormat();
   const [page, setPage] = useState(1);
   const pageSize = 25;
   const q = useStockMoves(partTypeId, page, pageSize);
   const columns = [
-    col.accessor('at', { header: 'When', enableSorting: false, cell: (c) => when.format(new Date(c.getValue())) }),
+    col.accessor('at', { header: 'When', enableSorting: false, cell: (c) => f.dateTime(c.getValue()) }),
     col.accessor('kind', { header: 'Move', enableSorting: false, cell: (c) => KIND[c.getValue()] }),
     col.accessor('quantity', {
       header: 'Change',
       enableSorting: false,
       cell: (c) => (
         <span className="tabular-nums">
-          {signed.format(c.getValue())} {unitFor(c.getValue(), unit)}
+          {f.number(c.getValue(), { signed: true, max: 2 })} {unitFor(c.getValue(), unit)}
         </span>
       ),
     }),
     col.accessor('onHandAfter', {
       header: 'On hand after',
       enableSorting: false,
-      cell: (c) => <span className="tabular-nums">{formatQty(c.getValue(), unit)}</span>,
+      cell: (c) => <span className="tabular-nums">{f.qty(c.getValue(), unit)}</span>,
     }),
     col.accessor('by', { header: 'Who', enableSorting: false, cell: (c) => c.getValue() ?? 'System' }),
     col.accessor('reason', {

@@ -25,6 +25,8 @@ export function PartEditForm({ part }: { part: PartTypeRow }) {
       name: part.name,
       expectedLife: part.expectedLife,
       unitCost: part.unitCost,
+      plannedChangeCost: part.plannedChangeCost,
+      failureCost: part.failureCost,
       leadTimeDays: part.leadTimeDays,
       serviceLevel: part.serviceLevel,
     },
@@ -36,13 +38,13 @@ export function PartEditForm({ part }: { part: PartTypeRow }) {
       await update.mutateAsync({ id: part.id, ...values });
       setSaved(true);
     } catch (err) {
-      setFormError(applyServerErrors(err, setError, ['name', 'expectedLife', 'unitCost', 'leadTimeDays', 'serviceLevel']));
+      setFormError(applyServerErrors(err, setError, ['name', 'expectedLife', 'unitCost', 'plannedChangeCost', 'failureCost', 'leadTimeDays', 'serviceLevel']));
     }
   });
   const e = formState.errors;
   return (
-    <form onSubmit={onSubmit} noValidate aria-label={`Edit ${part.partNumber}`} className="grid gap-4 md:grid-cols-5">
-      <div className="space-y-2 md:col-span-5">
+    <form onSubmit={onSubmit} noValidate aria-label={`Edit ${part.partNumber}`} className="grid gap-4 md:grid-cols-4">
+      <div className="space-y-2 md:col-span-4">
         {formError ? (
           <Notice tone="danger" role="alert">
             {formError}
@@ -62,9 +64,23 @@ export function PartEditForm({ part }: { part: PartTypeRow }) {
         error={e.unitCost?.message}
         {...register('unitCost', { setValueAs: num })}
       />
+      <TextField
+        label="Planned change cost"
+        inputMode="decimal"
+        hint="Part and fitting time; empty = unit cost"
+        error={e.plannedChangeCost?.message}
+        {...register('plannedChangeCost', { setValueAs: numOrNull })}
+      />
+      <TextField
+        label="Failure in service cost"
+        inputMode="decimal"
+        hint="Part, scrapped sheet, damaged torch parts, downtime"
+        error={e.failureCost?.message}
+        {...register('failureCost', { setValueAs: numOrNull })}
+      />
       <TextField label="Lead time (days)" inputMode="numeric" error={e.leadTimeDays?.message} {...register('leadTimeDays', { setValueAs: num })} />
       <TextField label="Service level" inputMode="decimal" error={e.serviceLevel?.message} {...register('serviceLevel', { setValueAs: num })} />
-      <div className="md:col-span-5">
+      <div className="md:col-span-4">
         <Button type="submit" variant="secondary" busy={formState.isSubmitting}>
           Save part
         </Button>

@@ -3,10 +3,9 @@ import { DataTable } from '../../../components/ui/data-table';
 import { Badge, EmptyState } from '../../../components/ui/notice';
 import { Button } from '../../../components/ui/button';
 import { LIFE_UNIT_LABELS, PART_CATEGORY_LABELS, type PartTypeRow } from '../../../../shared/schemas/stock';
-import { formatMoney, formatQty } from '../../../lib/format-quantity';
+import { useShopFormat } from '../../../lib/format';
 
 const col = createColumnHelper<PartTypeRow>();
-const dec = new Intl.NumberFormat(undefined, { maximumFractionDigits: 2 });
 
 export function PartsTable({
   rows,
@@ -21,6 +20,7 @@ export function PartsTable({
   onSelect: (id: string) => void;
   toolbar?: React.ReactNode;
 }) {
+  const f = useShopFormat();
   const columns = [
     col.accessor('partNumber', { header: 'Part number', enableHiding: false, cell: (c) => <span className="font-semibold">{c.getValue()}</span> }),
     col.accessor('name', { header: 'Name' }),
@@ -29,7 +29,7 @@ export function PartsTable({
       header: 'On hand',
       cell: (c) => (
         <span className="inline-flex flex-wrap items-center gap-2">
-          <span className="tabular-nums">{formatQty(c.getValue(), c.row.original.stockUnit)}</span>
+          <span className="tabular-nums">{f.qty(c.getValue(), c.row.original.stockUnit)}</span>
           {c.row.original.low ? <Badge tone="caution">Reorder</Badge> : null}
         </span>
       ),
@@ -49,21 +49,22 @@ export function PartsTable({
         }
         return (
           <span className="flex flex-col">
-            <span className="tabular-nums">{formatQty(c.getValue(), r.stockUnit)}</span>
+            <span className="tabular-nums">{f.qty(c.getValue(), r.stockUnit)}</span>
             <span className="text-sm text-steel-700">
-              {dec.format(r.usagePerDay)}/day, {r.leadTimeDays} d lead time
+              {f.number(r.usagePerDay, { max: 2 })}/day, {r.leadTimeDays} d lead time
             </span>
           </span>
         );
       },
     }),
-    col.accessor('usagePerDay', { header: 'Use per day', cell: (c) => dec.format(c.getValue()) }),
+    col.accessor('usagePerDay', { header: 'Use per day', cell: (c) => f.number(c.getValue(), { max: 2 }) }),
     col.accessor('leadTimeDays', { header: 'Lead time', cell: (c) => `${c.getValue()} d` }),
     col.accessor('expectedLife', {
       header: 'Expected life',
-      cell: (c) => (c.getValue() !== null ? `${dec.format(c.getValue()!)} ${c.row.original.lifeUnit ? LIFE_UNIT_LABELS[c.row.original.lifeUnit] : ''}` : '—'),
+      cell: (c) =>
+        c.getValue() !== null ? `${f.number(c.getValue()!, { max: 2 })} ${c.row.original.lifeUnit ? LIFE_UNIT_LABELS[c.row.original.lifeUnit] : ''}` : '—',
     }),
-    col.accessor('unitCost', { header: 'Unit cost', cell: (c) => <span className="tabular-nums">{formatMoney(c.getValue(), c.row.original.currency)}</span> }),
+    col.accessor('unitCost', { header: 'Unit cost', cell: (c) => <span className="tabular-nums">{f.money(c.getValue(), c.row.original.currency)}</span> }),
     col.display({
       id: 'select',
       header: 'Moves',

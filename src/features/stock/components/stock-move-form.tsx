@@ -8,7 +8,7 @@ import { Button } from '../../../components/ui/button';
 import { Notice } from '../../../components/ui/notice';
 import { applyServerErrors } from '../../../lib/form-errors';
 import { useRecordStockMove } from '../api/record-stock-move';
-import { formatQty } from '../../../lib/format-quantity';
+import { useShopFormat } from '../../../lib/format';
 
 /** The move decides the direction, so people type how many, never a sign. */
 const MOVES = {
@@ -34,6 +34,7 @@ type Out = z.output<typeof formSchema>;
 
 /** Receive, use or correct stock of one part: every change is a record with who and why. */
 export function StockMoveForm({ part }: { part: PartTypeRow }) {
+  const f = useShopFormat();
   const record = useRecordStockMove();
   const [formError, setFormError] = useState<string | null>(null);
   const [saved, setSaved] = useState<string | null>(null);
@@ -50,7 +51,7 @@ export function StockMoveForm({ part }: { part: PartTypeRow }) {
     try {
       const res = await record.mutateAsync({ partTypeId: part.id, kind: m.kind, quantity: m.sign * values.quantity, reason: values.reason || undefined });
       setSaved(
-        `Recorded: ${m.sign > 0 ? 'put in' : 'took out'} ${formatQty(values.quantity, part.stockUnit)}. ${part.partNumber} now has ${formatQty(res.onHand, part.stockUnit)} on hand.`,
+        `Recorded: ${m.sign > 0 ? 'put in' : 'took out'} ${f.qty(values.quantity, part.stockUnit)}. ${part.partNumber} now has ${f.qty(res.onHand, part.stockUnit)} on hand.`,
       );
       reset({ move: values.move, reason: '' });
     } catch (err) {
@@ -95,8 +96,8 @@ export function StockMoveForm({ part }: { part: PartTypeRow }) {
               ? 'Puts this many in'
               : 'Takes this many out'
             : move.sign > 0
-              ? `Puts ${formatQty(n, part.stockUnit)} in`
-              : `Takes ${formatQty(n, part.stockUnit)} out`
+              ? `Puts ${f.qty(n, part.stockUnit)} in`
+              : `Takes ${f.qty(n, part.stockUnit)} out`
         }
         error={formState.errors.quantity?.message}
         {...register('quantity', { setValueAs: (v) => (v === '' || v === undefined ? undefined : Number(v)) })}

@@ -8,12 +8,13 @@ import { ROLES, ROLE_LABELS, type Role } from '../../../../shared/permissions';
 import type { ListUsersQuery, MemberRow } from '../../../../shared/schemas/users';
 import { useUsers } from '../api/get-users';
 import { useResendInvitation, useUpdateMember } from '../api/update-member';
-import { formatWhen } from '../../../lib/format';
+import { useShopFormat } from '../../../lib/format';
 
 const col = createColumnHelper<MemberRow>();
 const statusTone = { active: 'safe', invited: 'caution', deactivated: 'info' } as const;
 
-export function UsersTable({ currentUserId, timeZone }: { currentUserId: string; timeZone: string }) {
+export function UsersTable({ currentUserId }: { currentUserId: string }) {
+  const f = useShopFormat();
   const [page, setPage] = useState(1);
   const [sorting, setSorting] = useState<SortingState>([{ id: 'name', desc: false }]);
   const [q, setQ] = useState('');
@@ -72,7 +73,7 @@ export function UsersTable({ currentUserId, timeZone }: { currentUserId: string;
       },
     }),
     col.accessor('status', { header: 'Status', cell: (c) => <Badge tone={statusTone[c.getValue()]}>{c.getValue()}</Badge> }),
-    col.accessor('lastSignInAt', { header: 'Last sign-in', cell: (c) => formatWhen(c.getValue(), timeZone) }),
+    col.accessor('lastSignInAt', { header: 'Last sign-in', cell: (c) => f.dateTime(c.getValue()) }),
     col.display({
       id: 'actions',
       header: 'Access',

@@ -4,10 +4,11 @@ import { ATTACHMENT_MAX_BYTES } from '../../../../shared/schemas/work-orders';
 import { Button } from '../../../components/ui/button';
 import { Notice } from '../../../components/ui/notice';
 import { useUploadAttachment } from '../api/upload-attachment';
-import { formatWhen } from './format';
+import { useShopFormat } from '../../../lib/format';
 
 /** Photos (e.g. of a worn part) and PDFs (e.g. a lab report) kept with the work. */
-export function Attachments({ wo, timeZone, canUpload }: { wo: WorkOrderDetail; timeZone: string; canUpload: boolean }) {
+export function Attachments({ wo, canUpload }: { wo: WorkOrderDetail; canUpload: boolean }) {
+  const f = useShopFormat();
   const upload = useUploadAttachment();
   const input = useRef<HTMLInputElement>(null);
   const [message, setMessage] = useState<{ tone: 'danger' | 'safe'; text: string } | null>(null);
@@ -37,7 +38,7 @@ export function Attachments({ wo, timeZone, canUpload }: { wo: WorkOrderDetail; 
                 {a.fileName}
               </a>
               <p className="text-xs text-steel-600">
-                {Math.ceil(a.size / 1024)} kB · {a.by} · {formatWhen(a.at, timeZone)}
+                {Math.ceil(a.size / 1024)} kB · {a.by} · {f.dateTime(a.at)}
               </p>
             </li>
           );

@@ -5,17 +5,18 @@ import { Notice } from '../../../components/ui/notice';
 import { announce, focusSoon } from '../../../components/ui/live-region';
 import { mainHeading } from '../../../components/ui/modal';
 import { useCloseWorkOrder } from '../api/close-work-order';
-import { formatWhen } from './format';
+import { useShopFormat } from '../../../lib/format';
 
 /** Sign-off: only when the checklist is complete and, where required, the lockout is released. */
-export function CloseWork({ wo, timeZone }: { wo: WorkOrderDetail; timeZone: string }) {
+export function CloseWork({ wo }: { wo: WorkOrderDetail }) {
+  const f = useShopFormat();
   const close = useCloseWorkOrder();
   const [message, setMessage] = useState<{ tone: 'danger' | 'safe'; text: string } | null>(null);
   const signOff = async () => {
     setMessage(null);
     try {
       const r = await close.mutateAsync({ id: wo.id });
-      const text = r.planNextDueAt ? `Signed off. The plan is next due ${formatWhen(r.planNextDueAt, timeZone)}.` : 'Signed off.';
+      const text = r.planNextDueAt ? `Signed off. The plan is next due ${f.dateTime(r.planNextDueAt)}.` : 'Signed off.';
       setMessage({ tone: 'safe', text });
       // This panel goes away with the open work: the page's announcer says it, and focus goes to the record of the sign-off.
       announce(text);

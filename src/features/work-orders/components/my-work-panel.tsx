@@ -2,10 +2,11 @@ import { Link } from 'react-router-dom';
 import { Panel, EmptyState, Notice } from '../../../components/ui/notice';
 import { useWorkOrders } from '../api/get-work-orders';
 import { DueBadge, LockoutBadge } from '../../../components/ui/work-badges';
-import { formatWhen, relative } from './format';
+import { useShopFormat } from '../../../lib/format';
 
 /** The home page's short list: my open work, most pressing first. */
-export function MyWorkPanel({ timeZone, scope = 'mine' }: { timeZone: string; scope?: 'mine' | 'shop' }) {
+export function MyWorkPanel({ scope = 'mine' }: { scope?: 'mine' | 'shop' }) {
+  const f = useShopFormat();
   const who = scope === 'mine' ? { assignee: 'me' } : {};
   const base = scope === 'mine' ? '/work-orders?assignee=me' : '/work-orders?';
   const q = useWorkOrders({ page: 1, pageSize: 6, ...who, status: 'active', sort: 'dueAt', dir: 'asc' });
@@ -44,8 +45,8 @@ export function MyWorkPanel({ timeZone, scope = 'mine' }: { timeZone: string; sc
               <span className="ml-auto flex items-center gap-2 text-sm">
                 {w.requiresLockout ? <LockoutBadge /> : null}
                 <DueBadge state={w.dueState} />
-                <span className="text-steel-700" title={formatWhen(w.dueAt, timeZone)}>
-                  {relative(w.dueAt)}
+                <span className="text-steel-700" title={f.dateTime(w.dueAt)}>
+                  {f.relative(w.dueAt)}
                 </span>
               </span>
             </Link>

@@ -10,13 +10,14 @@ import { applyServerErrors } from '../../../lib/form-errors';
 import { useRecordPartUsed } from '../api/record-part-used';
 import { useReturnPart } from '../api/return-part';
 import { useLookups } from '../../../lib/lookups';
-import { formatWhen } from './format';
+import { useShopFormat } from '../../../lib/format';
 
 type In = z.input<typeof usePartInput>;
 type Out = z.output<typeof usePartInput>;
 
 /** Parts, oil and grease taken from stock for this work. Stock goes down as each line is recorded. */
-export function PartsUsed({ wo, timeZone, readOnly }: { wo: WorkOrderDetail; timeZone: string; readOnly: boolean }) {
+export function PartsUsed({ wo, readOnly }: { wo: WorkOrderDetail; readOnly: boolean }) {
+  const f = useShopFormat();
   const record = useRecordPartUsed();
   const giveBack = useReturnPart();
   const lookups = useLookups();
@@ -94,7 +95,7 @@ export function PartsUsed({ wo, timeZone, readOnly }: { wo: WorkOrderDetail; tim
                     {p.quantity} {p.stockUnit}
                   </td>
                   <td>
-                    {p.by} <span className="text-steel-600">{formatWhen(p.at, timeZone)}</span>
+                    {p.by} <span className="text-steel-600">{f.dateTime(p.at)}</span>
                   </td>
                   <td className="text-right">
                     {readOnly ? null : (

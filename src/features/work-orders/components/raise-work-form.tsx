@@ -10,7 +10,8 @@ import { Notice } from '../../../components/ui/notice';
 import { applyServerErrors } from '../../../lib/form-errors';
 import { useRaiseWorkOrder } from '../api/raise-work-order';
 import { useLookups } from '../../../lib/lookups';
-import { fromShopLocal, inputClass } from './format';
+import { inputClass } from './format';
+import { useShopFormat } from '../../../lib/format';
 
 type In = z.input<typeof raiseWorkOrderInput>;
 type Out = z.output<typeof raiseWorkOrderInput>;
@@ -20,13 +21,12 @@ export function RaiseWorkForm({
   onRaised,
   defaultMachineId,
   defaultInstructions,
-  timeZone,
 }: {
   onRaised: (r: { id: string; number: number }) => void;
   defaultMachineId?: string;
   defaultInstructions?: string;
-  timeZone: string;
 }) {
+  const f = useShopFormat();
   const raise = useRaiseWorkOrder();
   const lookups = useLookups();
   const [formError, setFormError] = useState<string | null>(null);
@@ -47,7 +47,7 @@ export function RaiseWorkForm({
   const onSubmit = handleSubmit(async (values) => {
     setFormError(null);
     try {
-      const r = await raise.mutateAsync({ ...values, dueAt: fromShopLocal(dueLocal, timeZone) });
+      const r = await raise.mutateAsync({ ...values, dueAt: f.fromLocalInput(dueLocal) });
       onRaised(r);
     } catch (err) {
       setFormError(applyServerErrors(err, setError, ['machineId', 'title', 'instructions', 'assigneeId', 'responsibleRole', 'dueAt']));

@@ -1,5 +1,5 @@
 import type { WorkOrderDetail } from '../../../../shared/schemas/work-orders';
-import { formatWhen } from './format';
+import { useShopFormat } from '../../../lib/format';
 
 const words: Record<string, string> = {
   'work-order.raised': 'Raised',
@@ -16,12 +16,13 @@ const words: Record<string, string> = {
   'work-order.closed': 'Signed off',
 };
 
-export function WorkHistory({ wo, timeZone }: { wo: WorkOrderDetail; timeZone: string }) {
+export function WorkHistory({ wo }: { wo: WorkOrderDetail }) {
+  const f = useShopFormat();
   return (
     <ol className="space-y-1 text-sm">
       {wo.history.map((h, i) => (
         <li key={i} className="flex flex-wrap gap-x-2">
-          <span className="text-steel-600">{formatWhen(h.at, timeZone)}</span>
+          <span className="text-steel-600">{f.dateTime(h.at)}</span>
           <span className="font-semibold">{words[h.action] ?? h.action}</span>
           <span>{h.who ?? 'Kerfbook schedule'}</span>
           {h.details && typeof h.details.reason === 'string' ? <span className="text-steel-700">— {h.details.reason}</span> : null}

@@ -5,10 +5,11 @@ import { ROLE_LABELS } from '../../../../shared/permissions';
 import type { WorkOrderDetail } from '../../../../shared/schemas/work-orders';
 import { paths } from '../../../config/paths';
 import { DueBadge, KindBadge, LockoutBadge, SafetyWorkBadge, StateBadge } from '../../../components/ui/work-badges';
-import { formatWhen, relative } from './format';
+import { useShopFormat } from '../../../lib/format';
 
 /** What the work is, where, when, and what must be in place before anyone starts. */
-export function WorkOrderSummary({ wo, timeZone }: { wo: WorkOrderDetail; timeZone: string }) {
+export function WorkOrderSummary({ wo }: { wo: WorkOrderDetail }) {
+  const f = useShopFormat();
   const open = wo.status !== 'done' && wo.status !== 'cancelled';
   return (
     <div className="grid gap-4 lg:grid-cols-[2fr_1fr]">
@@ -30,7 +31,7 @@ export function WorkOrderSummary({ wo, timeZone }: { wo: WorkOrderDetail; timeZo
             </dd>
             <dt className="font-semibold">Due</dt>
             <dd>
-              {formatWhen(wo.dueAt, timeZone)} {wo.dueAt && open ? <span className="text-steel-600">({relative(wo.dueAt)})</span> : null}
+              {f.dateTime(wo.dueAt)} {wo.dueAt && open ? <span className="text-steel-600">({f.relative(wo.dueAt)})</span> : null}
             </dd>
             <dt className="font-semibold">For</dt>
             <dd>{wo.assignee?.name ?? (wo.responsibleRole ? `Any ${ROLE_LABELS[wo.responsibleRole].toLowerCase()}` : '—')}</dd>
@@ -52,7 +53,7 @@ export function WorkOrderSummary({ wo, timeZone }: { wo: WorkOrderDetail; timeZo
             ) : null}
             <dt className="font-semibold">Raised</dt>
             <dd>
-              {formatWhen(wo.raisedAt, timeZone)}
+              {f.dateTime(wo.raisedAt)}
               {wo.raisedBy ? ` by ${wo.raisedBy.name}` : ' by the schedule'}
             </dd>
           </dl>
@@ -76,8 +77,8 @@ export function WorkOrderSummary({ wo, timeZone }: { wo: WorkOrderDetail; timeZo
             // Focus lands here once the work is signed off (the sign-off panel goes away).
             <div id="work-signed-off" tabIndex={-1}>
               <Notice tone="safe" title="Signed off">
-                {wo.completedBy?.name} signed this off on {formatWhen(wo.completedAt, timeZone)}.
-                {wo.plan?.nextDueAt ? ` The plan is next due ${formatWhen(wo.plan.nextDueAt, timeZone)}.` : ''}
+                {wo.completedBy?.name} signed this off on {f.dateTime(wo.completedAt)}.
+                {wo.plan?.nextDueAt ? ` The plan is next due ${f.dateTime(wo.plan.nextDueAt)}.` : ''}
               </Notice>
             </div>
           ) : null}
@@ -89,7 +90,7 @@ export function WorkOrderSummary({ wo, timeZone }: { wo: WorkOrderDetail; timeZo
           <Panel title="Lockout/tagout">
             {wo.lockoutReleasedAt ? (
               <Notice tone="safe" title="Released">
-                The lockout for this work was released on {formatWhen(wo.lockoutReleasedAt, timeZone)}.
+                The lockout for this work was released on {f.dateTime(wo.lockoutReleasedAt)}.
               </Notice>
             ) : wo.lockoutSessionId ? (
               <Notice tone="mandatory" title="Lockout applied">

@@ -17,7 +17,7 @@ import { useWorkOrders } from '../api/get-work-orders';
 import { useLookups } from '../../../lib/lookups';
 import { usePlanOptions } from '../api/get-plan-options';
 import { DueBadge, LockoutBadge, StateBadge } from '../../../components/ui/work-badges';
-import { formatWhen, relative } from './format';
+import { useShopFormat } from '../../../lib/format';
 
 const col = createColumnHelper<WorkOrderRow>();
 const filterClass = 'min-h-touch rounded border border-steel-400 bg-white px-3 font-normal';
@@ -27,19 +27,18 @@ const filterClass = 'min-h-touch rounded border border-steel-400 bg-white px-3 f
  * mails and on the home page open the right view. `fixed` filters (e.g. a plan's work) are not shown.
  */
 export function WorkOrdersTable({
-  timeZone,
   fixed = {},
   caption = 'Work orders',
   pageSize = 25,
   defaultStatus = 'active',
 }: {
-  timeZone: string;
   fixed?: Partial<ListWorkOrdersQuery>;
   caption?: string;
   pageSize?: number;
   /** 'active' lists unfinished work; 'any' includes signed-off and called-off work (a plan's history). */
   defaultStatus?: 'active' | 'any';
 }) {
+  const f = useShopFormat();
   const [params, setParams] = useSearchParams();
   const lookups = useLookups();
   const plans = usePlanOptions();
@@ -126,9 +125,9 @@ export function WorkOrdersTable({
         header: 'Due',
         cell: (c) => (
           <div className="whitespace-nowrap">
-            <div>{formatWhen(c.getValue(), timeZone)}</div>
+            <div>{f.dateTime(c.getValue())}</div>
             <div className="flex items-center gap-1 text-xs text-steel-600">
-              <DueBadge state={c.row.original.dueState} /> {c.row.original.dueState !== 'closed' ? relative(c.getValue()) : null}
+              <DueBadge state={c.row.original.dueState} /> {c.row.original.dueState !== 'closed' ? f.relative(c.getValue()) : null}
             </div>
           </div>
         ),
@@ -139,9 +138,9 @@ export function WorkOrdersTable({
         header: 'For',
         enableSorting: false,
       }),
-      col.accessor('raisedAt', { id: 'raisedAt', header: 'Raised', cell: (c) => formatWhen(c.getValue(), timeZone, false) }),
+      col.accessor('raisedAt', { id: 'raisedAt', header: 'Raised', cell: (c) => f.date(c.getValue()) }),
     ],
-    [timeZone],
+    [f],
   );
 
   return (
