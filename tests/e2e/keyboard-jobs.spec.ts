@@ -30,14 +30,16 @@ test('operator logs a consumable change at the station with the keyboard', async
   await expect(torch.getByRole('button', { name: 'Electrode + nozzle' })).toHaveAttribute('aria-pressed', 'true');
 
   // The selected reason is drawn dark: its focus ring must still show (WCAG 1.4.11).
-  await tabTo(page, torch.getByRole('radio', { name: 'Normal wear' }));
+  const worn = torch.getByRole('group', { name: 'Why the electrode came out' }).getByRole('button', { name: 'Worn' });
+  await expect(worn).toHaveAttribute('aria-pressed', 'true');
+  await tabTo(page, worn);
   await expectVisibleRing(page, 'selected change reason');
   await shot(page, 'focus-selected-reason');
 
   await markLiveRegions(page);
   await tabTo(page, torch.getByRole('button', { name: 'Record the change' }));
   await page.keyboard.press('Enter');
-  const confirmation = announced(page, 'Change recorded on C1-T: electrode and nozzle (normal wear).');
+  const confirmation = announced(page, /^Change recorded on C1-T: electrode \(worn\) and nozzle/);
   await expect(confirmation).toHaveCount(1);
   // The sheet is gone; focus is on its result, not lost to the page.
   await expect(confirmation).toBeFocused();
