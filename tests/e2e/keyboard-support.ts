@@ -25,7 +25,8 @@ export async function signInByKeyboard(page: Page, email: string) {
 
 /** The signing dialog opened from the keyboard: focus starts in it; type the password and press Enter. */
 export async function signByKeyboard(page: Page) {
-  const dialog = page.getByRole('dialog');
+  // The signing dialog by its title: it can open inside another dialog (a correction).
+  const dialog = page.getByRole('dialog', { name: /^Sign: / });
   await expect(dialog.getByLabel('Your password')).toBeFocused();
   await page.keyboard.type(DEMO_PASSWORD);
   await page.keyboard.press('Enter');
