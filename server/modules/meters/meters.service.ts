@@ -8,8 +8,6 @@ import { AppError, badRequest, conflict, fieldError, notFound } from '../../http
 import { recordActivity } from '../activity-log/activity-log.service';
 import { completeByStationRecord } from '../work-orders/station-completion';
 import { grouped, readingOrderProblem, readingTime, thinSeries } from '../../../shared/domain/meters';
-import { usageRatePerDay } from '../../../shared/domain/forecast';
-import { Organization } from '../organizations/organization.entity';
 import { convertUnit } from '../../../shared/domain/units';
 import { FORECAST_WINDOW_DAYS, windowedUsageRate } from '../../../shared/domain/forecast';
 import { loadMeterSeries } from '../plans/plan-inputs';

@@ -9,7 +9,15 @@ import { notFound } from '../../http/errors';
 import { summarizeTrigger, summarizeTriggers } from '../../../shared/domain/plan-summary';
 import { ROLE_LABELS } from '../../../shared/permissions';
 import type { Page } from '../../../shared/schemas/paging';
-import { stationRecordSummary, type DueState, type ListPlansQuery, type PlanDetail, type PlanLookups, type PlanRow, type StoredTrigger } from '../../../shared/schemas/plans';
+import {
+  stationRecordSummary,
+  type DueState,
+  type ListPlansQuery,
+  type PlanDetail,
+  type PlanLookups,
+  type PlanRow,
+  type StoredTrigger,
+} from '../../../shared/schemas/plans';
 
 const SORT_SQL: Record<ListPlansQuery['sort'], string> = {
   title: 'p.title',

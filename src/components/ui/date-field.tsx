@@ -1,8 +1,6 @@
 import { useId, useRef, useState } from 'react';
 import { datePattern, formatTypedDate, parseTypedDate } from '../../../shared/domain/typed-date';
-
-/** Until a shop can choose its own locale, every shop writes dates the one way the formatting uses. */
-export const SHOP_DATE_LOCALE = 'en-US';
+import { useShopFormat } from '../../lib/format';
 
 /**
  * A date that can be typed in the shop's usual form (11/01/2026) or ISO (2026-11-01), or picked
@@ -15,7 +13,7 @@ export function DateField({
   value,
   onChange,
   error,
-  locale = SHOP_DATE_LOCALE,
+  locale: givenLocale,
   min,
   className = '',
 }: {
@@ -24,10 +22,13 @@ export function DateField({
   onChange: (value: string) => void;
   /** A problem the page found (a reversed range), shown like a typing mistake. */
   error?: string | null;
+  /** The shop's locale unless given: its numeric date order is the one people type. */
   locale?: string;
   min?: string;
   className?: string;
 }) {
+  const shop = useShopFormat();
+  const locale = givenLocale ?? shop.locale;
   const id = useId();
   const picker = useRef<HTMLInputElement>(null);
   const pattern = datePattern(locale);

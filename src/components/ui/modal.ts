@@ -22,8 +22,11 @@ export function useModal(ref: RefObject<HTMLDialogElement | null>, open: boolean
       const active = document.activeElement;
       const lost = !active || active === document.body || !active.isConnected || dialog.contains(active);
       if (!lost) return null;
-      const usable = from && from.isConnected && !(from as HTMLButtonElement).disabled && from.getClientRects().length > 0;
-      const target = usable ? from : (fallbackRef.current?.() ?? mainHeading());
+      // A table that re-renders its cells replaces the opener with an identical button: find that one by its name.
+      const label = from?.getAttribute('aria-label');
+      const same = from && !from.isConnected && label ? document.querySelector<HTMLElement>(`${from.tagName}[aria-label="${CSS.escape(label)}"]`) : from;
+      const usable = same && same.isConnected && !(same as HTMLButtonElement).disabled && same.getClientRects().length > 0;
+      const target = usable ? same : (fallbackRef.current?.() ?? mainHeading());
       if (target && target.tagName === 'H1' && !target.hasAttribute('tabindex')) target.tabIndex = -1;
       return target;
     });

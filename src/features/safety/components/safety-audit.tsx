@@ -1,5 +1,5 @@
 // Over 400 lines: four audit components (filters and table, chain check, compliance, correction dialog) still share this file; a split into one file each is prepared but not merged yet.
-import { useRef, useState } from 'react';
+import { useMemo, useRef, useState } from 'react';
 import { useSearchParams } from 'react-router-dom';
 import { createColumnHelper, type SortingState } from '@tanstack/react-table';
 import { Bar, BarChart, CartesianGrid, Legend, Line, LineChart, ResponsiveContainer, Tooltip, XAxis, YAxis } from 'recharts';
@@ -325,6 +325,55 @@ export function SignOffAudit({ me }: { me: { name: string; role: Role } }) {
     dir: (sorting[0]?.desc ? 'desc' : 'asc') as 'asc' | 'desc',
   };
   const q = useSignOffs({ ...filters, page, pageSize: 25 }, !rangeError);
+  // Built once per shop format and role: new cell functions on every render would remount the cells, and the
+  // "Add correction" button that opened a dialog would no longer be there to take focus back.
+  const columns = useMemo(
+    () => [
+      col.accessor('seq', { header: '#' }),
+      col.accessor('signedAt', {
+        header: 'Signed',
+        cell: (c) => <span className="whitespace-nowrap">{f.dateTime(c.getValue() as string)}</span>,
+      }),
+      col.accessor('signerName', { header: 'Printed name', cell: (c) => <span className="font-semibold">{c.getValue() as string}</span> }),
+      col.accessor('signerRole', { header: 'Role', enableSorting: false, cell: (c) => ROLE_LABELS[c.getValue() as Role] ?? c.getValue() }),
+      col.accessor('meaning', {
+        header: 'Meaning',
+        cell: (c) => (
+          <span>
+            {MEANING_LABELS[c.getValue() as SignMeaning]}
+            {c.row.original.correctsSeq ? <span className="block text-xs">corrects #{c.row.original.correctsSeq}</span> : null}
+            {c.row.original.correctedBy.length ? <Badge tone="caution">{`corrected by #${c.row.original.correctedBy.join(', #')}`}</Badge> : null}
+          </span>
+        ),
+      }),
+      col.accessor('machineCode', { id: 'machine', header: 'Machine', cell: (c) => c.getValue() ?? '—' }),
+      col.accessor('summary', {
+        header: 'What was signed',
+        enableSorting: false,
+        cell: (c) => (
+          <span className="text-sm">
+            {c.getValue() as string}
+            {c.row.original.note ? <span className="block italic">Note: {c.row.original.note}</span> : null}
+          </span>
+        ),
+      }),
+      col.display({
+        id: 'correct',
+        header: 'Correction',
+        cell: (c) =>
+          me.role === 'safety' ? (
+            <Button
+              variant="secondary"
+              aria-label={`Add correction to #${c.row.original.seq}`}
+              onClick={() => (setMessage(null), setCorrecting(c.row.original))}
+            >
+              Add correction
+            </Button>
+          ) : null,
+      }),
+    ],
+    [f, me.role],
+  );
   const exportLink = 'flex min-h-touch items-center rounded border border-steel-400 bg-white px-4 font-semibold';
 
   return (
@@ -415,50 +464,7 @@ export function SignOffAudit({ me }: { me: { name: string; role: Role } }) {
             <DateField label="To" value={to} min={from || undefined} error={rangeError} onChange={(v) => setFilter('to', v)} />
           </div>
         }
-        columns={[
-          col.accessor('seq', { header: '#' }),
-          col.accessor('signedAt', {
-            header: 'Signed',
-            cell: (c) => <span className="whitespace-nowrap">{f.dateTime(c.getValue() as string)}</span>,
-          }),
-          col.accessor('signerName', { header: 'Printed name', cell: (c) => <span className="font-semibold">{c.getValue() as string}</span> }),
-          col.accessor('signerRole', { header: 'Role', enableSorting: false, cell: (c) => ROLE_LABELS[c.getValue() as Role] ?? c.getValue() }),
-          col.accessor('meaning', {
-            header: 'Meaning',
-            cell: (c) => (
-              <span>
-                {MEANING_LABELS[c.getValue() as SignMeaning]}
-                {c.row.original.correctsSeq ? <span className="block text-xs">corrects #{c.row.original.correctsSeq}</span> : null}
-                {c.row.original.correctedBy.length ? <Badge tone="caution">{`corrected by #${c.row.original.correctedBy.join(', #')}`}</Badge> : null}
-              </span>
-            ),
-          }),
-          col.accessor('machineCode', { id: 'machine', header: 'Machine', cell: (c) => c.getValue() ?? '—' }),
-          col.accessor('summary', {
-            header: 'What was signed',
-            enableSorting: false,
-            cell: (c) => (
-              <span className="text-sm">
-                {c.getValue() as string}
-                {c.row.original.note ? <span className="block italic">Note: {c.row.original.note}</span> : null}
-              </span>
-            ),
-          }),
-          col.display({
-            id: 'correct',
-            header: 'Correction',
-            cell: (c) =>
-              me.role === 'safety' ? (
-                <Button
-                  variant="secondary"
-                  aria-label={`Add correction to #${c.row.original.seq}`}
-                  onClick={() => (setMessage(null), setCorrecting(c.row.original))}
-                >
-                  Add correction
-                </Button>
-              ) : null,
-          }),
-        ]}
+        columns={columns}
       />
       {correcting ? (
         <CorrectionDialog

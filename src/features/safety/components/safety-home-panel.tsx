@@ -16,7 +16,7 @@ export function SafetyHomePanel({ role }: { role: Role }) {
     <Panel
       title="Safety"
       actions={
-        <Link className="font-semibold text-mandatory underline" to={paths.safety.getHref()}>
+        <Link className="inline-flex min-h-touch items-center font-semibold text-mandatory underline" to={paths.safety.getHref()}>
           Safety log
         </Link>
       }

@@ -25,7 +25,7 @@ export function WorkOrderSummary({ wo }: { wo: WorkOrderDetail }) {
           <dl className="grid grid-cols-[auto_1fr] gap-x-4 gap-y-1 text-sm">
             <dt className="font-semibold">Machine</dt>
             <dd>
-              <Link className="underline" to={paths.machine.getHref(wo.machine.id)}>
+              <Link className="inline-flex min-h-touch items-center underline" to={paths.machine.getHref(wo.machine.id)}>
                 {wo.machine.code} · {wo.machine.name}
               </Link>
             </dd>
@@ -39,7 +39,7 @@ export function WorkOrderSummary({ wo }: { wo: WorkOrderDetail }) {
               <>
                 <dt className="font-semibold">Plan</dt>
                 <dd>
-                  <Link className="underline" to={`/plans/${wo.plan.id}`}>
+                  <Link className="inline-flex min-h-touch items-center underline" to={`/plans/${wo.plan.id}`}>
                     {wo.plan.title}
                   </Link>
                 </dd>

@@ -1,4 +1,4 @@
-import { useMemo } from 'react';
+import { useMemo, useState } from 'react';
 import { Link, useSearchParams } from 'react-router-dom';
 import { createColumnHelper, type SortingState } from '@tanstack/react-table';
 import { DataTable } from '../../../components/ui/data-table';
@@ -68,6 +68,13 @@ export function WorkOrdersTable({
     ...fixed,
   };
   const q = useWorkOrders(filters);
+  // The search box keeps its own text: read back from the address, quick typing lost letters ("Rhe ps").
+  const [search, setSearch] = useState(get('q'));
+  const [searchInUrl, setSearchInUrl] = useState(get('q'));
+  if (searchInUrl !== get('q')) {
+    setSearchInUrl(get('q'));
+    if (get('q') !== search.trim()) setSearch(get('q'));
+  }
   const sorting: SortingState = [{ id: sort, desc: dir === 'desc' }];
 
   const columns = useMemo(
@@ -171,7 +178,15 @@ export function WorkOrdersTable({
           <>
             <label className="flex flex-col text-sm font-semibold">
               Search
-              <input className={filterClass} value={get('q')} placeholder="Title, machine or WO number" onChange={(e) => set('q', e.target.value)} />
+              <input
+                className={filterClass}
+                value={search}
+                placeholder="Title, machine or WO number"
+                onChange={(e) => {
+                  setSearch(e.target.value);
+                  set('q', e.target.value.trim());
+                }}
+              />
             </label>
             {fixed.machineId || fixed.planId ? null : (
               <label className="flex flex-col text-sm font-semibold">
