@@ -19,10 +19,13 @@ async function startApp(): Promise<Server> {
   const { initORM } = await import('../server/db');
   const { createApp } = await import('../server/app');
   const { loadConfig } = await import('../server/config');
+  const { ownerUrlFor } = await import('../server/db-roles');
   const config = loadConfig({
     ...process.env,
     NODE_ENV: 'production',
     DATABASE_URL: url,
+    // Production names its migration owner; the bench database was migrated by it.
+    MIGRATION_DATABASE_URL: ownerUrlFor(url),
     SESSION_SECRET: 'bench-session-secret-not-for-production',
     MAIL_CAPTURE: 'false',
     // The bundle measurement serves the built client too; the API bench does not need it.
