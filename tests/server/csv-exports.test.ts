@@ -1,7 +1,7 @@
 import { describe, it, expect, beforeAll, afterAll } from 'vitest';
 import Papa from 'papaparse';
 import { makeTestApp } from '../setup/test-app';
-import { approvedProcedure, get, makeSafetyShop, type SafetyShop } from './safety-helpers';
+import { approvedProcedure, cellProcedure, get, makeSafetyShop, type SafetyShop } from './safety-helpers';
 import { User } from '../../server/modules/users/user.entity';
 
 // A text cell that a spreadsheet would run ("CSV injection", OWASP) must come out as plain text.
@@ -18,7 +18,8 @@ beforeAll(async () => {
   const safety = await em.findOneOrFail(User, shop.users.safety.userId, { filters: false });
   safety.name = FORMULA;
   await em.flush();
-  await approvedProcedure(shop);
+  // Nobody is trained: the approval is the only signature.
+  await approvedProcedure(shop, cellProcedure(), shop.machineId, []);
 });
 afterAll(() => t.close());
 

@@ -176,6 +176,8 @@ describe('Idempotency-Key on signatures', () => {
     const expected = [
       'POST /safety/procedures/:id/versions/:version/approve',
       'POST /safety/lockouts',
+      'POST /safety/lockouts/:id/absent-removals',
+      'POST /safety/absent-removals/:id/steps',
       'POST /safety/lockouts/:id/verify',
       'POST /safety/lockouts/:id/join',
       'POST /safety/lockouts/:id/leave',

@@ -3,7 +3,19 @@ import { writeFileSync } from 'node:fs';
 import Papa from 'papaparse';
 import { makeTestApp } from '../setup/test-app';
 import { readPdf } from '../setup/pdf';
-import { appRole, approvedProcedure, get, lockPoints, makeSafetyShop, PASSWORD, post, shopToday, superuser, type SafetyShop } from './safety-helpers';
+import {
+  appRole,
+  approvedProcedure,
+  cellProcedure,
+  get,
+  lockPoints,
+  makeSafetyShop,
+  PASSWORD,
+  post,
+  shopToday,
+  superuser,
+  type SafetyShop,
+} from './safety-helpers';
 import { runScheduledPass } from '../../server/jobs/scheduler';
 import { initORM } from '../../server/db';
 import { WORK_CAUTION } from '../../shared/domain/cautions';
@@ -29,7 +41,8 @@ beforeAll(async () => {
   t = await makeTestApp();
   shop = await makeSafetyShop(t.app, t.em(), 'audit');
   other = await makeSafetyShop(t.app, t.em(), 'audit-other');
-  procId = await approvedProcedure(shop);
+  // Only the technician locks out here, so only the technician is trained (signature #2).
+  procId = await approvedProcedure(shop, cellProcedure(), shop.machineId, ['technician']);
   const req = await post(shop.s.safety, '/safety/ppe/requirements', {
     machineId: shop.machineId,
     task: 'Plasma cutting',
@@ -67,9 +80,10 @@ afterAll(() => t.close());
 describe('the safety officer’s audit', () => {
   it('lists signatures with filters, sorting and server paging', async () => {
     const all = await get(shop.s.safety, '/safety/sign-offs?sort=seq&dir=asc').expect(200);
-    expect(all.body.total).toBe(5);
+    expect(all.body.total).toBe(6);
     expect(all.body.rows.map((r: { meaning: string }) => r.meaning)).toEqual([
       'procedure-approved',
+      'training-recorded',
       'lockout-applied',
       'isolation-verified',
       'ppe-check-done',
@@ -77,7 +91,7 @@ describe('the safety officer’s audit', () => {
     ]);
     expect(all.body.rows.map((r: { signerName: string }) => r.signerName)).not.toContain(`safety of ${other.slug}`);
     const page2 = await get(shop.s.admin, '/safety/sign-offs?sort=seq&dir=asc&pageSize=2&page=2').expect(200);
-    expect(page2.body).toMatchObject({ total: 5, page: 2, pageSize: 2 });
+    expect(page2.body).toMatchObject({ total: 6, page: 2, pageSize: 2 });
     expect(page2.body.rows.map((r: { seq: number }) => r.seq)).toEqual([3, 4]);
     const tech = await get(shop.s.safety, `/safety/sign-offs?signerId=${shop.users.technician.userId}`).expect(200);
     expect(tech.body.total).toBe(3);
@@ -106,9 +120,9 @@ describe('the safety officer’s audit', () => {
     expect(res.headers['content-type']).toBe('text/csv; charset=utf-8');
     expect(res.headers['content-disposition']).toMatch(/^attachment; filename="safety-sign-offs-audit-/);
     const parsed = Papa.parse<Record<string, string>>(res.text.replace(/^\uFEFF/, ''), { header: true, skipEmptyLines: true });
-    expect(parsed.data).toHaveLength(5);
-    expect(parsed.data[1]).toMatchObject({
-      seq: '2',
+    expect(parsed.data).toHaveLength(6);
+    expect(parsed.data[2]).toMatchObject({
+      seq: '3',
       printed_name: `technician of ${shop.slug}`,
       role: 'Maintenance technician',
       meaning: 'Locks applied',
@@ -116,8 +130,8 @@ describe('the safety officer’s audit', () => {
       chain_check: 'verified',
       time_zone: 'America/Chicago',
     });
-    expect(parsed.data[1].signed_at_utc).toMatch(/^\d{4}-\d\d-\d\dT\d\d:\d\d:\d\d\.\d{3}Z$/);
-    expect(parsed.data[3].statement).toBe('I am wearing every item of PPE this task requires, in good condition.');
+    expect(parsed.data[2].signed_at_utc).toMatch(/^\d{4}-\d\d-\d\dT\d\d:\d\d:\d\d\.\d{3}Z$/);
+    expect(parsed.data[4].statement).toBe('I am wearing every item of PPE this task requires, in good condition.');
   });
 
   it('exports a PDF that names each signer and says the chain verified', async () => {
@@ -125,7 +139,7 @@ describe('the safety officer’s audit', () => {
     expect(res.status).toBe(200);
     const pdf = await readPdf(res.body as Buffer);
     const text = pdf.text.replace(/\s+/g, ' ');
-    expect(text).toContain('CHAIN VERIFIED — all 5 signatures of the shop are intact and in order');
+    expect(text).toContain('CHAIN VERIFIED — all 6 signatures of the shop are intact and in order');
     for (const n of [`safety of ${shop.slug}`, `technician of ${shop.slug}`, `operator of ${shop.slug}`]) expect(text).toContain(n);
     expect(text).toContain('Zero energy verified');
     if (process.env.KEEP_PDF) writeFileSync(process.env.KEEP_PDF, res.body as Buffer);
@@ -134,8 +148,8 @@ describe('the safety officer’s audit', () => {
 
   it('says so in the export when the chain is broken', async () => {
     const broken = await makeSafetyShop(t.app, t.em(), 'audit-broken');
-    await approvedProcedure(broken);
-    await approvedProcedure(broken);
+    await approvedProcedure(broken, cellProcedure(), broken.machineId, []);
+    await approvedProcedure(broken, cellProcedure(), broken.machineId, []);
     const su = await superuser();
     await su.query('begin');
     await su.query('set local session_replication_role = replica');
@@ -160,7 +174,7 @@ describe('the safety officer’s audit', () => {
     const tl = await get(shop.s.safety, '/safety/audit/timeline?weeks=4').expect(200);
     expect(tl.body).toHaveLength(4);
     const last = tl.body.at(-1);
-    expect(last.signOffs).toBe(5);
+    expect(last.signOffs).toBe(6);
     expect(last.lockouts).toBe(1);
     expect(last.inspectionsCurrentPct).toBe(100);
     await get(shop.s.safety, '/safety/audit/timeline?weeks=1').expect(400);

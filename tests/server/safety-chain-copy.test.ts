@@ -5,7 +5,7 @@ import { describe, it, expect, beforeAll, afterAll } from 'vitest';
 import type pg from 'pg';
 import type { MikroORM } from '@mikro-orm/postgresql';
 import { makeTestApp } from '../setup/test-app';
-import { approvedProcedure, get, makeSafetyShop, ownerRole, PASSWORD, post, type SafetyShop } from './safety-helpers';
+import { approvedProcedure, cellProcedure, get, makeSafetyShop, ownerRole, PASSWORD, post, type SafetyShop } from './safety-helpers';
 import { drainOutbox, pendingMails } from './work-orders-fixtures';
 import { chainHash, verifyChain } from '../../shared/domain/signature-chain';
 import { sha256Hex, signOffContent } from '../../server/modules/safety/chain';
@@ -87,7 +87,7 @@ async function chainAloneVerifies(orgId: string): Promise<boolean> {
 
 async function shopWithSignatures(label: string, checks: number): Promise<SafetyShop> {
   const shop = await makeSafetyShop(t.app, t.em(), label);
-  await approvedProcedure(shop);
+  await approvedProcedure(shop, cellProcedure(), shop.machineId, []);
   const req = await post(shop.s.safety, '/safety/ppe/requirements', {
     machineId: shop.machineId,
     task: 'Punching',

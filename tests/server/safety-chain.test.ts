@@ -1,6 +1,18 @@
 import { describe, it, expect, beforeAll, afterAll } from 'vitest';
 import { makeTestApp } from '../setup/test-app';
-import { appRole, approvedProcedure, countSignOffs, get, makeSafetyShop, ownerRole, PASSWORD, post, superuser, type SafetyShop } from './safety-helpers';
+import {
+  appRole,
+  approvedProcedure,
+  cellProcedure,
+  countSignOffs,
+  get,
+  makeSafetyShop,
+  ownerRole,
+  PASSWORD,
+  post,
+  superuser,
+  type SafetyShop,
+} from './safety-helpers';
 import { GENESIS_HASH, chainHash } from '../../shared/domain/signature-chain';
 import { sha256Hex, signOffContent } from '../../server/modules/safety/chain';
 
@@ -30,7 +42,7 @@ const ppeCheck = (shop: SafetyShop & { reqId: string }, who = shop.s.operator) =
 describe('sign-off chain', () => {
   it('links each signature to the one before it and verifies', async () => {
     const shop = await shopWithPpe('chain-ok');
-    await approvedProcedure(shop);
+    await approvedProcedure(shop, cellProcedure(), shop.machineId, []);
     for (let i = 0; i < 3; i++) await ppeCheck(shop).expect(201);
     const c = await appRole();
     const rows = (await c.query('select * from safety_sign_off where organization_id = $1 order by seq', [shop.orgId])).rows;
