@@ -39,7 +39,7 @@ test('operator logs a consumable change at the station with the keyboard', async
   await markLiveRegions(page);
   await tabTo(page, torch.getByRole('button', { name: 'Record the change' }));
   await page.keyboard.press('Enter');
-  const confirmation = announced(page, /^Change recorded on C1-T: electrode \(worn\) and nozzle/);
+  const confirmation = announced(page, /Change recorded on C1-T: electrode \(worn\) and nozzle/);
   await expect(confirmation).toHaveCount(1);
   // The sheet is gone; focus is on its result, not lost to the page.
   await expect(confirmation).toBeFocused();
