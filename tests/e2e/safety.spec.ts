@@ -306,12 +306,19 @@ test('the safety screens read well and pass the accessibility scan', async ({ pa
   await expectAccessible(page, 'procedure editor');
   await snap(page, 'safety-procedure-editor');
 
-  // Changing the approved procedure makes a draft; approving it with a signature puts it in force.
+  // A technician changes the approved procedure (a draft); the safety officer, not its author, approves it with a signature.
+  const techContext = await page.context().browser()!.newContext();
+  const tech = await techContext.newPage();
+  await signIn(tech, 'tech@alder-row.example');
+  await tech.goto('/safety/procedures');
+  await tech.getByRole('link', { name: /Energy isolation of Press brake/ }).click();
+  await tech.getByRole('link', { name: /Change this procedure/ }).click();
+  await tech.getByLabel('Scope: which work this procedure is for').fill('Tool changes, back-gauge work, and cleaning between the beams.');
+  await tech.getByRole('button', { name: 'Save draft' }).click();
+  await expect(tech.getByRole('heading', { name: 'Draft version 2' })).toBeVisible();
+  await techContext.close();
   await page.goto('/safety/procedures');
   await page.getByRole('link', { name: /Energy isolation of Press brake/ }).click();
-  await page.getByRole('link', { name: /Change this procedure/ }).click();
-  await page.getByLabel('Scope: which work this procedure is for').fill('Tool changes, back-gauge work, and cleaning between the beams.');
-  await page.getByRole('button', { name: 'Save draft' }).click();
   await expect(page.getByRole('heading', { name: 'Draft version 2' })).toBeVisible();
   await page.getByRole('button', { name: 'Sign: approve version 2' }).click();
   await signWith(page);

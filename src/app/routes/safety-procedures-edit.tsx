@@ -21,7 +21,7 @@ export function Component() {
   const create = useCreateProcedure();
   const save = useSaveDraft();
   if (!me) return null;
-  if (!can(me.role, 'safety.procedures.manage')) return <Notice tone="danger">Only the safety officer writes energy-control procedures.</Notice>;
+  if (!can(me.role, 'safety.procedures.draft')) return <Notice tone="danger">Only technicians and the safety officer write energy-control procedures.</Notice>;
   if (id && !existing.data)
     return existing.isError ? (
       <Notice tone="danger" role="alert">

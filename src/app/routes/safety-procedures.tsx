@@ -19,7 +19,7 @@ export function Component() {
         title="Energy-control procedures"
         subtitle="One written procedure per machine, approved by the safety officer; changes make a new version."
         actions={
-          can(me.role, 'safety.procedures.manage') ? (
+          can(me.role, 'safety.procedures.draft') ? (
             <Link className="flex min-h-touch items-center rounded bg-steel-800 px-4 font-semibold text-white" to={paths.safetyProcedureNew.getHref()}>
               Write a procedure
             </Link>

@@ -106,6 +106,8 @@ export function VersionText({ procedureId, v }: { procedureId: string; v: Versio
 export function ProcedureView({ p, me, viewingVersion }: { p: ProcedureDetail; me: { name: string; role: Role }; viewingVersion?: number }) {
   const f = useShopFormat();
   const manage = can(me.role, 'safety.procedures.manage');
+  // Technicians write and revise drafts; approving stays with the safety officer, never for their own draft.
+  const drafts = can(me.role, 'safety.procedures.draft');
   const approve = useApproveVersion();
   const upload = useUploadPhoto();
   const del = useDeletePhoto();
@@ -179,7 +181,7 @@ export function ProcedureView({ p, me, viewingVersion }: { p: ProcedureDetail; m
         <Panel
           title={`Draft version ${draft.version}`}
           actions={
-            manage ? (
+            drafts ? (
               <Link className="font-semibold underline" to={paths.safetyProcedureEdit.getHref(p.id)}>
                 Edit the draft
               </Link>
@@ -281,7 +283,7 @@ export function ProcedureView({ p, me, viewingVersion }: { p: ProcedureDetail; m
             </div>
           ) : null}
         </Panel>
-      ) : manage && shown?.status === 'approved' ? (
+      ) : drafts && shown?.status === 'approved' ? (
         <Link
           className="inline-flex min-h-touch items-center rounded border border-steel-400 bg-white px-4 font-semibold"
           to={paths.safetyProcedureEdit.getHref(p.id)}
