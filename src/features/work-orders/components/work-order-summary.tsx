@@ -76,7 +76,7 @@ export function WorkOrderSummary({ wo }: { wo: WorkOrderDetail }) {
           {wo.status === 'done' ? (
             // Focus lands here once the work is signed off (the sign-off panel goes away).
             <div id="work-signed-off" tabIndex={-1}>
-              <Notice tone="safe" title={wo.stationRecord ? 'Done at the station' : 'Signed off'}>
+              <Notice tone="safe" title={wo.stationRecord ? 'Done at the station' : 'Signed off'} role="status">
                 {wo.stationRecord ? (
                   <>
                     {wo.completedBy?.name} recorded it at the station on {f.dateTime(wo.completedAt)}: <strong>{wo.stationRecord.summary}</strong>. That record
