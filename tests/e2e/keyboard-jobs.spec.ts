@@ -13,18 +13,19 @@ async function apiCall(request: APIRequestContext, method: 'GET' | 'POST', url: 
 const SHOTS = '/tmp/shots-x';
 const shot = (page: Page, name: string) => page.screenshot({ path: `${SHOTS}/${name}.png` });
 
+// On cell 2, so the station specs find cell 1's torch and its scheduled work as the demo left them.
 test('operator logs a consumable change at the station with the keyboard', async ({ page }) => {
   await signInByKeyboard(page, 'operator@alder-row.example');
   await expect(page).toHaveTitle('Today — Kerfbook');
 
-  await tabTo(page, page.getByRole('link', { name: /^C1\b/ }).first());
+  await tabTo(page, page.getByRole('link', { name: /^C2\b/ }).first());
   await page.keyboard.press('Enter');
-  await expectArrived(page, 'Station C1 — Kerfbook', /^C1 · /);
+  await expectArrived(page, 'Station C2 — Kerfbook', /^C2 · /);
 
-  const torch = page.getByRole('region', { name: 'Torch C1-T' });
+  const torch = page.getByRole('region', { name: 'Torch C2-T' });
   await tabTo(page, torch.getByRole('button', { name: 'Log a change' }));
   await page.keyboard.press('Enter');
-  await expect(torch.getByRole('heading', { name: 'Log a change on C1-T' })).toBeFocused();
+  await expect(torch.getByRole('heading', { name: 'Log a change on C2-T' })).toBeFocused();
   await tabTo(page, torch.getByRole('button', { name: 'Electrode + nozzle' }));
   await page.keyboard.press('Space');
   await expect(torch.getByRole('button', { name: 'Electrode + nozzle' })).toHaveAttribute('aria-pressed', 'true');
@@ -39,7 +40,7 @@ test('operator logs a consumable change at the station with the keyboard', async
   await markLiveRegions(page);
   await tabTo(page, torch.getByRole('button', { name: 'Record the change' }));
   await page.keyboard.press('Enter');
-  const confirmation = announced(page, /Change recorded on C1-T: electrode \(worn\) and nozzle/);
+  const confirmation = announced(page, /Change recorded on C2-T: electrode \(worn\) and nozzle/);
   await expect(confirmation).toHaveCount(1);
   // The sheet is gone; focus is on its result, not lost to the page.
   await expect(confirmation).toBeFocused();
