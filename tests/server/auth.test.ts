@@ -96,6 +96,15 @@ describe('sign-in', () => {
     await limited.close();
   });
 
+  it('does not count successful sign-ins against the address (shared shop-floor tablets)', async () => {
+    const limited = await makeTestApp({ LOGIN_LIMIT_PER_ADDRESS: '2' });
+    for (let i = 0; i < 3; i++) await signIn(limited.app, shop.users.operator.email);
+    const { agent, csrf } = await anonymous(limited.app);
+    const res = await agent.post('/api/auth/login').set('X-CSRF-Token', csrf).send({ email: 'nobody@x.example', password: 'x' });
+    expect(res.status).toBe(401);
+    await limited.close();
+  });
+
   it('ends the session after the absolute timeout even when active', async () => {
     const short = await makeTestApp({ SESSION_ABSOLUTE_HOURS: '1' });
     const { agent } = await signIn(short.app, shop.users.operator.email);

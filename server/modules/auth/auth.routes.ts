@@ -16,9 +16,12 @@ function tooMany(message: string) {
 }
 
 export function registerAuthRoutes(r: ApiRouter, config: Config) {
+  // A shop's tablets often share one address, and a shift change signs many people in at
+  // once, so only failed attempts count here too.
   const perAddress = rateLimit({
     windowMs: 15 * 60_000,
     limit: config.LOGIN_LIMIT_PER_ADDRESS,
+    skipSuccessfulRequests: true,
     standardHeaders: 'draft-8',
     legacyHeaders: false,
     keyGenerator: (req) => ipKeyGenerator(req.ip ?? 'unknown'),
