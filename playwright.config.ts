@@ -30,7 +30,8 @@ export default defineConfig({
   webServer: {
     command: 'bash scripts/e2e-server.sh',
     url: `http://127.0.0.1:${port}/api/health`,
-    timeout: 120_000,
+    // Migrating and seeding the demo shop can take minutes on a busy machine.
+    timeout: 600_000,
     reuseExistingServer: false,
     stdout: 'pipe',
   },

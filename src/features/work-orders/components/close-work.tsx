@@ -12,10 +12,18 @@ export function CloseWork({ wo }: { wo: WorkOrderDetail }) {
   const f = useShopFormat();
   const close = useCloseWorkOrder();
   const [message, setMessage] = useState<{ tone: 'danger' | 'safe'; text: string } | null>(null);
+  // Safety work is signed like the safety log's records: the signer types their password again.
+  const [password, setPassword] = useState('');
   const signOff = async () => {
     setMessage(null);
+    if (wo.safetyCritical && !password) {
+      setMessage({ tone: 'danger', text: 'Safety work is signed with your password: enter it to sign off.' });
+      document.getElementById('signoff-password')?.focus();
+      return;
+    }
     try {
-      const r = await close.mutateAsync({ id: wo.id });
+      const r = await close.mutateAsync({ id: wo.id, ...(wo.safetyCritical ? { password } : {}) });
+      setPassword('');
       const text = r.planNextDueAt ? `Signed off. The plan is next due ${f.dateTime(r.planNextDueAt)}.` : 'Signed off.';
       setMessage({ tone: 'safe', text });
       // This panel goes away with the open work: the page's announcer says it, and focus goes to the record of the sign-off.
@@ -40,6 +48,19 @@ export function CloseWork({ wo }: { wo: WorkOrderDetail }) {
           Checklist complete{wo.requiresLockout ? ' and lockout released' : ''}.
         </Notice>
       )}
+      {wo.safetyCritical ? (
+        <label className="block max-w-sm font-semibold" htmlFor="signoff-password">
+          Your password, to sign this safety work
+          <input
+            id="signoff-password"
+            type="password"
+            autoComplete="current-password"
+            value={password}
+            onChange={(e) => setPassword(e.target.value)}
+            className="mt-1 block min-h-touch w-full rounded border border-steel-400 bg-white px-3 py-2 text-base font-normal"
+          />
+        </label>
+      ) : null}
       <Button onClick={signOff} busy={close.isPending} disabled={wo.closeBlockers.length > 0} aria-describedby="signoff-help">
         Sign off the work
       </Button>
