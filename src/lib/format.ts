@@ -1,4 +1,3 @@
-import { DateTime } from 'luxon';
 import { createContext, createElement, useContext, useMemo, type ReactNode } from 'react';
 import {
   DEFAULT_SHOP_LOCALE,
@@ -9,9 +8,7 @@ import {
   formatNumber,
   formatRelative,
   formatTime,
-  fromShopLocal,
   todayIn,
-  toShopLocal,
   type Instant,
   type NumberStyle,
   type ShopClock,
@@ -30,7 +27,11 @@ const SINGULAR: Record<string, string> = {
 };
 export const unitFor = (n: number, unit: string) => (Math.abs(n) === 1 ? (SINGULAR[unit] ?? unit) : unit);
 
-/** Every way the client shows a time or a number, bound to one shop's zone and locale (rules in shared/locale.ts). */
+/**
+ * Every way the client shows a time or a number, bound to one shop's zone and locale (rules in
+ * shared/locale.ts). Intl only, so every page can show times without luxon; datetime-local
+ * fields read and write through `useShopInput()` (./shop-time).
+ */
 export function shopFormat(shop: ShopClock) {
   return {
     timeZone: shop.timeZone,
@@ -47,8 +48,6 @@ export function shopFormat(shop: ShopClock) {
     relative: (iso: string | null | undefined) => formatRelative(iso, shop.locale),
     /** Today's date (YYYY-MM-DD) on the shop's clock */
     today: () => todayIn(shop.timeZone),
-    toLocalInput: (iso: string | null) => toShopLocal(iso, shop.timeZone),
-    fromLocalInput: (local: string) => fromShopLocal(local, shop.timeZone),
     /** "12,345.6" (at most one decimal unless told) */
     number: (n: number, style?: NumberStyle) => formatNumber(n, shop.locale, style),
     /** "3 pcs", "1 pc" */
@@ -59,7 +58,7 @@ export function shopFormat(shop: ShopClock) {
 export type ShopFormat = ReturnType<typeof shopFormat>;
 
 // Before sign-in (and in isolated component tests) there is no shop: the viewer's zone and the default locale.
-const fallback = shopFormat({ timeZone: DateTime.local().zoneName, locale: DEFAULT_SHOP_LOCALE });
+const fallback = shopFormat({ timeZone: Intl.DateTimeFormat().resolvedOptions().timeZone, locale: DEFAULT_SHOP_LOCALE });
 const ShopFormatContext = createContext<ShopFormat>(fallback);
 
 /** Given once by the signed-in layout, from the principal's shop (`/api/me`). */

@@ -1,14 +1,20 @@
-import { DateTime } from 'luxon';
+import { useMemo } from 'react';
+import { fromShopLocal, toShopLocal } from '../../shared/locale-input';
+import { useShopFormat } from './format';
 
 // Wall-clock conversions for datetime-local fields, apart from ./format so that pages without
 // such a field (the station) do not load luxon.
 
-/** An instant as "YYYY-MM-DDTHH:mm" in the shop's zone, for a datetime-local field. */
-export function toShopLocal(iso: string | null, timeZone: string): string {
-  return iso ? DateTime.fromISO(iso).setZone(timeZone).toFormat("yyyy-MM-dd'T'HH:mm") : '';
-}
-
-/** A datetime-local value read in the shop's zone (not the browser's) as an ISO instant, or null. */
-export function fromShopLocal(local: string, timeZone: string): string | null {
-  return local ? DateTime.fromISO(local, { zone: timeZone }).toUTC().toISO() : null;
+/** A datetime-local field's value on the signed-in shop's clock: `const input = useShopInput(); input.toLocalInput(wo.dueAt)`. */
+export function useShopInput() {
+  const { timeZone } = useShopFormat();
+  return useMemo(
+    () => ({
+      /** An instant as "YYYY-MM-DDTHH:mm" on the shop's clock */
+      toLocalInput: (iso: string | null) => toShopLocal(iso, timeZone),
+      /** A field's "YYYY-MM-DDTHH:mm" read on the shop's clock, as an ISO instant (null when empty) */
+      fromLocalInput: (local: string) => fromShopLocal(local, timeZone),
+    }),
+    [timeZone],
+  );
 }

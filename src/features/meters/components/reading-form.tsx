@@ -11,6 +11,7 @@ import { applyServerErrors } from '../../../lib/form-errors';
 import { useAddReading } from '../api/add-reading';
 import { formatValue } from './format';
 import { useShopFormat } from '../../../lib/format';
+import { useShopInput } from '../../../lib/shop-time';
 
 type In = z.input<typeof readingInputSchema>;
 type Out = z.output<typeof readingInputSchema>;
@@ -18,6 +19,7 @@ type Out = z.output<typeof readingInputSchema>;
 /** Type in a reading. Counts and hours must not go backwards unless marked as a reset. */
 export function ReadingForm({ meter }: { meter: MeterRow }) {
   const f = useShopFormat();
+  const input = useShopInput();
   const add = useAddReading();
   const [formError, setFormError] = useState<string | null>(null);
   const [saved, setSaved] = useState<string | null>(null);
@@ -81,7 +83,7 @@ export function ReadingForm({ meter }: { meter: MeterRow }) {
         type="datetime-local"
         hint="Leave empty for now"
         error={formState.errors.readAt?.message}
-        {...register('readAt', { setValueAs: (v: string) => f.fromLocalInput(v) ?? undefined })}
+        {...register('readAt', { setValueAs: (v: string) => input.fromLocalInput(v) ?? undefined })}
       />
       {cumulative ? (
         <label className="flex min-h-touch items-center gap-3 text-base">

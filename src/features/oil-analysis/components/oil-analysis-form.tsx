@@ -10,7 +10,7 @@ import { Notice } from '../../../components/ui/notice';
 import { SelectField, TextField } from '../../../components/ui/field';
 import { applyServerErrors } from '../../../lib/form-errors';
 import { useRecordOilAnalysis } from '../api/record-oil-analysis';
-import { useShopFormat } from '../../../lib/format';
+import { useShopInput } from '../../../lib/shop-time';
 
 type In = z.input<typeof oilAnalysisInput>;
 type Out = z.output<typeof oilAnalysisInput>;
@@ -19,11 +19,11 @@ const numOrNull = (x: unknown) => (x === '' || x === null || x === undefined ? n
 
 /** Enter a lab (or on-site counter) result; the ISO 4406 code is worked out as you type. */
 export function OilAnalysisForm({ units, defaultMachineId }: { units: HydraulicUnitView[]; defaultMachineId?: string }) {
-  const f = useShopFormat();
+  const input = useShopInput();
   const record = useRecordOilAnalysis();
   const [formError, setFormError] = useState<string | null>(null);
   const [saved, setSaved] = useState<OilAnalysisRow | null>(null);
-  const [sampled, setSampled] = useState(() => f.toLocalInput(new Date().toISOString()));
+  const [sampled, setSampled] = useState(() => input.toLocalInput(new Date().toISOString()));
   const { register, handleSubmit, setError, formState, watch, reset } = useForm<In, unknown, Out>({
     resolver: zodResolver(oilAnalysisInput),
     defaultValues: {
@@ -47,7 +47,7 @@ export function OilAnalysisForm({ units, defaultMachineId }: { units: HydraulicU
     setSaved(null);
     try {
       // Read in the site's zone, whatever the browser's zone.
-      const r = await record.mutateAsync({ ...v, sampledAt: f.fromLocalInput(sampled)! });
+      const r = await record.mutateAsync({ ...v, sampledAt: input.fromLocalInput(sampled)! });
       setSaved(r);
       reset({ machineId: v.machineId, sampledAt: new Date().toISOString(), viscosity40: null, waterPpm: null, temperatureC: null });
     } catch (err) {

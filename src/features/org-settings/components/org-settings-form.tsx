@@ -7,7 +7,8 @@ import { Button } from '../../../components/ui/button';
 import { Notice } from '../../../components/ui/notice';
 import { applyServerErrors } from '../../../lib/form-errors';
 import { useShopFormat } from '../../../lib/format';
-import { formatDateTime, isTimeZone } from '../../../../shared/locale';
+import { formatDateTime } from '../../../../shared/locale';
+import { isTimeZone } from '../../../../shared/locale-input';
 import { useUpdateOrganization, type OrganizationSettings } from '../api/organization';
 
 const zones = typeof Intl.supportedValuesOf === 'function' ? Intl.supportedValuesOf('timeZone') : [];

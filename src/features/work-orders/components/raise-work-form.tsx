@@ -11,7 +11,7 @@ import { applyServerErrors } from '../../../lib/form-errors';
 import { useRaiseWorkOrder } from '../api/raise-work-order';
 import { useLookups } from '../../../lib/lookups';
 import { inputClass } from './format';
-import { useShopFormat } from '../../../lib/format';
+import { useShopInput } from '../../../lib/shop-time';
 
 type In = z.input<typeof raiseWorkOrderInput>;
 type Out = z.output<typeof raiseWorkOrderInput>;
@@ -26,7 +26,7 @@ export function RaiseWorkForm({
   defaultMachineId?: string;
   defaultInstructions?: string;
 }) {
-  const f = useShopFormat();
+  const input = useShopInput();
   const raise = useRaiseWorkOrder();
   const lookups = useLookups();
   const [formError, setFormError] = useState<string | null>(null);
@@ -47,7 +47,7 @@ export function RaiseWorkForm({
   const onSubmit = handleSubmit(async (values) => {
     setFormError(null);
     try {
-      const r = await raise.mutateAsync({ ...values, dueAt: f.fromLocalInput(dueLocal) });
+      const r = await raise.mutateAsync({ ...values, dueAt: input.fromLocalInput(dueLocal) });
       onRaised(r);
     } catch (err) {
       setFormError(applyServerErrors(err, setError, ['machineId', 'title', 'instructions', 'assigneeId', 'responsibleRole', 'dueAt']));

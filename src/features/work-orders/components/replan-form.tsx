@@ -6,21 +6,21 @@ import { Notice } from '../../../components/ui/notice';
 import { useUpdateWorkOrder } from '../api/update-work-order';
 import { useLookups } from '../../../lib/lookups';
 import { inputClass } from './format';
-import { useShopFormat } from '../../../lib/format';
+import { useShopInput } from '../../../lib/shop-time';
 
 /** Name who does the work and when it is needed by. */
 export function ReplanForm({ wo }: { wo: WorkOrderDetail }) {
-  const f = useShopFormat();
+  const input = useShopInput();
   const update = useUpdateWorkOrder();
   const lookups = useLookups();
   const [assignee, setAssignee] = useState(wo.assignee?.id ?? '');
-  const [due, setDue] = useState(f.toLocalInput(wo.dueAt));
+  const [due, setDue] = useState(input.toLocalInput(wo.dueAt));
   const [message, setMessage] = useState<{ tone: 'danger' | 'safe'; text: string } | null>(null);
   const save = async (e: React.FormEvent) => {
     e.preventDefault();
     setMessage(null);
     try {
-      await update.mutateAsync({ id: wo.id, assigneeId: assignee || null, dueAt: f.fromLocalInput(due) });
+      await update.mutateAsync({ id: wo.id, assigneeId: assignee || null, dueAt: input.fromLocalInput(due) });
       setMessage({ tone: 'safe', text: 'Saved.' });
     } catch (err) {
       setMessage({ tone: 'danger', text: err instanceof Error ? err.message : 'Could not save' });
