@@ -15,11 +15,11 @@ test.describe('station records do scheduled work', () => {
   test.use(tablet);
 
   test('an electrode + nozzle change at the station signs off the open work order of the plan that names it', async ({ page }) => {
-    // The state this test needs, made here: a plan on C1 done by an electrode + nozzle change,
+    // The state this test needs, made here: a plan on P1 done by an electrode + nozzle change,
     // due one arc start after it starts, and a pass that raises its work order.
     await signIn(page, 'admin@alder-row.example');
-    const station = await apiCall(page.request, 'GET', '/stations/C1');
-    const torch = station.torches.find((t: { code: string }) => t.code === 'C1-T');
+    const station = await apiCall(page.request, 'GET', '/stations/P1');
+    const torch = station.torches.find((t: { code: string }) => t.code === 'P1-T');
     const startsMeter = torch.startsMeter;
     const title = `Electrode and nozzle check ${Date.now().toString(36)}`;
     const plan = await apiCall(page.request, 'POST', '/plans', {
@@ -40,8 +40,8 @@ test.describe('station records do scheduled work', () => {
     await signOut(page);
 
     await signIn(page, 'operator@alder-row.example');
-    await page.goto('/station/C1');
-    const dueList = page.getByRole('region', { name: 'Due on C1' });
+    await page.goto('/station/P1');
+    const dueList = page.getByRole('region', { name: 'Due on P1' });
     await expect(dueList).toContainText(`#${wo.number}`);
     await snap(page, 'station-work-before');
     await page.getByRole('button', { name: 'Log a change' }).tap();
@@ -52,7 +52,7 @@ test.describe('station records do scheduled work', () => {
     await counter.tap();
     await expect.poll(() => counter.evaluate((el: HTMLInputElement) => el.value.slice(el.selectionStart ?? 0, el.selectionEnd ?? 0))).toBe(before);
     await page.getByRole('button', { name: 'Record the change' }).tap();
-    // The demo's own electrode/nozzle plan on C1 may have open work too: it is signed off beside ours.
+    // The demo's own electrode/nozzle plan on P1 may have open work too: it is signed off beside ours.
     const done = page
       .getByRole('status')
       .filter({ hasText: new RegExp(`It also did the scheduled work (WO \\d+, )*WO ${wo.number}(, WO \\d+)*, now signed off\\.`) });
@@ -68,7 +68,7 @@ test.describe('station records do scheduled work', () => {
     await expect(page).toHaveURL(new RegExp(`/work-orders/${wo.id}$`));
     const signedOff = page.getByRole('status').filter({ hasText: 'Done at the station' });
     await expect(signedOff).toContainText('recorded it at the station');
-    await expect(signedOff).toContainText('Consumable change on C1-T: electrode + nozzle');
+    await expect(signedOff).toContainText('Consumable change on P1-T: electrode + nozzle');
     await snap(page, 'station-work-order-done');
     await expectAccessible(page, 'work order done at the station');
   });

@@ -37,12 +37,10 @@ export function CountersForm({ meters }: { meters: MeterRow[] }) {
       setValues((v) => Object.fromEntries(Object.entries(v).filter(([id]) => !kept.has(id))));
       setResets((r) => Object.fromEntries(Object.entries(r).filter(([id]) => !kept.has(id))));
       setErrors(Object.fromEntries(res.refused.map((f) => [f.meterId, f.message])));
+      const refusedText = `Not recorded: ${res.refused.map((f) => label(f.meterId)).join(', ')} (see the field).`;
+      if (!res.kept.length) return setMessage({ tone: 'danger', text: `Nothing recorded. ${refusedText}` });
       const keptText = `Recorded ${res.kept.length} reading${res.kept.length === 1 ? '' : 's'}: ${res.kept.map(label).join(', ')}.`;
-      setMessage(
-        res.refused.length
-          ? { tone: 'caution', text: `${keptText} Not recorded: ${res.refused.map((f) => label(f.meterId)).join(', ')} (see the field).` }
-          : { tone: 'safe', text: keptText },
-      );
+      setMessage(res.refused.length ? { tone: 'caution', text: `${keptText} ${refusedText}` } : { tone: 'safe', text: keptText });
     } catch (err) {
       if (err instanceof ApiError && err.fields.length) {
         // Field paths are readings.<i>.value, in the order sent.
@@ -72,11 +70,11 @@ export function CountersForm({ meters }: { meters: MeterRow[] }) {
               onChange={(ev) => setValues((v) => ({ ...v, [m.id]: ev.target.value }))}
               onFocus={selectOnFocus}
               aria-invalid={errors[m.id] ? true : undefined}
-              aria-describedby={`counter-${m.id}-hint`}
+              aria-describedby={errors[m.id] ? `counter-${m.id}-error` : `counter-${m.id}-hint`}
               className={`block min-h-touch w-full rounded border bg-white px-3 ${errors[m.id] ? 'border-danger ring-1 ring-danger' : 'border-steel-400'}`}
             />
             {errors[m.id] ? (
-              <p role="alert" className="text-sm font-semibold text-danger">
+              <p id={`counter-${m.id}-error`} role="alert" className="text-sm font-semibold text-danger">
                 {errors[m.id]}
               </p>
             ) : (
