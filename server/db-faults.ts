@@ -9,7 +9,7 @@ const UNAVAILABLE_SQLSTATES = new Set(['57P01', '57P02', '57P03', '53300']);
 const UNAVAILABLE_ERRNOS = new Set(['ECONNREFUSED', 'ECONNRESET', 'ETIMEDOUT', 'EPIPE', 'EHOSTUNREACH', 'ENETUNREACH', 'ENOTFOUND', 'EAI_AGAIN']);
 // pg and knex report a lost or unobtainable connection by message only.
 const UNAVAILABLE_MESSAGES =
-  /Connection terminated|Connection ended unexpectedly|not queryable|timeout exceeded when trying to connect|Timeout acquiring a connection|the database system is (starting up|shutting down|in recovery mode)/i;
+  /Connection terminated|Connection ended unexpectedly|not queryable|timeout exceeded when trying to connect|^timeout expired$|Timeout acquiring a connection|the database system is (starting up|shutting down|in recovery mode)/i;
 
 /** True when `err` (or an error it wraps) says the database is unreachable, so the answer is 503, not 500. */
 export function isDatabaseUnavailable(err: unknown, depth = 0): boolean {

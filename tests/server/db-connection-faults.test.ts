@@ -59,6 +59,8 @@ describe('connections dropped under a running app (in-process)', () => {
     expect(isDatabaseUnavailable(Object.assign(new Error('connect ECONNREFUSED 127.0.0.1:1'), { code: 'ECONNREFUSED' }))).toBe(true);
     expect(isDatabaseUnavailable(new Error('Connection terminated unexpectedly'))).toBe(true);
     expect(isDatabaseUnavailable(Object.assign(new Error('Knex: Timeout acquiring a connection.'), { name: 'KnexTimeoutError' }))).toBe(true);
+    // pg's own connect timeout (connectionTimeoutMillis) while the server is too busy to finish the handshake.
+    expect(isDatabaseUnavailable(new Error('timeout expired'))).toBe(true);
     expect(isDatabaseUnavailable(new Error('wrapped', { cause: Object.assign(new Error('x'), { code: '08006' }) }))).toBe(true);
     // Faults of the request or the code stay what they are.
     expect(isDatabaseUnavailable(Object.assign(new Error('duplicate key value'), { code: '23505' }))).toBe(false);
