@@ -28,7 +28,7 @@ import { pointTag, type ProcedureContent, type EnergySource, type MinorTask } fr
 import type { PpeItem } from '../shared/schemas/safety-ppe';
 import type { SeedStep } from './demo';
 import { clock } from '../shared/clock';
-import { shopLocale } from '../shared/locale';
+import { formatDateTime, shopLocale } from '../shared/locale';
 
 const src = (s: EnergySource) => s;
 
@@ -349,7 +349,8 @@ export const seedSafetyDemo: SeedStep = async (rootEm, shop) => {
   const now = DateTime.fromMillis(clock.ms()).setZone(tz);
   const day = (daysAgo: number, hour: number, minute = 0) => now.minus({ days: daysAgo }).set({ hour, minute, second: 0, millisecond: 0 }).toJSDate();
   const dateOf = (d: Date) => DateTime.fromJSDate(d, { zone: tz }).toISODate()!;
-  const hm = (d: Date) => DateTime.fromJSDate(d, { zone: tz }).toFormat("HH:mm 'on' d LLL yyyy ('" + tz + "')");
+  // As the fire-watch service words its summaries (server/modules/safety/records.service.ts).
+  const hm = (d: Date) => `${formatDateTime(d, { timeZone: tz, locale: shopLocale() })} (${tz})`;
 
   await em.transactional(async (tx) => {
     const events: Ev[] = [];

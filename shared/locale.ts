@@ -74,10 +74,8 @@ function weekdayOf(year: number, month: number, day: number): number {
   return (new Date(Date.UTC(year, month - 1, day)).getUTCDay() + 6) % 7;
 }
 
-/** The shop's wall clock at `at`, or null for an invalid instant or an unknown zone. */
-function wallAt(at: Instant, timeZone: string): Wall | null {
-  const ms = instantMs(at);
-  if (!Number.isFinite(ms) || Math.abs(ms) > 8.64e15) return null;
+/** The wall clock Intl reads for `ms` in the zone, or null for a zone this runtime does not know. */
+function exactWall(ms: number, timeZone: string): Wall | null {
   let parts: Intl.DateTimeFormatPart[];
   try {
     parts = wallFormat(timeZone).formatToParts(ms);
@@ -93,6 +91,57 @@ function wallAt(at: Instant, timeZone: string): Wall | null {
   if (bc) w.year = 1 - w.year;
   w.weekday = weekdayOf(w.year, w.month, w.day);
   return w;
+}
+
+const HOUR_MS = 3_600_000;
+const MAX_HOURS_PER_ZONE = 200_000;
+const wholeSecond = (ms: number) => ms - (((ms % 1000) + 1000) % 1000);
+
+/** The zone's offset from UTC in ms at `ms`, as Intl gives it (to the second). */
+function exactOffset(ms: number, timeZone: string): number | null {
+  const w = exactWall(ms, timeZone);
+  if (!w) return null;
+  const d = new Date(0);
+  d.setUTCFullYear(w.year, w.month - 1, w.day); // setUTCFullYear, unlike Date.UTC, keeps years 0–99
+  d.setUTCHours(w.hour, w.minute, w.second, 0);
+  return d.getTime() - wholeSecond(ms);
+}
+
+// Offsets remembered per zone and UTC hour: formatToParts costs several times the rest of a
+// format, and the due pass formats hundreds of thousands of instants. An hour whose start and end
+// have the same offset holds no change of offset (no zone changes twice within an hour); an hour
+// with a change is never remembered and is read from Intl each time, so answers stay Intl's.
+const hourOffsets = new Map<string, Map<number, number>>();
+
+function offsetInHour(ms: number, timeZone: string): number | null {
+  let hours = hourOffsets.get(timeZone);
+  const hour = Math.floor(ms / HOUR_MS);
+  const known = hours?.get(hour);
+  if (known !== undefined) return known;
+  const start = exactOffset(hour * HOUR_MS, timeZone);
+  if (start === null || start !== exactOffset(hour * HOUR_MS + HOUR_MS - 1, timeZone)) return null;
+  if (!hours) hourOffsets.set(timeZone, (hours = new Map()));
+  if (hours.size >= MAX_HOURS_PER_ZONE) hours.clear();
+  hours.set(hour, start);
+  return start;
+}
+
+/** The shop's wall clock at `at`, or null for an invalid instant or an unknown zone. */
+function wallAt(at: Instant, timeZone: string): Wall | null {
+  const ms = instantMs(at);
+  if (!Number.isFinite(ms) || Math.abs(ms) > 8.64e15) return null;
+  const offset = offsetInHour(ms, timeZone);
+  const local = offset === null ? null : new Date(wholeSecond(ms) + offset);
+  if (!local || Number.isNaN(local.getTime())) return exactWall(ms, timeZone);
+  return {
+    year: local.getUTCFullYear(),
+    month: local.getUTCMonth() + 1,
+    day: local.getUTCDate(),
+    hour: local.getUTCHours(),
+    minute: local.getUTCMinutes(),
+    second: local.getUTCSeconds(),
+    weekday: (local.getUTCDay() + 6) % 7,
+  };
 }
 
 function plainDay(ymd: string): Wall | null {

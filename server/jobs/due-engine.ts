@@ -27,6 +27,7 @@ import { evaluationHash, pendingRaise } from '../modules/plans/plan-status';
 import { humanReason, type MeterLabel } from '../modules/plans/plan-reason';
 import type { EvaluatePlansNow } from '../modules/plans/plan-evaluation';
 import { clock } from '../../shared/clock';
+import { shopLocale } from '../../shared/locale';
 import { logger } from '../logger';
 import { Run, errorText, type Evaluated, type Org, type OrgStats } from './due-engine-run';
 import { writeStatuses } from './due-engine-statuses';
@@ -151,7 +152,7 @@ async function evaluateAll(orm: MikroORM, em: EntityManager, run: Run, now: Date
             hash: evaluationHash(ev, org.time_zone, names),
             inputsAt: inputsAtOf(row, latest),
             newBaselines,
-            human: (s) => humanReason(s, (id) => labels.get(id), org.time_zone),
+            human: (s) => humanReason(s, (id) => labels.get(id), { timeZone: org.time_zone, locale: shopLocale() }),
           });
         } catch (err) {
           run.error(row.organization_id, errorText(err), row.id);

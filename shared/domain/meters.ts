@@ -6,6 +6,7 @@
  * Pure: no I/O; runs in the browser too.
  */
 import type { MeterKind } from '../schemas/machines';
+import { formatDateTime, formatNumber, type ShopClock } from '../locale';
 
 export interface TimedReading {
   at: Date;
@@ -13,32 +14,24 @@ export interface TimedReading {
   isReset: boolean;
 }
 
-// Fixed locale: the same message comes from the server and the browser, and large counters need grouping to be read.
-export const grouped = new Intl.NumberFormat('en-US', { maximumFractionDigits: 3 });
-
-/**
- * A reading's time in a message, as the shop's clocks show it (the screens show readings in the
- * shop's zone, so a UTC time beside them read as a different reading); UTC, named, without a zone.
- */
-export function readingTime(at: Date, timeZone?: string): string {
-  if (!timeZone) return `${at.toISOString().slice(0, 16).replace('T', ' ')} UTC`;
-  return new Intl.DateTimeFormat('en-GB', { dateStyle: 'medium', timeStyle: 'short', hourCycle: 'h23', timeZone }).format(at);
-}
+/** A reading's value in a message: grouped in the shop's locale, up to three decimals (large counters are read at a glance). */
+export const readingValue = (value: number, locale: string) => formatNumber(value, locale, { max: 3 });
 
 /** Counts and hours only grow; condition readings move both ways. */
 export const isCumulative = (kind: MeterKind) => kind !== 'condition';
 
 /**
- * Why `next` may not follow `prev` on a meter of `kind`, or null when it may.
+ * Why `next` may not follow `prev` on a meter of `kind`, or null when it may, worded on the shop's
+ * clock and in its locale (the screens show readings so; a UTC time beside them reads as another reading).
  * A cumulative meter refuses a lower value unless `next` is a reset; a negative count or
  * time is refused always (a reset starts from zero, it does not go below it).
  */
-export function readingOrderProblem(kind: MeterKind, prev: TimedReading | null, next: TimedReading, unit: string, timeZone?: string): string | null {
+export function readingOrderProblem(kind: MeterKind, prev: TimedReading | null, next: TimedReading, unit: string, shop: ShopClock): string | null {
   if (!Number.isFinite(next.value)) return 'The reading is not a number';
   if (!isCumulative(kind)) return null;
-  if (next.value < 0) return `A ${kind === 'count' ? 'count' : 'running time'} cannot be negative (${grouped.format(next.value)} ${unit})`;
+  if (next.value < 0) return `A ${kind === 'count' ? 'count' : 'running time'} cannot be negative (${readingValue(next.value, shop.locale)} ${unit})`;
   if (prev && !next.isReset && next.value < prev.value) {
-    return `${grouped.format(next.value)} ${unit} is lower than the reading before it (${grouped.format(prev.value)} ${unit} on ${readingTime(prev.at, timeZone)}); record it as a reset if the counter started again from zero`;
+    return `${readingValue(next.value, shop.locale)} ${unit} is lower than the reading before it (${readingValue(prev.value, shop.locale)} ${unit} on ${formatDateTime(prev.at, shop)}); record it as a reset if the counter started again from zero`;
   }
   return null;
 }

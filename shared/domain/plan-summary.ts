@@ -5,6 +5,7 @@
  */
 import { RRule } from './rrule';
 import type { StoredTrigger } from '../schemas/plans';
+import { formatNumber, shopLocale } from '../locale';
 
 export type MeterLabel = { name: string; unit: string };
 
@@ -16,7 +17,8 @@ function ruleText(rrule: string): string {
   }
 }
 
-const num = (n: number) => (Number.isInteger(n) ? n.toLocaleString('en-US') : String(Math.round(n * 1000) / 1000));
+// In the shop's locale, as every number the product shows (shared/locale.ts).
+const num = (n: number) => formatNumber(n, shopLocale(), { max: 3 });
 
 /** "every week on Monday at 07:00", "every 500 h of Pump hours", "Filter ΔP above 1500 Pa" … */
 export function summarizeTrigger(t: StoredTrigger, meter?: MeterLabel): string {

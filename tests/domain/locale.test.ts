@@ -1,4 +1,6 @@
 import { describe, expect, it } from 'vitest';
+import { DateTime } from 'luxon';
+import { mulberry32 } from '../../seed/prng';
 import { formatDate, formatDateTime, formatDay, formatMoney, formatNumber, formatTime, fromShopLocal, isTimeZone, toShopLocal } from '../../shared/locale';
 
 const chicago = { timeZone: 'America/Chicago', locale: 'en-US' };
@@ -11,6 +13,35 @@ describe('shop times', () => {
     expect(formatDateTime(new Date('2026-12-05T20:30:05Z'), chicago, { weekday: true, seconds: true })).toBe('Sat 5 Dec 2026, 14:30:05');
     expect(formatTime('2026-12-05T20:30:00Z', chicago)).toBe('14:30');
     expect(formatDay(Date.parse('2026-12-05T20:30:00Z'), chicago)).toBe('5 Dec');
+  });
+
+  it('reads like luxon (a general-purpose date library, IANA tz data) at random instants 1950–2080, across offset changes', () => {
+    // Zones with half-hour, 45-minute and 30-minute-DST offsets, and one that skipped a whole day (Apia, 30 Dec 2011).
+    const zones = ['America/Chicago', 'Europe/Berlin', 'Australia/Lord_Howe', 'Asia/Kathmandu', 'Pacific/Apia', 'America/St_Johns', 'UTC'];
+    const r = mulberry32(1910);
+    for (const timeZone of zones) {
+      for (let i = 0; i < 1500; i++) {
+        const ms = Date.UTC(1950, 0, 1) + Math.floor(r() * 130 * 365.25 * 86_400_000);
+        const shop = { timeZone, locale: 'en-US' };
+        const luxon = DateTime.fromMillis(ms, { zone: timeZone, locale: 'en-US' });
+        expect(formatDateTime(ms, shop, { weekday: true, seconds: true }), `${timeZone} ${new Date(ms).toISOString()}`).toBe(
+          luxon.toFormat('ccc d LLL yyyy, HH:mm:ss'),
+        );
+      }
+    }
+  });
+
+  it('reads each minute either side of a change on the clock of that minute', () => {
+    // EU summer time starts the last Sunday of March at 01:00 UTC (Directive 2000/84/EC): 29 Mar 2026, 02:00 CET → 03:00 CEST.
+    const berlin = { timeZone: 'Europe/Berlin', locale: 'en-US' };
+    expect(formatDateTime(Date.UTC(2026, 2, 29, 0, 59, 59), berlin, { seconds: true })).toBe('29 Mar 2026, 01:59:59');
+    expect(formatDateTime(Date.UTC(2026, 2, 29, 1, 0, 0), berlin, { seconds: true })).toBe('29 Mar 2026, 03:00:00');
+    // Lord Howe moves by half an hour (UTC+10:30 → +11) on the first Sunday of October at 02:00 local (from memory: NSW Standard Time Act 1987).
+    const lordHowe = { timeZone: 'Australia/Lord_Howe', locale: 'en-US' };
+    expect(formatTime(Date.UTC(2026, 9, 3, 15, 29), lordHowe)).toBe('01:59');
+    expect(formatTime(Date.UTC(2026, 9, 3, 15, 30), lordHowe)).toBe('02:30');
+    expect(formatDateTime('not a time', berlin)).toBe('Invalid DateTime');
+    expect(formatDateTime(0, { timeZone: 'Mars/Olympus', locale: 'en-US' })).toBe('Invalid DateTime');
   });
 
   it('shows the date the shop had, not the UTC one', () => {

@@ -4,36 +4,42 @@ import { advanceSince, readingOrderProblem, thinSeries } from '../../shared/doma
 // House rules of Kerfbook (no published source): counts and running time only rise except at a reset.
 const at = (d: number) => new Date(Date.UTC(2026, 0, d));
 const r = (d: number, value: number, isReset = false) => ({ at: at(d), value, isReset });
+const utc = { timeZone: 'UTC', locale: 'en-US' };
+const chicago = { timeZone: 'America/Chicago', locale: 'en-US' };
 
 describe('readingOrderProblem', () => {
   it('accepts a rising or equal count and refuses a falling one unless it is a reset', () => {
-    expect(readingOrderProblem('count', r(1, 100), r(2, 100), 'starts')).toBeNull();
-    expect(readingOrderProblem('count', r(1, 100), r(2, 150), 'starts')).toBeNull();
-    expect(readingOrderProblem('count', r(1, 100), r(2, 99), 'starts')).toBe(
-      '99 starts is lower than the reading before it (100 starts on 2026-01-01 00:00 UTC); record it as a reset if the counter started again from zero',
+    expect(readingOrderProblem('count', r(1, 100), r(2, 100), 'starts', utc)).toBeNull();
+    expect(readingOrderProblem('count', r(1, 100), r(2, 150), 'starts', utc)).toBeNull();
+    expect(readingOrderProblem('count', r(1, 100), r(2, 99), 'starts', utc)).toBe(
+      '99 starts is lower than the reading before it (100 starts on 1 Jan 2026, 00:00); record it as a reset if the counter started again from zero',
     );
-    expect(readingOrderProblem('count', r(1, 100), r(2, 3, true), 'starts')).toBeNull();
-    expect(readingOrderProblem('running-time', null, r(2, 5), 'h')).toBeNull();
+    expect(readingOrderProblem('count', r(1, 100), r(2, 3, true), 'starts', utc)).toBeNull();
+    expect(readingOrderProblem('running-time', null, r(2, 5), 'h', utc)).toBeNull();
   });
 
-  it("names the earlier reading's time in the shop's zone when it is given, as the screens show it", () => {
+  it("names the earlier reading's time on the shop's clock, as the screens show it", () => {
     // 2026-01-01 00:00 UTC is the evening before in America/Chicago (UTC-6 in winter).
-    expect(readingOrderProblem('count', r(1, 100), r(2, 99), 'starts', 'America/Chicago')).toBe(
+    expect(readingOrderProblem('count', r(1, 100), r(2, 99), 'starts', chicago)).toBe(
       '99 starts is lower than the reading before it (100 starts on 31 Dec 2025, 18:00); record it as a reset if the counter started again from zero',
     );
   });
 
-  it('groups thousands in the message so a long counter can be read at a glance', () => {
-    expect(readingOrderProblem('count', r(1, 1_234_567), r(2, 98_765.5), 'starts')).toMatch(
+  it('groups thousands in the shop locale so a long counter can be read at a glance', () => {
+    // CLDR number symbols: en-US groups with "," and marks decimals with "."; de-DE the other way round.
+    expect(readingOrderProblem('count', r(1, 1_234_567), r(2, 98_765.5), 'starts', utc)).toMatch(
       /^98,765\.5 starts is lower than the reading before it \(1,234,567 starts on /,
+    );
+    expect(readingOrderProblem('count', r(1, 1_234_567), r(2, 98_765.5), 'starts', { timeZone: 'UTC', locale: 'de-DE' })).toMatch(
+      /^98\.765,5 starts is lower than the reading before it \(1\.234\.567 starts on 1 Jan 2026, 00:00\)/,
     );
   });
 
   it('refuses negative counts and hours even as a reset, but lets condition readings fall and go negative', () => {
-    expect(readingOrderProblem('running-time', null, r(2, -1, true), 'h')).toBe('A running time cannot be negative (-1 h)');
-    expect(readingOrderProblem('condition', r(1, 900), r(2, 600), 'Pa')).toBeNull();
-    expect(readingOrderProblem('condition', r(1, 5), r(2, -12), '°C')).toBeNull();
-    expect(readingOrderProblem('count', null, r(1, Number.NaN), 'hits')).toBe('The reading is not a number');
+    expect(readingOrderProblem('running-time', null, r(2, -1, true), 'h', utc)).toBe('A running time cannot be negative (-1 h)');
+    expect(readingOrderProblem('condition', r(1, 900), r(2, 600), 'Pa', utc)).toBeNull();
+    expect(readingOrderProblem('condition', r(1, 5), r(2, -12), '°C', utc)).toBeNull();
+    expect(readingOrderProblem('count', null, r(1, Number.NaN), 'hits', utc)).toBe('The reading is not a number');
   });
 });
 

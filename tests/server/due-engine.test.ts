@@ -238,7 +238,7 @@ describe('a plan falls due', () => {
     await runMaintenancePass(orm, new Date('2026-06-15T14:00:00Z'), { appUrl: t.config.APP_URL });
     let digests = (await pendingMails(orm, shop.orgId)).filter((m) => m.kind === 'work-digest');
     expect(digests.map((m) => m.toAddress)).toEqual([shop.users.technician.email]);
-    expect(digests[0].subject).toMatch(/^Your work for 2026-06-15: \d+ open/);
+    expect(digests[0].subject).toMatch(/^Your work for 15 Jun 2026: \d+ open/);
     expect(digests[0].textBody).toContain(WORK_CAUTION);
     await runMaintenancePass(orm, new Date('2026-06-16T12:00:00Z'), { appUrl: t.config.APP_URL });
     digests = (await pendingMails(orm, shop.orgId)).filter((m) => m.kind === 'work-digest');

@@ -185,7 +185,7 @@ describe('energy-control procedures', () => {
     expect(text.replace(/\s+/g, ' ')).toContain(WORK_CAUTION.slice(0, 60).replace(/’/g, '’'));
     // One sheet at the machine, printed time in the shop's zone (named), the machine name once.
     expect(pdf.pages).toBe(1);
-    expect(text).toMatch(/printed \d{4}-\d\d-\d\d \d\d:\d\d America\/Chicago/);
+    expect(text).toMatch(/printed \d{1,2} [A-Z][a-z]{2} \d{4}, \d\d:\d\d \(America\/Chicago\)/);
     expect(text).not.toContain('UTC');
     expect(text.split('Cell 1').length - 1).toBe(1);
     expect(pdf.firstPagePng.length).toBeGreaterThan(10_000); // a page with ink on it, not a blank sheet

@@ -9,7 +9,8 @@ import type { Principal } from '../../http/principal';
 import { badRequest } from '../../http/errors';
 import { recordActivity } from '../activity-log/activity-log.service';
 import { importKeySource, mapHeader, parseRow, templateCsv, type CounterColumn, type RowError } from '../../../shared/domain/counter-import';
-import { readingOrderProblem, readingTime } from '../../../shared/domain/meters';
+import { readingOrderProblem } from '../../../shared/domain/meters';
+import { formatDateTime, type ShopClock } from '../../../shared/locale';
 import type { ImportPreview, ImportResult } from '../../../shared/schemas/counter-import';
 import type { MeterKind } from '../../../shared/schemas/machines';
 import { clock } from '../../../shared/clock';
@@ -172,7 +173,7 @@ export async function analyseCounterCsv(
   await progress?.({ phase: 'checking', done: 2, total: 2 });
 
   const meterOf = (id: string) => byId.get(id)!;
-  const errors = [...rowProblems.listed, ...staged.problems.map((p) => orderMessage(p, meterOf(p.meterId), org.timeZone))]
+  const errors = [...rowProblems.listed, ...staged.problems.map((p) => orderMessage(p, meterOf(p.meterId), { timeZone: org.timeZone, locale: who.locale }))]
     .sort((a, b) => a.line - b.line)
     .slice(0, MAX_LISTED_ERRORS);
   return {
@@ -206,17 +207,17 @@ export async function analyseCounterCsv(
 }
 
 /** The message for a count that runs backwards, worded by the same rule the meter page uses. */
-function orderMessage(p: StagingSummary['problems'][number], meter: MeterInfo, timeZone: string): RowError {
+function orderMessage(p: StagingSummary['problems'][number], meter: MeterInfo, shop: ShopClock): RowError {
   const name = `${meter.machineCode}/${meter.code}`;
   if (p.problem === 'before') {
     const prev = p.otherAt ? { at: p.otherAt, value: p.otherValue!, isReset: p.otherIsReset! } : null;
-    const problem = readingOrderProblem(meter.kind, prev, { at: p.readAt, value: p.value, isReset: p.reset }, meter.unit, timeZone);
+    const problem = readingOrderProblem(meter.kind, prev, { at: p.readAt, value: p.value, isReset: p.reset }, meter.unit, shop);
     return { line: p.line, column: 'value', message: `${name}: ${problem}` };
   }
   return {
     line: p.line,
     column: 'value',
-    message: `${name}: ${p.value} ${meter.unit} is higher than the stored reading after it (${p.otherValue} ${meter.unit} on ${readingTime(p.otherAt!, timeZone)})`,
+    message: `${name}: ${p.value} ${meter.unit} is higher than the stored reading after it (${p.otherValue} ${meter.unit} on ${formatDateTime(p.otherAt!, shop)})`,
   };
 }
 

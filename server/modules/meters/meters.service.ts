@@ -7,7 +7,8 @@ import type { Principal } from '../../http/principal';
 import { AppError, badRequest, conflict, fieldError, notFound } from '../../http/errors';
 import { recordActivity } from '../activity-log/activity-log.service';
 import { completeByStationRecord } from '../work-orders/station-completion';
-import { grouped, readingOrderProblem, readingTime, thinSeries } from '../../../shared/domain/meters';
+import { readingOrderProblem, readingValue, thinSeries } from '../../../shared/domain/meters';
+import { formatDateTime } from '../../../shared/locale';
 import { convertUnit } from '../../../shared/domain/units';
 import { FORECAST_WINDOW_DAYS, windowedUsageRate } from '../../../shared/domain/forecast';
 import { loadMeterSeries } from '../plans/plan-inputs';
@@ -136,7 +137,7 @@ export async function updateMeter(em: EntityManager, who: Principal, id: string,
  */
 export async function recordReading(
   em: EntityManager,
-  who: Pick<Principal, 'orgId' | 'userId' | 'timeZone'>,
+  who: Pick<Principal, 'orgId' | 'userId' | 'timeZone' | 'locale'>,
   meterId: string,
   input: ReadingInput,
   source: 'manual' | 'consumable-change' | 'work-order' = 'manual',
@@ -154,13 +155,12 @@ export async function recordReading(
   }
   const candidate = { at, value: input.value, isReset: input.isReset };
   const { prev, next } = await neighbours(em, meter.id, at);
-  const timeZone = who.timeZone;
-  const before = readingOrderProblem(meter.kind, prev, candidate, meter.unit, timeZone);
+  const before = readingOrderProblem(meter.kind, prev, candidate, meter.unit, who);
   if (before) throw fieldError('value', `${meter.name}: ${before}`);
-  if (next && readingOrderProblem(meter.kind, candidate, next, meter.unit)) {
+  if (next && readingOrderProblem(meter.kind, candidate, next, meter.unit, who)) {
     throw fieldError(
       'value',
-      `${meter.name}: ${grouped.format(input.value)} ${meter.unit} is higher than a later reading (${grouped.format(next.value)} ${meter.unit} on ${readingTime(next.at, timeZone)})`,
+      `${meter.name}: ${readingValue(input.value, who.locale)} ${meter.unit} is higher than a later reading (${readingValue(next.value, who.locale)} ${meter.unit} on ${formatDateTime(next.at, who)})`,
     );
   }
   const reading = em.create(MeterReading, {
@@ -184,7 +184,7 @@ async function readingDoesWork(tx: EntityManager, who: Principal, r: { id: strin
     machineId: r.meter.machine.id,
     meterId: r.meter.id,
     at: r.readAt,
-    summary: `Reading of ${r.meter.name}: ${grouped.format(r.value)} ${r.meter.unit}`,
+    summary: `Reading of ${r.meter.name}: ${readingValue(r.value, who.locale)} ${r.meter.unit}`,
   });
 }
 

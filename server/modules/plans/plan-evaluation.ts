@@ -6,6 +6,7 @@ import { evaluationHash, pendingRaise, statusColumns } from './plan-status';
 import { humanReason, type MeterLabel } from './plan-reason';
 import type { IMaintenancePlan, MeterBaselines } from './plan.entity';
 import { clock } from '../../../shared/clock';
+import { shopLocale } from '../../../shared/locale';
 
 /**
  * Evaluates the given plans of one shop at once and raises what is due, as the scheduled pass
@@ -51,7 +52,7 @@ export async function refreshPlanStatus(em: EntityManager, plan: IMaintenancePla
     ]);
     for (const r of rows) labels.set(r.id, { name: r.name, unit: r.unit });
   }
-  const c = statusColumns(ev, (s) => humanReason(s, (id) => labels.get(id), timeZone));
+  const c = statusColumns(ev, (s) => humanReason(s, (id) => labels.get(id), { timeZone, locale: shopLocale() }));
   let inputsAt: number | null = null;
   for (const id of [...ins.meters, ...ins.oil.map(oilMeterId)]) {
     const t = series.get(id)?.readings.at(-1)?.at.getTime();

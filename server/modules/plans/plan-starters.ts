@@ -11,6 +11,7 @@ import { MACHINE_KIND_LABELS, type MachineKind } from '../../../shared/schemas/m
 import type { ApplyStartersInput, ApplyStartersResult, PlanInput, StarterFit, StarterView, TriggerInput } from '../../../shared/schemas/plans';
 import { createPlan, findMachine, metersOf, relatedMachineIds, type MeterInfo } from './plans.service';
 import { clock } from '../../../shared/clock';
+import { formatNumber, shopLocale } from '../../../shared/locale';
 
 function starterSummary(s: StarterPlan): string {
   return s.triggers
@@ -21,7 +22,7 @@ function starterSummary(s: StarterPlan): string {
         case 'calendar-floating':
           return summarizeTrigger(t);
         case 'meter':
-          return `every ${t.every.toLocaleString('en-US')} ${t.meter.unit} (${t.meter.codes[0]})`;
+          return `every ${formatNumber(t.every, shopLocale(), { max: 3 })} ${t.meter.unit} (${t.meter.codes[0]})`;
         case 'condition':
           return `${t.meter.codes[0]} ${t.above !== undefined ? `above ${t.above}` : `below ${t.below}`} ${t.meter.unit}`;
         case 'oil-analysis':

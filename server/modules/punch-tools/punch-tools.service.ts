@@ -1,6 +1,6 @@
 import type { EntityManager } from '@mikro-orm/postgresql';
 import { LockMode } from '@mikro-orm/core';
-import { shopTime } from '../common/shop-time';
+import { formatDateTime } from '../../../shared/locale';
 import { PunchTool, ToolSharpening, type IPunchTool } from './punch-tool.entity';
 import { Machine } from '../machines/machine.entity';
 import { Meter } from '../meters/meter.entity';
@@ -109,7 +109,7 @@ export async function recordSharpening(
     if (!tool) throw notFound('Tool');
     const at = input.sharpenedAt ? new Date(input.sharpenedAt) : clock.now();
     if (tool.lastSharpenedAt && at < tool.lastSharpenedAt)
-      throw fieldError('sharpenedAt', `The last sharpening was later (${shopTime(tool.lastSharpenedAt, who.timeZone)})`);
+      throw fieldError('sharpenedAt', `The last sharpening was later (${formatDateTime(tool.lastSharpenedAt, who)})`);
     const { prev } = await neighbours(tx, tool.hitsMeter.id, at);
     const reading = prev?.value ?? tool.hitsAtLastSharpening;
     const since = tool.lastSharpenedAt ?? tool.createdAt;

@@ -7,7 +7,8 @@
  */
 import type { EntityManager } from '@mikro-orm/postgresql';
 import { meterAdvancesDuringLockouts } from '../../../shared/domain/lockout-conflicts';
-import { grouped } from '../../../shared/domain/meters';
+import { readingValue } from '../../../shared/domain/meters';
+import { shopLocale } from '../../../shared/locale';
 import { raiseAlarm } from './safety-events';
 import { queueMail } from '../../mail/outbox';
 import { renderMail } from '../../mail/templates';
@@ -31,6 +32,7 @@ export async function checkCounterAdvances(tx: EntityManager, orgId: string, met
     meterIds = rows.map((r) => r.id);
   }
   if (meterIds.length === 0) return 0;
+  const locale = shopLocale();
   const meters = await tx.execute<{ id: string; name: string; unit: string; machine_id: string; code: string; machine_code: string; machine_name: string }[]>(
     `select mt.id, mt.name, mt.unit, mt.machine_id, mt.code, m.code as machine_code, m.name as machine_name
        from meter mt join machine m on m.id = mt.machine_id
@@ -70,7 +72,7 @@ export async function checkCounterAdvances(tx: EntityManager, orgId: string, met
     );
     for (const a of advances) {
       const lockout = windows.find((w) => w.verifiedAt <= a.from.at && a.to.at <= (w.releasedAt ?? now))!;
-      const reason = `${RAN_WHILE_LOCKED}: ${meter.machine_code} ${meter.name} rose by ${grouped.format(a.advance)} ${meter.unit} (${grouped.format(a.from.value)} → ${grouped.format(a.to.value)}) while locked out and verified`;
+      const reason = `${RAN_WHILE_LOCKED}: ${meter.machine_code} ${meter.name} rose by ${readingValue(a.advance, locale)} ${meter.unit} (${readingValue(a.from.value, locale)} → ${readingValue(a.to.value, locale)}) while locked out and verified`;
       const isNew = await raiseAlarm(tx, orgId, {
         action: 'meter.advance-while-locked',
         reason,

@@ -1,5 +1,4 @@
 import QRCode from 'qrcode';
-import { DateTime } from 'luxon';
 import type { EntityManager } from '@mikro-orm/postgresql';
 import { COLORS, cautionBox, newDoc, pdfText, stampPages, toBuffer } from './pdf';
 import { EnergyProcedure, ProcedurePhoto, ProcedureVersion } from './procedure.entity';
@@ -9,6 +8,7 @@ import { conflict, notFound } from '../../http/errors';
 import { WORK_CAUTION } from '../../../shared/domain/cautions';
 import { ENERGY_KIND_LABELS, PHASE_LABELS, PROCEDURE_PHASES } from '../../../shared/schemas/safety-procedures';
 import { clock } from '../../../shared/clock';
+import { formatDate, formatDateTime, shopLocale } from '../../../shared/locale';
 
 /**
  * The placard posted at the machine: our own layout. A red band says what to do before work,
@@ -31,7 +31,7 @@ export async function renderPlacard(em: EntityManager, procedureId: string, appU
   const qr = await QRCode.toBuffer(url, { margin: 1, width: 180, errorCorrectionLevel: 'M' });
 
   const tz = (await em.findOneOrFail(Organization, proc.organization.id)).timeZone;
-  const inZone = (d: Date, fmt: string) => DateTime.fromJSDate(d, { zone: tz }).toFormat(fmt);
+  const shop = { timeZone: tz, locale: shopLocale() };
   // The procedure title usually names the machine already; the code is in the red box.
   const heading = c.title.toLowerCase().includes(machine.name.toLowerCase()) ? c.title : `${machine.name} — ${c.title}`;
 
@@ -67,7 +67,7 @@ export async function renderPlacard(em: EntityManager, procedureId: string, appU
     .fontSize(13)
     .text(pdfText(heading), M, y, { width: inner - 80 });
   y = doc.y + 1;
-  const approved = v.approvedAt ? `approved ${inZone(v.approvedAt, 'yyyy-MM-dd')} by ${v.approvedBy?.getEntity().name ?? '?'}` : 'NOT APPROVED';
+  const approved = v.approvedAt ? `approved ${formatDate(v.approvedAt, shop)} by ${v.approvedBy?.getEntity().name ?? '?'}` : 'NOT APPROVED';
   doc
     .font('regular')
     .fontSize(8)
@@ -228,7 +228,7 @@ export async function renderPlacard(em: EntityManager, procedureId: string, appU
   // Printed time in the site's own zone, named, so the placard matches the clocks in the shop.
   stampPages(
     doc,
-    `Kerfbook placard · ${machine.code} · version ${v.version} · printed ${inZone(clock.now(), 'yyyy-MM-dd HH:mm')} ${tz} · check the current version before use`,
+    `Kerfbook placard · ${machine.code} · version ${v.version} · printed ${formatDateTime(clock.now(), shop)} (${tz}) · check the current version before use`,
   );
   const pdf = await toBuffer(doc);
   return { pdf, fileName: `placard-${machine.code}-v${v.version}.pdf`.replace(/[^A-Za-z0-9._-]/g, '_') };

@@ -23,10 +23,11 @@ import {
   type TrainingRow,
 } from '../../../shared/schemas/safety-records';
 import { clock } from '../../../shared/clock';
+import { formatDateTime, type ShopClock } from '../../../shared/locale';
 
 const AUTHORIZED = ['technician', 'safety'];
-/** Times in summaries read as the shop's clock, with the zone named. */
-const local = (d: Date, tz: string) => DateTime.fromJSDate(d, { zone: tz }).toFormat("HH:mm 'on' d LLL yyyy ('" + tz + "')");
+/** Times in signed summaries read as the shop's clock, with the zone named: a signed record is read outside the shop too. */
+const local = (d: Date, shop: ShopClock) => `${formatDateTime(d, shop)} (${shop.timeZone})`;
 
 async function approvedVersion(tx: EntityManager, procedureId: string) {
   const proc = await tx.findOne(EnergyProcedure, procedureId, { populate: ['machine'] });
@@ -319,7 +320,7 @@ export async function startFireWatch(em: EntityManager, who: Principal, input: S
       subjectId: fireWatchId,
       machineId: machine.id,
       details: {
-        summary: `${machine.code}: cutting ended ${local(ended, timeZone)}, watch until ${local(until, timeZone)} (${FIRE_WATCH_RULES[rule].source})`,
+        summary: `${machine.code}: cutting ended ${local(ended, { timeZone, locale: who.locale })}, watch until ${local(until, { timeZone, locale: who.locale })} (${FIRE_WATCH_RULES[rule].source})`,
         cuttingEndedAt: ended.toISOString(),
         until: until.toISOString(),
         rule,
@@ -355,18 +356,17 @@ export async function endFireWatch(em: EntityManager, who: Principal, id: string
     if (now < fw.until) {
       const mins = Math.ceil((fw.until.getTime() - now.getTime()) / 60_000);
       throw conflict(
-        `Keep watching: the fire watch runs until ${local(fw.until, who.timeZone)} (${FIRE_WATCH_RULES[fw.rule as FireWatchRuleId]?.source ?? fw.rule}), ${mins} min to go`,
+        `Keep watching: the fire watch runs until ${formatDateTime(fw.until, who)} (${FIRE_WATCH_RULES[fw.rule as FireWatchRuleId]?.source ?? fw.rule}), ${mins} min to go`,
       );
     }
     const machine = fw.machine.getEntity();
-    const { timeZone } = who;
     const signOff = await appendSignOff(tx, who, {
       meaning: 'fire-watch-ended',
       subjectType: 'fire-watch',
       subjectId: fw.id,
       machineId: machine.id,
       details: {
-        summary: `${machine.code}: watched from ${local(fw.cuttingEndedAt, timeZone)} to ${local(now, timeZone)}, no fire found`,
+        summary: `${machine.code}: watched from ${local(fw.cuttingEndedAt, who)} to ${local(now, who)}, no fire found`,
         noFireFound: true,
         rule: fw.rule,
       },

@@ -1,6 +1,7 @@
 // Over 400 lines: the sign-off list, the timeline, compliance and the CSV/PDF exports read the same filtered rows; the exports are the seam to split along next.
 import type { EntityManager } from '@mikro-orm/postgresql';
 import { toCsv } from '../../../shared/domain/csv';
+import { formatDateTime } from '../../../shared/locale';
 import { DateTime } from 'luxon';
 import { Organization } from '../organizations/organization.entity';
 import { Machine } from '../machines/machine.entity';
@@ -221,7 +222,7 @@ export async function exportPdf(em: EntityManager, who: Principal, q: ExportSign
     .fillColor(COLORS.steel700)
     .text(
       pdfText(
-        `Filters: ${filters}  ·  ${rows.length} signature${rows.length === 1 ? '' : 's'}  ·  generated ${generated.toFormat('yyyy-LL-dd HH:mm')} (${tz}) by ${who.name}`,
+        `Filters: ${filters}  ·  ${rows.length} signature${rows.length === 1 ? '' : 's'}  ·  generated ${formatDateTime(generated.toMillis(), who)} (${tz}) by ${who.name}`,
       ),
       M,
       doc.y + 2,
@@ -265,7 +266,7 @@ export async function exportPdf(em: EntityManager, who: Principal, q: ExportSign
   rows.forEach((r, i) => {
     const cells = [
       String(r.seq),
-      DateTime.fromISO(r.signedAt, { zone: tz }).toFormat('yyyy-LL-dd HH:mm:ss'),
+      formatDateTime(r.signedAt, who, { seconds: true }),
       r.signerName,
       ROLE_LABELS[r.signerRole as Role] ?? r.signerRole,
       MEANING_LABELS[r.meaning] + (r.correctsSeq ? ` (corrects #${r.correctsSeq})` : ''),

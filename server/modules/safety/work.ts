@@ -12,6 +12,7 @@ import { loadConfig } from '../../config';
 import type { SafetyTaskKind, SafetyTaskRow, TrainingKind } from '../../../shared/schemas/safety-records';
 import { TASK_KIND_LABELS } from '../../../shared/schemas/safety-records';
 import { clock } from '../../../shared/clock';
+import { formatDate, shopLocale } from '../../../shared/locale';
 
 /** Retraining is due this long after a changed procedure is approved (house rule). */
 export const RETRAIN_DAYS = 14;
@@ -202,7 +203,7 @@ export async function runSafetyDue(orm: MikroORM, now: Date, scope: { orgId?: st
                 `These safety tasks at ${org.name} are overdue:`,
                 ...newlyOverdue.map(
                   (t) =>
-                    `• ${TASK_KIND_LABELS[t.kind]}: ${t.title}${t.dueAt ? ` — due ${DateTime.fromJSDate(t.dueAt, { zone: org.timeZone }).toISODate()}` : ''}`,
+                    `• ${TASK_KIND_LABELS[t.kind]}: ${t.title}${t.dueAt ? ` — due ${formatDate(t.dueAt, { timeZone: org.timeZone, locale: shopLocale() })}` : ''}`,
                 ),
                 'Each is listed once here; Kerfbook closes it when the work is signed off.',
               ],

@@ -1,7 +1,7 @@
 import type { EntityManager } from '@mikro-orm/postgresql';
 import { LockMode, ref } from '@mikro-orm/core';
 import { fileTypeFromBuffer } from 'file-type';
-import { shopTime } from '../common/shop-time';
+import { formatDateTime } from '../../../shared/locale';
 import { ConsumableChange, ConsumableInstall, ConsumablePhoto } from './consumable.entity';
 import { Machine, type IMachine } from '../machines/machine.entity';
 import { Meter, type IMeter } from '../meters/meter.entity';
@@ -152,7 +152,7 @@ export async function logChange(
       const label = PART_CATEGORY_LABELS[category];
       const old = open.find((i) => i.category === category);
       if (old && old.installedAt > changedAt)
-        throw fieldError('changedAt', `The ${label.toLowerCase()} in the torch went in after this time (${shopTime(old.installedAt, who.timeZone)})`);
+        throw fieldError('changedAt', `The ${label.toLowerCase()} in the torch went in after this time (${formatDateTime(old.installedAt, who)})`);
       const partTypeId = input.partTypeIds[category] ?? old?.partType.id;
       if (!partTypeId) throw fieldError(`partTypeIds.${category}`, `Choose which ${label.toLowerCase()} goes in`);
       const part = await tx.findOne(PartType, { id: partTypeId });

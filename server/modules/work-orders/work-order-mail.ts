@@ -1,7 +1,6 @@
 /** Who hears about maintenance work, and the words of those mails. Every one carries the work caution. */
 import type { EntityManager } from '@mikro-orm/postgresql';
-import { DateTime } from 'luxon';
-import { cachedZone } from '../../../shared/domain/zone-offsets';
+import { formatDate, formatDateTime, shopLocale, type ShopClock } from '../../../shared/locale';
 import type { Role } from '../../../shared/permissions';
 import type { NotifyMode } from '../../../shared/schemas/work-orders';
 import { queueMail } from '../../mail/outbox';
@@ -75,21 +74,17 @@ export function responsibleFor(w: Pick<WorkLine, 'assigneeId' | 'responsibleRole
 
 export const workLink = (appUrl: string, id: string) => `${appUrl}/work-orders/${id}`;
 
-export function formatWhen(d: Date | null, timeZone: string): string {
-  if (!d) return 'no due date';
-  return DateTime.fromJSDate(d, { zone: cachedZone(timeZone) }).toFormat('ccc d LLL yyyy, HH:mm');
-}
-
-function lineText(w: WorkLine, timeZone: string): string {
+function lineText(w: WorkLine, shop: ShopClock): string {
   const flags = [w.overdue ? 'PAST DUE' : null, w.safetyCritical ? 'safety work' : null, w.requiresLockout ? 'lockout required' : null].filter(Boolean);
-  return `WO ${w.number} · ${w.machineCode} ${w.machineName} — ${w.title} (due ${formatWhen(w.dueAt, timeZone)}${flags.length ? `; ${flags.join(', ')}` : ''})`;
+  return `WO ${w.number} · ${w.machineCode} ${w.machineName} — ${w.title} (${w.dueAt ? `due ${formatDateTime(w.dueAt, shop, { weekday: true })}` : 'no due date'}${flags.length ? `; ${flags.join(', ')}` : ''})`;
 }
 
 /** A mail lists this many lines at most; the rest is a count and a link to the list. */
 export const MAX_LINES = 30;
 
-function listText(lines: WorkLine[], timeZone: string): string[] {
-  const shown = lines.slice(0, MAX_LINES).map((w) => lineText(w, timeZone));
+function listText(lines: WorkLine[], ctx: Ctx): string[] {
+  const shop = shopClock(ctx);
+  const shown = lines.slice(0, MAX_LINES).map((w) => lineText(w, shop));
   return lines.length > MAX_LINES ? [...shown, `… and ${lines.length - MAX_LINES} more: see the list in Kerfbook.`] : shown;
 }
 
@@ -111,6 +106,9 @@ export function groupByPerson(lines: WorkLine[], pick: (w: WorkLine) => Person[]
 
 type Ctx = { orgId: string; orgName: string; timeZone: string; appUrl: string };
 
+/** Mail reads times and dates as the shop's screens do (shared/locale.ts). */
+const shopClock = (ctx: Ctx): ShopClock => ({ timeZone: ctx.timeZone, locale: shopLocale() });
+
 /** "New work for you": one mail per person per pass. Returns the number of mails queued. */
 export function queueRaisedNotices(em: EntityManager, ctx: Ctx, lines: WorkLine[], people: Person[]): number {
   const groups = groupByPerson(lines, (w) => responsibleFor(w, people).filter((p) => p.mode === 'immediate'));
@@ -126,7 +124,7 @@ export function queueRaisedNotices(em: EntityManager, ctx: Ctx, lines: WorkLine[
         paragraphs: [
           `Hello ${person.name},`,
           one ? `Kerfbook raised this work for you${one.reason ? ` because ${one.reason}` : ''}.` : 'Kerfbook raised this work for you:',
-          ...listText(mine, ctx.timeZone),
+          ...listText(mine, ctx),
           'You can change how often Kerfbook mails you under My notices.',
         ],
         action: one
@@ -158,7 +156,7 @@ export function queueEscalations(em: EntityManager, ctx: Ctx, lines: WorkLine[],
         paragraphs: [
           `Hello ${person.name},`,
           'This work is past its due point and not signed off yet:',
-          ...listText(mine, ctx.timeZone),
+          ...listText(mine, ctx),
           'Please see that it is done or re-planned.',
         ],
         action: { label: 'Open past-due work', url: `${ctx.appUrl}/work-orders?due=overdue` },
@@ -179,7 +177,7 @@ export function queueEscalations(em: EntityManager, ctx: Ctx, lines: WorkLine[],
         heading: safety ? 'Your safety work is past due' : 'Your work is past due',
         paragraphs: [
           `Hello ${person.name},`,
-          ...listText(mine, ctx.timeZone),
+          ...listText(mine, ctx),
           safety ? 'Notices about past-due safety work are always sent, whatever your notice setting.' : 'Your admin has been told as well.',
         ],
         action:
@@ -201,10 +199,10 @@ export function queueDigest(em: EntityManager, ctx: Ctx, person: Person, lines: 
     to: person.email,
     kind: 'work-digest',
     organizationId: ctx.orgId,
-    subject: `Your work for ${localDate}: ${lines.length} open${overdue ? `, ${overdue} past due` : ''}`,
+    subject: `Your work for ${formatDate(localDate, shopClock(ctx))}: ${lines.length} open${overdue ? `, ${overdue} past due` : ''}`,
     ...renderMail({
       heading: `Open work for ${person.name}`,
-      paragraphs: [`Summary for ${localDate} at ${ctx.orgName}.`, ...listText(lines, ctx.timeZone)],
+      paragraphs: [`Summary for ${formatDate(localDate, shopClock(ctx))} at ${ctx.orgName}.`, ...listText(lines, ctx)],
       action: { label: 'Open my work', url: `${ctx.appUrl}/work-orders?assignee=me` },
       caution: true,
     }),

@@ -1,7 +1,7 @@
 import PDFDocument from 'pdfkit';
 import { createRequire } from 'node:module';
-import { DateTime } from 'luxon';
 import { WORK_CAUTION } from '../../../shared/domain/cautions';
+import { formatDateTime, type ShopClock } from '../../../shared/locale';
 import { CHECK_RESULT_LABELS, WORK_STATE_LABELS, type WorkOrderDetail } from '../../../shared/schemas/work-orders';
 
 const require = createRequire(import.meta.url);
@@ -18,11 +18,11 @@ const t = (s: string) =>
     .replace(/[^\n\t\u0020-\u024F\u2010-\u2027\u2030-\u203A\u20AC°µ]/g, '?');
 
 /** A printable work order sheet for the clipboard at the machine, caution first. */
-export function workOrderPdf(wo: WorkOrderDetail, shop: { name: string; timeZone: string }): Promise<Buffer> {
+export function workOrderPdf(wo: WorkOrderDetail, shop: ShopClock & { name: string }): Promise<Buffer> {
   const doc = new PDFDocument({ size: 'A4', margin: 40, info: { Title: `WO ${wo.number} ${wo.title}`, Creator: 'Kerfbook', Producer: 'Kerfbook' } });
   doc.registerFont('regular', REGULAR);
   doc.registerFont('bold', BOLD);
-  const when = (iso: string | null) => (iso ? DateTime.fromISO(iso, { zone: shop.timeZone }).toFormat('d LLL yyyy HH:mm') : '—');
+  const when = (iso: string | null) => formatDateTime(iso, shop);
   const width = doc.page.width - 80;
 
   doc

@@ -144,7 +144,7 @@ export function registerWorkOrderRoutes(r: ApiRouter, config: Config) {
   route(r, 'get', '/work-orders/:id/pdf', { access: 'work-orders.read', params: uuidParam }, async (_req, res, { params, principal: who }) => {
     const wo = await getWorkOrder(em(), who, params.id);
     const org = await getShopProfile(em(), who);
-    const pdf = await workOrderPdf(wo, { name: org.name, timeZone: who.timeZone });
+    const pdf = await workOrderPdf(wo, { name: org.name, timeZone: who.timeZone, locale: who.locale });
     res.setHeader('Content-Type', 'application/pdf');
     res.setHeader('Content-Disposition', `inline; filename="WO-${wo.number}.pdf"`);
     res.send(pdf);

@@ -1,6 +1,6 @@
-import { useState } from 'react';
-import { createColumnHelper, type SortingState } from '@tanstack/react-table';
+import { createColumnHelper } from '@tanstack/react-table';
 import { DataTable } from '../../../components/ui/data-table';
+import { FilterSelect, useServerTable } from '../../../components/ui/data-table-filters';
 import { EmptyState, Notice } from '../../../components/ui/notice';
 import { useActivityLog, type ActivityRow } from '../api/get-activity-log';
 import { useShopFormat, type ShopFormat } from '../../../lib/format';
@@ -40,72 +40,48 @@ const columnsFor = (f: ShopFormat) => [
 /** The shop's activity; `filters` off for the short list on the home page. */
 export function ActivityLogTable({ pageSize = 25, filters = true }: { pageSize?: number; filters?: boolean }) {
   const f = useShopFormat();
-  const [page, setPage] = useState(1);
-  const [area, setArea] = useState('');
-  const [actor, setActor] = useState('');
-  const [sorting, setSorting] = useState<SortingState>([{ id: 'at', desc: true }]);
-  const q = useActivityLog({ page, pageSize, area: area || undefined, actor: actor || undefined, dir: sorting[0] && !sorting[0].desc ? 'asc' : 'desc' });
+  const t = useServerTable([{ id: 'at', desc: true }], { area: '', actor: '' });
+  const { area, actor } = t.filters;
+  const q = useActivityLog({
+    page: t.page,
+    pageSize,
+    area: area || undefined,
+    actor: actor || undefined,
+    dir: t.sorting[0] && !t.sorting[0].desc ? 'asc' : 'desc',
+  });
   if (q.isError) return <Notice tone="danger">{q.error.message}</Notice>;
-  const filterClass = 'min-h-touch rounded border border-steel-400 bg-white px-3 font-normal';
   return (
     <DataTable
       caption="Activity log"
       columns={columnsFor(f)}
       data={q.data?.rows ?? []}
       loading={q.isLoading}
+      fetching={q.isFetching}
+      resultKey={t.resultKey}
+      countLabel={(n) => `${n} ${n === 1 ? 'entry matches' : 'entries match'}`}
       getRowId={(r) => r.id}
       empty={<EmptyState title={area || actor ? 'Nothing matches these filters' : 'No activity yet'} />}
-      server={{
-        total: q.data?.total ?? 0,
-        page,
-        pageSize,
-        sorting,
-        onSortingChange: (s) => {
-          setSorting(s);
-          setPage(1);
-        },
-        onPageChange: setPage,
-      }}
+      server={t.paging(q.data?.total ?? 0, pageSize)}
       toolbar={
         filters ? (
           <>
-            <label className="flex flex-col text-sm font-semibold">
-              Area
-              <select
-                className={filterClass}
-                value={area}
-                onChange={(e) => {
-                  setArea(e.target.value);
-                  setPage(1);
-                }}
-              >
-                <option value="">Everything</option>
-                {(q.data?.areas ?? []).map((a) => (
-                  <option key={a} value={a}>
-                    {capital(words(a))}
-                  </option>
-                ))}
-              </select>
-            </label>
-            <label className="flex flex-col text-sm font-semibold">
-              Who
-              <select
-                className={filterClass}
-                value={actor}
-                onChange={(e) => {
-                  setActor(e.target.value);
-                  setPage(1);
-                }}
-              >
-                <option value="">Anyone</option>
-                <option value="system">System (scheduled pass)</option>
-                {(q.data?.people ?? []).map((p) => (
-                  <option key={p.id} value={p.id}>
-                    {p.name}
-                  </option>
-                ))}
-              </select>
-            </label>
+            <FilterSelect label="Area" value={area} onChange={(v) => t.setFilter('area', v)}>
+              <option value="">Everything</option>
+              {(q.data?.areas ?? []).map((a) => (
+                <option key={a} value={a}>
+                  {capital(words(a))}
+                </option>
+              ))}
+            </FilterSelect>
+            <FilterSelect label="Who" value={actor} onChange={(v) => t.setFilter('actor', v)}>
+              <option value="">Anyone</option>
+              <option value="system">System (scheduled pass)</option>
+              {(q.data?.people ?? []).map((p) => (
+                <option key={p.id} value={p.id}>
+                  {p.name}
+                </option>
+              ))}
+            </FilterSelect>
           </>
         ) : undefined
       }

@@ -1,7 +1,8 @@
-import { useMemo, useState } from 'react';
+import { useMemo } from 'react';
 import { Link } from 'react-router-dom';
-import { createColumnHelper, type SortingState } from '@tanstack/react-table';
+import { createColumnHelper } from '@tanstack/react-table';
 import { DataTable } from '../../../components/ui/data-table';
+import { FilterSearch, FilterSelect, useServerTable } from '../../../components/ui/data-table-filters';
 import { Badge, EmptyState, Notice } from '../../../components/ui/notice';
 import { DUE_STATES, DUE_STATE_LABELS, type DueState, type ListPlansQuery, type PlanRow } from '../../../../shared/schemas/plans';
 import { usePlans } from '../api/get-plans';
@@ -10,27 +11,27 @@ import { PlanDueBadge } from './plan-badges';
 import { useShopFormat } from '../../../lib/format';
 
 const col = createColumnHelper<PlanRow>();
-const filterClass = 'min-h-touch rounded border border-steel-400 bg-white px-3 font-normal';
 
 export function PlansTable({ machineId: fixedMachine }: { machineId?: string }) {
   const f = useShopFormat();
   const lookups = useLookups();
-  const [page, setPage] = useState(1);
-  const [sorting, setSorting] = useState<SortingState>([{ id: 'nextDueAt', desc: false }]);
-  const [q, setQ] = useState('');
-  const [machineId, setMachineId] = useState('');
-  const [status, setStatus] = useState<DueState | ''>('');
-  const [active, setActive] = useState<ListPlansQuery['active']>('true');
+  const t = useServerTable([{ id: 'nextDueAt', desc: false }], {
+    q: '',
+    machineId: '',
+    status: '' as DueState | '',
+    active: 'true' as ListPlansQuery['active'],
+  });
+  const { q, machineId, status, active } = t.filters;
   const pageSize = 25;
   const plans = usePlans({
-    page,
+    page: t.page,
     pageSize,
     q: q || undefined,
     machineId: fixedMachine ?? (machineId || undefined),
     status: status || undefined,
     active,
-    sort: (sorting[0]?.id ?? 'nextDueAt') as ListPlansQuery['sort'],
-    dir: sorting[0]?.desc ? 'desc' : 'asc',
+    sort: (t.sorting[0]?.id ?? 'nextDueAt') as ListPlansQuery['sort'],
+    dir: t.sorting[0]?.desc ? 'desc' : 'asc',
   });
   const columns = useMemo(
     () => [
@@ -81,88 +82,40 @@ export function PlansTable({ machineId: fixedMachine }: { machineId?: string }) 
         columns={columns}
         data={plans.data?.rows ?? []}
         loading={plans.isLoading}
+        fetching={plans.isFetching}
+        resultKey={t.resultKey}
+        countLabel={(n) => `${n} ${n === 1 ? 'plan matches' : 'plans match'}`}
         getRowId={(r) => r.id}
         empty={<EmptyState title="No plans match">Apply starter plans to a machine, or write a plan of your own.</EmptyState>}
-        server={{
-          total: plans.data?.total ?? 0,
-          page,
-          pageSize,
-          sorting,
-          onSortingChange: (s) => {
-            setSorting(s);
-            setPage(1);
-          },
-          onPageChange: setPage,
-        }}
+        server={t.paging(plans.data?.total ?? 0, pageSize)}
         toolbar={
           <>
-            <label className="flex flex-col text-sm font-semibold">
-              Search
-              <input
-                className={filterClass}
-                value={q}
-                placeholder="Plan or machine"
-                onChange={(e) => {
-                  setQ(e.target.value);
-                  setPage(1);
-                }}
-              />
-            </label>
+            <FilterSearch value={q} placeholder="Plan or machine" onChange={(v) => t.setFilter('q', v)} />
             {fixedMachine ? null : (
-              <label className="flex flex-col text-sm font-semibold">
-                Machine
-                <select
-                  className={filterClass}
-                  value={machineId}
-                  onChange={(e) => {
-                    setMachineId(e.target.value);
-                    setPage(1);
-                  }}
-                >
-                  <option value="">All machines</option>
-                  {(lookups.data?.machines ?? [])
-                    .filter((m) => !m.parentId)
-                    .map((m) => (
-                      <option key={m.id} value={m.id}>
-                        {m.code} · {m.name}
-                      </option>
-                    ))}
-                </select>
-              </label>
+              <FilterSelect label="Machine" value={machineId} onChange={(v) => t.setFilter('machineId', v)}>
+                <option value="">All machines</option>
+                {(lookups.data?.machines ?? [])
+                  .filter((m) => !m.parentId)
+                  .map((m) => (
+                    <option key={m.id} value={m.id}>
+                      {m.code} · {m.name}
+                    </option>
+                  ))}
+              </FilterSelect>
             )}
-            <label className="flex flex-col text-sm font-semibold">
-              Status
-              <select
-                className={filterClass}
-                value={status}
-                onChange={(e) => {
-                  setStatus(e.target.value as DueState | '');
-                  setPage(1);
-                }}
-              >
-                <option value="">Any status</option>
-                {[...DUE_STATES].reverse().map((s) => (
-                  <option key={s} value={s}>
-                    {DUE_STATE_LABELS[s]}
-                  </option>
-                ))}
-              </select>
-            </label>
-            <label className="flex flex-col text-sm font-semibold">
-              Plans
-              <select
-                className={filterClass}
-                value={active}
-                onChange={(e) => {
-                  setActive(e.target.value as ListPlansQuery['active']);
-                  setPage(1);
-                }}
-              >
-                <option value="true">In use</option>
-                <option value="false">Paused</option>
-                <option value="all">All</option>
-              </select>
-            </label>
+            <FilterSelect label="Status" value={status} onChange={(v) => t.setFilter('status', v as DueState | '')}>
+              <option value="">Any status</option>
+              {[...DUE_STATES].reverse().map((s) => (
+                <option key={s} value={s}>
+                  {DUE_STATE_LABELS[s]}
+                </option>
+              ))}
+            </FilterSelect>
+            <FilterSelect label="Plans" value={active} onChange={(v) => t.setFilter('active', v as ListPlansQuery['active'])}>
+              <option value="true">In use</option>
+              <option value="false">Paused</option>
+              <option value="all">All</option>
+            </FilterSelect>
           </>
         }
       />

@@ -1,6 +1,7 @@
 import { useState } from 'react';
-import { createColumnHelper, type SortingState } from '@tanstack/react-table';
+import { createColumnHelper } from '@tanstack/react-table';
 import { DataTable } from '../../../components/ui/data-table';
+import { FilterSearch, FilterSelect, useServerTable } from '../../../components/ui/data-table-filters';
 import { Badge, EmptyState, Notice } from '../../../components/ui/notice';
 import { Button } from '../../../components/ui/button';
 import { ConfirmDialog } from '../../../components/ui/confirm-dialog';
@@ -15,26 +16,23 @@ const statusTone = { active: 'safe', invited: 'caution', deactivated: 'info' } a
 
 export function UsersTable({ currentUserId }: { currentUserId: string }) {
   const f = useShopFormat();
-  const [page, setPage] = useState(1);
-  const [sorting, setSorting] = useState<SortingState>([{ id: 'name', desc: false }]);
-  const [q, setQ] = useState('');
-  const [role, setRole] = useState<Role | ''>('');
-  const [status, setStatus] = useState<ListUsersQuery['status'] | ''>('');
+  const t = useServerTable([{ id: 'name', desc: false }], { q: '', role: '' as Role | '', status: '' as NonNullable<ListUsersQuery['status']> | '' });
+  const { q, role, status } = t.filters;
   const [pending, setPending] = useState<{ row: MemberRow; active: boolean } | null>(null);
   const [pendingRole, setPendingRole] = useState<{ row: MemberRow; role: Role } | null>(null);
   const [message, setMessage] = useState<{ tone: 'danger' | 'safe'; text: string } | null>(null);
   const update = useUpdateMember();
   const resend = useResendInvitation();
   const pageSize = 25;
-  const sort = (sorting[0]?.id ?? 'name') as ListUsersQuery['sort'];
+  const sort = (t.sorting[0]?.id ?? 'name') as ListUsersQuery['sort'];
   const users = useUsers({
-    page,
+    page: t.page,
     pageSize,
     q: q || undefined,
     role: role || undefined,
     status: status || undefined,
     sort,
-    dir: sorting[0]?.desc ? 'desc' : 'asc',
+    dir: t.sorting[0]?.desc ? 'desc' : 'asc',
   });
 
   const changeRole = async (row: MemberRow, next: Role) => {
@@ -110,7 +108,6 @@ export function UsersTable({ currentUserId }: { currentUserId: string }) {
     }),
   ];
 
-  const filterClass = 'min-h-touch rounded border border-steel-400 bg-white px-3 font-normal';
   return (
     <div className="space-y-3">
       {message ? (
@@ -124,67 +121,29 @@ export function UsersTable({ currentUserId }: { currentUserId: string }) {
         columns={columns}
         data={users.data?.rows ?? []}
         loading={users.isLoading}
+        fetching={users.isFetching}
+        resultKey={t.resultKey}
+        countLabel={(n) => `${n} ${n === 1 ? 'person matches' : 'people match'}`}
         getRowId={(r) => r.membershipId}
         empty={<EmptyState title="Nobody matches these filters" />}
-        server={{
-          total: users.data?.total ?? 0,
-          page,
-          pageSize,
-          sorting,
-          onSortingChange: (s) => {
-            setSorting(s);
-            setPage(1);
-          },
-          onPageChange: setPage,
-        }}
+        server={t.paging(users.data?.total ?? 0, pageSize)}
         toolbar={
           <>
-            <label className="flex flex-col text-sm font-semibold">
-              Search
-              <input
-                className={filterClass}
-                value={q}
-                placeholder="Name or e-mail"
-                onChange={(e) => {
-                  setQ(e.target.value);
-                  setPage(1);
-                }}
-              />
-            </label>
-            <label className="flex flex-col text-sm font-semibold">
-              Role
-              <select
-                className={filterClass}
-                value={role}
-                onChange={(e) => {
-                  setRole(e.target.value as Role | '');
-                  setPage(1);
-                }}
-              >
-                <option value="">All roles</option>
-                {ROLES.map((r) => (
-                  <option key={r} value={r}>
-                    {ROLE_LABELS[r]}
-                  </option>
-                ))}
-              </select>
-            </label>
-            <label className="flex flex-col text-sm font-semibold">
-              Status
-              <select
-                className={filterClass}
-                value={status}
-                onChange={(e) => {
-                  setStatus(e.target.value as ListUsersQuery['status'] | '');
-                  setPage(1);
-                }}
-              >
-                <option value="">Any status</option>
-                <option value="active">Active</option>
-                <option value="invited">Invited</option>
-                <option value="deactivated">Deactivated</option>
-              </select>
-            </label>
+            <FilterSearch value={q} placeholder="Name or e-mail" onChange={(v) => t.setFilter('q', v)} />
+            <FilterSelect label="Role" value={role} onChange={(v) => t.setFilter('role', v as Role | '')}>
+              <option value="">All roles</option>
+              {ROLES.map((r) => (
+                <option key={r} value={r}>
+                  {ROLE_LABELS[r]}
+                </option>
+              ))}
+            </FilterSelect>
+            <FilterSelect label="Status" value={status} onChange={(v) => t.setFilter('status', v as NonNullable<ListUsersQuery['status']> | '')}>
+              <option value="">Any status</option>
+              <option value="active">Active</option>
+              <option value="invited">Invited</option>
+              <option value="deactivated">Deactivated</option>
+            </FilterSelect>
           </>
         }
       />
