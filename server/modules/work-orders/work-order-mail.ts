@@ -5,7 +5,7 @@ import { cachedZone } from '../../../shared/domain/zone-offsets';
 import type { Role } from '../../../shared/permissions';
 import type { NotifyMode } from '../../../shared/schemas/work-orders';
 import { queueMail } from '../../mail/outbox';
-import { renderMail } from '../../mail/templates';
+import { renderMail, type MailLine } from '../../mail/templates';
 
 export type Person = { userId: string; email: string; name: string; role: Role; mode: NotifyMode };
 
@@ -88,8 +88,9 @@ function lineText(w: WorkLine, timeZone: string): string {
 /** A mail lists this many lines at most; the rest is a count and a link to the list. */
 export const MAX_LINES = 30;
 
-function listText(lines: WorkLine[], timeZone: string): string[] {
-  const shown = lines.slice(0, MAX_LINES).map((w) => lineText(w, timeZone));
+/** Each listed work order links to its own page, so nobody has to find it again in a list. */
+function listText(lines: WorkLine[], ctx: Pick<Ctx, 'timeZone' | 'appUrl'>): (string | MailLine)[] {
+  const shown: (string | MailLine)[] = lines.slice(0, MAX_LINES).map((w) => ({ text: lineText(w, ctx.timeZone), url: workLink(ctx.appUrl, w.id) }));
   return lines.length > MAX_LINES ? [...shown, `… and ${lines.length - MAX_LINES} more: see the list in Kerfbook.`] : shown;
 }
 
@@ -126,7 +127,7 @@ export function queueRaisedNotices(em: EntityManager, ctx: Ctx, lines: WorkLine[
         paragraphs: [
           `Hello ${person.name},`,
           one ? `Kerfbook raised this work for you${one.reason ? ` because ${one.reason}` : ''}.` : 'Kerfbook raised this work for you:',
-          ...listText(mine, ctx.timeZone),
+          ...listText(mine, ctx),
           'You can change how often Kerfbook mails you under My notices.',
         ],
         action: one
@@ -137,6 +138,29 @@ export function queueRaisedNotices(em: EntityManager, ctx: Ctx, lines: WorkLine[
     });
   }
   return groups.size;
+}
+
+/** "Work assigned to you": told at once to someone who takes notices as they happen. Returns the number of mails queued. */
+export function queueAssignedNotice(em: EntityManager, ctx: Ctx, line: WorkLine, person: Person, byName: string): number {
+  if (person.mode !== 'immediate') return 0;
+  queueMail(em, {
+    to: person.email,
+    kind: 'work-assigned',
+    organizationId: ctx.orgId,
+    subject: `Assigned to you: WO ${line.number} ${line.title} on ${line.machineCode}`,
+    ...renderMail({
+      heading: `WO ${line.number}: ${line.title}`,
+      paragraphs: [
+        `Hello ${person.name},`,
+        `${byName} assigned this work to you.`,
+        ...listText([line], ctx),
+        'You can change how often Kerfbook mails you under My notices.',
+      ],
+      action: { label: `Open WO ${line.number}`, url: workLink(ctx.appUrl, line.id) },
+      caution: true,
+    }),
+  });
+  return 1;
 }
 
 /**
@@ -158,7 +182,7 @@ export function queueEscalations(em: EntityManager, ctx: Ctx, lines: WorkLine[],
         paragraphs: [
           `Hello ${person.name},`,
           'This work is past its due point and not signed off yet:',
-          ...listText(mine, ctx.timeZone),
+          ...listText(mine, ctx),
           'Please see that it is done or re-planned.',
         ],
         action: { label: 'Open past-due work', url: `${ctx.appUrl}/work-orders?due=overdue` },
@@ -179,7 +203,7 @@ export function queueEscalations(em: EntityManager, ctx: Ctx, lines: WorkLine[],
         heading: safety ? 'Your safety work is past due' : 'Your work is past due',
         paragraphs: [
           `Hello ${person.name},`,
-          ...listText(mine, ctx.timeZone),
+          ...listText(mine, ctx),
           safety ? 'Notices about past-due safety work are always sent, whatever your notice setting.' : 'Your admin has been told as well.',
         ],
         action:
@@ -204,7 +228,7 @@ export function queueDigest(em: EntityManager, ctx: Ctx, person: Person, lines: 
     subject: `Your work for ${localDate}: ${lines.length} open${overdue ? `, ${overdue} past due` : ''}`,
     ...renderMail({
       heading: `Open work for ${person.name}`,
-      paragraphs: [`Summary for ${localDate} at ${ctx.orgName}.`, ...listText(lines, ctx.timeZone)],
+      paragraphs: [`Summary for ${localDate} at ${ctx.orgName}.`, ...listText(lines, ctx)],
       action: { label: 'Open my work', url: `${ctx.appUrl}/work-orders?assignee=me` },
       caution: true,
     }),
