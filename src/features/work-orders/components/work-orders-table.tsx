@@ -31,12 +31,15 @@ export function WorkOrdersTable({
   caption = 'Work orders',
   pageSize = 25,
   defaultStatus = 'active',
+  defaultSort = { sort: 'dueAt', dir: 'asc' },
 }: {
   fixed?: Partial<ListWorkOrdersQuery>;
   caption?: string;
   pageSize?: number;
   /** 'active' lists unfinished work; 'any' includes signed-off and called-off work (a plan's history). */
   defaultStatus?: 'active' | 'any';
+  /** The order before anyone sorts: soonest due for a to-do list, newest first for a history. */
+  defaultSort?: { sort: ListWorkOrdersQuery['sort']; dir: 'asc' | 'desc' };
 }) {
   const f = useShopFormat();
   const [params, setParams] = useSearchParams();
@@ -44,8 +47,8 @@ export function WorkOrdersTable({
   const plans = usePlanOptions();
   const get = (k: string) => params.get(k) ?? '';
   const page = Number(params.get('page') ?? '1') || 1;
-  const sort = (params.get('sort') ?? 'dueAt') as ListWorkOrdersQuery['sort'];
-  const dir = (params.get('dir') ?? 'asc') as 'asc' | 'desc';
+  const sort = (params.get('sort') ?? defaultSort.sort) as ListWorkOrdersQuery['sort'];
+  const dir = (params.get('sort') ? (params.get('dir') ?? 'asc') : defaultSort.dir) as 'asc' | 'desc';
   const status = (params.get('status') ?? defaultStatus) as ListWorkOrdersQuery['status'] | 'any';
   const set = (k: string, v: string) => {
     const next = new URLSearchParams(params);
@@ -167,7 +170,7 @@ export function WorkOrdersTable({
           sorting,
           onSortingChange: (s) => {
             const next = new URLSearchParams(params);
-            next.set('sort', s[0]?.id ?? 'dueAt');
+            next.set('sort', s[0]?.id ?? defaultSort.sort);
             next.set('dir', s[0]?.desc ? 'desc' : 'asc');
             next.delete('page');
             setParams(next, { replace: true });
