@@ -20,6 +20,42 @@ import { DueBadge, LockoutBadge, StateBadge } from '../../../components/ui/work-
 import { useShopFormat } from '../../../lib/format';
 
 const col = createColumnHelper<WorkOrderRow>();
+
+/** One work order on a phone: number and work, machine, due and state, with no sideways scrolling. */
+function WorkOrderCard({ row }: { row: WorkOrderRow }) {
+  const f = useShopFormat();
+  return (
+    <div className="space-y-1">
+      <div className="flex items-start justify-between gap-2">
+        <Link
+          className="inline-flex min-h-touch min-w-0 flex-1 items-center font-semibold underline"
+          to={`/work-orders/${row.id}`}
+          aria-label={`WO ${row.number}: ${row.title}`}
+        >
+          <span className="break-words">
+            <span className="font-bold text-mandatory">WO {row.number}</span> · {row.title}
+          </span>
+        </Link>
+        <span className="shrink-0 pt-2">
+          <StateBadge status={row.status} />
+        </span>
+      </div>
+      <p className="text-sm text-steel-800">
+        {row.machine.code} · {row.machine.name}
+        {row.requiresLockout ? (
+          <span className="ml-2 inline-block align-middle">
+            <LockoutBadge />
+          </span>
+        ) : null}
+      </p>
+      <p className="flex flex-wrap items-center gap-x-2 text-sm text-steel-700">
+        <span>Due {f.dateTime(row.dueAt)}</span>
+        <DueBadge state={row.dueState} />
+        {row.dueState !== 'closed' && row.dueAt ? <span>{f.relative(row.dueAt)}</span> : null}
+      </p>
+    </div>
+  );
+}
 const filterClass = 'min-h-touch rounded border border-steel-400 bg-white px-3 font-normal';
 
 /**
@@ -162,6 +198,8 @@ export function WorkOrdersTable({
         resultKey={JSON.stringify(filters)}
         countLabel={(n) => `${n} work ${n === 1 ? 'order matches' : 'orders match'}`}
         getRowId={(r) => r.id}
+        foldToolbar
+        renderCard={(r) => <WorkOrderCard row={r} />}
         empty={<EmptyState title="No work matches these filters">Try “Any state” or clear the filters.</EmptyState>}
         server={{
           total: q.data?.total ?? 0,
