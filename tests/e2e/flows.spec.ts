@@ -139,3 +139,29 @@ test("a plan's own work orders are listed newest first", async ({ page }) => {
   await expect(table.getByRole('columnheader', { name: /WO/ })).toHaveAttribute('aria-sort', 'descending');
   await page.screenshot({ path: `${SHOTS}/plan-work-newest-first.png`, fullPage: true });
 });
+
+test("a plan's meter bar shows the share of the interval used since it was last done", async ({ page }) => {
+  await signIn(page, 'admin@alder-row.example');
+  type Detail = { id: string; meterDue: { meterId: string; startValue?: number; dueValue: number; current: number | null }[] };
+  const plans = await apiJson<{ rows: { id: string }[] }>(page, '/api/plans?pageSize=100');
+  let found: { plan: Detail; m: Detail['meterDue'][number] } | null = null;
+  for (const p of plans.rows) {
+    const plan = await apiJson<Detail>(page, `/api/plans/${p.id}`);
+    // A meter still inside its interval, far enough in that the reading over the mark would read otherwise.
+    const m = plan.meterDue.find((x) => x.current !== null && x.startValue !== undefined && x.current < x.dueValue && x.startValue > 0);
+    if (m) {
+      found = { plan, m };
+      break;
+    }
+  }
+  expect(found, 'a demo plan with a meter inside its interval').not.toBeNull();
+  const { plan, m } = found!;
+  // (current − start) ÷ (due − start), the interval's own share; not current ÷ due.
+  const used = Math.round(((m.current! - m.startValue!) / (m.dueValue - m.startValue!)) * 100);
+  const overMark = Math.round((m.current! / m.dueValue) * 100);
+  await page.goto(`/plans/${plan.id}`);
+  const bar = page.getByRole('img', { name: /% of the interval used$/ }).first();
+  await expect(bar).toHaveAccessibleName(new RegExp(`: ${used} % of the interval used$`));
+  if (used !== overMark) await expect(bar).not.toHaveAccessibleName(new RegExp(`: ${overMark} % of`));
+  await page.screenshot({ path: `${SHOTS}/plan-meter-bar.png`, fullPage: true });
+});
