@@ -56,6 +56,16 @@ function WorkOrderCard({ row }: { row: WorkOrderRow }) {
     </div>
   );
 }
+
+/** The orders a phone offers in place of the table's sortable headers. */
+const PHONE_SORTS = [
+  { value: 'dueAt:asc', label: 'Due, soonest first' },
+  { value: 'dueAt:desc', label: 'Due, latest first' },
+  { value: 'number:desc', label: 'Newest first' },
+  { value: 'number:asc', label: 'Oldest first' },
+  { value: 'machine:asc', label: 'Machine' },
+  { value: 'status:asc', label: 'State' },
+] as const;
 const filterClass = 'min-h-touch rounded border border-steel-400 bg-white px-3 font-normal';
 
 /**
@@ -217,6 +227,29 @@ export function WorkOrdersTable({
         }}
         toolbar={
           <>
+            {/* Cards have no column headers to press: on a phone the order is chosen here. */}
+            <label className="flex flex-col text-sm font-semibold sm:hidden">
+              Sort by
+              <select
+                className={filterClass}
+                value={`${sort}:${dir}`}
+                onChange={(e) => {
+                  const [id, d] = e.target.value.split(':');
+                  const next = new URLSearchParams(params);
+                  next.set('sort', id);
+                  next.set('dir', d);
+                  next.delete('page');
+                  setParams(next, { replace: true });
+                }}
+              >
+                {PHONE_SORTS.map((o) => (
+                  <option key={o.value} value={o.value}>
+                    {o.label}
+                  </option>
+                ))}
+                {PHONE_SORTS.some((o) => o.value === `${sort}:${dir}`) ? null : <option value={`${sort}:${dir}`}>As chosen</option>}
+              </select>
+            </label>
             <label className="flex flex-col text-sm font-semibold">
               Search
               <input
