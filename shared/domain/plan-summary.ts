@@ -45,3 +45,17 @@ export function summarizeTriggers(ts: StoredTrigger[], meterOf: (id: string) => 
   const parts = ts.map((t) => summarizeTrigger(t, 'meterId' in t ? meterOf(t.meterId) : undefined));
   return parts.length > 1 ? `${parts.join(', or ')} — whichever comes first` : (parts[0] ?? '');
 }
+
+/**
+ * The share of a meter interval used so far, 0…1: how far the meter has come since the interval
+ * started (the reading at the last completion) out of the interval's length, (current − start) ÷
+ * (due − start), clamped. Linear interpolation along a usage-based interval, as "every N units since
+ * it was last done" counts it (common practice; plain arithmetic). Not the reading over the mark:
+ * a meter at 12 000 h with the next mark at 12 500 h has used 0 of a 500 h interval, not 96 %.
+ */
+export function intervalUsed(current: number | null, startValue: number, dueValue: number): number {
+  if (current === null || !Number.isFinite(current)) return 0;
+  const length = dueValue - startValue;
+  if (!(length > 0)) return current >= dueValue ? 1 : 0;
+  return Math.min(1, Math.max(0, (current - startValue) / length));
+}

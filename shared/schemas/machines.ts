@@ -27,6 +27,12 @@ export const METER_UNITS: Record<MeterKind, readonly string[]> = {
   condition: ['Pa', 'kPa', 'bar', 'psi', 'inH2O', '°C', '°F', 'mm'],
 };
 
+/** The unit a meter form shows after its kind changes: the chosen unit while the kind allows it, else the kind's first (“h” for running time). */
+export function unitForKind(kind: MeterKind, unit: string | undefined): string {
+  const units = METER_UNITS[kind] ?? [];
+  return unit !== undefined && units.includes(unit) ? unit : (units[0] ?? '');
+}
+
 /** Empty form fields become null so optional columns are cleared, not filled with ''. */
 const optionalText = (max: number, label: string) =>
   z

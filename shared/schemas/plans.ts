@@ -217,7 +217,7 @@ export type PlanDetail = {
   stationRecord: (StationRecordRule & { summary: string }) | null;
   /** Per-trigger view from the last evaluation. */
   evaluation: { kind: string; status: DueState; dueAt: string | null; reason: string }[];
-  meterDue: { meterId: string; dueValue: number; current: number | null; forecastAt: string | null }[];
+  meterDue: { meterId: string; startValue?: number; dueValue: number; current: number | null; forecastAt: string | null }[];
   openWorkOrder: { id: string; number: number; status: string } | null;
   timeZone: string;
 };

@@ -33,10 +33,17 @@ export const lockPointInput = z.object({
   tagNumber: oneLine(z.string().trim().max(30, 'Tag number: at most 30 characters')).optional(),
 });
 
+const REASON_MAX = 300;
+
+/** "Work to be done" for a lockout applied from a work order: its number and title, within the field's limit. */
+export function lockoutReasonFromWork(wo: { number: number; title: string }): string {
+  return `WO ${wo.number}: ${wo.title.trim()}`.slice(0, REASON_MAX);
+}
+
 const applyLockoutFields = z.object({
   procedureId: z.uuid({ message: 'Choose the energy-control procedure' }),
   workOrderId: z.uuid({ message: 'Not a valid work order id' }).optional(),
-  reason: z.string().trim().min(3, 'Say what work the lockout is for').max(300, 'Reason: at most 300 characters'),
+  reason: z.string().trim().min(3, 'Say what work the lockout is for').max(REASON_MAX, `Reason: at most ${REASON_MAX} characters`),
   group: z.boolean().default(false),
   points: z.array(lockPointInput).min(1, 'Lock out at least one isolation point').max(20),
 });

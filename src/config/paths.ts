@@ -31,7 +31,14 @@ export const paths = {
       `/safety/lockouts/new${o.machineId || o.workOrderId ? `?${new URLSearchParams(Object.entries(o).filter(([, v]) => v) as [string, string][]).toString()}` : ''}`,
   },
   safetyLockout: { path: '/safety/lockouts/:id', getHref: (id: string) => `/safety/lockouts/${id}` },
-  safetyPpe: { path: '/safety/ppe', getHref: (machineId?: string) => `/safety/ppe${machineId ? `?machineId=${machineId}` : ''}` },
+  safetyPpe: {
+    path: '/safety/ppe',
+    /** `back`: the station to return to once the check is signed. */
+    getHref: (machineId?: string, back?: string) => {
+      const q = new URLSearchParams(Object.entries({ machineId, back }).filter(([, v]) => v) as [string, string][]).toString();
+      return `/safety/ppe${q ? `?${q}` : ''}`;
+    },
+  },
   safetyPpeRequirements: { path: '/safety/ppe/requirements', getHref: () => '/safety/ppe/requirements' },
   safetyRecords: { path: '/safety/records', getHref: () => '/safety/records' },
   safetyHotWork: { path: '/safety/hot-work', getHref: () => '/safety/hot-work' },

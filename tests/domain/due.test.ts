@@ -139,7 +139,7 @@ describe('meter every 500 h with a baseline (hand-worked)', () => {
   it('forecasts the due date from the usage rate: 100 h left at 10 h/day → 31 Mar', () => {
     const e = evaluatePlan(meterPlan({ dueSoon: { days: 7 } }));
     expect(e.status).toBe('not-due'); // 9 days away > 7
-    expect(e.dueMeter).toEqual([{ meterId: 'pump-hours', dueValue: 1700, current: 1600, forecastAt: D('2024-03-31T00:00:00Z') }]);
+    expect(e.dueMeter).toEqual([{ meterId: 'pump-hours', startValue: 1200, dueValue: 1700, current: 1600, forecastAt: D('2024-03-31T00:00:00Z') }]);
     expect(e.dueAt?.toISOString()).toBe('2024-03-31T00:00:00.000Z');
     expect(evaluatePlan(meterPlan({ dueSoon: { days: 10 } })).status).toBe('due-soon'); // 9 days ≤ 10
   });
@@ -171,7 +171,7 @@ describe('meter every 500 h with a baseline (hand-worked)', () => {
   it('no reading yet → not due, with a reason', () => {
     const e = evaluatePlan(meterPlan({}, null as never, []));
     expect(e.status).toBe('not-due');
-    expect(e.dueMeter[0]).toEqual({ meterId: 'pump-hours', dueValue: 1700, current: null, forecastAt: null });
+    expect(e.dueMeter[0]).toEqual({ meterId: 'pump-hours', startValue: 1200, dueValue: 1700, current: null, forecastAt: null });
     expect(e.reason).toMatch(/no reading yet/);
   });
 });

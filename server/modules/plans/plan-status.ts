@@ -24,7 +24,13 @@ export function statusColumns(ev: Evaluation, human: (s: string) => string = (s)
     recheckAt: ev.changesAt ?? NO_TIME_BOUNDARY,
     evaluation: {
       triggers: ev.triggers.map((t) => ({ kind: t.kind, status: t.status, dueAt: t.dueAt?.toISOString() ?? null, reason: human(t.reason) })),
-      meterDue: ev.dueMeter.map((m) => ({ meterId: m.meterId, dueValue: m.dueValue, current: m.current, forecastAt: m.forecastAt?.toISOString() ?? null })),
+      meterDue: ev.dueMeter.map((m) => ({
+        meterId: m.meterId,
+        startValue: m.startValue,
+        dueValue: m.dueValue,
+        current: m.current,
+        forecastAt: m.forecastAt?.toISOString() ?? null,
+      })),
     },
   };
 }

@@ -12,7 +12,7 @@ export type MeterBaselines = Record<string, { value: number; at: string }>;
 /** Last evaluation per trigger, kept so screens can explain a status without re-running the engine. */
 export type StoredEvaluation = {
   triggers: { kind: string; status: (typeof DUE_STATES)[number]; dueAt: string | null; reason: string }[];
-  meterDue: { meterId: string; dueValue: number; current: number | null; forecastAt: string | null }[];
+  meterDue: { meterId: string; startValue?: number; dueValue: number; current: number | null; forecastAt: string | null }[];
 };
 
 /** A recurring piece of maintenance or safety work on one machine or component. */

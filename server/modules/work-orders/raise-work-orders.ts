@@ -167,7 +167,7 @@ export async function raiseWorkOrders(
 type UntoldRow = WorkRow & { status: string; overdue: boolean; reason: string | null };
 
 /** The raised work with its machine's code and name, as notices list it. */
-async function loadWorkRows(tx: EntityManager, ids: string[]): Promise<UntoldRow[]> {
+export async function loadWorkRows(tx: EntityManager, ids: string[]): Promise<UntoldRow[]> {
   return tx.execute(
     `select w.id, w.number, w.title, w.due_at, w.status, w.overdue, w.reason, w.safety_critical, w.requires_lockout, w.assignee_id,
             w.responsible_role, m.code, m.name
@@ -179,7 +179,7 @@ async function loadWorkRows(tx: EntityManager, ids: string[]): Promise<UntoldRow
 
 export type ShopNotices = { orgId: string; orgName: string; timeZone: string; appUrl: string };
 
-async function loadShop(tx: EntityManager, orgId: string, appUrl: string): Promise<ShopNotices> {
+export async function loadShop(tx: EntityManager, orgId: string, appUrl: string): Promise<ShopNotices> {
   const [org]: { name: string; time_zone: string }[] = await tx.execute(`select name, time_zone from organization where id = ?`, [orgId]);
   return { orgId, orgName: org.name, timeZone: org.time_zone, appUrl };
 }

@@ -4,7 +4,7 @@ import { formatDate, formatDateTime, shopLocale, type ShopClock } from '../../..
 import type { Role } from '../../../shared/permissions';
 import type { NotifyMode } from '../../../shared/schemas/work-orders';
 import { queueMail } from '../../mail/outbox';
-import { renderMail } from '../../mail/templates';
+import { renderMail, type MailLine } from '../../mail/templates';
 
 export type Person = { userId: string; email: string; name: string; role: Role; mode: NotifyMode };
 
@@ -82,9 +82,10 @@ function lineText(w: WorkLine, shop: ShopClock): string {
 /** A mail lists this many lines at most; the rest is a count and a link to the list. */
 export const MAX_LINES = 30;
 
-function listText(lines: WorkLine[], ctx: Ctx): string[] {
+/** Each listed work order links to its own page, so nobody has to find it again in a list. */
+function listText(lines: WorkLine[], ctx: Ctx): (string | MailLine)[] {
   const shop = shopClock(ctx);
-  const shown = lines.slice(0, MAX_LINES).map((w) => lineText(w, shop));
+  const shown: (string | MailLine)[] = lines.slice(0, MAX_LINES).map((w) => ({ text: lineText(w, shop), url: workLink(ctx.appUrl, w.id) }));
   return lines.length > MAX_LINES ? [...shown, `… and ${lines.length - MAX_LINES} more: see the list in Kerfbook.`] : shown;
 }
 
@@ -135,6 +136,29 @@ export function queueRaisedNotices(em: EntityManager, ctx: Ctx, lines: WorkLine[
     });
   }
   return groups.size;
+}
+
+/** "Work assigned to you": told at once to someone who takes notices as they happen. Returns the number of mails queued. */
+export function queueAssignedNotice(em: EntityManager, ctx: Ctx, line: WorkLine, person: Person, byName: string): number {
+  if (person.mode !== 'immediate') return 0;
+  queueMail(em, {
+    to: person.email,
+    kind: 'work-assigned',
+    organizationId: ctx.orgId,
+    subject: `Assigned to you: WO ${line.number} ${line.title} on ${line.machineCode}`,
+    ...renderMail({
+      heading: `WO ${line.number}: ${line.title}`,
+      paragraphs: [
+        `Hello ${person.name},`,
+        `${byName} assigned this work to you.`,
+        ...listText([line], ctx),
+        'You can change how often Kerfbook mails you under My notices.',
+      ],
+      action: { label: `Open WO ${line.number}`, url: workLink(ctx.appUrl, line.id) },
+      caution: true,
+    }),
+  });
+  return 1;
 }
 
 /**

@@ -52,7 +52,7 @@ export function registerWorkOrderRoutes(r: ApiRouter, config: Config) {
     '/work-orders/:id',
     { access: 'work-orders.work', params: uuidParam, body: updateWorkOrderInput },
     async (_req, res, { params, body, principal: who }) => {
-      await updateWorkOrder(em(), who, params.id, body);
+      await updateWorkOrder(em(), who, params.id, body, config.APP_URL);
       res.json({ ok: true });
     },
   );

@@ -11,7 +11,8 @@ import { appendSignOff, confirmSignature } from '../safety/chain';
 import { recordActivity } from '../activity-log/activity-log.service';
 import { currentBaselines, refreshPlanStatus } from '../plans/plan-evaluation';
 import { findMachine } from '../plans/plans.service';
-import { raiseWorkOrders } from './raise-work-orders';
+import { loadShop, loadWorkRows, raiseWorkOrders } from './raise-work-orders';
+import { loadPeople, queueAssignedNotice, workLine } from './work-order-mail';
 import { returnToServiceOnWorkDone } from '../machines/machine-state.service';
 import { OPEN, closeBlockers, findWorkOrder, iso } from './work-orders.queries';
 import { WORK_STATE_LABELS } from '../../../shared/schemas/work-orders';
@@ -72,7 +73,16 @@ export async function raiseWorkOrder(em: EntityManager, who: Principal, input: R
   });
 }
 
-export async function updateWorkOrder(em: EntityManager, who: Principal, id: string, input: UpdateWorkOrderInput): Promise<void> {
+/** Tells the newly named person about the work, in the caller's transaction (not when they named themselves). */
+async function tellNewAssignee(tx: EntityManager, who: Principal, workOrderId: string, assigneeId: string, appUrl: string) {
+  if (assigneeId === who.userId) return;
+  const person = (await loadPeople(tx, who.orgId)).find((p) => p.userId === assigneeId);
+  if (!person) return;
+  const [row] = await loadWorkRows(tx, [workOrderId]);
+  queueAssignedNotice(tx, await loadShop(tx, who.orgId, appUrl), workLine(row, row.overdue), person, who.name);
+}
+
+export async function updateWorkOrder(em: EntityManager, who: Principal, id: string, input: UpdateWorkOrderInput, appUrl: string): Promise<void> {
   await em.transactional(async (tx) => {
     const wo = await findWorkOrder(tx, id, true);
     if (input.assigneeId !== undefined || input.dueAt !== undefined || input.requiresLockout !== undefined) mustBeOpen(wo, 'be re-planned');
@@ -89,6 +99,10 @@ export async function updateWorkOrder(em: EntityManager, who: Principal, id: str
     if (input.notes !== undefined) wo.notes = input.notes;
     if (input.requiresLockout !== undefined) wo.requiresLockout = input.requiresLockout;
     recordActivity(tx, who, 'work-order.updated', { type: 'WorkOrder', id: wo.id }, { before, after: input });
+    if (input.assigneeId && input.assigneeId !== before.assignee) {
+      await tx.flush();
+      await tellNewAssignee(tx, who, wo.id, input.assigneeId, appUrl);
+    }
   });
 }
 

@@ -21,7 +21,7 @@ export function evalMeter(t: Extract<Trigger, { kind: 'meter' }>, input: PlanInp
   if (current === null) {
     return {
       evaluation: { ...base, status: 'not-due', dueAt: null, key: null, reason: `${label}: no reading yet (due at ${numText(dueValue)})`, changesAt: null },
-      meter: { meterId: t.meterId, dueValue, current: null, forecastAt: null },
+      meter: { meterId: t.meterId, startValue: m.baseline, dueValue, current: null, forecastAt: null },
     };
   }
   const windowUnits = (dueSoon.fraction ?? 0) * t.every;
@@ -43,7 +43,7 @@ export function evalMeter(t: Extract<Trigger, { kind: 'meter' }>, input: PlanInp
         // With a unit window only new readings make it overdue; without one, time since the crossing does.
         changesAt: !overdue && windowUnits <= 0 ? justAfter(crossedAt.getTime() + graceMs) : null,
       },
-      meter: { meterId: t.meterId, dueValue, current, forecastAt: crossedAt },
+      meter: { meterId: t.meterId, startValue: m.baseline, dueValue, current, forecastAt: crossedAt },
     };
   }
   const forecastAt = readings.length < 2 ? null : forecastReach(readings, dueValue, { sorted: readings, ratePerDay: usageRateOf(readings) });
@@ -59,7 +59,7 @@ export function evalMeter(t: Extract<Trigger, { kind: 'meter' }>, input: PlanInp
       reason: `${label} reads ${numText(current)} of ${numText(dueValue)}${forecastAt ? `, forecast ${iso(forecastAt)}` : ''}`,
       changesAt: !soon && dueSoon.days !== undefined && forecastAt !== null ? new Date(forecastAt.getTime() - dueSoon.days * DAY_MS) : null,
     },
-    meter: { meterId: t.meterId, dueValue, current, forecastAt },
+    meter: { meterId: t.meterId, startValue: m.baseline, dueValue, current, forecastAt },
   };
 }
 

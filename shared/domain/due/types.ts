@@ -56,6 +56,8 @@ export interface TriggerEvaluation {
 
 export interface MeterDue {
   meterId: string;
+  /** The reading the current interval counts from (the baseline at the last completion). */
+  startValue: number;
   dueValue: number;
   current: number | null;
   /** When the meter reached dueValue (estimated between readings) or is forecast to. */

@@ -33,7 +33,13 @@ export function Component() {
           />
           <PlanView plan={p} />
           <Panel title="Work orders from this plan">
-            <WorkOrdersTable fixed={{ planId: p.id }} caption="Work orders from this plan" pageSize={10} defaultStatus="any" />
+            <WorkOrdersTable
+              fixed={{ planId: p.id }}
+              caption="Work orders from this plan"
+              pageSize={10}
+              defaultStatus="any"
+              defaultSort={{ sort: 'number', dir: 'desc' }}
+            />
           </Panel>
         </>
       )}

@@ -1,7 +1,8 @@
-import { Link, useSearchParams } from 'react-router-dom';
+import { Link, useNavigate, useSearchParams } from 'react-router-dom';
 import { PageTitle } from '../../components/layout/app-shell';
 import { useMe } from '../../features/auth/api/get-me';
 import { PpeStation } from '../../features/safety/components/ppe-station';
+import type { PpeSignedState } from '../../features/station/components/ppe-check-link';
 import { queryClient } from '../../lib/query-client';
 import { getPpeRequirementsQueryOptions } from '../../features/safety/api/get-ppe-requirements';
 import { paths } from '../../config/paths';
@@ -13,6 +14,9 @@ export const loader = () => queryClient.ensureQueryData(getPpeRequirementsQueryO
 export function Component() {
   const { data: me } = useMe();
   const [params] = useSearchParams();
+  const navigate = useNavigate();
+  // Only a station page is a place to return to: the address cannot send anyone elsewhere.
+  const back = /^\/station\/[^/?#]+$/.test(params.get('back') ?? '') ? params.get('back')! : null;
   if (!me) return null;
   return (
     <>
@@ -28,7 +32,11 @@ export function Component() {
         }
       />
       {can(me.role, 'safety.ppe.sign') ? (
-        <PpeStation me={{ name: me.user.name, role: me.role }} initialMachineId={params.get('machineId') ?? undefined} />
+        <PpeStation
+          me={{ name: me.user.name, role: me.role }}
+          initialMachineId={params.get('machineId') ?? undefined}
+          onSigned={back ? (signed) => navigate(back, { state: { ppeSigned: signed } satisfies PpeSignedState }) : undefined}
+        />
       ) : (
         <Notice tone="info">PPE checks are signed by the people who work at the machines.</Notice>
       )}

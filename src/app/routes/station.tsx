@@ -6,6 +6,7 @@ import { TorchPanel } from '../../features/station/components/torch-panel';
 import { RecentChanges } from '../../features/station/components/recent-changes';
 import { ToolsSummary } from '../../features/station/components/tools-summary';
 import { RecordCountersPanel } from '../../features/station/components/record-counters-panel';
+import { PpeCheckLink, PpeSignedNotice } from '../../features/station/components/ppe-check-link';
 import { DueList, LockoutAlarmBanner, LockoutBanner } from '../../features/station/components/station-status';
 import { useMachineStatus } from '../../features/machine-state/api/get-status';
 import { StateBanner } from '../../features/machine-state/components/state-banner';
@@ -58,6 +59,7 @@ export function Component() {
       {status.data ? <StateBanner status={status.data} /> : null}
       <LockoutAlarmBanner alarms={s.alarms ?? []} />
       <LockoutBanner lockouts={s.lockouts} />
+      <PpeSignedNotice code={s.machine.code} />
       <div className="flex flex-wrap items-end justify-between gap-3">
         <div>
           <p className="text-sm font-semibold uppercase tracking-wider text-steel-600">Station</p>
@@ -67,6 +69,7 @@ export function Component() {
           <p className="text-steel-700">{[MACHINE_KIND_LABELS[s.machine.kind as MachineKind], s.machine.location].filter(Boolean).join(' · ')}</p>
         </div>
         <div className="no-print flex flex-wrap gap-2">
+          {can(me.role, 'safety.ppe.sign') ? <PpeCheckLink machineId={s.machine.id} code={s.machine.code} /> : null}
           <Link
             to={paths.machine.getHref(s.machine.id)}
             className="inline-flex min-h-touch items-center rounded border border-steel-400 bg-white px-4 font-semibold"

@@ -1,4 +1,4 @@
-import { useState, type ReactNode } from 'react';
+import { useId, useState, type ReactNode } from 'react';
 import {
   flexRender,
   getCoreRowModel,
@@ -38,6 +38,10 @@ type Props<T> = {
   countLabel?: (count: number) => string;
   /** Changes whenever the filters outside the table change, so the new count is announced. */
   resultKey?: string;
+  /** On a phone (below 640 px) each row is shown as this card instead of a table row that would need sideways scrolling. */
+  renderCard?: (row: T) => ReactNode;
+  /** On a phone the toolbar (filters) folds behind a “Filters” button. */
+  foldToolbar?: boolean;
 };
 
 const headerText = (header: unknown, id: string) => (typeof header === 'string' ? header : id);
@@ -47,7 +51,23 @@ const headerText = (header: unknown, id: string) => (typeof header === 'string' 
  * `aria-sort`; every change of filters, sorting or page is announced ("12 signatures match, sorted
  * by Signed, ascending") through a live region that is on the page from the start.
  */
-export function DataTable<T>({ columns, data, caption, server, loading, empty, toolbar, getRowId, fetching, countLabel, resultKey = '' }: Props<T>) {
+export function DataTable<T>({
+  columns,
+  data,
+  caption,
+  server,
+  loading,
+  empty,
+  toolbar,
+  getRowId,
+  fetching,
+  countLabel,
+  resultKey = '',
+  renderCard,
+  foldToolbar = false,
+}: Props<T>) {
+  const [filtersOpen, setFiltersOpen] = useState(false);
+  const toolbarId = useId();
   const [localSorting, setLocalSorting] = useState<SortingState>([]);
   const [visibility, setVisibility] = useState<VisibilityState>({});
   const [globalFilter, setGlobalFilter] = useState('');
@@ -100,7 +120,21 @@ export function DataTable<T>({ columns, data, caption, server, loading, empty, t
 
   return (
     <div className="space-y-3">
-      <div className="no-print flex flex-wrap items-end gap-3">
+      {foldToolbar ? (
+        <Button
+          variant="secondary"
+          className="no-print w-full sm:hidden"
+          aria-expanded={filtersOpen}
+          aria-controls={toolbarId}
+          onClick={() => setFiltersOpen((o) => !o)}
+        >
+          {filtersOpen ? 'Hide filters' : 'Filters'}
+        </Button>
+      ) : null}
+      <div
+        id={toolbarId}
+        className={`no-print flex-wrap items-end gap-3 ${foldToolbar && !filtersOpen ? 'hidden sm:flex' : 'flex'} ${foldToolbar ? 'max-sm:flex-col max-sm:items-stretch' : ''}`}
+      >
         {toolbar}
         {!server ? (
           <label className="flex flex-col text-sm font-semibold text-steel-800">
@@ -130,8 +164,28 @@ export function DataTable<T>({ columns, data, caption, server, loading, empty, t
           </div>
         </details>
       </div>
+      {renderCard ? (
+        <ul className="space-y-2 sm:hidden" aria-label={caption}>
+          {table.getRowModel().rows.map((row) => (
+            <li key={row.id} className="rounded border border-steel-200 bg-white p-3">
+              {renderCard(row.original)}
+            </li>
+          ))}
+          {!loading && table.getRowModel().rows.length === 0 ? <li className="p-4">{empty ?? <EmptyState title="Nothing to show" />}</li> : null}
+          {loading ? (
+            <li className="p-4 text-steel-600" role="status">
+              Loading…
+            </li>
+          ) : null}
+        </ul>
+      ) : null}
       {/* Focusable so a table wider than a phone can be scrolled from the keyboard (WCAG 2.1.1). */}
-      <div className="overflow-x-auto rounded border border-steel-200 bg-white" tabIndex={0} role="region" aria-label={caption}>
+      <div
+        className={`overflow-x-auto rounded border border-steel-200 bg-white ${renderCard ? 'hidden sm:block' : ''}`}
+        tabIndex={0}
+        role="region"
+        aria-label={caption}
+      >
         <table className="w-full border-collapse text-left text-sm">
           <caption className="sr-only">{caption}</caption>
           <thead className="on-dark bg-steel-800 text-white">

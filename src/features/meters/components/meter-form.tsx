@@ -2,7 +2,7 @@ import { useState } from 'react';
 import { useForm } from 'react-hook-form';
 import { zodResolver } from '@hookform/resolvers/zod';
 import type { z } from 'zod';
-import { METER_KINDS, METER_UNITS, meterInputSchema, type MachineRow } from '../../../../shared/schemas/machines';
+import { METER_KINDS, METER_UNITS, meterInputSchema, unitForKind, type MachineRow, type MeterKind } from '../../../../shared/schemas/machines';
 import { SelectField, TextField } from '../../../components/ui/field';
 import { Button } from '../../../components/ui/button';
 import { Notice } from '../../../components/ui/notice';
@@ -19,7 +19,7 @@ export function MeterForm({ machines }: { machines: Pick<MachineRow, 'id' | 'cod
   const create = useCreateMeter();
   const [formError, setFormError] = useState<string | null>(null);
   const [saved, setSaved] = useState<string | null>(null);
-  const { register, handleSubmit, setError, reset, watch, formState } = useForm<In, unknown, Out>({
+  const { register, handleSubmit, setError, reset, watch, setValue, getValues, formState } = useForm<In, unknown, Out>({
     resolver: zodResolver(meterInputSchema),
     defaultValues: { machineId: machines[0]?.id, kind: 'count', unit: 'starts' },
   });
@@ -61,7 +61,10 @@ export function MeterForm({ machines }: { machines: Pick<MachineRow, 'id' | 'cod
         label="Kind"
         error={formState.errors.kind?.message}
         options={METER_KINDS.map((k) => ({ value: k, label: KIND_LABEL[k] }))}
-        {...register('kind')}
+        {...register('kind', {
+          // The unit list follows the kind: a unit the new kind has no use for ("starts" on running time) would be refused on save.
+          onChange: (e) => setValue('unit', unitForKind(e.target.value as MeterKind, getValues('unit')), { shouldValidate: formState.isSubmitted }),
+        })}
       />
       <SelectField
         label="Unit"

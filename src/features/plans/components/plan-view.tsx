@@ -5,6 +5,7 @@ import { ROLE_LABELS } from '../../../../shared/permissions';
 import { DUE_STATE_LABELS, TRIGGER_KIND_LABELS, type PlanDetail } from '../../../../shared/schemas/plans';
 import { PlanDueBadge } from './plan-badges';
 import { useShopFormat, type ShopFormat } from '../../../lib/format';
+import { intervalUsed } from '../../../../shared/domain/plan-summary';
 
 /** "Run hours: 12,009.8 h now, due at 11,986.4 h (23.4 h past)": the reading, the mark and the gap in words. */
 function meterLine(f: ShopFormat, name: string, unit: string, current: number | null, due: number): string {
@@ -78,11 +79,15 @@ export function PlanView({ plan }: { plan: PlanDetail }) {
           </table>
           {plan.meterDue.map((m) => {
             const meter = meterName(m.meterId);
-            const pct = m.current === null ? 0 : Math.min(100, Math.max(0, (m.current / m.dueValue) * 100));
+            // An evaluation stored before the start was kept: the interval is the trigger's own length.
+            const trigger = plan.triggers.find((t) => t.kind === 'meter' && t.meterId === m.meterId);
+            const every = trigger?.kind === 'meter' ? trigger.every : undefined;
+            const start = m.startValue ?? (every !== undefined ? m.dueValue - every : 0);
+            const pct = intervalUsed(m.current, start, m.dueValue) * 100;
             return (
               <div key={m.meterId}>
                 <p className="text-sm font-semibold">{meterLine(f, meter?.name ?? 'Meter', meter?.unit ?? '', m.current, m.dueValue)}</p>
-                <div className="h-3 w-full rounded bg-steel-200" role="img" aria-label={`${meter?.name ?? 'Meter'} at ${Math.round(pct)} % of the next mark`}>
+                <div className="h-3 w-full rounded bg-steel-200" role="img" aria-label={`${meter?.name ?? 'Meter'}: ${Math.round(pct)} % of the interval used`}>
                   <div className={`h-3 rounded ${pct >= 100 ? 'bg-danger' : pct >= 90 ? 'bg-caution' : 'bg-steel-500'}`} style={{ width: `${pct}%` }} />
                 </div>
                 {m.forecastAt ? (

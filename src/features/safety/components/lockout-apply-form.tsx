@@ -10,7 +10,7 @@ import { WorkCaution } from '../../../components/ui/caution';
 import { applyServerErrors } from '../../../lib/form-errors';
 import { paths } from '../../../config/paths';
 import type { Role } from '../../../../shared/permissions';
-import { applyLockoutFormSchema, LOCK_DEVICES, LOCK_DEVICE_LABELS, type LockDevice } from '../../../../shared/schemas/safety-lockout';
+import { applyLockoutFormSchema, lockoutReasonFromWork, LOCK_DEVICES, LOCK_DEVICE_LABELS, type LockDevice } from '../../../../shared/schemas/safety-lockout';
 import { ENERGY_KIND_LABELS, PHASE_LABELS, PROCEDURE_PHASES, type EnergySource } from '../../../../shared/schemas/safety-procedures';
 import { useSafetyMachines } from '../api/get-safety-machines';
 import { useProcedure } from '../api/get-procedure';
@@ -49,7 +49,7 @@ export function LockoutApplyForm({
   const { sign, dialog } = useSignFlow(signer);
   const wo = useLinkedWorkOrder(workOrderId);
   const [formError, setFormError] = useState<string | null>(null);
-  const { register, control, handleSubmit, setError, watch, setValue, formState } = useForm<FormIn, unknown, FormOut>({
+  const { register, control, handleSubmit, setError, watch, setValue, getValues, formState } = useForm<FormIn, unknown, FormOut>({
     resolver: zodResolver(applyLockoutFormSchema),
     defaultValues: { procedureId: '', reason: '', group: false, points: [], workOrderId },
   });
@@ -62,6 +62,11 @@ export function LockoutApplyForm({
     if (approved.length && !approved.some((p) => p.id === procedureId)) setValue('procedureId', approved[0].id);
     if (!approved.length && procedureId) setValue('procedureId', '');
   }, [approved, procedureId, setValue]);
+  // Applied from a work order: the work to be done is that work, unless the person has typed their own words already.
+  const linked = wo.data;
+  useEffect(() => {
+    if (linked && !getValues('reason')?.trim()) setValue('reason', lockoutReasonFromWork(linked));
+  }, [linked, getValues, setValue]);
   useEffect(() => {
     replace(content ? content.sources.map((s) => ({ sourceKey: s.key, device: defaultDevice(s), lockNumber: '', tagNumber: '' })) : []);
   }, [content, replace]);

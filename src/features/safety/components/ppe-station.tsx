@@ -14,7 +14,18 @@ import { useShopFormat } from '../../../lib/format';
 const big = 'flex min-h-16 w-full items-center justify-between gap-3 rounded border-2 px-4 py-3 text-left text-lg font-semibold';
 
 /** The shift PPE check at the machine: pick the machine and task, tap each item once it is on, sign. */
-export function PpeStation({ me, initialMachineId }: { me: { name: string; role: Role }; initialMachineId?: string }) {
+export type PpeSigned = { machineCode: string; task: string; by: string; at: string };
+
+export function PpeStation({
+  me,
+  initialMachineId,
+  onSigned,
+}: {
+  me: { name: string; role: Role };
+  initialMachineId?: string;
+  /** Called once the check is signed, instead of showing the signed check here (e.g. to go back to the station). */
+  onSigned?: (signed: PpeSigned) => void;
+}) {
   const f = useShopFormat();
   const reqs = usePpeRequirements();
   const record = useRecordPpeCheck();
@@ -101,6 +112,11 @@ export function PpeStation({ me, initialMachineId }: { me: { name: string; role:
 
   return (
     <div className="space-y-4">
+      {initialMachineId && machineId === initialMachineId && !machine ? (
+        <Notice tone="caution" title="No PPE requirements for this machine">
+          The safety officer has not set what to wear at this machine. Ask before you start, or choose the machine below.
+        </Notice>
+      ) : null}
       {error ? (
         <Notice tone="danger" role="alert">
           {error}
@@ -216,14 +232,16 @@ export function PpeStation({ me, initialMachineId }: { me: { name: string; role:
                       confirmed: on,
                       password,
                     });
+                    const at = f.time(new Date().toISOString());
+                    setOn([]);
+                    if (onSigned) return onSigned({ machineCode: machine!.code, task: req.task, by: me.name, at });
                     setDone({
                       machine: machine!.code,
                       task: req.task,
                       by: me.name,
-                      at: f.time(new Date().toISOString()),
+                      at,
                       items: req.required.filter((i) => on.includes(i.code)).map((i) => i.label),
                     });
-                    setOn([]);
                   },
                   {
                     onError: (err) => setError(err instanceof ApiError ? err.message : 'Could not reach the server; the check was not recorded.'),

@@ -20,6 +20,52 @@ import { DueBadge, LockoutBadge, StateBadge } from '../../../components/ui/work-
 import { useShopFormat } from '../../../lib/format';
 
 const col = createColumnHelper<WorkOrderRow>();
+
+/** One work order on a phone: number and work, machine, due and state, with no sideways scrolling. */
+function WorkOrderCard({ row }: { row: WorkOrderRow }) {
+  const f = useShopFormat();
+  return (
+    <div className="space-y-1">
+      <div className="flex items-start justify-between gap-2">
+        <Link
+          className="inline-flex min-h-touch min-w-0 flex-1 items-center font-semibold underline"
+          to={`/work-orders/${row.id}`}
+          aria-label={`WO ${row.number}: ${row.title}`}
+        >
+          <span className="break-words">
+            <span className="font-bold text-mandatory">WO {row.number}</span> · {row.title}
+          </span>
+        </Link>
+        <span className="shrink-0 pt-2">
+          <StateBadge status={row.status} />
+        </span>
+      </div>
+      <p className="text-sm text-steel-800">
+        {row.machine.code} · {row.machine.name}
+        {row.requiresLockout ? (
+          <span className="ml-2 inline-block align-middle">
+            <LockoutBadge />
+          </span>
+        ) : null}
+      </p>
+      <p className="flex flex-wrap items-center gap-x-2 text-sm text-steel-700">
+        <span>Due {f.dateTime(row.dueAt)}</span>
+        <DueBadge state={row.dueState} />
+        {row.dueState !== 'closed' && row.dueAt ? <span>{f.relative(row.dueAt)}</span> : null}
+      </p>
+    </div>
+  );
+}
+
+/** The orders a phone offers in place of the table's sortable headers. */
+const PHONE_SORTS = [
+  { value: 'dueAt:asc', label: 'Due, soonest first' },
+  { value: 'dueAt:desc', label: 'Due, latest first' },
+  { value: 'number:desc', label: 'Newest first' },
+  { value: 'number:asc', label: 'Oldest first' },
+  { value: 'machine:asc', label: 'Machine' },
+  { value: 'status:asc', label: 'State' },
+] as const;
 const filterClass = 'min-h-touch rounded border border-steel-400 bg-white px-3 font-normal';
 
 /**
@@ -31,12 +77,15 @@ export function WorkOrdersTable({
   caption = 'Work orders',
   pageSize = 25,
   defaultStatus = 'active',
+  defaultSort = { sort: 'dueAt', dir: 'asc' },
 }: {
   fixed?: Partial<ListWorkOrdersQuery>;
   caption?: string;
   pageSize?: number;
   /** 'active' lists unfinished work; 'any' includes signed-off and called-off work (a plan's history). */
   defaultStatus?: 'active' | 'any';
+  /** The order before anyone sorts: soonest due for a to-do list, newest first for a history. */
+  defaultSort?: { sort: ListWorkOrdersQuery['sort']; dir: 'asc' | 'desc' };
 }) {
   const f = useShopFormat();
   const [params, setParams] = useSearchParams();
@@ -44,8 +93,8 @@ export function WorkOrdersTable({
   const plans = usePlanOptions();
   const get = (k: string) => params.get(k) ?? '';
   const page = Number(params.get('page') ?? '1') || 1;
-  const sort = (params.get('sort') ?? 'dueAt') as ListWorkOrdersQuery['sort'];
-  const dir = (params.get('dir') ?? 'asc') as 'asc' | 'desc';
+  const sort = (params.get('sort') ?? defaultSort.sort) as ListWorkOrdersQuery['sort'];
+  const dir = (params.get('sort') ? (params.get('dir') ?? 'asc') : defaultSort.dir) as 'asc' | 'desc';
   const status = (params.get('status') ?? defaultStatus) as ListWorkOrdersQuery['status'] | 'any';
   const set = (k: string, v: string) => {
     const next = new URLSearchParams(params);
@@ -159,6 +208,8 @@ export function WorkOrdersTable({
         resultKey={JSON.stringify(filters)}
         countLabel={(n) => `${n} work ${n === 1 ? 'order matches' : 'orders match'}`}
         getRowId={(r) => r.id}
+        foldToolbar
+        renderCard={(r) => <WorkOrderCard row={r} />}
         empty={<EmptyState title="No work matches these filters">Try “Any state” or clear the filters.</EmptyState>}
         server={{
           total: q.data?.total ?? 0,
@@ -167,7 +218,7 @@ export function WorkOrdersTable({
           sorting,
           onSortingChange: (s) => {
             const next = new URLSearchParams(params);
-            next.set('sort', s[0]?.id ?? 'dueAt');
+            next.set('sort', s[0]?.id ?? defaultSort.sort);
             next.set('dir', s[0]?.desc ? 'desc' : 'asc');
             next.delete('page');
             setParams(next, { replace: true });
@@ -176,6 +227,29 @@ export function WorkOrdersTable({
         }}
         toolbar={
           <>
+            {/* Cards have no column headers to press: on a phone the order is chosen here. */}
+            <label className="flex flex-col text-sm font-semibold sm:hidden">
+              Sort by
+              <select
+                className={filterClass}
+                value={`${sort}:${dir}`}
+                onChange={(e) => {
+                  const [id, d] = e.target.value.split(':');
+                  const next = new URLSearchParams(params);
+                  next.set('sort', id);
+                  next.set('dir', d);
+                  next.delete('page');
+                  setParams(next, { replace: true });
+                }}
+              >
+                {PHONE_SORTS.map((o) => (
+                  <option key={o.value} value={o.value}>
+                    {o.label}
+                  </option>
+                ))}
+                {PHONE_SORTS.some((o) => o.value === `${sort}:${dir}`) ? null : <option value={`${sort}:${dir}`}>As chosen</option>}
+              </select>
+            </label>
             <label className="flex flex-col text-sm font-semibold">
               Search
               <input
