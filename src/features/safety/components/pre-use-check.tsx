@@ -155,7 +155,7 @@ export function PreUseCheckForm({ code, me, onSigned }: { code: string; me: { na
       </ol>
       {criticalFailing.length ? (
         <Notice tone="danger" title="Do not run this machine">
-          {criticalFailing.map((l) => l.label).join('; ')} failed. Signing takes {view.machineCode} out of service and raises a repair for the technicians.
+          Not OK: {criticalFailing.map((l) => l.label).join('; ')}. Signing takes {view.machineCode} out of service and raises a repair for the technicians.
         </Notice>
       ) : failing.length ? (
         <Notice tone="caution" title="A line is not OK">
