@@ -151,7 +151,7 @@ export function Compliance() {
             }),
             // Today only, whatever the window: the check is per shift day, since midnight in the shop's zone.
             mcol.accessor('preUseMissed', {
-              header: 'Pre-use check today',
+              header: 'Pre-use today',
               cell: (c) => {
                 const r = c.row.original;
                 if (!r.preUseNeeded) return '—';
