@@ -45,6 +45,22 @@ export type TimelineWeek = {
 
 export const SAFETY_EVENT_KIND_LABELS = { refused: 'Refused', alarm: 'Alarm' } as const;
 
+/** Plain words for the actions a safety event names; an action not listed shows as stored. */
+const SAFETY_EVENT_ACTION_LABELS: Record<string, string> = {
+  'lockout.apply': 'Apply a lockout',
+  'lockout.verify': 'Verify zero energy',
+  'lockout.join': 'Join a group lockout',
+  'lockout.leave': 'Take a personal lock off',
+  'lockout.handover': 'Hand a lockout over',
+  'lockout.accept-handover': 'Accept a handover',
+  'lockout.release': 'Release a lockout',
+  'lockout.absent-removal': "Start removing an absent person's lock",
+  'procedure.approve': 'Approve a procedure version',
+  'meter.advance-while-locked': 'Counter rose while locked out',
+};
+export const safetyEventActionLabel = (action: string) =>
+  SAFETY_EVENT_ACTION_LABELS[action] ?? (action.startsWith('lockout.absent-removal.') ? "Sign a step of an absent person's lock removal" : action);
+
 export const listSafetyEventsQuery = paging.extend({
   kind: z.enum(['refused', 'alarm']).optional(),
   machineId: z.uuid({ message: 'Not a valid machine id' }).optional(),

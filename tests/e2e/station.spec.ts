@@ -210,19 +210,23 @@ test.describe('station page on a tablet', () => {
 
 test('a counter CSV with one bad row is reported with its line and nothing is written', async ({ page }) => {
   await signIn(page, 'tech@alder-row.example');
-  const latest = async (p: Page) => {
+  const latestReading = async (p: Page) => {
     const s = await (await p.request.get('/api/stations/C1')).json();
-    return s.torches[0].startsMeter.latest.value as number;
+    return s.torches[0].startsMeter.latest as { value: number; readAt: string };
   };
-  const before = await latest(page);
-  const now = Date.now();
-  const iso = (minutesAgo: number) => new Date(now - minutesAgo * 60_000).toISOString();
+  const latest = async (p: Page) => (await latestReading(p)).value;
+  const last = await latestReading(page);
+  const before = last.value;
+  // Earlier tests record C1-T's counter too: the file's times fall between its latest reading and now.
+  const from = Date.parse(last.readAt);
+  const span = Date.now() - from;
+  const iso = (part: number) => new Date(from + span * part).toISOString();
   const csv = [
     'machine_code,meter_code,read_at,value,reset',
-    `C1-T,arc-starts,${iso(30)},${before + 40},no`,
-    `C1-T,arc-starts,${iso(20)},${before + 80},no`,
-    `C1-T,arc-starts,${iso(10)},not-a-number,no`,
-    `C1-T,arc-hours,${iso(10)},99999,no`,
+    `C1-T,arc-starts,${iso(0.25)},${before + 40},no`,
+    `C1-T,arc-starts,${iso(0.5)},${before + 80},no`,
+    `C1-T,arc-starts,${iso(0.75)},not-a-number,no`,
+    `C1-T,arc-hours,${iso(0.75)},99999,no`,
   ].join('\n');
 
   await page.getByRole('link', { name: 'Counter import' }).click();

@@ -58,6 +58,9 @@ export function SafetyHub({ role }: { role: Role }) {
         <Link className={`${action} border border-steel-400 bg-white text-steel-900`} to={paths.safetyLockouts.getHref()}>
           All lockouts
         </Link>
+        <Link className={`${action} border border-steel-400 bg-white text-steel-900`} to={paths.safetyLocks.getHref()}>
+          Lock register
+        </Link>
         <Link className={`${action} border border-steel-400 bg-white text-steel-900`} to={paths.safetyRecords.getHref()}>
           Inspections and training
         </Link>
@@ -69,6 +72,11 @@ export function SafetyHub({ role }: { role: Role }) {
         {can(role, 'safety.audit') ? (
           <Link className={`${action} border border-steel-400 bg-white text-steel-900`} to={paths.safetyAudit.getHref()}>
             Audit and exports
+          </Link>
+        ) : null}
+        {can(role, 'safety.audit') ? (
+          <Link className={`${action} border border-steel-400 bg-white text-steel-900`} to={paths.safetyEvents.getHref()}>
+            Refusals and alarms
           </Link>
         ) : null}
         {can(role, 'safety.settings.manage') ? (
