@@ -40,7 +40,10 @@ export type PreUseCheckView = {
   machineCode: string;
   machineName: string;
   lines: PreUseLine[] | null;
+  /** In service with a list and not yet checked since the shop's day began. */
   dueToday: boolean;
+  /** A check was signed since the shop's day began. */
+  checkedToday: boolean;
   status: MachineStatus;
   history: PreUseCheckRow[];
 };

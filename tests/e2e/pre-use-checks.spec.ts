@@ -14,7 +14,7 @@ test.describe('pre-use check at the station', () => {
   test('operator opens the check from the press brake station, taps each line, signs, and is back at the station', async ({ page }) => {
     await signIn(page, 'operator@alder-row.example');
     await page.goto('/station/B1');
-    await page.getByRole('link', { name: 'Pre-use check' }).tap();
+    await page.getByRole('link', { name: 'Pre-use check · due' }).tap();
     await expect(page.getByRole('heading', { name: 'Pre-use check · B1' })).toBeVisible();
     await expect(page.getByRole('note').filter({ hasText: 'Safety first' })).toBeVisible();
 
@@ -57,6 +57,7 @@ test.describe('pre-use check at the station', () => {
     const notice = page.getByRole('status').filter({ hasText: 'Pre-use check signed' });
     await expect(notice).toContainText('B1: every line OK');
     await expect(page.getByRole('region', { name: 'Machine state' })).toHaveAttribute('data-state', 'in-service');
+    await expect(page.getByRole('link', { name: 'Pre-use check · done today ✓' })).toBeVisible();
     await shot(page, 'pre-use-check-back-at-station');
 
     // Opened again, the check says today's is done and lists it.

@@ -59,8 +59,7 @@ describe('pre-use checks', () => {
       ['foot-pedal', true],
       ['die-clamps', false],
     ]);
-    expect(view.body.dueToday).toBe(true);
-    expect(view.body.history).toEqual([]);
+    expect(view.body).toMatchObject({ dueToday: true, checkedToday: false, history: [] });
     // A kind without a list reads as no list, not an error.
     expect((await get(shop.s.operator, '/machines/H1/pre-use-checks').expect(200)).body.lines).toBeNull();
   });
@@ -80,7 +79,7 @@ describe('pre-use checks', () => {
     const chain = await get(shop.s.safety, '/safety/chain/verify').expect(200);
     expect(chain.body.ok).toBe(true);
     const view = await get(shop.s.operator, '/machines/B1/pre-use-checks').expect(200);
-    expect(view.body.dueToday).toBe(false);
+    expect(view.body).toMatchObject({ dueToday: false, checkedToday: true });
     expect(view.body.history[0]).toMatchObject({ id: res.body.id, pass: true, checkedBy: expect.stringContaining('operator') });
   });
 

@@ -131,16 +131,13 @@ export async function preUseCheckView(em: EntityManager, who: Principal, code: s
   const lines = await linesOf(em, machine);
   const history = await em.find(PreUseCheck, { machine: machine.id }, { orderBy: { checkedAt: 'desc' }, limit: 20, populate: ['person'] });
   const status = await machineStatus(em, machine.id);
+  const notSinceDayStart = missedPreUseCheck({ needsCheck: true, lastCheckAt: history[0]?.checkedAt ?? null, now: clock.now(), timeZone: who.timeZone });
   return {
     machineCode: machine.code,
     machineName: machine.name,
     lines,
-    dueToday: missedPreUseCheck({
-      needsCheck: !!lines && machine.active && status.state === 'in-service',
-      lastCheckAt: history[0]?.checkedAt ?? null,
-      now: clock.now(),
-      timeZone: who.timeZone,
-    }),
+    dueToday: !!lines && machine.active && status.state === 'in-service' && notSinceDayStart,
+    checkedToday: !notSinceDayStart,
     status: { state: status.state, since: status.since?.toISOString() ?? null, reason: status.reason },
     history: history.map((c) => toRow(c, machine.code, (c.person.getEntity() as { name: string }).name)),
   };

@@ -20,6 +20,8 @@ import { can } from '../../../shared/permissions';
 import { paths } from '../../config/paths';
 import { MACHINE_KIND_LABELS, type MachineKind } from '../../../shared/schemas/machines';
 import { PRE_USE_LINES } from '../../../shared/domain/pre-use-checks';
+import { useQuery } from '@tanstack/react-query';
+import { getPreUseCheckQueryOptions } from '../../features/safety/api/get-pre-use-check';
 
 // Only these carry a plasma torch; on a press brake or hydraulic unit a missing torch is normal, not a setup gap.
 const CUTS_WITH_PLASMA: MachineKind[] = ['punch-plasma-cell', 'plasma-table'];
@@ -40,6 +42,8 @@ export function Component() {
   usePageTitle(`Station ${code}`);
   const status = useMachineStatus(code!);
   const notice = (useLocation().state as { notice?: StationNotice } | null)?.notice;
+  const hasPreUse = !!q.data && PRE_USE_KINDS.has(q.data.machine.kind);
+  const preUse = useQuery({ ...getPreUseCheckQueryOptions(code!), enabled: hasPreUse });
   if (!me) return null;
   if (q.isError)
     return (
@@ -101,6 +105,9 @@ export function Component() {
             className="inline-flex min-h-touch items-center rounded bg-steel-800 px-4 py-2 font-semibold text-white hover:bg-steel-700"
           >
             Pre-use check
+            {preUse.data ? (
+              <span className="ml-2 text-sm font-normal">{preUse.data.dueToday ? '· due' : preUse.data.checkedToday ? '· done today ✓' : ''}</span>
+            ) : null}
           </Link>
         ) : null}
         {can(me.role, 'work-orders.raise') ? (

@@ -78,7 +78,7 @@ export function PreUseCheckForm({ code, me, onSigned }: { code: string; me: { na
           {error}
         </Notice>
       ) : null}
-      {last && !view.dueToday ? (
+      {last && view.checkedToday ? (
         <Notice tone="safe" title="Checked today">
           {last.checkedBy} signed a check at {f.time(last.checkedAt)}
           {last.pass ? ' with every line OK' : ` with ${last.lines.filter((l) => !l.ok).length} line(s) not OK`}. A new shift checks again.
