@@ -23,7 +23,15 @@ export function roleOf(databaseUrl: string): string {
 const ident = (name: string) => `"${name.replace(/"/g, '""')}"`;
 
 /** Tables whose rows the app role may add and read but never change or remove. */
-const APPEND_ONLY_TABLES = ['safety_sign_off', 'machine_state_change', 'safety_chain_copy', 'purchase_receipt', 'light_curtain_check', 'safety_event'];
+const APPEND_ONLY_TABLES = [
+  'safety_sign_off',
+  'machine_state_change',
+  'safety_chain_copy',
+  'purchase_receipt',
+  'light_curtain_check',
+  'safety_event',
+  'machine_pre_use_check',
+];
 /** Tables the app role may add, read and update, but not delete from. */
 const NO_DELETE_TABLES = ['safety_chain_head', 'machine_downtime'];
 

@@ -36,6 +36,8 @@ export const PERMISSIONS = {
   'machines.manage': ['admin', 'technician'],
   /** Taking a machine out of service or back by hand (an operator stops one by reporting a fault). */
   'machines.state': ['technician', 'safety', 'admin'],
+  /** The signed pre-use check at the start of a shift, by whoever runs the machine. */
+  'machines.pre-use.sign': ['operator', 'technician', 'safety'],
   'failure-codes.manage': ['technician', 'admin'],
   'meters.manage': ['admin', 'technician'],
   'readings.record': ['operator', 'technician', 'admin'],

@@ -20,12 +20,17 @@ export type MachineCompliance = {
   ppeMissed: number;
   openLockouts: number;
   retrainingNeeded: number;
+  /** In service with a pre-use list: it needs today's check. */
+  preUseNeeded: boolean;
+  /** Needs one and none was signed since the shop's day began. */
+  preUseMissed: boolean;
+  lastPreUseCheckAt: string | null;
 };
 
 export type ComplianceSummary = {
   days: number;
   machines: MachineCompliance[];
-  totals: { overdueInspections: number; missedPpeChecks: number; openLockouts: number; retrainingNeeded: number };
+  totals: { overdueInspections: number; missedPpeChecks: number; openLockouts: number; retrainingNeeded: number; missedPreUseChecks: number };
 };
 
 export type TimelineWeek = {

@@ -29,6 +29,7 @@ export const SIGN_MEANINGS = [
   'removal-authorized',
   'absent-locks-removed',
   'employee-informed',
+  'pre-use-check-done',
 ] as const;
 export type SignMeaning = (typeof SIGN_MEANINGS)[number];
 
@@ -56,6 +57,7 @@ export const MEANING_LABELS: Record<SignMeaning, string> = {
   'removal-authorized': 'Absent employee: removal authorized',
   'absent-locks-removed': 'Absent employee: locks removed',
   'employee-informed': 'Absent employee: informed',
+  'pre-use-check-done': 'Pre-use check done',
 };
 
 /** The sentence the signer agrees to by re-entering their password. */
@@ -82,6 +84,7 @@ export const MEANING_STATEMENTS: Record<SignMeaning, string> = {
   'removal-authorized': 'As safety officer I authorize removal of the absent employee’s locks by the supervisor named.',
   'absent-locks-removed': 'I checked the work area and that everyone is clear, then removed the absent employee’s locks listed.',
   'employee-informed': 'I told the employee that their locks were removed, before they resumed work at the facility.',
+  'pre-use-check-done': 'I checked each line of this machine’s pre-use check myself and recorded what I found.',
 };
 
 /** The password re-entered at signing (21 CFR 11.200-style re-authentication, house rule). */

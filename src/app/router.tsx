@@ -65,6 +65,7 @@ export const router = createBrowserRouter([
       { path: paths.purchasing.path.slice(1), lazy: () => import('./routes/purchasing') },
       { path: paths.station.path.slice(1), lazy: () => import('./routes/station') },
       { path: paths.stationLabel.path.slice(1), lazy: () => import('./routes/station-label') },
+      { path: paths.stationPreUseCheck.path.slice(1), lazy: () => import('./routes/safety-pre-use-check') },
       { path: paths.consumableLife.path.slice(1), lazy: () => import('./routes/consumable-life') },
       { path: paths.workOrders.path.slice(1), lazy: () => import('./routes/work-orders') },
       { path: paths.workOrder.path.slice(1), lazy: () => import('./routes/work-orders-detail') },

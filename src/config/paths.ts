@@ -53,6 +53,7 @@ export const paths = {
   stock: { path: '/stock', getHref: () => '/stock' },
   purchasing: { path: '/purchasing', getHref: () => '/purchasing' },
   station: { path: '/station/:code', getHref: (code: string) => `/station/${encodeURIComponent(code)}` },
+  stationPreUseCheck: { path: '/station/:code/pre-use-check', getHref: (code: string) => `/station/${encodeURIComponent(code)}/pre-use-check` },
   stationLabel: { path: '/station/:code/label', getHref: (code: string) => `/station/${encodeURIComponent(code)}/label` },
   consumableLife: { path: '/consumable-life', getHref: () => '/consumable-life' },
   workOrders: { path: '/work-orders', getHref: (q?: Record<string, string>) => `/work-orders${q ? `?${new URLSearchParams(q).toString()}` : ''}` },

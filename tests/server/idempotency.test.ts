@@ -185,6 +185,7 @@ describe('Idempotency-Key on signatures', () => {
       'POST /safety/lockouts/:id/accept-handover',
       'POST /safety/lockouts/:id/release',
       'POST /safety/ppe/checks',
+      'POST /machines/:code/pre-use-checks',
       'POST /safety/inspections',
       'POST /safety/inspections/:id/certify',
       'POST /safety/training',

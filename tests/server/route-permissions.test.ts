@@ -129,6 +129,8 @@ const EXPECTED: Record<string, Role[] | 'public'> = {
   'GET /reliability': ALL,
   'GET /machines/:code/light-curtain-checks': ALL,
   'POST /machines/:code/light-curtain-checks': ['technician', 'safety'],
+  'GET /machines/:code/pre-use-checks': ALL,
+  'POST /machines/:code/pre-use-checks': ['operator', 'technician', 'safety'],
   'POST /failure-codes': ['technician', 'admin'],
   'PATCH /failure-codes/:id': ['technician', 'admin'],
   'POST /meters': ['admin', 'technician'],

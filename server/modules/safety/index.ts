@@ -4,6 +4,7 @@ import { EnergyProcedure, ProcedureVersion, ProcedurePhoto } from './procedure.e
 import { LockoutSession, LockoutPoint, LockoutMember } from './lockout.entity';
 import { SafetyEvent } from './safety-event.entity';
 import { AbsentLockRemoval } from './absent-removal.entity';
+import { PreUseCheck } from './pre-use-check.entity';
 import { PpeRequirement, PpeCheck, PeriodicInspection, TrainingRecord, FireWatch, SafetyTask } from './records.entity';
 
 export const safetyEntities = [
@@ -24,4 +25,5 @@ export const safetyEntities = [
   SafetyTask,
   SafetyEvent,
   AbsentLockRemoval,
+  PreUseCheck,
 ];

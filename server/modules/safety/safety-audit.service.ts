@@ -5,6 +5,7 @@ import { formatDateTime } from '../../../shared/locale';
 import { DateTime } from 'luxon';
 import { Organization } from '../organizations/organization.entity';
 import { Machine } from '../machines/machine.entity';
+import { preUseCompliance } from './pre-use-checks.service';
 import { EnergyProcedure, ProcedureVersion } from './procedure.entity';
 import { LockoutSession } from './lockout.entity';
 import { PeriodicInspection, PpeCheck, PpeRequirement } from './records.entity';
@@ -348,6 +349,8 @@ export async function compliance(em: EntityManager, who: Principal, days: number
   const checks = await em.find(PpeCheck, { checkedAt: { $gte: new Date(from.getTime() - 7 * 86_400_000) } });
   const open = await em.find(LockoutSession, { state: { $ne: 'released' } });
   const training = await listTraining(em);
+  // Today's pre-use check: "today" is the signed-in person's shop day in the shop's zone.
+  const preUse = await preUseCompliance(em, who.timeZone, inp.machines);
   const machines: MachineCompliance[] = inp.machines.map((m) => {
     let status: MachineCompliance['inspectionStatus'] = 'none';
     let dueAt: Date | null = null;
@@ -394,6 +397,9 @@ export async function compliance(em: EntityManager, who: Principal, days: number
       ppeMissed: missed,
       openLockouts: open.filter((s) => s.machine.id === m.id).length,
       retrainingNeeded: training.filter((t) => t.status === 'retrain' && t.machineCode === m.code).length,
+      preUseNeeded: preUse.get(m.id)?.needed ?? false,
+      preUseMissed: preUse.get(m.id)?.missed ?? false,
+      lastPreUseCheckAt: preUse.get(m.id)?.lastAt?.toISOString() ?? null,
     };
   });
   return {
@@ -404,6 +410,7 @@ export async function compliance(em: EntityManager, who: Principal, days: number
       missedPpeChecks: machines.reduce((s, m) => s + m.ppeMissed, 0),
       openLockouts: machines.reduce((s, m) => s + m.openLockouts, 0),
       retrainingNeeded: training.filter((t) => t.status === 'retrain').length,
+      missedPreUseChecks: machines.filter((m) => m.preUseMissed).length,
     },
   };
 }

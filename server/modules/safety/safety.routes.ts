@@ -34,6 +34,9 @@ import { listSafetyEvents, refusable } from './safety-events';
 import { lockoutAuthorization } from './authorization';
 import { listAbsentRemovals, signAbsentStep, startAbsentRemoval } from './absent-removal.service';
 import { lockRegister } from './lock-register';
+import { preUseCheckView, recordPreUseCheck } from './pre-use-checks.service';
+import { preUseCheckSchema } from '../../../shared/schemas/pre-use-checks';
+import { machineCodeParam } from '../../../shared/schemas/machines';
 import { absentStepSchema, startAbsentRemovalSchema } from '../../../shared/schemas/safety-absent-removal';
 import { listSafetyEventsQuery } from '../../../shared/schemas/safety-audit';
 import { lockRegisterQuery } from '../../../shared/schemas/safety-lockout';
@@ -342,6 +345,18 @@ export function registerSafetyRoutes(r: ApiRouter, config: Config) {
     '/safety/ppe/checks',
     { access: 'safety.ppe.sign', body: ppeCheckSchema, ...signing },
     signed(({ body, principal: who }) => recordPpeCheck(em(), who, body)),
+  );
+
+  // The pre-use check at the start of a shift, signed on the same chain as the PPE check.
+  route(r, 'get', '/machines/:code/pre-use-checks', { access: 'machines.read', params: machineCodeParam }, async (_req, res, { params, principal: who }) => {
+    res.json(await preUseCheckView(em(), who, params.code));
+  });
+  route(
+    r,
+    'post',
+    '/machines/:code/pre-use-checks',
+    { access: 'machines.pre-use.sign', params: machineCodeParam, body: preUseCheckSchema, ...signing },
+    signed(({ params, body, principal: who }) => recordPreUseCheck(em(), who, params.code, body, config.APP_URL)),
   );
 
   // Periodic inspections, training, hot work.

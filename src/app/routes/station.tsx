@@ -1,4 +1,4 @@
-import { Link, useParams, type LoaderFunctionArgs } from 'react-router-dom';
+import { Link, useLocation, useParams, type LoaderFunctionArgs } from 'react-router-dom';
 import { Notice, Panel } from '../../components/ui/notice';
 import { usePageTitle } from '../../components/layout/app-shell';
 import { getStationQueryOptions, useStation } from '../../features/station/api/get-station';
@@ -20,9 +20,18 @@ import { queryClient } from '../../lib/query-client';
 import { can } from '../../../shared/permissions';
 import { paths } from '../../config/paths';
 import { MACHINE_KIND_LABELS, type MachineKind } from '../../../shared/schemas/machines';
+import { PRE_USE_LINES } from '../../../shared/domain/pre-use-checks';
+import { useQuery } from '@tanstack/react-query';
+import { getPreUseCheckQueryOptions } from '../../features/safety/api/get-pre-use-check';
 
 // Only these carry a plasma torch; on a press brake or hydraulic unit a missing torch is normal, not a setup gap.
 const CUTS_WITH_PLASMA: MachineKind[] = ['punch-plasma-cell', 'plasma-table'];
+
+/** A notice another page hands the station when it sends the operator back (a signed pre-use check). */
+export type StationNotice = { tone: 'safe' | 'caution' | 'danger'; title: string; text: string };
+
+// Kinds with a pre-use check at the start of a shift (shared/domain/pre-use-checks.ts).
+const PRE_USE_KINDS = new Set(Object.keys(PRE_USE_LINES));
 
 export const loader = ({ params }: LoaderFunctionArgs) => queryClient.ensureQueryData(getStationQueryOptions(params.code!)).catch(() => null);
 
@@ -33,6 +42,9 @@ export function Component() {
   const q = useStation(code!);
   usePageTitle(`Station ${code}`);
   const status = useMachineStatus(code!);
+  const notice = (useLocation().state as { notice?: StationNotice } | null)?.notice;
+  const hasPreUse = !!q.data && PRE_USE_KINDS.has(q.data.machine.kind);
+  const preUse = useQuery({ ...getPreUseCheckQueryOptions(code!), enabled: hasPreUse });
   if (!me) return null;
   if (q.isError)
     return (
@@ -56,6 +68,11 @@ export function Component() {
   const s = q.data;
   return (
     <div className="space-y-4">
+      {notice ? (
+        <Notice tone={notice.tone} role="status" title={notice.title}>
+          {notice.text}
+        </Notice>
+      ) : null}
       {status.data ? <StateBanner status={status.data} /> : null}
       <LockoutAlarmBanner alarms={s.alarms ?? []} />
       <LockoutBanner lockouts={s.lockouts} />
@@ -85,6 +102,17 @@ export function Component() {
         </div>
       </div>
       <div className="no-print flex flex-wrap items-start gap-2">
+        {PRE_USE_KINDS.has(s.machine.kind) && can(me.role, 'machines.pre-use.sign') ? (
+          <Link
+            to={paths.stationPreUseCheck.getHref(s.machine.code)}
+            className="inline-flex min-h-touch items-center rounded bg-steel-800 px-4 py-2 font-semibold text-white hover:bg-steel-700"
+          >
+            Pre-use check
+            {preUse.data ? (
+              <span className="ml-2 text-sm font-normal">{preUse.data.dueToday ? '· due' : preUse.data.checkedToday ? '· done today ✓' : ''}</span>
+            ) : null}
+          </Link>
+        ) : null}
         {can(me.role, 'work-orders.raise') ? (
           <div className="min-w-[16rem] flex-1">
             <FaultReport code={s.machine.code} workOrderHref={paths.workOrder.getHref} />

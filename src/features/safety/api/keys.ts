@@ -24,6 +24,7 @@ export const safetyKeys = {
   chain: () => ['safety', 'chain'] as const,
   compliance: (days: number) => ['safety', 'compliance', days] as const,
   timeline: (weeks: number) => ['safety', 'timeline', weeks] as const,
+  preUse: (code: string) => ['safety', 'pre-use', code.toUpperCase()] as const,
 };
 
 export function useInvalidateSafety() {

@@ -104,10 +104,11 @@ export function Compliance() {
         }
       >
         {t ? (
-          <dl className="mb-4 grid grid-cols-2 gap-3 md:grid-cols-4">
+          <dl className="mb-4 grid grid-cols-2 gap-3 md:grid-cols-3 lg:grid-cols-5">
             {[
               ['Overdue inspections', t.overdueInspections],
               ['Missed PPE checks', t.missedPpeChecks],
+              ['Pre-use checks missing today', t.missedPreUseChecks],
               ['Open lockouts', t.openLockouts],
               ['People to retrain', t.retrainingNeeded],
             ].map(([label, n]) => (
@@ -146,6 +147,15 @@ export function Compliance() {
                     {r.ppeMissed ? <Badge tone="danger">{`${r.ppeMissed} missed`}</Badge> : <Badge tone="safe">None missed</Badge>}
                   </span>
                 );
+              },
+            }),
+            // Today only, whatever the window: the check is per shift day, since midnight in the shop's zone.
+            mcol.accessor('preUseMissed', {
+              header: 'Pre-use today',
+              cell: (c) => {
+                const r = c.row.original;
+                if (!r.preUseNeeded) return '—';
+                return r.preUseMissed ? <Badge tone="danger">Missing</Badge> : <Badge tone="safe">{`Done ${f.time(r.lastPreUseCheckAt)}`}</Badge>;
               },
             }),
             mcol.accessor('openLockouts', {
