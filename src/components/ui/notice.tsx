@@ -19,6 +19,24 @@ export function Notice({ tone = 'info', title, children, role }: { tone?: Tone; 
   );
 }
 
+/** A form's outcome: what the server refused (announced at once) and what was saved. */
+export function FormMessages({ error, saved }: { error?: ReactNode; saved?: ReactNode }) {
+  return (
+    <>
+      {error ? (
+        <Notice tone="danger" role="alert">
+          {error}
+        </Notice>
+      ) : null}
+      {saved ? (
+        <Notice tone="safe" role="status">
+          {saved}
+        </Notice>
+      ) : null}
+    </>
+  );
+}
+
 export function EmptyState({ title, children }: { title: string; children?: ReactNode }) {
   return (
     <div className="rounded border border-dashed border-steel-400 bg-white p-8 text-center">

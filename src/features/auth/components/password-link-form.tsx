@@ -5,7 +5,7 @@ import { Link } from 'react-router-dom';
 import { tokenPasswordSchema, type TokenPasswordInput } from '../../../../shared/schemas/auth';
 import { TextField } from '../../../components/ui/field';
 import { Button } from '../../../components/ui/button';
-import { Notice } from '../../../components/ui/notice';
+import { Notice, FormMessages } from '../../../components/ui/notice';
 import { applyServerErrors } from '../../../lib/form-errors';
 import { useRedeemLink } from '../api/password-links';
 import { paths } from '../../../config/paths';
@@ -36,11 +36,7 @@ export function PasswordLinkForm({ token, submitLabel }: { token: string; submit
   });
   return (
     <form onSubmit={onSubmit} noValidate className="space-y-4">
-      {formError ? (
-        <Notice tone="danger" role="alert">
-          {formError}
-        </Notice>
-      ) : null}
+      <FormMessages error={formError} />
       {!token ? <Notice tone="danger">This link is incomplete. Open the link from your e-mail again.</Notice> : null}
       <input type="hidden" {...register('token')} />
       <TextField

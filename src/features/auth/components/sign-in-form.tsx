@@ -5,7 +5,7 @@ import { Link } from 'react-router-dom';
 import { loginSchema, type LoginInput } from '../../../../shared/schemas/auth';
 import { TextField } from '../../../components/ui/field';
 import { Button } from '../../../components/ui/button';
-import { Notice } from '../../../components/ui/notice';
+import { FormMessages } from '../../../components/ui/notice';
 import { applyServerErrors } from '../../../lib/form-errors';
 import { useLogin } from '../api/login';
 import { paths } from '../../../config/paths';
@@ -27,11 +27,7 @@ export function SignInForm({ onSignedIn }: { onSignedIn: () => void }) {
 
   return (
     <form onSubmit={onSubmit} noValidate className="space-y-4">
-      {formError ? (
-        <Notice tone="danger" role="alert">
-          {formError}
-        </Notice>
-      ) : null}
+      <FormMessages error={formError} />
       <TextField label="E-mail" type="email" autoComplete="username" inputMode="email" error={formState.errors.email?.message} {...register('email')} />
       <TextField label="Password" type="password" autoComplete="current-password" error={formState.errors.password?.message} {...register('password')} />
       <Button type="submit" className="w-full" busy={formState.isSubmitting}>

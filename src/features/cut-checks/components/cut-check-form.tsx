@@ -4,7 +4,7 @@ import { zodResolver } from '@hookform/resolvers/zod';
 import type { z } from 'zod';
 import { cutCheckSchema, type CutCheckRow, type ReferenceValue } from '../../../../shared/schemas/consumables';
 import { Button } from '../../../components/ui/button';
-import { Notice } from '../../../components/ui/notice';
+import { Notice, FormMessages } from '../../../components/ui/notice';
 import { applyServerErrors } from '../../../lib/form-errors';
 import { useRecordCutCheck } from '../api/record-cut-check';
 
@@ -48,11 +48,7 @@ export function CutCheckForm({ torches, tolerance }: { torches: { id: string; co
       <p className="text-sm text-steel-700">
         Tolerance ±{tolerance.value} {tolerance.unit} — {tolerance.source}.
       </p>
-      {formError ? (
-        <Notice tone="danger" role="alert">
-          {formError}
-        </Notice>
-      ) : null}
+      <FormMessages error={formError} />
       {result ? (
         <Notice
           tone={result.passed ? 'safe' : 'danger'}

@@ -5,7 +5,7 @@ import type { z } from 'zod';
 import { MACHINE_KINDS, MACHINE_KIND_LABELS, machineInputSchema, type MachineRow } from '../../../../shared/schemas/machines';
 import { SelectField, TextField } from '../../../components/ui/field';
 import { Button } from '../../../components/ui/button';
-import { Notice } from '../../../components/ui/notice';
+import { FormMessages } from '../../../components/ui/notice';
 import { applyServerErrors } from '../../../lib/form-errors';
 import { useCreateMachine } from '../api/create-machine';
 import { useUpdateMachine } from '../api/update-machine';
@@ -67,16 +67,7 @@ export function MachineForm({
   return (
     <form onSubmit={onSubmit} noValidate aria-label={machine ? `Edit ${machine.code}` : 'Add a machine'} className="grid gap-4 md:grid-cols-3">
       <div className="space-y-2 md:col-span-3">
-        {formError ? (
-          <Notice tone="danger" role="alert">
-            {formError}
-          </Notice>
-        ) : null}
-        {saved ? (
-          <Notice tone="safe" role="status">
-            {saved}
-          </Notice>
-        ) : null}
+        <FormMessages error={formError} saved={saved} />
       </div>
       <TextField label="Code" hint="Short, printed on the QR label, e.g. C1" autoComplete="off" error={formState.errors.code?.message} {...register('code')} />
       <TextField label="Name" autoComplete="off" error={formState.errors.name?.message} {...register('name')} />

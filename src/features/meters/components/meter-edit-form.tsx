@@ -5,7 +5,7 @@ import type { z } from 'zod';
 import { meterUpdateSchema, type MeterRow } from '../../../../shared/schemas/machines';
 import { TextField } from '../../../components/ui/field';
 import { Button } from '../../../components/ui/button';
-import { Notice } from '../../../components/ui/notice';
+import { Notice, FormMessages } from '../../../components/ui/notice';
 import { applyServerErrors } from '../../../lib/form-errors';
 import { useUpdateMeter } from '../api/update-meter';
 
@@ -35,11 +35,7 @@ export function MeterEditForm({ meter }: { meter: MeterRow }) {
   return (
     <form onSubmit={onSubmit} noValidate aria-label={`Edit ${meter.name}`} className="grid gap-4 md:grid-cols-3">
       <div className="space-y-2 md:col-span-3">
-        {formError ? (
-          <Notice tone="danger" role="alert">
-            {formError}
-          </Notice>
-        ) : null}
+        <FormMessages error={formError} />
         {saved ? (
           <Notice tone="safe" role="status">
             Saved.

@@ -5,7 +5,7 @@ import type { z } from 'zod';
 import { METER_KINDS, METER_UNITS, meterInputSchema, unitForKind, type MachineRow, type MeterKind } from '../../../../shared/schemas/machines';
 import { SelectField, TextField } from '../../../components/ui/field';
 import { Button } from '../../../components/ui/button';
-import { Notice } from '../../../components/ui/notice';
+import { FormMessages } from '../../../components/ui/notice';
 import { applyServerErrors } from '../../../lib/form-errors';
 import { useCreateMeter } from '../api/create-meter';
 
@@ -38,16 +38,7 @@ export function MeterForm({ machines }: { machines: Pick<MachineRow, 'id' | 'cod
   return (
     <form onSubmit={onSubmit} noValidate aria-label="Add a meter" className="grid gap-4 md:grid-cols-3">
       <div className="space-y-2 md:col-span-3">
-        {formError ? (
-          <Notice tone="danger" role="alert">
-            {formError}
-          </Notice>
-        ) : null}
-        {saved ? (
-          <Notice tone="safe" role="status">
-            {saved}
-          </Notice>
-        ) : null}
+        <FormMessages error={formError} saved={saved} />
       </div>
       <SelectField
         label="On machine"

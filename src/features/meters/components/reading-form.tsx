@@ -6,7 +6,7 @@ import { readingInputSchema, type MeterRow } from '../../../../shared/schemas/ma
 import { SelectField, TextField } from '../../../components/ui/field';
 import { CONVERTIBLE_UNITS, quantityOf } from '../../../../shared/domain/units';
 import { Button } from '../../../components/ui/button';
-import { Notice } from '../../../components/ui/notice';
+import { FormMessages } from '../../../components/ui/notice';
 import { applyServerErrors } from '../../../lib/form-errors';
 import { useAddReading } from '../api/add-reading';
 import { formatValue } from './format';
@@ -49,16 +49,7 @@ export function ReadingForm({ meter }: { meter: MeterRow }) {
   return (
     <form onSubmit={onSubmit} noValidate aria-label={`New reading for ${meter.name}`} className="grid gap-4 md:grid-cols-2">
       <div className="space-y-2 md:col-span-2">
-        {formError ? (
-          <Notice tone="danger" role="alert">
-            {formError}
-          </Notice>
-        ) : null}
-        {saved ? (
-          <Notice tone="safe" role="status">
-            {saved}
-          </Notice>
-        ) : null}
+        <FormMessages error={formError} saved={saved} />
       </div>
       <TextField
         label={units.length > 1 ? 'Reading' : `Reading (${meter.unit})`}

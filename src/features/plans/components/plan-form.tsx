@@ -8,7 +8,7 @@ import { planInput, TRIGGER_KINDS, TRIGGER_KIND_LABELS, type PlanDetail, type Pl
 import { ROLES, ROLE_LABELS } from '../../../../shared/permissions';
 import { buildRecurrenceText, expandRecurrence } from '../../../../shared/domain/recurrence';
 import { Button } from '../../../components/ui/button';
-import { Notice } from '../../../components/ui/notice';
+import { Notice, FormMessages } from '../../../components/ui/notice';
 import { SelectField, TextField } from '../../../components/ui/field';
 import { applyServerErrors } from '../../../lib/form-errors';
 import { inputClass } from './format';
@@ -341,11 +341,7 @@ export function PlanForm({
 
   return (
     <form onSubmit={submit} noValidate aria-label="Maintenance plan" className="space-y-6">
-      {formError ? (
-        <Notice tone="danger" role="alert">
-          {formError}
-        </Notice>
-      ) : null}
+      <FormMessages error={formError} />
       {Object.keys(errs).length && !formError ? (
         <Notice tone="danger" role="alert">
           Some fields need another look (marked below).

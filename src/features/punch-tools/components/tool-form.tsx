@@ -6,7 +6,7 @@ import { STATION_SIZES, punchToolInputSchema } from '../../../../shared/schemas/
 import type { MeterRow } from '../../../../shared/schemas/machines';
 import { SelectField, TextField } from '../../../components/ui/field';
 import { Button } from '../../../components/ui/button';
-import { Notice } from '../../../components/ui/notice';
+import { Notice, FormMessages } from '../../../components/ui/notice';
 import { applyServerErrors } from '../../../lib/form-errors';
 import { useCreatePunchTool } from '../api/create-punch-tool';
 
@@ -43,16 +43,7 @@ export function ToolForm({ machineId, hitMeters }: { machineId: string; hitMeter
   return (
     <form onSubmit={onSubmit} noValidate aria-label="Add a punch tool" className="grid gap-4 md:grid-cols-3">
       <div className="space-y-2 md:col-span-3">
-        {formError ? (
-          <Notice tone="danger" role="alert">
-            {formError}
-          </Notice>
-        ) : null}
-        {saved ? (
-          <Notice tone="safe" role="status">
-            {saved}
-          </Notice>
-        ) : null}
+        <FormMessages error={formError} saved={saved} />
       </div>
       <TextField label="Tool code" autoComplete="off" error={formState.errors.code?.message} {...register('code')} />
       <TextField label="Shape and size" autoComplete="off" hint="e.g. Round 12 mm" error={formState.errors.name?.message} {...register('name')} />

@@ -5,7 +5,7 @@ import { useNavigate } from 'react-router-dom';
 import type { z } from 'zod';
 import { SelectField, TextField } from '../../../components/ui/field';
 import { Button } from '../../../components/ui/button';
-import { Notice, Panel } from '../../../components/ui/notice';
+import { Notice, Panel, FormMessages } from '../../../components/ui/notice';
 import { WorkCaution } from '../../../components/ui/caution';
 import { applyServerErrors } from '../../../lib/form-errors';
 import { paths } from '../../../config/paths';
@@ -107,11 +107,7 @@ export function LockoutApplyForm({
   return (
     <>
       <form onSubmit={onSubmit} noValidate aria-label="Apply a lockout" className="space-y-4">
-        {formError ? (
-          <Notice tone="danger" role="alert">
-            {formError}
-          </Notice>
-        ) : null}
+        <FormMessages error={formError} />
         <WorkCaution />
         <Panel title="1. Machine and procedure">
           <div className="grid gap-4 md:grid-cols-2">

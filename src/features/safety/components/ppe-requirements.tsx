@@ -4,7 +4,7 @@ import { createColumnHelper } from '@tanstack/react-table';
 import { DataTable } from '../../../components/ui/data-table';
 import { Button } from '../../../components/ui/button';
 import { SelectField, TextField } from '../../../components/ui/field';
-import { Badge, EmptyState, Notice, Panel } from '../../../components/ui/notice';
+import { Badge, EmptyState, Notice, Panel, FormMessages } from '../../../components/ui/notice';
 import { ConfirmDialog } from '../../../components/ui/confirm-dialog';
 import { applyServerErrors } from '../../../lib/form-errors';
 import {
@@ -137,11 +137,7 @@ function RequirementForm({ editing, onDone }: { editing: PpeRequirementRow | nul
   return (
     <form onSubmit={submit} noValidate aria-label="PPE requirement" className="grid gap-4 lg:grid-cols-[1fr_22rem]">
       <div className="space-y-4">
-        {formError ? (
-          <Notice tone="danger" role="alert">
-            {formError}
-          </Notice>
-        ) : null}
+        <FormMessages error={formError} />
         <div className="grid gap-4 md:grid-cols-3">
           <SelectField
             label="Machine"

@@ -2,7 +2,7 @@ import { useEffect, useRef, useState } from 'react';
 import { useFieldArray, useForm, type FieldErrors, type Resolver } from 'react-hook-form';
 import { SelectField, TextField } from '../../../components/ui/field';
 import { Button } from '../../../components/ui/button';
-import { Notice, Panel } from '../../../components/ui/notice';
+import { Notice, Panel, FormMessages } from '../../../components/ui/notice';
 import { applyServerErrors } from '../../../lib/form-errors';
 import {
   createProcedureSchema,
@@ -143,11 +143,7 @@ export function ProcedureForm({
 
   return (
     <form onSubmit={submit} noValidate aria-label="Energy-control procedure" className="space-y-4">
-      {formError ? (
-        <Notice tone="danger" role="alert">
-          {formError}
-        </Notice>
-      ) : null}
+      <FormMessages error={formError} />
       {Object.keys(e).length ? (
         <Notice tone="danger" role="alert">
           Some fields need attention; they are marked below.

@@ -7,7 +7,7 @@ import type { z } from 'zod';
 import { DataTable } from '../../../components/ui/data-table';
 import { Button } from '../../../components/ui/button';
 import { SelectField, TextField } from '../../../components/ui/field';
-import { Badge, EmptyState, Notice, Panel } from '../../../components/ui/notice';
+import { Badge, EmptyState, Notice, Panel, FormMessages } from '../../../components/ui/notice';
 import { ApiError } from '../../../lib/api-client';
 import { applyServerErrors } from '../../../lib/form-errors';
 import { can, ROLE_LABELS, type Role } from '../../../../shared/permissions';
@@ -70,11 +70,7 @@ function InspectionForm({ me, onDone, procedureId }: { me: Me; onDone: (m: strin
   return (
     <>
       <form onSubmit={submit} noValidate aria-label="Record a periodic inspection" className="space-y-3">
-        {formError ? (
-          <Notice tone="danger" role="alert">
-            {formError}
-          </Notice>
-        ) : null}
+        <FormMessages error={formError} />
         <p className="text-sm text-steel-700">
           You are the inspector. OSHA 29 CFR 1910.147(c)(6)(i)(A): the inspector is an authorized employee other than the ones using the procedure, so do not
           include yourself.
@@ -188,11 +184,7 @@ function TrainingForm({
   return (
     <>
       <form onSubmit={submit} noValidate aria-label="Record training" className="space-y-3">
-        {formError ? (
-          <Notice tone="danger" role="alert">
-            {formError}
-          </Notice>
-        ) : null}
+        <FormMessages error={formError} />
         <div className="grid gap-3 md:grid-cols-2">
           <SelectField
             label="Person"

@@ -2,7 +2,7 @@ import { useState } from 'react';
 import { useFieldArray, useForm, useWatch, type FieldErrors, type Resolver } from 'react-hook-form';
 import { Button } from '../../../components/ui/button';
 import { TextField } from '../../../components/ui/field';
-import { Notice, Panel } from '../../../components/ui/notice';
+import { Notice, Panel, FormMessages } from '../../../components/ui/notice';
 import { applyServerErrors } from '../../../lib/form-errors';
 import { PLASMA_ARC_CUTTING_SHADES } from '../../../../shared/domain/shade';
 import { shadeBandLabel } from './format';
@@ -128,11 +128,7 @@ export function SafetySettingsForm({ settings }: { settings: SafetySettingsView 
           {done}
         </Notice>
       ) : null}
-      {formError ? (
-        <Notice tone="danger" role="alert">
-          {formError}
-        </Notice>
-      ) : null}
+      <FormMessages error={formError} />
       <Panel title="Fire watch after hot work">
         <label className="mb-3 flex min-h-touch items-center gap-3">
           <input type="checkbox" className="h-6 w-6" {...register('fireWatchRequired')} />

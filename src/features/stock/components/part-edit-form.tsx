@@ -5,7 +5,7 @@ import type { z } from 'zod';
 import { partTypeUpdateSchema, type PartTypeRow } from '../../../../shared/schemas/stock';
 import { TextField } from '../../../components/ui/field';
 import { Button } from '../../../components/ui/button';
-import { Notice } from '../../../components/ui/notice';
+import { Notice, FormMessages } from '../../../components/ui/notice';
 import { applyServerErrors } from '../../../lib/form-errors';
 import { useUpdatePartType } from '../api/update-part-type';
 import { useSupplierOptions } from '../api/get-suppliers';
@@ -65,11 +65,7 @@ export function PartEditForm({ part }: { part: PartTypeRow }) {
   return (
     <form onSubmit={onSubmit} noValidate aria-label={`Edit ${part.partNumber}`} className="grid gap-4 md:grid-cols-4">
       <div className="space-y-2 md:col-span-4">
-        {formError ? (
-          <Notice tone="danger" role="alert">
-            {formError}
-          </Notice>
-        ) : null}
+        <FormMessages error={formError} />
         {saved ? (
           <Notice tone="safe" role="status">
             Saved. The reorder point follows the new lead time and service level.

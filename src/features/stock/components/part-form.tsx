@@ -5,7 +5,7 @@ import type { z } from 'zod';
 import { LIFE_UNITS, LIFE_UNIT_LABELS, PART_CATEGORIES, PART_CATEGORY_LABELS, partTypeInputSchema } from '../../../../shared/schemas/stock';
 import { SelectField, TextField } from '../../../components/ui/field';
 import { Button } from '../../../components/ui/button';
-import { Notice } from '../../../components/ui/notice';
+import { FormMessages } from '../../../components/ui/notice';
 import { applyServerErrors } from '../../../lib/form-errors';
 import { useCreatePartType } from '../api/create-part-type';
 
@@ -50,16 +50,7 @@ export function PartForm() {
   return (
     <form onSubmit={onSubmit} noValidate aria-label="Add a part" className="grid gap-4 md:grid-cols-4">
       <div className="space-y-2 md:col-span-4">
-        {formError ? (
-          <Notice tone="danger" role="alert">
-            {formError}
-          </Notice>
-        ) : null}
-        {saved ? (
-          <Notice tone="safe" role="status">
-            {saved}
-          </Notice>
-        ) : null}
+        <FormMessages error={formError} saved={saved} />
       </div>
       <TextField label="Part number" autoComplete="off" error={e.partNumber?.message} {...register('partNumber')} />
       <TextField label="Name" autoComplete="off" error={e.name?.message} {...register('name')} />

@@ -5,7 +5,7 @@ import { z } from 'zod';
 import type { PartTypeRow, StockMoveKind } from '../../../../shared/schemas/stock';
 import { SelectField, TextField } from '../../../components/ui/field';
 import { Button } from '../../../components/ui/button';
-import { Notice } from '../../../components/ui/notice';
+import { FormMessages } from '../../../components/ui/notice';
 import { applyServerErrors } from '../../../lib/form-errors';
 import { useRecordStockMove } from '../api/record-stock-move';
 import { useShopFormat } from '../../../lib/format';
@@ -70,16 +70,7 @@ export function StockMoveForm({ part }: { part: PartTypeRow }) {
       className="grid gap-4 md:grid-cols-[16rem_10rem_1fr_auto] md:items-start"
     >
       <div className="space-y-2 md:col-span-4">
-        {formError ? (
-          <Notice tone="danger" role="alert">
-            {formError}
-          </Notice>
-        ) : null}
-        {saved ? (
-          <Notice tone="safe" role="status">
-            {saved}
-          </Notice>
-        ) : null}
+        <FormMessages error={formError} saved={saved} />
       </div>
       <SelectField
         label="Move"

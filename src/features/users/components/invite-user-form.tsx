@@ -5,7 +5,7 @@ import { inviteUserSchema, type InviteUserInput } from '../../../../shared/schem
 import { ROLES, ROLE_LABELS } from '../../../../shared/permissions';
 import { SelectField, TextField } from '../../../components/ui/field';
 import { Button } from '../../../components/ui/button';
-import { Notice } from '../../../components/ui/notice';
+import { Notice, FormMessages } from '../../../components/ui/notice';
 import { applyServerErrors } from '../../../lib/form-errors';
 import { useInviteUser } from '../api/invite-user';
 
@@ -31,11 +31,7 @@ export function InviteUserForm() {
   return (
     <form onSubmit={onSubmit} noValidate aria-label="Invite someone" className="grid gap-4 md:grid-cols-[1fr_1fr_14rem_auto] md:items-start">
       <div className="md:col-span-4 space-y-2">
-        {formError ? (
-          <Notice tone="danger" role="alert">
-            {formError}
-          </Notice>
-        ) : null}
+        <FormMessages error={formError} />
         {sentTo ? (
           <Notice tone="safe" role="status">
             Invitation sent to {sentTo}. The link works once, for seven days.
