@@ -5,6 +5,9 @@ cd "$(dirname "$0")/.."
 bash scripts/ensure-deps.sh
 bash scripts/ensure-chromium.sh
 bash scripts/db.sh start
+echo "== Types, import boundaries and formatting"
+npx tsc --noEmit -p tsconfig.json
+npm run -s lint
 echo "== Unit and API tests (Vitest)"
 npx vitest run
 echo "== Build the client"
