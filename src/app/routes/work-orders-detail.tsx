@@ -7,6 +7,7 @@ import { getWorkOrderQueryOptions, useWorkOrder } from '../../features/work-orde
 import { WorkOrderSummary } from '../../features/work-orders/components/work-order-summary';
 import { WorkMoves } from '../../features/work-orders/components/work-moves';
 import { ChecklistForm } from '../../features/work-orders/components/checklist-form';
+import { FailedSafetyChecks } from '../../features/work-orders/components/failed-safety-checks';
 import { PartsUsed } from '../../features/work-orders/components/parts-used';
 import { WorkLogForm } from '../../features/work-orders/components/work-log-form';
 import { CloseWork } from '../../features/work-orders/components/close-work';
@@ -59,6 +60,7 @@ export function Component() {
             ) : null}
             <Panel title="Checklist">
               <ChecklistForm workOrderId={wo.id} lines={wo.checklist} readOnly={readOnly} />
+              <FailedSafetyChecks wo={wo} role={me.role} open={open} />
               {failed.length && can(me.role, 'work-orders.raise') ? (
                 <div className="mt-4">
                   <Notice tone="danger" title={`${failed.length} line${failed.length === 1 ? '' : 's'} not OK`}>

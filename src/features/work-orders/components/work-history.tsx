@@ -15,6 +15,8 @@ const words: Record<string, string> = {
   'work-order.escalated': 'Past due: admin told',
   'work-order.closed': 'Signed off',
   'work-order.done-at-station': 'Done by a station record',
+  'work-order.failed-check-repair': 'Repair raised for a failed safety check',
+  'work-order.failed-check-deviation': 'Deviation signed for a failed safety check',
 };
 
 export function WorkHistory({ wo }: { wo: WorkOrderDetail }) {

@@ -1,0 +1,83 @@
+import { test, expect, type APIRequestContext } from '@playwright/test';
+import { DEMO_PASSWORD, expectAccessible, signIn, signOut, snap } from './support';
+
+const tablet = { viewport: { width: 800, height: 1280 }, hasTouch: true, isMobile: true };
+
+async function apiCall(request: APIRequestContext, method: 'GET' | 'POST' | 'PUT', url: string, data?: unknown) {
+  const { token } = await (await request.get('/api/auth/csrf')).json();
+  const res = await request.fetch(`/api${url}`, { method, headers: { 'X-CSRF-Token': token }, data });
+  expect(res.ok(), `${method} ${url}: ${await res.text()}`).toBeTruthy();
+  return res.json();
+}
+
+test.describe('a failed safety-critical check on a work order', () => {
+  test.use(tablet);
+
+  test('the technician raises the repair (the brake stops), the safety officer signs a deviation for the other line', async ({ page }) => {
+    // The state this test needs, made here on a brake of its own: guard work with two
+    // safety-critical lines, raised by a counter trigger, both lines answered Not OK.
+    await signIn(page, 'admin@alder-row.example');
+    const code = `PB-${Date.now().toString(36).toUpperCase()}`;
+    const brake = await apiCall(page.request, 'POST', '/machines', { code, name: 'Press brake for the guard test', kind: 'press-brake' });
+    const meter = await apiCall(page.request, 'POST', '/meters', { machineId: brake.id, code: 'cycles', name: 'Press cycles', kind: 'count', unit: 'cycles' });
+    await apiCall(page.request, 'POST', '/meter-readings', { readings: [{ meterId: meter.id, value: 0 }] });
+    await apiCall(page.request, 'POST', '/plans', {
+      machineId: brake.id,
+      title: 'Guard function test',
+      instructions: 'Test the light curtain and the foot pedal.',
+      checklist: [
+        { key: 'curtain', label: 'Light curtain stops the ram', kind: 'check', safetyCritical: true },
+        { key: 'pedal', label: 'Foot pedal guard in place', kind: 'check', safetyCritical: true },
+      ],
+      parts: [],
+      responsibleRole: 'technician',
+      triggers: [{ kind: 'meter', meterId: meter.id, every: 1 }],
+    });
+    await apiCall(page.request, 'POST', '/meter-readings', { readings: [{ meterId: meter.id, value: 5 }] });
+    await apiCall(page.request, 'POST', '/job-runs');
+    const list = await apiCall(page.request, 'GET', `/work-orders?machineId=${brake.id}&page=1&pageSize=5`);
+    expect(list.rows.length, 'the pass raised the guard work').toBe(1);
+    const wo = list.rows[0] as { id: string; number: number };
+    await signOut(page);
+
+    await signIn(page, 'tech@alder-row.example');
+    await apiCall(page.request, 'PUT', `/work-orders/${wo.id}/checklist`, {
+      results: [
+        { key: 'curtain', result: 'fail', note: 'Ram kept moving with the test rod in the field' },
+        { key: 'pedal', result: 'fail', note: 'Guard cracked' },
+      ],
+    });
+    await page.goto(`/work-orders/${wo.id}`);
+    const failed = page.getByRole('region', { name: 'Safety-critical checks not OK' });
+    await expect(failed.getByText('Light curtain stops the ram')).toBeVisible();
+    await expect(page.getByRole('button', { name: 'Sign off the work' })).toBeDisabled();
+    // A technician may not sign a deviation: only the repair is offered.
+    await expect(failed.getByRole('button', { name: 'Sign a deviation' })).toHaveCount(0);
+    await expectAccessible(page, 'work order with failed safety checks');
+    await snap(page, 'failed-checks-technician');
+    await failed.getByRole('button', { name: 'Raise the repair' }).first().tap();
+    const dialog = page.getByRole('dialog', { name: `Raise the repair and stop ${code}?` });
+    await expect(dialog).toBeVisible();
+    await dialog.getByRole('button', { name: 'Raise the repair' }).tap();
+    await expect(page.getByRole('status').filter({ hasText: `is out of service until it is signed off` })).toContainText(`${code} is out of service`);
+    await expect(failed.getByText(/Repair raised by Imani Oduya/)).toBeVisible();
+    const status = await apiCall(page.request, 'GET', `/machines/${encodeURIComponent(code)}/status`);
+    expect(status.state).toBe('out-of-service');
+    await signOut(page);
+
+    await signIn(page, 'safety@alder-row.example');
+    await page.goto(`/work-orders/${wo.id}`);
+    const pedal = failed.getByRole('listitem').filter({ hasText: 'Foot pedal guard in place' });
+    await pedal.getByRole('button', { name: 'Sign a deviation' }).tap();
+    const form = page.getByRole('form', { name: 'Deviation for “Foot pedal guard in place”' });
+    await form.getByLabel('Why the machine may run, and under which measures').fill('short');
+    await form.getByLabel('Your password, to sign the deviation').fill(DEMO_PASSWORD);
+    await form.getByRole('button', { name: 'Sign the deviation' }).tap();
+    await expect(form.getByRole('alert')).toContainText('at least 10 characters');
+    await form.getByLabel('Why the machine may run, and under which measures').fill('Two-hand control only until the new guard arrives; supervisor present.');
+    await form.getByRole('button', { name: 'Sign the deviation' }).tap();
+    await expect(pedal.getByText(/Deviation signed by Tomas Verhoek/)).toContainText('Two-hand control only');
+    await snap(page, 'failed-checks-followed-up');
+    await expectAccessible(page, 'work order with both failed checks followed up');
+  });
+});
