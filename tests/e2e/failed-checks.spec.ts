@@ -81,3 +81,33 @@ test.describe('a failed safety-critical check on a work order', () => {
     await expectAccessible(page, 'work order with both failed checks followed up');
   });
 });
+
+test('a light curtain mounted closer than ISO 13855 asks for fails its check and stops the brake', async ({ page }) => {
+  await signIn(page, 'tech@alder-row.example');
+  const code = `PB-LC-${Date.now().toString(36).toUpperCase()}`;
+  const brake = await apiCall(page.request, 'POST', '/machines', { code, name: 'Press brake for the curtain check', kind: 'press-brake' });
+  await page.goto(`/machines/${brake.id}`);
+  await expect(page.getByRole('heading', { name: 'Light-curtain stopping-time check' })).toBeVisible();
+  const panel = page.getByRole('main');
+  await expect(panel.getByText('No light-curtain check recorded yet')).toBeVisible();
+  const form = panel.getByRole('form', { name: 'Record a light-curtain check' });
+  await form.getByRole('button', { name: 'Record the check' }).click();
+  await expect(form.getByText('Enter a number')).toHaveCount(3);
+  // ISO 13855:2010, d ≤ 40 mm (clause 6.2.3, number from memory): S = 2000 mm/s × 0.1 s + 8 × (14 − 14) mm = 200 mm (≥ 100 mm, ≤ 500 mm).
+  await form.getByLabel('Stopping time of the whole system (ms)').fill('100');
+  await form.getByLabel('Detection capability d (mm)').fill('14');
+  await form.getByLabel('Measured distance, curtain to danger zone (mm)').fill('150');
+  await form.getByRole('button', { name: 'Record the check' }).click();
+  await expect(panel.getByRole('status').filter({ hasText: 'Last check failed' })).toContainText('needs at least 200 mm');
+  await expect(panel.getByRole('status').filter({ hasText: 'Last check failed' })).toContainText('The brake was taken out of service.');
+  const status = await apiCall(page.request, 'GET', `/machines/${encodeURIComponent(code)}/status`);
+  expect(status.state).toBe('out-of-service');
+  await form.getByLabel('Stopping time of the whole system (ms)').fill('100');
+  await form.getByLabel('Detection capability d (mm)').fill('14');
+  await form.getByLabel('Measured distance, curtain to danger zone (mm)').fill('250');
+  await form.getByRole('button', { name: 'Record the check' }).click();
+  await expect(panel.getByRole('status').filter({ hasText: 'Last check passed' })).toContainText('measured 250 mm');
+  await expect(panel.getByRole('table', { name: 'Light-curtain checks, newest first' }).getByRole('row')).toHaveCount(3);
+  await expectAccessible(page, 'light-curtain check');
+  await snap(page, 'light-curtain-check');
+});

@@ -15,6 +15,7 @@ import { MeterForm } from '../../features/meters/components/meter-form';
 import { ToolsTable } from '../../features/punch-tools/components/tools-table';
 import { ToolForm } from '../../features/punch-tools/components/tool-form';
 import { ChangesHistory } from '../../features/station/components/recent-changes';
+import { LightCurtainCheck } from '../../features/machine-state/components/light-curtain-check';
 import { useMe } from '../../features/auth/api/get-me';
 import { queryClient } from '../../lib/query-client';
 import { can } from '../../../shared/permissions';
@@ -117,6 +118,11 @@ export function Component() {
             {m.kind === 'torch' || m.components.some((c) => c.kind === 'torch') ? (
               <Panel title="Consumable changes">
                 <ChangesHistory machineId={m.id} />
+              </Panel>
+            ) : null}
+            {m.kind === 'press-brake' ? (
+              <Panel title="Light-curtain stopping-time check">
+                <LightCurtainCheck code={m.code} canRecord={m.active && can(me.role, 'safety.inspection.perform')} />
               </Panel>
             ) : null}
             <Panel title="Meters">
