@@ -4,6 +4,10 @@ import { PageTitle } from '../../components/layout/app-shell';
 import { useMachines } from '../../features/machines/api/get-machines';
 import { useFailureCodes } from '../../features/machine-state/api/get-reliability';
 import { ReliabilityView } from '../../features/machine-state/components/reliability-view';
+import { FailureCodesEditor } from '../../features/machine-state/components/failure-codes-editor';
+import { Panel } from '../../components/ui/notice';
+import { useMe } from '../../features/auth/api/get-me';
+import { can } from '../../../shared/permissions';
 import { useShopFormat } from '../../lib/format';
 
 const input = 'block min-h-touch w-full rounded border border-steel-400 bg-white px-3';
@@ -11,6 +15,7 @@ const input = 'block min-h-touch w-full rounded border border-steel-400 bg-white
 /** Reliability per machine and per failure mode over a chosen window. */
 export function Component() {
   const [params, setParams] = useSearchParams();
+  const { data: me } = useMe();
   const machines = useMachines({});
   const codes = useFailureCodes();
   const today = useShopFormat().today();
@@ -62,6 +67,16 @@ export function Component() {
         </label>
       </div>
       <ReliabilityView filters={{ from, to, machineId: machineId || undefined, failureCode: failureCode || undefined }} />
+      {me && can(me.role, 'failure-codes.manage') ? (
+        <Panel title="Failure, cause and remedy codes" className="mt-4">
+          <details>
+            <summary className="inline-flex min-h-touch cursor-pointer items-center font-semibold underline">Edit the shop’s codes</summary>
+            <div className="mt-3">
+              <FailureCodesEditor />
+            </div>
+          </details>
+        </Panel>
+      ) : null}
     </>
   );
 }
