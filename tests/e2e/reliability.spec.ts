@@ -27,3 +27,41 @@ test('a technician adds a failure code of the shop, is told about a duplicate, a
   await expectAccessible(page, 'failure codes');
   await snap(page, 'failure-codes');
 });
+
+test('a technician stops a machine for a failure, codes the stop and returns it; the reliability page counts it', async ({ page }) => {
+  await signIn(page, 'tech@alder-row.example');
+  const { token } = await (await page.request.get('/api/auth/csrf')).json();
+  const code = `X-${Date.now().toString(36).toUpperCase()}`;
+  const made = await page.request.post('/api/machines', { headers: { 'X-CSRF-Token': token }, data: { code, name: 'Deburring unit', kind: 'other' } });
+  expect(made.ok(), await made.text()).toBeTruthy();
+  const machine = await made.json();
+
+  await page.goto(`/machines/${machine.id}`);
+  await expect(page.getByText(`No stops recorded for ${code}`)).toBeVisible();
+  const stopForm = page.getByRole('form', { name: `Take ${code} out of service` });
+  await stopForm.getByLabel('Kind of stop').selectOption('failure');
+  await stopForm.getByRole('button', { name: 'Take out of service' }).click();
+  await expect(stopForm.getByRole('alert')).toContainText('Say why');
+  await stopForm.getByLabel('Why').fill('Hydraulic hose burst at the clamp');
+  await stopForm.getByRole('button', { name: 'Take out of service' }).click();
+  const stops = page.getByRole('list', { name: `Stops of ${code}, newest first` });
+  const stop = stops.getByRole('listitem').first();
+  await expect(stop).toContainText('Failure: Hydraulic hose burst at the clamp');
+  await expect(stop).toContainText('still stopped');
+  await stop.getByLabel('Failure mode').selectOption('LEAK');
+  await stop.getByLabel('Cause').selectOption('HYDR');
+  await expect.poll(async () => (await (await page.request.get(`/api/machines/${code}/downtimes`)).json())[0].causeCode).toBe('HYDR');
+
+  await page.getByRole('button', { name: 'Return to service' }).click();
+  await page
+    .getByRole('dialog', { name: `Return ${code} to service?` })
+    .getByRole('button', { name: 'Return to service' })
+    .click();
+  await expect(stop).not.toContainText('still stopped');
+  await expect(page.getByRole('form', { name: `Take ${code} out of service` })).toBeVisible();
+  await expectAccessible(page, 'machine stops');
+  await snap(page, 'machine-stops');
+
+  await page.goto(`/reliability?machine=${machine.id}&code=LEAK`);
+  await expect(page.locator('dt', { hasText: /^Failures$/ }).locator('xpath=following-sibling::dd')).toHaveText('1');
+});

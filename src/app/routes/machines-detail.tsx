@@ -16,6 +16,7 @@ import { ToolsTable } from '../../features/punch-tools/components/tools-table';
 import { ToolForm } from '../../features/punch-tools/components/tool-form';
 import { ChangesHistory } from '../../features/station/components/recent-changes';
 import { LightCurtainCheck } from '../../features/machine-state/components/light-curtain-check';
+import { MachineStops } from '../../features/machine-state/components/machine-stops';
 import { useMe } from '../../features/auth/api/get-me';
 import { queryClient } from '../../lib/query-client';
 import { can } from '../../../shared/permissions';
@@ -120,6 +121,9 @@ export function Component() {
                 <ChangesHistory machineId={m.id} />
               </Panel>
             ) : null}
+            <Panel title="Stops and service state">
+              <MachineStops code={m.code} canChange={m.active && can(me.role, 'machines.state')} />
+            </Panel>
             {m.kind === 'press-brake' ? (
               <Panel title="Light-curtain stopping-time check">
                 <LightCurtainCheck code={m.code} canRecord={m.active && can(me.role, 'safety.inspection.perform')} />

@@ -1,7 +1,8 @@
-import { useMutation, useQueryClient } from '@tanstack/react-query';
+import { queryOptions, useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import { api } from '../../../lib/api-client';
 import { queryRoots } from '../../../lib/query-keys';
-import type { FaultReportResult, MachineStatus } from '../../../../shared/schemas/machine-state';
+import type { DowntimeRow, FaultReportResult, MachineStatus } from '../../../../shared/schemas/machine-state';
+import type { DowntimeCodesInput } from '../../../../shared/schemas/failure-codes';
 import { machineStateKeys } from './keys';
 
 export type FaultInput = { description: string; takeOutOfService: boolean; failureCode?: string | null; photo?: File | null };
@@ -44,8 +45,21 @@ export function useReturnToService(code: string) {
 export function useTakeOutOfService(code: string) {
   const refresh = useRefreshAfter();
   return useMutation({
-    mutationFn: (input: { reason: string; kind: 'failure' | 'planned' }) =>
+    mutationFn: (input: { reason: string; kind: 'failure' | 'planned'; failureCode?: string | null }) =>
       api<MachineStatus>(`/machines/${encodeURIComponent(code)}/out-of-service`, { method: 'POST', body: input }),
+    onSuccess: refresh,
+  });
+}
+
+export const getDowntimesQueryOptions = (code: string) =>
+  queryOptions({ queryKey: machineStateKeys.downtimes(code), queryFn: () => api<DowntimeRow[]>(`/machines/${encodeURIComponent(code)}/downtimes`) });
+export const useDowntimes = (code: string) => useQuery(getDowntimesQueryOptions(code));
+
+/** Codes a stop once its mode, cause and remedy are known; the reliability figures group by them. */
+export function useCodeDowntime() {
+  const refresh = useRefreshAfter();
+  return useMutation({
+    mutationFn: ({ id, ...body }: DowntimeCodesInput & { id: string }) => api<{ ok: true }>(`/downtimes/${id}`, { method: 'PATCH', body }),
     onSuccess: refresh,
   });
 }
