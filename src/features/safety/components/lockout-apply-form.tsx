@@ -14,6 +14,7 @@ import { applyLockoutFormSchema, lockoutReasonFromWork, LOCK_DEVICES, LOCK_DEVIC
 import { ENERGY_KIND_LABELS, PHASE_LABELS, PROCEDURE_PHASES, type EnergySource } from '../../../../shared/schemas/safety-procedures';
 import { useSafetyMachines } from '../api/get-safety-machines';
 import { useProcedure } from '../api/get-procedure';
+import { useLockoutAuthorization } from '../api/get-lockout-authorization';
 import { useApplyLockout } from '../api/apply-lockout';
 import { useSignFlow } from './sign-dialog';
 import { useLinkedWorkOrder } from '../api/get-linked-work-order';
@@ -56,6 +57,7 @@ export function LockoutApplyForm({
   const { fields, replace } = useFieldArray({ control, name: 'points' });
   const procedureId = watch('procedureId');
   const procedure = useProcedure(procedureId ?? '');
+  const authorization = useLockoutAuthorization(procedureId ?? '');
   const content = procedureId ? procedure.data?.current?.content : undefined;
 
   useEffect(() => {
@@ -150,6 +152,14 @@ export function LockoutApplyForm({
               </p>
             ) : null}
           </div>
+          {procedureId && authorization.data && !authorization.data.authorized ? (
+            <div className="mt-3">
+              <Notice tone="caution" title="You are not authorized on this procedure">
+                {authorization.data.reason}. Signing will be refused and recorded; ask the safety officer about training.
+                {authorization.data.minorTasks.length ? ` You are trained for its minor-servicing tasks: ${authorization.data.minorTasks.join(', ')}.` : ''}
+              </Notice>
+            </div>
+          ) : null}
           {machine && !approved.length ? (
             <div className="mt-3">
               <Notice tone="danger" title="Stop: no approved procedure">
