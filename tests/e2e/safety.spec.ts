@@ -320,6 +320,11 @@ test('the safety screens read well and pass the accessibility scan', async ({ pa
   await page.goto('/safety/procedures');
   await page.getByRole('link', { name: /Energy isolation of Press brake/ }).click();
   await expect(page.getByRole('heading', { name: 'Draft version 2' })).toBeVisible();
+  // The approver reads what the draft changes, marked, beside the approve action.
+  const changes = page.getByRole('list', { name: 'Changes from version 1' });
+  await expect(changes.getByRole('listitem')).toHaveCount(1);
+  await expect(changes.getByRole('listitem').first()).toContainText('Scope · changed');
+  await expect(changes.locator('ins')).toHaveText('Now: Tool changes, back-gauge work, and cleaning between the beams.');
   await page.getByRole('button', { name: 'Sign: approve version 2' }).click();
   await signWith(page);
   await expect(page.getByText('Version 2 approved and in force.')).toBeVisible();

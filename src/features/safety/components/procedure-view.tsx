@@ -9,6 +9,7 @@ import { paths } from '../../../config/paths';
 import { can, type Role } from '../../../../shared/permissions';
 import { ENERGY_KIND_LABELS, PHASE_LABELS, PROCEDURE_PHASES, type ProcedureDetail, type VersionDetail } from '../../../../shared/schemas/safety-procedures';
 import { useApproveVersion } from '../api/approve-version';
+import { ProcedureChanges } from './procedure-changes';
 import { useUploadPhoto } from '../api/upload-photo';
 import { useDeletePhoto } from '../api/delete-photo';
 import { useSignFlow } from './sign-dialog';
@@ -191,6 +192,7 @@ export function ProcedureView({ p, me, viewingVersion }: { p: ProcedureDetail; m
           <p className="mb-3 text-sm text-steel-700">
             Saved by {draft.authorName}, {f.dateTime(draft.createdAt)}. A draft is not in force until it is approved.
           </p>
+          {shown && shown.status === 'approved' ? <ProcedureChanges current={shown.content} currentVersion={shown.version} draft={draft.content} /> : null}
           <details className="mb-4">
             <summary className="flex min-h-touch cursor-pointer items-center font-semibold">Read the draft text</summary>
             <VersionText procedureId={p.id} v={draft} />
