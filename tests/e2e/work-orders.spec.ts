@@ -93,8 +93,14 @@ test('a plan falls due, the technician gets the mail, does the work, signs it of
     .toBe(true);
   await expect(body).toContainText('Safety: Before you work on a machine');
   await snap(page, 'tech-inbox');
-  const direct = body.getByRole('link', { name: /\/work-orders\/[0-9a-f-]{36}$/ });
-  if (await direct.count()) await direct.first().click();
+  // A mail can list several work orders, each followed by its own link: take the one after this title.
+  const mailText = (await body.textContent()) ?? '';
+  const ownId = mailText.slice(mailText.indexOf(TITLE)).match(/\/work-orders\/([0-9a-f-]{36})/)?.[1];
+  if (ownId)
+    await body
+      .getByRole('link', { name: new RegExp(`/work-orders/${ownId}$`) })
+      .first()
+      .click();
   else {
     await body.getByRole('link', { name: /\/work-orders\?assignee=me/ }).click();
     await page.getByRole('link', { name: TITLE }).first().click();
