@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { alignLines, procedureChanges, procedureComparison } from '../../shared/domain/procedure-changes';
-import type { ProcedureContent } from '../../shared/schemas/safety-procedures';
+import { PHASE_LABELS, PROCEDURE_PHASES, type ProcedureContent } from '../../shared/schemas/safety-procedures';
 
 // Hand-made versions: each expected change below is read off the two texts by eye.
 const v1: ProcedureContent = {
@@ -120,12 +120,7 @@ describe('side-by-side alignment of the version in force and a draft', () => {
       'Energy source B1-E1',
       'Energy source B1-H1',
       'Energy source B1-P1',
-      'Prepare for shutdown',
-      'Shut the machine down',
-      'Isolate every energy source',
-      'Apply locks and tags',
-      'Relieve stored energy',
-      'Verify isolation',
+      ...PROCEDURE_PHASES.map((phase) => PHASE_LABELS[phase].title),
       'Release from lockout',
     ]);
     expect(sections[0].rows.map((r) => r.mark)).toEqual(['same', 'changed']);

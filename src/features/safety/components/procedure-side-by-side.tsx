@@ -2,23 +2,22 @@ import { useState, type ReactNode } from 'react';
 import { procedureComparison, type ComparedRow } from '../../../../shared/domain/procedure-changes';
 import type { ProcedureContent } from '../../../../shared/schemas/safety-procedures';
 
+const MARKED = {
+  before: { cell: 'bg-danger-soft', Tag: 'del', text: 'text-danger-ink', lead: 'Was: ' },
+  after: { cell: 'bg-safe-soft', Tag: 'ins', text: 'text-safe-ink no-underline', lead: 'Now: ' },
+} as const;
+
 function Cell({ side, row }: { side: 'before' | 'after'; row: ComparedRow }) {
   const text = row[side];
   if (text === null) return <td className="border-t border-steel-200 bg-steel-50 p-2 align-top text-steel-500">—</td>;
   if (row.mark === 'same') return <td className="border-t border-steel-200 p-2 align-top">{text}</td>;
-  return side === 'before' ? (
-    <td className="border-t border-steel-200 bg-danger-soft p-2 align-top">
-      <del className="text-danger-ink">
-        <span className="sr-only">Was: </span>
+  const { cell, Tag, text: tone, lead } = MARKED[side];
+  return (
+    <td className={`border-t border-steel-200 p-2 align-top ${cell}`}>
+      <Tag className={tone}>
+        <span className="sr-only">{lead}</span>
         {text}
-      </del>
-    </td>
-  ) : (
-    <td className="border-t border-steel-200 bg-safe-soft p-2 align-top">
-      <ins className="text-safe-ink no-underline">
-        <span className="sr-only">Now: </span>
-        {text}
-      </ins>
+      </Tag>
     </td>
   );
 }
