@@ -198,7 +198,7 @@ export function LockoutDetailView({ lockout: l, me }: { lockout: LockoutDetail; 
           ) : (
             <p className="mb-3 text-steel-700">Nobody else has a personal lock on this lockout.</p>
           )}
-          {authorized && !isPrimary && !myMembership ? (
+          {authorized && !isPrimary && !myMembership && l.state !== 'testing' && l.state !== 'reapplied' ? (
             <div className="flex flex-wrap items-end gap-3">
               <TextField label="My personal lock number" value={lockNo} onChange={(e) => setLockNo(e.target.value)} autoComplete="off" />
               <Button
