@@ -30,6 +30,9 @@ export const SIGN_MEANINGS = [
   'absent-locks-removed',
   'employee-informed',
   'pre-use-check-done',
+  'testing-window-opened',
+  'energy-control-reapplied',
+  'isolation-reverified',
 ] as const;
 export type SignMeaning = (typeof SIGN_MEANINGS)[number];
 
@@ -58,6 +61,9 @@ export const MEANING_LABELS: Record<SignMeaning, string> = {
   'absent-locks-removed': 'Absent employee: locks removed',
   'employee-informed': 'Absent employee: informed',
   'pre-use-check-done': 'Pre-use check done',
+  'testing-window-opened': 'Locks off for testing or positioning',
+  'energy-control-reapplied': 'Locks back on after testing',
+  'isolation-reverified': 'Zero energy verified again after testing',
 };
 
 /** The sentence the signer agrees to by re-entering their password. */
@@ -85,6 +91,10 @@ export const MEANING_STATEMENTS: Record<SignMeaning, string> = {
   'absent-locks-removed': 'I checked the work area and that everyone is clear, then removed the absent employee’s locks listed.',
   'employee-informed': 'I told the employee that their locks were removed, before they resumed work at the facility.',
   'pre-use-check-done': 'I checked each line of this machine’s pre-use check myself and recorded what I found.',
+  'testing-window-opened':
+    'The machine is cleared of tools and materials, everyone is out of the machine area, and I removed the devices listed to test or position the machine as described.',
+  'energy-control-reapplied': 'I de-energized the machine and put my lockout or tagout devices back on every isolation point listed.',
+  'isolation-reverified': 'After testing or positioning I tried to start the machine and tested each isolation point again; no hazardous energy remains.',
 };
 
 /** The password re-entered at signing (21 CFR 11.200-style re-authentication, house rule). */
