@@ -174,7 +174,16 @@ export type ChangeRow = {
 
 export type ReferenceValue = { value: number; unit: string; source: string; overridden: boolean };
 
-export type StationLockout = { id: string; machineCode: string; state: 'locked' | 'verified'; appliedAt: string; reason: string; heldBy: string };
+export type StationLockout = {
+  id: string;
+  machineCode: string;
+  state: 'locked' | 'verified';
+  appliedAt: string;
+  reason: string;
+  heldBy: string;
+  /** Set when the lockout reaches this machine through a shared isolation point on another machine (e.g. "H1-E2"); heldBy is then whose lock is on it. */
+  sharedPoint?: string;
+};
 /** A counter that rose while the machine was locked out: shown at the machine until the lockout ends (and a week after). */
 export type StationAlarm = { id: string; machineCode: string; at: string; reason: string; lockoutId: string | null };
 export type StationDueRow = {

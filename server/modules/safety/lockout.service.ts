@@ -8,6 +8,7 @@ import { LockoutMember, LockoutPoint, LockoutSession, type ILockoutPoint, type I
 import { appendSignOff } from './chain';
 import { lockoutAuthorization, requireAuthorized } from './authorization';
 import { requireInformedOfRemoval } from './absent-removal.service';
+import { mailFedMachinePeople } from './shared-point-mail';
 import { badRequest, conflict, fieldError, forbidden, notFound } from '../../http/errors';
 import { recordActivity } from '../activity-log/activity-log.service';
 import type { Principal } from '../../http/principal';
@@ -140,6 +141,8 @@ export async function applyLockout(em: EntityManager, who: Principal, input: App
       },
     });
     recordActivity(tx, who, 'safety.lockout-applied', { type: 'LockoutSession', id: session.id }, { machine: machine.code, signOffId: signOff.id });
+    const lockoutInfo = { id: session.id, machineCode: machine.code, machineName: machine.name, reason: input.reason };
+    await mailFedMachinePeople(tx, who, lockoutInfo, sources, input.points.map((p) => p.sourceKey), 'applied', now);
     return { id: session.id, signOffId: signOff.id };
   });
 }
@@ -374,6 +377,8 @@ export async function releaseLockout(em: EntityManager, who: Principal, id: stri
     s.releasedAt = signOff.signedAt;
     if (s.workOrderId) await markLockoutReleased(tx, s.workOrderId, signOff.signedAt);
     recordActivity(tx, who, 'safety.lockout-released', { type: 'LockoutSession', id: s.id }, { signOffId: signOff.id });
+    const lockoutInfo = { id: s.id, machineCode: machine.code, machineName: machine.name, reason: s.reason };
+    await mailFedMachinePeople(tx, who, lockoutInfo, s.procedureVersion.getEntity().content.sources, points.map((p) => p.sourceKey), 'released', now);
     return { id: s.id, signOffId: signOff.id };
   });
 }
