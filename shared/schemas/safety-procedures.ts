@@ -70,7 +70,10 @@ export const energySourceSchema = z.object({
    * Other machines this isolation point also supplies (a hydraulic unit feeding two cells): locking
    * it marks them locked out too, and their own procedures must name this point (1910.147(c)(4)(ii)(B)).
    */
-  feeds: z.array(z.uuid({ message: 'Choose a machine' }), { message: 'Choose the machines this point also feeds' }).max(20, 'At most 20 machines').optional(),
+  feeds: z
+    .array(z.uuid({ message: 'Choose a machine' }), { message: 'Choose the machines this point also feeds' })
+    .max(20, 'At most 20 machines')
+    .optional(),
 });
 export type EnergySource = z.infer<typeof energySourceSchema>;
 

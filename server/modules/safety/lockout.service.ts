@@ -142,7 +142,15 @@ export async function applyLockout(em: EntityManager, who: Principal, input: App
     });
     recordActivity(tx, who, 'safety.lockout-applied', { type: 'LockoutSession', id: session.id }, { machine: machine.code, signOffId: signOff.id });
     const lockoutInfo = { id: session.id, machineCode: machine.code, machineName: machine.name, reason: input.reason };
-    await mailFedMachinePeople(tx, who, lockoutInfo, sources, input.points.map((p) => p.sourceKey), 'applied', now);
+    await mailFedMachinePeople(
+      tx,
+      who,
+      lockoutInfo,
+      sources,
+      input.points.map((p) => p.sourceKey),
+      'applied',
+      now,
+    );
     return { id: session.id, signOffId: signOff.id };
   });
 }
@@ -378,7 +386,15 @@ export async function releaseLockout(em: EntityManager, who: Principal, id: stri
     if (s.workOrderId) await markLockoutReleased(tx, s.workOrderId, signOff.signedAt);
     recordActivity(tx, who, 'safety.lockout-released', { type: 'LockoutSession', id: s.id }, { signOffId: signOff.id });
     const lockoutInfo = { id: s.id, machineCode: machine.code, machineName: machine.name, reason: s.reason };
-    await mailFedMachinePeople(tx, who, lockoutInfo, s.procedureVersion.getEntity().content.sources, points.map((p) => p.sourceKey), 'released', now);
+    await mailFedMachinePeople(
+      tx,
+      who,
+      lockoutInfo,
+      s.procedureVersion.getEntity().content.sources,
+      points.map((p) => p.sourceKey),
+      'released',
+      now,
+    );
     return { id: s.id, signOffId: signOff.id };
   });
 }

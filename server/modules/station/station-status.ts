@@ -59,16 +59,16 @@ export async function stationStatus(
         heldBy: l.held_by,
       })),
       ...fed
-      .filter((f, i) => fed.findIndex((x) => x.lockoutId === f.lockoutId) === i && !lockouts.some((l) => l.id === f.lockoutId))
-      .map((f) => ({
-        id: f.lockoutId,
-        machineCode: f.machineCode,
-        state: f.state,
-        appliedAt: f.appliedAt.toISOString(),
-        reason: f.reason,
-        heldBy: f.heldBy,
-        sharedPoint: f.pointKey,
-      })),
+        .filter((f, i) => fed.findIndex((x) => x.lockoutId === f.lockoutId) === i && !lockouts.some((l) => l.id === f.lockoutId))
+        .map((f) => ({
+          id: f.lockoutId,
+          machineCode: f.machineCode,
+          state: f.state,
+          appliedAt: f.appliedAt.toISOString(),
+          reason: f.reason,
+          heldBy: f.heldBy,
+          sharedPoint: f.pointKey,
+        })),
     ],
     due: due.map((w) => {
       const dueAt = w.due_at ? new Date(w.due_at) : null;
