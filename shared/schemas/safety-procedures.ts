@@ -190,6 +190,10 @@ export type VersionDetail = {
 /** An isolation point on another machine's approved procedure that also feeds this machine. */
 export type FeedingPoint = Omit<EnergySource, 'feeds'> & { fromMachine: { id: string; code: string; name: string } };
 
+/** Why a fed machine's procedure cannot be approved yet: the server's refusal and the editor say the same. */
+export const missingPointText = (p: FeedingPoint, fedCode: string) =>
+  `${p.key} (${p.fromMachine.name.toLowerCase()} ${p.fromMachine.code}) feeds ${fedCode}; add it to this procedure's energy sources before approving`;
+
 export type ProcedureDetail = {
   id: string;
   machine: { id: string; code: string; name: string; kind: string };

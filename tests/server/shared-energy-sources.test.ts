@@ -1,6 +1,7 @@
 // Shared isolation points: one energy source (a hydraulic unit's pressure line) that feeds several machines.
 import { describe, it, expect, beforeAll, afterAll, afterEach } from 'vitest';
 import { makeTestApp } from '../setup/test-app';
+import { readPdf } from '../setup/pdf';
 import { approvedProcedure, cellProcedure, countSignOffs, get, makeSafetyShop, PASSWORD, post, put, shopToday, type SafetyShop } from './safety-helpers';
 import { Machine } from '../../server/modules/machines/machine.entity';
 import { setClock } from '../../shared/clock';
@@ -93,6 +94,17 @@ describe('shared isolation points', () => {
     hydProc = await approvedProcedure(shop, hydraulicProcedure([ids.C1, ids.C2]), ids.H1);
     const view = (await get(shop.s.operator, `/safety/procedures/${hydProc}`).expect(200)).body;
     expect(view.fedMachines).toEqual({ [ids.C1]: { code: 'C1', name: 'Cell 1' }, [ids.C2]: { code: 'C2', name: 'Cell C2' } });
+    // The placard at the unit says which machines its point also feeds.
+    const placard = await shop.s.operator.agent
+      .get(`/api/safety/procedures/${hydProc}/placard.pdf`)
+      .buffer(true)
+      .parse((r, cb) => {
+        const chunks: Buffer[] = [];
+        r.on('data', (c: Buffer) => chunks.push(c));
+        r.on('end', () => cb(null, Buffer.concat(chunks)));
+      })
+      .expect(200);
+    expect((await readPdf(placard.body as Buffer)).text.replace(/\s+/g, ' ')).toContain('Also feeds C1, C2: locking it locks them out too.');
 
     // OSHA 29 CFR 1910.147(d)(3): every energy isolating device needed to isolate C1 is in its procedure.
     const c1 = await procedureOf(ids.C1, cell('Cell 1 without the hydraulic supply'));

@@ -8,7 +8,7 @@
 import type { EntityManager } from '@mikro-orm/postgresql';
 import { Machine } from '../machines/machine.entity';
 import { conflict, fieldError } from '../../http/errors';
-import type { EnergySource, FeedingPoint, ProcedureContent } from '../../../shared/schemas/safety-procedures';
+import { missingPointText, type EnergySource, type FeedingPoint, type ProcedureContent } from '../../../shared/schemas/safety-procedures';
 
 /** Every fed machine is an active machine of this shop and not the procedure's own machine. */
 export async function refuseBadFeeds(em: EntityManager, machine: { id: string; code: string }, content: ProcedureContent): Promise<void> {
@@ -53,10 +53,6 @@ export async function feedingPointsOf(em: EntityManager, orgId: string, machineI
   }
   return out;
 }
-
-/** The text the refusal and the editor use for a missing shared point. */
-export const missingPointText = (p: FeedingPoint, fedCode: string) =>
-  `${p.key} (${p.fromMachine.name.toLowerCase()} ${p.fromMachine.code}) feeds ${fedCode}; add it to this procedure's energy sources before approving`;
 
 /**
  * Approval of a fed machine's procedure: every point that feeds it must be among its sources,

@@ -10,6 +10,7 @@ import { can, type Role } from '../../../../shared/permissions';
 import { ENERGY_KIND_LABELS, PHASE_LABELS, PROCEDURE_PHASES, type ProcedureDetail, type VersionDetail } from '../../../../shared/schemas/safety-procedures';
 import { useApproveVersion } from '../api/approve-version';
 import { ProcedureChanges } from './procedure-changes';
+import { FeedsLine, MissingSharedPoints } from './shared-points';
 import { useUploadPhoto } from '../api/upload-photo';
 import { useDeletePhoto } from '../api/delete-photo';
 import { useSignFlow } from './sign-dialog';
@@ -19,7 +20,7 @@ import { PHOTO_TYPES, PROCEDURE_PHOTO_MAX_BYTES, megabytes } from '../../../../s
 const statusTone = { draft: 'caution', approved: 'safe', superseded: 'info' } as const;
 
 /** The text of one version: energy sources with their photos, then the steps in 1910.147(d) order. */
-export function VersionText({ procedureId, v }: { procedureId: string; v: VersionDetail }) {
+export function VersionText({ procedureId, v, fedMachines = {} }: { procedureId: string; v: VersionDetail; fedMachines?: ProcedureDetail['fedMachines'] }) {
   const c = v.content;
   return (
     <div className="space-y-4">
@@ -52,6 +53,7 @@ export function VersionText({ procedureId, v }: { procedureId: string; v: Versio
                 <dt className="font-semibold">Verify</dt>
                 <dd>{s.verifyMethod}</dd>
               </dl>
+              <FeedsLine feeds={s.feeds} machines={fedMachines} />
               <div className="mt-2 flex flex-wrap gap-2">
                 {v.photos
                   .filter((p) => p.sourceKey === s.key)
@@ -169,7 +171,7 @@ export function ProcedureView({ p, me, viewingVersion }: { p: ProcedureDetail; m
         >
           <WorkCaution />
           <div className="mt-4">
-            <VersionText procedureId={p.id} v={shown} />
+            <VersionText procedureId={p.id} v={shown} fedMachines={p.fedMachines} />
           </div>
         </Panel>
       ) : (
@@ -193,9 +195,17 @@ export function ProcedureView({ p, me, viewingVersion }: { p: ProcedureDetail; m
             Saved by {draft.authorName}, {f.dateTime(draft.createdAt)}. A draft is not in force until it is approved.
           </p>
           {shown && shown.status === 'approved' ? <ProcedureChanges current={shown.content} currentVersion={shown.version} draft={draft.content} /> : null}
+          <div className="mb-3">
+            <MissingSharedPoints
+              points={p.feedingPoints}
+              sources={draft.content.sources}
+              machineCode={p.machine.code}
+              editHref={drafts ? paths.safetyProcedureEdit.getHref(p.id) : undefined}
+            />
+          </div>
           <details className="mb-4">
             <summary className="flex min-h-touch cursor-pointer items-center font-semibold">Read the draft text</summary>
-            <VersionText procedureId={p.id} v={draft} />
+            <VersionText procedureId={p.id} v={draft} fedMachines={p.fedMachines} />
           </details>
           {manage ? (
             <div className="space-y-4">
