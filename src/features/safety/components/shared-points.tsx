@@ -23,11 +23,18 @@ export function FeedsPicker({
 }) {
   const others = machines.filter((m) => m.id !== ownMachineId);
   if (others.length === 0) return null;
+  // Most points feed only their own machine: the picker stays folded until it is used.
   return (
-    <fieldset className="md:col-span-4">
-      <legend className="text-sm font-semibold">
-        Also feeds <span className="font-normal text-steel-600">(other machines this point supplies: locking it locks them out too)</span>
-      </legend>
+    <details className="md:col-span-4" open={value.length > 0}>
+      <summary className="flex min-h-touch cursor-pointer items-center text-sm font-semibold">
+        {value.length
+          ? `Also feeds ${others
+              .filter((m) => value.includes(m.id))
+              .map((m) => m.code)
+              .join(', ')}`
+          : 'Does this point also feed other machines?'}
+      </summary>
+      <p className="text-sm text-steel-600">Choose the other machines this point supplies: locking it locks them out too.</p>
       <div className="mt-1 flex flex-wrap gap-2" role="group" aria-label={`Machines ${sourceLabel} also feeds`}>
         {others.map((m) => {
           const on = value.includes(m.id);
@@ -49,7 +56,7 @@ export function FeedsPicker({
           {error}
         </p>
       ) : null}
-    </fieldset>
+    </details>
   );
 }
 
