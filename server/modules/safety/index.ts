@@ -6,6 +6,7 @@ import { SafetyEvent } from './safety-event.entity';
 import { AbsentLockRemoval } from './absent-removal.entity';
 import { PreUseCheck } from './pre-use-check.entity';
 import { LockoutTestWindow } from './testing-window.entity';
+import { OutsideParty } from './outside-party.entity';
 import { PpeRequirement, PpeCheck, PeriodicInspection, TrainingRecord, FireWatch, SafetyTask } from './records.entity';
 
 export const safetyEntities = [
@@ -28,4 +29,5 @@ export const safetyEntities = [
   AbsentLockRemoval,
   PreUseCheck,
   LockoutTestWindow,
+  OutsideParty,
 ];

@@ -106,6 +106,8 @@ export async function getLockout(em: EntityManager, who: Principal, id: string):
         device: p.device,
         lockNumber: p.lockNumber,
         tagNumber: p.tagNumber ?? null,
+        tagJustification: p.tagJustification ?? null,
+        tagMeasure: p.tagMeasure ?? null,
         holderId: p.holder.id,
         holderName: p.holder.getEntity().name,
         appliedByName: p.appliedBy.getEntity().name,

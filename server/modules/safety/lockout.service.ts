@@ -9,6 +9,7 @@ import { appendSignOff } from './chain';
 import { lockoutAuthorization, requireAuthorized } from './authorization';
 import { requireInformedOfRemoval } from './absent-removal.service';
 import { refuseDuringTestWindow } from './testing-window.guards';
+import { requireNoOutsideLocks } from './outside-locks';
 import { badRequest, conflict, fieldError, forbidden, notFound } from '../../http/errors';
 import { recordActivity } from '../activity-log/activity-log.service';
 import type { Principal } from '../../http/principal';
@@ -22,13 +23,14 @@ import {
   type VerifyLockoutInput,
 } from '../../../shared/schemas/safety-lockout';
 import { ENERGY_KIND_LABELS } from '../../../shared/schemas/safety-procedures';
+import { tagJustificationText, tagOnlyJustificationIssues } from '../../../shared/schemas/safety-tag-only';
 import { clock } from '../../../shared/clock';
 
 const AUTHORIZED_ROLES = ['technician', 'safety'] as const;
 const SUBJECT = 'lockout-session';
 const NIL = '00000000-0000-0000-0000-000000000000';
 
-/** Locks already hanging somewhere in this shop: a physical lock cannot be in two places. */
+/** Locks already hanging somewhere in this shop, outside personnel's included: a physical lock cannot be in two places. */
 export async function locksInUse(tx: EntityManager, orgId: string, numbers: string[], exceptSession?: string): Promise<Map<string, string>> {
   if (numbers.length === 0) return new Map();
   const upper = numbers.map((n) => n.toUpperCase());
@@ -39,8 +41,13 @@ export async function locksInUse(tx: EntityManager, orgId: string, numbers: stri
      union all
      select upper(lm.lock_number), m.code || ' (personal lock)'
        from safety_lockout_member lm join safety_lockout s on s.id = lm.session_id join machine m on m.id = s.machine_id
-      where lm.organization_id = ? and lm.left_at is null and upper(lm.lock_number) in (?) and s.id <> ?`,
-    [orgId, upper, exceptSession ?? NIL, orgId, upper, exceptSession ?? NIL],
+      where lm.organization_id = ? and lm.left_at is null and upper(lm.lock_number) in (?) and s.id <> ?
+     union all
+     select upper(l.n), m.code || ' (' || o.company || ' lock)'
+       from safety_outside_party o cross join lateral jsonb_array_elements_text(o.lock_numbers) as l(n)
+       join safety_lockout s on s.id = o.session_id join machine m on m.id = s.machine_id
+      where o.organization_id = ? and o.locks_applied_at is not null and o.locks_removed_at is null and upper(l.n) in (?) and s.id <> ?`,
+    [orgId, upper, exceptSession ?? NIL, orgId, upper, exceptSession ?? NIL, orgId, upper, exceptSession ?? NIL],
   );
   return new Map(rows.map((r) => [r.lock, r.where]));
 }
@@ -81,6 +88,9 @@ export async function applyLockout(em: EntityManager, who: Principal, input: App
         [{ path: 'points', message: `Missing: ${missing.map((s) => s.key).join(', ')}` }],
       );
     }
+    const unjustified = tagOnlyJustificationIssues(input.points);
+    if (unjustified.length)
+      throw badRequest(`A tag used alone needs its reason (OSHA 29 CFR 1910.147(c)(3)): ${unjustified.map((f) => f.path).join(', ')}`, unjustified);
     const used = await locksInUse(
       tx,
       who.orgId,
@@ -113,6 +123,8 @@ export async function applyLockout(em: EntityManager, who: Principal, input: App
         device: p.device,
         lockNumber: p.lockNumber,
         tagNumber: p.tagNumber || null,
+        tagJustification: p.device === 'tag-only' ? (p.tagJustification ?? null) : null,
+        tagMeasure: p.device === 'tag-only' && p.tagJustification === 'full-protection' ? p.tagMeasure?.trim() || null : null,
         appliedBy: who.userId,
         holder: who.userId,
         appliedAt: now,
@@ -131,13 +143,21 @@ export async function applyLockout(em: EntityManager, who: Principal, input: App
       subjectId: session.id,
       machineId: machine.id,
       details: {
-        summary: `${machine.code} v${version.version}: ${input.points.map((p) => `${p.sourceKey} ${LOCK_DEVICE_LABELS[p.device].toLowerCase()} ${p.lockNumber}${p.tagNumber ? `/${p.tagNumber}` : ''}`).join(', ')} — ${input.reason}`,
+        summary: `${machine.code} v${version.version}: ${input.points.map((p) => `${p.sourceKey} ${LOCK_DEVICE_LABELS[p.device].toLowerCase()} ${p.lockNumber}${p.tagNumber ? `/${p.tagNumber}` : ''}${p.device === 'tag-only' ? ` — ${tagJustificationText(p.tagJustification, p.tagMeasure)}` : ''}`).join(', ')} — ${input.reason}`,
         procedureId: proc.id,
         procedureVersion: version.version,
         reason: input.reason,
         group: input.group,
         workOrderId: input.workOrderId ?? null,
-        points: input.points.map((p) => ({ key: p.sourceKey, device: p.device, lock: p.lockNumber, tag: p.tagNumber ?? null })),
+        points: input.points.map((p) => ({
+          key: p.sourceKey,
+          device: p.device,
+          lock: p.lockNumber,
+          tag: p.tagNumber ?? null,
+          ...(p.device === 'tag-only'
+            ? { tagJustification: p.tagJustification, tagMeasure: p.tagJustification === 'full-protection' ? p.tagMeasure?.trim() : null }
+            : {}),
+        })),
       },
     });
     recordActivity(tx, who, 'safety.lockout-applied', { type: 'LockoutSession', id: session.id }, { machine: machine.code, signOffId: signOff.id });
@@ -316,6 +336,8 @@ export async function acceptHandover(em: EntityManager, who: Principal, id: stri
         device: p.device,
         lockNumber: lock.lockNumber,
         tagNumber: p.tagNumber,
+        tagJustification: p.tagJustification ?? null,
+        tagMeasure: p.tagMeasure ?? null,
         appliedBy: who.userId,
         holder: who.userId,
         appliedAt: now,
@@ -359,6 +381,7 @@ export async function releaseLockout(em: EntityManager, who: Principal, id: stri
         `Personal locks are still on this group lockout: ${members.map((m) => `${m.user.getEntity().name} (${m.lockNumber})`).join(', ')}. Each person removes their own lock first.`,
       );
     }
+    await requireNoOutsideLocks(tx, s.id);
     if (s.pendingHandoverTo) throw conflict('A hand-over is waiting to be accepted; it must be accepted before the lockout can be released');
     const now = clock.now();
     for (const p of points) {

@@ -505,4 +505,6 @@ export function registerSafetyRoutes(r: ApiRouter, config: Config) {
     const { pdf, fileName } = await exportPdf(em(), who, query);
     res.set('Content-Type', 'application/pdf').set('Content-Disposition', `attachment; filename="${fileName}"`).send(pdf);
   });
+  // Other safety route files share the wrong-password limit of signing.
+  return { signing };
 }

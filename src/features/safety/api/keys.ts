@@ -14,6 +14,7 @@ export const safetyKeys = {
   lockout: (id: string) => ['safety', 'lockouts', 'detail', id] as const,
   absentRemovals: (lockoutId: string) => ['safety', 'lockouts', 'absent-removals', lockoutId] as const,
   testWindows: (lockoutId: string) => ['safety', 'lockouts', 'test-windows', lockoutId] as const,
+  outsideParties: (lockoutId: string) => ['safety', 'lockouts', 'outside-parties', lockoutId] as const,
   authorization: (procedureId: string) => ['safety', 'procedures', 'authorization', procedureId] as const,
   locks: (f: object) => ['safety', 'locks', f] as const,
   events: (f: object) => ['safety', 'events', f] as const,

@@ -27,6 +27,8 @@ import { useShopFormat } from '../../../lib/format';
 import { AbsentRemovalPanel } from './absent-removal-panel';
 import { Check } from './check-row';
 import { TestingWindowBanner, TestingWindowPanel } from './testing-window-panel';
+import { OutsidePersonnelPanel } from './outside-personnel-panel';
+import { DeviceWithReason } from './tag-only-reason';
 
 const pointCol = createColumnHelper<LockPointRow>();
 type Me = { id: string; name: string; role: Role };
@@ -132,7 +134,10 @@ export function LockoutDetailView({ lockout: l, me }: { lockout: LockoutDetail; 
             }),
             pointCol.accessor('sourceKind', { header: 'Energy' }),
             pointCol.accessor('isolationDevice', { header: 'Isolation device', cell: (c) => `${c.getValue()} — ${c.row.original.location}` }),
-            pointCol.accessor('device', { header: 'Device', cell: (c) => LOCK_DEVICE_LABELS[c.getValue() as LockPointRow['device']] }),
+            pointCol.accessor('device', {
+              header: 'Device',
+              cell: (c) => <DeviceWithReason point={c.row.original} label={LOCK_DEVICE_LABELS[c.getValue() as LockPointRow['device']]} />,
+            }),
             pointCol.accessor('lockNumber', {
               header: 'Lock / tag',
               cell: (c) => `${c.getValue()}${c.row.original.tagNumber ? ` / ${c.row.original.tagNumber}` : ''}`,
@@ -359,6 +364,7 @@ export function LockoutDetailView({ lockout: l, me }: { lockout: LockoutDetail; 
           ))}
         </ol>
       </Panel>
+      <OutsidePersonnelPanel lockout={l} me={me} run={run} />
       <AbsentRemovalPanel lockout={l} me={me} run={run} />
       {dialog}
     </div>
