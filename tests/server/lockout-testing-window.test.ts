@@ -264,6 +264,9 @@ describe('test or positioning window (OSHA 29 CFR 1910.147(f)(1))', () => {
     expect(during.reason).toBe(
       `Energized for testing under the lockout held by technician of ${shop.slug} (Replace the clamp) — locks off: Jog the ram once to check the new clamp seats`,
     );
+    // The station page keeps the machine locked out for production and names the state.
+    const station = (await get(shop.s.operator, '/stations/C1').expect(200)).body;
+    expect(station.lockouts).toEqual([expect.objectContaining({ id, state: 'testing' })]);
     await post(shop.s.technician, `/safety/lockouts/${id}/test-windows/reapply`, {
       locks: [{ pointId: e1.id, lockNumber: e1.lockNumber }],
       deEnergized: true,
