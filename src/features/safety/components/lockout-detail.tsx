@@ -25,7 +25,7 @@ import { useLinkedWorkOrder } from '../api/get-linked-work-order';
 import { LockoutStateBadge } from './badges';
 import { useShopFormat } from '../../../lib/format';
 import { AbsentRemovalPanel } from './absent-removal-panel';
-import { Check } from './check-row';
+import { Check, VerifyChecklist } from './check-row';
 import { TestingWindowBanner, TestingWindowPanel } from './testing-window-panel';
 import { OutsidePersonnelPanel } from './outside-personnel-panel';
 import { DeviceWithReason } from './tag-only-reason';
@@ -156,23 +156,7 @@ export function LockoutDetailView({ lockout: l, me }: { lockout: LockoutDetail; 
       {open && l.state === 'locked' && isPrimary ? (
         <Panel title="Verify isolation (1910.147(d)(6))">
           <div className="space-y-2">
-            {content?.steps.verify.length ? (
-              <ul className="list-disc pl-6 text-steel-800">
-                {content.steps.verify.map((s, i) => (
-                  <li key={i}>{s}</li>
-                ))}
-              </ul>
-            ) : null}
-            <Check label="I tried to start the machine with its normal controls; it did not start" checked={startTried} onChange={setStartTried} />
-            {active.map((p) => (
-              <Check
-                key={p.id}
-                label={`${p.sourceKey} · ${p.sourceKind}: zero energy`}
-                hint={content?.sources.find((s) => s.key === p.sourceKey)?.verifyMethod}
-                checked={tested.includes(p.id)}
-                onChange={(v) => setTested((t) => (v ? [...t, p.id] : t.filter((x) => x !== p.id)))}
-              />
-            ))}
+            <VerifyChecklist content={content} points={active} startTried={startTried} onStartTried={setStartTried} tested={tested} onTested={setTested} />
             <Button
               disabled={!startTried || tested.length !== active.length}
               onClick={() =>

@@ -14,7 +14,7 @@ import { useOpenTestWindow } from '../api/open-test-window';
 import { useReapplyAfterTest } from '../api/reapply-after-test';
 import { useReverifyAfterTest } from '../api/reverify-after-test';
 import { useShopFormat } from '../../../lib/format';
-import { Check } from './check-row';
+import { Check, VerifyChecklist } from './check-row';
 
 type Me = { id: string; name: string; role: Role };
 type Run = (meaning: SignMeaning, fn: (password: string) => Promise<unknown>, text: string, detail?: ReactNode) => void;
@@ -201,23 +201,7 @@ export function TestingWindowPanel({ lockout: l, me, run, content }: { lockout: 
       {l.state === 'reapplied' && isPrimary ? (
         <Panel title="Verify isolation again (1910.147(d)(6))">
           <div className="space-y-2">
-            {content?.steps.verify.length ? (
-              <ul className="list-disc pl-6 text-steel-800">
-                {content.steps.verify.map((s, i) => (
-                  <li key={i}>{s}</li>
-                ))}
-              </ul>
-            ) : null}
-            <Check label="I tried to start the machine with its normal controls; it did not start" checked={startTried} onChange={setStartTried} />
-            {active.map((p) => (
-              <Check
-                key={p.id}
-                label={`${p.sourceKey} · ${p.sourceKind}: zero energy`}
-                hint={content?.sources.find((s) => s.key === p.sourceKey)?.verifyMethod}
-                checked={tested.includes(p.id)}
-                onChange={(v) => setTested((t) => (v ? [...t, p.id] : t.filter((x) => x !== p.id)))}
-              />
-            ))}
+            <VerifyChecklist content={content} points={active} startTried={startTried} onStartTried={setStartTried} tested={tested} onTested={setTested} />
             <Button
               variant="primary"
               disabled={!startTried || active.some((p) => !tested.includes(p.id))}
