@@ -11,7 +11,7 @@ export class Migration20261205152001 extends Migration {
 
     this.addSql(`alter table "safety_sign_off" drop constraint if exists "safety_sign_off_meaning_check";`);
 
-    this.addSql(`alter table "safety_sign_off" add constraint "safety_sign_off_meaning_check" check("meaning" in ('procedure-approved', 'lockout-applied', 'isolation-verified', 'member-joined', 'member-left', 'handover-offered', 'handover-accepted', 'lockout-released', 'ppe-check-done', 'inspection-performed', 'inspection-certified', 'training-recorded', 'fire-watch-started', 'fire-watch-ended', 'correction', 'safety-work-signed-off', 'deviation-accepted', 'absence-verified', 'contact-attempted', 'removal-authorized', 'absent-locks-removed', 'employee-informed', 'pre-use-check-done', 'outside-procedures-exchanged', 'outside-procedure-acknowledged', 'outside-restrictions-informed', 'outside-locks-applied', 'outside-locks-removed'));`);
+    this.addSql(`alter table "safety_sign_off" add constraint "safety_sign_off_meaning_check" check("meaning" in ('procedure-approved', 'lockout-applied', 'isolation-verified', 'member-joined', 'member-left', 'handover-offered', 'handover-accepted', 'lockout-released', 'ppe-check-done', 'inspection-performed', 'inspection-certified', 'training-recorded', 'fire-watch-started', 'fire-watch-ended', 'correction', 'safety-work-signed-off', 'deviation-accepted', 'absence-verified', 'contact-attempted', 'removal-authorized', 'absent-locks-removed', 'employee-informed', 'pre-use-check-done', 'testing-window-opened', 'energy-control-reapplied', 'isolation-reverified', 'outside-procedures-exchanged', 'outside-procedure-acknowledged', 'outside-restrictions-informed', 'outside-locks-applied', 'outside-locks-removed'));`);
 
     this.addSql(`alter table "safety_lockout_point" add column "tag_justification" text check ("tag_justification" in ('cannot-take-lock', 'full-protection')) null, add column "tag_measure" varchar(300) null;`);
   }
@@ -23,7 +23,7 @@ export class Migration20261205152001 extends Migration {
 
     this.addSql(`alter table "safety_lockout_point" drop column "tag_justification", drop column "tag_measure";`);
 
-    this.addSql(`alter table "safety_sign_off" add constraint "safety_sign_off_meaning_check" check("meaning" in ('procedure-approved', 'lockout-applied', 'isolation-verified', 'member-joined', 'member-left', 'handover-offered', 'handover-accepted', 'lockout-released', 'ppe-check-done', 'inspection-performed', 'inspection-certified', 'training-recorded', 'fire-watch-started', 'fire-watch-ended', 'correction', 'safety-work-signed-off', 'deviation-accepted', 'absence-verified', 'contact-attempted', 'removal-authorized', 'absent-locks-removed', 'employee-informed', 'pre-use-check-done'));`);
+    this.addSql(`alter table "safety_sign_off" add constraint "safety_sign_off_meaning_check" check("meaning" in ('procedure-approved', 'lockout-applied', 'isolation-verified', 'member-joined', 'member-left', 'handover-offered', 'handover-accepted', 'lockout-released', 'ppe-check-done', 'inspection-performed', 'inspection-certified', 'training-recorded', 'fire-watch-started', 'fire-watch-ended', 'correction', 'safety-work-signed-off', 'deviation-accepted', 'absence-verified', 'contact-attempted', 'removal-authorized', 'absent-locks-removed', 'employee-informed', 'pre-use-check-done', 'testing-window-opened', 'energy-control-reapplied', 'isolation-reverified'));`);
   }
 
 }

@@ -174,7 +174,14 @@ export type ChangeRow = {
 
 export type ReferenceValue = { value: number; unit: string; source: string; overridden: boolean };
 
-export type StationLockout = { id: string; machineCode: string; state: 'locked' | 'verified'; appliedAt: string; reason: string; heldBy: string };
+export type StationLockout = {
+  id: string;
+  machineCode: string;
+  state: 'locked' | 'verified' | 'testing' | 'reapplied';
+  appliedAt: string;
+  reason: string;
+  heldBy: string;
+};
 /** A counter that rose while the machine was locked out: shown at the machine until the lockout ends (and a week after). */
 export type StationAlarm = { id: string; machineCode: string; at: string; reason: string; lockoutId: string | null };
 export type StationDueRow = {

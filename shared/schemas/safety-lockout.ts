@@ -17,12 +17,15 @@ export const LOCK_DEVICE_LABELS: Record<LockDevice, string> = {
 };
 
 /** Our names for the states of a lockout. */
-export const LOCKOUT_STATES = ['locked', 'verified', 'released'] as const;
+export const LOCKOUT_STATES = ['locked', 'verified', 'released', 'testing', 'reapplied'] as const;
 export type LockoutState = (typeof LOCKOUT_STATES)[number];
 export const LOCKOUT_STATE_LABELS: Record<LockoutState, string> = {
   locked: 'Locked — not yet verified',
   verified: 'Locked and verified',
   released: 'Released',
+  // OSHA 29 CFR 1910.147(f)(1): devices off for a test or positioning window, then back on awaiting re-verification.
+  testing: 'Energized for testing — locks off',
+  reapplied: 'Locks back on — re-verify before work resumes',
 };
 
 const lockNumber = oneLine(z.string().trim().min(1, 'Enter the lock number').max(30, 'Lock number: at most 30 characters'));

@@ -8,6 +8,7 @@ import { LockoutMember, LockoutPoint, LockoutSession, type ILockoutPoint, type I
 import { appendSignOff } from './chain';
 import { lockoutAuthorization, requireAuthorized } from './authorization';
 import { requireInformedOfRemoval } from './absent-removal.service';
+import { refuseDuringTestWindow } from './testing-window.guards';
 import { requireNoOutsideLocks } from './outside-locks';
 import { badRequest, conflict, fieldError, forbidden, notFound } from '../../http/errors';
 import { recordActivity } from '../activity-log/activity-log.service';
@@ -51,7 +52,7 @@ export async function locksInUse(tx: EntityManager, orgId: string, numbers: stri
   return new Map(rows.map((r) => [r.lock, r.where]));
 }
 
-async function loadOpen(tx: EntityManager, who: Principal, id: string): Promise<ILockoutSession> {
+export async function loadOpen(tx: EntityManager, who: Principal, id: string): Promise<ILockoutSession> {
   // Row lock first: two people acting on one lockout at once are applied one after the other.
   await tx.execute('select id from safety_lockout where id = ? and organization_id = ? for update', [id, who.orgId]);
   const s = await tx.findOne(LockoutSession, id, { populate: ['machine', 'primary', 'procedureVersion'] });
@@ -164,33 +165,40 @@ export async function applyLockout(em: EntityManager, who: Principal, input: App
   });
 }
 
-async function activePoints(tx: EntityManager, sessionId: string) {
+export async function activePoints(tx: EntityManager, sessionId: string) {
   return tx.find(LockoutPoint, { session: sessionId, removedAt: null }, { populate: ['holder'], orderBy: { sourceKey: 'asc' } });
+}
+
+/** Every active point ticked as tested, and each zero-energy reading with its unit and a proved tester; returns the readings to sign. */
+export function checkIsolationTests(points: ILockoutPoint[], input: Pick<VerifyLockoutInput, 'testedPointIds' | 'readings'>) {
+  const untested = points.filter((p) => !input.testedPointIds.includes(p.id));
+  if (untested.length)
+    throw fieldError('testedPointIds', `Test every isolation point before signing; not ticked: ${untested.map((p) => p.sourceKey).join(', ')}`);
+  const stray = input.testedPointIds.filter((pid) => !points.some((p) => p.id === pid));
+  if (stray.length) throw fieldError('testedPointIds', 'Some ticked points do not belong to this lockout');
+  const readings = (input.readings ?? []).map((r, i) => {
+    const point = points.find((p) => p.id === r.pointId);
+    if (!point) throw fieldError(`readings.${i}.pointId`, 'This reading is for a point that is not on this lockout');
+    if (!r.unit)
+      throw fieldError(`readings.${i}.unit`, `Give the unit of the reading at ${point.sourceKey} (V, bar …): a number alone does not show zero energy`);
+    if (!r.testerProvedBefore || !r.testerProvedAfter)
+      throw fieldError(
+        `readings.${i}.${r.testerProvedBefore ? 'testerProvedAfter' : 'testerProvedBefore'}`,
+        `Prove the tester on a known source before and after the reading at ${point.sourceKey} (live-dead-live, common practice)`,
+      );
+    return { key: point.sourceKey, value: r.value, unit: r.unit, instrument: r.instrument, testerProvedBefore: true, testerProvedAfter: true };
+  });
+  return readings;
 }
 
 export async function verifyLockout(em: EntityManager, who: Principal, id: string, input: VerifyLockoutInput) {
   return em.transactional(async (tx) => {
     const s = await loadOpen(tx, who, id);
+    refuseDuringTestWindow(s, 'verify it here (use the re-verification after testing)');
     if (s.state !== 'locked') throw conflict('Isolation on this lockout is already verified');
     if (s.primary.id !== who.userId) throw forbidden(`Only ${s.primary.getEntity().name}, who holds this lockout, verifies its isolation`);
     const points = await activePoints(tx, s.id);
-    const untested = points.filter((p) => !input.testedPointIds.includes(p.id));
-    if (untested.length)
-      throw fieldError('testedPointIds', `Test every isolation point before signing; not ticked: ${untested.map((p) => p.sourceKey).join(', ')}`);
-    const stray = input.testedPointIds.filter((pid) => !points.some((p) => p.id === pid));
-    if (stray.length) throw fieldError('testedPointIds', 'Some ticked points do not belong to this lockout');
-    const readings = (input.readings ?? []).map((r, i) => {
-      const point = points.find((p) => p.id === r.pointId);
-      if (!point) throw fieldError(`readings.${i}.pointId`, 'This reading is for a point that is not on this lockout');
-      if (!r.unit)
-        throw fieldError(`readings.${i}.unit`, `Give the unit of the reading at ${point.sourceKey} (V, bar …): a number alone does not show zero energy`);
-      if (!r.testerProvedBefore || !r.testerProvedAfter)
-        throw fieldError(
-          `readings.${i}.${r.testerProvedBefore ? 'testerProvedAfter' : 'testerProvedBefore'}`,
-          `Prove the tester on a known source before and after the reading at ${point.sourceKey} (live-dead-live, common practice)`,
-        );
-      return { key: point.sourceKey, value: r.value, unit: r.unit, instrument: r.instrument, testerProvedBefore: true, testerProvedAfter: true };
-    });
+    const readings = checkIsolationTests(points, input);
     s.state = 'verified';
     const signOff = await appendSignOff(tx, who, {
       meaning: 'isolation-verified',
@@ -215,6 +223,7 @@ export async function joinLockout(em: EntityManager, who: Principal, id: string,
   return em.transactional(async (tx) => {
     const s = await loadOpen(tx, who, id);
     if (s.primary.id === who.userId) throw conflict('You hold this lockout already; your locks are on the isolation points');
+    refuseDuringTestWindow(s, 'join and start work');
     const already = await tx.findOne(LockoutMember, { session: s.id, user: who.userId, leftAt: null });
     if (already) throw conflict(`Your personal lock ${already.lockNumber} is already on this lockout`);
     await requireAuthorized(tx, who.userId, s.procedure.id);
@@ -264,6 +273,7 @@ export async function offerHandover(em: EntityManager, who: Principal, id: strin
   return em.transactional(async (tx) => {
     const s = await loadOpen(tx, who, id);
     if (s.primary.id !== who.userId) throw forbidden(`Only ${s.primary.getEntity().name}, who holds this lockout, can hand it over`);
+    refuseDuringTestWindow(s, 'hand it over');
     if (input.toUserId === who.userId) throw fieldError('toUserId', 'Choose someone else to take over');
     const m = await tx.findOne(Membership, { user: input.toUserId, organization: who.orgId, active: true }, { filters: false, populate: ['user'] });
     if (!m) throw fieldError('toUserId', 'This person is not an active member of your shop');
@@ -357,6 +367,7 @@ export async function acceptHandover(em: EntityManager, who: Principal, id: stri
 export async function releaseLockout(em: EntityManager, who: Principal, id: string, input: ReleaseLockoutInput) {
   return em.transactional(async (tx) => {
     const s = await loadOpen(tx, who, id);
+    refuseDuringTestWindow(s, 'release it', true);
     const points = await activePoints(tx, s.id);
     const others = points.filter((p) => p.holder.id !== who.userId);
     if (others.length) {

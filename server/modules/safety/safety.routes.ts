@@ -15,6 +15,8 @@ import { addPhoto, approveVersion, createProcedure, deletePhoto, getPhoto, getPr
 import { renderPlacard } from './placard';
 import { acceptHandover, applyLockout, joinLockout, leaveLockout, offerHandover, releaseLockout, verifyLockout } from './lockout.service';
 import { getLockout, listLockouts } from './lockout.queries';
+import { listTestWindows, openTestWindow, reapplyAfterTest, reverifyAfterTest } from './testing-window.service';
+import { openTestWindowSchema, reapplyAfterTestSchema, reverifyAfterTestSchema } from '../../../shared/schemas/safety-testing-window';
 import { safetyMachines, safetyPeople } from './safety-lookups';
 import { listRequirements, recordPpeCheck, retireRequirement, saveRequirement } from './ppe.service';
 import {
@@ -265,6 +267,42 @@ export function registerSafetyRoutes(r: ApiRouter, config: Config) {
     { access: 'safety.lockout.sign', params: uuidParam, body: releaseLockoutSchema, ...signing },
     signed(({ params, body, principal: who }) =>
       refusable(em(), who, 'lockout.release', { lockoutId: params.id }, () => releaseLockout(em(), who, params.id, body)),
+    ),
+  );
+
+  // Devices off for testing or positioning and back on (1910.147(f)(1)), each step signed by the holder.
+  route(
+    r,
+    'get',
+    '/safety/lockouts/:id/test-windows',
+    { access: 'safety.read', params: uuidParam },
+    async (_req, res, { params }) => void res.json(await listTestWindows(em(), params.id)),
+  );
+  route(
+    r,
+    'post',
+    '/safety/lockouts/:id/test-windows',
+    { access: 'safety.lockout.sign', params: uuidParam, body: openTestWindowSchema, ...signing },
+    signed(({ params, body, principal: who }) =>
+      refusable(em(), who, 'lockout.test-window', { lockoutId: params.id }, () => openTestWindow(em(), who, params.id, body)),
+    ),
+  );
+  route(
+    r,
+    'post',
+    '/safety/lockouts/:id/test-windows/reapply',
+    { access: 'safety.lockout.sign', params: uuidParam, body: reapplyAfterTestSchema, ...signing },
+    signed(({ params, body, principal: who }) =>
+      refusable(em(), who, 'lockout.test-reapply', { lockoutId: params.id }, () => reapplyAfterTest(em(), who, params.id, body)),
+    ),
+  );
+  route(
+    r,
+    'post',
+    '/safety/lockouts/:id/test-windows/reverify',
+    { access: 'safety.lockout.sign', params: uuidParam, body: reverifyAfterTestSchema, ...signing },
+    signed(({ params, body, principal: who }) =>
+      refusable(em(), who, 'lockout.test-reverify', { lockoutId: params.id }, () => reverifyAfterTest(em(), who, params.id, body)),
     ),
   );
 

@@ -13,6 +13,7 @@ export const safetyKeys = {
   lockouts: (f: object) => ['safety', 'lockouts', 'list', f] as const,
   lockout: (id: string) => ['safety', 'lockouts', 'detail', id] as const,
   absentRemovals: (lockoutId: string) => ['safety', 'lockouts', 'absent-removals', lockoutId] as const,
+  testWindows: (lockoutId: string) => ['safety', 'lockouts', 'test-windows', lockoutId] as const,
   outsideParties: (lockoutId: string) => ['safety', 'lockouts', 'outside-parties', lockoutId] as const,
   authorization: (procedureId: string) => ['safety', 'procedures', 'authorization', procedureId] as const,
   locks: (f: object) => ['safety', 'locks', f] as const,

@@ -25,25 +25,13 @@ import { useLinkedWorkOrder } from '../api/get-linked-work-order';
 import { LockoutStateBadge } from './badges';
 import { useShopFormat } from '../../../lib/format';
 import { AbsentRemovalPanel } from './absent-removal-panel';
+import { Check } from './check-row';
+import { TestingWindowBanner, TestingWindowPanel } from './testing-window-panel';
 import { OutsidePersonnelPanel } from './outside-personnel-panel';
 import { DeviceWithReason } from './tag-only-reason';
 
 const pointCol = createColumnHelper<LockPointRow>();
 type Me = { id: string; name: string; role: Role };
-
-function Check({ label, checked, onChange, hint }: { label: ReactNode; checked: boolean; onChange: (v: boolean) => void; hint?: string }) {
-  return (
-    <label
-      className={`flex min-h-touch cursor-pointer items-start gap-3 rounded border px-3 py-2 ${checked ? 'border-safe bg-safe-soft' : 'border-steel-300 bg-white'}`}
-    >
-      <input type="checkbox" className="mt-1 h-6 w-6 shrink-0" checked={checked} onChange={(e) => onChange(e.target.checked)} />
-      <span>
-        <span className="font-semibold">{label}</span>
-        {hint ? <span className="block text-sm text-steel-700">{hint}</span> : null}
-      </span>
-    </label>
-  );
-}
 
 export function LockoutDetailView({ lockout: l, me }: { lockout: LockoutDetail; me: Me }) {
   const f = useShopFormat();
@@ -116,7 +104,9 @@ export function LockoutDetailView({ lockout: l, me }: { lockout: LockoutDetail; 
       </div>
       <LiveNotice ref={messageRef} message={message} />
       {open ? (
-        l.state === 'verified' ? (
+        l.state === 'testing' || l.state === 'reapplied' ? (
+          <TestingWindowBanner lockout={l} />
+        ) : l.state === 'verified' ? (
           <Notice tone="danger" title="Locked out: do not operate" role="status">
             Zero energy was verified {f.dateTime(l.verifiedAt)}. Work may go ahead under these locks.
           </Notice>
@@ -160,6 +150,8 @@ export function LockoutDetailView({ lockout: l, me }: { lockout: LockoutDetail; 
           ]}
         />
       </Panel>
+
+      <TestingWindowPanel lockout={l} me={me} run={run} content={content} />
 
       {open && l.state === 'locked' && isPrimary ? (
         <Panel title="Verify isolation (1910.147(d)(6))">
@@ -211,7 +203,7 @@ export function LockoutDetailView({ lockout: l, me }: { lockout: LockoutDetail; 
           ) : (
             <p className="mb-3 text-steel-700">Nobody else has a personal lock on this lockout.</p>
           )}
-          {authorized && !isPrimary && !myMembership ? (
+          {authorized && !isPrimary && !myMembership && l.state !== 'testing' && l.state !== 'reapplied' ? (
             <div className="flex flex-wrap items-end gap-3">
               <TextField label="My personal lock number" value={lockNo} onChange={(e) => setLockNo(e.target.value)} autoComplete="off" />
               <Button
@@ -239,7 +231,7 @@ export function LockoutDetailView({ lockout: l, me }: { lockout: LockoutDetail; 
         </Panel>
       ) : null}
 
-      {open && isPrimary && !l.pendingHandoverToId ? (
+      {open && isPrimary && !l.pendingHandoverToId && l.state !== 'testing' && l.state !== 'reapplied' ? (
         <Panel title="Shift hand-over">
           <p className="mb-2 text-steel-700">Your locks stay on until the oncoming authorized employee has put theirs on and accepted (1910.147(f)(4)).</p>
           <div className="flex flex-wrap items-end gap-3">
@@ -309,7 +301,7 @@ export function LockoutDetailView({ lockout: l, me }: { lockout: LockoutDetail; 
         </Panel>
       ) : null}
 
-      {open && isPrimary && !l.pendingHandoverToId ? (
+      {open && isPrimary && !l.pendingHandoverToId && l.state !== 'testing' ? (
         <Panel title="Release the lockout (1910.147(e))">
           <div className="space-y-2">
             {content?.release.length ? (

@@ -17,6 +17,7 @@ export function LockoutBanner({ lockouts }: { lockouts: StationLockout[] }) {
           <li key={l.id}>
             {l.machineCode} · {l.reason} · locked since {f.dateTime(l.appliedAt)} by {l.heldBy}
             {l.state === 'verified' ? ' · isolation verified' : ''}
+            {l.state === 'testing' ? ' · energized for testing by the lock holder — stay clear' : ''}
           </li>
         ))}
       </ul>
