@@ -44,7 +44,22 @@ const torchConsumables = (source: string): MinorTask => ({
   ],
 });
 
-function cellContent(m: IMachine, extraStep?: string): ProcedureContent {
+/**
+ * The hydraulic unit's pressure line: one isolation point that feeds both cells. It lives on the
+ * unit's procedure (with the cells it feeds) and each cell's procedure names it under the same tag.
+ */
+const hydraulicSupply = (h: IMachine): EnergySource => ({
+  key: pointTag(h.code, 2),
+  kind: 'hydraulic',
+  description: 'Accumulator and pressure line to the cells',
+  magnitude: '210 bar',
+  isolationDevice: 'Lockable supply valve V12; dump valve V11',
+  location: 'Accumulator block on the hydraulic unit',
+  relieveMethod: 'Close V12, then open V11 until PG1 reads 0 bar',
+  verifyMethod: 'PG1 reads 0 bar; the cell clamps do not move on jog',
+});
+
+function cellContent(m: IMachine, extraStep?: string, shared?: EnergySource): ProcedureContent {
   return {
     title: `Full energy isolation of ${m.name}`,
     scope: 'Any work inside the guarded area: punch head and tooling, torch and consumables, clamps, table and chip conveyor.',
@@ -99,6 +114,7 @@ function cellContent(m: IMachine, extraStep?: string): ProcedureContent {
         relieveMethod: 'Lower the ram onto the safety block before isolating',
         verifyMethod: 'Block seated and pinned; no gap under the ram',
       }),
+      ...(shared ? [shared] : []),
     ],
     steps: {
       prepare: ['Tell the operator and everyone at the cell that it will be locked out and why.', 'Read this procedure and collect your own locks and tags.'],
@@ -106,7 +122,7 @@ function cellContent(m: IMachine, extraStep?: string): ProcedureContent {
         'Finish or stop the program at a safe point, park the head, lower the ram onto the safety block.',
         'Press the cycle stop, then switch the panel off.',
       ],
-      isolate: ['Open Q0 and Q5; close V1.'],
+      isolate: ['Open Q0 and Q5; close V1.', ...(shared ? [`Close the supply from the hydraulic unit at ${shared.isolationDevice} (${shared.key}).`] : [])],
       apply: ['Put your own lock and tag on Q0, Q5, V1 and the V7 valve cover.'],
       relieve: ['Open V7 until PG2 reads 0 bar; wait for the drive LEDs to go dark.', ...(extraStep ? [extraStep] : [])],
       verify: [
@@ -225,7 +241,7 @@ function brakeContent(m: IMachine): ProcedureContent {
   };
 }
 
-function hydraulicContent(m: IMachine): ProcedureContent {
+function hydraulicContent(m: IMachine, fed: IMachine[]): ProcedureContent {
   return {
     title: `Energy isolation of ${m.name}`,
     scope: 'Filter changes, oil changes, hose and valve work.',
@@ -240,16 +256,7 @@ function hydraulicContent(m: IMachine): ProcedureContent {
         relieveMethod: 'None stored',
         verifyMethod: 'Press pump start; motor stays still',
       }),
-      src({
-        key: pointTag(m.code, 2),
-        kind: 'hydraulic',
-        description: 'Accumulator and pressure line',
-        magnitude: '210 bar',
-        isolationDevice: 'Dump valve V7',
-        location: 'Accumulator block',
-        relieveMethod: 'Open V7 until PG1 reads 0 bar',
-        verifyMethod: 'PG1 reads 0 bar',
-      }),
+      src({ ...hydraulicSupply(m), ...(fed.length ? { feeds: fed.map((c) => c.id) } : {}) }),
       src({
         key: pointTag(m.code, 3),
         kind: 'thermal',
@@ -264,12 +271,12 @@ function hydraulicContent(m: IMachine): ProcedureContent {
     steps: {
       prepare: ['Tell the cell operator the hydraulics will be down.'],
       shutdown: ['Stop the cell, then the pump.'],
-      isolate: ['Open Q3.'],
-      apply: ['Put your own lock and tag on Q3 and the V7 cover.'],
-      relieve: ['Open V7; wait for PG1 to read 0 bar and the oil to cool.'],
+      isolate: ['Open Q3; close V12.'],
+      apply: ['Put your own lock and tag on Q3, V12 and the V11 cover.'],
+      relieve: ['Open V11; wait for PG1 to read 0 bar and the oil to cool.'],
       verify: ['Press pump start; check PG1 and the thermometer.'],
     },
-    release: ['Close V7, refit guards.', 'Make sure everyone is clear.', 'Tell the cell operator; remove your own locks.'],
+    release: ['Close V11, refit guards.', 'Make sure everyone is clear.', 'Tell the cell operators; remove your own locks.'],
   };
 }
 
@@ -360,17 +367,19 @@ export const seedSafetyDemo: SeedStep = async (rootEm, shop) => {
     const versions = new Map<string, IProcedureVersion>();
     const firstVersions = new Map<string, IProcedureVersion>();
     const plans: { m: IMachine; content: ProcedureContent; approvedDaysAgo: number; v2?: { content: ProcedureContent; daysAgo: number } }[] = [];
+    // The hydraulic unit feeds both cells: their procedures name its pressure line under its own tag.
+    const shared = hyd ? hydraulicSupply(hyd) : undefined;
     cells.forEach((m, i) =>
       plans.push({
         m,
-        content: cellContent(m),
+        content: cellContent(m, undefined, shared),
         approvedDaysAgo: 330 - i * 5,
-        ...(i === 0 ? { v2: { content: cellContent(m, 'Check the V7 valve cover is closed and locked after relieving.'), daysAgo: 90 } } : {}),
+        ...(i === 0 ? { v2: { content: cellContent(m, 'Check the V7 valve cover is closed and locked after relieving.', shared), daysAgo: 90 } } : {}),
       }),
     );
     if (table) plans.push({ m: table, content: tableContent(table), approvedDaysAgo: 320 });
     if (brake) plans.push({ m: brake, content: brakeContent(brake), approvedDaysAgo: 318 });
-    if (hyd) plans.push({ m: hyd, content: hydraulicContent(hyd), approvedDaysAgo: 315 });
+    if (hyd) plans.push({ m: hyd, content: hydraulicContent(hyd, cells), approvedDaysAgo: 315 });
     if (fume) plans.push({ m: fume, content: extractorContent(fume), approvedDaysAgo: 300 });
     const procs = new Map<string, string>();
     for (const p of plans) {
@@ -694,7 +703,9 @@ export const seedSafetyDemo: SeedStep = async (rootEm, shop) => {
     for (let i = 0, d = 290; d > 5; i++, d -= 20) lockout(rota[i % rota.length], day(d, 7, 30), reasons[i % reasons.length], { group: i % 5 === 2 });
     // Still open: applied earlier today, or in the last hours when the seed runs before the day shift.
     const openedAt = DateTime.min(DateTime.fromJSDate(day(0, 7, 30)), now.minus({ hours: 3 }).startOf('hour'))!.toJSDate();
-    if (hyd) lockout(hyd, openedAt, 'Hose replacement in progress', { open: true });
+    // On the extractor, not the hydraulic unit: a lock on the unit's shared point would stop both cells all day.
+    const stillOpen = fume ?? hyd;
+    if (stillOpen) lockout(stillOpen, openedAt, stillOpen === fume ? 'Fan bearing replacement in progress' : 'Hose replacement in progress', { open: true });
 
     // PPE requirements and ten weeks of shift checks (a few missed).
     const reqs: {

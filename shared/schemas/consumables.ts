@@ -181,6 +181,8 @@ export type StationLockout = {
   appliedAt: string;
   reason: string;
   heldBy: string;
+  /** Set when the lockout reaches this machine through a shared isolation point on another machine (e.g. "H1-E2"); heldBy is then whose lock is on it. */
+  sharedPoint?: string;
 };
 /** A counter that rose while the machine was locked out: shown at the machine until the lockout ends (and a week after). */
 export type StationAlarm = { id: string; machineCode: string; at: string; reason: string; lockoutId: string | null };

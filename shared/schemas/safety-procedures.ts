@@ -66,6 +66,14 @@ export const energySourceSchema = z.object({
   location: text('Location', 120),
   relieveMethod: text('How stored energy is relieved', 400),
   verifyMethod: text('How isolation is verified', 400),
+  /**
+   * Other machines this isolation point also supplies (a hydraulic unit feeding two cells): locking
+   * it marks them locked out too, and their own procedures must name this point (1910.147(c)(4)(ii)(B)).
+   */
+  feeds: z
+    .array(z.uuid({ message: 'Choose a machine' }), { message: 'Choose the machines this point also feeds' })
+    .max(20, 'At most 20 machines')
+    .optional(),
 });
 export type EnergySource = z.infer<typeof energySourceSchema>;
 
@@ -106,7 +114,7 @@ const contentObject = z.object({
   minorTasks: z.array(minorTaskSchema).max(10).optional(),
 });
 
-function uniqueKeys(v: { sources: { key: string }[]; minorTasks?: { key: string }[] }, ctx: z.RefinementCtx) {
+function uniqueKeys(v: { sources: { key: string; feeds?: string[] }[]; minorTasks?: { key: string }[] }, ctx: z.RefinementCtx) {
   const tasks = new Set<string>();
   (v.minorTasks ?? []).forEach((t, i) => {
     if (tasks.has(t.key)) ctx.addIssue({ code: 'custom', path: ['minorTasks', i, 'key'], message: `Task ${t.key} is named twice` });
@@ -116,6 +124,11 @@ function uniqueKeys(v: { sources: { key: string }[]; minorTasks?: { key: string 
   v.sources.forEach((s, i) => {
     if (seen.has(s.key)) ctx.addIssue({ code: 'custom', path: ['sources', i, 'key'], message: `Tag ${s.key} is used twice` });
     seen.add(s.key);
+    const fed = new Set<string>();
+    (s.feeds ?? []).forEach((id, j) => {
+      if (fed.has(id)) ctx.addIssue({ code: 'custom', path: ['sources', i, 'feeds', j], message: 'This machine is named twice' });
+      fed.add(id);
+    });
   });
 }
 
@@ -174,9 +187,20 @@ export type VersionDetail = {
   photos: PhotoRow[];
 };
 
+/** An isolation point on another machine's approved procedure that also feeds this machine. */
+export type FeedingPoint = Omit<EnergySource, 'feeds'> & { fromMachine: { id: string; code: string; name: string } };
+
+/** Why a fed machine's procedure cannot be approved yet: the server's refusal and the editor say the same. */
+export const missingPointText = (p: FeedingPoint, fedCode: string) =>
+  `${p.key} (${p.fromMachine.name.toLowerCase()} ${p.fromMachine.code}) feeds ${fedCode}; add it to this procedure's energy sources before approving`;
+
 export type ProcedureDetail = {
   id: string;
   machine: { id: string; code: string; name: string; kind: string };
+  /** Codes of the machines the versions' sources feed, by id, for "also feeds C1, C2". */
+  fedMachines: Record<string, { code: string; name: string }>;
+  /** Points on other machines that feed this one: its procedure must name each (same tag). */
+  feedingPoints: FeedingPoint[];
   versions: { id: string; version: number; status: VersionStatus; approvedAt: string | null; approvedByName: string | null }[];
   current: VersionDetail | null;
   draft: VersionDetail | null;

@@ -348,7 +348,7 @@ test('the safety screens read well and pass the accessibility scan', async ({ pa
   await signIn(mobile, 'tech@alder-row.example');
   await mobile.goto('/safety/lockouts');
   await mobile
-    .getByRole('link', { name: /^H1 · Hydraulic unit/ })
+    .getByRole('link', { name: /^F1 · Fume extractor/ })
     .first()
     .tap();
   await expect(mobile.getByText('Locked out: do not operate')).toBeVisible();

@@ -10,6 +10,7 @@ import { Machine, type IMachine } from './machine.entity';
 import { MachineDowntime, MachineStateChange, type IMachineDowntime } from './machine-state.entity';
 import { LockoutSession } from '../safety/lockout.entity';
 import { openTestWindowReasons } from '../safety/testing-window.queries';
+import { fedLockouts, fedReason } from '../safety/fed-lockouts';
 import { User } from '../users/user.entity';
 import type { Principal } from '../../http/principal';
 import { conflict, notFound } from '../../http/errors';
@@ -27,14 +28,16 @@ export async function machineStatus(em: EntityManager, machineId: string): Promi
   return (await machineStatuses(em, [machineId])).get(machineId) ?? { state: 'in-service', since: null, reason: null };
 }
 
-/** States of many machines in three queries, for lists and home pages. */
+/** States of many machines in four queries, for lists and home pages. */
 export async function machineStatuses(em: EntityManager, machineIds: string[]): Promise<Map<string, MachineStatusValue>> {
   const out = new Map<string, MachineStatusValue>();
   if (machineIds.length === 0) return out;
-  const [locks, open, last] = await Promise.all([
+  const orgId = (em.getFilterParams('org') as { orgId?: string } | undefined)?.orgId ?? null;
+  const [locks, open, last, fed] = await Promise.all([
     em.find(LockoutSession, { machine: { $in: machineIds }, state: { $ne: 'released' } }, { orderBy: { appliedAt: 'asc' }, populate: ['primary'] }),
     em.find(MachineDowntime, { machine: { $in: machineIds }, endedAt: null }),
     em.find(MachineStateChange, { machine: { $in: machineIds } }, { orderBy: { at: 'asc' } }),
+    fedLockouts(em, orgId, machineIds),
   ]);
   for (const c of last) out.set(c.machine.id, { state: 'in-service', since: c.at, reason: null });
   for (const id of machineIds) if (!out.has(id)) out.set(id, { state: 'in-service', since: null, reason: null });
@@ -54,6 +57,10 @@ export async function machineStatuses(em: EntityManager, machineIds: string[]): 
         reason: `Energized for testing under the lockout held by ${l.primary.getEntity().name} (${l.reason}) — locks off: ${t.reason}`,
       });
     else if (out.get(l.machine.id)?.state !== 'locked-out') out.set(l.machine.id, { state: 'locked-out', since: l.appliedAt, reason: l.reason });
+  }
+  // So does a lock on a shared point that feeds the machine (a hydraulic unit feeding two cells).
+  for (const f of fed) {
+    if (out.get(f.fedMachineId)?.state !== 'locked-out') out.set(f.fedMachineId, { state: 'locked-out', since: f.appliedAt, reason: fedReason(f) });
   }
   return out;
 }

@@ -10,6 +10,7 @@ import { lockoutAuthorization, requireAuthorized } from './authorization';
 import { requireInformedOfRemoval } from './absent-removal.service';
 import { refuseDuringTestWindow } from './testing-window.guards';
 import { requireNoOutsideLocks } from './outside-locks';
+import { mailFedMachinePeople } from './shared-point-mail';
 import { badRequest, conflict, fieldError, forbidden, notFound } from '../../http/errors';
 import { recordActivity } from '../activity-log/activity-log.service';
 import type { Principal } from '../../http/principal';
@@ -161,6 +162,16 @@ export async function applyLockout(em: EntityManager, who: Principal, input: App
       },
     });
     recordActivity(tx, who, 'safety.lockout-applied', { type: 'LockoutSession', id: session.id }, { machine: machine.code, signOffId: signOff.id });
+    const lockoutInfo = { id: session.id, machineCode: machine.code, machineName: machine.name, reason: input.reason };
+    await mailFedMachinePeople(
+      tx,
+      who,
+      lockoutInfo,
+      sources,
+      input.points.map((p) => p.sourceKey),
+      'applied',
+      now,
+    );
     return { id: session.id, signOffId: signOff.id };
   });
 }
@@ -408,6 +419,16 @@ export async function releaseLockout(em: EntityManager, who: Principal, id: stri
     s.releasedAt = signOff.signedAt;
     if (s.workOrderId) await markLockoutReleased(tx, s.workOrderId, signOff.signedAt);
     recordActivity(tx, who, 'safety.lockout-released', { type: 'LockoutSession', id: s.id }, { signOffId: signOff.id });
+    const lockoutInfo = { id: s.id, machineCode: machine.code, machineName: machine.name, reason: s.reason };
+    await mailFedMachinePeople(
+      tx,
+      who,
+      lockoutInfo,
+      s.procedureVersion.getEntity().content.sources,
+      points.map((p) => p.sourceKey),
+      'released',
+      now,
+    );
     return { id: s.id, signOffId: signOff.id };
   });
 }

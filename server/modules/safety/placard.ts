@@ -1,3 +1,4 @@
+import { fedMachineNames } from './shared-points';
 import QRCode from 'qrcode';
 import type { EntityManager } from '@mikro-orm/postgresql';
 import { COLORS, cautionBox, newDoc, pdfText, stampPages, toBuffer } from './pdf';
@@ -27,6 +28,7 @@ export async function renderPlacard(em: EntityManager, procedureId: string, appU
   const photos = await em.find(ProcedurePhoto, { version: v.id }, { populate: ['data'], orderBy: { createdAt: 'asc' }, limit: 8 });
   const machine = proc.machine.getEntity();
   const c = v.content;
+  const fed = await fedMachineNames(em, [c]);
   const url = `${appUrl}/safety/procedures/${proc.id}`;
   const qr = await QRCode.toBuffer(url, { margin: 1, width: 180, errorCorrectionLevel: 'M' });
 
@@ -98,7 +100,8 @@ export async function renderPlacard(em: EntityManager, procedureId: string, appU
   y += 19;
   for (const s of c.sources) {
     doc.font('regular').fontSize(8);
-    const body = pdfText(`Isolate at: ${s.isolationDevice} — ${s.location}\nRelieve: ${s.relieveMethod}\nVerify: ${s.verifyMethod}`);
+    const feeds = s.feeds?.length ? `\nAlso feeds ${s.feeds.map((id) => fed[id]?.code ?? '?').join(', ')}: locking it locks them out too.` : '';
+    const body = pdfText(`Isolate at: ${s.isolationDevice} — ${s.location}\nRelieve: ${s.relieveMethod}\nVerify: ${s.verifyMethod}${feeds}`);
     const left = pdfText(`${s.description}\n${s.magnitude}`);
     const h = Math.max(34, doc.heightOfString(body, { width: inner - 222 }) + 8, doc.heightOfString(left, { width: 150 }) + 20);
     ensure(h + 4);

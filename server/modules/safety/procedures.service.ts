@@ -19,6 +19,7 @@ import {
   pointTag,
 } from '../../../shared/schemas/safety-procedures';
 import { inspectionEvaluation } from './due';
+import { fedMachineNames, feedingPointsOf, refuseBadFeeds, requireFeedingPoints } from './shared-points';
 import { loadSafetySettings } from './settings';
 import { clock } from '../../../shared/clock';
 import { PHOTO_TYPES, PROCEDURE_PHOTO_MAX_BYTES, megabytes } from '../../../shared/schemas/photos';
@@ -85,7 +86,7 @@ async function versionDetail(em: EntityManager, v: IProcedureVersion): Promise<V
   };
 }
 
-export async function getProcedure(em: EntityManager, id: string, version?: number): Promise<ProcedureDetail> {
+export async function getProcedure(em: EntityManager, who: Principal, id: string, version?: number): Promise<ProcedureDetail> {
   const proc = await em.findOne(EnergyProcedure, id, { populate: ['machine'] });
   if (!proc) throw notFound('Procedure');
   const versions = await em.find(ProcedureVersion, { procedure: proc.id }, { orderBy: { version: 'asc' }, populate: ['approvedBy'] });
@@ -93,9 +94,15 @@ export async function getProcedure(em: EntityManager, id: string, version?: numb
   if (version !== undefined && !current) throw notFound(`Version ${version}`);
   const draft = versions.find((v) => v.status === 'draft');
   const machine = proc.machine.getEntity();
+  const shown = [current, draft].filter((v) => !!v);
   return {
     id: proc.id,
     machine: { id: machine.id, code: machine.code, name: machine.name, kind: machine.kind },
+    fedMachines: await fedMachineNames(
+      em,
+      shown.map((v) => v.content),
+    ),
+    feedingPoints: (await feedingPointsOf(em, who.orgId, [machine.id])).get(machine.id) ?? [],
     versions: versions.map((v) => ({
       id: v.id,
       version: v.version,
@@ -114,6 +121,7 @@ export async function createProcedure(em: EntityManager, who: Principal, input: 
     const machine = await tx.findOne(Machine, machineId);
     if (!machine) throw notFound('Machine');
     await refuseMachineCodeTags(tx, machine, content);
+    await refuseBadFeeds(tx, machine, content);
     const proc = tx.create(EnergyProcedure, { organization: who.orgId, machine, title: content.title });
     const v = tx.create(ProcedureVersion, {
       organization: who.orgId,
@@ -149,6 +157,7 @@ export async function saveDraft(
     const proc = await tx.findOne(EnergyProcedure, procedureId, { populate: ['machine'] });
     if (!proc) throw notFound('Procedure');
     await refuseMachineCodeTags(tx, proc.machine.getEntity(), content);
+    await refuseBadFeeds(tx, proc.machine.getEntity(), content);
     // Serialise draft creation per procedure so two editors cannot both open version N+1.
     await tx.execute('select id from safety_procedure where id = ? for update', [proc.id]);
     const versions = await tx.find(ProcedureVersion, { procedure: proc.id }, { orderBy: { version: 'asc' } });
@@ -200,6 +209,7 @@ export async function approveVersion(em: EntityManager, who: Principal, procedur
     // Review by a second person: the author of a procedure does not approve it (common practice for controlled documents).
     if (v.author.id === who.userId)
       throw forbidden(`You wrote version ${version} of this procedure, so someone else must review and approve it; nothing was signed`);
+    await requireFeedingPoints(tx, who.orgId, proc.machine.getEntity(), v.content.sources);
     const previous = versions.filter((x) => x.status === 'approved');
     const photos = await tx.count(ProcedurePhoto, { version: v.id });
     const signOff = await appendSignOff(tx, who, {

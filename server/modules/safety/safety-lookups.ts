@@ -1,4 +1,5 @@
 /** What the safety screens pick from: whole machines with their procedures and open lockouts, and the shop's people. */
+import { feedingPointsOf } from './shared-points';
 import type { EntityManager } from '@mikro-orm/postgresql';
 import { Machine } from '../machines/machine.entity';
 import type { Principal } from '../../http/principal';
@@ -18,6 +19,12 @@ export async function safetyMachines(em: EntityManager, who: Principal) {
       `select machine_id, count(*) as n from safety_lockout where organization_id = ? and state <> 'released' group by machine_id`,
       [who.orgId],
     );
+  // Shared points on other machines that feed each one, so the editor can offer them.
+  const feeding = await feedingPointsOf(
+    em,
+    who.orgId,
+    machines.map((m) => m.id),
+  );
   return machines.map((m) => ({
     id: m.id,
     code: m.code,
@@ -27,6 +34,7 @@ export async function safetyMachines(em: EntityManager, who: Principal) {
       .filter((p) => p.machine_id === m.id)
       .map((p) => ({ id: p.id, title: p.title, approvedVersion: p.version === null ? null : Number(p.version) })),
     openLockouts: Number(open.find((o) => o.machine_id === m.id)?.n ?? 0),
+    feedingPoints: feeding.get(m.id) ?? [],
   }));
 }
 

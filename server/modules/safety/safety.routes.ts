@@ -143,7 +143,7 @@ export function registerSafetyRoutes(r: ApiRouter, config: Config) {
     'get',
     '/safety/procedures/:id',
     { access: 'safety.read', params: uuidParam, query: versionQuery },
-    async (_req, res, { params, query }) => void res.json(await getProcedure(em(), params.id, query.version)),
+    async (_req, res, { params, query, principal: who }) => void res.json(await getProcedure(em(), who, params.id, query.version)),
   );
   route(
     r,

@@ -1,6 +1,7 @@
 import type { EntityManager } from '@mikro-orm/postgresql';
 import type { StationAlarm, StationDueRow, StationLockout } from '../../../shared/schemas/consumables';
 import { clock } from '../../../shared/clock';
+import { fedLockouts } from '../safety/fed-lockouts';
 
 /**
  * What an operator must know before touching the machine: open lockouts on it, its
@@ -34,6 +35,8 @@ export async function stationStatus(
       limit 20`,
       [orgId, ids],
     );
+  // A lock on a shared point elsewhere (the hydraulic unit feeding this cell) stops this machine too.
+  const fed = await fedLockouts(em, orgId, [...machineIds, ...ancestorIds]);
   const now = clock.ms();
   // Alarms stay on the page while their lockout is open and for a week after it is raised.
   const alarms: { id: string; code: string; at: Date; reason: string; subject_id: string | null }[] = await em.execute(
@@ -46,14 +49,27 @@ export async function stationStatus(
   );
   return {
     alarms: alarms.map((a) => ({ id: a.id, machineCode: a.code, at: new Date(a.at).toISOString(), reason: a.reason, lockoutId: a.subject_id })),
-    lockouts: lockouts.map((l) => ({
-      id: l.id,
-      machineCode: l.code,
-      state: l.state as StationLockout['state'],
-      appliedAt: new Date(l.applied_at).toISOString(),
-      reason: l.reason,
-      heldBy: l.held_by,
-    })),
+    lockouts: [
+      ...lockouts.map((l) => ({
+        id: l.id,
+        machineCode: l.code,
+        state: l.state as StationLockout['state'],
+        appliedAt: new Date(l.applied_at).toISOString(),
+        reason: l.reason,
+        heldBy: l.held_by,
+      })),
+      ...fed
+        .filter((f, i) => fed.findIndex((x) => x.lockoutId === f.lockoutId) === i && !lockouts.some((l) => l.id === f.lockoutId))
+        .map((f) => ({
+          id: f.lockoutId,
+          machineCode: f.machineCode,
+          state: f.state,
+          appliedAt: f.appliedAt.toISOString(),
+          reason: f.reason,
+          heldBy: f.heldBy,
+          sharedPoint: f.pointKey,
+        })),
+    ],
     due: due.map((w) => {
       const dueAt = w.due_at ? new Date(w.due_at) : null;
       return {

@@ -19,7 +19,7 @@ import type { MeterRow } from '../../../shared/schemas/machines';
  *   2. for the machine's subtree: meters with their latest reading, each torch's last change,
  *      latest cut check and installed parts, the punch tools and the five latest changes;
  *   3. the readings the wear figures need (each counter from the oldest part or sharpening on it);
- *   4-5. open lockouts and work (station-status.ts).
+ *   4-7. open lockouts (on it, and through shared isolation points), open work and alarms (station-status.ts).
  * Plain SQL bypasses the ORM's shop filter, so every query names the organization itself.
  * Rows come back as JSON built by PostgreSQL; timestamps are turned into ISO strings here.
  */

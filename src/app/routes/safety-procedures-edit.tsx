@@ -51,7 +51,8 @@ export function Component() {
         key={p?.id ?? 'new'}
         initial={base}
         machines={wanted ? [...options.filter((o) => o.id === wanted), ...options.filter((o) => o.id !== wanted)] : options}
-        fixedMachine={p ? { code: p.machine.code, label: `${p.machine.code} · ${p.machine.name}` } : undefined}
+        fixedMachine={p ? { id: p.machine.id, code: p.machine.code, label: `${p.machine.code} · ${p.machine.name}` } : undefined}
+        plant={machines.data}
         submitLabel={p ? 'Save draft' : 'Save as draft version 1'}
         onSubmit={async ({ machineId, content }) => {
           if (p) {

@@ -1,5 +1,5 @@
 import { useEffect, useRef, useState } from 'react';
-import { useFieldArray, useForm, type FieldErrors, type Resolver } from 'react-hook-form';
+import { Controller, useFieldArray, useForm, type FieldErrors, type Resolver } from 'react-hook-form';
 import { SelectField, TextField } from '../../../components/ui/field';
 import { Button } from '../../../components/ui/button';
 import { Notice, Panel, FormMessages } from '../../../components/ui/notice';
@@ -14,9 +14,11 @@ import {
   pointTag,
   procedureContentSchema,
   type EnergySource,
+  type FeedingPoint,
   type ProcedureContent,
   type ProcedurePhase,
 } from '../../../../shared/schemas/safety-procedures';
+import { copyOfPoint, FeedsPicker, SharedPointOffer, type PlantMachine } from './shared-points';
 
 /** Steps are typed one per line; the shared schema checks them as lists. */
 type FormValues = { machineId: string; title: string; scope: string; sources: EnergySource[]; steps: Record<ProcedurePhase, string>; release: string };
@@ -30,7 +32,8 @@ const lines = (s: string) =>
 export const toContent = (v: FormValues): ProcedureContent => ({
   title: v.title,
   scope: v.scope,
-  sources: v.sources,
+  // An empty list of fed machines is the same as none.
+  sources: v.sources.map(({ feeds, ...s }) => (feeds?.length ? { ...s, feeds } : s)),
   steps: Object.fromEntries(PROCEDURE_PHASES.map((p) => [p, lines(v.steps[p] ?? '')])) as ProcedureContent['steps'],
   release: lines(v.release),
 });
@@ -93,12 +96,15 @@ export function ProcedureForm({
   initial,
   machines,
   fixedMachine,
+  plant = [],
   submitLabel,
   onSubmit,
 }: {
   initial?: ProcedureContent;
   machines?: { id: string; code: string; label: string }[];
-  fixedMachine?: { code: string; label: string };
+  fixedMachine?: { id: string; code: string; label: string };
+  /** The shop's machines with the shared points that feed each (for "also feeds" and the shared-point offer). */
+  plant?: (PlantMachine & { feedingPoints: FeedingPoint[] })[];
   submitLabel: string;
   onSubmit: (input: { machineId: string; content: ProcedureContent }) => Promise<void>;
 }) {
@@ -111,6 +117,9 @@ export function ProcedureForm({
   const { fields, append, remove } = useFieldArray({ control, name: 'sources' });
   const machineId = watch('machineId');
   const machineCode = fixedMachine?.code ?? machines?.find((m) => m.id === machineId)?.code ?? '';
+  const ownMachineId = fixedMachine?.id ?? machineId;
+  const feedingPoints = plant.find((m) => m.id === ownMachineId)?.feedingPoints ?? [];
+  const sourceKeys = watch('sources').map((x) => x.key);
   // Choosing another machine renames the tags that still follow the previous machine's scheme.
   const prevCode = useRef(machineCode);
   useEffect(() => {
@@ -206,6 +215,9 @@ export function ProcedureForm({
             {e.sources.message}
           </p>
         ) : null}
+        <div className="mb-4">
+          <SharedPointOffer points={feedingPoints} presentKeys={sourceKeys} onAdd={(p) => append(copyOfPoint(p))} />
+        </div>
         <div className="space-y-4">
           {fields.map((f, i) => {
             const se = e.sources?.[i];
@@ -229,6 +241,20 @@ export function ProcedureForm({
                 <TextField label="Location of the device" error={se?.location?.message} {...register(`sources.${i}.location`)} />
                 <TextField label="How stored energy is relieved" error={se?.relieveMethod?.message} {...register(`sources.${i}.relieveMethod`)} />
                 <TextField label="How isolation is verified" error={se?.verifyMethod?.message} {...register(`sources.${i}.verifyMethod`)} />
+                <Controller
+                  control={control}
+                  name={`sources.${i}.feeds`}
+                  render={({ field }) => (
+                    <FeedsPicker
+                      sourceLabel={sourceKeys[i] || `energy source ${i + 1}`}
+                      machines={plant}
+                      ownMachineId={ownMachineId}
+                      value={field.value ?? []}
+                      onChange={field.onChange}
+                      error={se?.feeds?.message ?? se?.feeds?.[0]?.message}
+                    />
+                  )}
+                />
                 <div className="md:col-span-4 flex justify-end">
                   <Button variant="ghost" onClick={() => remove(i)} disabled={fields.length === 1}>
                     Remove energy source {i + 1}

@@ -11,6 +11,7 @@ import { ENERGY_KIND_LABELS, PHASE_LABELS, PROCEDURE_PHASES, type ProcedureDetai
 import { useApproveVersion } from '../api/approve-version';
 import { ProcedureChanges } from './procedure-changes';
 import { ProcedureSideBySide } from './procedure-side-by-side';
+import { FeedsLine, MissingSharedPoints } from './shared-points';
 import { useUploadPhoto } from '../api/upload-photo';
 import { useDeletePhoto } from '../api/delete-photo';
 import { useSignFlow } from './sign-dialog';
@@ -20,7 +21,7 @@ import { PHOTO_TYPES, PROCEDURE_PHOTO_MAX_BYTES, megabytes } from '../../../../s
 const statusTone = { draft: 'caution', approved: 'safe', superseded: 'info' } as const;
 
 /** The text of one version: energy sources with their photos, then the steps in 1910.147(d) order. */
-export function VersionText({ procedureId, v }: { procedureId: string; v: VersionDetail }) {
+export function VersionText({ procedureId, v, fedMachines = {} }: { procedureId: string; v: VersionDetail; fedMachines?: ProcedureDetail['fedMachines'] }) {
   const c = v.content;
   return (
     <div className="space-y-4">
@@ -53,6 +54,7 @@ export function VersionText({ procedureId, v }: { procedureId: string; v: Versio
                 <dt className="font-semibold">Verify</dt>
                 <dd>{s.verifyMethod}</dd>
               </dl>
+              <FeedsLine feeds={s.feeds} machines={fedMachines} />
               <div className="mt-2 flex flex-wrap gap-2">
                 {v.photos
                   .filter((p) => p.sourceKey === s.key)
@@ -197,7 +199,7 @@ export function ProcedureView({ p, me, viewingVersion }: { p: ProcedureDetail; m
         >
           <WorkCaution />
           <div className="mt-4">
-            <VersionText procedureId={p.id} v={shown} />
+            <VersionText procedureId={p.id} v={shown} fedMachines={p.fedMachines} />
           </div>
         </Panel>
       ) : (
@@ -220,6 +222,14 @@ export function ProcedureView({ p, me, viewingVersion }: { p: ProcedureDetail; m
           <p className="mb-3 text-sm text-steel-700">
             Saved by {draft.authorName}, {f.dateTime(draft.createdAt)}. A draft is not in force until it is approved.
           </p>
+          <div className="mb-3">
+            <MissingSharedPoints
+              points={p.feedingPoints}
+              sources={draft.content.sources}
+              machineCode={p.machine.code}
+              editHref={drafts ? paths.safetyProcedureEdit.getHref(p.id) : undefined}
+            />
+          </div>
           {inForce ? (
             <>
               <ProcedureChanges current={inForce.content} currentVersion={inForce.version} draft={draft.content} />
@@ -228,7 +238,7 @@ export function ProcedureView({ p, me, viewingVersion }: { p: ProcedureDetail; m
               </ProcedureSideBySide>
             </>
           ) : (
-            <VersionText procedureId={p.id} v={draft} />
+            <VersionText procedureId={p.id} v={draft} fedMachines={p.fedMachines} />
           )}
           {manage ? (
             <div className="space-y-4">

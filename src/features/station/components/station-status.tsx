@@ -15,7 +15,18 @@ export function LockoutBanner({ lockouts }: { lockouts: StationLockout[] }) {
       <ul className="mt-1 space-y-1">
         {lockouts.map((l) => (
           <li key={l.id}>
-            {l.machineCode} · {l.reason} · locked since {f.dateTime(l.appliedAt)} by {l.heldBy}
+            {l.sharedPoint ? (
+              <>
+                <strong>
+                  Shared point {l.sharedPoint} on {l.machineCode} is locked
+                </strong>{' '}
+                (it feeds this machine) · {l.reason} · {l.heldBy}’s lock since {f.dateTime(l.appliedAt)}
+              </>
+            ) : (
+              <>
+                {l.machineCode} · {l.reason} · locked since {f.dateTime(l.appliedAt)} by {l.heldBy}
+              </>
+            )}
             {l.state === 'verified' ? ' · isolation verified' : ''}
             {l.state === 'testing' ? ' · energized for testing by the lock holder — stay clear' : ''}
           </li>
