@@ -183,6 +183,43 @@ describe('outside personnel on a lockout', () => {
     await register(lockoutId).expect(409);
   });
 
+  it('an absent holder’s lock removal does not end the lockout under outside locks (1910.147(e)(3), (f)(2))', async () => {
+    const lockoutId = await applyLockout();
+    const partyId = (await register(lockoutId).expect(201)).body.id;
+    await post(shop.s.technician, `/safety/outside-parties/${partyId}/acknowledge`, {
+      leadNameTyped: 'Ona Brisk',
+      acknowledgement: 'Understood; we work to your procedure.',
+      password: PASSWORD,
+    }).expect(201);
+    await post(shop.s.technician, `/safety/outside-parties/${partyId}/inform`, {
+      restrictions: 'Keep clear of the cell.',
+      informedWho: 'C1 operators',
+      password: PASSWORD,
+    }).expect(201);
+    await post(shop.s.technician, `/safety/outside-parties/${partyId}/locks-on`, { password: PASSWORD }).expect(201);
+    const removal = await post(shop.s.admin, `/safety/lockouts/${lockoutId}/absent-removals`, {
+      absentUserId: shop.users.technician.userId,
+      note: 'Badge record shows them off site',
+      notOnSite: true,
+      password: PASSWORD,
+    }).expect(201);
+    const step = (who: typeof shop.s.admin, name: string) =>
+      post(who, `/safety/absent-removals/${removal.body.id}/steps`, { step: name, note: 'Done as recorded', password: PASSWORD });
+    await step(shop.s.admin, 'contact-attempted').expect(201);
+    await step(shop.s.safety, 'removal-authorized').expect(201);
+    const before = await countSignOffs(shop.orgId);
+    const held = await step(shop.s.admin, 'locks-removed').expect(409);
+    expect(held.body.fields.map((f: { path: string }) => f.path)).toEqual(['outsideLocks']);
+    expect(await countSignOffs(shop.orgId)).toBe(before);
+    const d = (await get(shop.s.operator, `/safety/lockouts/${lockoutId}`).expect(200)).body;
+    expect(d.state).toBe('locked');
+    expect(d.points.every((p: { removedAt: string | null }) => p.removedAt === null)).toBe(true);
+    // The lockout's own list of signatures carries the outside steps too.
+    expect(d.signOffs.map((x: { meaning: string }) => x.meaning)).toEqual(
+      expect.arrayContaining(['outside-procedures-exchanged', 'outside-procedure-acknowledged', 'outside-locks-applied']),
+    );
+  });
+
   it('refuses outside locks already hanging elsewhere, naming the lock (1910.147(c)(5)(ii)(C)(1))', async () => {
     const prefix = `Z${uniq()}`;
     await applyLockout(prefix);
