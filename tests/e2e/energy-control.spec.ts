@@ -1,47 +1,32 @@
-import { test, expect, type APIRequestContext, type Browser, type Page } from '@playwright/test';
-import { DEMO_PASSWORD, signIn, snap } from './support';
+import { test, expect, type Browser } from '@playwright/test';
+import { apiJson, DEMO_PASSWORD, signIn, signInDialog, snap } from './support';
 
 // OSHA 29 CFR 1910.147(e)(3) removal of an absent employee's lock, and the alarm for a counter that
 // rises during a verified lockout (1910.147(d)(6)), driven through the screens in Chromium.
 test.describe.configure({ mode: 'serial' });
-
-async function apiCall(request: APIRequestContext, method: 'GET' | 'POST', url: string, data?: unknown) {
-  const { token } = await (await request.get('/api/auth/csrf')).json();
-  const res = await request.fetch(`/api${url}`, { method, headers: { 'X-CSRF-Token': token }, data });
-  expect(res.status(), `${method} ${url}: ${await res.text()}`).toBeLessThan(300);
-  return res.json();
-}
-
-async function signWith(page: Page) {
-  const dialog = page.getByRole('dialog');
-  await expect(dialog).toBeVisible();
-  await dialog.getByLabel('Your password').fill(DEMO_PASSWORD);
-  await dialog.getByRole('button', { name: 'Sign with my password' }).click();
-  await expect(dialog).toBeHidden();
-}
 
 /** The technician locks out C2 with every point of its approved procedure; returns the lockout id. */
 async function techLocksOutC2(browser: Browser, prefix: string, verify: boolean) {
   const ctx = await browser.newContext();
   const page = await ctx.newPage();
   await signIn(page, 'tech@alder-row.example');
-  const machines = (await apiCall(page.request, 'GET', '/safety/machines')) as { id: string; code: string; procedures: { id: string }[] }[];
+  const machines = (await apiJson(page.request, 'GET', '/safety/machines')) as { id: string; code: string; procedures: { id: string }[] }[];
   const c2 = machines.find((m) => m.code === 'C2')!;
-  const proc = await apiCall(page.request, 'GET', `/safety/procedures/${c2.procedures[0].id}`);
+  const proc = await apiJson(page.request, 'GET', `/safety/procedures/${c2.procedures[0].id}`);
   const points = proc.current.content.sources.map((s: { key: string }, i: number) => ({
     sourceKey: s.key,
     device: 'lock-and-tag',
     lockNumber: `${prefix}-${i + 1}`,
   }));
-  const { id } = await apiCall(page.request, 'POST', '/safety/lockouts', {
+  const { id } = await apiJson(page.request, 'POST', '/safety/lockouts', {
     procedureId: c2.procedures[0].id,
     reason: 'Replace the clamp pads',
     points,
     password: DEMO_PASSWORD,
   });
   if (verify) {
-    const d = await apiCall(page.request, 'GET', `/safety/lockouts/${id}`);
-    await apiCall(page.request, 'POST', `/safety/lockouts/${id}/verify`, {
+    const d = await apiJson(page.request, 'GET', `/safety/lockouts/${id}`);
+    await apiJson(page.request, 'POST', `/safety/lockouts/${id}/verify`, {
       testedPointIds: d.points.map((p: { id: string }) => p.id),
       startAttempted: true,
       password: DEMO_PASSWORD,
@@ -64,11 +49,11 @@ test('a supervisor removes an absent technician’s lock through the signed (e)(
   await page.getByLabel('How you checked they are not at the facility').fill('Badge log: left at 14:02; not found on a walk-round');
   await page.getByText('The employee is not at the facility').click();
   await page.getByRole('button', { name: 'Sign: employee not at the facility' }).click();
-  await signWith(page);
+  await signInDialog(page);
   await expect(page.getByText('Absence verified and signed')).toBeVisible();
   await page.getByLabel('What was done: attempt to contact the employee').fill('Called twice and left a voicemail at 14:30');
   await page.getByRole('button', { name: 'Sign: attempt to contact the employee' }).click();
-  await signWith(page);
+  await signInDialog(page);
   await expect(page.getByText('Next: Removal authorized by the safety officer')).toBeVisible();
   expect(panel).toBeTruthy();
 
@@ -79,28 +64,28 @@ test('a supervisor removes an absent technician’s lock through the signed (e)(
   await safety.goto(`/safety/lockouts/${tech.id}`);
   await safety.getByLabel('What was done: removal authorized by the safety officer').fill('Authorized after checking the contact attempts');
   await safety.getByRole('button', { name: 'Sign: removal authorized by the safety officer' }).click();
-  await signWith(safety);
+  await signInDialog(safety);
   await safetyCtx.close();
 
   await page.reload();
   await page.getByLabel('What was done: locks removed, area checked').fill('Area checked, everyone clear, locks cut off');
   await page.getByRole('button', { name: 'Sign: locks removed, area checked' }).click();
-  await signWith(page);
+  await signInDialog(page);
   await expect(page.getByText('Released').first()).toBeVisible();
   await page.getByLabel('What was done: employee informed before resuming work').fill('Told at the gate before the next shift');
   await page.getByRole('button', { name: 'Sign: employee informed before resuming work' }).click();
-  await signWith(page);
+  await signInDialog(page);
   await expect(page.getByText('Employee informed before resuming work (1910.147(e)(3)(iii)) · signed by Rhea Castellan')).toBeVisible();
   await snap(page, 'absent-lock-removal');
 });
 
 test('a counter that rises during a verified lockout raises the alarm mail and the station mark', async ({ page, browser }) => {
   const tech = await techLocksOutC2(browser, `AL${Date.now() % 100000}`, true);
-  const station = await apiCall(tech.page.request, 'GET', '/stations/C2');
+  const station = await apiJson(tech.page.request, 'GET', '/stations/C2');
   const meter = station.meters.find((m: { code: string }) => m.code === 'arc-starts');
   const start = meter.latest?.value ?? 0;
-  await apiCall(tech.page.request, 'POST', `/meters/${meter.id}/readings`, { value: start });
-  await apiCall(tech.page.request, 'POST', `/meters/${meter.id}/readings`, { value: start + 25 });
+  await apiJson(tech.page.request, 'POST', `/meters/${meter.id}/readings`, { value: start });
+  await apiJson(tech.page.request, 'POST', `/meters/${meter.id}/readings`, { value: start + 25 });
 
   await signIn(page, 'safety@alder-row.example');
   await page.getByRole('link', { name: 'Dev inbox' }).click();
@@ -119,9 +104,9 @@ test('a counter that rises during a verified lockout raises the alarm mail and t
   await expect(mark).toContainText('rose by 25 starts');
   await snap(page, 'lockout-alarm-station');
 
-  const d = await apiCall(tech.page.request, 'GET', `/safety/lockouts/${tech.id}`);
+  const d = await apiJson(tech.page.request, 'GET', `/safety/lockouts/${tech.id}`);
   expect(d.state).toBe('verified');
-  await apiCall(tech.page.request, 'POST', `/safety/lockouts/${tech.id}/release`, {
+  await apiJson(tech.page.request, 'POST', `/safety/lockouts/${tech.id}/release`, {
     areaChecked: true,
     peopleClear: true,
     affectedNotified: true,

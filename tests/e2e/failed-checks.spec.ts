@@ -1,14 +1,7 @@
-import { test, expect, type APIRequestContext } from '@playwright/test';
-import { DEMO_PASSWORD, expectAccessible, signIn, signOut, snap } from './support';
+import { test, expect } from '@playwright/test';
+import { apiJson, DEMO_PASSWORD, expectAccessible, signIn, signOut, snap } from './support';
 
 const tablet = { viewport: { width: 800, height: 1280 }, hasTouch: true, isMobile: true };
-
-async function apiCall(request: APIRequestContext, method: 'GET' | 'POST' | 'PUT', url: string, data?: unknown) {
-  const { token } = await (await request.get('/api/auth/csrf')).json();
-  const res = await request.fetch(`/api${url}`, { method, headers: { 'X-CSRF-Token': token }, data });
-  expect(res.ok(), `${method} ${url}: ${await res.text()}`).toBeTruthy();
-  return res.json();
-}
 
 test.describe('a failed safety-critical check on a work order', () => {
   test.use(tablet);
@@ -18,10 +11,10 @@ test.describe('a failed safety-critical check on a work order', () => {
     // safety-critical lines, raised by a counter trigger, both lines answered Not OK.
     await signIn(page, 'admin@alder-row.example');
     const code = `PB-${Date.now().toString(36).toUpperCase()}`;
-    const brake = await apiCall(page.request, 'POST', '/machines', { code, name: 'Press brake for the guard test', kind: 'press-brake' });
-    const meter = await apiCall(page.request, 'POST', '/meters', { machineId: brake.id, code: 'cycles', name: 'Press cycles', kind: 'count', unit: 'cycles' });
-    await apiCall(page.request, 'POST', '/meter-readings', { readings: [{ meterId: meter.id, value: 0 }] });
-    await apiCall(page.request, 'POST', '/plans', {
+    const brake = await apiJson(page.request, 'POST', '/machines', { code, name: 'Press brake for the guard test', kind: 'press-brake' });
+    const meter = await apiJson(page.request, 'POST', '/meters', { machineId: brake.id, code: 'cycles', name: 'Press cycles', kind: 'count', unit: 'cycles' });
+    await apiJson(page.request, 'POST', '/meter-readings', { readings: [{ meterId: meter.id, value: 0 }] });
+    await apiJson(page.request, 'POST', '/plans', {
       machineId: brake.id,
       title: 'Guard function test',
       instructions: 'Test the light curtain and the foot pedal.',
@@ -33,15 +26,15 @@ test.describe('a failed safety-critical check on a work order', () => {
       responsibleRole: 'technician',
       triggers: [{ kind: 'meter', meterId: meter.id, every: 1 }],
     });
-    await apiCall(page.request, 'POST', '/meter-readings', { readings: [{ meterId: meter.id, value: 5 }] });
-    await apiCall(page.request, 'POST', '/job-runs');
-    const list = await apiCall(page.request, 'GET', `/work-orders?machineId=${brake.id}&page=1&pageSize=5`);
+    await apiJson(page.request, 'POST', '/meter-readings', { readings: [{ meterId: meter.id, value: 5 }] });
+    await apiJson(page.request, 'POST', '/job-runs');
+    const list = await apiJson(page.request, 'GET', `/work-orders?machineId=${brake.id}&page=1&pageSize=5`);
     expect(list.rows.length, 'the pass raised the guard work').toBe(1);
     const wo = list.rows[0] as { id: string; number: number };
     await signOut(page);
 
     await signIn(page, 'tech@alder-row.example');
-    await apiCall(page.request, 'PUT', `/work-orders/${wo.id}/checklist`, {
+    await apiJson(page.request, 'PUT', `/work-orders/${wo.id}/checklist`, {
       results: [
         { key: 'curtain', result: 'fail', note: 'Ram kept moving with the test rod in the field' },
         { key: 'pedal', result: 'fail', note: 'Guard cracked' },
@@ -61,7 +54,7 @@ test.describe('a failed safety-critical check on a work order', () => {
     await dialog.getByRole('button', { name: 'Raise the repair' }).tap();
     await expect(page.getByRole('status').filter({ hasText: `is out of service until it is signed off` })).toContainText(`${code} is out of service`);
     await expect(failed.getByText(/Repair raised by Imani Oduya/)).toBeVisible();
-    const status = await apiCall(page.request, 'GET', `/machines/${encodeURIComponent(code)}/status`);
+    const status = await apiJson(page.request, 'GET', `/machines/${encodeURIComponent(code)}/status`);
     expect(status.state).toBe('out-of-service');
     await signOut(page);
 
@@ -85,7 +78,7 @@ test.describe('a failed safety-critical check on a work order', () => {
 test('a light curtain mounted closer than ISO 13855 asks for fails its check and stops the brake', async ({ page }) => {
   await signIn(page, 'tech@alder-row.example');
   const code = `PB-LC-${Date.now().toString(36).toUpperCase()}`;
-  const brake = await apiCall(page.request, 'POST', '/machines', { code, name: 'Press brake for the curtain check', kind: 'press-brake' });
+  const brake = await apiJson(page.request, 'POST', '/machines', { code, name: 'Press brake for the curtain check', kind: 'press-brake' });
   await page.goto(`/machines/${brake.id}`);
   await expect(page.getByRole('heading', { name: 'Light-curtain stopping-time check' })).toBeVisible();
   const panel = page.getByRole('main');
@@ -100,7 +93,7 @@ test('a light curtain mounted closer than ISO 13855 asks for fails its check and
   await form.getByRole('button', { name: 'Record the check' }).click();
   await expect(panel.getByRole('status').filter({ hasText: 'Last check failed' })).toContainText('needs at least 200 mm');
   await expect(panel.getByRole('status').filter({ hasText: 'Last check failed' })).toContainText('The brake was taken out of service.');
-  const status = await apiCall(page.request, 'GET', `/machines/${encodeURIComponent(code)}/status`);
+  const status = await apiJson(page.request, 'GET', `/machines/${encodeURIComponent(code)}/status`);
   expect(status.state).toBe('out-of-service');
   await form.getByLabel('Stopping time of the whole system (ms)').fill('100');
   await form.getByLabel('Detection capability d (mm)').fill('14');

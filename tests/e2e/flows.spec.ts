@@ -1,6 +1,6 @@
 import { test, expect, type Page } from '@playwright/test';
 import { mkdirSync } from 'node:fs';
-import { DEMO_PASSWORD, expectAccessible, signIn } from './support';
+import { expectAccessible, signIn, signInDialog } from './support';
 import { WORK_STATE_LABELS } from '../../shared/schemas/work-orders';
 
 // Flows across screens: the station to the PPE check and back, a meter's unit following its kind,
@@ -10,14 +10,6 @@ import { WORK_STATE_LABELS } from '../../shared/schemas/work-orders';
 
 const SHOTS = '/tmp/shots-b';
 mkdirSync(SHOTS, { recursive: true });
-
-async function signWith(page: Page) {
-  const dialog = page.getByRole('dialog');
-  await expect(dialog).toBeVisible();
-  await dialog.getByLabel('Your password').fill(DEMO_PASSWORD);
-  await dialog.getByRole('button', { name: 'Sign with my password' }).click();
-  await expect(dialog).toBeHidden();
-}
 
 async function apiJson<T>(page: Page, url: string): Promise<T> {
   const res = await page.request.get(url);
@@ -42,7 +34,7 @@ test('the PPE check opens from the station with its machine chosen and returns t
   await expect(page.getByText('Everything on')).toBeVisible();
   await page.screenshot({ path: `${SHOTS}/ppe-from-station-tablet.png`, fullPage: true });
   await page.getByRole('button', { name: 'Sign: PPE check done' }).tap();
-  await signWith(page);
+  await signInDialog(page);
 
   await expect(page).toHaveURL(/\/station\/C2$/);
   await expect(page.getByRole('heading', { level: 1, name: /^C2 · / })).toBeVisible();

@@ -1,5 +1,5 @@
-import { test, expect, type APIRequestContext, type Page } from '@playwright/test';
-import { DEMO_PASSWORD, expectAccessible, signIn } from './support';
+import { test, expect, type Page } from '@playwright/test';
+import { apiJson, DEMO_PASSWORD, expectAccessible, signIn, signInDialog } from './support';
 
 // A tag used alone shows its reason on the lockout (OSHA 29 CFR 1910.147(c)(3)), and outside
 // personnel go through their signed steps on screen (1910.147(f)(2)): procedures exchanged, their
@@ -9,28 +9,13 @@ test.describe.configure({ mode: 'serial' });
 
 const SHOTS = '/tmp/shots-c';
 
-async function apiCall(request: APIRequestContext, method: 'GET' | 'POST', url: string, data?: unknown) {
-  const { token } = await (await request.get('/api/auth/csrf')).json();
-  const res = await request.fetch(`/api${url}`, { method, headers: { 'X-CSRF-Token': token }, data });
-  expect(res.status(), `${method} ${url}: ${await res.text()}`).toBeLessThan(300);
-  return res.json();
-}
-
-async function signWith(page: Page) {
-  const dialog = page.getByRole('dialog');
-  await expect(dialog).toBeVisible();
-  await dialog.getByLabel('Your password').fill(DEMO_PASSWORD);
-  await dialog.getByRole('button', { name: 'Sign with my password' }).click();
-  await expect(dialog).toBeHidden();
-}
-
 /** A machine of its own with an approved two-point procedure, and the technician trained on it. */
 async function machineWithProcedure(page: Page, code: string) {
   await signIn(page, 'admin@alder-row.example');
-  const machine = await apiCall(page.request, 'POST', '/machines', { code, name: 'Hydraulic unit for the contractor test', kind: 'hydraulic-unit' });
+  const machine = await apiJson(page.request, 'POST', '/machines', { code, name: 'Hydraulic unit for the contractor test', kind: 'hydraulic-unit' });
   await signIn(page, 'tech@alder-row.example');
-  const tech = await apiCall(page.request, 'GET', '/me');
-  const proc = await apiCall(page.request, 'POST', '/safety/procedures', {
+  const tech = await apiJson(page.request, 'GET', '/me');
+  const proc = await apiJson(page.request, 'POST', '/safety/procedures', {
     machineId: machine.id,
     title: `Energy isolation of ${code}`,
     scope: 'Pump, valve block and hose work by outside fitters.',
@@ -67,9 +52,9 @@ async function machineWithProcedure(page: Page, code: string) {
     release: ['Refit guards.', 'Make sure everyone is clear.', 'Tell the operators; remove your own locks.'],
   });
   await signIn(page, 'safety@alder-row.example');
-  await apiCall(page.request, 'POST', `/safety/procedures/${proc.id}/versions/1/approve`, { password: DEMO_PASSWORD });
+  await apiJson(page.request, 'POST', `/safety/procedures/${proc.id}/versions/1/approve`, { password: DEMO_PASSWORD });
   const today = new Date().toLocaleDateString('en-CA', { timeZone: 'America/Chicago' });
-  await apiCall(page.request, 'POST', '/safety/training', {
+  await apiJson(page.request, 'POST', '/safety/training', {
     userId: tech.user.id,
     procedureId: proc.id,
     kind: 'authorized',
@@ -103,7 +88,7 @@ test('a tag alone carries its reason, and outside personnel work under the locko
   await page.getByRole('button', { name: 'Sign: my locks are on' }).click();
   await expect(page.getByRole('dialog')).toContainText('T1: tag only');
   await expect(page.getByRole('dialog')).toContainText('cannot take a lock (1910.147(c)(3)(i))');
-  await signWith(page);
+  await signInDialog(page);
   await expect(page.getByRole('heading', { name: new RegExp(`^Lockout of ${code}`) })).toBeVisible();
   await expect(page.getByText('Tag alone: cannot take a lock (1910.147(c)(3)(i))')).toBeVisible();
 
@@ -123,7 +108,7 @@ test('a tag alone carries its reason, and outside personnel work under the locko
   await add.getByLabel('I received and reviewed their energy-control procedure').check();
   await add.getByLabel('I gave them our procedure for this machine').check();
   await exchange.click();
-  await signWith(page);
+  await signInDialog(page);
   const party = panel.getByRole('region', { name: 'Outside personnel: Tallowmere Fluid Power' });
   await expect(party.getByText(/Procedures exchanged: theirs received and reviewed, ours given/)).toBeVisible();
 
@@ -132,14 +117,14 @@ test('a tag alone carries its reason, and outside personnel work under the locko
   await party.getByLabel('Lead’s name, as they give it').fill('Ines Varrow');
   await party.getByLabel('What the lead said (their acknowledgement)').fill('I have your procedure for this unit and my fitters will work to it.');
   await party.getByRole('button', { name: 'Sign as witness: lead acknowledged' }).click();
-  await signWith(page);
+  await signInDialog(page);
   await expect(party.getByText('Their lead acknowledged our procedure')).toBeVisible();
   await party.getByLabel('Their restrictions our people must keep').fill('Nobody opens the valve block while their tags are on.');
   await party.getByLabel('Affected employees you told').fill('Both shift operators of the unit');
   await party.getByRole('button', { name: 'Sign: our employees told' }).click();
-  await signWith(page);
+  await signInDialog(page);
   await party.getByRole('button', { name: 'Sign: their locks are on' }).click();
-  await signWith(page);
+  await signInDialog(page);
   await expect(party.getByText('Their locks are on')).toBeVisible();
   await expectAccessible(page, 'outside personnel panel');
   await page.screenshot({ path: `${SHOTS}/outside-personnel-locks-on.png`, fullPage: true });
@@ -149,7 +134,7 @@ test('a tag alone carries its reason, and outside personnel work under the locko
   await page.getByLabel('Everyone is clear of the machine').check();
   await page.getByLabel('Affected employees told the devices are coming off').check();
   await page.getByRole('button', { name: 'Sign: release and remove my locks' }).click();
-  await signWith(page);
+  await signInDialog(page);
   await expect(page.getByText(/Outside personnel's locks are still on this lockout: Tallowmere Fluid Power/)).toBeVisible();
   await page.screenshot({ path: `${SHOTS}/release-held.png`, fullPage: true });
 
@@ -157,10 +142,10 @@ test('a tag alone carries its reason, and outside personnel work under the locko
   await party.getByLabel('Ines Varrow removed their own locks').check();
   await party.getByLabel("Tallowmere Fluid Power's people are clear").check();
   await party.getByRole('button', { name: 'Sign: their locks are off' }).click();
-  await signWith(page);
+  await signInDialog(page);
   await expect(party.getByText('Their locks off, their people clear')).toBeVisible();
   await page.getByRole('button', { name: 'Sign: release and remove my locks' }).click();
-  await signWith(page);
+  await signInDialog(page);
   await expect(page.getByRole('paragraph').filter({ hasText: /^Released$/ })).toBeVisible();
   await expect(party.getByRole('button', { name: /^Sign/ })).toHaveCount(0);
   await page.screenshot({ path: `${SHOTS}/outside-personnel-released.png`, fullPage: true });

@@ -1,16 +1,9 @@
-import { test, expect, type APIRequestContext } from '@playwright/test';
-import { expectAccessible, signIn, signOut, snap } from './support';
+import { test, expect } from '@playwright/test';
+import { apiJson, expectAccessible, signIn, signOut, snap } from './support';
 
 const tablet = { viewport: { width: 800, height: 1280 }, hasTouch: true, isMobile: true };
 
 /** JSON call with the session's CSRF token, as the app itself does. */
-async function apiCall(request: APIRequestContext, method: 'GET' | 'POST', url: string, data?: unknown) {
-  const { token } = await (await request.get('/api/auth/csrf')).json();
-  const res = await request.fetch(`/api${url}`, { method, headers: { 'X-CSRF-Token': token }, data });
-  expect(res.ok(), `${method} ${url}: ${await res.text()}`).toBeTruthy();
-  return res.json();
-}
-
 test.describe('station records do scheduled work', () => {
   test.use(tablet);
 
@@ -18,11 +11,11 @@ test.describe('station records do scheduled work', () => {
     // The state this test needs, made here: a plan on P1 done by an electrode + nozzle change,
     // due one arc start after it starts, and a pass that raises its work order.
     await signIn(page, 'admin@alder-row.example');
-    const station = await apiCall(page.request, 'GET', '/stations/P1');
+    const station = await apiJson(page.request, 'GET', '/stations/P1');
     const torch = station.torches.find((t: { code: string }) => t.code === 'P1-T');
     const startsMeter = torch.startsMeter;
     const title = `Electrode and nozzle check ${Date.now().toString(36)}`;
-    const plan = await apiCall(page.request, 'POST', '/plans', {
+    const plan = await apiJson(page.request, 'POST', '/plans', {
       machineId: station.machine.id,
       title,
       instructions: 'Look at the electrode pit and the nozzle bore.',
@@ -32,9 +25,9 @@ test.describe('station records do scheduled work', () => {
       triggers: [{ kind: 'meter', meterId: startsMeter.id, every: 1 }],
       stationRecord: { kind: 'consumable-change', categories: ['electrode', 'nozzle'] },
     });
-    await apiCall(page.request, 'POST', '/meter-readings', { readings: [{ meterId: startsMeter.id, value: (startsMeter.latest?.value ?? 0) + 5 }] });
-    await apiCall(page.request, 'POST', '/job-runs');
-    const detail = await apiCall(page.request, 'GET', `/plans/${plan.id}`);
+    await apiJson(page.request, 'POST', '/meter-readings', { readings: [{ meterId: startsMeter.id, value: (startsMeter.latest?.value ?? 0) + 5 }] });
+    await apiJson(page.request, 'POST', '/job-runs');
+    const detail = await apiJson(page.request, 'GET', `/plans/${plan.id}`);
     expect(detail.openWorkOrder, 'the pass raised the plan’s work').not.toBeNull();
     const wo = detail.openWorkOrder as { id: string; number: number };
     await signOut(page);

@@ -1,4 +1,4 @@
-import { expect, type Page } from '@playwright/test';
+import { expect, type APIRequestContext, type Page } from '@playwright/test';
 import { createRequire } from 'node:module';
 import { mkdirSync, readFileSync } from 'node:fs';
 
@@ -45,4 +45,21 @@ export async function expectAccessible(page: Page, label: string) {
 
 export async function snap(page: Page, name: string) {
   await page.screenshot({ path: `${ARTIFACTS}/${name}.png`, fullPage: true });
+}
+
+/** A JSON API call with the CSRF token, for setting up state; any answer from 300 up fails the test with the route and body. */
+export async function apiJson(request: APIRequestContext, method: 'GET' | 'POST' | 'PUT', url: string, data?: unknown) {
+  const { token } = await (await request.get('/api/auth/csrf')).json();
+  const res = await request.fetch(`/api${url}`, { method, headers: { 'X-CSRF-Token': token }, data });
+  expect(res.status(), `${method} ${url}: ${await res.text()}`).toBeLessThan(300);
+  return res.json();
+}
+
+/** Signs in the open signing dialog with the demo password and waits for it to close. */
+export async function signInDialog(page: Page) {
+  const dialog = page.getByRole('dialog');
+  await expect(dialog).toBeVisible();
+  await dialog.getByLabel('Your password').fill(DEMO_PASSWORD);
+  await dialog.getByRole('button', { name: 'Sign with my password' }).click();
+  await expect(dialog).toBeHidden();
 }

@@ -1,20 +1,13 @@
-import { test, expect, type APIRequestContext } from '@playwright/test';
-import { DEMO_PASSWORD, expectAccessible, signIn, signOut, snap } from './support';
-
-async function apiCall(request: APIRequestContext, method: 'GET' | 'POST', url: string, data?: unknown) {
-  const { token } = await (await request.get('/api/auth/csrf')).json();
-  const res = await request.fetch(`/api${url}`, { method, headers: { 'X-CSRF-Token': token }, data });
-  expect(res.ok(), `${method} ${url}: ${await res.text()}`).toBeTruthy();
-  return res.json();
-}
+import { test, expect } from '@playwright/test';
+import { apiJson, DEMO_PASSWORD, expectAccessible, signIn, signOut, snap } from './support';
 
 const step = (s: string) => [s];
 
 test('the lockout form says before signing that a person without training on the procedure will be refused', async ({ page }) => {
   // A machine and an approved procedure of its own, on which nobody is trained yet.
   await signIn(page, 'tech@alder-row.example');
-  const machine = await apiCall(page.request, 'POST', '/machines', { code: 'Q9', name: 'Deburring brush', kind: 'other' });
-  const procedure = await apiCall(page.request, 'POST', '/safety/procedures', {
+  const machine = await apiJson(page.request, 'POST', '/machines', { code: 'Q9', name: 'Deburring brush', kind: 'other' });
+  const procedure = await apiJson(page.request, 'POST', '/safety/procedures', {
     machineId: machine.id,
     title: 'Deburring brush energy control',
     scope: 'Brush change and belt adjustment on the deburring unit.',
@@ -42,7 +35,7 @@ test('the lockout form says before signing that a person without training on the
   });
   await signOut(page);
   await signIn(page, 'safety@alder-row.example');
-  await apiCall(page.request, 'POST', `/safety/procedures/${procedure.id}/versions/1/approve`, { password: DEMO_PASSWORD, retrainingRequired: true });
+  await apiJson(page.request, 'POST', `/safety/procedures/${procedure.id}/versions/1/approve`, { password: DEMO_PASSWORD, retrainingRequired: true });
   await signOut(page);
 
   await signIn(page, 'tech@alder-row.example');
