@@ -28,7 +28,9 @@ const targets: Target[] = [
 ];
 
 function startServer(mode: 'app' | 'bare'): Promise<{ child: ChildProcess; base: string }> {
-  const child = spawn(process.execPath, ['--import', 'tsx', 'bench/api-server.ts', mode, url], { stdio: ['ignore', 'pipe', 'inherit'] });
+  // BENCH_CPU_PROF=<dir> writes a V8 CPU profile of the app process there (read it with bench/cpu-profile-summary.ts).
+  const profile = mode === 'app' && process.env.BENCH_CPU_PROF ? ['--cpu-prof', `--cpu-prof-dir=${process.env.BENCH_CPU_PROF}`] : [];
+  const child = spawn(process.execPath, [...profile, '--import', 'tsx', 'bench/api-server.ts', mode, url], { stdio: ['ignore', 'pipe', 'inherit'] });
   return new Promise((resolve, reject) => {
     child.once('exit', (code) => reject(new Error(`${mode} server exited with ${code}`)));
     createInterface({ input: child.stdout! }).on('line', (line) => {

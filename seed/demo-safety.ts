@@ -21,7 +21,7 @@ import {
 } from '../server/modules/safety/records.entity';
 import { appendSignOff, type SignInput } from '../server/modules/safety/chain';
 import { contentDigest } from '../server/modules/safety/procedures.service';
-import { deriveRequiredItems } from '../shared/schemas/safety-ppe-derive';
+import { derivedFor, ppeCheckDetails } from '../server/modules/safety/ppe.service';
 import { DEFAULT_SAFETY_SETTINGS } from '../server/modules/safety/settings';
 import type { Principal } from '../server/http/principal';
 import { pointTag, type ProcedureContent, type EnergySource, type MinorTask } from '../shared/schemas/safety-procedures';
@@ -566,6 +566,9 @@ export const seedSafetyDemo: SeedStep = async (rootEm, shop) => {
               device: pt.device,
               lockNumber: pt.lock,
               tagNumber: null,
+              // The seeded tag-only points (heat, run-down) have no device that could take a lock: 1910.147(c)(3)(i).
+              tagJustification: pt.device === 'tag-only' ? 'cannot-take-lock' : null,
+              tagMeasure: null,
               appliedBy: tech.userId,
               holder: tech.userId,
               appliedAt: start,
@@ -578,13 +581,19 @@ export const seedSafetyDemo: SeedStep = async (rootEm, shop) => {
               subjectId: s.id,
               machineId: m.id,
               details: {
-                summary: `${m.code} v${version.version}: ${points.map((x) => `${x.key} ${x.device.replace(/-/g, ' ')} ${x.lock}`).join(', ')} — ${reason}`,
+                summary: `${m.code} v${version.version}: ${points.map((x) => `${x.key} ${x.device.replace(/-/g, ' ')} ${x.lock}${x.device === 'tag-only' ? ' — cannot take a lock (1910.147(c)(3)(i))' : ''}`).join(', ')} — ${reason}`,
                 procedureId: procId,
                 procedureVersion: version.version,
                 reason,
                 group: !!opts.group,
                 workOrderId: null,
-                points: points.map((x) => ({ key: x.key, device: x.device, lock: x.lock, tag: null })),
+                points: points.map((x) => ({
+                  key: x.key,
+                  device: x.device,
+                  lock: x.lock,
+                  tag: null,
+                  ...(x.device === 'tag-only' ? { tagJustification: 'cannot-take-lock', tagMeasure: null } : {}),
+                })),
               },
             },
             start,
@@ -762,14 +771,7 @@ export const seedSafetyDemo: SeedStep = async (rootEm, shop) => {
         createdAt: reqAt,
       });
       if (req.cadence === 'none') continue;
-      const derived = deriveRequiredItems(
-        { items: r.items, otherItems: [], arcCurrentA: r.arc, noise: r.noise, peakDbC: r.peakDbC ?? null, protectorNrr: r.protectorNrr ?? null },
-        {
-          shadeTable: null,
-          hearingRequiredFromDbA: DEFAULT_SAFETY_SETTINGS.hearingRequiredFromDbA,
-          hearingRuleSource: DEFAULT_SAFETY_SETTINGS.hearingRuleSource,
-        },
-      );
+      const derived = derivedFor(req, DEFAULT_SAFETY_SETTINGS);
       for (let d = 70; d >= 1; d--) {
         const wd = DateTime.fromJSDate(day(d, 6), { zone: tz }).weekday;
         if (wd > 5) continue;
@@ -797,22 +799,7 @@ export const seedSafetyDemo: SeedStep = async (rootEm, shop) => {
                   subjectType: 'ppe-check',
                   subjectId: check.id,
                   machineId: r.m.id,
-                  details: {
-                    summary: `${r.m.code} ${r.task}: ${derived.required.map((i) => (i.code === 'filter-lens' && derived.shade?.ok ? `Filter lens shade ${derived.shade.minimum}+` : i.label.split(' (')[0])).join(', ')}`,
-                    requirementId: req.id,
-                    task: r.task,
-                    items: derived.required.map((i) => ({ code: i.code, detail: i.detail })),
-                    shade: derived.shade?.ok ? { minimum: derived.shade.minimum, arcCurrentA: derived.shade.arcCurrentA, source: derived.shade.source } : null,
-                    hearing: derived.hearing
-                      ? {
-                          twaDbA: derived.hearing.twaDbA,
-                          pelTwaDbA: derived.hearing.pel.twaDbA,
-                          overPel: derived.hearing.pel.reached,
-                          required: derived.hearing.required,
-                          rule: derived.hearing.ruleSource,
-                        }
-                      : null,
-                  },
+                  details: ppeCheckDetails(r.m.code, req, derived),
                 },
                 at,
               )) as never;

@@ -4,6 +4,7 @@ import { createMember, createShop } from './factories';
 import { seedMachines } from './demo-machines';
 import { seedSafetyDemo } from './demo-safety';
 import { seedPlansDemo } from './demo-plans';
+import { seedStopsDemo } from './demo-stops';
 
 /** The invented demo shops. Every name here is made up; e-mail domains are `.example`. */
 export const DEMO_USERS = [
@@ -22,6 +23,8 @@ export const demoSteps: SeedStep[] = [];
 demoSteps.push(seedMachines);
 // Plans and their work history: after the machines, found by code.
 demoSteps.push(seedPlansDemo);
+// A year of coded stops for the reliability page.
+demoSteps.push(seedStopsDemo);
 
 export async function seedDemo(em: EntityManager, settings: DemoSettings): Promise<boolean> {
   if (await em.findOne(Organization, { slug: 'alder-row' }, { filters: false })) return false;

@@ -20,6 +20,7 @@ import { registerDevInboxRoutes } from './modules/dev-inbox/dev-inbox.routes';
 import { registerActivityLogRoutes } from './modules/activity-log/activity-log.routes';
 import { registerOrganizationRoutes } from './modules/organizations/organizations.routes';
 import { registerSafetyRoutes } from './modules/safety/safety.routes';
+import { registerOutsidePersonnelRoutes } from './modules/safety/outside-personnel.routes';
 import { registerMachineRoutes } from './modules/machines/machines.routes';
 import { registerMachineStateRoutes } from './modules/machines/machine-state.routes';
 import { registerMeterRoutes } from './modules/meters/meters.routes';
@@ -89,7 +90,8 @@ export function createApp({ orm, config, smtp = null }: AppDeps): AppHandle {
   registerUserRoutes(api, config);
   registerActivityLogRoutes(api);
   registerOrganizationRoutes(api);
-  registerSafetyRoutes(api, config);
+  const safety = registerSafetyRoutes(api, config);
+  registerOutsidePersonnelRoutes(api, safety.signing);
   registerMachineRoutes(api);
   registerMachineStateRoutes(api, config);
   registerMeterRoutes(api);

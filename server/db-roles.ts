@@ -33,7 +33,7 @@ const APPEND_ONLY_TABLES = [
   'machine_pre_use_check',
 ];
 /** Tables the app role may add, read and update, but not delete from. */
-const NO_DELETE_TABLES = ['safety_chain_head', 'machine_downtime'];
+const NO_DELETE_TABLES = ['safety_chain_head', 'machine_downtime', 'safety_lockout_test_window'];
 
 /**
  * Grants the app role what the server needs, run by the owner after every migration run

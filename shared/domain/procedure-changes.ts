@@ -5,7 +5,8 @@
  * common practice). Lists are compared as sets of lines: a reworded step shows as one line removed
  * and one added; sources and minor tasks are matched by their tag or key.
  */
-import { PHASE_LABELS, PROCEDURE_PHASES, type EnergySource, type ProcedureContent } from '../schemas/safety-procedures';
+import { diffArrays } from 'diff';
+import { ENERGY_KIND_LABELS, PHASE_LABELS, PROCEDURE_PHASES, type EnergySource, type ProcedureContent } from '../schemas/safety-procedures';
 
 export type ProcedureChange = { section: string; kind: 'added' | 'removed' | 'changed'; before?: string; after?: string };
 
@@ -58,6 +59,82 @@ export function procedureChanges(current: ProcedureContent, draft: ProcedureCont
       if (was.name !== t.name) out.push({ section: 'Minor servicing', kind: 'changed', before: was.name, after: t.name });
       out.push(...lines(`Minor servicing “${t.name}”, alternative measures`, was.alternativeMeasures, t.alternativeMeasures));
     }
+  }
+  return out;
+}
+
+/** One line of the side-by-side view: the version in force on the left, the draft on the right. */
+export type ComparedRow = { mark: 'same' | 'removed' | 'added' | 'changed'; before: string | null; after: string | null };
+export type ComparedSection = { title: string; rows: ComparedRow[] };
+
+/**
+ * Aligns two lists line by line on their longest common subsequence (jsdiff's array diff), so
+ * unchanged lines sit level with each other; a run of removed lines followed by a run of added
+ * ones is paired up as changed lines, the rest stay removed or added.
+ */
+export function alignLines(before: string[], after: string[]): ComparedRow[] {
+  const rows: ComparedRow[] = [];
+  const chunks = diffArrays(before, after);
+  for (let i = 0; i < chunks.length; i++) {
+    const c = chunks[i];
+    if (!c.added && !c.removed) {
+      for (const line of c.value) rows.push({ mark: 'same', before: line, after: line });
+      continue;
+    }
+    const next = chunks[i + 1];
+    if (c.removed && next?.added) {
+      const n = Math.max(c.value.length, next.value.length);
+      for (let j = 0; j < n; j++) {
+        const was = c.value[j] ?? null;
+        const now = next.value[j] ?? null;
+        rows.push({ mark: was === null ? 'added' : now === null ? 'removed' : 'changed', before: was, after: now });
+      }
+      i++;
+      continue;
+    }
+    for (const line of c.value) rows.push(c.added ? { mark: 'added', before: null, after: line } : { mark: 'removed', before: line, after: null });
+  }
+  return rows;
+}
+
+function fieldRows(before: string[] | null, after: string[] | null): ComparedRow[] {
+  if (!before) return (after ?? []).map((line) => ({ mark: 'added', before: null, after: line }));
+  if (!after) return before.map((line) => ({ mark: 'removed', before: line, after: null }));
+  // Fields are compared in place (same position, same label), not aligned as free text.
+  return before.map((line, i) => ({ mark: line === after[i] ? 'same' : 'changed', before: line, after: after[i] }));
+}
+
+const sourceLines = (s: EnergySource) =>
+  SOURCE_FIELDS.map(([field, label]) => `${label[0].toUpperCase()}${label.slice(1)}: ${field === 'kind' ? ENERGY_KIND_LABELS[s.kind] : String(s[field])}`);
+
+/**
+ * The version in force and the draft, section by section and line by line, with each line marked
+ * same, removed, added or changed: the basis of the side-by-side approval view.
+ */
+export function procedureComparison(current: ProcedureContent, draft: ProcedureContent): ComparedSection[] {
+  const out: ComparedSection[] = [{ title: 'Title and scope', rows: fieldRows([current.title, current.scope], [draft.title, draft.scope]) }];
+  const oldSources = new Map(current.sources.map((s) => [s.key, s]));
+  const newSources = new Map(draft.sources.map((s) => [s.key, s]));
+  const keys = [...oldSources.keys(), ...[...newSources.keys()].filter((k) => !oldSources.has(k))];
+  for (const key of keys) {
+    const was = oldSources.get(key);
+    const now = newSources.get(key);
+    out.push({ title: `Energy source ${key}`, rows: fieldRows(was ? sourceLines(was) : null, now ? sourceLines(now) : null) });
+  }
+  for (const phase of PROCEDURE_PHASES) out.push({ title: PHASE_LABELS[phase].title, rows: alignLines(current.steps[phase], draft.steps[phase]) });
+  out.push({ title: 'Release from lockout', rows: alignLines(current.release, draft.release) });
+  const oldTasks = new Map((current.minorTasks ?? []).map((t) => [t.key, t]));
+  const newTasks = new Map((draft.minorTasks ?? []).map((t) => [t.key, t]));
+  const taskKeys = [...oldTasks.keys(), ...[...newTasks.keys()].filter((k) => !oldTasks.has(k))];
+  for (const key of taskKeys) {
+    const was = oldTasks.get(key);
+    const now = newTasks.get(key);
+    const name = (now ?? was)!.name;
+    const rows =
+      was && now
+        ? [...fieldRows([was.name], [now.name]), ...alignLines(was.alternativeMeasures, now.alternativeMeasures)]
+        : fieldRows(was ? [was.name, ...was.alternativeMeasures] : null, now ? [now.name, ...now.alternativeMeasures] : null);
+    out.push({ title: `Minor servicing “${name}”`, rows });
   }
   return out;
 }

@@ -177,7 +177,7 @@ export type ReferenceValue = { value: number; unit: string; source: string; over
 export type StationLockout = {
   id: string;
   machineCode: string;
-  state: 'locked' | 'verified';
+  state: 'locked' | 'verified' | 'testing' | 'reapplied';
   appliedAt: string;
   reason: string;
   heldBy: string;

@@ -2,6 +2,7 @@ import { z } from 'zod';
 import { signPassword } from './safety-sign-offs';
 import { paging } from './paging';
 import { oneLine } from './text';
+import { tagJustificationFields, tagOnlyJustificationIssues, type TagOnlyBasis } from './safety-tag-only';
 
 /** Devices put on an isolation point (OSHA 29 CFR 1910.147(c)(5) lockout and tagout devices). */
 export const LOCK_DEVICES = ['lock-and-tag', 'lock', 'tag-only', 'valve-cover', 'plug-cover', 'blocking'] as const;
@@ -16,12 +17,15 @@ export const LOCK_DEVICE_LABELS: Record<LockDevice, string> = {
 };
 
 /** Our names for the states of a lockout. */
-export const LOCKOUT_STATES = ['locked', 'verified', 'released'] as const;
+export const LOCKOUT_STATES = ['locked', 'verified', 'released', 'testing', 'reapplied'] as const;
 export type LockoutState = (typeof LOCKOUT_STATES)[number];
 export const LOCKOUT_STATE_LABELS: Record<LockoutState, string> = {
   locked: 'Locked — not yet verified',
   verified: 'Locked and verified',
   released: 'Released',
+  // OSHA 29 CFR 1910.147(f)(1): devices off for a test or positioning window, then back on awaiting re-verification.
+  testing: 'Energized for testing — locks off',
+  reapplied: 'Locks back on — re-verify before work resumes',
 };
 
 const lockNumber = oneLine(z.string().trim().min(1, 'Enter the lock number').max(30, 'Lock number: at most 30 characters'));
@@ -31,6 +35,7 @@ export const lockPointInput = z.object({
   device: z.enum(LOCK_DEVICES, { message: 'Choose the device' }),
   lockNumber: lockNumber,
   tagNumber: oneLine(z.string().trim().max(30, 'Tag number: at most 30 characters')).optional(),
+  ...tagJustificationFields,
 });
 
 const REASON_MAX = 300;
@@ -60,8 +65,14 @@ function distinctLocks(v: { points: { device: LockDevice; lockNumber: string }[]
   });
 }
 
+/** The form also asks for each tag-only point's reason before the signing dialog opens. */
+function tagOnlyJustified(v: z.infer<typeof applyLockoutFields>, ctx: z.RefinementCtx) {
+  for (const issue of tagOnlyJustificationIssues(v.points))
+    ctx.addIssue({ code: 'custom', path: issue.path.split('.').map((k) => (/^\d+$/.test(k) ? Number(k) : k)), message: issue.message });
+}
+
 /** The form (the password is asked for in the signing dialog). */
-export const applyLockoutFormSchema = applyLockoutFields.superRefine(distinctLocks);
+export const applyLockoutFormSchema = applyLockoutFields.superRefine(distinctLocks).superRefine(tagOnlyJustified);
 export const applyLockoutSchema = applyLockoutFields.extend({ password: signPassword }).superRefine(distinctLocks);
 export type ApplyLockoutInput = z.infer<typeof applyLockoutSchema>;
 
@@ -133,6 +144,9 @@ export type LockPointRow = {
   device: LockDevice;
   lockNumber: string;
   tagNumber: string | null;
+  /** Why a tag is used alone (tag-only points signed since the reason was asked). */
+  tagJustification: TagOnlyBasis | null;
+  tagMeasure: string | null;
   holderId: string;
   holderName: string;
   appliedByName: string;

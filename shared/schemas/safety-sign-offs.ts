@@ -30,6 +30,14 @@ export const SIGN_MEANINGS = [
   'absent-locks-removed',
   'employee-informed',
   'pre-use-check-done',
+  'testing-window-opened',
+  'energy-control-reapplied',
+  'isolation-reverified',
+  'outside-procedures-exchanged',
+  'outside-procedure-acknowledged',
+  'outside-restrictions-informed',
+  'outside-locks-applied',
+  'outside-locks-removed',
 ] as const;
 export type SignMeaning = (typeof SIGN_MEANINGS)[number];
 
@@ -58,12 +66,20 @@ export const MEANING_LABELS: Record<SignMeaning, string> = {
   'absent-locks-removed': 'Absent employee: locks removed',
   'employee-informed': 'Absent employee: informed',
   'pre-use-check-done': 'Pre-use check done',
+  'testing-window-opened': 'Locks off for testing or positioning',
+  'energy-control-reapplied': 'Locks back on after testing',
+  'isolation-reverified': 'Zero energy verified again after testing',
+  'outside-procedures-exchanged': 'Outside personnel: procedures exchanged',
+  'outside-procedure-acknowledged': 'Outside personnel: our procedure acknowledged',
+  'outside-restrictions-informed': 'Outside personnel: our employees informed',
+  'outside-locks-applied': 'Outside personnel: their locks on',
+  'outside-locks-removed': 'Outside personnel: their locks off',
 };
 
 /** The sentence the signer agrees to by re-entering their password. */
 export const MEANING_STATEMENTS: Record<SignMeaning, string> = {
   'procedure-approved': 'I approve this version of the energy-control procedure for use on this machine.',
-  'lockout-applied': 'I applied my own lockout or tagout devices at the isolation points listed.',
+  'lockout-applied': 'I applied my own lockout or tagout devices at the isolation points listed. Where a tag is used alone, the reason given beside it holds.',
   'isolation-verified': 'I tried to start the machine and tested each isolation point; no hazardous energy remains.',
   'member-joined': 'I put my personal lock on this group lockout before starting work.',
   'member-left': 'I finished my work and removed my personal lock from this group lockout.',
@@ -85,6 +101,15 @@ export const MEANING_STATEMENTS: Record<SignMeaning, string> = {
   'absent-locks-removed': 'I checked the work area and that everyone is clear, then removed the absent employee’s locks listed.',
   'employee-informed': 'I told the employee that their locks were removed, before they resumed work at the facility.',
   'pre-use-check-done': 'I checked each line of this machine’s pre-use check myself and recorded what I found.',
+  'testing-window-opened':
+    'The machine is cleared of tools and materials, everyone is out of the machine area, and I removed the devices listed to test or position the machine as described.',
+  'energy-control-reapplied': 'I de-energized the machine and put my lockout or tagout devices back on every isolation point listed.',
+  'isolation-reverified': 'After testing or positioning I tried to start the machine and tested each isolation point again; no hazardous energy remains.',
+  'outside-procedures-exchanged': 'I received and reviewed the outside employer’s energy-control procedure named here, and gave them ours.',
+  'outside-procedure-acknowledged': 'I witnessed the outside lead named here acknowledge our energy-control procedure in the words recorded.',
+  'outside-restrictions-informed': 'I told our affected employees named here of the outside employer’s restrictions and that they must comply with them.',
+  'outside-locks-applied': 'I witnessed the outside personnel put on the locks listed, after their lead acknowledged our procedure.',
+  'outside-locks-removed': 'I witnessed the outside lead remove their own locks listed and checked that their people are clear.',
 };
 
 /** The password re-entered at signing (21 CFR 11.200-style re-authentication, house rule). */

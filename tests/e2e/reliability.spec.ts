@@ -65,3 +65,14 @@ test('a technician stops a machine for a failure, codes the stop and returns it;
   await page.goto(`/reliability?machine=${machine.id}&code=LEAK`);
   await expect(page.locator('dt', { hasText: /^Failures$/ }).locator('xpath=following-sibling::dd')).toHaveText('1');
 });
+
+test('the demo shop’s year of coded stops gives the reliability page figures to read', async ({ page }) => {
+  await signIn(page, 'tech@alder-row.example');
+  await page.goto('/reliability');
+  // Each main machine of the demo had a failure stop in the last few weeks (seed/demo-stops.ts).
+  for (const code of ['B1', 'C1', 'C2', 'H1', 'P1']) {
+    const row = page.getByRole('row').filter({ has: page.getByRole('cell', { name: new RegExp(`^${code} `) }) });
+    await expect(row.getByRole('cell').nth(1)).not.toHaveText('0');
+  }
+  await snap(page, 'reliability-demo');
+});

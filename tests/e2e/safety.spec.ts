@@ -326,7 +326,16 @@ test('the safety screens read well and pass the accessibility scan', async ({ pa
   await expect(changes.getByRole('listitem')).toHaveCount(1);
   await expect(changes.getByRole('listitem').first()).toContainText('Scope · changed');
   await expect(changes.locator('ins')).toHaveText('Now: Tool changes, back-gauge work, and cleaning between the beams.');
-  await page.getByRole('button', { name: 'Sign: approve version 2' }).click();
+  // Both texts side by side, the changed line marked on each side, the approve action under the draft's column.
+  const sideBySide = page.getByRole('table', { name: 'Version 1 beside draft version 2' });
+  await expect(sideBySide.locator('tr[data-mark="changed"]')).toHaveCount(1);
+  await expect(sideBySide.locator('tr[data-mark="changed"] del')).toContainText('Tool changes');
+  await expect(sideBySide.locator('tr[data-mark="changed"] ins')).toHaveText('Now: Tool changes, back-gauge work, and cleaning between the beams.');
+  await expect(sideBySide.locator('tr[data-mark="same"]').first()).toBeVisible();
+  await page.getByLabel('Only the changed lines').check();
+  await expect(sideBySide.locator('tr[data-mark="same"]')).toHaveCount(0);
+  await snap(page, 'safety-procedure-side-by-side');
+  await sideBySide.getByRole('button', { name: 'Sign: approve version 2' }).click();
   await signWith(page);
   await expect(page.getByText('Version 2 approved and in force.')).toBeVisible();
   await expect(page.getByRole('link', { name: /v1 superseded/i })).toBeVisible();

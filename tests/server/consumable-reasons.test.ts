@@ -132,6 +132,38 @@ describe('fit bounds, few-failure warning and the cheapest change point', () => 
     expect(nz.plan).toBeNull();
   });
 
+  it('the station’s plans follow every change of their inputs, though kept between requests', async () => {
+    const stationElectrode = async () =>
+      (await tech.agent.get('/api/stations/R1').expect(200)).body.torches[0].installed.find((i: { category: string }) => i.category === 'electrode').plan;
+    // The consumable-life page computes the same fit afresh on every request: the reference.
+    const expectSameAsLifePage = async () => {
+      const [plan, fresh] = [await stationElectrode(), (await life(electrode)).body];
+      expect(plan.failures).toBe(fresh.failures.length);
+      expect(plan.b10).toBeCloseTo(fresh.fit.b10, 9);
+      if (fresh.fit.plan.age === null) expect(plan.change.age).toBeNull();
+      else expect(plan.change.age).toBeCloseTo(fresh.fit.plan.age, 9);
+      return plan;
+    };
+    const first = await expectSameAsLifePage();
+    expect(await stationElectrode()).toEqual(first);
+    // The part still in the torch runs on: its life so far (a suspension) grows.
+    const meter = (await tech.agent.get(`/api/machines/${torch}`).expect(200)).body.meters.find((m: { code: string }) => m.code === 'arc-starts').id;
+    const latest = (await tech.agent.get(`/api/meters/${meter}`).expect(200)).body.latest.value as number;
+    await post(op, '/meter-readings', { readings: [{ meterId: meter, value: latest + 1500 }] }).expect(201);
+    const longer = await expectSameAsLifePage();
+    expect(longer.b10).not.toBeCloseTo(first.b10, 6);
+    // Another worn-out electrode: one more failure.
+    await post(op, '/consumable-changes', { torchId: torch, categories: ['electrode'], reasons: { electrode: 'worn' }, startsReading: latest + 1600 }).expect(
+      201,
+    );
+    expect((await expectSameAsLifePage()).failures).toBe(first.failures + 1);
+    // The part's costs move the cheapest change point.
+    await patch(tech, `/part-types/${electrode}`, { failureCost: 400 }).expect(200);
+    const costlier = await expectSameAsLifePage();
+    await patch(tech, `/part-types/${electrode}`, { failureCost: 140 }).expect(200);
+    expect((await expectSameAsLifePage()).change.age).not.toBeCloseTo(costlier.change.age, 6);
+  });
+
   it('without a failure cost there is no optimum, and the fit says so', async () => {
     await patch(tech, `/part-types/${electrode}`, { failureCost: null }).expect(200);
     const s = (await life(electrode)).body;

@@ -120,6 +120,25 @@ describe('pre-use checks', () => {
     ]).expect(201);
     expect(res.body).toMatchObject({ pass: false, safetyCriticalFailed: false, status: { state: 'in-service' } });
     expect(await workOrdersOf(shop.orgId)).toBe(wosBefore + 1);
+
+    // Found again on the next check while its repair is open: linked to that repair, no second one.
+    const again = await sign(shop.s.operator, 'B3', [
+      { code: 'light-curtain', ok: true },
+      { code: 'foot-pedal', ok: true },
+      { code: 'die-clamps', ok: false },
+    ]).expect(201);
+    expect(again.body.workOrderId).toBe(res.body.workOrderId);
+    expect(await workOrdersOf(shop.orgId)).toBe(wosBefore + 1);
+
+    // Once that repair is closed, the same failure raises a new one.
+    await orm.em.fork().execute(`update work_order set status = 'cancelled' where id = ?`, [res.body.workOrderId]);
+    const afterClose = await sign(shop.s.operator, 'B3', [
+      { code: 'light-curtain', ok: true },
+      { code: 'foot-pedal', ok: true },
+      { code: 'die-clamps', ok: false },
+    ]).expect(201);
+    expect(afterClose.body.workOrderId).not.toBe(res.body.workOrderId);
+    expect(await workOrdersOf(shop.orgId)).toBe(wosBefore + 2);
   });
 
   it('a pressure drop over the limit fails its line; the machine’s own meter limit replaces the default', async () => {

@@ -9,6 +9,7 @@ import { LockMode } from '@mikro-orm/core';
 import { Machine, type IMachine } from './machine.entity';
 import { MachineDowntime, MachineStateChange, type IMachineDowntime } from './machine-state.entity';
 import { LockoutSession } from '../safety/lockout.entity';
+import { openTestWindowReasons } from '../safety/testing-window.queries';
 import { fedLockouts, fedReason } from '../safety/fed-lockouts';
 import { User } from '../users/user.entity';
 import type { Principal } from '../../http/principal';
@@ -33,7 +34,7 @@ export async function machineStatuses(em: EntityManager, machineIds: string[]): 
   if (machineIds.length === 0) return out;
   const orgId = (em.getFilterParams('org') as { orgId?: string } | undefined)?.orgId ?? null;
   const [locks, open, last, fed] = await Promise.all([
-    em.find(LockoutSession, { machine: { $in: machineIds }, state: { $in: ['locked', 'verified'] } }, { orderBy: { appliedAt: 'asc' } }),
+    em.find(LockoutSession, { machine: { $in: machineIds }, state: { $ne: 'released' } }, { orderBy: { appliedAt: 'asc' }, populate: ['primary'] }),
     em.find(MachineDowntime, { machine: { $in: machineIds }, endedAt: null }),
     em.find(MachineStateChange, { machine: { $in: machineIds } }, { orderBy: { at: 'asc' } }),
     fedLockouts(em, orgId, machineIds),
@@ -42,8 +43,20 @@ export async function machineStatuses(em: EntityManager, machineIds: string[]): 
   for (const id of machineIds) if (!out.has(id)) out.set(id, { state: 'in-service', since: null, reason: null });
   for (const d of open) out.set(d.machine.id, { state: 'out-of-service', since: d.startedAt, reason: d.reason });
   // A lockout wins: nobody may run the machine while locks are on it, whatever else is recorded.
+  // During a test window it stays locked out for production, and the reason says it is energized.
+  const testing = await openTestWindowReasons(
+    em,
+    locks.filter((l) => l.state === 'testing').map((l) => l.id),
+  );
   for (const l of locks) {
-    if (out.get(l.machine.id)?.state !== 'locked-out') out.set(l.machine.id, { state: 'locked-out', since: l.appliedAt, reason: l.reason });
+    const t = testing.get(l.id);
+    if (t)
+      out.set(l.machine.id, {
+        state: 'locked-out',
+        since: t.since,
+        reason: `Energized for testing under the lockout held by ${l.primary.getEntity().name} (${l.reason}) — locks off: ${t.reason}`,
+      });
+    else if (out.get(l.machine.id)?.state !== 'locked-out') out.set(l.machine.id, { state: 'locked-out', since: l.appliedAt, reason: l.reason });
   }
   // So does a lock on a shared point that feeds the machine (a hydraulic unit feeding two cells).
   for (const f of fed) {
@@ -124,7 +137,7 @@ export async function returnToService(em: EntityManager, who: Principal, input: 
     open.endedAt = now;
     open.endedBy = tx.getReference(User, who.userId, { wrapped: true });
     open.endedByWorkOrderId = input.workOrderId ?? null;
-    const locked = await tx.count(LockoutSession, { machine: machine.id, state: { $in: ['locked', 'verified'] } });
+    const locked = await tx.count(LockoutSession, { machine: machine.id, state: { $ne: 'released' } });
     tx.create(MachineStateChange, {
       organization: who.orgId,
       machine: machine.id,

@@ -9,6 +9,7 @@ import { User } from '../users/user.entity';
 import { AbsentLockRemoval, type IAbsentLockRemoval } from './absent-removal.entity';
 import { LockoutMember, LockoutPoint, LockoutSession } from './lockout.entity';
 import { appendSignOff } from './chain';
+import { requireNoOutsideLocks } from './outside-locks';
 import { conflict, fieldError, forbidden, notFound } from '../../http/errors';
 import { recordActivity } from '../activity-log/activity-log.service';
 import { markLockoutReleased } from '../work-orders/work-order-lockout';
@@ -142,6 +143,8 @@ export async function signAbsentStep(em: EntityManager, who: Principal, removalI
       details.removed = [...points.map((p) => ({ key: p.sourceKey, lock: p.lockNumber })), ...(member ? [{ key: 'personal', lock: member.lockNumber }] : [])];
       const remaining = await tx.count(LockoutPoint, { session: s.id, removedAt: null, id: { $nin: points.map((p) => p.id) } });
       if (isPrimary && remaining === 0) {
+        // The lockout must not end under an outside crew's locks (1910.147(f)(2)); throwing here rolls back the removal too.
+        await requireNoOutsideLocks(tx, s.id);
         s.state = 'released';
         s.releasedAt = now;
         details.lockoutReleased = true;

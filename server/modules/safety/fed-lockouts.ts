@@ -3,7 +3,7 @@ import type { EntityManager } from '@mikro-orm/postgresql';
 /**
  * An open lockout that reaches a machine through a shared isolation point: the point is on another
  * machine's procedure, lists this machine among those it feeds, and its lock is on (applied, not
- * removed) while the lockout is locked or verified.
+ * removed) while the lockout is open (during a test window its devices are off, so it does not count).
  */
 export type FedLockout = {
   fedMachineId: string;
@@ -11,7 +11,7 @@ export type FedLockout = {
   /** The machine the lockout is on (the hydraulic unit), and the shared point. */
   machineCode: string;
   pointKey: string;
-  state: 'locked' | 'verified';
+  state: 'locked' | 'verified' | 'testing' | 'reapplied';
   appliedAt: Date;
   reason: string;
   /** Whose lock is on the shared point. */
@@ -23,7 +23,7 @@ type Row = {
   lockout_id: string;
   code: string;
   point_key: string;
-  state: 'locked' | 'verified';
+  state: 'locked' | 'verified' | 'testing' | 'reapplied';
   applied_at: Date;
   reason: string;
   held_by: string;
@@ -46,7 +46,7 @@ export async function fedLockouts(em: EntityManager, orgId: string | null, machi
        join safety_lockout_point p on p.session_id = l.id and p.source_key = s->>'key' and p.removed_at is null
        join app_user u on u.id = p.holder_id
        join machine fm on fm.id::text = f.id and fm.organization_id = l.organization_id
-      where (?::uuid is null or l.organization_id = ?::uuid) and l.state in ('locked', 'verified') and l.released_at is null
+      where (?::uuid is null or l.organization_id = ?::uuid) and l.state <> 'released' and l.released_at is null
         and f.id = any(?::text[]) and f.id <> l.machine_id::text
       order by f.id, l.id, p.source_key, p.applied_at`,
     [orgId, orgId, `{${machineIds.join(',')}}`],

@@ -5,6 +5,8 @@ import { LockoutSession, LockoutPoint, LockoutMember } from './lockout.entity';
 import { SafetyEvent } from './safety-event.entity';
 import { AbsentLockRemoval } from './absent-removal.entity';
 import { PreUseCheck } from './pre-use-check.entity';
+import { LockoutTestWindow } from './testing-window.entity';
+import { OutsideParty } from './outside-party.entity';
 import { PpeRequirement, PpeCheck, PeriodicInspection, TrainingRecord, FireWatch, SafetyTask } from './records.entity';
 
 export const safetyEntities = [
@@ -26,4 +28,6 @@ export const safetyEntities = [
   SafetyEvent,
   AbsentLockRemoval,
   PreUseCheck,
+  LockoutTestWindow,
+  OutsideParty,
 ];

@@ -29,10 +29,16 @@ const usesSql = `
   union all
   select upper(lm.lock_number), s.id, m.code, 'personal lock', true, u.name, lm.joined_at, lm.left_at, case when lm.left_at is null then null else u.name end
     from safety_lockout_member lm join safety_lockout s on s.id = lm.session_id join machine m on m.id = s.machine_id join app_user u on u.id = lm.user_id
-   where lm.organization_id = ?`;
+   where lm.organization_id = ?
+  union all
+  select upper(l.n), s.id, m.code, o.company || ' lock', true, o.lead_name || ' (' || o.company || ')', o.locks_applied_at, o.locks_removed_at,
+         case when o.locks_removed_at is null then null else o.lead_name || ' (' || o.company || ')' end
+    from safety_outside_party o cross join lateral jsonb_array_elements_text(o.lock_numbers) as l(n)
+    join safety_lockout s on s.id = o.session_id join machine m on m.id = s.machine_id
+   where o.organization_id = ? and o.locks_applied_at is not null`;
 
 export async function lockRegister(em: EntityManager, who: Principal, q: LockRegisterQuery): Promise<Page<LockRegisterRow>> {
-  const uses = await em.getConnection().execute<UseSql[]>(`${usesSql} order by 7 desc`, [who.orgId, who.orgId]);
+  const uses = await em.getConnection().execute<UseSql[]>(`${usesSql} order by 7 desc`, [who.orgId, who.orgId, who.orgId]);
   const byLock = new Map<string, LockUse[]>();
   for (const u of uses) {
     const list = byLock.get(u.lock) ?? [];

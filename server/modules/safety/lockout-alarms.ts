@@ -10,6 +10,7 @@ import { meterAdvancesDuringLockouts } from '../../../shared/domain/lockout-conf
 import { readingValue } from '../../../shared/domain/meters';
 import { shopLocale } from '../../../shared/locale';
 import { raiseAlarm } from './safety-events';
+import { splitAroundTestWindows } from './testing-window.queries';
 import { queueMail } from '../../mail/outbox';
 import { renderMail } from '../../mail/templates';
 import { loadConfig } from '../../config';
@@ -51,12 +52,17 @@ export async function checkCounterAdvances(tx: EntityManager, orgId: string, met
       [meter.machine_id, orgId],
     );
     if (lockouts.length === 0) continue;
-    const windows = lockouts.map((l) => ({
-      id: l.id,
-      verifiedAt: new Date(l.verified_at),
-      releasedAt: l.released_at ? new Date(l.released_at) : null,
-      primaryId: l.primary_id,
-    }));
+    // Split around test or positioning windows: the machine runs on purpose while the devices are off.
+    const windows = await splitAroundTestWindows(
+      tx,
+      orgId,
+      lockouts.map((l) => ({
+        id: l.id,
+        verifiedAt: new Date(l.verified_at),
+        releasedAt: l.released_at ? new Date(l.released_at) : null,
+        primaryId: l.primary_id,
+      })),
+    );
     const readings = await tx.execute<{ read_at: Date; value: number }[]>(
       `select r.read_at, r.value from meter_reading r
         where r.organization_id = ? and r.meter_id = ?

@@ -5,6 +5,7 @@ import { User } from '../users/user.entity';
 import { Machine } from '../machines/machine.entity';
 import { EnergyProcedure, ProcedureVersion } from './procedure.entity';
 import { LOCK_DEVICES, LOCKOUT_STATES } from '../../../shared/schemas/safety-lockout';
+import { TAG_ONLY_BASES, TAG_MEASURE_MAX } from '../../../shared/schemas/safety-tag-only';
 
 /** One application of an energy-control procedure, from the first lock on to the last lock off. */
 export const LockoutSession = defineEntity({
@@ -46,6 +47,9 @@ export const LockoutPoint = defineEntity({
     device: p.enum([...LOCK_DEVICES]),
     lockNumber: p.string().length(30),
     tagNumber: p.string().length(30).nullable(),
+    /** A tag used alone: why (1910.147(c)(3)) and, for full protection, the additional measure. */
+    tagJustification: p.enum([...TAG_ONLY_BASES]).nullable(),
+    tagMeasure: p.string().length(TAG_MEASURE_MAX).nullable(),
     appliedBy: () => p.manyToOne(User).ref(),
     holder: () => p.manyToOne(User).ref(),
     appliedAt: p.datetime(),

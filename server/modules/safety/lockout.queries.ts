@@ -85,7 +85,9 @@ export async function getLockout(em: EntityManager, who: Principal, id: string):
     { populate: ['holder', 'appliedBy', 'removedBy'], orderBy: { appliedAt: 'asc', sourceKey: 'asc' } },
   );
   const members = await em.find(LockoutMember, { session: id }, { populate: ['user'], orderBy: { joinedAt: 'asc' } });
-  const signOffs = await em.find(SafetySignOff, { subjectId: id }, { orderBy: { seq: 'asc' } });
+  // Outside personnel's steps are signed on their own record; they belong to this lockout's story too.
+  const parties = await em.getConnection().execute<{ id: string }[]>('select id from safety_outside_party where session_id = ?', [id]);
+  const signOffs = await em.find(SafetySignOff, { subjectId: { $in: [id, ...parties.map((x) => x.id)] } }, { orderBy: { seq: 'asc' } });
   const sources = session.procedureVersion.getEntity().content.sources;
   // Points in the procedure's order (as on the placard), the newest device of each point first.
   const order = (k: string) => sources.findIndex((x) => x.key === k);
@@ -106,6 +108,8 @@ export async function getLockout(em: EntityManager, who: Principal, id: string):
         device: p.device,
         lockNumber: p.lockNumber,
         tagNumber: p.tagNumber ?? null,
+        tagJustification: p.tagJustification ?? null,
+        tagMeasure: p.tagMeasure ?? null,
         holderId: p.holder.id,
         holderName: p.holder.getEntity().name,
         appliedByName: p.appliedBy.getEntity().name,

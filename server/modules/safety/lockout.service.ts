@@ -8,6 +8,8 @@ import { LockoutMember, LockoutPoint, LockoutSession, type ILockoutPoint, type I
 import { appendSignOff } from './chain';
 import { lockoutAuthorization, requireAuthorized } from './authorization';
 import { requireInformedOfRemoval } from './absent-removal.service';
+import { refuseDuringTestWindow } from './testing-window.guards';
+import { requireNoOutsideLocks } from './outside-locks';
 import { mailFedMachinePeople } from './shared-point-mail';
 import { badRequest, conflict, fieldError, forbidden, notFound } from '../../http/errors';
 import { recordActivity } from '../activity-log/activity-log.service';
@@ -22,14 +24,15 @@ import {
   type VerifyLockoutInput,
 } from '../../../shared/schemas/safety-lockout';
 import { ENERGY_KIND_LABELS } from '../../../shared/schemas/safety-procedures';
+import { tagJustificationText, tagOnlyJustificationIssues } from '../../../shared/schemas/safety-tag-only';
 import { clock } from '../../../shared/clock';
 
 const AUTHORIZED_ROLES = ['technician', 'safety'] as const;
 const SUBJECT = 'lockout-session';
 const NIL = '00000000-0000-0000-0000-000000000000';
 
-/** Locks already hanging somewhere in this shop: a physical lock cannot be in two places. */
-async function locksInUse(tx: EntityManager, orgId: string, numbers: string[], exceptSession?: string): Promise<Map<string, string>> {
+/** Locks already hanging somewhere in this shop, outside personnel's included: a physical lock cannot be in two places. */
+export async function locksInUse(tx: EntityManager, orgId: string, numbers: string[], exceptSession?: string): Promise<Map<string, string>> {
   if (numbers.length === 0) return new Map();
   const upper = numbers.map((n) => n.toUpperCase());
   const rows = await tx.execute<{ lock: string; where: string }[]>(
@@ -39,13 +42,18 @@ async function locksInUse(tx: EntityManager, orgId: string, numbers: string[], e
      union all
      select upper(lm.lock_number), m.code || ' (personal lock)'
        from safety_lockout_member lm join safety_lockout s on s.id = lm.session_id join machine m on m.id = s.machine_id
-      where lm.organization_id = ? and lm.left_at is null and upper(lm.lock_number) in (?) and s.id <> ?`,
-    [orgId, upper, exceptSession ?? NIL, orgId, upper, exceptSession ?? NIL],
+      where lm.organization_id = ? and lm.left_at is null and upper(lm.lock_number) in (?) and s.id <> ?
+     union all
+     select upper(l.n), m.code || ' (' || o.company || ' lock)'
+       from safety_outside_party o cross join lateral jsonb_array_elements_text(o.lock_numbers) as l(n)
+       join safety_lockout s on s.id = o.session_id join machine m on m.id = s.machine_id
+      where o.organization_id = ? and o.locks_applied_at is not null and o.locks_removed_at is null and upper(l.n) in (?) and s.id <> ?`,
+    [orgId, upper, exceptSession ?? NIL, orgId, upper, exceptSession ?? NIL, orgId, upper, exceptSession ?? NIL],
   );
   return new Map(rows.map((r) => [r.lock, r.where]));
 }
 
-async function loadOpen(tx: EntityManager, who: Principal, id: string): Promise<ILockoutSession> {
+export async function loadOpen(tx: EntityManager, who: Principal, id: string): Promise<ILockoutSession> {
   // Row lock first: two people acting on one lockout at once are applied one after the other.
   await tx.execute('select id from safety_lockout where id = ? and organization_id = ? for update', [id, who.orgId]);
   const s = await tx.findOne(LockoutSession, id, { populate: ['machine', 'primary', 'procedureVersion'] });
@@ -81,6 +89,9 @@ export async function applyLockout(em: EntityManager, who: Principal, input: App
         [{ path: 'points', message: `Missing: ${missing.map((s) => s.key).join(', ')}` }],
       );
     }
+    const unjustified = tagOnlyJustificationIssues(input.points);
+    if (unjustified.length)
+      throw badRequest(`A tag used alone needs its reason (OSHA 29 CFR 1910.147(c)(3)): ${unjustified.map((f) => f.path).join(', ')}`, unjustified);
     const used = await locksInUse(
       tx,
       who.orgId,
@@ -113,6 +124,8 @@ export async function applyLockout(em: EntityManager, who: Principal, input: App
         device: p.device,
         lockNumber: p.lockNumber,
         tagNumber: p.tagNumber || null,
+        tagJustification: p.device === 'tag-only' ? (p.tagJustification ?? null) : null,
+        tagMeasure: p.device === 'tag-only' && p.tagJustification === 'full-protection' ? p.tagMeasure?.trim() || null : null,
         appliedBy: who.userId,
         holder: who.userId,
         appliedAt: now,
@@ -131,13 +144,21 @@ export async function applyLockout(em: EntityManager, who: Principal, input: App
       subjectId: session.id,
       machineId: machine.id,
       details: {
-        summary: `${machine.code} v${version.version}: ${input.points.map((p) => `${p.sourceKey} ${LOCK_DEVICE_LABELS[p.device].toLowerCase()} ${p.lockNumber}${p.tagNumber ? `/${p.tagNumber}` : ''}`).join(', ')} — ${input.reason}`,
+        summary: `${machine.code} v${version.version}: ${input.points.map((p) => `${p.sourceKey} ${LOCK_DEVICE_LABELS[p.device].toLowerCase()} ${p.lockNumber}${p.tagNumber ? `/${p.tagNumber}` : ''}${p.device === 'tag-only' ? ` — ${tagJustificationText(p.tagJustification, p.tagMeasure)}` : ''}`).join(', ')} — ${input.reason}`,
         procedureId: proc.id,
         procedureVersion: version.version,
         reason: input.reason,
         group: input.group,
         workOrderId: input.workOrderId ?? null,
-        points: input.points.map((p) => ({ key: p.sourceKey, device: p.device, lock: p.lockNumber, tag: p.tagNumber ?? null })),
+        points: input.points.map((p) => ({
+          key: p.sourceKey,
+          device: p.device,
+          lock: p.lockNumber,
+          tag: p.tagNumber ?? null,
+          ...(p.device === 'tag-only'
+            ? { tagJustification: p.tagJustification, tagMeasure: p.tagJustification === 'full-protection' ? p.tagMeasure?.trim() : null }
+            : {}),
+        })),
       },
     });
     recordActivity(tx, who, 'safety.lockout-applied', { type: 'LockoutSession', id: session.id }, { machine: machine.code, signOffId: signOff.id });
@@ -155,33 +176,40 @@ export async function applyLockout(em: EntityManager, who: Principal, input: App
   });
 }
 
-async function activePoints(tx: EntityManager, sessionId: string) {
+export async function activePoints(tx: EntityManager, sessionId: string) {
   return tx.find(LockoutPoint, { session: sessionId, removedAt: null }, { populate: ['holder'], orderBy: { sourceKey: 'asc' } });
+}
+
+/** Every active point ticked as tested, and each zero-energy reading with its unit and a proved tester; returns the readings to sign. */
+export function checkIsolationTests(points: ILockoutPoint[], input: Pick<VerifyLockoutInput, 'testedPointIds' | 'readings'>) {
+  const untested = points.filter((p) => !input.testedPointIds.includes(p.id));
+  if (untested.length)
+    throw fieldError('testedPointIds', `Test every isolation point before signing; not ticked: ${untested.map((p) => p.sourceKey).join(', ')}`);
+  const stray = input.testedPointIds.filter((pid) => !points.some((p) => p.id === pid));
+  if (stray.length) throw fieldError('testedPointIds', 'Some ticked points do not belong to this lockout');
+  const readings = (input.readings ?? []).map((r, i) => {
+    const point = points.find((p) => p.id === r.pointId);
+    if (!point) throw fieldError(`readings.${i}.pointId`, 'This reading is for a point that is not on this lockout');
+    if (!r.unit)
+      throw fieldError(`readings.${i}.unit`, `Give the unit of the reading at ${point.sourceKey} (V, bar …): a number alone does not show zero energy`);
+    if (!r.testerProvedBefore || !r.testerProvedAfter)
+      throw fieldError(
+        `readings.${i}.${r.testerProvedBefore ? 'testerProvedAfter' : 'testerProvedBefore'}`,
+        `Prove the tester on a known source before and after the reading at ${point.sourceKey} (live-dead-live, common practice)`,
+      );
+    return { key: point.sourceKey, value: r.value, unit: r.unit, instrument: r.instrument, testerProvedBefore: true, testerProvedAfter: true };
+  });
+  return readings;
 }
 
 export async function verifyLockout(em: EntityManager, who: Principal, id: string, input: VerifyLockoutInput) {
   return em.transactional(async (tx) => {
     const s = await loadOpen(tx, who, id);
+    refuseDuringTestWindow(s, 'verify it here (use the re-verification after testing)');
     if (s.state !== 'locked') throw conflict('Isolation on this lockout is already verified');
     if (s.primary.id !== who.userId) throw forbidden(`Only ${s.primary.getEntity().name}, who holds this lockout, verifies its isolation`);
     const points = await activePoints(tx, s.id);
-    const untested = points.filter((p) => !input.testedPointIds.includes(p.id));
-    if (untested.length)
-      throw fieldError('testedPointIds', `Test every isolation point before signing; not ticked: ${untested.map((p) => p.sourceKey).join(', ')}`);
-    const stray = input.testedPointIds.filter((pid) => !points.some((p) => p.id === pid));
-    if (stray.length) throw fieldError('testedPointIds', 'Some ticked points do not belong to this lockout');
-    const readings = (input.readings ?? []).map((r, i) => {
-      const point = points.find((p) => p.id === r.pointId);
-      if (!point) throw fieldError(`readings.${i}.pointId`, 'This reading is for a point that is not on this lockout');
-      if (!r.unit)
-        throw fieldError(`readings.${i}.unit`, `Give the unit of the reading at ${point.sourceKey} (V, bar …): a number alone does not show zero energy`);
-      if (!r.testerProvedBefore || !r.testerProvedAfter)
-        throw fieldError(
-          `readings.${i}.${r.testerProvedBefore ? 'testerProvedAfter' : 'testerProvedBefore'}`,
-          `Prove the tester on a known source before and after the reading at ${point.sourceKey} (live-dead-live, common practice)`,
-        );
-      return { key: point.sourceKey, value: r.value, unit: r.unit, instrument: r.instrument, testerProvedBefore: true, testerProvedAfter: true };
-    });
+    const readings = checkIsolationTests(points, input);
     s.state = 'verified';
     const signOff = await appendSignOff(tx, who, {
       meaning: 'isolation-verified',
@@ -206,6 +234,7 @@ export async function joinLockout(em: EntityManager, who: Principal, id: string,
   return em.transactional(async (tx) => {
     const s = await loadOpen(tx, who, id);
     if (s.primary.id === who.userId) throw conflict('You hold this lockout already; your locks are on the isolation points');
+    refuseDuringTestWindow(s, 'join and start work');
     const already = await tx.findOne(LockoutMember, { session: s.id, user: who.userId, leftAt: null });
     if (already) throw conflict(`Your personal lock ${already.lockNumber} is already on this lockout`);
     await requireAuthorized(tx, who.userId, s.procedure.id);
@@ -255,6 +284,7 @@ export async function offerHandover(em: EntityManager, who: Principal, id: strin
   return em.transactional(async (tx) => {
     const s = await loadOpen(tx, who, id);
     if (s.primary.id !== who.userId) throw forbidden(`Only ${s.primary.getEntity().name}, who holds this lockout, can hand it over`);
+    refuseDuringTestWindow(s, 'hand it over');
     if (input.toUserId === who.userId) throw fieldError('toUserId', 'Choose someone else to take over');
     const m = await tx.findOne(Membership, { user: input.toUserId, organization: who.orgId, active: true }, { filters: false, populate: ['user'] });
     if (!m) throw fieldError('toUserId', 'This person is not an active member of your shop');
@@ -317,6 +347,8 @@ export async function acceptHandover(em: EntityManager, who: Principal, id: stri
         device: p.device,
         lockNumber: lock.lockNumber,
         tagNumber: p.tagNumber,
+        tagJustification: p.tagJustification ?? null,
+        tagMeasure: p.tagMeasure ?? null,
         appliedBy: who.userId,
         holder: who.userId,
         appliedAt: now,
@@ -346,6 +378,7 @@ export async function acceptHandover(em: EntityManager, who: Principal, id: stri
 export async function releaseLockout(em: EntityManager, who: Principal, id: string, input: ReleaseLockoutInput) {
   return em.transactional(async (tx) => {
     const s = await loadOpen(tx, who, id);
+    refuseDuringTestWindow(s, 'release it', true);
     const points = await activePoints(tx, s.id);
     const others = points.filter((p) => p.holder.id !== who.userId);
     if (others.length) {
@@ -359,6 +392,7 @@ export async function releaseLockout(em: EntityManager, who: Principal, id: stri
         `Personal locks are still on this group lockout: ${members.map((m) => `${m.user.getEntity().name} (${m.lockNumber})`).join(', ')}. Each person removes their own lock first.`,
       );
     }
+    await requireNoOutsideLocks(tx, s.id);
     if (s.pendingHandoverTo) throw conflict('A hand-over is waiting to be accepted; it must be accepted before the lockout can be released');
     const now = clock.now();
     for (const p of points) {

@@ -18,9 +18,11 @@ export const deriveSettings = (s: SafetySettings) => ({
   hearingRuleSource: s.hearingRuleSource,
 });
 
-function toRow(r: IPpeRequirement, settings: SafetySettings, last: { at: Date; name: string } | undefined): PpeRequirementRow {
-  const machine = r.machine.getEntity();
-  const derived = deriveRequiredItems(
+type RequirementInputs = Pick<IPpeRequirement, 'items' | 'otherItems' | 'arcCurrentA' | 'noise' | 'peakDbC' | 'protectorNrr'>;
+
+/** What a requirement asks for once the shop's shade table and hearing rule are applied. */
+export function derivedFor(r: RequirementInputs, settings: SafetySettings) {
+  return deriveRequiredItems(
     {
       items: r.items,
       otherItems: r.otherItems,
@@ -31,6 +33,31 @@ function toRow(r: IPpeRequirement, settings: SafetySettings, last: { at: Date; n
     },
     deriveSettings(settings),
   );
+}
+
+/** The signed statement of a PPE check: the items put on, the shade and the hearing figures it rests on. */
+export function ppeCheckDetails(machineCode: string, r: { id: string; task: string }, derived: ReturnType<typeof derivedFor>) {
+  return {
+    summary: `${machineCode} ${r.task}: ${derived.required.map((i) => (i.code === 'filter-lens' && derived.shade?.ok ? `${i.label.split(' (')[0]} shade ${derived.shade.minimum}+` : i.label.split(' (')[0])).join(', ')}`,
+    requirementId: r.id,
+    task: r.task,
+    items: derived.required.map((i) => ({ code: i.code, detail: i.detail })),
+    shade: derived.shade?.ok ? { minimum: derived.shade.minimum, arcCurrentA: derived.shade.arcCurrentA, source: derived.shade.source } : null,
+    hearing: derived.hearing
+      ? {
+          twaDbA: derived.hearing.twaDbA,
+          pelTwaDbA: derived.hearing.pel.twaDbA,
+          overPel: derived.hearing.pel.reached,
+          required: derived.hearing.required,
+          rule: derived.hearing.ruleSource,
+        }
+      : null,
+  };
+}
+
+function toRow(r: IPpeRequirement, settings: SafetySettings, last: { at: Date; name: string } | undefined): PpeRequirementRow {
+  const machine = r.machine.getEntity();
+  const derived = derivedFor(r, settings);
   return {
     id: r.id,
     machineId: machine.id,
@@ -141,17 +168,7 @@ export async function recordPpeCheck(em: EntityManager, who: Principal, input: P
     const r = await tx.findOne(PpeRequirement, { id: input.requirementId, active: true }, { populate: ['machine'] });
     if (!r) throw notFound('PPE requirement');
     const { settings } = await loadSafetySettings(tx, who.orgId);
-    const derived = deriveRequiredItems(
-      {
-        items: r.items,
-        otherItems: r.otherItems,
-        arcCurrentA: r.arcCurrentA ?? null,
-        noise: r.noise,
-        peakDbC: r.peakDbC ?? null,
-        protectorNrr: r.protectorNrr ?? null,
-      },
-      deriveSettings(settings),
-    );
+    const derived = derivedFor(r, settings);
     const missing = derived.required.filter((i) => !input.confirmed.includes(i.code));
     if (missing.length) {
       throw fieldError('confirmed', `Do not start: put on ${missing.map((m) => m.label.toLowerCase()).join(', ')} first, then sign`);
@@ -164,22 +181,7 @@ export async function recordPpeCheck(em: EntityManager, who: Principal, input: P
       subjectType: 'ppe-check',
       subjectId: checkId,
       machineId: machine.id,
-      details: {
-        summary: `${machine.code} ${r.task}: ${derived.required.map((i) => (i.code === 'filter-lens' && derived.shade?.ok ? `${i.label.split(' (')[0]} shade ${derived.shade.minimum}+` : i.label.split(' (')[0])).join(', ')}`,
-        requirementId: r.id,
-        task: r.task,
-        items: derived.required.map((i) => ({ code: i.code, detail: i.detail })),
-        shade: derived.shade?.ok ? { minimum: derived.shade.minimum, arcCurrentA: derived.shade.arcCurrentA, source: derived.shade.source } : null,
-        hearing: derived.hearing
-          ? {
-              twaDbA: derived.hearing.twaDbA,
-              pelTwaDbA: derived.hearing.pel.twaDbA,
-              overPel: derived.hearing.pel.reached,
-              required: derived.hearing.required,
-              rule: derived.hearing.ruleSource,
-            }
-          : null,
-      },
+      details: ppeCheckDetails(machine.code, r, derived),
     });
     const check = tx.create(PpeCheck, {
       id: checkId,

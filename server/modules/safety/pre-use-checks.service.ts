@@ -54,6 +54,22 @@ function noListError(code: string, kind: MachineKind) {
   ]);
 }
 
+/**
+ * The open repair raised by an earlier failed pre-use check of this machine whose failed lines
+ * include every line failed now, if any (newest first): the new check is linked to it.
+ */
+async function openRepairFor(tx: EntityManager, machineId: string, failedCodes: string[]) {
+  const rows = await tx.execute<{ work_order_id: string; work_order_number: number; lines: { code: string; ok: boolean }[] }[]>(
+    `select c.work_order_id, c.work_order_number, c.lines
+       from machine_pre_use_check c join work_order w on w.id = c.work_order_id
+      where c.machine_id = ? and w.status not in ('done', 'cancelled')
+      order by c.checked_at desc limit 20`,
+    [machineId],
+  );
+  const covering = rows.find((r) => failedCodes.every((code) => r.lines.some((l) => l.code === code && !l.ok)));
+  return covering ? { workOrderId: covering.work_order_id, workOrderNumber: covering.work_order_number } : null;
+}
+
 export async function recordPreUseCheck(em: EntityManager, who: Principal, code: string, input: PreUseCheckInput, appUrl: string): Promise<PreUseCheckResult> {
   return em.transactional(async (tx) => {
     const machine = await machineByCode(tx, code);
@@ -83,7 +99,14 @@ export async function recordPreUseCheck(em: EntityManager, who: Principal, code:
       },
     });
     let repair: { workOrderId: string; workOrderNumber: number } | null = null;
-    if (!result.pass) {
+    // The same worn line found again next shift belongs to the repair already raised for it, not a new one.
+    if (!result.pass && !result.safetyCriticalFailed)
+      repair = await openRepairFor(
+        tx,
+        machine.id,
+        result.failed.map((f) => f.code),
+      );
+    if (!result.pass && !repair) {
       // The fault-report path raises the repair and, for a safety-critical failure, stops the machine linked to it.
       const critical = result.failed.filter((f) => f.safetyCritical).map((f) => f.label);
       const raised = await reportFault(

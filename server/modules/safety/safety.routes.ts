@@ -15,6 +15,8 @@ import { addPhoto, approveVersion, createProcedure, deletePhoto, getPhoto, getPr
 import { renderPlacard } from './placard';
 import { acceptHandover, applyLockout, joinLockout, leaveLockout, offerHandover, releaseLockout, verifyLockout } from './lockout.service';
 import { getLockout, listLockouts } from './lockout.queries';
+import { listTestWindows, openTestWindow, reapplyAfterTest, reverifyAfterTest } from './testing-window.service';
+import { openTestWindowSchema, reapplyAfterTestSchema, reverifyAfterTestSchema } from '../../../shared/schemas/safety-testing-window';
 import { safetyMachines, safetyPeople } from './safety-lookups';
 import { listRequirements, recordPpeCheck, retireRequirement, saveRequirement } from './ppe.service';
 import {
@@ -268,6 +270,42 @@ export function registerSafetyRoutes(r: ApiRouter, config: Config) {
     ),
   );
 
+  // Devices off for testing or positioning and back on (1910.147(f)(1)), each step signed by the holder.
+  route(
+    r,
+    'get',
+    '/safety/lockouts/:id/test-windows',
+    { access: 'safety.read', params: uuidParam },
+    async (_req, res, { params }) => void res.json(await listTestWindows(em(), params.id)),
+  );
+  route(
+    r,
+    'post',
+    '/safety/lockouts/:id/test-windows',
+    { access: 'safety.lockout.sign', params: uuidParam, body: openTestWindowSchema, ...signing },
+    signed(({ params, body, principal: who }) =>
+      refusable(em(), who, 'lockout.test-window', { lockoutId: params.id }, () => openTestWindow(em(), who, params.id, body)),
+    ),
+  );
+  route(
+    r,
+    'post',
+    '/safety/lockouts/:id/test-windows/reapply',
+    { access: 'safety.lockout.sign', params: uuidParam, body: reapplyAfterTestSchema, ...signing },
+    signed(({ params, body, principal: who }) =>
+      refusable(em(), who, 'lockout.test-reapply', { lockoutId: params.id }, () => reapplyAfterTest(em(), who, params.id, body)),
+    ),
+  );
+  route(
+    r,
+    'post',
+    '/safety/lockouts/:id/test-windows/reverify',
+    { access: 'safety.lockout.sign', params: uuidParam, body: reverifyAfterTestSchema, ...signing },
+    signed(({ params, body, principal: who }) =>
+      refusable(em(), who, 'lockout.test-reverify', { lockoutId: params.id }, () => reverifyAfterTest(em(), who, params.id, body)),
+    ),
+  );
+
   // Who may lock out with a procedure, and why not (the lockout form asks before signing).
   route(
     r,
@@ -467,4 +505,6 @@ export function registerSafetyRoutes(r: ApiRouter, config: Config) {
     const { pdf, fileName } = await exportPdf(em(), who, query);
     res.set('Content-Type', 'application/pdf').set('Content-Disposition', `attachment; filename="${fileName}"`).send(pdf);
   });
+  // Other safety route files share the wrong-password limit of signing.
+  return { signing };
 }

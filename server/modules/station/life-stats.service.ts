@@ -7,6 +7,7 @@ import { readingsSince } from '../meters/meters.service';
 import { torchMeters } from './station.service';
 import { subtreeIds } from '../machines/machines.service';
 import { lifeModel, type PartCosts } from './life-model';
+import { cachedChangePlans } from './change-plan-cache';
 import type { Principal } from '../../http/principal';
 import { notFound } from '../../http/errors';
 import { advanceSince } from '../../../shared/domain/meters';
@@ -133,6 +134,11 @@ export async function lifeStats(em: EntityManager, who: Principal, partTypeId: s
 export async function changePlans(em: EntityManager, who: Principal, partTypeIds: string[]): Promise<Map<string, InstalledPart['plan']>> {
   const out = new Map<string, InstalledPart['plan']>();
   if (partTypeIds.length === 0) return out;
+  return cachedChangePlans(em, who.orgId, partTypeIds, () => computeChangePlans(em, who, partTypeIds));
+}
+
+async function computeChangePlans(em: EntityManager, who: Principal, partTypeIds: string[]): Promise<Map<string, InstalledPart['plan']>> {
+  const out = new Map<string, InstalledPart['plan']>();
   const parts = await em.find(PartType, { id: { $in: [...new Set(partTypeIds)] } });
   const all = await em.find(Machine, {});
   const target = await targetReliability(em, who);

@@ -18,6 +18,8 @@ import { useLockoutAuthorization } from '../api/get-lockout-authorization';
 import { useApplyLockout } from '../api/apply-lockout';
 import { useSignFlow } from './sign-dialog';
 import { useLinkedWorkOrder } from '../api/get-linked-work-order';
+import { TagOnlyReasonFields } from './tag-only-reason';
+import { tagJustificationText } from '../../../../shared/schemas/safety-tag-only';
 
 type FormIn = z.input<typeof applyLockoutFormSchema>;
 type FormOut = z.output<typeof applyLockoutFormSchema>;
@@ -56,6 +58,7 @@ export function LockoutApplyForm({
   });
   const { fields, replace } = useFieldArray({ control, name: 'points' });
   const procedureId = watch('procedureId');
+  const points = watch('points');
   const procedure = useProcedure(procedureId ?? '');
   const authorization = useLockoutAuthorization(procedureId ?? '');
   const content = procedureId ? procedure.data?.current?.content : undefined;
@@ -89,7 +92,13 @@ export function LockoutApplyForm({
               'reason',
               'workOrderId',
               'points',
-              ...values.points.flatMap((_, i) => [`points.${i}.lockNumber`, `points.${i}.sourceKey`, `points.${i}.tagNumber`]),
+              ...values.points.flatMap((_, i) => [
+                `points.${i}.lockNumber`,
+                `points.${i}.sourceKey`,
+                `points.${i}.tagNumber`,
+                `points.${i}.tagJustification`,
+                `points.${i}.tagMeasure`,
+              ]),
             ]),
           ),
         detail: (
@@ -98,6 +107,7 @@ export function LockoutApplyForm({
               <li key={p.sourceKey}>
                 {p.sourceKey}: {LOCK_DEVICE_LABELS[p.device].toLowerCase()} {p.lockNumber}
                 {p.tagNumber ? ` / tag ${p.tagNumber}` : ''}
+                {p.device === 'tag-only' ? ` — ${tagJustificationText(p.tagJustification, p.tagMeasure)}` : ''}
               </li>
             ))}
           </ul>
@@ -197,6 +207,7 @@ export function LockoutApplyForm({
                 {fields.map((f, i) => {
                   const s = content.sources.find((x) => x.key === f.sourceKey);
                   const err = formState.errors.points?.[i];
+                  const point = points?.[i];
                   return (
                     <fieldset key={f.id} className="grid gap-3 rounded border border-steel-300 bg-steel-50 p-3 md:grid-cols-[5rem_1fr_12rem_10rem_9rem]">
                       <legend className="sr-only">Isolation point {f.sourceKey}</legend>
@@ -227,6 +238,9 @@ export function LockoutApplyForm({
                         {...register(`points.${i}.lockNumber`)}
                       />
                       <TextField label={`Tag no. (optional)`} autoComplete="off" error={err?.tagNumber?.message} {...register(`points.${i}.tagNumber`)} />
+                      {point?.device === 'tag-only' ? (
+                        <TagOnlyReasonFields index={i} sourceKey={f.sourceKey} basis={point.tagJustification} register={register} errors={formState.errors} />
+                      ) : null}
                     </fieldset>
                   );
                 })}

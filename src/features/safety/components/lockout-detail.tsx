@@ -25,23 +25,13 @@ import { useLinkedWorkOrder } from '../api/get-linked-work-order';
 import { LockoutStateBadge } from './badges';
 import { useShopFormat } from '../../../lib/format';
 import { AbsentRemovalPanel } from './absent-removal-panel';
+import { Check, VerifyChecklist } from './check-row';
+import { TestingWindowBanner, TestingWindowPanel } from './testing-window-panel';
+import { OutsidePersonnelPanel } from './outside-personnel-panel';
+import { DeviceWithReason } from './tag-only-reason';
 
 const pointCol = createColumnHelper<LockPointRow>();
 type Me = { id: string; name: string; role: Role };
-
-function Check({ label, checked, onChange, hint }: { label: ReactNode; checked: boolean; onChange: (v: boolean) => void; hint?: string }) {
-  return (
-    <label
-      className={`flex min-h-touch cursor-pointer items-start gap-3 rounded border px-3 py-2 ${checked ? 'border-safe bg-safe-soft' : 'border-steel-300 bg-white'}`}
-    >
-      <input type="checkbox" className="mt-1 h-6 w-6 shrink-0" checked={checked} onChange={(e) => onChange(e.target.checked)} />
-      <span>
-        <span className="font-semibold">{label}</span>
-        {hint ? <span className="block text-sm text-steel-700">{hint}</span> : null}
-      </span>
-    </label>
-  );
-}
 
 export function LockoutDetailView({ lockout: l, me }: { lockout: LockoutDetail; me: Me }) {
   const f = useShopFormat();
@@ -114,7 +104,9 @@ export function LockoutDetailView({ lockout: l, me }: { lockout: LockoutDetail; 
       </div>
       <LiveNotice ref={messageRef} message={message} />
       {open ? (
-        l.state === 'verified' ? (
+        l.state === 'testing' || l.state === 'reapplied' ? (
+          <TestingWindowBanner lockout={l} />
+        ) : l.state === 'verified' ? (
           <Notice tone="danger" title="Locked out: do not operate" role="status">
             Zero energy was verified {f.dateTime(l.verifiedAt)}. Work may go ahead under these locks.
           </Notice>
@@ -142,7 +134,10 @@ export function LockoutDetailView({ lockout: l, me }: { lockout: LockoutDetail; 
             }),
             pointCol.accessor('sourceKind', { header: 'Energy' }),
             pointCol.accessor('isolationDevice', { header: 'Isolation device', cell: (c) => `${c.getValue()} — ${c.row.original.location}` }),
-            pointCol.accessor('device', { header: 'Device', cell: (c) => LOCK_DEVICE_LABELS[c.getValue() as LockPointRow['device']] }),
+            pointCol.accessor('device', {
+              header: 'Device',
+              cell: (c) => <DeviceWithReason point={c.row.original} label={LOCK_DEVICE_LABELS[c.getValue() as LockPointRow['device']]} />,
+            }),
             pointCol.accessor('lockNumber', {
               header: 'Lock / tag',
               cell: (c) => `${c.getValue()}${c.row.original.tagNumber ? ` / ${c.row.original.tagNumber}` : ''}`,
@@ -156,26 +151,12 @@ export function LockoutDetailView({ lockout: l, me }: { lockout: LockoutDetail; 
         />
       </Panel>
 
+      <TestingWindowPanel lockout={l} me={me} run={run} content={content} />
+
       {open && l.state === 'locked' && isPrimary ? (
         <Panel title="Verify isolation (1910.147(d)(6))">
           <div className="space-y-2">
-            {content?.steps.verify.length ? (
-              <ul className="list-disc pl-6 text-steel-800">
-                {content.steps.verify.map((s, i) => (
-                  <li key={i}>{s}</li>
-                ))}
-              </ul>
-            ) : null}
-            <Check label="I tried to start the machine with its normal controls; it did not start" checked={startTried} onChange={setStartTried} />
-            {active.map((p) => (
-              <Check
-                key={p.id}
-                label={`${p.sourceKey} · ${p.sourceKind}: zero energy`}
-                hint={content?.sources.find((s) => s.key === p.sourceKey)?.verifyMethod}
-                checked={tested.includes(p.id)}
-                onChange={(v) => setTested((t) => (v ? [...t, p.id] : t.filter((x) => x !== p.id)))}
-              />
-            ))}
+            <VerifyChecklist content={content} points={active} startTried={startTried} onStartTried={setStartTried} tested={tested} onTested={setTested} />
             <Button
               disabled={!startTried || tested.length !== active.length}
               onClick={() =>
@@ -206,7 +187,7 @@ export function LockoutDetailView({ lockout: l, me }: { lockout: LockoutDetail; 
           ) : (
             <p className="mb-3 text-steel-700">Nobody else has a personal lock on this lockout.</p>
           )}
-          {authorized && !isPrimary && !myMembership ? (
+          {authorized && !isPrimary && !myMembership && l.state !== 'testing' && l.state !== 'reapplied' ? (
             <div className="flex flex-wrap items-end gap-3">
               <TextField label="My personal lock number" value={lockNo} onChange={(e) => setLockNo(e.target.value)} autoComplete="off" />
               <Button
@@ -234,7 +215,7 @@ export function LockoutDetailView({ lockout: l, me }: { lockout: LockoutDetail; 
         </Panel>
       ) : null}
 
-      {open && isPrimary && !l.pendingHandoverToId ? (
+      {open && isPrimary && !l.pendingHandoverToId && l.state !== 'testing' && l.state !== 'reapplied' ? (
         <Panel title="Shift hand-over">
           <p className="mb-2 text-steel-700">Your locks stay on until the oncoming authorized employee has put theirs on and accepted (1910.147(f)(4)).</p>
           <div className="flex flex-wrap items-end gap-3">
@@ -304,7 +285,7 @@ export function LockoutDetailView({ lockout: l, me }: { lockout: LockoutDetail; 
         </Panel>
       ) : null}
 
-      {open && isPrimary && !l.pendingHandoverToId ? (
+      {open && isPrimary && !l.pendingHandoverToId && l.state !== 'testing' ? (
         <Panel title="Release the lockout (1910.147(e))">
           <div className="space-y-2">
             {content?.release.length ? (
@@ -367,6 +348,7 @@ export function LockoutDetailView({ lockout: l, me }: { lockout: LockoutDetail; 
           ))}
         </ol>
       </Panel>
+      <OutsidePersonnelPanel lockout={l} me={me} run={run} />
       <AbsentRemovalPanel lockout={l} me={me} run={run} />
       {dialog}
     </div>

@@ -6,7 +6,7 @@ import { EmptyState, Notice } from '../../../components/ui/notice';
 import { paths } from '../../../config/paths';
 import { LOCKOUT_STATE_LABELS, LOCKOUT_STATES, type ListLockoutsQuery, type LockoutRow } from '../../../../shared/schemas/safety-lockout';
 import { useLockouts } from '../api/get-lockouts';
-import { useSafetyMachines } from '../api/get-safety-machines';
+import { SafetyMachineFilter } from './machine-filter';
 import { LockoutStateBadge } from './badges';
 import { useShopFormat } from '../../../lib/format';
 
@@ -18,7 +18,6 @@ export function LockoutsTable() {
   const [page, setPage] = useState(1);
   const [state, setState] = useState<ListLockoutsQuery['state'] | ''>('');
   const [machineId, setMachineId] = useState('');
-  const machines = useSafetyMachines();
   const q = useLockouts({ page, pageSize: 25, state: state || undefined, machineId: machineId || undefined });
   return (
     <div className="space-y-3">
@@ -44,17 +43,7 @@ export function LockoutsTable() {
                 ))}
               </select>
             </label>
-            <label className="flex flex-col text-sm font-semibold">
-              Machine
-              <select className={filterClass} value={machineId} onChange={(e) => (setMachineId(e.target.value), setPage(1))}>
-                <option value="">All machines</option>
-                {(machines.data ?? []).map((m) => (
-                  <option key={m.id} value={m.id}>
-                    {m.code} · {m.name}
-                  </option>
-                ))}
-              </select>
-            </label>
+            <SafetyMachineFilter value={machineId} onChange={(id) => (setMachineId(id), setPage(1))} />
           </>
         }
         columns={[

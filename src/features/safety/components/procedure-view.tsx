@@ -10,6 +10,7 @@ import { can, type Role } from '../../../../shared/permissions';
 import { ENERGY_KIND_LABELS, PHASE_LABELS, PROCEDURE_PHASES, type ProcedureDetail, type VersionDetail } from '../../../../shared/schemas/safety-procedures';
 import { useApproveVersion } from '../api/approve-version';
 import { ProcedureChanges } from './procedure-changes';
+import { ProcedureSideBySide } from './procedure-side-by-side';
 import { FeedsLine, MissingSharedPoints } from './shared-points';
 import { useUploadPhoto } from '../api/upload-photo';
 import { useDeletePhoto } from '../api/delete-photo';
@@ -123,6 +124,33 @@ export function ProcedureView({ p, me, viewingVersion }: { p: ProcedureDetail; m
   const [photoError, setPhotoError] = useState<string | null>(null);
   const shown = p.current;
   const draft = p.draft;
+  const inForce = shown?.status === 'approved' ? shown : null;
+  const approveControls =
+    draft && manage ? (
+      <div className="space-y-3">
+        <label className="flex min-h-touch items-center gap-3">
+          <input type="checkbox" className="h-6 w-6" checked={retrain} onChange={(e) => setRetrain(e.target.checked)} />
+          <span>This change needs retraining (untick only for an editorial fix, e.g. a typo or a photo)</span>
+        </label>
+        <Button
+          onClick={() =>
+            sign(
+              'procedure-approved',
+              async (password) => {
+                await approve.mutateAsync({ id: p.id, version: draft.version, password, retrainingRequired: retrain });
+                setMessage({
+                  tone: 'safe',
+                  text: `Version ${draft.version} approved and in force.${retrain && p.versions.some((v) => v.status === 'approved') ? ' Everyone trained on the old version is marked for retraining.' : ''}`,
+                });
+              },
+              { onError: (err) => setMessage({ tone: 'danger', text: err instanceof ApiError ? err.message : 'Could not approve' }) },
+            )
+          }
+        >
+          Sign: approve version {draft.version}
+        </Button>
+      </div>
+    ) : null;
 
   return (
     <div className="space-y-4">
@@ -194,7 +222,6 @@ export function ProcedureView({ p, me, viewingVersion }: { p: ProcedureDetail; m
           <p className="mb-3 text-sm text-steel-700">
             Saved by {draft.authorName}, {f.dateTime(draft.createdAt)}. A draft is not in force until it is approved.
           </p>
-          {shown && shown.status === 'approved' ? <ProcedureChanges current={shown.content} currentVersion={shown.version} draft={draft.content} /> : null}
           <div className="mb-3">
             <MissingSharedPoints
               points={p.feedingPoints}
@@ -203,10 +230,16 @@ export function ProcedureView({ p, me, viewingVersion }: { p: ProcedureDetail; m
               editHref={drafts ? paths.safetyProcedureEdit.getHref(p.id) : undefined}
             />
           </div>
-          <details className="mb-4">
-            <summary className="flex min-h-touch cursor-pointer items-center font-semibold">Read the draft text</summary>
+          {inForce ? (
+            <>
+              <ProcedureChanges current={inForce.content} currentVersion={inForce.version} draft={draft.content} />
+              <ProcedureSideBySide current={inForce.content} currentVersion={inForce.version} draft={draft.content} draftVersion={draft.version}>
+                {approveControls}
+              </ProcedureSideBySide>
+            </>
+          ) : (
             <VersionText procedureId={p.id} v={draft} fedMachines={p.fedMachines} />
-          </details>
+          )}
           {manage ? (
             <div className="space-y-4">
               <fieldset className="space-y-2 rounded border border-steel-300 p-3">
@@ -271,27 +304,7 @@ export function ProcedureView({ p, me, viewingVersion }: { p: ProcedureDetail; m
                   </p>
                 ) : null}
               </fieldset>
-              <label className="flex min-h-touch items-center gap-3">
-                <input type="checkbox" className="h-6 w-6" checked={retrain} onChange={(e) => setRetrain(e.target.checked)} />
-                <span>This change needs retraining (untick only for an editorial fix, e.g. a typo or a photo)</span>
-              </label>
-              <Button
-                onClick={() =>
-                  sign(
-                    'procedure-approved',
-                    async (password) => {
-                      await approve.mutateAsync({ id: p.id, version: draft.version, password, retrainingRequired: retrain });
-                      setMessage({
-                        tone: 'safe',
-                        text: `Version ${draft.version} approved and in force.${retrain && p.versions.some((v) => v.status === 'approved') ? ' Everyone trained on the old version is marked for retraining.' : ''}`,
-                      });
-                    },
-                    { onError: (err) => setMessage({ tone: 'danger', text: err instanceof ApiError ? err.message : 'Could not approve' }) },
-                  )
-                }
-              >
-                Sign: approve version {draft.version}
-              </Button>
+              {inForce ? null : approveControls}
             </div>
           ) : null}
         </Panel>

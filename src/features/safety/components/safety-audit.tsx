@@ -25,7 +25,7 @@ import { exportHref, useSignOffs } from '../api/get-sign-offs';
 import { useChainVerification } from '../api/verify-chain';
 import { useCompliance } from '../api/get-compliance';
 import { useTimeline } from '../api/get-timeline';
-import { useSafetyMachines } from '../api/get-safety-machines';
+import { SafetyMachineFilter } from './machine-filter';
 import { useSafetyPeople } from '../api/get-safety-people';
 import { useCorrectSignOff } from '../api/correct-sign-off';
 import { useSignFlow } from './sign-dialog';
@@ -322,7 +322,6 @@ export function SignOffAudit({ me }: { me: { name: string; role: Role } }) {
   const [correcting, setCorrecting] = useState<SignOffRow | null>(null);
   const [message, setMessage] = useState<{ tone: 'safe' | 'danger'; text: string } | null>(null);
   const messageRef = useRef<HTMLDivElement>(null);
-  const machines = useSafetyMachines();
   const people = useSafetyPeople();
   const rangeError = from && to && to < from ? reversedRangeMessage(from) : null;
   const filters = {
@@ -437,17 +436,7 @@ export function SignOffAudit({ me }: { me: { name: string; role: Role } }) {
         toolbar={
           // Top-aligned so the error under "To" does not push the other filters out of line.
           <div className="flex flex-wrap items-start gap-3">
-            <label className="flex flex-col text-sm font-semibold">
-              Machine
-              <select className={filterClass} value={machineId} onChange={(e) => setFilter('machine', e.target.value)}>
-                <option value="">All machines</option>
-                {(machines.data ?? []).map((m) => (
-                  <option key={m.id} value={m.id}>
-                    {m.code}
-                  </option>
-                ))}
-              </select>
-            </label>
+            <SafetyMachineFilter value={machineId} onChange={(id) => setFilter('machine', id)} />
             <label className="flex flex-col text-sm font-semibold">
               Person
               <select className={filterClass} value={signerId} onChange={(e) => setFilter('person', e.target.value)}>

@@ -4,7 +4,7 @@ import { DataTable } from '../../../components/ui/data-table';
 import { Badge, EmptyState, Notice } from '../../../components/ui/notice';
 import { SAFETY_EVENT_KIND_LABELS, safetyEventActionLabel, type SafetyEventRow } from '../../../../shared/schemas/safety-audit';
 import { useSafetyEvents, type SafetyEventFilters } from '../api/get-safety-events';
-import { useSafetyMachines } from '../api/get-safety-machines';
+import { SafetyMachineFilter } from './machine-filter';
 import { useShopFormat } from '../../../lib/format';
 
 const col = createColumnHelper<SafetyEventRow>();
@@ -17,7 +17,6 @@ export function SafetyEventsTable() {
   const [page, setPage] = useState(1);
   const [kind, setKind] = useState<SafetyEventFilters['kind'] | ''>('');
   const [machineId, setMachineId] = useState('');
-  const machines = useSafetyMachines();
   const q = useSafetyEvents({ page, pageSize: PAGE_SIZE, kind: kind || undefined, machineId: machineId || undefined });
   return (
     <div className="space-y-3">
@@ -41,17 +40,7 @@ export function SafetyEventsTable() {
                 <option value="alarm">{SAFETY_EVENT_KIND_LABELS.alarm}</option>
               </select>
             </label>
-            <label className="flex flex-col text-sm font-semibold">
-              Machine
-              <select className={filterClass} value={machineId} onChange={(e) => (setMachineId(e.target.value), setPage(1))}>
-                <option value="">All machines</option>
-                {(machines.data ?? []).map((m) => (
-                  <option key={m.id} value={m.id}>
-                    {m.code} · {m.name}
-                  </option>
-                ))}
-              </select>
-            </label>
+            <SafetyMachineFilter value={machineId} onChange={(id) => (setMachineId(id), setPage(1))} />
           </>
         }
         columns={[

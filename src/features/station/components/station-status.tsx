@@ -28,6 +28,7 @@ export function LockoutBanner({ lockouts }: { lockouts: StationLockout[] }) {
               </>
             )}
             {l.state === 'verified' ? ' · isolation verified' : ''}
+            {l.state === 'testing' ? ' · energized for testing by the lock holder — stay clear' : ''}
           </li>
         ))}
       </ul>
