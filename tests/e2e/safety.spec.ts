@@ -53,7 +53,8 @@ test('a technician applies and verifies a lockout', async ({ page }) => {
   await expect(page.getByLabel('Energy-control procedure')).toHaveValue(/.+/);
   await page.getByLabel('Work to be done').fill('Replace the clamp pads');
   const lockFields = page.getByLabel(/^Lock or tag no\. on /);
-  await expect(lockFields).toHaveCount(5); // C2-E1 … C2-E5 in the demo procedure: tags that cannot be read as machine codes
+  // C2-E1 … C2-E5 in the demo procedure (tags that cannot be read as machine codes), and H1-E2, the hydraulic unit's shared point that feeds C2.
+  await expect(lockFields).toHaveCount(6);
   // Sign without lock numbers: the form says which are missing and nothing opens.
   await page.getByRole('button', { name: 'Sign: my locks are on' }).click();
   await expect(page.getByText('Enter the lock number').first()).toBeVisible();
@@ -77,7 +78,7 @@ test('a technician applies and verifies a lockout', async ({ page }) => {
   const verify = page.getByRole('button', { name: 'Sign: zero energy verified' });
   await expect(verify).toBeDisabled();
   await page.getByLabel('I tried to start the machine with its normal controls; it did not start').check();
-  for (const key of ['C2-E1', 'C2-E2', 'C2-E3', 'C2-E4', 'C2-E5']) await page.getByLabel(new RegExp(`^${key} · .*: zero energy`)).check();
+  for (const key of ['C2-E1', 'C2-E2', 'C2-E3', 'C2-E4', 'C2-E5', 'H1-E2']) await page.getByLabel(new RegExp(`^${key} · .*: zero energy`)).check();
   await verify.click();
   await signWith(page);
   await expect(page.getByText('Locked out: do not operate')).toBeVisible();
