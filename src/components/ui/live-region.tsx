@@ -68,3 +68,16 @@ export function focusSoon(get: () => HTMLElement | null | undefined) {
     }),
   );
 }
+
+/**
+ * Focuses an element once `pressed` has left the page: a button that goes away with its action
+ * (Start becomes Pause) only goes when the refetched data is rendered, which on a busy device can
+ * take longer than a frame or two. Gives up waiting after about two seconds and focuses anyway.
+ */
+export function focusWhenGone(pressed: Element | null, get: () => HTMLElement | null | undefined, framesLeft = 120) {
+  requestAnimationFrame(() => {
+    if (pressed?.isConnected && framesLeft > 0) return focusWhenGone(pressed, get, framesLeft - 1);
+    const el = get();
+    if (el && el.isConnected) el.focus();
+  });
+}

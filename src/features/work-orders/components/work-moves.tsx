@@ -6,7 +6,7 @@ import { Button } from '../../../components/ui/button';
 import { Notice } from '../../../components/ui/notice';
 import { ConfirmDialog } from '../../../components/ui/confirm-dialog';
 import { mainHeading, useModal } from '../../../components/ui/modal';
-import { announce, focusSoon } from '../../../components/ui/live-region';
+import { announce, focusWhenGone } from '../../../components/ui/live-region';
 import { ApiError } from '../../../lib/api-client';
 import { useMoveWorkOrder } from '../api/move-work-order';
 import { inputClass } from './format';
@@ -22,6 +22,7 @@ export function WorkMoves({ wo }: { wo: WorkOrderDetail }) {
   const [error, setError] = useState<string | null>(null);
   const go = async (m: WorkMove, why?: string) => {
     setError(null);
+    const pressed = document.activeElement;
     // Same rule as the server (3+ characters), said before a round trip and without the field path.
     if ((m === 'pause' || m === 'cancel') && (why ?? '').length < 3) {
       setError(
@@ -35,7 +36,7 @@ export function WorkMoves({ wo }: { wo: WorkOrderDetail }) {
       setReason('');
       announce(MOVE_DONE[m]);
       // The pressed button goes away with the move (Start becomes Pause): focus goes to the next move, or the heading when none is left.
-      focusSoon(() => group.current?.querySelector<HTMLElement>('button') ?? mainHeading());
+      focusWhenGone(pressed, () => group.current?.querySelector<HTMLElement>('button') ?? mainHeading());
     } catch (err) {
       setError(err instanceof ApiError && err.fields[0] ? err.fields[0].message : err instanceof Error ? err.message : 'Could not change the state');
     }
