@@ -2,24 +2,24 @@ import { test, expect, type Browser } from '@playwright/test';
 import { apiJson, DEMO_PASSWORD, signIn, signInDialog, snap } from './support';
 
 // OSHA 29 CFR 1910.147(e)(3) removal of an absent employee's lock, and the alarm for a counter that
-// rises during a verified lockout (1910.147(d)(6)), driven through the screens in Chromium.
+// rises in a counter import during a verified lockout (1910.147(d)(6)), driven through the screens in Chromium.
 test.describe.configure({ mode: 'serial' });
 
-/** The technician locks out C2 with every point of its approved procedure; returns the lockout id. */
-async function techLocksOutC2(browser: Browser, prefix: string, verify: boolean) {
+/** The technician locks out a demo machine with every point of its approved procedure; returns the lockout id. */
+async function techLocksOut(browser: Browser, code: string, prefix: string, verify: boolean) {
   const ctx = await browser.newContext();
   const page = await ctx.newPage();
   await signIn(page, 'tech@alder-row.example');
   const machines = (await apiJson(page.request, 'GET', '/safety/machines')) as { id: string; code: string; procedures: { id: string }[] }[];
-  const c2 = machines.find((m) => m.code === 'C2')!;
-  const proc = await apiJson(page.request, 'GET', `/safety/procedures/${c2.procedures[0].id}`);
+  const machine = machines.find((m) => m.code === code)!;
+  const proc = await apiJson(page.request, 'GET', `/safety/procedures/${machine.procedures[0].id}`);
   const points = proc.current.content.sources.map((s: { key: string }, i: number) => ({
     sourceKey: s.key,
     device: 'lock-and-tag',
     lockNumber: `${prefix}-${i + 1}`,
   }));
   const { id } = await apiJson(page.request, 'POST', '/safety/lockouts', {
-    procedureId: c2.procedures[0].id,
+    procedureId: machine.procedures[0].id,
     reason: 'Replace the clamp pads',
     points,
     password: DEMO_PASSWORD,
@@ -36,7 +36,7 @@ async function techLocksOutC2(browser: Browser, prefix: string, verify: boolean)
 }
 
 test('a supervisor removes an absent technician’s lock through the signed (e)(3) steps', async ({ page, browser }) => {
-  const tech = await techLocksOutC2(browser, `AB${Date.now() % 100000}`, false);
+  const tech = await techLocksOut(browser, 'C2', `AB${Date.now() % 100000}`, false);
   await tech.ctx.close();
 
   await signIn(page, 'admin@alder-row.example');
@@ -79,18 +79,28 @@ test('a supervisor removes an absent technician’s lock through the signed (e)(
   await snap(page, 'absent-lock-removal');
 });
 
-test('a counter that rises during a verified lockout raises the alarm mail and the station mark', async ({ page, browser }) => {
-  const tech = await techLocksOutC2(browser, `AL${Date.now() % 100000}`, true);
-  const station = await apiJson(tech.page.request, 'GET', '/stations/C2');
-  const meter = station.meters.find((m: { code: string }) => m.code === 'arc-starts');
-  const start = meter.latest?.value ?? 0;
-  await apiJson(tech.page.request, 'POST', `/meters/${meter.id}/readings`, { value: start });
-  await apiJson(tech.page.request, 'POST', `/meters/${meter.id}/readings`, { value: start + 25 });
+test('a counter import that advances C1’s arc starts during its verified lockout raises the alarm mail and the station mark', async ({ page, browser }) => {
+  const tech = await techLocksOut(browser, 'C1', `AL${Date.now() % 100000}`, true);
+  const lockout = await apiJson(tech.page.request, 'GET', `/safety/lockouts/${tech.id}`);
+  const torch = (await apiJson(tech.page.request, 'GET', '/stations/C1')).torches[0].startsMeter as { latest: { value: number } | null };
+  const start = torch.latest?.value ?? 0;
+  // Two readings of the counter file, both inside the verified lockout: the torch fired 25 times while locked out.
+  const from = Date.parse(lockout.verifiedAt);
+  const span = Date.now() - from;
+  const at = (part: number) => new Date(from + span * part).toISOString();
+  const csv = ['machine_code,meter_code,read_at,value,reset', `C1-T,arc-starts,${at(0.3)},${start},no`, `C1-T,arc-starts,${at(0.6)},${start + 25},no`].join(
+    '\n',
+  );
+  await tech.page.goto('/counter-import');
+  await tech.page.getByLabel('CSV file (at most 50 MB)').setInputFiles({ name: 'counters.csv', mimeType: 'text/csv', buffer: Buffer.from(csv) });
+  await tech.page.getByRole('button', { name: 'Check the file' }).click();
+  await tech.page.getByRole('button', { name: /^Import 2 readings/ }).click();
+  await expect(tech.page.getByText('2 readings added from 2 rows')).toBeVisible();
 
   await signIn(page, 'safety@alder-row.example');
   await page.getByRole('link', { name: 'Dev inbox' }).click();
   await page
-    .getByRole('button', { name: /ALARM C2(-\w+)?: counter rose while locked out/ })
+    .getByRole('button', { name: /ALARM C1(-\w+)?: counter rose while locked out/ })
     .first()
     .click();
   await expect(page.locator('article')).toContainText('Machine ran while locked out — or an energy source is missing from the procedure');
@@ -98,7 +108,7 @@ test('a counter that rises during a verified lockout raises the alarm mail and t
   await snap(page, 'lockout-alarm-mail');
 
   await page.setViewportSize({ width: 800, height: 1280 });
-  await page.goto('/station/C2');
+  await page.goto('/station/C1');
   const mark = page.getByTestId('lockout-alarm');
   await expect(mark).toContainText('Alarm: counter rose while locked out');
   await expect(mark).toContainText('rose by 25 starts');
