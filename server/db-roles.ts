@@ -52,5 +52,10 @@ export async function grantAppRole(knex: Knex, appRole: string): Promise<void> {
     // The server reads nothing of the migration history and must not rewrite it.
     `revoke insert, update, delete, truncate on "mikro_orm_migrations" from ${app}`,
   ];
-  for (const sql of statements) await knex.raw(sql);
+  // Instances starting together both grant, and PostgreSQL refuses a GRANT or REVOKE on a table
+  // another transaction is changing ("tuple concurrently updated"): they take turns on a lock.
+  await knex.transaction(async (trx) => {
+    await trx.raw(`select pg_advisory_xact_lock(hashtext('kerfbook:grant-app-role'))`);
+    for (const sql of statements) await trx.raw(sql);
+  });
 }

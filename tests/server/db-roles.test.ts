@@ -4,6 +4,7 @@
 import { describe, it, expect, beforeAll, afterAll } from 'vitest';
 import type pg from 'pg';
 import { makeTestApp } from '../setup/test-app';
+import { migrate } from '../../server/migrate';
 import { appRole, get, makeSafetyShop, ownerRole, PASSWORD, post, type SafetyShop } from './safety-helpers';
 
 let t: Awaited<ReturnType<typeof makeTestApp>>;
@@ -104,5 +105,14 @@ describe('database roles', () => {
     } finally {
       await owner.end();
     }
+  });
+});
+
+describe('instances starting together', () => {
+  it('each runs the migrations and grants at start-up without tripping over the other', async () => {
+    // Two servers started at once both grant the app role its rights; PostgreSQL refuses a GRANT or
+    // REVOKE on a table another transaction is changing, which once stopped one of them from starting.
+    const results = await Promise.allSettled(Array.from({ length: 6 }, () => migrate()));
+    expect(results.filter((r) => r.status === 'rejected').map((r) => String((r as PromiseRejectedResult).reason))).toEqual([]);
   });
 });
