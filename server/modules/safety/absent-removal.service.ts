@@ -9,6 +9,7 @@ import { User } from '../users/user.entity';
 import { AbsentLockRemoval, type IAbsentLockRemoval } from './absent-removal.entity';
 import { LockoutMember, LockoutPoint, LockoutSession } from './lockout.entity';
 import { appendSignOff } from './chain';
+import { takeOffDevices } from './devices';
 import { requireNoOutsideLocks } from './outside-locks';
 import { conflict, fieldError, forbidden, notFound } from '../../http/errors';
 import { recordActivity } from '../activity-log/activity-log.service';
@@ -23,7 +24,6 @@ import {
   type StartAbsentRemovalInput,
 } from '../../../shared/schemas/safety-absent-removal';
 import type { SignMeaning } from '../../../shared/schemas/safety-sign-offs';
-import { clock } from '../../../shared/clock';
 
 const MEANING: Record<AbsentRemovalStep, SignMeaning> = {
   'absence-verified': 'absence-verified',
@@ -134,11 +134,7 @@ export async function signAbsentStep(em: EntityManager, who: Principal, removalI
             `Personal locks are still on this group lockout: ${others.map((m) => `${m.user.getEntity().name} (${m.lockNumber})`).join(', ')}. They remove their own locks first.`,
           );
       }
-      const now = clock.now();
-      for (const p of points) {
-        p.removedAt = now;
-        p.removedBy = tx.getReference(User, who.userId, { wrapped: true });
-      }
+      const now = takeOffDevices(tx, points, who.userId);
       if (member) member.leftAt = now;
       details.removed = [...points.map((p) => ({ key: p.sourceKey, lock: p.lockNumber })), ...(member ? [{ key: 'personal', lock: member.lockNumber }] : [])];
       const remaining = await tx.count(LockoutPoint, { session: s.id, removedAt: null, id: { $nin: points.map((p) => p.id) } });

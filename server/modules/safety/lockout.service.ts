@@ -6,6 +6,7 @@ import { markLockoutApplied, markLockoutReleased } from '../work-orders/work-ord
 import { EnergyProcedure, ProcedureVersion } from './procedure.entity';
 import { LockoutMember, LockoutPoint, LockoutSession, type ILockoutPoint, type ILockoutSession } from './lockout.entity';
 import { appendSignOff } from './chain';
+import { takeOffDevices } from './devices';
 import { lockoutAuthorization, requireAuthorized } from './authorization';
 import { requireInformedOfRemoval } from './absent-removal.service';
 import { refuseDuringTestWindow } from './testing-window.guards';
@@ -394,11 +395,7 @@ export async function releaseLockout(em: EntityManager, who: Principal, id: stri
     }
     await requireNoOutsideLocks(tx, s.id);
     if (s.pendingHandoverTo) throw conflict('A hand-over is waiting to be accepted; it must be accepted before the lockout can be released');
-    const now = clock.now();
-    for (const p of points) {
-      p.removedAt = now;
-      p.removedBy = tx.getReference(User, who.userId, { wrapped: true });
-    }
+    const now = takeOffDevices(tx, points, who.userId);
     s.state = 'released';
     const machine = s.machine.getEntity();
     const signOff = await appendSignOff(tx, who, {

@@ -4,10 +4,10 @@
  * the devices, verify isolation again. Work resumes only after the third.
  */
 import type { EntityManager } from '@mikro-orm/postgresql';
-import { User } from '../users/user.entity';
 import { LockoutMember, LockoutPoint, LockoutSession, type ILockoutSession } from './lockout.entity';
 import { LockoutTestWindow } from './testing-window.entity';
 import { activePoints, checkIsolationTests, locksInUse } from './lockout.service';
+import { takeOffDevices } from './devices';
 import { appendSignOff } from './chain';
 import { conflict, fieldError, forbidden, notFound } from '../../http/errors';
 import { recordActivity } from '../activity-log/activity-log.service';
@@ -82,11 +82,7 @@ export async function openTestWindow(em: EntityManager, who: Principal, id: stri
         );
       return p;
     });
-    const now = clock.now();
-    for (const p of removing) {
-      p.removedAt = now;
-      p.removedBy = tx.getReference(User, who.userId, { wrapped: true });
-    }
+    takeOffDevices(tx, removing, who.userId);
     s.state = 'testing';
     const machine = s.machine.getEntity();
     const removed = removing.map((p) => ({ pointId: p.id, sourceKey: p.sourceKey, lockNumber: p.lockNumber }));
