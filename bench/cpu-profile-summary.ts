@@ -1,4 +1,5 @@
-// Summarises a V8 .cpuprofile: self time per function and per package/file, heaviest first.
+// Summarises a V8 .cpuprofile: self time per function and per package/file, heaviest first, then
+// inclusive time (the function and everything it called) per function, idle excluded.
 //   npx tsx bench/cpu-profile-summary.ts <file.cpuprofile> [top=30]
 import { readFileSync } from 'node:fs';
 
@@ -41,6 +42,28 @@ const print = (title: string, m: Map<string, number>) => {
   for (const [k, us] of [...m].sort((a, b) => b[1] - a[1]).slice(0, top))
     console.log(`${((100 * us) / total).toFixed(1).padStart(5)} %  ${(us / 1000).toFixed(0).padStart(7)} ms  ${k}`);
 };
-console.log(`total sampled ${(total / 1000).toFixed(0)} ms`);
+// Inclusive: each sample counts once for every distinct function on its stack.
+const parent = new Map<number, number>();
+for (const n of profile.nodes) for (const c of n.children ?? []) parent.set(c, n.id);
+const label = (n: Node) => `${n.callFrame.functionName || '(anonymous)'}  ${where(n.callFrame.url)}:${n.callFrame.lineNumber + 1}`;
+const inclusive = new Map<string, number>();
+let busy = 0;
+profile.samples.forEach((id, i) => {
+  const us = profile.timeDeltas[i] ?? 0;
+  if (byId.get(id)?.callFrame.functionName === '(idle)') return;
+  busy += us;
+  const seen = new Set<string>();
+  for (let at: number | undefined = id; at !== undefined; at = parent.get(at)) {
+    const n = byId.get(at)!;
+    if (n.callFrame.functionName === '(root)') continue;
+    seen.add(label(n));
+  }
+  for (const k of seen) inclusive.set(k, (inclusive.get(k) ?? 0) + us);
+});
+
+console.log(`total sampled ${(total / 1000).toFixed(0)} ms, not idle ${(busy / 1000).toFixed(0)} ms`);
 print('self time by package / file', perPlace);
 print('self time by function', perFunction);
+console.log(`\ninclusive time by function (share of the not-idle time)`);
+for (const [k, us] of [...inclusive].sort((a, b) => b[1] - a[1]).slice(0, top))
+  console.log(`${((100 * us) / busy).toFixed(1).padStart(5)} %  ${(us / 1000).toFixed(0).padStart(7)} ms  ${k}`);
