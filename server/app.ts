@@ -1,18 +1,17 @@
 import '../shared/luxon-clock';
 import express, { type Express } from 'express';
 import helmet from 'helmet';
-import { pinoHttp } from 'pino-http';
 import pg from 'pg';
 import { existsSync } from 'node:fs';
 import path from 'node:path';
-import { RequestContext, type MikroORM } from '@mikro-orm/postgresql';
+import type { MikroORM } from '@mikro-orm/postgresql';
 import type { Config } from './config';
 import { createApiRouter, type Access, type ApiRouter } from './http/route';
-import { createSessionMiddleware, csrfProtection, destroy } from './http/session';
+import { createSessionMiddleware, csrfProtection, destroy, principalReadWithSession } from './http/session';
 import { errorHandler } from './http/error-handler';
 import { requestErrors } from './http/request-errors';
 import { notFound } from './http/errors';
-import { loadPrincipal } from './modules/auth/auth.service';
+import { loadPrincipal, readSessionWithPrincipal } from './modules/auth/auth.service';
 import { registerAuthRoutes } from './modules/auth/auth.routes';
 import { registerUserRoutes } from './modules/users/users.routes';
 import { registerHealthRoutes } from './modules/health/health.routes';
@@ -39,7 +38,9 @@ import { planEvaluator } from './jobs/due-engine';
 import type { FakeSmtp } from './mail/fake-smtp';
 import { logger } from './logger';
 import { keepPoolAlive } from './db-faults';
+import { setRequestShop, withRequestContext } from './db';
 import { serveClient } from './http/client-assets';
+import { requestLogging } from './http/request-logging';
 
 export type AppDeps = { orm: MikroORM; config: Config; smtp?: FakeSmtp | null };
 export type AppHandle = { app: Express; api: ApiRouter; routeAccess: Map<string, Access>; close: () => Promise<void> };
@@ -63,12 +64,12 @@ export function createApp({ orm, config, smtp = null }: AppDeps): AppHandle {
       },
     }),
   );
-  app.use(pinoHttp({ logger, autoLogging: { ignore: (req) => !req.url?.startsWith('/api') } }));
+  app.use(requestLogging(logger));
   app.use(express.json({ limit: '1mb' }));
-  app.use((_req, _res, next) => RequestContext.create(orm.em, next));
+  app.use((_req, _res, next) => withRequestContext(orm, next));
 
   const api = createApiRouter();
-  api.use(createSessionMiddleware(config, pool));
+  api.use(createSessionMiddleware(config, pool, readSessionWithPrincipal));
   api.use(async (req, _res, next) => {
     const s = req.session;
     if (!s?.userId || !s.orgId) return next();
@@ -76,10 +77,12 @@ export function createApp({ orm, config, smtp = null }: AppDeps): AppHandle {
       await destroy(req); // absolute timeout: sign in again after a shift
       return next();
     }
-    const principal = await loadPrincipal(pool, s.userId, s.orgId);
+    // Read with the session in the same query; asked separately only when it was not (a session of other ids).
+    const read = principalReadWithSession(req);
+    const principal = read === undefined ? await loadPrincipal(pool, s.userId, s.orgId) : read;
     if (principal) {
       req.principal = principal;
-      RequestContext.getEntityManager()!.setFilterParams('org', { orgId: principal.orgId });
+      setRequestShop(principal.orgId);
     }
     next();
   });

@@ -1,4 +1,5 @@
 import '../shared/luxon-clock';
+import { AsyncLocalStorage } from 'node:async_hooks';
 import { MikroORM, RequestContext, type EntityManager, type Knex } from '@mikro-orm/postgresql';
 import { createOrmConfig } from './mikro-orm.config';
 
@@ -15,6 +16,59 @@ export async function closeORM(): Promise<void> {
   const orm = await cached;
   cached = null;
   await orm.close(true);
+}
+
+/**
+ * The forks of one request, made on first use: a request that never touches the ORM (the session,
+ * /api/me, static files) does not pay for an entity manager. The shop filter set before the fork
+ * exists is applied when it is made.
+ */
+class LazyForks extends Map<string, EntityManager> {
+  private orgId: string | undefined;
+  private forking = false;
+
+  constructor(private readonly root: EntityManager) {
+    super();
+  }
+
+  override get(name: string): EntityManager | undefined {
+    let em = super.get(name);
+    if (!em && name === this.root.name && !this.forking) {
+      // fork() asks the root for its context, which is this map: answer "none" meanwhile, as
+      // before RequestContext.create entered its context.
+      this.forking = true;
+      try {
+        em = this.root.fork({ useContext: true });
+      } finally {
+        this.forking = false;
+      }
+      super.set(name, em); // before the filter: setFilterParams looks the fork up in this map
+      if (this.orgId) em.setFilterParams('org', { orgId: this.orgId });
+    }
+    return em;
+  }
+
+  setShop(orgId: string): void {
+    this.orgId = orgId;
+    super.get(this.root.name)?.setFilterParams('org', { orgId });
+  }
+}
+
+// RequestContext.create forks at once and offers no hook; its store is private in the typings.
+// Checked here so that an ORM upgrade which moves it fails at start, not on a request.
+const contextStorage = (RequestContext as unknown as { storage?: AsyncLocalStorage<RequestContext> }).storage;
+if (!(contextStorage instanceof AsyncLocalStorage)) throw new Error('MikroORM RequestContext.storage not found: update withRequestContext()');
+
+/** Runs `next` in a request context whose entity manager is forked from the ORM's on first use. */
+export function withRequestContext(orm: MikroORM, next: () => void): void {
+  contextStorage!.run(new RequestContext(new LazyForks(orm.em as EntityManager)), next);
+}
+
+/** Scopes the request's entity manager to the signed-in shop (the `org` filter). */
+export function setRequestShop(orgId: string): void {
+  const forks = RequestContext.currentRequestContext()?.map;
+  if (!(forks instanceof LazyForks)) throw new Error('No request context: setRequestShop() called outside a request');
+  forks.setShop(orgId);
 }
 
 /** The request's entity manager (RequestContext), carrying the shop filter. */

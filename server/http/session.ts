@@ -2,9 +2,10 @@ import session from 'express-session';
 import connectPgSimple from 'connect-pg-simple';
 import pg from 'pg';
 import { randomBytes, timingSafeEqual } from 'node:crypto';
-import type { RequestHandler } from 'express';
+import type { Request, RequestHandler } from 'express';
 import type { Config } from '../config';
 import { csrfInvalid } from './errors';
+import type { Principal } from './principal';
 
 export const SESSION_COOKIE = 'kerfbook.sid';
 
@@ -18,6 +19,30 @@ export const SESSION_TOUCH_INTERVAL_MS = 60_000;
 const PgStore = connectPgSimple(session);
 
 /**
+ * Reads a live session row (`expire` not passed) and, in the same query, the principal of the
+ * ids inside it: every signed-in request then costs one query for both. `principal` is null when
+ * the session names no one or the membership is no longer active. Given by the auth module
+ * (this layer sits below it).
+ */
+export type SessionReader = (pool: pg.Pool, sid: string, nowSeconds: number) => Promise<{ sess: session.SessionData; principal: Principal | null } | null>;
+
+/** What the store read with the session: whose principal it is, so a later change of ids is noticed. */
+type LoadedPrincipal = { userId: string | undefined; orgId: string | undefined; principal: Principal | null };
+const LOADED = Symbol('principal read with the session');
+type WithLoaded = { [LOADED]?: LoadedPrincipal };
+
+/**
+ * The principal read together with this request's session, when it belongs to the ids the session
+ * holds now; undefined when it was not read (no reader, a new session, other ids): ask for it then.
+ */
+export function principalReadWithSession(req: Request): Principal | null | undefined {
+  const loaded = (req as WithLoaded)[LOADED];
+  const s = req.session;
+  if (!loaded || !s || loaded.userId !== s.userId || loaded.orgId !== s.orgId) return undefined;
+  return loaded.principal;
+}
+
+/**
  * connect-pg-simple, writing a session's expiry at most once per interval: skipped outright when
  * this instance wrote the row within the interval, and otherwise written only when the stored
  * expiry is an interval or more behind (another instance may just have written it).
@@ -27,17 +52,48 @@ export class ThrottledPgStore extends PgStore {
   private readonly table: string;
   private readonly pg: pg.Pool;
   private readonly sweep: NodeJS.Timeout;
+  private readonly prune: NodeJS.Timeout | null;
+  private readonly readSession: SessionReader | undefined;
 
-  constructor(options: { pool: pg.Pool; tableName: string; pruneSessionInterval: number | false }) {
-    super({ ...options, createTableIfMissing: false });
+  constructor(options: { pool: pg.Pool; tableName: string; pruneSessionInterval: number | false; readSession?: SessionReader }) {
+    // connect-pg-simple starts pruning only after its own get/set/destroy/touch; `get` and `touch`
+    // are ours, so an instance that only serves signed-in requests would never prune: prune here.
+    super({ pool: options.pool, tableName: options.tableName, pruneSessionInterval: false, createTableIfMissing: false });
     this.pg = options.pool;
     this.table = `"${options.tableName}"`;
+    this.readSession = options.readSession;
+    this.prune = options.pruneSessionInterval ? setInterval(() => this.pruneSessions(), options.pruneSessionInterval * 1000) : null;
+    this.prune?.unref();
     // Forget what is older than the interval, so the map holds only recently active sessions.
     this.sweep = setInterval(() => {
       const cutoff = Date.now() - SESSION_TOUCH_INTERVAL_MS;
       for (const [sid, at] of this.written) if (at <= cutoff) this.written.delete(sid);
     }, SESSION_TOUCH_INTERVAL_MS);
     this.sweep.unref();
+  }
+
+  override get(sid: string, fn: (err: unknown, sess?: session.SessionData | null) => void): void {
+    if (!this.readSession) return super.get(sid, fn);
+    // connect-pg-simple compares with the time rounded up to the second; so does this.
+    this.readSession(this.pg, sid, Math.ceil(Date.now() / 1000)).then(
+      (row) => {
+        if (!row) return fn(null, null);
+        const sess = row.sess as session.SessionData & WithLoaded;
+        sess[LOADED] = { userId: sess.userId, orgId: sess.orgId, principal: row.principal };
+        fn(null, sess);
+      },
+      (err: unknown) => fn(err),
+    );
+  }
+
+  /** Moves what `get` read beside the session onto the request (a symbol: never stored, never hashed). */
+  override createSession(req: Request, sess: session.SessionData): session.Session & session.SessionData {
+    const withLoaded = sess as session.SessionData & WithLoaded;
+    const loaded = withLoaded[LOADED];
+    delete withLoaded[LOADED];
+    const created = super.createSession(req, sess);
+    if (loaded) (req as WithLoaded)[LOADED] = loaded;
+    return created;
   }
 
   override set(sid: string, sess: session.SessionData, fn?: (err?: unknown) => void): void {
@@ -73,15 +129,16 @@ export class ThrottledPgStore extends PgStore {
 
   override close(): void {
     clearInterval(this.sweep);
+    if (this.prune) clearInterval(this.prune);
     super.close();
   }
 }
 
 /** Sessions live in PostgreSQL so several instances behind a load balancer share them. */
-export function createSessionMiddleware(config: Config, pool: pg.Pool): RequestHandler {
+export function createSessionMiddleware(config: Config, pool: pg.Pool, readSession?: SessionReader): RequestHandler {
   return session({
     name: SESSION_COOKIE,
-    store: new ThrottledPgStore({ pool, tableName: 'session', pruneSessionInterval: 15 * 60 }),
+    store: new ThrottledPgStore({ pool, tableName: 'session', pruneSessionInterval: 15 * 60, readSession }),
     secret: config.SESSION_SECRET,
     resave: false,
     saveUninitialized: false,

@@ -1,5 +1,6 @@
 import type { EntityManager } from '@mikro-orm/postgresql';
 import type pg from 'pg';
+import type { SessionData } from 'express-session';
 import { Membership, User, UserToken } from '../users/user.entity';
 import { Organization } from '../organizations/organization.entity';
 import { hashPassword, hashToken, newToken, verifyPassword } from './passwords';
@@ -18,20 +19,65 @@ export const RESET_TTL_MS = 60 * 60_000;
 
 type PrincipalRow = { role: Principal['role']; name: string; email: string; org_name: string; time_zone: string };
 
+const principalOf = (userId: string, orgId: string, r: PrincipalRow): Principal => ({
+  userId,
+  orgId,
+  role: r.role,
+  name: r.name,
+  email: r.email,
+  orgName: r.org_name,
+  timeZone: r.time_zone,
+  locale: shopLocale(),
+});
+
+// The two queries below are named (prepared once per connection): planning these joins cost
+// PostgreSQL ten times their execution, on every request.
+
 /**
- * The active membership that a session's user acts through, or null. Every signed-in request
- * asks this, so it is one query on the (user, organization) unique index, joined to the two
- * primary keys, sent through the session pool without the ORM.
+ * The active membership that a session's user acts through, or null. Asked when the session was
+ * not read with its principal (see readSessionWithPrincipal): one query on the (user, organization)
+ * unique index, joined to the two primary keys, sent through the session pool without the ORM.
  */
 export async function loadPrincipal(pool: pg.Pool, userId: string, orgId: string): Promise<Principal | null> {
-  const { rows } = await pool.query<PrincipalRow>(
-    `select m.role, u.name, u.email, o.name as org_name, o.time_zone
-       from membership m join app_user u on u.id = m.user_id join organization o on o.id = m.organization_id
-      where m.user_id = $1 and m.organization_id = $2 and m.active`,
-    [userId, orgId],
-  );
+  const { rows } = await pool.query<PrincipalRow>({
+    name: 'principal',
+    text: `select m.role, u.name, u.email, o.name as org_name, o.time_zone
+             from membership m join app_user u on u.id = m.user_id join organization o on o.id = m.organization_id
+            where m.user_id = $1 and m.organization_id = $2 and m.active`,
+    values: [userId, orgId],
+  });
+  return rows[0] ? principalOf(userId, orgId, rows[0]) : null;
+}
+
+type SessionRow = { sess: SessionData } & { [K in keyof PrincipalRow]: PrincipalRow[K] | null };
+
+/**
+ * A live session row and the principal of the ids inside it, in one query: the session's primary
+ * key, then the same (user, organization) unique index and primary keys as loadPrincipal. Every
+ * signed-in request reads its session through this (the session store's `get`). `expire` is
+ * compared as connect-pg-simple does; the principal is null for a session of no one (before sign-in)
+ * and for a membership no longer active.
+ */
+export async function readSessionWithPrincipal(
+  pool: pg.Pool,
+  sid: string,
+  nowSeconds: number,
+): Promise<{ sess: SessionData; principal: Principal | null } | null> {
+  const { rows } = await pool.query<SessionRow>({
+    name: 'session-with-principal',
+    text: `select s.sess, m.role, u.name, u.email, o.name as org_name, o.time_zone
+             from session s
+             left join membership m on m.user_id = (s.sess->>'userId')::uuid and m.organization_id = (s.sess->>'orgId')::uuid and m.active
+             left join app_user u on u.id = m.user_id
+             left join organization o on o.id = m.organization_id
+            where s.sid = $1 and s.expire >= to_timestamp($2)`,
+    values: [sid, nowSeconds],
+  });
   const r = rows[0];
-  return r ? { userId, orgId, role: r.role, name: r.name, email: r.email, orgName: r.org_name, timeZone: r.time_zone, locale: shopLocale() } : null;
+  if (!r) return null;
+  const { userId, orgId } = r.sess;
+  const principal = r.role && userId && orgId ? principalOf(userId, orgId, r as PrincipalRow & { sess: SessionData }) : null;
+  return { sess: r.sess, principal };
 }
 
 export async function authenticate(em: EntityManager, email: string, password: string): Promise<Principal> {
