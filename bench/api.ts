@@ -92,8 +92,8 @@ async function findPostmaster(): Promise<void> {
   const client = new pg.Client(url);
   await client.connect();
   const { rows } = await client.query<{ pid: number }>('select pg_backend_pid() as pid');
+  postmaster = Number(readFileSync(`/proc/${rows[0].pid}/stat`, 'utf8').split(') ')[1].split(' ')[1]); // while the backend lives
   await client.end();
-  postmaster = Number(readFileSync(`/proc/${rows[0].pid}/stat`, 'utf8').split(') ')[1].split(' ')[1]);
 }
 const cpuNow = (serverPid: number) => ({ server: cpuMsOf(serverPid), db: childrenOf(postmaster).reduce((a, pid) => a + cpuMsOf(pid), 0) });
 

@@ -1,5 +1,6 @@
 import '../shared/luxon-clock';
 import { AsyncLocalStorage } from 'node:async_hooks';
+import { createHash } from 'node:crypto';
 import { MikroORM, RequestContext, type EntityManager, type Knex } from '@mikro-orm/postgresql';
 import { createOrmConfig } from './mikro-orm.config';
 
@@ -87,6 +88,25 @@ export function requestEm(): EntityManager {
 export async function executeBound<T = Record<string, unknown>>(em: EntityManager, sql: string, params: unknown[] = []): Promise<T[]> {
   const knex = (em.getTransactionContext<Knex.Transaction>() ?? em.getConnection().getKnex()) as Knex;
   const result = (await knex.raw(sql, params as Knex.RawBinding[])) as { rows: T[] };
+  return result.rows;
+}
+
+const statementNames = new Map<string, string>();
+
+/**
+ * executeBound as a named prepared statement: PostgreSQL parses and plans it once per connection
+ * (then reuses a generic plan when it costs no more), where planning a join of several tables can
+ * cost more than running it. For hot read queries whose text takes few shapes; each distinct text
+ * gets its own name.
+ */
+export async function executePrepared<T = Record<string, unknown>>(em: EntityManager, sql: string, params: unknown[] = []): Promise<T[]> {
+  let name = statementNames.get(sql);
+  if (!name) {
+    name = `kb_${createHash('sha1').update(sql).digest('hex').slice(0, 20)}`;
+    statementNames.set(sql, name);
+  }
+  const knex = (em.getTransactionContext<Knex.Transaction>() ?? em.getConnection().getKnex()) as Knex;
+  const result = (await knex.raw(sql, params as Knex.RawBinding[]).options({ name })) as { rows: T[] };
   return result.rows;
 }
 

@@ -22,6 +22,12 @@ export const WorkOrder = defineEntity({
     { properties: ['assignee', 'status'] },
     { properties: ['machine'] },
     { properties: ['stationRecordId'] },
+    // The work-order list's default order (due first, then newest number): its first page is read
+    // from the index without sorting the shop's whole history; its count from the index alone.
+    {
+      name: 'work_order_list_due_index',
+      expression: 'create index "work_order_list_due_index" on "work_order" ("organization_id", "due_at", "number" desc)',
+    },
     // The due engine's notice step reads only raised work nobody has been told about yet.
     {
       name: 'work_order_unnotified_index',

@@ -17,6 +17,7 @@ import {
 } from '../../../shared/schemas/work-orders';
 import type { Page } from '../../../shared/schemas/paging';
 import { clock } from '../../../shared/clock';
+import { executePrepared } from '../../db';
 
 /** States in which work can still be done, re-planned or signed off. */
 export const OPEN: WorkState[] = ['open', 'in-progress', 'on-hold'];
@@ -105,17 +106,24 @@ export async function listWorkOrders(em: EntityManager, who: Principal, q: ListW
     where += ` and (w.title ilike ? or m.code ilike ? or m.name ilike ? or w.number::text = ?)`;
     params.push(`%${q.q}%`, `%${q.q}%`, `%${q.q}%`, q.q.replace(/^wo\s*/i, ''));
   }
-  const rows: Row[] = await em.execute(
+  const order = `${SORT_SQL[q.sort]} ${q.dir === 'desc' ? 'desc' : 'asc'} nulls last, w.number desc`;
+  // The page's ids first (sorting only the columns the order needs), then the columns of those
+  // rows alone; the total by itself, joined to the machine only when a filter asks about it (every
+  // work order has one). Before, the whole filtered history was joined, counted with a window and
+  // sorted with all its columns to return one page.
+  const total = `select count(*) from work_order w${/\bm\./.test(where) ? ' join machine m on m.id = w.machine_id' : ''} where ${where}`;
+  const rows: Row[] = await executePrepared(
+    em,
     `select w.id, w.number, w.title, w.kind, w.status, w.due_at, ${dueStateSql} as due_state, w.overdue, m.id as machine_id, m.code, m.name as machine_name,
             w.plan_id, p.title as plan_title, w.assignee_id, u.name as assignee_name, w.responsible_role, w.requires_lockout, w.safety_critical,
-            w.created_at, count(*) over () as total
-       from work_order w join machine m on m.id = w.machine_id
+            w.created_at, (${total}) as total
+       from (select w.id from work_order w join machine m on m.id = w.machine_id where ${where} order by ${order} limit ? offset ?) page
+       join work_order w on w.id = page.id
+       join machine m on m.id = w.machine_id
        left join maintenance_plan p on p.id = w.plan_id
        left join app_user u on u.id = w.assignee_id
-      where ${where}
-      order by ${SORT_SQL[q.sort]} ${q.dir === 'desc' ? 'desc' : 'asc'} nulls last, w.number desc
-      limit ? offset ?`,
-    [...params, q.pageSize, (q.page - 1) * q.pageSize],
+      order by ${order}`,
+    [...params, ...params, q.pageSize, (q.page - 1) * q.pageSize],
   );
   return {
     rows: rows.map((r) => ({
