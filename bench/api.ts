@@ -95,7 +95,9 @@ async function findPostmaster(): Promise<void> {
   postmaster = Number(readFileSync(`/proc/${rows[0].pid}/stat`, 'utf8').split(') ')[1].split(' ')[1]); // while the backend lives
   await client.end();
 }
-const cpuNow = (serverPid: number) => ({ server: cpuMsOf(serverPid), db: childrenOf(postmaster).reduce((a, pid) => a + cpuMsOf(pid), 0) });
+const cpuNow = (serverPid: number) => ({ server: cpuMsOf(serverPid), db: new Map(childrenOf(postmaster).map((pid) => [pid, cpuMsOf(pid)])) });
+/** Database CPU spent between two readings: backends that started meanwhile count whole, ones that ended are lost. */
+const dbSpent = (before: Map<number, number>, after: Map<number, number>) => [...after].reduce((a, [pid, ms]) => a + ms - (before.get(pid) ?? 0), 0);
 
 async function load(url: string, cookie: string, duration: number): Promise<Figures> {
   const r = await autocannon({ url, connections, duration, timeout: 30, headers: cookie ? { cookie } : {} });
@@ -110,7 +112,7 @@ async function measure(url: string, serverPid: number, cookie = ''): Promise<Fig
   const f = await load(url, cookie, seconds);
   const after = cpuNow(serverPid);
   const per = (ms: number) => ((ms * 1000) / Math.max(1, f.requests)).toFixed(0);
-  return { ...f, cpu: `cpu/req: server ${per(after.server - before.server)} µs, db ${per(after.db - before.db)} µs` };
+  return { ...f, cpu: `cpu/req: server ${per(after.server - before.server)} µs, db ${per(dbSpent(before.db, after.db))} µs` };
 }
 
 async function main() {
