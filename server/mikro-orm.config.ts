@@ -25,7 +25,7 @@ export function createOrmConfig(databaseUrl = process.env.DATABASE_URL ?? `postg
       emit: 'ts',
     },
     // connect-pg-simple owns this table; the schema diff must not drop it.
-    schemaGenerator: { skipTables: ['session'] },
+    schemaGenerator: { skipTables: ['session', 'shop_change'] },
   });
 }
 

@@ -58,6 +58,10 @@ describe('database roles', () => {
     expect(triggers.rows).toEqual([
       { tgname: 'safety_sign_off_no_change', tgenabled: 'O' },
       { tgname: 'safety_sign_off_no_truncate', tgenabled: 'O' },
+      // The shop's revision (tests/server/shop-revision.test.ts).
+      { tgname: 'shop_change_delete', tgenabled: 'O' },
+      { tgname: 'shop_change_insert', tgenabled: 'O' },
+      { tgname: 'shop_change_update', tgenabled: 'O' },
     ]);
   });
 

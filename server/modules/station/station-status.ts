@@ -3,6 +3,9 @@ import type { StationAlarm, StationDueRow, StationLockout } from '../../../share
 import { clock } from '../../../shared/clock';
 import { fedLockouts } from '../safety/fed-lockouts';
 
+/** Alarms stay on the station page for a week after they are raised (and while their lockout is open). */
+export const ALARM_SHOWN_MS = 7 * 86_400_000;
+
 /**
  * What an operator must know before touching the machine: open lockouts on it, its
  * components or the machines it is part of, and open work orders on it or its components. Read-only raw SQL on the safety and work-order tables so
@@ -45,7 +48,7 @@ export async function stationStatus(
       where e.organization_id = ? and e.kind = 'alarm' and e.machine_id = any(?::uuid[])
         and (e.at > ? or (l.id is not null and l.state <> 'released'))
       order by e.at desc limit 10`,
-    [orgId, lockable, new Date(now - 7 * 86_400_000)],
+    [orgId, lockable, new Date(now - ALARM_SHOWN_MS)],
   );
   return {
     alarms: alarms.map((a) => ({ id: a.id, machineCode: a.code, at: new Date(a.at).toISOString(), reason: a.reason, lockoutId: a.subject_id })),

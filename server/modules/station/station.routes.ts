@@ -6,12 +6,14 @@ import { badRequest } from '../../http/errors';
 import { singleFileUpload } from '../../http/upload';
 import { uuidParam } from '../../../shared/schemas/common';
 import { machineCodeParam } from '../../../shared/schemas/machines';
-import { consumableChangeSchema, consumableSettingsSchema, cutCheckSchema, lifeStatsQuery } from '../../../shared/schemas/consumables';
+import { consumableChangeSchema, consumableSettingsSchema, cutCheckSchema, lifeStatsQuery, type StationView } from '../../../shared/schemas/consumables';
 import { listCutChecks, recordCutCheck } from './cut-checks.service';
 import { lifeStats } from './life-stats.service';
 import { subtreeMachines } from '../machines/machines.service';
 import { getConsumableSettings, getPhoto, listChanges, logChange, updateConsumableSettings } from './station.service';
 import { stationView } from './station-view';
+import { ShopPageCache } from '../shop-changes/shop-revision';
+import { ALARM_SHOWN_MS } from './station-status';
 import { paging } from '../../../shared/schemas/paging';
 import { PHOTO_MAX_BYTES } from '../../../shared/schemas/photos';
 
@@ -36,10 +38,21 @@ const receiveChange: RequestHandler = (req, res, next) => {
 
 const changesQuery = paging.extend({ machineId: z.uuid().optional() });
 
+/**
+ * Tablets at every machine reload their station page all shift, while the shop's data changes far
+ * less often: pages are kept while the shop's revision stands, until an open work order falls due
+ * or an alarm leaves the page (a week after it was raised).
+ */
+export const stationPages = new ShopPageCache<StationView>((page) => [
+  ...page.due.flatMap((w) => (w.dueAt && !w.overdue ? [Date.parse(w.dueAt)] : [])),
+  ...page.alarms.map((a) => Date.parse(a.at) + ALARM_SHOWN_MS),
+]);
+
 /** The station page at the machine: its view, consumable changes with photos, cut checks and consumable lives. */
 export function registerStationRoutes(r: ApiRouter) {
   route(r, 'get', '/stations/:code', { access: 'machines.read', params: machineCodeParam }, async (_req, res, { params, principal: who }) => {
-    res.json(await stationView(requestEm(), who, params.code));
+    const em = requestEm();
+    res.type('json').send(await stationPages.get(em, who.orgId, params.code.toLowerCase(), () => stationView(em, who, params.code)));
   });
   route(
     r,
