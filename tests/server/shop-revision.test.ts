@@ -98,6 +98,15 @@ describe('a shop revision', () => {
     expect(await revision(a)).toBe(r);
     expect(await revision(b)).toBe(other);
   });
+
+  it('folds a shop’s change rows when a read finds many, keeping the revision', async () => {
+    for (let i = 0; i < 210; i++) await db.query(`update machine set name = name where id = $1`, [cell]);
+    const count = async () => (await db.query(`select count(*)::int as n from shop_change where organization_id = $1`, [a.orgId])).rows[0].n as number;
+    expect(await count()).toBeGreaterThan(200);
+    const r = await revision(a); // starts the fold in the background
+    await expect.poll(count, { timeout: 10_000 }).toBe(1);
+    expect(await revision(a)).toBe(r);
+  });
 });
 
 describe('the station page kept under the revision', () => {

@@ -10,10 +10,23 @@ import type { EntityManager } from '@mikro-orm/postgresql';
 import { executeBound } from '../../db';
 import { clock } from '../../../shared/clock';
 
+/** Change rows a shop may gather before a read folds them (the scheduled pass folds them every few minutes too). */
+const COMPACT_AFTER_ROWS = 200;
+const compacting = new Set<string>();
+
 export async function shopRevision(em: EntityManager, orgId: string): Promise<string> {
-  const [row] = await executeBound<{ revision: string }>(em, `select coalesce(sum(weight), 0)::text as revision from shop_change where organization_id = ?`, [
-    orgId,
-  ]);
+  const [row] = await executeBound<{ revision: string; rows: number }>(
+    em,
+    `select coalesce(sum(weight), 0)::text as revision, count(*)::int as rows from shop_change where organization_id = ?`,
+    [orgId],
+  );
+  if (row.rows > COMPACT_AFTER_ROWS && !compacting.has(orgId)) {
+    // In the background: the revision read above stays right, as compaction keeps the sum.
+    compacting.add(orgId);
+    void compactShopChanges(em.fork(), orgId)
+      .catch(() => undefined) // a failed fold changes nothing; the next read or pass tries again
+      .finally(() => compacting.delete(orgId));
+  }
   return row.revision;
 }
 
