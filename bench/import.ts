@@ -17,6 +17,7 @@ import pg from 'pg';
 import { from as copyFrom } from 'pg-copy-streams';
 import type { EntityManager } from '@mikro-orm/postgresql';
 import { freshDatabase } from './fresh-database';
+import { ownerUrlFor } from '../server/db-roles';
 import { migrate } from '../scripts/migrate';
 import { initORM, closeORM } from '../server/db';
 import { createMember, createShop } from '../seed/factories';
@@ -74,7 +75,8 @@ async function writeCsv(path: string, rows: number, meters: BenchMeter[]) {
 
 /** COPY of the file as it stands into a table without keys or indexes: the rate to compare with. */
 async function bareCopy(path: string): Promise<number> {
-  const c = new pg.Client({ connectionString: url });
+  // As the owner: the app role may not create tables.
+  const c = new pg.Client({ connectionString: ownerUrlFor(url) });
   await c.connect();
   await c.query('drop table if exists bench_bare_copy');
   await c.query('create table bench_bare_copy (machine_code text, meter_code text, read_at timestamptz, value double precision, reset boolean)');

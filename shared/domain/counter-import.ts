@@ -53,15 +53,56 @@ const PLAIN_ISO = /^(\d{4})-(\d{2})-(\d{2})T(\d{2}):(\d{2})(?::(\d{2})(?:\.(\d{1
  * years before 1970, offsets past ±23:59) to luxon.
  */
 function readPlainIsoWithOffset(s: string): Date | null | undefined {
+  const fixed = readSecondsUtc(s);
+  if (fixed !== undefined) return fixed;
   const m = PLAIN_ISO.exec(s);
   if (!m) return undefined;
   const [year, month, day, hour, minute, second, offHour, offMinute] = [m[1], m[2], m[3], m[4], m[5], m[6] ?? '0', m[9] ?? '0', m[10] ?? '0'].map(Number);
+  const millis = m[7] ? Math.floor(parseFloat(`0.${m[7]}`) * 1000) : 0;
+  const offset = (m[8] === '-' ? -1 : 1) * (offHour * 60 + offMinute);
+  return checkedUtc(year, month, day, hour, minute, second, millis, offHour, offMinute, offset);
+}
+
+/** Luxon's validity rules for the parts of a plain ISO time; `undefined` hands the edges to luxon. */
+function checkedUtc(
+  year: number,
+  month: number,
+  day: number,
+  hour: number,
+  minute: number,
+  second: number,
+  millis: number,
+  offHour: number,
+  offMinute: number,
+  offset: number,
+): Date | null | undefined {
   if (year < 1970 || hour > 23 || offHour > 23 || offMinute > 59) return undefined;
   if (month < 1 || month > 12 || day < 1 || minute > 59 || second > 59) return null;
   if (new Date(Date.UTC(year, month - 1, day)).getUTCDate() !== day) return null;
-  const millis = m[7] ? Math.floor(parseFloat(`0.${m[7]}`) * 1000) : 0;
-  const offset = (m[8] === '-' ? -1 : 1) * (offHour * 60 + offMinute);
   return new Date(Date.UTC(year, month - 1, day, hour, minute, second, millis) - offset * 60_000);
+}
+
+const digitAt = (s: string, i: number) => {
+  const d = s.charCodeAt(i) - 48;
+  return d >= 0 && d <= 9 ? d : NaN;
+};
+const twoDigits = (s: string, i: number) => digitAt(s, i) * 10 + digitAt(s, i + 1);
+
+/**
+ * `2026-03-14T07:30:00Z` exactly, the shape most machine exports write, read digit by digit
+ * without the regular expression's allocations (the import reads up to a million of them);
+ * any other shape is `undefined` here and goes through the expression.
+ */
+function readSecondsUtc(s: string): Date | null | undefined {
+  if (s.length !== 20 || s[4] !== '-' || s[7] !== '-' || s[10] !== 'T' || s[13] !== ':' || s[16] !== ':' || s[19] !== 'Z') return undefined;
+  const year = twoDigits(s, 0) * 100 + twoDigits(s, 2);
+  const month = twoDigits(s, 5);
+  const day = twoDigits(s, 8);
+  const hour = twoDigits(s, 11);
+  const minute = twoDigits(s, 14);
+  const second = twoDigits(s, 17);
+  if (Number.isNaN(year + month + day + hour + minute + second)) return undefined;
+  return checkedUtc(year, month, day, hour, minute, second, 0, 0, 0, 0);
 }
 
 /**

@@ -110,4 +110,20 @@ describe('parseReadAt on plain ISO times with an offset', () => {
     expect(cases.length).toBe(12 * 10 * 9);
     for (const s of cases) expect(parseReadAt(s, 'America/Chicago')?.toISOString() ?? null, s).toBe(byLuxon(s));
   });
+
+  it('reads the whole-second UTC shape digit by digit as luxon does, and leaves look-alikes to the full reader', () => {
+    const cases = [
+      '2026-03-14T07:30:00Z',
+      '1999-12-31T23:59:59Z',
+      '2026-03-1aT07:30:00Z',
+      '2026-03-14T07:3x:00Z',
+      '2026-03-14t07:30:00Z',
+      '2026-03-14T07:30:00z',
+      '2026/03/14T07:30:00Z',
+      '2026-03-14T07:30:0０Z', // a full-width digit is not a digit
+      '+026-03-14T07:30:00Z',
+    ];
+    for (const s of cases) expect(parseReadAt(s, 'America/Chicago')?.toISOString() ?? null, s).toBe(byLuxon(s));
+    expect(parseReadAt('1999-12-31T23:59:59Z', 'UTC')!.toISOString()).toBe('1999-12-31T23:59:59.000Z');
+  });
 });

@@ -126,6 +126,28 @@ describe('counter import', () => {
     expect(await readingCount(a.orgId)).toBe(before);
   });
 
+  it('skips a line repeated in the file and a reading already typed in by hand, marking them in the sample', async () => {
+    const typed = await post(tech, `/meters/${startsId}/readings`, { value: 7000, readAt: '2026-04-02T06:00:00Z' }).expect(201);
+    expect(typed.body).toBeTruthy();
+    const csv = [
+      'machine_code,meter_code,read_at,value',
+      'C1-T,arc-starts,2026-04-01T06:00:00Z,6500', // line 2: new
+      'C1-T,arc-starts,2026-04-01T06:00:00Z,6500', // line 3: repeats line 2
+      'C1-T,arc-starts,2026-04-02T06:00:00Z,7000', // line 4: the typed reading
+      'C1-T,arc-starts,2026-04-03T06:00:00Z,7600', // line 5: new
+    ].join('\n');
+    const before = await readingCount(a.orgId);
+    const preview = await upload(tech, '/counter-import/preview', csv).expect(200);
+    expect(preview.body).toMatchObject({ rows: 4, toAdd: 2, duplicates: 2, errorCount: 0 });
+    expect(preview.body.sample.map((r: { line: number; status: string }) => `${r.line}:${r.status}`)).toEqual(['2:add', '3:duplicate', '4:duplicate', '5:add']);
+    expect(preview.body.meters).toEqual([
+      { machineCode: 'C1-T', meterCode: 'arc-starts', unit: 'starts', rows: 4, from: '2026-04-01T06:00:00.000Z', to: '2026-04-03T06:00:00.000Z' },
+    ]);
+    const done = await upload(tech, '/counter-import', csv).expect(200);
+    expect(done.body).toEqual({ rows: 4, added: 2, duplicates: 2 });
+    expect(await readingCount(a.orgId)).toBe(before + 2);
+  });
+
   it('refuses a reading lower than one already stored after it', async () => {
     const res = await upload(tech, '/counter-import/preview', 'machine_code,meter_code,read_at,value\nC1-T,arc-starts,2026-02-02T12:00:00Z,1900\n').expect(200);
     expect(res.body.errors[0].message).toMatch(/1900 starts is higher than the stored reading after it \(1800 starts on 2 Feb 2026, 23:00\)/);

@@ -12,6 +12,7 @@ import type { EntityManager, Knex } from '@mikro-orm/postgresql';
  */
 
 const STAGING = 'counter_import_staging';
+const MARKS = 'counter_import_marks';
 
 /** The transaction's own connection (COPY needs the driver's client, not a query builder). */
 export async function transactionClient(tx: EntityManager): Promise<PoolClient> {
@@ -25,12 +26,15 @@ export async function createStaging(client: PoolClient) {
   await client.query(`set local work_mem = '64MB'`);
   await client.query(`create temporary table ${STAGING} (
       line integer not null, meter_id uuid not null, read_at timestamptz not null, value double precision not null,
-      is_reset boolean not null, import_key varchar(64) not null,
-      status text, problem text, other_at timestamptz, other_value double precision, other_is_reset boolean
+      is_reset boolean not null, import_key text not null
+    ) on commit drop`);
+  // Only the rows that will not be added: duplicates and problems (usually none).
+  await client.query(`create temporary table ${MARKS} (
+      line integer not null, status text not null, problem text, other_at timestamptz, other_value double precision, other_is_reset boolean
     ) on commit drop`);
 }
 
-/** One staging row in COPY's text format (no field can hold a tab, newline or backslash). */
+/** One staging row in COPY's text format (no field can hold a tab, newline or backslash); `key` is hex. */
 export const stagingLine = (line: number, meterId: string, readAt: Date, value: number, reset: boolean, key: string) =>
   `${line}\t${meterId}\t${readAt.toISOString()}\t${value}\t${reset ? 't' : 'f'}\t${key}\n`;
 
@@ -42,45 +46,46 @@ export async function copyIntoStaging(client: PoolClient, lines: AsyncIterable<s
 }
 
 /**
- * Marks a row as a duplicate when the same reading comes earlier in the file or is already
- * stored (same meter, time, value and reset: what the import key hashes). Compared on those
- * columns rather than the key text, whose collation-aware sort is slower; stored readings
- * are looked up only inside each meter's time span in the file.
+ * All set-level checks in one statement, which records only the rows that will not be added.
+ *
+ * Duplicates: the same reading (meter, time, value and reset: what the import key hashes)
+ * earlier in the file or already stored. Compared on those columns rather than the key, so a
+ * reading typed in by hand counts too; stored readings are read only inside each meter's
+ * time span in the file.
+ *
+ * Order: per meter, the rows to add merged with the stored readings in the file's time span
+ * and the stored one just before and just after it, ordered by time (stored first, then file
+ * order); a row whose counter runs backwards against the point before it is marked 'before'
+ * (lower than it, or negative), or, failing that, 'after' against a stored reading right after
+ * it. Condition meters may move both ways. The neighbour's time and value are kept for the message.
  */
-export async function markDuplicates(client: PoolClient) {
-  await client.query(`update ${STAGING} s set status = 'duplicate'
-      from (select line from (select line, row_number() over (partition by meter_id, read_at, value, is_reset order by line) as n from ${STAGING}) d where d.n > 1) d
-     where s.line = d.line`);
-  await client.query(`with spans as (select meter_id, min(read_at) as first_at, max(read_at) as last_at from ${STAGING} group by meter_id)
-    update ${STAGING} s set status = 'duplicate'
-      from spans p join meter_reading r on r.meter_id = p.meter_id and r.read_at between p.first_at and p.last_at
-     where s.status is null and r.meter_id = s.meter_id and r.read_at = s.read_at and r.value = s.value and r.is_reset = s.is_reset`);
-}
-
-/**
- * Per meter, merges the rows to add with the stored readings in the file's time span and the
- * stored one just before and just after it, ordered by time (stored first, then file order),
- * and marks a row whose counter runs backwards against the point before it ('before': lower
- * than it, or negative), or, failing that, against a stored reading right after it ('after').
- * Condition meters may move both ways. The neighbour's time and value are kept for the message.
- */
-export async function markOrderProblems(client: PoolClient) {
+export async function checkStaging(client: PoolClient) {
   await client.query(`
+    insert into ${MARKS} (line, status, problem, other_at, other_value, other_is_reset)
     with spans as (
       select meter_id, min(read_at) as first_at, max(read_at) as last_at from ${STAGING} group by meter_id
-    ), stored as (
+    ), in_span as materialized (
       select r.meter_id, r.read_at, r.value, r.is_reset
         from spans p join meter_reading r on r.meter_id = p.meter_id and r.read_at between p.first_at and p.last_at
+    ), stored as (
+      select meter_id, read_at, value, is_reset from in_span
       union all
       select p.meter_id, b.read_at, b.value, b.is_reset from spans p cross join lateral
         (select r.read_at, r.value, r.is_reset from meter_reading r where r.meter_id = p.meter_id and r.read_at < p.first_at order by r.read_at desc limit 1) b
       union all
       select p.meter_id, a.read_at, a.value, a.is_reset from spans p cross join lateral
         (select r.read_at, r.value, r.is_reset from meter_reading r where r.meter_id = p.meter_id and r.read_at > p.last_at order by r.read_at asc limit 1) a
+    ), file_rows as materialized (
+      select f.line, f.meter_id, f.read_at, f.value, f.is_reset, f.repeated or d.meter_id is not null as duplicate
+        from (select s.line, s.meter_id, s.read_at, s.value, s.is_reset,
+                     row_number() over (partition by s.meter_id, s.read_at, s.value, s.is_reset order by s.line) > 1 as repeated
+                from ${STAGING} s) f
+        left join (select distinct meter_id, read_at, value, is_reset from in_span) d
+          on d.meter_id = f.meter_id and d.read_at = f.read_at and d.value = f.value and d.is_reset = f.is_reset
     ), points as (
       select meter_id, read_at, value, is_reset, null::integer as line from stored
       union all
-      select meter_id, read_at, value, is_reset, line from ${STAGING} where status is null
+      select meter_id, read_at, value, is_reset, line from file_rows where not duplicate
     ), neighbours as (
       select p.line, p.value, p.is_reset, m.kind <> 'condition' as cumulative,
              lag(p.read_at) over w as prev_at, lag(p.value) over w as prev_value, lag(p.is_reset) over w as prev_is_reset,
@@ -91,23 +96,21 @@ export async function markOrderProblems(client: PoolClient) {
     ), judged as (
       select n.*, n.cumulative and (n.value < 0 or (n.prev_at is not null and not n.is_reset and n.value < n.prev_value)) as before_bad
         from neighbours n where n.line is not null
-    ), problems as (
-      select line, 'before' as problem, prev_at as other_at, prev_value as other_value, prev_is_reset as other_is_reset
-        from judged where before_bad
-      union all
-      select line, 'after', next_at, next_value, next_is_reset
-        from judged
-       where not before_bad and cumulative and next_at is not null and next_line is null
-         and (next_value < 0 or (not next_is_reset and next_value < value))
     )
-    update ${STAGING} s set status = 'error', problem = p.problem, other_at = p.other_at, other_value = p.other_value, other_is_reset = p.other_is_reset
-      from problems p where s.line = p.line`);
+    select line, 'duplicate', null, null, null, null from file_rows where duplicate
+    union all
+    select line, 'error', 'before', prev_at, prev_value, prev_is_reset from judged where before_bad
+    union all
+    select line, 'error', 'after', next_at, next_value, next_is_reset
+      from judged
+     where not before_bad and cumulative and next_at is not null and next_line is null
+       and (next_value < 0 or (not next_is_reset and next_value < value))`);
 }
 
 export type StagingSummary = {
-  counts: { toAdd: number; duplicates: number; orderProblems: number };
-  meters: { meterId: string; rows: number; from: Date; to: Date }[];
-  sample: { line: number; meterId: string; readAt: Date; value: number; reset: boolean; status: 'add' | 'duplicate' | 'error' }[];
+  counts: { duplicates: number; orderProblems: number };
+  /** Status of the given lines that will not be added; lines not named will be. */
+  marked: Map<number, 'duplicate' | 'error'>;
   problems: {
     line: number;
     meterId: string;
@@ -121,20 +124,20 @@ export type StagingSummary = {
   }[];
 };
 
-/** What the preview shows: counts, per-meter spans, the first rows and the first order problems. */
-export async function summariseStaging(client: PoolClient, maxProblems: number, sampleRows: number): Promise<StagingSummary> {
-  const counts = await client.query<{ to_add: string; duplicates: string; problems: string }>(
-    `select count(*) filter (where status is null) as to_add, count(*) filter (where status = 'duplicate') as duplicates,
-            count(*) filter (where status = 'error') as problems from ${STAGING}`,
+/** What the checks found: counts, the status of the sample lines, and the first order problems. */
+export async function summariseStaging(client: PoolClient, maxProblems: number, sampleLines: number[]): Promise<StagingSummary> {
+  const counts = await client.query<{ duplicates: string; problems: string }>(
+    `select count(*) filter (where status = 'duplicate') as duplicates, count(*) filter (where status = 'error') as problems from ${MARKS}`,
   );
-  const meters = await client.query<{ meter_id: string; rows: string; first_at: Date; last_at: Date }>(
-    `select meter_id, count(*) as rows, min(read_at) as first_at, max(read_at) as last_at from ${STAGING} group by meter_id order by min(line)`,
-  );
-  const sample = await client.query<{ line: number; meter_id: string; read_at: Date; value: number; is_reset: boolean; status: string | null }>(
-    `select line, meter_id, read_at, value, is_reset, status from ${STAGING} order by line limit $1`,
-    [sampleRows],
-  );
-  const problems = await client.query<{
+  const c = counts.rows[0];
+  const marked = new Map<number, 'duplicate' | 'error'>();
+  const problems: StagingSummary['problems'] = [];
+  if (Number(c.duplicates) + Number(c.problems) === 0) return { counts: { duplicates: 0, orderProblems: 0 }, marked, problems };
+  const sample = await client.query<{ line: number; status: 'duplicate' | 'error' }>(`select line, status from ${MARKS} where line = any($1::int[])`, [
+    sampleLines,
+  ]);
+  for (const r of sample.rows) marked.set(r.line, r.status);
+  const found = await client.query<{
     line: number;
     meter_id: string;
     read_at: Date;
@@ -145,22 +148,12 @@ export async function summariseStaging(client: PoolClient, maxProblems: number, 
     other_value: number | null;
     other_is_reset: boolean | null;
   }>(
-    `select line, meter_id, read_at, value, is_reset, problem, other_at, other_value, other_is_reset from ${STAGING} where status = 'error' order by line limit $1`,
+    `select m.line, s.meter_id, s.read_at, s.value, s.is_reset, m.problem, m.other_at, m.other_value, m.other_is_reset
+       from (select * from ${MARKS} where status = 'error' order by line limit $1) m join ${STAGING} s on s.line = m.line order by m.line`,
     [maxProblems],
   );
-  const c = counts.rows[0];
-  return {
-    counts: { toAdd: Number(c.to_add), duplicates: Number(c.duplicates), orderProblems: Number(c.problems) },
-    meters: meters.rows.map((m) => ({ meterId: m.meter_id, rows: Number(m.rows), from: new Date(m.first_at), to: new Date(m.last_at) })),
-    sample: sample.rows.map((r) => ({
-      line: r.line,
-      meterId: r.meter_id,
-      readAt: new Date(r.read_at),
-      value: Number(r.value),
-      reset: r.is_reset,
-      status: (r.status ?? 'add') as 'add' | 'duplicate' | 'error',
-    })),
-    problems: problems.rows.map((r) => ({
+  for (const r of found.rows)
+    problems.push({
       line: r.line,
       meterId: r.meter_id,
       readAt: new Date(r.read_at),
@@ -170,17 +163,17 @@ export async function summariseStaging(client: PoolClient, maxProblems: number, 
       otherAt: r.other_at === null ? null : new Date(r.other_at),
       otherValue: r.other_value === null ? null : Number(r.other_value),
       otherIsReset: r.other_is_reset,
-    })),
-  };
+    });
+  return { counts: { duplicates: Number(c.duplicates), orderProblems: Number(c.problems) }, marked, problems };
 }
 
 /** Moves the rows to add into meter_reading; returns how many went in. */
 export async function insertFromStaging(client: PoolClient, orgId: string, userId: string): Promise<number> {
   const res = await client.query(
     `insert into meter_reading (id, created_at, updated_at, organization_id, meter_id, value, read_at, source, is_reset, note, recorded_by_id, import_key)
-     select gen_random_uuid(), now(), now(), $1, meter_id, value, read_at, 'import', is_reset, null, $2, import_key
-       from ${STAGING} where status is null
-     on conflict (meter_id, import_key) do nothing`,
+     select gen_random_uuid(), now(), now(), $1, meter_id, value, read_at, 'import', is_reset, null, $2, decode(import_key, 'hex')
+       from ${STAGING} s where not exists (select 1 from ${MARKS} m where m.line = s.line)
+     on conflict (meter_id, read_at, import_key) do nothing`,
     [orgId, userId],
   );
   return res.rowCount ?? 0;

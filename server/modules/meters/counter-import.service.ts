@@ -19,8 +19,7 @@ import {
   copyIntoStaging,
   createStaging,
   insertFromStaging,
-  markDuplicates,
-  markOrderProblems,
+  checkStaging,
   stagingLine,
   summariseStaging,
   transactionClient,
@@ -121,6 +120,10 @@ export async function analyseCounterCsv(
   const rowProblems = new ProblemList();
   const now = clock.now();
   let rows = 0;
+  // Kept while reading, so the preview needs no further pass over the staged rows.
+  const spans = new Map<string, { rows: number; from: Date; to: Date }>();
+  const sampleRows: { line: number; meterId: string; readAt: Date; value: number; reset: boolean }[] = [];
+  let staged = 0;
   /** COPY text, a chunk of the file at a time; rows with a problem are listed and left out. */
   async function* stagingText(): AsyncGenerator<string> {
     for (let records = await cursor.nextBatch(); records; records = await cursor.nextBatch()) {
@@ -161,19 +164,30 @@ export async function analyseCounterCsv(
       }
     }
     const key = hash('sha256', importKeySource(meter.id, r.readAt, value, r.reset), 'hex');
+    staged++;
+    const span = spans.get(meter.id);
+    if (!span) spans.set(meter.id, { rows: 1, from: r.readAt, to: r.readAt });
+    else {
+      span.rows++;
+      if (r.readAt < span.from) span.from = r.readAt;
+      if (r.readAt > span.to) span.to = r.readAt;
+    }
+    if (sampleRows.length < SAMPLE_ROWS) sampleRows.push({ line, meterId: meter.id, readAt: r.readAt, value, reset: r.reset });
     return stagingLine(line, meter.id, r.readAt, value, r.reset, key);
   }
   await copyIntoStaging(client, stagingText());
 
-  await progress?.({ phase: 'checking', done: 0, total: 2 });
-  await markDuplicates(client);
-  await progress?.({ phase: 'checking', done: 1, total: 2 });
-  await markOrderProblems(client);
-  const staged = await summariseStaging(client, MAX_LISTED_ERRORS, SAMPLE_ROWS);
-  await progress?.({ phase: 'checking', done: 2, total: 2 });
+  await progress?.({ phase: 'checking', done: 0, total: 1 });
+  await checkStaging(client);
+  const found = await summariseStaging(
+    client,
+    MAX_LISTED_ERRORS,
+    sampleRows.map((r) => r.line),
+  );
+  await progress?.({ phase: 'checking', done: 1, total: 1 });
 
   const meterOf = (id: string) => byId.get(id)!;
-  const errors = [...rowProblems.listed, ...staged.problems.map((p) => orderMessage(p, meterOf(p.meterId), { timeZone: org.timeZone, locale: who.locale }))]
+  const errors = [...rowProblems.listed, ...found.problems.map((p) => orderMessage(p, meterOf(p.meterId), { timeZone: org.timeZone, locale: who.locale }))]
     .sort((a, b) => a.line - b.line)
     .slice(0, MAX_LISTED_ERRORS);
   return {
@@ -181,26 +195,26 @@ export async function analyseCounterCsv(
     preview: {
       rows,
       columns: header.map((h, i) => ({ header: h, column: (Object.entries(map) as [CounterColumn, number][]).find(([, idx]) => idx === i)?.[0] ?? '' })),
-      toAdd: staged.counts.toAdd,
-      duplicates: staged.counts.duplicates,
-      errorCount: rowProblems.count + staged.counts.orderProblems,
+      toAdd: staged - found.counts.duplicates - found.counts.orderProblems,
+      duplicates: found.counts.duplicates,
+      errorCount: rowProblems.count + found.counts.orderProblems,
       errors,
-      meters: staged.meters.map((m) => ({
-        machineCode: meterOf(m.meterId).machineCode,
-        meterCode: meterOf(m.meterId).code,
-        unit: meterOf(m.meterId).unit,
+      meters: [...spans].map(([meterId, m]) => ({
+        machineCode: meterOf(meterId).machineCode,
+        meterCode: meterOf(meterId).code,
+        unit: meterOf(meterId).unit,
         rows: m.rows,
         from: m.from.toISOString(),
         to: m.to.toISOString(),
       })),
-      sample: staged.sample.map((r) => ({
+      sample: sampleRows.map((r) => ({
         line: r.line,
         machineCode: meterOf(r.meterId).machineCode,
         meterCode: meterOf(r.meterId).code,
         readAt: r.readAt.toISOString(),
         value: r.value,
         reset: r.reset,
-        status: r.status,
+        status: found.marked.get(r.line) ?? 'add',
       })),
     },
   };
