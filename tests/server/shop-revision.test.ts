@@ -4,6 +4,7 @@ import type { EntityManager } from '@mikro-orm/postgresql';
 import { makeShop, makeTestApp, patch, post, signIn, get, type SignedIn, type TestShop } from '../setup/test-app';
 import { compactShopChanges, shopRevision } from '../../server/modules/shop-changes/shop-revision';
 import { stationPages } from '../../server/modules/station/station.routes';
+import { workOrderLists } from '../../server/modules/work-orders/work-orders.routes';
 import { setClock } from '../../shared/clock';
 
 let t: Awaited<ReturnType<typeof makeTestApp>>;
@@ -151,5 +152,38 @@ describe('the station page kept under the revision', () => {
     setClock(new Date(Date.now() - 3600_000));
     await station();
     expect(stationPages.misses).toBe(misses + 2);
+  });
+});
+
+describe('work-order lists kept under the revision', () => {
+  const list = (who: SignedIn, query = '') => get(who, `/work-orders${query}`).expect(200);
+
+  it('are served again while nothing changed, per person and query, and show a new work order at once', async () => {
+    const first = (await list(tech, '?status=active')).body;
+    const hits = workOrderLists.hits;
+    expect((await list(tech, '?status=active')).body).toEqual(first);
+    expect(workOrderLists.hits).toBe(hits + 1);
+    // Another query, and another person with the same query, are computed for themselves.
+    await list(tech, '?status=active&sort=title');
+    await list(op, '?status=active');
+    expect(workOrderLists.hits).toBe(hits + 1);
+
+    await post(tech, '/work-orders', { machineId: torch, title: 'Replace the torch lead' }).expect(201);
+    const titles = (await list(tech, '?status=active')).body.rows.map((w: { title: string }) => w.title);
+    expect(titles).toContain('Replace the torch lead');
+    await db.query(`update work_order set title = 'Replace the torch lead now' where organization_id = $1 and title = 'Replace the torch lead'`, [a.orgId]);
+    expect((await list(tech, '?status=active')).body.rows.map((w: { title: string }) => w.title)).toContain('Replace the torch lead now');
+  });
+
+  it('move a work order into the due-soon window when it gets there, with nothing written', async () => {
+    // The list's due states follow the database clock: this waits for a real moment to pass.
+    const soonDays = 7;
+    const dueAt = new Date(Date.now() + soonDays * 86_400_000 + 6_000);
+    await post(tech, '/work-orders', { machineId: torch, title: 'Grease the clamp rail', dueAt: dueAt.toISOString() }).expect(201);
+    const state = async () =>
+      (await list(tech, '?status=active&pageSize=100')).body.rows.find((w: { title: string }) => w.title === 'Grease the clamp rail').dueState as string;
+    expect(await state()).toBe('later');
+    await new Promise((resolve) => setTimeout(resolve, 7_000));
+    expect(await state()).toBe('due-soon');
   });
 });

@@ -7,7 +7,7 @@
  * still reads R later, nothing the page was computed from has changed since.
  */
 import type { EntityManager } from '@mikro-orm/postgresql';
-import { executeBound } from '../../db';
+import { executeBound, executePrepared } from '../../db';
 import { clock } from '../../../shared/clock';
 
 /** Change rows a shop may gather before a read folds them (the scheduled pass folds them every few minutes too). */
@@ -15,7 +15,7 @@ const COMPACT_AFTER_ROWS = 200;
 const compacting = new Set<string>();
 
 export async function shopRevision(em: EntityManager, orgId: string): Promise<string> {
-  const [row] = await executeBound<{ revision: string; rows: number }>(
+  const [row] = await executePrepared<{ revision: string; rows: number }>(
     em,
     `select coalesce(sum(weight), 0)::text as revision, count(*)::int as rows from shop_change where organization_id = ?`,
     [orgId],
@@ -59,7 +59,14 @@ export class ShopPageCache<T> {
   hits = 0;
   misses = 0;
 
-  constructor(private readonly changesAt: (value: T) => number[] = () => []) {}
+  /**
+   * `changesAt`: the times at which the page would read differently with nothing written;
+   * `body`: what is sent of the computed value.
+   */
+  constructor(
+    private readonly changesAt: (value: T) => number[] = () => [],
+    private readonly body: (value: T) => unknown = (value) => value,
+  ) {}
 
   /** The page's JSON text. */
   async get(em: EntityManager, orgId: string, key: string, compute: () => Promise<T>): Promise<string> {
@@ -78,7 +85,7 @@ export class ShopPageCache<T> {
     const value = await compute();
     const validUntil = Math.min(now + MAX_KEPT_MS, ...this.changesAt(value).filter((at) => at > now));
     this.entries.delete(id);
-    const json = JSON.stringify(value);
+    const json = JSON.stringify(this.body(value));
     this.entries.set(id, { revision, computedAt: now, validUntil, json });
     if (this.entries.size > MAX_ENTRIES) this.entries.delete(this.entries.keys().next().value!);
     return json;

@@ -149,6 +149,22 @@ export async function listWorkOrders(em: EntityManager, who: Principal, q: ListW
   };
 }
 
+/**
+ * Milliseconds until any open work order of the shop changes its due state with nothing written
+ * (it falls due, or comes within the due-soon window), or null when none will: a kept list is
+ * dropped then. Measured against the database clock, as the list's due states are.
+ */
+export async function nextDueStateChangeInMs(em: EntityManager, orgId: string): Promise<number | null> {
+  const [row] = await executePrepared<{ in_ms: number | null }>(
+    em,
+    `select (extract(epoch from min(v.t) - now()) * 1000)::float8 as in_ms
+       from work_order w cross join lateral (values (w.due_at), (w.due_at - interval '${SOON_DAYS} days')) v(t)
+      where w.organization_id = ? and w.status not in ('done', 'cancelled') and not w.overdue and w.due_at is not null and v.t > now()`,
+    [orgId],
+  );
+  return row?.in_ms ?? null;
+}
+
 /** A work order of the caller's shop (row-locked for a change when `lock`), or 404. */
 export async function findWorkOrder(em: EntityManager, id: string, lock = false): Promise<IWorkOrder> {
   const wo = await em.findOne(WorkOrder, { id }, lock ? { lockMode: LockMode.PESSIMISTIC_WRITE } : {});

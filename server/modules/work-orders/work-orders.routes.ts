@@ -22,7 +22,11 @@ import {
 } from '../../../shared/schemas/work-orders';
 import { z } from 'zod';
 import { closeWorkOrder, moveWorkOrder, raiseWorkOrder, returnPart, saveChecklist, updateWorkOrder, usePart } from './work-orders.service';
-import { getWorkOrder, listWorkOrders } from './work-orders.queries';
+import { getWorkOrder, listWorkOrders, nextDueStateChangeInMs } from './work-orders.queries';
+import { ShopPageCache } from '../shop-changes/shop-revision';
+import { clock } from '../../../shared/clock';
+import type { Page } from '../../../shared/schemas/paging';
+import type { WorkOrderRow } from '../../../shared/schemas/work-orders';
 import { acceptDeviation, raiseRepairForFailedCheck } from './failed-checks';
 import { confirmSignature } from '../safety/chain';
 import { addAttachment, getAttachment } from './work-order-attachments.service';
@@ -35,10 +39,24 @@ const attachmentParam = z.object({ id: z.uuid({ message: 'Not a valid id' }), at
 
 const upload = singleFileUpload('file', ATTACHMENT_MAX_BYTES);
 
+/**
+ * Work-order lists kept per person and query while the shop's revision stands, for at most a
+ * minute and no later than the next moment a work order's due state changes by the clock alone.
+ */
+export const workOrderLists = new ShopPageCache<{ page: Page<WorkOrderRow>; changeAt: number | null }>(
+  (kept) => (kept.changeAt === null ? [] : [kept.changeAt]),
+  (kept) => kept.page,
+);
+
 export function registerWorkOrderRoutes(r: ApiRouter, config: Config) {
   const em = () => requestEm() as EntityManager;
   route(r, 'get', '/work-orders', { access: 'work-orders.read', query: listWorkOrdersQuery }, async (_req, res, { query, principal: who }) => {
-    res.json(await listWorkOrders(em(), who, query));
+    const key = `${who.userId}:${who.role}:${JSON.stringify(query)}`;
+    const list = await workOrderLists.get(em(), who.orgId, key, async () => {
+      const inMs = await nextDueStateChangeInMs(em(), who.orgId);
+      return { page: await listWorkOrders(em(), who, query), changeAt: inMs === null ? null : clock.ms() + inMs };
+    });
+    res.type('json').send(list);
   });
   route(r, 'post', '/work-orders', { access: 'work-orders.raise', body: raiseWorkOrderInput }, async (_req, res, { body, principal: who }) => {
     res.status(201).json(await raiseWorkOrder(em(), who, body, config.APP_URL));
