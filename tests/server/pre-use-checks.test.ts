@@ -217,9 +217,11 @@ describe('pre-use checks', () => {
   });
 
   it('the compliance summary shows machines in service with a list and no check since the shop’s day began', async () => {
-    // 2027-04-07 05:30 UTC is 00:30 in the shop's zone (America/Chicago, CDT = UTC−5, IANA tzdb):
-    // a new shop day, so yesterday's checks no longer count.
-    setClock('2027-04-07T05:30:00Z');
+    // 7 April 05:30 UTC is 00:30 in the shop's zone (America/Chicago, CDT = UTC−5 from March to
+    // November every year, IANA tzdb): a new shop day, so yesterday's checks no longer count. Next
+    // year's 7 April, so the checks the tests above signed at the real time are always before it.
+    const year = new Date().getUTCFullYear() + 1;
+    setClock(`${year}-04-07T05:30:00Z`);
     const before = (await get(shop.s.safety, '/safety/audit/compliance?days=7').expect(200)).body;
     const row = (body: { machines: { machineCode: string }[] }, code: string) => body.machines.find((m) => m.machineCode === code) as Record<string, unknown>;
     expect(row(before, 'B1')).toMatchObject({ preUseNeeded: true, preUseMissed: true });
@@ -228,12 +230,16 @@ describe('pre-use checks', () => {
     expect(row(before, 'H1')).toMatchObject({ preUseNeeded: false, preUseMissed: false });
     await sign(shop.s.operator, 'B1', brakeOk).expect(201);
     const after = (await get(shop.s.safety, '/safety/audit/compliance?days=7').expect(200)).body;
-    expect(row(after, 'B1')).toMatchObject({ preUseNeeded: true, preUseMissed: false, lastPreUseCheckAt: expect.stringMatching(/^2027-04-07T05:3/) });
+    expect(row(after, 'B1')).toMatchObject({
+      preUseNeeded: true,
+      preUseMissed: false,
+      lastPreUseCheckAt: expect.stringMatching(new RegExp(`^${year}-04-07T05:3`)),
+    });
     expect(after.totals.missedPreUseChecks).toBe(before.totals.missedPreUseChecks - 1);
     // 04:59 UTC the next day is still 23:59 on 7 April in the shop: signed today, not missed.
-    setClock('2027-04-08T04:59:00Z');
+    setClock(`${year}-04-08T04:59:00Z`);
     expect(row((await get(shop.s.safety, '/safety/audit/compliance?days=7').expect(200)).body, 'B1').preUseMissed).toBe(false);
-    setClock('2027-04-08T05:01:00Z');
+    setClock(`${year}-04-08T05:01:00Z`);
     expect(row((await get(shop.s.safety, '/safety/audit/compliance?days=7').expect(200)).body, 'B1').preUseMissed).toBe(true);
   });
 });
