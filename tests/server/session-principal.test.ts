@@ -1,8 +1,7 @@
 import { describe, it, expect, beforeAll, afterAll } from 'vitest';
 import pg from 'pg';
-import supertest from 'supertest';
-import { anonymous, makeShop, makeTestApp, signIn, type TestShop } from '../setup/test-app';
-import { SESSION_COOKIE } from '../../server/http/session';
+import { anonymous, makeShop, makeTestApp, sessionId, signIn, type TestShop } from '../setup/test-app';
+
 import { readSessionWithPrincipal } from '../../server/modules/auth/auth.service';
 
 // Every signed-in request reads its session row and the principal of the ids inside it in one query.
@@ -22,16 +21,6 @@ afterAll(async () => {
   await pool.end();
   await t.close();
 });
-
-/** The session id inside the signed cookie (`s:<id>.<signature>`) the agent holds. */
-async function sessionId(agent: supertest.Agent): Promise<string> {
-  const res = await agent.get('/api/auth/csrf');
-  const cookie = ([] as string[]).concat(res.headers['set-cookie'] ?? []).find((c) => c.startsWith(`${SESSION_COOKIE}=`));
-  if (!cookie) throw new Error('no session cookie in the answer');
-  return decodeURIComponent(cookie.split(';')[0].slice(SESSION_COOKIE.length + 1))
-    .replace(/^s:/, '')
-    .replace(/\.[^.]*$/, '');
-}
 
 describe('session and principal in one query', () => {
   it('returns the signed-in person with role and shop, none for a session before sign-in, nothing for an unknown or expired id', async () => {

@@ -1,7 +1,6 @@
 import { describe, it, expect, beforeAll, afterAll, afterEach } from 'vitest';
-import supertest from 'supertest';
-import { makeShop, makeTestApp, signIn, type TestShop } from '../setup/test-app';
-import { SESSION_COOKIE, SESSION_TOUCH_INTERVAL_MS } from '../../server/http/session';
+import { makeShop, makeTestApp, sessionId, signIn, type TestShop } from '../setup/test-app';
+import { SESSION_TOUCH_INTERVAL_MS } from '../../server/http/session';
 
 // Sessions: the stored expiry follows activity at most once a minute, and the idle timeout holds.
 let t: Awaited<ReturnType<typeof makeTestApp>>;
@@ -22,16 +21,6 @@ afterAll(async () => {
   Date.now = realNow;
   await t.close();
 });
-
-/** The session id inside the signed cookie (`s:<id>.<signature>`). */
-async function sessionId(agent: supertest.Agent): Promise<string> {
-  const res = await agent.get('/api/auth/csrf');
-  const cookie = ([] as string[]).concat(res.headers['set-cookie'] ?? []).find((c) => c.startsWith(`${SESSION_COOKIE}=`));
-  if (!cookie) throw new Error('no session cookie in the answer');
-  return decodeURIComponent(cookie.split(';')[0].slice(SESSION_COOKIE.length + 1))
-    .replace(/^s:/, '')
-    .replace(/\.[^.]*$/, '');
-}
 
 async function storedExpiry(sid: string): Promise<number> {
   const rows: { expire: Date }[] = await t.em().getConnection().execute(`select expire from session where sid = ?`, [sid]);

@@ -9,6 +9,7 @@ import { createMember, createShop, DEMO_PASSWORD } from '../../seed/factories';
 import type { Role } from '../../shared/permissions';
 import { FakeSmtp } from '../../server/mail/fake-smtp';
 import { registerJobSteps } from '../../server/jobs/register';
+import { SESSION_COOKIE } from '../../server/http/session';
 
 export type TestShop = { orgId: string; slug: string; users: Record<Role, { email: string; userId: string; membershipId: string }> };
 
@@ -70,4 +71,14 @@ export async function anonymous(app: AppHandle['app']): Promise<SignedIn> {
   const agent = supertest.agent(app);
   const res = await agent.get('/api/auth/csrf').expect(200);
   return { agent, csrf: res.body.token };
+}
+
+/** The session id inside the signed cookie (`s:<id>.<signature>`) the agent holds. */
+export async function sessionId(agent: TestAgent): Promise<string> {
+  const res = await agent.get('/api/auth/csrf');
+  const cookie = ([] as string[]).concat(res.headers['set-cookie'] ?? []).find((c) => c.startsWith(`${SESSION_COOKIE}=`));
+  if (!cookie) throw new Error('no session cookie in the answer');
+  return decodeURIComponent(cookie.split(';')[0].slice(SESSION_COOKIE.length + 1))
+    .replace(/^s:/, '')
+    .replace(/\.[^.]*$/, '');
 }
