@@ -25,7 +25,7 @@ export async function createStaging(client: PoolClient) {
   // The checks sort and hash the whole file once; enough memory keeps that off disk (this transaction only).
   await client.query(`set local work_mem = '64MB'`);
   await client.query(`create temporary table ${STAGING} (
-      line integer not null, meter_id uuid not null, read_at timestamptz not null, value double precision not null,
+      line integer not null, id uuid not null, meter_id uuid not null, read_at timestamptz not null, value double precision not null,
       is_reset boolean not null, import_key text not null
     ) on commit drop`);
   // Only the rows that will not be added: duplicates and problems (usually none).
@@ -35,12 +35,12 @@ export async function createStaging(client: PoolClient) {
 }
 
 /** One staging row in COPY's text format (no field can hold a tab, newline or backslash); `key` is hex. */
-export const stagingLine = (line: number, meterId: string, readAt: Date, value: number, reset: boolean, key: string) =>
-  `${line}\t${meterId}\t${readAt.toISOString()}\t${value}\t${reset ? 't' : 'f'}\t${key}\n`;
+export const stagingLine = (line: number, id: string, meterId: string, readAt: Date, value: number, reset: boolean, key: string) =>
+  `${line}\t${id}\t${meterId}\t${readAt.toISOString()}\t${value}\t${reset ? 't' : 'f'}\t${key}\n`;
 
 /** Streams COPY text from `lines` into the staging table, with the stream's back-pressure. */
 export async function copyIntoStaging(client: PoolClient, lines: AsyncIterable<string>) {
-  const copy = client.query(copyFrom(`copy ${STAGING} (line, meter_id, read_at, value, is_reset, import_key) from stdin`));
+  const copy = client.query(copyFrom(`copy ${STAGING} (line, id, meter_id, read_at, value, is_reset, import_key) from stdin`));
   await pipeline(Readable.from(lines, { objectMode: false }), copy);
   await client.query(`analyze ${STAGING}`);
 }
@@ -171,7 +171,7 @@ export async function summariseStaging(client: PoolClient, maxProblems: number, 
 export async function insertFromStaging(client: PoolClient, orgId: string, userId: string): Promise<number> {
   const res = await client.query(
     `insert into meter_reading (id, created_at, updated_at, organization_id, meter_id, value, read_at, source, is_reset, note, recorded_by_id, import_key)
-     select gen_random_uuid(), now(), now(), $1, meter_id, value, read_at, 'import', is_reset, null, $2, decode(import_key, 'hex')
+     select id, now(), now(), $1, meter_id, value, read_at, 'import', is_reset, null, $2, decode(import_key, 'hex')
        from ${STAGING} s where not exists (select 1 from ${MARKS} m where m.line = s.line)
      on conflict (meter_id, read_at, import_key) do nothing`,
     [orgId, userId],

@@ -14,6 +14,7 @@ import { formatDateTime, type ShopClock } from '../../../shared/locale';
 import type { ImportPreview, ImportResult } from '../../../shared/schemas/counter-import';
 import type { MeterKind } from '../../../shared/schemas/machines';
 import { clock } from '../../../shared/clock';
+import { batchIds } from '../common/batch-ids';
 import { readCsvRecords, type CsvBatch, type CsvRecord } from './csv-records';
 import {
   copyIntoStaging,
@@ -119,6 +120,8 @@ export async function analyseCounterCsv(
   await createStaging(client);
   const rowProblems = new ProblemList();
   const now = clock.now();
+  // Time-ordered ids, numbered by line: the primary key's index grows at one edge.
+  const readingId = batchIds(now);
   let rows = 0;
   // Kept while reading, so the preview needs no further pass over the staged rows.
   const spans = new Map<string, { rows: number; from: Date; to: Date }>();
@@ -173,7 +176,7 @@ export async function analyseCounterCsv(
       if (r.readAt > span.to) span.to = r.readAt;
     }
     if (sampleRows.length < SAMPLE_ROWS) sampleRows.push({ line, meterId: meter.id, readAt: r.readAt, value, reset: r.reset });
-    return stagingLine(line, meter.id, r.readAt, value, r.reset, key);
+    return stagingLine(line, readingId(line), meter.id, r.readAt, value, r.reset, key);
   }
   await copyIntoStaging(client, stagingText());
 
