@@ -8,7 +8,7 @@ import { Organization } from '../organizations/organization.entity';
 import type { Principal } from '../../http/principal';
 import { badRequest } from '../../http/errors';
 import { recordActivity } from '../activity-log/activity-log.service';
-import { importKeySource, mapHeader, parseRow, templateCsv, type CounterColumn, type RowError } from '../../../shared/domain/counter-import';
+import { importKeySourceIso, mapHeader, parseRow, templateCsv, type CounterColumn, type RowError } from '../../../shared/domain/counter-import';
 import { readingOrderProblem } from '../../../shared/domain/meters';
 import { formatDateTime, type ShopClock } from '../../../shared/locale';
 import type { ImportPreview, ImportResult } from '../../../shared/schemas/counter-import';
@@ -174,7 +174,8 @@ export async function analyseCounterCsv(
         ];
       }
     }
-    const key = hash('sha256', importKeySource(meter.id, r.readAt, value, r.reset), 'hex');
+    const readAtIso = r.readAt.toISOString();
+    const key = hash('sha256', importKeySourceIso(meter.id, readAtIso, value, r.reset), 'hex');
     staged++;
     const span = spans.get(meter.id);
     if (!span) spans.set(meter.id, { rows: 1, from: r.readAt, to: r.readAt });
@@ -185,8 +186,8 @@ export async function analyseCounterCsv(
     }
     if (sampleRows.length < SAMPLE_ROWS) sampleRows.push({ line, meterId: meter.id, readAt: r.readAt, value, reset: r.reset });
     return sink === 'staging'
-      ? stagingLine(line, readingId(line), meter.id, r.readAt, value, r.reset, key)
-      : readingLine(readingId(line), writtenAt, who.orgId, meter.id, r.readAt, value, r.reset, who.userId, key);
+      ? stagingLine(line, readingId(line), meter.id, readAtIso, value, r.reset, key)
+      : readingLine(readingId(line), writtenAt, who.orgId, meter.id, readAtIso, value, r.reset, who.userId, key);
   }
   if (sink === 'staging') await copyIntoStaging(client, stagingText());
   else {
