@@ -34,3 +34,27 @@ test('plans, people and activity tables filter, page and sort on the server', as
   await expect(page.getByRole('columnheader', { name: /Machine/ })).toHaveAttribute('aria-sort', 'ascending');
   await expect(page.locator('[data-result-count]')).toHaveText(/plans? match.*sorted by Machine, ascending/);
 });
+
+// One request per pause in typing, not one per key: the page's clock is paused while typing, so
+// however fast or slow the machine types, nothing may go out until the test lets the pause pass.
+test('a search goes to the server once typing pauses, not on every key', async ({ page }) => {
+  await page.setViewportSize({ width: 1366, height: 900 });
+  await signIn(page, 'admin@alder-row.example');
+  await page.clock.install();
+  const searched: string[] = [];
+  page.on('request', (r) => {
+    const url = new URL(r.url());
+    if (url.pathname === '/api/plans' && url.searchParams.has('q')) searched.push(url.searchParams.get('q')!);
+  });
+  await page.goto('/plans');
+  await expect(page.getByRole('table', { name: 'Maintenance plans' }).locator('tbody tr').first()).toBeVisible();
+  // From here the page's timers move only when the test moves them.
+  await page.clock.pauseAt(Date.now() + 60_000);
+  await page.getByLabel('Search').pressSequentially('nozzle');
+  await page.clock.runFor(100);
+  expect(searched).toEqual([]);
+  await page.clock.runFor(400);
+  await page.clock.resume();
+  await expect(page.locator('[data-result-count]')).toHaveText(/plans? match/);
+  await expect.poll(() => searched).toEqual(['nozzle']);
+});

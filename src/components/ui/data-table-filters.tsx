@@ -1,6 +1,7 @@
 import { useState, type ReactNode } from 'react';
 import type { SortingState } from '@tanstack/react-table';
 import type { ServerPaging } from './data-table';
+import { useSettledSearch } from '../../lib/search-text';
 
 const fieldClass = 'min-h-touch rounded border border-steel-400 bg-white px-3 font-normal';
 
@@ -51,7 +52,8 @@ export function FilterSearch({
 /**
  * Page, sorting and filters of a server-paged DataTable held in one place: a new filter or sort
  * goes back to page 1 (page 3 of the old result may not exist in the new one), and `resultKey`
- * changes with the filters so the table announces the new count.
+ * changes with the filters so the table announces the new count. `filters` feed the inputs;
+ * `queryFilters` feed the query (the same, with the search text once typing has paused).
  */
 export function useServerTable<F extends Record<string, string>>(initialSorting: SortingState, initialFilters: F) {
   const [page, setPage] = useState(1);
@@ -72,5 +74,8 @@ export function useServerTable<F extends Record<string, string>>(initialSorting:
     },
     onPageChange: setPage,
   });
-  return { page, sorting, filters, setFilter, paging, resultKey: JSON.stringify(filters) };
+  // The text filter `q` reaches the query (and the announced count) once typing pauses.
+  const settledSearch = useSettledSearch(filters.q ?? '');
+  const queryFilters: F = 'q' in filters ? { ...filters, q: settledSearch } : filters;
+  return { page, sorting, filters, queryFilters, setFilter, paging, resultKey: JSON.stringify(queryFilters) };
 }

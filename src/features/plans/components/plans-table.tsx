@@ -26,7 +26,7 @@ export function PlansTable({ machineId: fixedMachine }: { machineId?: string }) 
   const plans = usePlans({
     page: t.page,
     pageSize,
-    q: q || undefined,
+    q: t.queryFilters.q || undefined,
     machineId: fixedMachine ?? (machineId || undefined),
     status: status || undefined,
     active,

@@ -7,6 +7,7 @@ import { paths } from '../../../config/paths';
 import type { LockRegisterQuery, LockRegisterRow, LockUse } from '../../../../shared/schemas/safety-lockout';
 import { useLockRegister } from '../api/get-lock-register';
 import { useShopFormat } from '../../../lib/format';
+import { useSettledSearch } from '../../../lib/search-text';
 
 const col = createColumnHelper<LockRegisterRow>();
 const filterClass = 'min-h-touch rounded border border-steel-400 bg-white px-3 font-normal';
@@ -32,7 +33,8 @@ export function LockRegister() {
   const [page, setPage] = useState(1);
   const [status, setStatus] = useState<LockRegisterQuery['status']>('all');
   const [search, setSearch] = useState('');
-  const q = useLockRegister({ page, pageSize: PAGE_SIZE, status, q: search.trim() || undefined });
+  const settledSearch = useSettledSearch(search);
+  const q = useLockRegister({ page, pageSize: PAGE_SIZE, status, q: settledSearch || undefined });
   return (
     <div className="space-y-3">
       {q.isError ? <Notice tone="danger">{q.error.message}</Notice> : null}
@@ -41,7 +43,7 @@ export function LockRegister() {
         data={q.data?.rows ?? []}
         loading={q.isLoading}
         fetching={q.isFetching}
-        resultKey={`${status}|${search}`}
+        resultKey={`${status}|${settledSearch}`}
         getRowId={(r) => r.lockNumber}
         empty={<EmptyState title={search || status !== 'all' ? 'No lock matches' : 'No lock has been applied yet'} />}
         server={{ total: q.data?.total ?? 0, page, pageSize: PAGE_SIZE, sorting: [], onSortingChange: () => undefined, onPageChange: setPage }}

@@ -28,7 +28,7 @@ export function UsersTable({ currentUserId }: { currentUserId: string }) {
   const users = useUsers({
     page: t.page,
     pageSize,
-    q: q || undefined,
+    q: t.queryFilters.q || undefined,
     role: role || undefined,
     status: status || undefined,
     sort,

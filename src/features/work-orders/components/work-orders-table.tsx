@@ -18,6 +18,7 @@ import { useLookups } from '../../../lib/lookups';
 import { usePlanOptions } from '../api/get-plan-options';
 import { DueBadge, LockoutBadge, StateBadge } from '../../../components/ui/work-badges';
 import { useShopFormat } from '../../../lib/format';
+import { useSettledSearch } from '../../../lib/search-text';
 
 const col = createColumnHelper<WorkOrderRow>();
 
@@ -103,6 +104,7 @@ export function WorkOrdersTable({
     if (k !== 'page') next.delete('page');
     setParams(next, { replace: true });
   };
+  const settledSearch = useSettledSearch(get('q'));
   const filters = {
     page,
     pageSize,
@@ -113,7 +115,7 @@ export function WorkOrdersTable({
     due: (get('due') || undefined) as ListWorkOrdersQuery['due'],
     assignee: get('assignee') || undefined,
     planId: get('planId') || undefined,
-    q: get('q') || undefined,
+    q: settledSearch || undefined,
     ...fixed,
   };
   const q = useWorkOrders(filters);
