@@ -64,8 +64,10 @@ export function createApp({ orm, config, smtp = null }: AppDeps): AppHandle {
       },
     }),
   );
-  app.use(requestLogging(logger));
-  app.use(express.json({ limit: '1mb' }));
+  app.use(requestLogging(app, logger));
+  const json = express.json({ limit: '1mb' });
+  // A GET or HEAD carries no body to read: such requests (most of them) skip the parser's checks.
+  app.use((req, res, next) => (req.method === 'GET' || req.method === 'HEAD' ? next() : json(req, res, next)));
   app.use((_req, _res, next) => withRequestContext(orm, next));
 
   const api = createApiRouter();

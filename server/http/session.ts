@@ -30,6 +30,8 @@ export type SessionReader = (pool: pg.Pool, sid: string, nowSeconds: number) => 
 type LoadedPrincipal = { userId: string | undefined; orgId: string | undefined; principal: Principal | null };
 const LOADED = Symbol('principal read with the session');
 type WithLoaded = { [LOADED]?: LoadedPrincipal };
+/** From `get` to `createSession`, beside the session object (a property deleted from it again would slow it down). */
+const loadedWith = new WeakMap<object, LoadedPrincipal>();
 
 /**
  * The principal read together with this request's session, when it belongs to the ids the session
@@ -87,8 +89,8 @@ export class ThrottledPgStore extends PgStore {
     this.readSession(this.pg, sid, Math.ceil(Date.now() / 1000)).then(
       (row) => {
         if (!row) return fn(null, null);
-        const sess = row.sess as session.SessionData & WithLoaded;
-        sess[LOADED] = { userId: sess.userId, orgId: sess.orgId, principal: row.principal };
+        const sess = row.sess;
+        loadedWith.set(sess, { userId: sess.userId, orgId: sess.orgId, principal: row.principal });
         fn(null, sess);
       },
       (err: unknown) => fn(err),
@@ -97,9 +99,7 @@ export class ThrottledPgStore extends PgStore {
 
   /** Moves what `get` read beside the session onto the request (a symbol: never stored, never hashed). */
   override createSession(req: Request, sess: session.SessionData): session.Session & session.SessionData {
-    const withLoaded = sess as session.SessionData & WithLoaded;
-    const loaded = withLoaded[LOADED];
-    delete withLoaded[LOADED];
+    const loaded = loadedWith.get(sess);
     const created = super.createSession(req, sess);
     if (loaded) (req as WithLoaded)[LOADED] = loaded;
     return created;
