@@ -148,6 +148,35 @@ describe('counter import', () => {
     expect(await readingCount(a.orgId)).toBe(before + 2);
   });
 
+  it('skips a reading typed in by hand when the rest of the file is new, and keeps the typed one', async () => {
+    // No line repeats and nothing was imported before: the rows go straight into the readings and
+    // the one equal to a typed reading is taken back out.
+    await post(tech, `/meters/${startsId}/readings`, { value: 9100, readAt: '2026-05-02T06:00:00Z' }).expect(201);
+    const csv = [
+      'machine_code,meter_code,read_at,value',
+      'C1-T,arc-starts,2026-05-01T06:00:00Z,9000',
+      'C1-T,arc-starts,2026-05-02T06:00:00Z,9100', // the typed reading
+      'C1-T,arc-starts,2026-05-03T06:00:00Z,9200',
+    ].join('\n');
+    const before = await readingCount(a.orgId);
+    expect((await upload(tech, '/counter-import', csv).expect(200)).body).toEqual({ rows: 3, added: 2, duplicates: 1 });
+    expect(await readingCount(a.orgId)).toBe(before + 2);
+    const em = t.em();
+    em.setFilterParams('org', { orgId: a.orgId });
+    const may2 = await em.find(MeterReading, { meter: startsId, readAt: new Date('2026-05-02T06:00:00Z') });
+    expect(may2.map((r) => r.source)).toEqual(['manual']);
+  });
+
+  it('refuses on import a reading higher than a stored one after it, and writes nothing', async () => {
+    const before = await readingCount(a.orgId);
+    const csv = 'machine_code,meter_code,read_at,value\nC1-T,arc-starts,2026-02-02T12:00:00Z,1500\nC1-T,arc-starts,2026-02-02T13:00:00Z,1900\n';
+    const res = await upload(tech, '/counter-import', csv).expect(400);
+    expect(res.body.message).toMatch(
+      /^1 problem in the file; nothing was imported\. First: line 3: C1-T\/arc-starts: 1900 starts is higher than the stored reading after it/,
+    );
+    expect(await readingCount(a.orgId)).toBe(before);
+  });
+
   it('refuses a reading lower than one already stored after it', async () => {
     const res = await upload(tech, '/counter-import/preview', 'machine_code,meter_code,read_at,value\nC1-T,arc-starts,2026-02-02T12:00:00Z,1900\n').expect(200);
     expect(res.body.errors[0].message).toMatch(/1900 starts is higher than the stored reading after it \(1800 starts on 2 Feb 2026, 23:00\)/);

@@ -25,7 +25,7 @@ export async function createStaging(client: PoolClient) {
   // The checks sort and hash the whole file once; enough memory keeps that off disk (this transaction only).
   await client.query(`set local work_mem = '64MB'`);
   await client.query(`create temporary table ${STAGING} (
-      line integer not null, meter_id uuid not null, read_at timestamptz not null, value double precision not null,
+      line integer not null, id uuid not null, meter_id uuid not null, read_at timestamptz not null, value double precision not null,
       is_reset boolean not null, import_key text not null
     ) on commit drop`);
   // Only the rows that will not be added: duplicates and problems (usually none).
@@ -34,13 +34,74 @@ export async function createStaging(client: PoolClient) {
     ) on commit drop`);
 }
 
+/** The first and last id of one import's batch (`batchIds`): its rows, wherever they are. */
+export type BatchRange = { first: string; last: string };
+
+/**
+ * For an import that went straight into meter_reading: the rows the checks read are the
+ * batch's own readings, seen under the staging table's name (the line is the id's counter).
+ * Dropped by `dropBatchView` before the transaction ends.
+ */
+export async function createBatchView(client: PoolClient, batch: BatchRange) {
+  await client.query(`set local work_mem = '64MB'`);
+  await client.query(`create or replace temporary view ${STAGING} as
+      select ('x' || right(id::text, 8))::bit(32)::integer as line, id, meter_id, read_at, value, is_reset
+        from meter_reading where id between '${uuidLiteral(batch.first)}' and '${uuidLiteral(batch.last)}'`);
+  await client.query(`create temporary table ${MARKS} (
+      line integer not null, status text not null, problem text, other_at timestamptz, other_value double precision, other_is_reset boolean
+    ) on commit drop`);
+}
+
+export async function dropBatchView(client: PoolClient) {
+  await client.query(`drop view if exists ${STAGING}`);
+}
+
+/** A view's text cannot take parameters; the ids are ours, but are checked before they are spliced in. */
+function uuidLiteral(id: string): string {
+  if (!/^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/.test(id)) throw new Error(`Not a uuid: ${id}`);
+  return id;
+}
+
+/** One meter_reading row in COPY's text format, as `insertFromStaging` would write it; `key` is hex. */
+export const readingLine = (
+  id: string,
+  at: string,
+  orgId: string,
+  meterId: string,
+  readAtIso: string,
+  value: number,
+  reset: boolean,
+  userId: string,
+  key: string,
+) => `${id}\t${at}\t${at}\t${orgId}\t${meterId}\t${value}\t${readAtIso}\timport\t${reset ? 't' : 'f'}\t\\N\t${userId}\t\\\\x${key}\n`;
+
+/** Streams COPY text from `lines` straight into meter_reading. */
+export async function copyIntoReadings(client: PoolClient, lines: AsyncIterable<string>) {
+  const copy = client.query(
+    copyFrom(
+      'copy meter_reading (id, created_at, updated_at, organization_id, meter_id, value, read_at, source, is_reset, note, recorded_by_id, import_key) from stdin',
+    ),
+  );
+  await pipeline(Readable.from(lines, { objectMode: false }), copy);
+}
+
+/** Takes back the batch's readings the checks marked as duplicates (equal to one typed in); returns how many. */
+export async function removeMarkedDuplicates(client: PoolClient, batch: BatchRange): Promise<number> {
+  const res = await client.query(
+    `delete from meter_reading r using ${MARKS} m
+      where r.id between $1 and $2 and m.status = 'duplicate' and m.line = ('x' || right(r.id::text, 8))::bit(32)::integer`,
+    [batch.first, batch.last],
+  );
+  return res.rowCount ?? 0;
+}
+
 /** One staging row in COPY's text format (no field can hold a tab, newline or backslash); `key` is hex. */
-export const stagingLine = (line: number, meterId: string, readAt: Date, value: number, reset: boolean, key: string) =>
-  `${line}\t${meterId}\t${readAt.toISOString()}\t${value}\t${reset ? 't' : 'f'}\t${key}\n`;
+export const stagingLine = (line: number, id: string, meterId: string, readAtIso: string, value: number, reset: boolean, key: string) =>
+  `${line}\t${id}\t${meterId}\t${readAtIso}\t${value}\t${reset ? 't' : 'f'}\t${key}\n`;
 
 /** Streams COPY text from `lines` into the staging table, with the stream's back-pressure. */
 export async function copyIntoStaging(client: PoolClient, lines: AsyncIterable<string>) {
-  const copy = client.query(copyFrom(`copy ${STAGING} (line, meter_id, read_at, value, is_reset, import_key) from stdin`));
+  const copy = client.query(copyFrom(`copy ${STAGING} (line, id, meter_id, read_at, value, is_reset, import_key) from stdin`));
   await pipeline(Readable.from(lines, { objectMode: false }), copy);
   await client.query(`analyze ${STAGING}`);
 }
@@ -58,15 +119,22 @@ export async function copyIntoStaging(client: PoolClient, lines: AsyncIterable<s
  * order); a row whose counter runs backwards against the point before it is marked 'before'
  * (lower than it, or negative), or, failing that, 'after' against a stored reading right after
  * it. Condition meters may move both ways. The neighbour's time and value are kept for the message.
+ * Readings of the import's own batch (when the rows went straight into meter_reading) are never
+ * counted as stored.
  */
-export async function checkStaging(client: PoolClient) {
-  await client.query(`
+export async function checkStaging(client: PoolClient, batch: BatchRange) {
+  await client.query(
+    `
     insert into ${MARKS} (line, status, problem, other_at, other_value, other_is_reset)
     with spans as (
       select meter_id, min(read_at) as first_at, max(read_at) as last_at from ${STAGING} group by meter_id
     ), in_span as materialized (
-      select r.meter_id, r.read_at, r.value, r.is_reset
-        from spans p join meter_reading r on r.meter_id = p.meter_id and r.read_at between p.first_at and p.last_at
+      -- Per meter through the (meter, time) index, whatever the size of the table: offset 0 keeps the
+      -- planner from turning the lateral into a join, or the batch test into a scan of the key.
+      select p.meter_id, r.read_at, r.value, r.is_reset from spans p cross join lateral
+        (select r.id, r.read_at, r.value, r.is_reset from meter_reading r
+          where r.meter_id = p.meter_id and r.read_at between p.first_at and p.last_at offset 0) r
+       where r.id not between $1 and $2
     ), stored as (
       select meter_id, read_at, value, is_reset from in_span
       union all
@@ -104,7 +172,9 @@ export async function checkStaging(client: PoolClient) {
     select line, 'error', 'after', next_at, next_value, next_is_reset
       from judged
      where not before_bad and cumulative and next_at is not null and next_line is null
-       and (next_value < 0 or (not next_is_reset and next_value < value))`);
+       and (next_value < 0 or (not next_is_reset and next_value < value))`,
+    [batch.first, batch.last],
+  );
 }
 
 export type StagingSummary = {
@@ -171,7 +241,7 @@ export async function summariseStaging(client: PoolClient, maxProblems: number, 
 export async function insertFromStaging(client: PoolClient, orgId: string, userId: string): Promise<number> {
   const res = await client.query(
     `insert into meter_reading (id, created_at, updated_at, organization_id, meter_id, value, read_at, source, is_reset, note, recorded_by_id, import_key)
-     select gen_random_uuid(), now(), now(), $1, meter_id, value, read_at, 'import', is_reset, null, $2, decode(import_key, 'hex')
+     select id, now(), now(), $1, meter_id, value, read_at, 'import', is_reset, null, $2, decode(import_key, 'hex')
        from ${STAGING} s where not exists (select 1 from ${MARKS} m where m.line = s.line)
      on conflict (meter_id, read_at, import_key) do nothing`,
     [orgId, userId],

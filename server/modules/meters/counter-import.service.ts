@@ -8,19 +8,26 @@ import { Organization } from '../organizations/organization.entity';
 import type { Principal } from '../../http/principal';
 import { badRequest } from '../../http/errors';
 import { recordActivity } from '../activity-log/activity-log.service';
-import { importKeySource, mapHeader, parseRow, templateCsv, type CounterColumn, type RowError } from '../../../shared/domain/counter-import';
+import { importKeySourceIso, mapHeader, parseRow, templateCsv, type CounterColumn, type RowError } from '../../../shared/domain/counter-import';
 import { readingOrderProblem } from '../../../shared/domain/meters';
 import { formatDateTime, type ShopClock } from '../../../shared/locale';
 import type { ImportPreview, ImportResult } from '../../../shared/schemas/counter-import';
 import type { MeterKind } from '../../../shared/schemas/machines';
 import { clock } from '../../../shared/clock';
+import { batchIds } from '../common/batch-ids';
 import { readCsvRecords, type CsvBatch, type CsvRecord } from './csv-records';
 import {
   copyIntoStaging,
   createStaging,
   insertFromStaging,
   checkStaging,
+  copyIntoReadings,
+  createBatchView,
+  dropBatchView,
+  readingLine,
+  removeMarkedDuplicates,
   stagingLine,
+  type BatchRange,
   summariseStaging,
   transactionClient,
   type StagingSummary,
@@ -92,7 +99,8 @@ export async function analyseCounterCsv(
   who: Principal,
   filePath: string,
   progress?: Progress,
-): Promise<{ preview: ImportPreview; client: PoolClient }> {
+  sink: 'staging' | 'readings' = 'staging',
+): Promise<{ preview: ImportPreview; client: PoolClient; batch: BatchRange } | null> {
   const cursor = new RecordCursor(readCsvRecords(filePath)[Symbol.asyncIterator]());
   const headerRecord = await cursor.first();
   if (!headerRecord) throw badRequest('The file has no header line', [{ path: 'file', message: 'No header line' }]);
@@ -116,9 +124,12 @@ export async function analyseCounterCsv(
   }
 
   const client = await transactionClient(tx);
-  await createStaging(client);
+  if (sink === 'staging') await createStaging(client);
   const rowProblems = new ProblemList();
   const now = clock.now();
+  // Time-ordered ids, numbered by line: the primary key's index grows at one edge.
+  const readingId = batchIds(now);
+  const writtenAt = sink === 'readings' ? (await client.query<{ at: string }>('select now()::text as at')).rows[0].at : '';
   let rows = 0;
   // Kept while reading, so the preview needs no further pass over the staged rows.
   const spans = new Map<string, { rows: number; from: Date; to: Date }>();
@@ -163,7 +174,8 @@ export async function analyseCounterCsv(
         ];
       }
     }
-    const key = hash('sha256', importKeySource(meter.id, r.readAt, value, r.reset), 'hex');
+    const readAtIso = r.readAt.toISOString();
+    const key = hash('sha256', importKeySourceIso(meter.id, readAtIso, value, r.reset), 'hex');
     staged++;
     const span = spans.get(meter.id);
     if (!span) spans.set(meter.id, { rows: 1, from: r.readAt, to: r.readAt });
@@ -173,12 +185,28 @@ export async function analyseCounterCsv(
       if (r.readAt > span.to) span.to = r.readAt;
     }
     if (sampleRows.length < SAMPLE_ROWS) sampleRows.push({ line, meterId: meter.id, readAt: r.readAt, value, reset: r.reset });
-    return stagingLine(line, meter.id, r.readAt, value, r.reset, key);
+    return sink === 'staging'
+      ? stagingLine(line, readingId(line), meter.id, readAtIso, value, r.reset, key)
+      : readingLine(readingId(line), writtenAt, who.orgId, meter.id, readAtIso, value, r.reset, who.userId, key);
   }
-  await copyIntoStaging(client, stagingText());
+  if (sink === 'staging') await copyIntoStaging(client, stagingText());
+  else {
+    // A reading stored before (or twice in the file) breaks the unique key; the caller then takes the staging way.
+    await client.query('savepoint counter_import_direct');
+    try {
+      await copyIntoReadings(client, stagingText());
+    } catch (err) {
+      if ((err as { code?: string }).code !== '23505') throw err;
+      await client.query('rollback to savepoint counter_import_direct');
+      return null;
+    }
+    await client.query('release savepoint counter_import_direct');
+  }
+  const batch = { first: readingId(0), last: readingId(Math.max(rows + 1, 1)) };
+  if (sink === 'readings') await createBatchView(client, batch);
 
   await progress?.({ phase: 'checking', done: 0, total: 1 });
-  await checkStaging(client);
+  await checkStaging(client, batch);
   const found = await summariseStaging(
     client,
     MAX_LISTED_ERRORS,
@@ -192,6 +220,7 @@ export async function analyseCounterCsv(
     .slice(0, MAX_LISTED_ERRORS);
   return {
     client,
+    batch,
     preview: {
       rows,
       columns: header.map((h, i) => ({ header: h, column: (Object.entries(map) as [CounterColumn, number][]).find(([, idx]) => idx === i)?.[0] ?? '' })),
@@ -237,7 +266,7 @@ function orderMessage(p: StagingSummary['problems'][number], meter: MeterInfo, s
 
 export async function previewCounterCsv(em: EntityManager, who: Principal, filePath: string, progress?: Progress): Promise<ImportPreview> {
   // The staging table lives in a transaction; it holds nothing but the staging table.
-  return em.transactional(async (tx) => (await analyseCounterCsv(tx, who, filePath, progress)).preview);
+  return em.transactional(async (tx) => (await analyseCounterCsv(tx, who, filePath, progress))!.preview);
 }
 
 /**
@@ -249,7 +278,10 @@ export async function importCounterCsv(em: EntityManager, who: Principal, filePa
   return em.transactional(async (tx) => {
     // Lock the shop's meters so a reading typed in meanwhile cannot slip between check and write.
     await tx.execute('select id from meter where organization_id = ? order by id for update', [who.orgId]);
-    const { preview, client } = await analyseCounterCsv(tx, who, filePath, progress);
+    // First straight into meter_reading, checked where the rows landed, which holds for a file of new
+    // readings; a file with readings already stored goes through the staging table.
+    const direct = await analyseCounterCsv(tx, who, filePath, progress, 'readings');
+    const { preview, client, batch } = direct ?? (await analyseCounterCsv(tx, who, filePath, progress, 'staging'))!;
     if (preview.errorCount > 0) {
       const first = preview.errors.slice(0, 20).map((e) => ({ path: `line ${e.line}${e.column ? ` ${e.column}` : ''}`, message: e.message }));
       throw badRequest(
@@ -258,7 +290,11 @@ export async function importCounterCsv(em: EntityManager, who: Principal, filePa
       );
     }
     await progress?.({ phase: 'writing', done: 0, total: preview.toAdd });
-    const added = await insertFromStaging(client, who.orgId, who.userId);
+    let added: number;
+    if (direct) {
+      added = preview.toAdd + preview.duplicates - (await removeMarkedDuplicates(client, batch));
+      await dropBatchView(client);
+    } else added = await insertFromStaging(client, who.orgId, who.userId);
     await progress?.({ phase: 'writing', done: preview.toAdd, total: preview.toAdd });
     const duplicates = preview.duplicates + (preview.toAdd - added);
     if (added > 0) await checkCounterAdvances(tx, who.orgId, 'all-locked');
