@@ -40,6 +40,7 @@ import { logger } from './logger';
 import { keepPoolAlive } from './db-faults';
 import { setRequestShop, withRequestContext } from './db';
 import { serveClient } from './http/client-assets';
+import type { Principal } from './http/principal';
 import { requestLogging } from './http/request-logging';
 
 export type AppDeps = { orm: MikroORM; config: Config; smtp?: FakeSmtp | null };
@@ -64,27 +65,38 @@ export function createApp({ orm, config, smtp = null }: AppDeps): AppHandle {
       },
     }),
   );
-  app.use(requestLogging(logger));
-  app.use(express.json({ limit: '1mb' }));
+  app.use(requestLogging(app, logger));
+  const json = express.json({ limit: '1mb' });
+  // A GET or HEAD carries no body to read: such requests (most of them) skip the parser's checks.
+  app.use((req, res, next) => (req.method === 'GET' || req.method === 'HEAD' ? next() : json(req, res, next)));
   app.use((_req, _res, next) => withRequestContext(orm, next));
 
   const api = createApiRouter();
   api.use(createSessionMiddleware(config, pool, readSessionWithPrincipal));
-  api.use(async (req, _res, next) => {
+  const usePrincipal = (req: express.Request, principal: Principal | null) => {
+    if (!principal) return;
+    req.principal = principal;
+    setRequestShop(principal.orgId);
+  };
+  // Not an async function: the usual request (principal read with its session) answers at once,
+  // without a promise of its own.
+  api.use((req, _res, next) => {
     const s = req.session;
     if (!s?.userId || !s.orgId) return next();
     if (s.signedInAt && Date.now() - s.signedInAt > config.SESSION_ABSOLUTE_HOURS * 3600_000) {
-      await destroy(req); // absolute timeout: sign in again after a shift
-      return next();
+      // absolute timeout: sign in again after a shift
+      return destroy(req).then(() => next(), next);
     }
     // Read with the session in the same query; asked separately only when it was not (a session of other ids).
     const read = principalReadWithSession(req);
-    const principal = read === undefined ? await loadPrincipal(pool, s.userId, s.orgId) : read;
-    if (principal) {
-      req.principal = principal;
-      setRequestShop(principal.orgId);
+    if (read !== undefined) {
+      usePrincipal(req, read);
+      return next();
     }
-    next();
+    return loadPrincipal(pool, s.userId, s.orgId).then((principal) => {
+      usePrincipal(req, principal);
+      next();
+    }, next);
   });
   api.use(csrfProtection);
 

@@ -1,7 +1,7 @@
 import session from 'express-session';
 import connectPgSimple from 'connect-pg-simple';
 import pg from 'pg';
-import { randomBytes, timingSafeEqual } from 'node:crypto';
+import { createHmac, randomBytes, timingSafeEqual } from 'node:crypto';
 import type { Request, RequestHandler } from 'express';
 import type { Config } from '../config';
 import { csrfInvalid } from './errors';
@@ -30,6 +30,8 @@ export type SessionReader = (pool: pg.Pool, sid: string, nowSeconds: number) => 
 type LoadedPrincipal = { userId: string | undefined; orgId: string | undefined; principal: Principal | null };
 const LOADED = Symbol('principal read with the session');
 type WithLoaded = { [LOADED]?: LoadedPrincipal };
+/** From `get` to `createSession`, beside the session object (a property deleted from it again would slow it down). */
+const loadedWith = new WeakMap<object, LoadedPrincipal>();
 
 /**
  * The principal read together with this request's session, when it belongs to the ids the session
@@ -54,14 +56,23 @@ export class ThrottledPgStore extends PgStore {
   private readonly sweep: NodeJS.Timeout;
   private readonly prune: NodeJS.Timeout | null;
   private readonly readSession: SessionReader | undefined;
+  private readonly renewCookie: ((sess: session.Session) => void) | undefined;
 
-  constructor(options: { pool: pg.Pool; tableName: string; pruneSessionInterval: number | false; readSession?: SessionReader }) {
+  constructor(options: {
+    pool: pg.Pool;
+    tableName: string;
+    pruneSessionInterval: number | false;
+    readSession?: SessionReader;
+    /** Called when the stored expiry is pushed forward, before the answer's headers go out: re-send the cookie then. */
+    renewCookie?: (sess: session.Session) => void;
+  }) {
     // connect-pg-simple starts pruning only after its own get/set/destroy/touch; `get` and `touch`
     // are ours, so an instance that only serves signed-in requests would never prune: prune here.
     super({ pool: options.pool, tableName: options.tableName, pruneSessionInterval: false, createTableIfMissing: false });
     this.pg = options.pool;
     this.table = `"${options.tableName}"`;
     this.readSession = options.readSession;
+    this.renewCookie = options.renewCookie;
     this.prune = options.pruneSessionInterval ? setInterval(() => this.pruneSessions(), options.pruneSessionInterval * 1000) : null;
     this.prune?.unref();
     // Forget what is older than the interval, so the map holds only recently active sessions.
@@ -78,8 +89,8 @@ export class ThrottledPgStore extends PgStore {
     this.readSession(this.pg, sid, Math.ceil(Date.now() / 1000)).then(
       (row) => {
         if (!row) return fn(null, null);
-        const sess = row.sess as session.SessionData & WithLoaded;
-        sess[LOADED] = { userId: sess.userId, orgId: sess.orgId, principal: row.principal };
+        const sess = row.sess;
+        loadedWith.set(sess, { userId: sess.userId, orgId: sess.orgId, principal: row.principal });
         fn(null, sess);
       },
       (err: unknown) => fn(err),
@@ -88,9 +99,7 @@ export class ThrottledPgStore extends PgStore {
 
   /** Moves what `get` read beside the session onto the request (a symbol: never stored, never hashed). */
   override createSession(req: Request, sess: session.SessionData): session.Session & session.SessionData {
-    const withLoaded = sess as session.SessionData & WithLoaded;
-    const loaded = withLoaded[LOADED];
-    delete withLoaded[LOADED];
+    const loaded = loadedWith.get(sess);
     const created = super.createSession(req, sess);
     if (loaded) (req as WithLoaded)[LOADED] = loaded;
     return created;
@@ -111,6 +120,7 @@ export class ThrottledPgStore extends PgStore {
     const last = this.written.get(sid);
     if (last !== undefined && now - last < SESSION_TOUCH_INTERVAL_MS) return fn?.();
     this.written.set(sid, now);
+    this.renewCookie?.(sess as session.Session);
     const expires = sess.cookie?.expires ? new Date(sess.cookie.expires).getTime() : now + (sess.cookie?.maxAge ?? 0);
     this.pg
       .query(`update ${this.table} set expire = to_timestamp($1) where sid = $2 and expire < to_timestamp($1) - make_interval(secs => $3)`, [
@@ -134,16 +144,44 @@ export class ThrottledPgStore extends PgStore {
   }
 }
 
+/**
+ * The session cookie again, with the expiry express-session has just moved to a full idle period
+ * from now: the value express-session would set (`s:` + the id signed as cookie-signature signs it,
+ * HMAC-SHA256 in unpadded base64) and the session's own cookie attributes. A Secure cookie is
+ * not sent over plain HTTP, as express-session does not.
+ */
+function cookieRenewer(secret: string): (sess: session.Session) => void {
+  return (sess) => {
+    // express-session's Session keeps its request (non-enumerable); touch() is called with it.
+    const req = (sess as session.Session & { req?: Request }).req;
+    const res = req?.res;
+    if (!req || !res || res.headersSent) return;
+    const c = sess.cookie;
+    if (c.secure && !req.secure) return;
+    const mac = createHmac('sha256', secret).update(req.sessionID).digest('base64').replace(/=+$/, '');
+    res.cookie(SESSION_COOKIE, `s:${req.sessionID}.${mac}`, {
+      path: c.path,
+      domain: c.domain,
+      expires: c.expires ?? undefined,
+      httpOnly: c.httpOnly,
+      secure: c.secure === true,
+      sameSite: c.sameSite,
+    });
+  };
+}
+
 /** Sessions live in PostgreSQL so several instances behind a load balancer share them. */
 export function createSessionMiddleware(config: Config, pool: pg.Pool, readSession?: SessionReader): RequestHandler {
   return session({
     name: SESSION_COOKIE,
-    store: new ThrottledPgStore({ pool, tableName: 'session', pruneSessionInterval: 15 * 60, readSession }),
+    store: new ThrottledPgStore({ pool, tableName: 'session', pruneSessionInterval: 15 * 60, readSession, renewCookie: cookieRenewer(config.SESSION_SECRET) }),
     secret: config.SESSION_SECRET,
     resave: false,
     saveUninitialized: false,
-    // Idle timeout: every answer renews the cookie; the stored expiry follows at most once a minute.
-    rolling: true,
+    // Idle timeout: the cookie is renewed together with the stored expiry, at most once a minute
+    // (renewCookie above), not on every answer: signing and sending it each time cost every request.
+    // express-session still sets it whenever the session is new or changed.
+    rolling: false,
     cookie: {
       httpOnly: true,
       sameSite: 'lax',

@@ -1,6 +1,6 @@
 import { describe, it, expect, beforeAll, afterAll, afterEach } from 'vitest';
 import { makeShop, makeTestApp, sessionId, signIn, type TestShop } from '../setup/test-app';
-import { SESSION_TOUCH_INTERVAL_MS } from '../../server/http/session';
+import { SESSION_COOKIE, SESSION_TOUCH_INTERVAL_MS } from '../../server/http/session';
 
 // Sessions: the stored expiry follows activity at most once a minute, and the idle timeout holds.
 let t: Awaited<ReturnType<typeof makeTestApp>>;
@@ -21,6 +21,9 @@ afterAll(async () => {
   Date.now = realNow;
   await t.close();
 });
+
+const sessionCookieOf = (res: { headers: Record<string, unknown> }) =>
+  ([] as string[]).concat((res.headers['set-cookie'] as string[] | undefined) ?? []).find((c) => c.startsWith(`${SESSION_COOKIE}=`));
 
 async function storedExpiry(sid: string): Promise<number> {
   const rows: { expire: Date }[] = await t.em().getConnection().execute(`select expire from session where sid = ?`, [sid]);
@@ -48,6 +51,32 @@ describe('session expiry', () => {
 
     await agent.get('/api/me').expect(200);
     expect(await storedExpiry(sid)).toBe(touched);
+  });
+
+  it('re-sends the cookie with a full idle period when the stored expiry moves, and not on every answer', async () => {
+    const { agent } = await signIn(t.app, shop.users.admin.email);
+    const sid = await sessionId(agent);
+    const quiet = await agent.get('/api/me').expect(200);
+    expect(sessionCookieOf(quiet)).toBeUndefined();
+
+    offsetMs = SESSION_TOUCH_INTERVAL_MS + 5_000;
+    const renewing = await agent.get('/api/me').expect(200);
+    const cookie = sessionCookieOf(renewing);
+    expect(cookie).toBeDefined();
+    // The same signed session id, with the attributes it was first sent with (plain HTTP: no Secure).
+    expect(decodeURIComponent(cookie!.split(';')[0])).toMatch(new RegExp(`^${SESSION_COOKIE}=s:${sid}\\.[A-Za-z0-9+/]+$`));
+    expect(cookie).toMatch(/; Path=\//);
+    expect(cookie).toMatch(/; HttpOnly/);
+    expect(cookie).toMatch(/; SameSite=Lax/);
+    expect(cookie).not.toMatch(/Secure/);
+    const expires = Date.parse(/; Expires=([^;]+)/.exec(cookie!)![1]);
+    expect(Math.abs(expires - (Date.now() + 5 * 60_000))).toBeLessThan(2_000);
+    expect(Math.abs(expires - (await storedExpiry(sid)))).toBeLessThan(2_000);
+
+    // The renewed cookie is accepted, and the next answer within the minute sends none again.
+    const next = await agent.get('/api/me').expect(200);
+    expect(sessionCookieOf(next)).toBeUndefined();
+    expect(next.body.user.email).toBe(shop.users.admin.email);
   });
 
   it('keeps a working session alive past the idle period and ends an idle one after it', async () => {

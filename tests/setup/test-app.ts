@@ -73,12 +73,14 @@ export async function anonymous(app: AppHandle['app']): Promise<SignedIn> {
   return { agent, csrf: res.body.token };
 }
 
-/** The session id inside the signed cookie (`s:<id>.<signature>`) the agent holds. */
+/** The session id inside the signed cookie (`s:<id>.<signature>`) the agent holds (and sends). */
 export async function sessionId(agent: TestAgent): Promise<string> {
+  // The cookie is not re-sent on every answer: read what the agent sent with a request.
   const res = await agent.get('/api/auth/csrf');
-  const cookie = ([] as string[]).concat(res.headers['set-cookie'] ?? []).find((c) => c.startsWith(`${SESSION_COOKIE}=`));
-  if (!cookie) throw new Error('no session cookie in the answer');
-  return decodeURIComponent(cookie.split(';')[0].slice(SESSION_COOKIE.length + 1))
+  const sent = String((res as unknown as { req: { getHeader(name: string): unknown } }).req.getHeader('cookie') ?? '');
+  const cookie = sent.split(/;\s*/).find((c) => c.startsWith(`${SESSION_COOKIE}=`));
+  if (!cookie) throw new Error('the agent holds no session cookie');
+  return decodeURIComponent(cookie.slice(SESSION_COOKIE.length + 1))
     .replace(/^s:/, '')
     .replace(/\.[^.]*$/, '');
 }
