@@ -177,8 +177,9 @@ describe('work-order lists kept under the revision', () => {
 
   it('move a work order into the due-soon window when it gets there, with nothing written', async () => {
     // The list's due states follow the database clock: this waits for a real moment to pass.
-    const soonDays = 7;
-    const dueAt = new Date(Date.now() + soonDays * 86_400_000 + 6_000);
+    // Its window is the database's own "7 days" in the session's time zone, which across a DST
+    // change is 167 or 169 hours, so the due time 6 s past the window's edge is asked of it too.
+    const [{ due_at: dueAt }] = (await db.query<{ due_at: Date }>(`select now() + interval '7 days' + interval '6 seconds' as due_at`)).rows;
     await post(tech, '/work-orders', { machineId: torch, title: 'Grease the clamp rail', dueAt: dueAt.toISOString() }).expect(201);
     const state = async () =>
       (await list(tech, '?status=active&pageSize=100')).body.rows.find((w: { title: string }) => w.title === 'Grease the clamp rail').dueState as string;
