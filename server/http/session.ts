@@ -1,7 +1,8 @@
 import session from 'express-session';
 import connectPgSimple from 'connect-pg-simple';
 import pg from 'pg';
-import { createHmac, randomBytes, timingSafeEqual } from 'node:crypto';
+import { randomBytes, timingSafeEqual } from 'node:crypto';
+import { sign } from 'cookie-signature';
 import type { Request, RequestHandler } from 'express';
 import type { Config } from '../config';
 import { csrfInvalid } from './errors';
@@ -146,8 +147,8 @@ export class ThrottledPgStore extends PgStore {
 
 /**
  * The session cookie again, with the expiry express-session has just moved to a full idle period
- * from now: the value express-session would set (`s:` + the id signed as cookie-signature signs it,
- * HMAC-SHA256 in unpadded base64) and the session's own cookie attributes. A Secure cookie is
+ * from now: the value express-session would set (`s:` + the id signed by cookie-signature, the
+ * package express-session signs with) and the session's own cookie attributes. A Secure cookie is
  * not sent over plain HTTP, as express-session does not.
  */
 function cookieRenewer(secret: string): (sess: session.Session) => void {
@@ -158,8 +159,7 @@ function cookieRenewer(secret: string): (sess: session.Session) => void {
     if (!req || !res || res.headersSent) return;
     const c = sess.cookie;
     if (c.secure && !req.secure) return;
-    const mac = createHmac('sha256', secret).update(req.sessionID).digest('base64').replace(/=+$/, '');
-    res.cookie(SESSION_COOKIE, `s:${req.sessionID}.${mac}`, {
+    res.cookie(SESSION_COOKIE, `s:${sign(req.sessionID, secret)}`, {
       path: c.path,
       domain: c.domain,
       expires: c.expires ?? undefined,
