@@ -78,7 +78,7 @@ export async function renderFeed(em: EntityManager, token: string, appUrl: strin
   const plans: PlanRow[] = await em.execute(
     `select p.id, p.title, p.next_due_at, p.status, p.estimated_minutes, m.code, m.name
        from maintenance_plan p join machine m on m.id = p.machine_id
-      where p.organization_id = ? and p.active and p.next_due_at is not null and p.next_due_at < now() + interval '${HORIZON_DAYS} days'
+      where p.organization_id = ? and p.active and p.next_due_at is not null and p.next_due_at < now() + interval '${HORIZON_DAYS * 24} hours'
         and (p.responsible_user_id = ? or (p.responsible_user_id is null and p.responsible_role = ?))
         and not exists (select 1 from work_order w where w.plan_id = p.id and w.status in ('open', 'in-progress', 'on-hold'))
       order by p.next_due_at limit 500`,

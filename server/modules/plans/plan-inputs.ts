@@ -110,10 +110,10 @@ export async function loadMeterSeries(em: EntityManager, meterIds: string[], now
        cross join lateral (select max(read_at) as latest from meter_reading r where r.meter_id = m.id and r.read_at <= ?) l
        cross join lateral (
          select id, value, read_at, is_reset, created_at from meter_reading r
-          where r.meter_id = m.id and r.read_at <= l.latest and r.read_at >= l.latest - interval '${FORECAST_WINDOW_DAYS} days'
+          where r.meter_id = m.id and r.read_at <= l.latest and r.read_at >= l.latest - interval '${FORECAST_WINDOW_DAYS * 24} hours'
          union
          (select id, value, read_at, is_reset, created_at from meter_reading r
-           where r.meter_id = m.id and r.read_at <= l.latest - interval '${MIN_FORECAST_SPAN_DAYS} days'
+           where r.meter_id = m.id and r.read_at <= l.latest - interval '${MIN_FORECAST_SPAN_DAYS * 24} hours'
            order by read_at desc, created_at desc limit 1)
        ) x
       order by m.id, x.read_at desc, x.created_at desc`,

@@ -29,7 +29,7 @@ const dueStateSql = `case when w.status in ('done', 'cancelled') then 'closed'
   when w.overdue then 'overdue'
   when w.due_at is null then 'none'
   when w.due_at <= now() then 'due'
-  when w.due_at <= now() + interval '${SOON_DAYS} days' then 'due-soon'
+  when w.due_at <= now() + interval '${SOON_DAYS * 24} hours' then 'due-soon'
   else 'later' end`;
 
 export function dueStateOf(wo: Pick<IWorkOrder, 'status' | 'overdue' | 'dueAt'>, now = clock.now()): DueFilter | 'closed' {
@@ -158,7 +158,7 @@ export async function nextDueStateChangeInMs(em: EntityManager, orgId: string): 
   const [row] = await executePrepared<{ in_ms: number | null }>(
     em,
     `select (extract(epoch from min(v.t) - now()) * 1000)::float8 as in_ms
-       from work_order w cross join lateral (values (w.due_at), (w.due_at - interval '${SOON_DAYS} days')) v(t)
+       from work_order w cross join lateral (values (w.due_at), (w.due_at - interval '${SOON_DAYS * 24} hours')) v(t)
       where w.organization_id = ? and w.status not in ('done', 'cancelled') and not w.overdue and w.due_at is not null and v.t > now()`,
     [orgId],
   );
