@@ -39,7 +39,9 @@ if (only && targets.length !== only.length)
 function startServer(mode: 'app' | 'bare'): Promise<{ child: ChildProcess; base: string }> {
   // BENCH_CPU_PROF=<dir> writes a V8 CPU profile of the app process there (read it with bench/cpu-profile-summary.ts).
   const profile = mode === 'app' && process.env.BENCH_CPU_PROF ? ['--cpu-prof', `--cpu-prof-dir=${process.env.BENCH_CPU_PROF}`] : [];
-  const child = spawn(process.execPath, [...profile, '--import', 'tsx', 'bench/api-server.ts', mode, url], { stdio: ['ignore', 'pipe', 'inherit'] });
+  // Both under the heap settings `npm start` gives the server (scripts/start.sh).
+  const heap = ['--max-old-space-size=416', '--max-semi-space-size=32'];
+  const child = spawn(process.execPath, [...heap, ...profile, '--import', 'tsx', 'bench/api-server.ts', mode, url], { stdio: ['ignore', 'pipe', 'inherit'] });
   return new Promise((resolve, reject) => {
     child.once('exit', (code) => reject(new Error(`${mode} server exited with ${code}`)));
     createInterface({ input: child.stdout! }).on('line', (line) => {
