@@ -9,7 +9,6 @@ import { mkdtemp, rm, stat } from 'node:fs/promises';
 import { createReadStream } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
-import { once } from 'node:events';
 import { pipeline } from 'node:stream/promises';
 import { performance } from 'node:perf_hooks';
 import { getHeapStatistics } from 'node:v8';
@@ -26,7 +25,9 @@ import { Meter } from '../server/modules/meters/meter.entity';
 import { importCounterCsv, previewCounterCsv } from '../server/modules/meters/counter-import.service';
 import type { Principal } from '../server/http/principal';
 import { shopLocale } from '../shared/locale';
-import { importKeySource } from '../shared/domain/counter-import';
+import { importKeySourceIso } from '../shared/domain/counter-import';
+import { readingLine } from '../server/modules/meters/counter-import-staging';
+import { Readable } from 'node:stream';
 import { batchIds } from '../server/modules/common/batch-ids';
 import { createInterface } from 'node:readline';
 import { hash } from 'node:crypto';
@@ -54,27 +55,39 @@ const resetPeaks = () => {
 
 type BenchMeter = { machine: string; code: string; kind: 'count' | 'running-time' };
 
-/** Writes `rows` readings spread over the meters, 5 minutes apart, ending yesterday; streamed to disk. */
-async function writeCsv(path: string, rows: number, meters: BenchMeter[]) {
-  const out = createWriteStream(path);
-  const perMeter = Math.ceil(rows / meters.length);
-  const step = 5 * 60_000;
-  const start = Math.floor((Date.now() - 86_400_000 - perMeter * step) / 60_000) * 60_000;
-  let n = 0;
-  let text = 'machine_code,meter_code,read_at,value,reset\n';
-  for (const m of meters) {
-    let value = 0;
-    for (let i = 0; i < perMeter && n < rows; i++, n++) {
-      value += m.kind === 'count' ? 7 + (i % 5) : 0.25;
-      text += `${m.machine},${m.code},${new Date(start + i * step).toISOString()},${m.kind === 'count' ? value : value.toFixed(2)},no\n`;
+/** Writes `lines` to `path` with the stream's back-pressure, a chunk of lines at a time. */
+async function writeLines(path: string, lines: AsyncIterable<string> | Iterable<string>) {
+  async function* chunks() {
+    let text = '';
+    for await (const line of lines) {
+      text += line;
       if (text.length > 1 << 16) {
-        if (!out.write(text)) await once(out, 'drain');
+        yield text;
         text = '';
       }
     }
+    if (text) yield text;
   }
-  out.end(text);
-  await once(out, 'finish');
+  await pipeline(Readable.from(chunks(), { objectMode: false }), createWriteStream(path));
+}
+
+/** Writes `rows` readings spread over the meters, 5 minutes apart, ending yesterday; streamed to disk. */
+async function writeCsv(path: string, rows: number, meters: BenchMeter[]) {
+  const perMeter = Math.ceil(rows / meters.length);
+  const step = 5 * 60_000;
+  const start = Math.floor((Date.now() - 86_400_000 - perMeter * step) / 60_000) * 60_000;
+  function* csvLines() {
+    yield 'machine_code,meter_code,read_at,value,reset\n';
+    let n = 0;
+    for (const m of meters) {
+      let value = 0;
+      for (let i = 0; i < perMeter && n < rows; i++, n++) {
+        value += m.kind === 'count' ? 7 + (i % 5) : 0.25;
+        yield `${m.machine},${m.code},${new Date(start + i * step).toISOString()},${m.kind === 'count' ? value : value.toFixed(2)},no\n`;
+      }
+    }
+  }
+  await writeLines(path, csvLines());
 }
 
 /** COPY of the file as it stands into a table without keys or indexes: the rate to compare with. */
@@ -101,24 +114,19 @@ async function bareCopy(path: string): Promise<number> {
  */
 async function writeStoredRows(csv: string, out: string, meterIds: Map<string, string>, orgId: string, userId: string) {
   const ids = batchIds(new Date());
-  const sink = createWriteStream(out);
   const now = new Date().toISOString();
-  let text = '';
-  let n = 0;
-  for await (const line of createInterface({ input: createReadStream(csv) })) {
-    if (n++ === 0) continue;
-    const [machine, code, at, value, reset] = line.split(',');
-    const meterId = meterIds.get(`${machine}|${code}`)!;
-    const readAt = new Date(at);
-    const key = hash('sha256', importKeySource(meterId, readAt, Number(value), reset === 'yes'), 'hex');
-    text += `${ids(n)}\t${now}\t${now}\t${orgId}\t${meterId}\t${value}\t${at}\timport\t${reset === 'yes' ? 't' : 'f'}\t\\N\t${userId}\t\\\\x${key}\n`;
-    if (text.length > 1 << 16) {
-      if (!sink.write(text)) await once(sink, 'drain');
-      text = '';
+  async function* storedLines() {
+    let n = 0;
+    for await (const line of createInterface({ input: createReadStream(csv) })) {
+      if (n++ === 0) continue;
+      const [machine, code, at, text, resetText] = line.split(',');
+      const meterId = meterIds.get(`${machine}|${code}`)!;
+      const [value, reset] = [Number(text), resetText === 'yes'];
+      const key = hash('sha256', importKeySourceIso(meterId, at, value, reset), 'hex');
+      yield readingLine(ids(n), now, orgId, meterId, at, value, reset, userId, key);
     }
   }
-  sink.end(text);
-  await once(sink, 'finish');
+  await writeLines(out, storedLines());
 }
 
 /** COPY of the stored rows into meter_reading, rolled back: what writing the rows alone costs. */
