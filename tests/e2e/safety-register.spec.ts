@@ -20,7 +20,11 @@ test('the safety officer finds every lock by number and the attempts the product
   expect(total).toBeGreaterThan(0);
   // The demo shop's locks are all numbered; a search narrows the list to one of them.
   const firstLock = (await table.getByRole('row').nth(1).getByRole('cell').first().innerText()).trim();
+  // The search goes out once typing pauses: wait for its answer, or the unfiltered first row (the
+  // same lock) would pass for the result and be re-drawn under the next step.
+  const searched = page.waitForResponse((r) => new URL(r.url()).searchParams.get('q') === firstLock.toLowerCase());
   await page.getByLabel('Lock number or holder').fill(firstLock.toLowerCase());
+  await searched;
   await expect(table.getByRole('row').nth(1).getByRole('cell').first()).toHaveText(firstLock);
   await table
     .getByRole('row')
